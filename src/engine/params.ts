@@ -1,0 +1,104 @@
+/**
+ * The fully resolved parameters of one grid point: everything the engine needs to run
+ * trials, with every default already filled in and every range already expanded.
+ *
+ * The service's spec layer (src/spec) validates user input with zod and produces these;
+ * the engine trusts them apart from the cheap invariant checks in `checkPointParams`.
+ */
+
+/** How pattern entries are written down. `pm1`: ±1 neurons; `binary`: 0/1 neurons. */
+export type Coding = 'pm1' | 'binary'
+
+export type PatternFamily =
+  /** Independent entries, each active (+1 or 1) with probability `activity`; 0.5 is unbiased. */
+  | { kind: 'random', activity: number }
+  /**
+   * Hierarchically correlated patterns: `parents` random parent patterns; each stored pattern
+   * copies parent (μ mod parents) and re-draws each entry with probability 1 − `parentOverlap`,
+   * so the expected overlap of a child with its parent is `parentOverlap` (unbiased entries).
+   */
+  | { kind: 'correlated', parents: number, parentOverlap: number }
+  /** Patterns given by the user: `data[μ][i]` in the chosen coding. */
+  | { kind: 'supplied', data: number[][] }
+
+export type LearningRule =
+  /** J_ij = (1/N) Σ_μ ξ_i^μ ξ_j^μ (Hopfield 1982). */
+  | { kind: 'hebbian', selfCoupling: boolean }
+  /** J = (1/N) Ξᵀ C⁻¹ Ξ with C_μν = ξ^μ·ξ^ν / N (Personnaz, Guyon & Dreyfus 1985). */
+  | { kind: 'pseudo-inverse', selfCoupling: boolean }
+  /** Storkey (1997) incremental rule; self-coupling removed after learning unless kept. */
+  | { kind: 'storkey', selfCoupling: boolean }
+  /**
+   * Covariance rule for biased patterns with activity a (Tsodyks & Feigel'man 1988):
+   * J_ij = (1/N) Σ_μ (η_i^μ − a)(η_j^μ − a) on 0/1 variables η, with a uniform firing
+   * threshold θ (in units of the field). `threshold: null` means the default θ = (½ − a)·a(1−a)... see rules/covariance.ts.
+   */
+  | { kind: 'covariance', selfCoupling: boolean, threshold: number | null }
+
+export interface Dilution {
+  /** Fraction of couplings kept, in (0, 1]. */
+  keep: number
+  /** Symmetric dilution keeps or cuts J_ij and J_ji together; asymmetric decides each independently. */
+  symmetric: boolean
+}
+
+export type Cue =
+  /** The target with exactly round(fraction·N) distinct bits flipped. */
+  | { kind: 'flip', fraction: number }
+  /** The target with exactly round(fraction·N) distinct bits erased: set to 0 (neutral) or to fresh random values. */
+  | { kind: 'erase', fraction: number, fill: 'zero' | 'random' }
+  /** A uniformly random state, unrelated to any pattern. */
+  | { kind: 'random' }
+  /** sign(ξ^t + ξ^{t+1} + … ) over `components` consecutive stored patterns starting at the target (ties → +1). */
+  | { kind: 'mixture', components: number }
+
+export type UpdateScheme =
+  /** One neuron at a time, a fresh uniformly random permutation each sweep. */
+  | 'async-random'
+  /** One neuron at a time, in index order 0..N−1 every sweep. */
+  | 'async-sequential'
+  /** All neurons at once from the previous state (Little dynamics). */
+  | 'sync'
+
+export interface Dynamics {
+  update: UpdateScheme
+  /**
+   * Temperature T ≥ 0. T = 0: s_i ← sign(h_i), a zero field keeps s_i (the tie rule).
+   * T > 0: Glauber, P(s_i = +1) = 1 / (1 + exp(−2 h_i / T)), so T_c = 1 at vanishing load.
+   */
+  temperature: number
+  /** Upper bound on sweeps (synchronous: steps). */
+  maxSweeps: number
+  /** T > 0 only: sweeps discarded before time averages start. */
+  burnIn: number
+}
+
+export interface Measures {
+  /** Record the target overlap after every sweep. */
+  overlapTrajectory: boolean
+  /** Record the energy per neuron after every sweep. */
+  energyTrajectory: boolean
+  /** One-step stability of every stored pattern of the trial's network (costs O(N·P·P) per network). */
+  stability: boolean
+}
+
+export interface PointParams {
+  /** N, the number of neurons. */
+  neurons: number
+  /** P, the number of stored patterns. */
+  patterns: number
+  coding: Coding
+  family: PatternFamily
+  rule: LearningRule
+  dilution: Dilution | null
+  cue: Cue
+  dynamics: Dynamics
+  measures: Measures
+  /** A trial succeeds when its final target overlap is at least this. */
+  successThreshold: number
+  /**
+   * Consecutive trials that share one network (pattern set and couplings). 1 draws a new
+   * pattern set for every trial; larger values amortise expensive rules (pseudo-inverse, Storkey).
+   */
+  trialsPerNetwork: number
+}
