@@ -26,3 +26,6 @@ export function streamKey (masterSeed: number | bigint, domain: StreamDomain, po
 export function openStream (masterSeed: number | bigint, domain: StreamDomain, point: number, index: number): Xoshiro256StarStar {
   return Xoshiro256StarStar.fromSeed(streamKey(masterSeed, domain, point, index))
 }
+
+/** Generator and seeding recorded in provenance. */
+export const RNG_ALGORITHM = 'xoshiro256**-1.0; per-stream keys by SplitMix64 mixing of (seed, domain, point, index)'

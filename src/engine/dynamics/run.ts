@@ -1,0 +1,147 @@
+import type { Dynamics } from '../params.js'
+import type { Ending } from '../results.js'
+import type { RandomSource } from '../random/source.js'
+import type { Network } from '../network/network.js'
+import { resetIdentity, type Scratch } from './scratch.js'
+
+export interface DynamicsOutcome {
+  sweeps: number
+  ending: Ending
+  /** T > 0: mean normalised target overlap over the sweeps after burn-in; else NaN. */
+  timeAveragedOverlap: number
+  overlapTrajectory: number[] | null
+  energyTrajectory: number[] | null
+}
+
+export interface Observation {
+  /** Normalised overlap of the current state with the target. */
+  targetOverlap: () => number
+  recordOverlap: boolean
+  recordEnergy: boolean
+}
+
+/**
+ * Runs the dynamics from the state already loaded in `net`.
+ *
+ * Zero temperature: s_i ← sign(h_i); **tie rule: h_i = 0 leaves s_i unchanged** (decided on
+ * exact integer fields for Hebbian couplings). Asynchronous dynamics stop after the first
+ * sweep with no change (`fixed`); synchronous ones at a fixed point or a 2-cycle. Either
+ * stops at `maxSweeps` (`max`).
+ * T > 0: Glauber, P(s_i = +1) = 1/(1 + e^{−2h_i/T}); runs `maxSweeps` sweeps and averages
+ * the target overlap over those after `burnIn` (`sampled`).
+ */
+export function runDynamics (net: Network, dynamics: Dynamics, rng: RandomSource, scratch: Scratch, observe: Observation): DynamicsOutcome {
+  const overlapTrajectory = observe.recordOverlap ? [] as number[] : null
+  const energyTrajectory = observe.recordEnergy ? [] as number[] : null
+  const record = (): void => {
+    overlapTrajectory?.push(observe.targetOverlap())
+    energyTrajectory?.push(net.energyPerNeuron())
+  }
+  const thermal = dynamics.temperature > 0
+  let sampledSum = 0
+  let sampledCount = 0
+  let ending: Ending = thermal ? 'sampled' : 'max'
+  let sweeps = 0
+  const order = scratch.order
+  resetIdentity(order)
+
+  for (let sweep = 1; sweep <= dynamics.maxSweeps; sweep++) {
+    sweeps = sweep
+    let outcome: 'changed' | 'fixed' | 'cycle2'
+    if (dynamics.update === 'sync') {
+      outcome = thermal ? syncGlauberStep(net, dynamics.temperature, rng, scratch) : syncStep(net, scratch, sweep)
+    } else {
+      if (dynamics.update === 'async-random') shuffle(order, rng)
+      outcome = thermal ? asyncGlauberSweep(net, order, dynamics.temperature, rng) : asyncSweep(net, order)
+    }
+    record()
+    if (thermal) {
+      if (sweep > dynamics.burnIn) {
+        sampledSum += observe.targetOverlap()
+        sampledCount++
+      }
+    } else if (outcome !== 'changed') {
+      ending = outcome
+      break
+    }
+  }
+  return {
+    sweeps,
+    ending,
+    timeAveragedOverlap: sampledCount > 0 ? sampledSum / sampledCount : Number.NaN,
+    overlapTrajectory,
+    energyTrajectory
+  }
+}
+
+/** In-place Fisher–Yates, i = N−1 down to 1, j = below(i + 1). */
+function shuffle (order: Int32Array, rng: RandomSource): void {
+  for (let i = order.length - 1; i > 0; i--) {
+    const j = rng.below(i + 1)
+    const t = order[i]!
+    order[i] = order[j]!
+    order[j] = t
+  }
+}
+
+function asyncSweep (net: Network, order: Int32Array): 'changed' | 'fixed' {
+  const s = net.state
+  let changed = false
+  for (let k = 0; k < order.length; k++) {
+    const i = order[k]!
+    const h = net.field(i)
+    const si = s[i]!
+    if (h > 0 ? si !== 1 : (h < 0 && si !== -1)) {
+      net.set(i, h > 0 ? 1 : -1)
+      changed = true
+    }
+  }
+  return changed ? 'changed' : 'fixed'
+}
+
+function asyncGlauberSweep (net: Network, order: Int32Array, temperature: number, rng: RandomSource): 'changed' {
+  const s = net.state
+  const factor = -2 * net.fieldScale / temperature
+  for (let k = 0; k < order.length; k++) {
+    const i = order[k]!
+    const up = rng.uniform() * (1 + Math.exp(factor * net.field(i))) < 1
+    const v = up ? 1 : -1
+    if (s[i] !== v) net.set(i, v)
+  }
+  return 'changed'
+}
+
+/** One parallel step s(t) = sign(h(s(t−1))); detects s(t) = s(t−1) and s(t) = s(t−2). */
+function syncStep (net: Network, scratch: Scratch, step: number): 'changed' | 'fixed' | 'cycle2' {
+  const n = net.neurons
+  const s = net.state
+  const next = scratch.next
+  let sameAsNow = true
+  for (let i = 0; i < n; i++) {
+    const h = net.field(i)
+    const v = h > 0 ? 1 : h < 0 ? -1 : s[i]!
+    next[i] = v
+    if (v !== s[i]) sameAsNow = false
+  }
+  if (sameAsNow) return 'fixed'
+  let sameAsBefore = step >= 2
+  if (sameAsBefore) {
+    for (let i = 0; i < n; i++) {
+      if (next[i] !== scratch.previous[i]) { sameAsBefore = false; break }
+    }
+  }
+  scratch.previous.set(s)
+  net.load(next)
+  return sameAsBefore ? 'cycle2' : 'changed'
+}
+
+function syncGlauberStep (net: Network, temperature: number, rng: RandomSource, scratch: Scratch): 'changed' {
+  const n = net.neurons
+  const next = scratch.next
+  const factor = -2 * net.fieldScale / temperature
+  for (let i = 0; i < n; i++) {
+    next[i] = rng.uniform() * (1 + Math.exp(factor * net.field(i))) < 1 ? 1 : -1
+  }
+  net.load(next)
+  return 'changed'
+}

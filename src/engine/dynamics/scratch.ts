@@ -1,0 +1,28 @@
+/** Buffers reused across the trials of one grid point, so the hot loops allocate nothing. */
+export interface Scratch {
+  /** Visiting order, kept across the sweeps of a trial (reshuffled in place before each sweep). */
+  order: Int32Array
+  /** Index buffer for choosing cue bits. */
+  indices: Int32Array
+  initial: Int8Array
+  next: Int8Array
+  previous: Int8Array
+  fields: Float64Array
+  overlaps: Float64Array
+}
+
+export function createScratch (neurons: number, patterns: number): Scratch {
+  return {
+    order: new Int32Array(neurons),
+    indices: new Int32Array(neurons),
+    initial: new Int8Array(neurons),
+    next: new Int8Array(neurons),
+    previous: new Int8Array(neurons),
+    fields: new Float64Array(neurons),
+    overlaps: new Float64Array(patterns)
+  }
+}
+
+export function resetIdentity (a: Int32Array): void {
+  for (let i = 0; i < a.length; i++) a[i] = i
+}

@@ -1,0 +1,81 @@
+import type { Network } from './network/network.js'
+import type { EndState, StabilityRecord } from './results.js'
+
+/** Overlap level above which a state counts as a stored pattern (or its reverse). */
+export const PATTERN_LEVEL = 0.9
+
+/** Overlap level for a pattern to count as a component of a mixture: max(0.15, 4/√N), well above random-pattern noise 1/√N. */
+export function mixtureLevel (neurons: number): number {
+  return Math.max(0.15, 4 / Math.sqrt(neurons))
+}
+
+/** Normalised overlaps (ξ^μ − b)·s / (N(1 − b²)) of the current state with every stored pattern, into out. */
+export function normalisedOverlaps (net: Network, centre: number, out: Float64Array): void {
+  net.rawOverlaps(out)
+  const n = net.neurons
+  let total = 0
+  if (centre !== 0) for (let i = 0; i < n; i++) total += net.state[i]!
+  const norm = n * (1 - centre * centre)
+  for (let mu = 0; mu < net.patternCount; mu++) out[mu] = (out[mu]! - centre * total) / norm
+}
+
+export function targetOverlapOf (net: Network, target: number, centre: number): number {
+  const n = net.neurons
+  const base = target * n
+  let raw = 0
+  let total = 0
+  for (let i = 0; i < n; i++) {
+    raw += net.patterns[base + i]! * net.state[i]!
+    total += net.state[i]!
+  }
+  return (raw - centre * total) / (n * (1 - centre * centre))
+}
+
+export function classifyEndState (overlaps: Float64Array, count: number, target: number, neurons: number): EndState {
+  const m = overlaps[target]!
+  if (m >= PATTERN_LEVEL) return 'target'
+  if (m <= -PATTERN_LEVEL) return 'reversed'
+  const level = mixtureLevel(neurons)
+  let strong = 0
+  for (let mu = 0; mu < count; mu++) {
+    const a = Math.abs(overlaps[mu]!)
+    if (mu !== target && a >= PATTERN_LEVEL) return 'other-pattern'
+    if (a >= level) strong++
+  }
+  return strong >= 2 ? 'mixture' : 'other'
+}
+
+export function maxOtherOverlap (overlaps: Float64Array, count: number, target: number): number {
+  let best = 0
+  for (let mu = 0; mu < count; mu++) {
+    if (mu !== target && Math.abs(overlaps[mu]!) > best) best = Math.abs(overlaps[mu]!)
+  }
+  return best
+}
+
+/**
+ * One-step stability of every stored pattern: put the network on ξ^μ and count neurons
+ * with ξ_i h_i < 0 (would flip) and h_i = 0 (kept by the tie rule). The signal-to-noise
+ * theory predicts the first fraction (Hertz, Krogh & Palmer 1991, ch. 2).
+ */
+export function measureStability (net: Network, buffer: Int8Array): StabilityRecord {
+  const n = net.neurons
+  const p = net.patternCount
+  let unstable = 0
+  let ties = 0
+  let fixed = 0
+  for (let mu = 0; mu < p; mu++) {
+    for (let i = 0; i < n; i++) buffer[i] = net.patterns[mu * n + i]!
+    net.load(buffer)
+    let flips = 0
+    for (let i = 0; i < n; i++) {
+      const aligned = buffer[i]! * net.field(i)
+      if (aligned < 0) flips++
+      else if (aligned === 0) ties++
+    }
+    unstable += flips
+    if (flips === 0) fixed++
+  }
+  const bits = n * p
+  return { unstableFraction: unstable / bits, tieFraction: ties / bits, fixedPatternFraction: fixed / p }
+}

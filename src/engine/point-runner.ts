@@ -1,0 +1,52 @@
+import type { PointParams } from './params.js'
+import type { TrialRecord } from './results.js'
+import type { Network } from './network/network.js'
+import { openStream, RNG_ALGORITHM } from './random/streams.js'
+import { buildNetwork, chooseRepresentation } from './network/build.js'
+import { createScratch } from './dynamics/scratch.js'
+import { runTrialOn } from './trial.js'
+import { measureStability } from './measures.js'
+import { checkPointParams } from './check.js'
+
+export interface PointRunner {
+  /** Runs trial `trial` (0-based within the point); the same (seed, point, trial) always gives the same record. */
+  runTrial (trial: number): TrialRecord
+  /** The representation the point runs on, for provenance. */
+  readonly representation: Network['representation']
+  readonly algorithm: string
+}
+
+/**
+ * Runs the trials of one grid point. Trial t uses network ⌊t / trialsPerNetwork⌋, built
+ * from the stream (seed, 'network', point, network), and draws its cue and dynamics from
+ * (seed, 'trial', point, t); its target is pattern t mod P. Nothing depends on which
+ * other trials ran before, so any subset of trials re-runs identically.
+ */
+export function createPointRunner (p: PointParams, masterSeed: number, pointIndex: number): PointRunner {
+  checkPointParams(p)
+  const scratch = createScratch(p.neurons, p.patterns)
+  let cachedIndex = -1
+  let cached: Network | null = null
+  const networkFor = (index: number): Network => {
+    if (cached === null || cachedIndex !== index) {
+      const rng = openStream(masterSeed, 'network', pointIndex, index)
+      cached = buildNetwork(p, rng)
+      cachedIndex = index
+    }
+    return cached
+  }
+  return {
+    representation: chooseRepresentation(p),
+    algorithm: RNG_ALGORITHM,
+    runTrial (trial: number): TrialRecord {
+      const networkIndex = Math.floor(trial / p.trialsPerNetwork)
+      const net = networkFor(networkIndex)
+      const rng = openStream(masterSeed, 'trial', pointIndex, trial)
+      const record = runTrialOn(net, p, trial, trial % p.patterns, rng, scratch)
+      if (p.measures.stability && trial % p.trialsPerNetwork === 0) {
+        record.stability = measureStability(net, scratch.next)
+      }
+      return record
+    }
+  }
+}
