@@ -20,8 +20,8 @@ export class OverlapSpaceNetwork implements Network {
   readonly fieldScale: number
   readonly state: Int8Array
   readonly bytes: number
-  private readonly byNeuron: Int8Array
-  private readonly overlaps: Int32Array
+  private readonly byNeuron: Float64Array
+  private readonly overlaps: Float64Array
   private readonly selfTerm: number
 
   constructor (patterns: Int8Array, neurons: number, patternCount: number, selfCoupling: boolean) {
@@ -30,16 +30,17 @@ export class OverlapSpaceNetwork implements Network {
     this.patterns = patterns
     this.fieldScale = 1 / neurons
     this.selfTerm = selfCoupling ? 0 : patternCount
-    this.byNeuron = new Int8Array(neurons * patternCount)
+    this.byNeuron = new Float64Array(neurons * patternCount)
     for (let mu = 0; mu < patternCount; mu++) {
       for (let i = 0; i < neurons; i++) this.byNeuron[i * patternCount + mu] = patterns[mu * neurons + i]!
     }
-    this.overlaps = new Int32Array(patternCount)
+    this.overlaps = new Float64Array(patternCount)
     this.state = new Int8Array(neurons)
-    this.bytes = 2 * neurons * patternCount + 4 * patternCount + neurons
+    this.bytes = 9 * neurons * patternCount + 8 * patternCount + neurons
   }
 
   load (state: Int8Array): void {
+    if (this.loadChanges(state)) return
     this.state.set(state)
     const p = this.patternCount
     const n = this.neurons
@@ -58,9 +59,39 @@ export class OverlapSpaceNetwork implements Network {
     const xi = this.byNeuron
     const m = this.overlaps
     const base = i * p
-    let h = 0
-    for (let mu = 0; mu < p; mu++) h += xi[base + mu]! * m[mu]!
-    return h - this.selfTerm * this.state[i]!
+    // Four independent sums break the add-latency chain (V8 does not vectorise); every
+    // term is a small integer, so the regrouping is exact.
+    let h0 = 0
+    let h1 = 0
+    let h2 = 0
+    let h3 = 0
+    let mu = 0
+    for (; mu + 3 < p; mu += 4) {
+      const o = base + mu
+      h0 += xi[o]! * m[mu]!
+      h1 += xi[o + 1]! * m[mu + 1]!
+      h2 += xi[o + 2]! * m[mu + 2]!
+      h3 += xi[o + 3]! * m[mu + 3]!
+    }
+    for (; mu < p; mu++) h0 += xi[base + mu]! * m[mu]!
+    return (h0 + h1) + (h2 + h3) - this.selfTerm * this.state[i]!
+  }
+
+  /**
+   * When the new state differs from the current one in few neurons (synchronous steps
+   * near a fixed point), update the overlaps from the differences: O(changes·P), not O(N·P).
+   */
+  private loadChanges (state: Int8Array): boolean {
+    const n = this.neurons
+    let changes = 0
+    const limit = n >> 3
+    for (let i = 0; i < n; i++) {
+      if (state[i] !== this.state[i] && ++changes > limit) return false
+    }
+    for (let i = 0; i < n; i++) {
+      if (state[i] !== this.state[i]) this.set(i, state[i]!)
+    }
+    return true
   }
 
   set (i: number, v: number): void {
