@@ -1,0 +1,81 @@
+/**
+ * Bearer-token authentication (@fastify/bearer-auth, RFC 6750 header parsing) that puts the
+ * caller's `Principal` on every request. Without a token table every caller is the single,
+ * unnamed owner with full rights. Routes marked `config: { public: true }` (health and
+ * readiness) never need a token.
+ * @see https://github.com/fastify/fastify-bearer-auth
+ */
+import fastifyBearerAuth from '@fastify/bearer-auth'
+import type { FastifyInstance, FastifyRequest } from 'fastify'
+import fp from 'fastify-plugin'
+import { ServiceError } from '../../errors.js'
+import type { Principal, Role, TokenTable } from '../tokens.js'
+
+declare module 'fastify' {
+  interface FastifyRequest {
+    principal: Principal
+  }
+  interface FastifyContextConfig {
+    /** Reachable without a token even when tokens are configured. */
+    public?: boolean
+  }
+}
+
+const SINGLE_USER: Principal = Object.freeze({ owner: null, role: 'admin' })
+const ANONYMOUS: Principal = Object.freeze({ owner: null, role: 'read' })
+
+export interface AuthOptions {
+  tokens: TokenTable | null
+}
+
+async function auth (app: FastifyInstance, options: AuthOptions): Promise<void> {
+  const tokens = options.tokens
+  app.decorateRequest('principal', null as unknown as Principal)
+  if (tokens === null) {
+    app.addHook('onRequest', async (request) => { request.principal = SINGLE_USER })
+    return
+  }
+  await app.register(fastifyBearerAuth, {
+    keys: [],
+    addHook: false,
+    verifyErrorLogLevel: 'info',
+    auth (key: string, request: FastifyRequest): boolean {
+      const principal = tokens.lookup(key)
+      if (principal === null) return false
+      request.principal = principal
+      return true
+    }
+  })
+  const verify = app.verifyBearerAuth
+  if (verify === undefined) throw new Error('@fastify/bearer-auth did not decorate verifyBearerAuth')
+  app.addHook('onRequest', (request, reply, done) => {
+    request.principal = ANONYMOUS
+    if (request.routeOptions.config.public === true) { done(); return }
+    verify(request, reply, (error) => {
+      if (error === undefined) { done(); return }
+      done(new ServiceError('MEMSWEEP_UNAUTHENTICATED', {
+        reason: request.headers.authorization === undefined ? 'no Authorization header' : 'the token is not known'
+      }, { headers: { 'www-authenticate': 'Bearer realm="memsweep"' } }))
+    })
+  })
+}
+
+export const authPlugin = fp(auth, { name: 'memsweep-auth', fastify: '5.x' })
+
+/** Actions a role may take, checked by the routes that change state. */
+const ALLOWED: Record<Role, ReadonlySet<'submit' | 'cancel'>> = {
+  submit: new Set(['submit', 'cancel']),
+  read: new Set(),
+  admin: new Set(['submit', 'cancel'])
+}
+
+export function requireAction (principal: Principal, action: 'submit' | 'cancel'): void {
+  if (!ALLOWED[principal.role].has(action)) {
+    throw new ServiceError('MEMSWEEP_FORBIDDEN', { owner: principal.owner ?? 'anonymous', role: principal.role, action: `${action} sweeps` })
+  }
+}
+
+/** Whether the caller may see a sweep: its owner, or an admin. Others get 404, never 403, so ids leak nothing. */
+export function canSee (principal: Principal, sweepOwner: string | null): boolean {
+  return principal.role === 'admin' || principal.owner === sweepOwner
+}

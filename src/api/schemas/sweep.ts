@@ -1,0 +1,56 @@
+/** Public shapes of sweeps as the API shows them: status, progress, lists. */
+import { z } from 'zod'
+import { SWEEP_STATUSES } from '../../backends/port.js'
+
+export const sweepStatusEnum = z.enum(SWEEP_STATUSES).meta({
+  id: 'SweepStatusName',
+  description: 'queued: waiting for a worker; running: trials are being computed; succeeded: results are ready; failed: stopped by an error (see `error.kind`); canceled: stopped on request.'
+})
+
+export const sweepIdSchema = z.string().min(1).max(128).regex(/^[A-Za-z0-9_-]+$/, 'sweep ids are letters, digits, - and _')
+  .describe('Sweep id, as returned by POST /v1/sweeps.')
+
+export const progressSchema = z.object({
+  pointsDone: z.number().int().nonnegative().describe('Grid points whose every trial is done.'),
+  pointsTotal: z.number().int().nonnegative(),
+  trialsDone: z.number().int().nonnegative(),
+  trialsTotal: z.number().int().nonnegative(),
+  chunksDone: z.number().int().nonnegative(),
+  chunksTotal: z.number().int().nonnegative(),
+  fraction: z.number().min(0).max(1).describe('trialsDone / trialsTotal.'),
+  elapsedSeconds: z.number().nonnegative().nullable().describe('Seconds since the sweep started running (until it finished); null while queued.'),
+  estimatedSecondsLeft: z.number().nonnegative().nullable().describe('Rough estimate from the rate so far while running; 0 once finished; null when not yet known.')
+}).meta({ id: 'SweepProgress' })
+
+export const failureSchema = z.object({
+  kind: z.enum(['user', 'system']).describe('user: the spec cannot be computed as given (change it); system: the infrastructure failed (retrying may help).'),
+  message: z.string()
+}).meta({ id: 'SweepFailure' })
+
+export const sweepLinksSchema = z.object({
+  self: z.string(),
+  events: z.string(),
+  results: z.string()
+})
+
+export const sweepStatusSchema = z.object({
+  id: z.string(),
+  status: sweepStatusEnum,
+  label: z.string().nullable(),
+  owner: z.string().nullable().describe('Owner of the token that submitted the sweep; null on a server without tokens.'),
+  specHash: z.string().describe('sha256 of the canonical normalised spec: identical work has an identical hash.'),
+  createdAt: z.string().describe('ISO 8601 time of submission.'),
+  startedAt: z.string().nullable(),
+  finishedAt: z.string().nullable(),
+  progress: progressSchema,
+  error: failureSchema.nullable().describe('Why the sweep failed; null unless status is failed.'),
+  reusedFrom: z.string().nullable().describe('Id of the earlier identical sweep whose results this one reuses, if any.'),
+  links: sweepLinksSchema
+}).meta({ id: 'SweepStatus' })
+
+export const sweepListSchema = z.object({
+  items: z.array(sweepStatusSchema),
+  nextCursor: z.string().nullable().describe('Pass as `cursor` for the next page; null on the last page. The same URL is in the Link header (rel="next").')
+}).meta({ id: 'SweepList' })
+
+export type SweepStatusBody = z.infer<typeof sweepStatusSchema>
