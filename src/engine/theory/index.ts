@@ -1,0 +1,12 @@
+/** Mean-field and exact finite-N theory for the quantities the engine simulates. */
+export { crosstalkErrorGaussian } from './crosstalk-error-gaussian.js'
+export { crosstalkErrorExact } from './crosstalk-error-exact.js'
+export type { SignProbabilities } from './binomial-walk.js'
+export { rsRetrievalOverlap } from './rs-retrieval-overlap.js'
+export { rsCriticalLoad, type CriticalLoad } from './rs-critical-load.js'
+export { curieWeissOverlap } from './curie-weiss-overlap.js'
+export { firstParallelStep } from './first-parallel-step.js'
+export { firstParallelStepExact, type ExactStepOptions } from './first-parallel-step-exact.js'
+export { spinGlassTemperature } from './spin-glass-temperature.js'
+export { mixtureOverlap } from './mixture-overlap.js'
+export { theoryForPoint, VANISHING_LOAD } from './theory-for-point.js'
