@@ -1,0 +1,126 @@
+/**
+ * Fan-in: chunk results → the sweep result. Trials are placed by their (point, trial)
+ * index, never by arrival, and every point is aggregated from its trials in trial order, so
+ * the result is the same whatever the chunking, worker count or completion order.
+ */
+import { aggregatePoint, ENGINE_VERSION, RNG_ALGORITHM, theoryForPoint, type PointSummary, type TrialRecord } from '../engine/index.js'
+import { canonicalJson, sortKeysDeep, specHash } from './canonical.js'
+import type { ChunkResult } from './chunks.js'
+import { IncompleteResultError } from './errors.js'
+import { countPoints, pointAt } from './grid.js'
+import type { NormalisedSpec } from './types.js'
+
+/** Where and how a result was computed. Timing is the caller's; everything else describes the code. */
+export interface Provenance {
+  specHash: string
+  engineVersion: string
+  /** Node.js version (process.version) of the assembling process. */
+  node: string
+  /** V8 version; Math.exp and friends may change with it. */
+  v8: string
+  /** Random number algorithm and stream derivation. */
+  rng: string
+  /** Wall-clock seconds from the first chunk started to the last one finished. */
+  wallSeconds: number
+  /** CPU seconds summed over all chunks. */
+  cpuSeconds: number
+  /** Worker threads or processes that ran chunks, when known. */
+  workers?: number
+  /** Name of an accelerated code path used by the workers, when one was. */
+  fastPath?: string
+}
+
+export interface ResultRow {
+  point: number
+  /** The varied parameters at this point, by path. */
+  values: Record<string, number>
+  /** N, P and the realised load α = P/N. */
+  params: { alpha: number, neurons: number, patterns: number }
+  summary: PointSummary
+  /** Theory values that apply at this point, by name. */
+  theory: Record<string, number>
+}
+
+export interface SweepResult {
+  specHash: string
+  spec: NormalisedSpec
+  rows: ResultRow[]
+  /** trials[point][trial]. */
+  trials: TrialRecord[][]
+  provenance: Provenance
+}
+
+// MAIN //
+
+/** Provenance for results assembled in this process, given the caller's timing. */
+export function makeProvenance (spec: NormalisedSpec, timing: { wallSeconds: number, cpuSeconds: number, workers?: number, fastPath?: string }): Provenance {
+  return {
+    specHash: specHash(spec),
+    engineVersion: ENGINE_VERSION,
+    node: process.version,
+    v8: process.versions.v8,
+    rng: RNG_ALGORITHM,
+    ...timing
+  }
+}
+
+/**
+ * Assembles the sweep result from chunk results in any order.
+ *
+ * @throws {IncompleteResultError} when some trial is missing, duplicated with different
+ *   content, or outside the grid.
+ * @throws {RangeError} when the provenance names another spec.
+ */
+export function assembleResult (spec: NormalisedSpec, chunkResults: readonly ChunkResult[], provenance: Provenance): SweepResult {
+  const hash = specHash(spec)
+  if (provenance.specHash !== hash) {
+    throw new RangeError(`invalid argument. The provenance is for spec ${provenance.specHash}, not ${hash}.`)
+  }
+  const trials = placeTrials(spec, chunkResults)
+  const rows: ResultRow[] = trials.map((pointTrials, point) => {
+    const { values, params } = pointAt(spec, point)
+    return {
+      point,
+      values,
+      params: { alpha: params.patterns / params.neurons, neurons: params.neurons, patterns: params.patterns },
+      summary: aggregatePoint(params, pointTrials),
+      theory: sortKeysDeep(theoryForPoint(params))
+    }
+  })
+  return { specHash: hash, spec, rows, trials, provenance: sortKeysDeep(provenance) }
+}
+
+function placeTrials (spec: NormalisedSpec, chunkResults: readonly ChunkResult[]): TrialRecord[][] {
+  const points = countPoints(spec)
+  const slots: Array<Array<TrialRecord | undefined>> = Array.from({ length: points }, () => new Array<TrialRecord | undefined>(spec.trials))
+  const problems: string[] = []
+  const ordered = [...chunkResults].sort((a, b) => a.chunk - b.chunk)
+  for (const result of ordered) {
+    if (!(Number.isSafeInteger(result.point) && result.point >= 0 && result.point < points)) {
+      problems.push(`chunk ${result.chunk} names point ${result.point}, outside the grid of ${points}`)
+      continue
+    }
+    const slot = slots[result.point]!
+    for (const record of result.trials) {
+      const t = record.trial
+      if (!(Number.isSafeInteger(t) && t >= 0 && t < spec.trials)) {
+        problems.push(`chunk ${result.chunk} holds trial ${t} of point ${result.point}, outside 0…${spec.trials - 1}`)
+        continue
+      }
+      const earlier = slot[t]
+      // A retried chunk may be delivered twice; identical records are harmless, different ones are a bug.
+      if (earlier !== undefined && earlier !== record && canonicalJson(earlier) !== canonicalJson(record)) {
+        problems.push(`trial ${t} of point ${result.point} was delivered twice with different content`)
+      }
+      if (earlier === undefined) slot[t] = record
+    }
+  }
+  for (let point = 0; point < points; point++) {
+    const slot = slots[point]!
+    let missing = 0
+    for (let t = 0; t < spec.trials; t++) if (slot[t] === undefined) missing++
+    if (missing > 0) problems.push(`point ${point} is missing ${missing} of ${spec.trials} trials`)
+  }
+  if (problems.length > 0) throw new IncompleteResultError(problems)
+  return slots as TrialRecord[][]
+}

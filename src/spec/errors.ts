@@ -1,0 +1,69 @@
+/**
+ * Errors raised by the spec layer. Each carries the data an HTTP layer needs to answer
+ * with a 4xx naming the offending field (or limit) without parsing messages.
+ */
+
+export interface SpecIssue {
+  /** Dotted path of the offending field inside the submitted spec ('' for the spec itself), e.g. 'dynamics.temperature', 'family.data.3.17'. */
+  path: string
+  message: string
+}
+
+/** The submitted spec is malformed or describes work the engine cannot do. Lists every issue found. */
+export class SpecValidationError extends Error {
+  readonly issues: SpecIssue[]
+
+  constructor (issues: SpecIssue[]) {
+    const first = issues[0]
+    const head = first === undefined ? 'invalid sweep spec' : `${first.path === '' ? '(spec)' : first.path}: ${first.message}`
+    const more = issues.length > 1 ? ` (and ${issues.length - 1} more issue${issues.length > 2 ? 's' : ''})` : ''
+    super(`Invalid sweep spec. ${head}${more}`)
+    this.name = 'SpecValidationError'
+    this.issues = issues
+    Object.setPrototypeOf(this, new.target.prototype)
+  }
+}
+
+export type WorkLimitName = 'maxNeurons' | 'maxPoints' | 'maxTrials' | 'maxBytes' | 'maxCpuSeconds'
+
+/** The spec is valid but asks for more than this service allows; raised before anything is allocated. */
+export class WorkLimitError extends RangeError {
+  readonly limit: WorkLimitName
+  readonly value: number
+  readonly max: number
+
+  constructor (limit: WorkLimitName, value: number, max: number) {
+    super(`Sweep exceeds ${limit}: it needs ${value}, the limit is ${max}.`)
+    this.name = 'WorkLimitError'
+    this.limit = limit
+    this.value = value
+    this.max = max
+    Object.setPrototypeOf(this, new.target.prototype)
+  }
+}
+
+/** `runChunk` noticed a stop request between two trials; the chunk's partial work is discarded. */
+export class ChunkCanceledError extends Error {
+  readonly chunk: number
+  readonly trialsDone: number
+
+  constructor (chunk: number, trialsDone: number) {
+    super(`Chunk ${chunk} was canceled after ${trialsDone} trial${trialsDone === 1 ? '' : 's'}.`)
+    this.name = 'ChunkCanceledError'
+    this.chunk = chunk
+    this.trialsDone = trialsDone
+    Object.setPrototypeOf(this, new.target.prototype)
+  }
+}
+
+/** `assembleResult` was given chunk results that do not cover every trial of every point exactly once. */
+export class IncompleteResultError extends Error {
+  readonly problems: string[]
+
+  constructor (problems: string[]) {
+    super(`Cannot assemble the sweep result: ${problems.slice(0, 3).join('; ')}${problems.length > 3 ? `; and ${problems.length - 3} more` : ''}.`)
+    this.name = 'IncompleteResultError'
+    this.problems = problems
+    Object.setPrototypeOf(this, new.target.prototype)
+  }
+}

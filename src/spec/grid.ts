@@ -1,0 +1,123 @@
+/**
+ * The grid of a normalised spec: its axes are the varied parameters in canonical order
+ * (VARIED_PARAMETERS), the first axis varies slowest. Points are addressed by index and
+ * resolved lazily, so a large grid is never materialised.
+ */
+import type { PointParams } from '../engine/index.js'
+import { roundToSignificant, type Varied } from './axis.js'
+import { VARIED_PARAMETERS, type VariedPath } from './schema.js'
+import type { NormalisedSpec } from './types.js'
+
+export interface Axis {
+  path: VariedPath
+  values: readonly number[]
+}
+
+export interface GridPoint {
+  index: number
+  /** The varied parameters at this point, by path, in axis order. */
+  values: Record<string, number>
+  params: PointParams
+}
+
+// MAIN //
+
+const axesCache = new WeakMap<NormalisedSpec, readonly Axis[]>()
+
+/** The varied parameter at `path` in a normalised spec, or undefined when the spec has no such field. */
+export function variedAt (spec: NormalisedSpec, path: VariedPath): Varied | null | undefined {
+  let node: unknown = spec
+  for (const key of path.split('.')) {
+    if (node === null || typeof node !== 'object') return undefined
+    node = (node as Record<string, unknown>)[key]
+  }
+  if (node === undefined || node === null) return node
+  if (typeof node === 'number') return node
+  if (typeof node === 'object' && Array.isArray((node as { values?: unknown }).values)) return node as { values: number[] }
+  return undefined
+}
+
+export function gridAxes (spec: NormalisedSpec): readonly Axis[] {
+  const cached = axesCache.get(spec)
+  if (cached !== undefined) return cached
+  const axes: Axis[] = []
+  for (const { path } of VARIED_PARAMETERS) {
+    const v = variedAt(spec, path)
+    if (v !== null && v !== undefined && typeof v === 'object') axes.push({ path, values: v.values })
+  }
+  axesCache.set(spec, axes)
+  return axes
+}
+
+/** Number of grid points: the product of the axis lengths (1 when nothing varies). */
+export function countPoints (spec: NormalisedSpec): number {
+  return gridAxes(spec).reduce((n, axis) => n * axis.values.length, 1)
+}
+
+/** P for a load α at size N: round(α·N), half away from zero, after rounding α·N to 12 significant digits so 0.145·100 gives 15. */
+export function patternsForLoad (load: number, neurons: number): number {
+  return Math.round(roundToSignificant(load * neurons))
+}
+
+/** The point at `index` (0 ≤ index < countPoints(spec)); the last axis varies fastest. */
+export function pointAt (spec: NormalisedSpec, index: number): GridPoint {
+  const axes = gridAxes(spec)
+  const total = countPoints(spec)
+  if (!Number.isSafeInteger(index) || index < 0 || index >= total) {
+    throw new RangeError(`invalid argument. Grid point index must be an integer in [0, ${total - 1}]. Value: ${index}.`)
+  }
+  const values: Record<string, number> = {}
+  let rest = index
+  for (let a = axes.length - 1; a >= 0; a--) {
+    const axis = axes[a]!
+    values[axis.path] = axis.values[rest % axis.values.length]!
+    rest = Math.floor(rest / axis.values.length)
+  }
+  const ordered: Record<string, number> = {}
+  for (const axis of axes) ordered[axis.path] = values[axis.path]!
+  return { index, values: ordered, params: resolveParams(spec, ordered) }
+}
+
+function resolveParams (spec: NormalisedSpec, values: Record<string, number>): PointParams {
+  const at = (path: VariedPath, v: Varied): number => typeof v === 'number' ? v : values[path]!
+  const neurons = at('neurons', spec.neurons)
+  const patterns = spec.patterns !== undefined
+    ? at('patterns', spec.patterns)
+    : spec.load !== undefined
+      ? patternsForLoad(at('load', spec.load), neurons)
+      : spec.family.kind === 'supplied' ? spec.family.data.length : 0
+  const f = spec.family
+  const family: PointParams['family'] = f.kind === 'random'
+    ? { kind: 'random', activity: at('family.activity', f.activity) }
+    : f.kind === 'correlated'
+      ? { kind: 'correlated', parents: at('family.parents', f.parents), parentOverlap: at('family.parentOverlap', f.parentOverlap) }
+      : { kind: 'supplied', data: patterns < f.data.length ? f.data.slice(0, patterns) : f.data }
+  const r = spec.rule
+  const rule: PointParams['rule'] = r.kind === 'covariance'
+    ? { kind: 'covariance', selfCoupling: r.selfCoupling, threshold: r.threshold === null ? null : at('rule.threshold', r.threshold) }
+    : { kind: r.kind, selfCoupling: r.selfCoupling }
+  const c = spec.cue
+  const cue: PointParams['cue'] = c.kind === 'flip'
+    ? { kind: 'flip', fraction: at('cue.fraction', c.fraction) }
+    : c.kind === 'erase'
+      ? { kind: 'erase', fraction: at('cue.fraction', c.fraction), fill: c.fill }
+      : c.kind === 'mixture' ? { kind: 'mixture', components: at('cue.components', c.components) } : { kind: 'random' }
+  return {
+    neurons,
+    patterns,
+    coding: spec.coding,
+    family,
+    rule,
+    dilution: spec.dilution === null ? null : { keep: at('dilution.keep', spec.dilution.keep), symmetric: spec.dilution.symmetric },
+    cue,
+    dynamics: {
+      update: spec.dynamics.update,
+      temperature: at('dynamics.temperature', spec.dynamics.temperature),
+      maxSweeps: at('dynamics.maxSweeps', spec.dynamics.maxSweeps),
+      burnIn: at('dynamics.burnIn', spec.dynamics.burnIn)
+    },
+    measures: { ...spec.measures },
+    successThreshold: at('successThreshold', spec.successThreshold),
+    trialsPerNetwork: at('trialsPerNetwork', spec.trialsPerNetwork)
+  }
+}

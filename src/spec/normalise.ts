@@ -1,0 +1,232 @@
+/**
+ * normaliseSpec: user input → NormalisedSpec, or a SpecValidationError listing every
+ * problem found. Steps: presence rules on the raw input, zod (field-level rules, axis
+ * expansion checks), the normalised form, supplied-pattern checks, the grid-size ceiling,
+ * then the engine's own checks on every grid point (reported once per field).
+ */
+import { checkPointParams, EngineInputError, type PointParams } from '../engine/index.js'
+import { normaliseVaried, type AxisInput, type Varied } from './axis.js'
+import { sortKeysDeep } from './canonical.js'
+import { SpecValidationError, type SpecIssue } from './errors.js'
+import { countPoints, gridAxes, pointAt } from './grid.js'
+import { issuesFromZod, uniqueIssues } from './issues.js'
+import { domainOf, SPEC_CEILINGS, SweepSpecSchema, type ParsedSpec, type VariedPath } from './schema.js'
+import type { NormalisedCue, NormalisedFamily, NormalisedRule, NormalisedSpec } from './types.js'
+
+/** Most issues reported about the entries of supplied patterns; the rest are counted. */
+const MAX_DATA_ISSUES = 20
+
+// MAIN //
+
+/**
+ * Validates a sweep spec and returns its normalised form.
+ *
+ * @throws {SpecValidationError} listing every offending field path with the reason.
+ */
+export function normaliseSpec (input: unknown): NormalisedSpec {
+  const presence = presenceIssues(input)
+  const parsed = SweepSpecSchema.safeParse(input)
+  if (!parsed.success) fail([...presence, ...issuesFromZod(parsed.error.issues)])
+  if (presence.length > 0) fail(presence)
+
+  const spec = buildNormalised(parsed.data)
+  const supplied = suppliedIssues(spec, parsed.data)
+  if (supplied.length > 0) fail(supplied)
+
+  const points = countPoints(spec)
+  if (points > SPEC_CEILINGS.points) {
+    const shape = gridAxes(spec).map((axis) => `${axis.path} ${axis.values.length}`).join(' × ')
+    fail([{ path: '', message: `the grid has ${points} points (${shape}); a sweep may have at most ${SPEC_CEILINGS.points}` }])
+  }
+  const pointIssues = checkEveryPoint(spec, points)
+  if (pointIssues.length > 0) fail(pointIssues)
+  return spec
+}
+
+function fail (issues: SpecIssue[]): never {
+  throw new SpecValidationError(uniqueIssues(issues))
+}
+
+function isRecord (value: unknown): value is Record<string, unknown> {
+  return value !== null && typeof value === 'object' && !Array.isArray(value)
+}
+
+/** Which of neurons / patterns / load must be present depends on the pattern family, so zod alone cannot say. */
+function presenceIssues (input: unknown): SpecIssue[] {
+  if (!isRecord(input)) return []
+  const supplied = isRecord(input.family) && input.family.kind === 'supplied'
+  const has = (key: string) => input[key] !== undefined
+  const issues: SpecIssue[] = []
+  if (!has('neurons') && !supplied) issues.push({ path: 'neurons', message: 'required (the network size N), unless the patterns are supplied' })
+  if (has('patterns') && has('load')) {
+    const message = 'give either patterns (a count) or load (α = P/N), not both'
+    issues.push({ path: 'patterns', message }, { path: 'load', message })
+  } else if (!has('patterns') && !has('load') && !supplied) {
+    issues.push({ path: 'patterns', message: 'required: give patterns (P, a count) or load (α = P/N)' })
+  }
+  return issues
+}
+
+function varied (path: VariedPath, value: number | AxisInput): Varied {
+  return normaliseVaried(value, domainOf(path))
+}
+
+function buildNormalised (p: ParsedSpec): NormalisedSpec {
+  const f = p.family
+  const family: NormalisedFamily = f.kind === 'random'
+    ? { kind: 'random', activity: varied('family.activity', f.activity) }
+    : f.kind === 'correlated'
+      ? { kind: 'correlated', parents: varied('family.parents', f.parents), parentOverlap: varied('family.parentOverlap', f.parentOverlap) }
+      : { kind: 'supplied', data: f.data.map((row) => row.map((v) => (v === 0 ? 0 : v))) }
+  const r = p.rule
+  const rule: NormalisedRule = r.kind === 'covariance'
+    ? { kind: 'covariance', selfCoupling: r.selfCoupling, threshold: r.threshold === null ? null : varied('rule.threshold', r.threshold) }
+    : { kind: r.kind, selfCoupling: r.selfCoupling }
+  const c = p.cue
+  const cue: NormalisedCue = c.kind === 'flip'
+    ? { kind: 'flip', fraction: varied('cue.fraction', c.fraction) }
+    : c.kind === 'erase'
+      ? { kind: 'erase', fraction: varied('cue.fraction', c.fraction), fill: c.fill }
+      : c.kind === 'mixture' ? { kind: 'mixture', components: varied('cue.components', c.components) } : { kind: 'random' }
+
+  const suppliedRows = f.kind === 'supplied' ? f.data : null
+  const neurons = p.neurons !== undefined ? varied('neurons', p.neurons) : (suppliedRows?.[0]?.length ?? 0)
+  const spec: NormalisedSpec = {
+    version: p.version,
+    label: p.label,
+    seed: p.seed,
+    neurons,
+    coding: p.coding,
+    family,
+    rule,
+    dilution: p.dilution === null ? null : { keep: varied('dilution.keep', p.dilution.keep), symmetric: p.dilution.symmetric },
+    cue,
+    dynamics: {
+      update: p.dynamics.update,
+      temperature: varied('dynamics.temperature', p.dynamics.temperature),
+      maxSweeps: varied('dynamics.maxSweeps', p.dynamics.maxSweeps),
+      burnIn: varied('dynamics.burnIn', p.dynamics.burnIn)
+    },
+    measures: { ...p.measures },
+    successThreshold: varied('successThreshold', p.successThreshold),
+    trials: p.trials,
+    trialsPerNetwork: varied('trialsPerNetwork', p.trialsPerNetwork)
+  }
+  if (p.patterns !== undefined) spec.patterns = varied('patterns', p.patterns)
+  else if (p.load !== undefined) spec.load = varied('load', p.load)
+  else if (suppliedRows !== null) spec.patterns = suppliedRows.length
+  return sortKeysDeep(spec)
+}
+
+/** Supplied patterns: one length for every row, matching `neurons`; entries in the coding; enough rows for `patterns`. */
+function suppliedIssues (spec: NormalisedSpec, parsed: ParsedSpec): SpecIssue[] {
+  if (spec.family.kind !== 'supplied') return []
+  const data = spec.family.data
+  const issues: SpecIssue[] = []
+  const width = data[0]!.length
+  if (parsed.neurons !== undefined) {
+    if (typeof spec.neurons !== 'number') {
+      issues.push({ path: 'neurons', message: 'with supplied patterns the network size is their length and cannot vary' })
+    } else if (spec.neurons !== width) {
+      issues.push({ path: 'neurons', message: `is ${spec.neurons} but the supplied patterns have ${width} entries` })
+    }
+  }
+  const allowed = spec.coding === 'binary' ? [0, 1] : [-1, 1]
+  let reported = 0
+  let unreported = 0
+  const report = (issue: SpecIssue) => {
+    if (reported < MAX_DATA_ISSUES) { issues.push(issue); reported++ } else unreported++
+  }
+  for (let mu = 0; mu < data.length; mu++) {
+    const row = data[mu]!
+    if (row.length !== width) {
+      report({ path: `family.data.${mu}`, message: `has ${row.length} entries but pattern 0 has ${width}; every pattern needs the same length` })
+      continue
+    }
+    for (let i = 0; i < row.length; i++) {
+      if (!allowed.includes(row[i]!)) {
+        report({ path: `family.data.${mu}.${i}`, message: `${row[i]} is not a ${spec.coding} value (allowed: ${allowed.join(', ')})` })
+      }
+    }
+  }
+  if (unreported > 0) issues.push({ path: 'family.data', message: `${unreported} more entries or rows are invalid (only the first ${MAX_DATA_ISSUES} are listed)` })
+  if (spec.patterns !== undefined) {
+    const counts = typeof spec.patterns === 'number' ? [spec.patterns] : spec.patterns.values
+    const tooMany = counts.filter((n) => n > data.length)
+    if (tooMany.length > 0) issues.push({ path: 'patterns', message: `${tooMany[0]} patterns requested but only ${data.length} are supplied` })
+  }
+  return issues
+}
+
+interface PointProblem {
+  message: string
+  count: number
+  first: Record<string, number>
+}
+
+/**
+ * Runs the engine's checks on every grid point and reports each offending field once,
+ * with how many points it affects and the first of them.
+ */
+function checkEveryPoint (spec: NormalisedSpec, points: number): SpecIssue[] {
+  const problems = new Map<string, PointProblem>()
+  const note = (path: string, message: string, values: Record<string, number>) => {
+    const known = problems.get(path)
+    if (known === undefined) problems.set(path, { message, count: 1, first: values })
+    else known.count++
+  }
+  const checkedSuppliedCounts = new Set<number>()
+  for (let index = 0; index < points; index++) {
+    const { values, params } = pointAt(spec, index)
+    if (params.patterns < 1 && spec.load !== undefined) {
+      note('load', `load × neurons rounds to ${params.patterns} patterns; at least 1 is needed`, values)
+      continue
+    }
+    if (params.family.kind === 'supplied' && params.patterns > params.family.data.length) {
+      note('load', `round(load × neurons) = ${params.patterns} patterns, but only ${params.family.data.length} are supplied`, values)
+      continue
+    }
+    try {
+      checkPointParams(lightForCheck(params, checkedSuppliedCounts))
+    } catch (error) {
+      if (!(error instanceof EngineInputError)) throw error
+      note(specPathOf(error.field, spec), reasonOf(error), values)
+    }
+  }
+  return [...problems].map(([path, problem]) => ({
+    path,
+    message: points > 1
+      ? `${problem.message} (at ${problem.count} of ${points} grid points; first at ${describeValues(problem.first)})`
+      : problem.message
+  }))
+}
+
+/**
+ * The engine checks supplied data entry by entry. suppliedIssues has already checked every
+ * entry, so only the first point of each pattern count needs the full check; the others are
+ * checked with an equivalent stand-in family so a large grid over big data stays cheap.
+ * (The engine's other checks do not look at the family.)
+ */
+function lightForCheck (params: PointParams, checkedCounts: Set<number>): PointParams {
+  if (params.family.kind !== 'supplied' || !checkedCounts.has(params.patterns)) {
+    if (params.family.kind === 'supplied') checkedCounts.add(params.patterns)
+    return params
+  }
+  return { ...params, family: { kind: 'random', activity: 0.5 } }
+}
+
+/** Engine field paths are point paths; a point's `patterns` comes from `load` when the spec gives a load. */
+function specPathOf (field: string, spec: NormalisedSpec): string {
+  if (field === 'patterns' && spec.load !== undefined) return 'load'
+  return field
+}
+
+function reasonOf (error: EngineInputError): string {
+  const prefix = `invalid argument. ${error.field}: `
+  return error.message.startsWith(prefix) ? error.message.slice(prefix.length) : error.message
+}
+
+function describeValues (values: Record<string, number>): string {
+  const parts = Object.entries(values).map(([k, v]) => `${k}=${v}`)
+  return parts.length > 0 ? parts.join(', ') : 'the only point'
+}

@@ -1,0 +1,109 @@
+/**
+ * A sweep result as bytes: canonical JSON, or tidy CSV (one row per grid point, or one
+ * per trial). Both depend on the result's content only, never on how it was computed.
+ */
+import { END_STATES, ENDINGS, type MeanWithError, type TrialRecord } from '../engine/index.js'
+import type { ResultRow, SweepResult } from './assemble.js'
+import { canonicalJson } from './canonical.js'
+import { toCsv, type CsvCell } from './csv.js'
+import { gridAxes } from './grid.js'
+
+export interface OutputOptions {
+  /** Include every trial's record (JSON: the `trials` member; CSV: one row per trial). */
+  perTrial: boolean
+}
+
+// MAIN //
+
+/**
+ * The result as canonical JSON (sorted keys, no whitespace, one trailing newline).
+ * Without perTrial the `trials` member is left out. Non-finite numbers become null.
+ */
+export function resultToJson (result: SweepResult, opts: OutputOptions): string {
+  const { trials, ...rest } = result
+  return canonicalJson(opts.perTrial ? { ...rest, trials } : rest) + '\n'
+}
+
+/**
+ * The result as tidy CSV. Per point: point, the varied parameters (by path), neurons,
+ * patterns, alpha, trials, overlap/sweeps/maxOtherOverlap/energy mean·sd·se, success
+ * count·rate·low·high (Wilson 95 %), ending and end-state counts, stability (when measured)
+ * and one `theory.<name>` column per theory value (empty where it does not apply).
+ * Per trial: point, varied parameters, neurons, patterns, alpha, then the trial record
+ * (trajectories are JSON-only).
+ */
+export function resultToCsv (result: SweepResult, opts: OutputOptions): string {
+  return opts.perTrial ? trialCsv(result) : pointCsv(result)
+}
+
+const MEAN_FIELDS = ['overlap', 'sweeps', 'maxOtherOverlap', 'energy'] as const
+
+function leadingHeader (result: SweepResult): string[] {
+  return ['point', ...gridAxes(result.spec).map((axis) => axis.path), 'neurons', 'patterns', 'alpha']
+}
+
+function leadingCells (result: SweepResult, row: ResultRow): CsvCell[] {
+  return [row.point, ...gridAxes(result.spec).map((axis) => row.values[axis.path]), row.params.neurons, row.params.patterns, row.params.alpha]
+}
+
+function pointCsv (result: SweepResult): string {
+  const theoryNames = [...new Set(result.rows.flatMap((row) => Object.keys(row.theory)))].sort()
+  const stability = result.spec.measures.stability
+  const header = [
+    ...leadingHeader(result),
+    'trials',
+    ...MEAN_FIELDS.flatMap((f) => [`${f}.mean`, `${f}.sd`, `${f}.se`]),
+    'success.count', 'success.rate', 'success.low', 'success.high',
+    ...ENDINGS.map((e) => `ending.${e}`),
+    ...END_STATES.map((s) => `endState.${s}`),
+    ...(stability ? ['stability.networks', 'stability.unstableFraction', 'stability.tieFraction', 'stability.fixedPatternFraction'] : []),
+    ...theoryNames.map((name) => `theory.${name}`)
+  ]
+  const rows = result.rows.map((row) => {
+    const s = row.summary
+    const st = s.stability
+    return [
+      ...leadingCells(result, row),
+      s.trials,
+      ...MEAN_FIELDS.flatMap((f) => meanCells(s[f])),
+      s.success.count, s.success.rate, s.success.low, s.success.high,
+      ...ENDINGS.map((e) => s.endings[e]),
+      ...END_STATES.map((e) => s.endStates[e]),
+      ...(stability ? [st?.networks, st?.unstableFraction, st?.tieFraction, st?.fixedPatternFraction] : []),
+      ...theoryNames.map((name) => row.theory[name])
+    ]
+  })
+  return toCsv(header, rows)
+}
+
+function meanCells (m: MeanWithError): CsvCell[] {
+  return [m.mean, m.sd, m.se]
+}
+
+function trialCsv (result: SweepResult): string {
+  const stability = result.spec.measures.stability
+  const header = [
+    ...leadingHeader(result),
+    'trial', 'target', 'initialOverlap', 'overlap', 'success', 'maxOtherOverlap', 'sweeps', 'ending', 'energy', 'endState',
+    ...(stability ? ['stability.unstableFraction', 'stability.tieFraction', 'stability.fixedPatternFraction'] : [])
+  ]
+  const rows: CsvCell[][] = []
+  for (const row of result.rows) {
+    const lead = leadingCells(result, row)
+    const threshold = successThresholdAt(result, row)
+    for (const t of result.trials[row.point] ?? []) rows.push([...lead, ...trialCells(t, threshold, stability)])
+  }
+  return toCsv(header, rows)
+}
+
+function trialCells (t: TrialRecord, threshold: number, stability: boolean): CsvCell[] {
+  return [
+    t.trial, t.target, t.initialOverlap, t.overlap, t.overlap >= threshold ? 1 : 0, t.maxOtherOverlap, t.sweeps, t.ending, t.energy, t.endState,
+    ...(stability ? [t.stability?.unstableFraction, t.stability?.tieFraction, t.stability?.fixedPatternFraction] : [])
+  ]
+}
+
+function successThresholdAt (result: SweepResult, row: ResultRow): number {
+  const value = result.spec.successThreshold
+  return typeof value === 'number' ? value : row.values.successThreshold!
+}

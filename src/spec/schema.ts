@@ -1,0 +1,200 @@
+/**
+ * The sweep spec as users write it (JSON), as a strict zod schema: unknown fields are
+ * errors, every field is described with its default so the OpenAPI document carries the
+ * documentation. Cross-field rules (patterns vs load, supplied data vs coding, per-point
+ * engine checks) live in normalise.ts.
+ */
+import { z } from 'zod'
+import { type NumericDomain, variedSchema } from './axis.js'
+
+// VARIABLES //
+
+/** Version of the spec format; bumped whenever a spec's meaning would change. */
+export const SPEC_FORMAT_VERSION = 1
+
+/** Defaults filled in by normalisation, in one place so docs, schema and code agree. */
+export const SPEC_DEFAULTS = {
+  seed: 1,
+  coding: 'pm1',
+  activity: 0.5,
+  selfCoupling: false,
+  covarianceThreshold: null,
+  dilutionSymmetric: true,
+  cueFraction: 0.1,
+  eraseFill: 'zero',
+  mixtureComponents: 3,
+  update: 'async-random',
+  temperature: 0,
+  maxSweeps: 100,
+  burnIn: 0,
+  successThreshold: 0.9,
+  trials: 100,
+  trialsPerNetwork: 1
+} as const
+
+/** Hard ceilings of the format itself; the service's configurable limits (work.ts) are usually tighter. */
+export const SPEC_CEILINGS = {
+  neurons: 1_000_000,
+  patterns: 1_000_000,
+  maxSweeps: 1_000_000,
+  trials: 10_000_000,
+  trialsPerNetwork: 10_000_000,
+  labelLength: 200,
+  /** Grid points (product of all axis lengths). */
+  points: 100_000
+} as const
+
+/**
+ * Every parameter that may be varied, in canonical order: this is the order of the grid's
+ * axes (first = slowest), of `values` in rows and of the varied columns in CSV output.
+ */
+export const VARIED_PARAMETERS = [
+  { path: 'neurons', domain: { integer: true, min: 1, max: SPEC_CEILINGS.neurons } },
+  { path: 'patterns', domain: { integer: true, min: 1, max: SPEC_CEILINGS.patterns } },
+  { path: 'load', domain: { integer: false, min: 0, minExclusive: true, max: SPEC_CEILINGS.patterns } },
+  { path: 'family.activity', domain: { integer: false, min: 0, minExclusive: true, max: 1, maxExclusive: true } },
+  { path: 'family.parents', domain: { integer: true, min: 1, max: SPEC_CEILINGS.patterns } },
+  { path: 'family.parentOverlap', domain: { integer: false, min: 0, max: 1 } },
+  { path: 'rule.threshold', domain: { integer: false } },
+  { path: 'dilution.keep', domain: { integer: false, min: 0, minExclusive: true, max: 1 } },
+  { path: 'cue.fraction', domain: { integer: false, min: 0, max: 1 } },
+  { path: 'cue.components', domain: { integer: true, min: 1, max: SPEC_CEILINGS.patterns } },
+  { path: 'dynamics.temperature', domain: { integer: false, min: 0 } },
+  { path: 'dynamics.maxSweeps', domain: { integer: true, min: 1, max: SPEC_CEILINGS.maxSweeps } },
+  { path: 'dynamics.burnIn', domain: { integer: true, min: 0, max: SPEC_CEILINGS.maxSweeps } },
+  { path: 'successThreshold', domain: { integer: false, min: -1, max: 1 } },
+  { path: 'trialsPerNetwork', domain: { integer: true, min: 1, max: SPEC_CEILINGS.trialsPerNetwork } }
+] as const satisfies ReadonlyArray<{ path: string, domain: NumericDomain }>
+
+export type VariedPath = typeof VARIED_PARAMETERS[number]['path']
+
+export function domainOf (path: VariedPath): NumericDomain {
+  const entry = VARIED_PARAMETERS.find((p) => p.path === path)
+  if (entry === undefined) throw new Error(`internal: unknown varied parameter ${path}`)
+  return entry.domain
+}
+
+const varied = (path: VariedPath, description: string) => variedSchema(domainOf(path), description)
+
+// MAIN //
+
+const selfCoupling = z.boolean().default(SPEC_DEFAULTS.selfCoupling)
+  .describe('Keep the diagonal couplings J_ii. Default: false.')
+
+const randomFamily = z.strictObject({
+  kind: z.literal('random'),
+  activity: varied('family.activity', 'Probability that an entry is active (+1, or 1 in binary coding); 0.5 is unbiased. Default: 0.5.')
+    .default(SPEC_DEFAULTS.activity)
+}).describe('Independent random patterns.')
+
+const correlatedFamily = z.strictObject({
+  kind: z.literal('correlated'),
+  parents: varied('family.parents', 'Number of parent patterns; stored pattern μ derives from parent μ mod parents. Required.'),
+  parentOverlap: varied('family.parentOverlap', 'Expected overlap of a stored pattern with its parent (each entry re-drawn with probability 1 − parentOverlap). Required.')
+}).describe('Hierarchically correlated patterns: children of a few random parents.')
+
+const suppliedFamily = z.strictObject({
+  kind: z.literal('supplied'),
+  data: z.array(z.array(z.number()).min(1).max(SPEC_CEILINGS.neurons)).min(1).max(SPEC_CEILINGS.patterns)
+    .describe('The patterns, data[μ][i], written in the chosen coding (pm1: −1/+1, binary: 0/1); every row has `neurons` entries. `patterns` (or `load`) may select the first P rows; default: all rows.')
+}).describe('Patterns supplied by the user.')
+
+const family = z.discriminatedUnion('kind', [randomFamily, correlatedFamily, suppliedFamily])
+  .prefault({ kind: 'random' })
+  .describe('How the stored patterns are drawn. Default: { "kind": "random", "activity": 0.5 }.')
+
+const plainRule = (kind: 'hebbian' | 'pseudo-inverse' | 'storkey', description: string) =>
+  z.strictObject({ kind: z.literal(kind), selfCoupling }).describe(description)
+
+const rule = z.discriminatedUnion('kind', [
+  plainRule('hebbian', 'Hebbian outer-product rule (Hopfield 1982).'),
+  plainRule('pseudo-inverse', 'Projection (pseudo-inverse) rule (Personnaz, Guyon & Dreyfus 1985).'),
+  plainRule('storkey', 'Storkey (1997) incremental rule.'),
+  z.strictObject({
+    kind: z.literal('covariance'),
+    selfCoupling,
+    threshold: varied('rule.threshold', 'Uniform firing threshold θ in units of the local field; null uses the engine\'s activity-dependent default. Default: null.')
+      .nullable().default(SPEC_DEFAULTS.covarianceThreshold)
+  }).describe('Covariance rule for biased (sparse) patterns (Tsodyks & Feigel\'man 1988).')
+]).prefault({ kind: 'hebbian' })
+  .describe('Learning rule that turns the patterns into couplings. Default: { "kind": "hebbian", "selfCoupling": false }.')
+
+const dilution = z.strictObject({
+  keep: varied('dilution.keep', 'Fraction of couplings kept, in (0, 1]. Required.'),
+  symmetric: z.boolean().default(SPEC_DEFAULTS.dilutionSymmetric)
+    .describe('Cut J_ij and J_ji together (true) or independently (false). Default: true.')
+}).nullable().default(null)
+  .describe('Random dilution of the couplings. Default: null (fully connected).')
+
+const cueFraction = (description: string) =>
+  varied('cue.fraction', `${description} Default: ${SPEC_DEFAULTS.cueFraction}.`).default(SPEC_DEFAULTS.cueFraction)
+
+const cue = z.discriminatedUnion('kind', [
+  z.strictObject({ kind: z.literal('flip'), fraction: cueFraction('Fraction of neurons flipped (exactly round(fraction·N) distinct ones).') })
+    .describe('The target pattern with some bits flipped.'),
+  z.strictObject({
+    kind: z.literal('erase'),
+    fraction: cueFraction('Fraction of neurons erased (exactly round(fraction·N) distinct ones).'),
+    fill: z.enum(['zero', 'random']).default(SPEC_DEFAULTS.eraseFill)
+      .describe('Erased neurons are set to 0 (neutral) or to fresh random values. Default: zero.')
+  }).describe('The target pattern with part of it erased.'),
+  z.strictObject({ kind: z.literal('random') }).describe('A uniformly random state, unrelated to any pattern.'),
+  z.strictObject({
+    kind: z.literal('mixture'),
+    components: varied('cue.components', `Number of consecutive stored patterns, from the target on, whose sign-mixture is the cue. Default: ${SPEC_DEFAULTS.mixtureComponents}.`)
+      .default(SPEC_DEFAULTS.mixtureComponents)
+  }).describe('A mixture of several stored patterns.')
+]).prefault({ kind: 'flip' })
+  .describe(`Initial state of each trial. Default: { "kind": "flip", "fraction": ${SPEC_DEFAULTS.cueFraction} }.`)
+
+const dynamics = z.strictObject({
+  update: z.enum(['async-random', 'async-sequential', 'sync']).default(SPEC_DEFAULTS.update)
+    .describe('async-random: one neuron at a time, fresh random order each sweep; async-sequential: index order; sync: all at once. Default: async-random.'),
+  temperature: varied('dynamics.temperature', 'Temperature T ≥ 0; 0 is deterministic, T > 0 is Glauber dynamics. Default: 0.')
+    .default(SPEC_DEFAULTS.temperature),
+  maxSweeps: varied('dynamics.maxSweeps', `Upper bound on sweeps (sync: steps); at T > 0 the number of sweeps run. Default: ${SPEC_DEFAULTS.maxSweeps}.`)
+    .default(SPEC_DEFAULTS.maxSweeps),
+  burnIn: varied('dynamics.burnIn', 'T > 0: sweeps discarded before time averages start. Default: 0.')
+    .default(SPEC_DEFAULTS.burnIn)
+}).prefault({}).describe('Retrieval dynamics.')
+
+const measures = z.strictObject({
+  overlapTrajectory: z.boolean().default(false).describe('Record the target overlap after every sweep. Default: false.'),
+  energyTrajectory: z.boolean().default(false).describe('Record the energy per neuron after every sweep. Default: false.'),
+  stability: z.boolean().default(false).describe('Measure the one-step stability of every stored pattern, once per network. Default: false.')
+}).prefault({}).describe('Optional extra measurements.')
+
+export const SweepSpecSchema = z.strictObject({
+  version: z.literal(SPEC_FORMAT_VERSION).default(SPEC_FORMAT_VERSION)
+    .describe(`Spec format version. Default: ${SPEC_FORMAT_VERSION}.`),
+  label: z.string().max(SPEC_CEILINGS.labelLength).nullable().default(null)
+    .describe('Free text to recognise the sweep by; not part of the work, so not part of the spec hash. Default: null.'),
+  seed: z.int().min(0).max(Number.MAX_SAFE_INTEGER).default(SPEC_DEFAULTS.seed)
+    .describe('Master seed; with the rest of the spec it fixes every random draw. Default: 1.'),
+  neurons: varied('neurons', 'N, the number of neurons. Required unless the patterns are supplied (then it is their length).').optional(),
+  patterns: varied('patterns', 'P, the number of stored patterns. Give exactly one of patterns and load (supplied patterns: at most one; default all rows).').optional(),
+  load: varied('load', 'Load α = P/N; each point stores P = round(α·N) patterns. Give exactly one of patterns and load.').optional(),
+  coding: z.enum(['pm1', 'binary']).default(SPEC_DEFAULTS.coding)
+    .describe('Neuron values: pm1 (−1/+1) or binary (0/1). Default: pm1.'),
+  family,
+  rule,
+  dilution,
+  cue,
+  dynamics,
+  measures,
+  successThreshold: varied('successThreshold', `A trial succeeds when its final target overlap is at least this. Default: ${SPEC_DEFAULTS.successThreshold}.`)
+    .default(SPEC_DEFAULTS.successThreshold),
+  trials: z.int().min(1).max(SPEC_CEILINGS.trials).default(SPEC_DEFAULTS.trials)
+    .describe(`Trials (recall attempts) per grid point. Default: ${SPEC_DEFAULTS.trials}.`),
+  trialsPerNetwork: varied('trialsPerNetwork', 'Consecutive trials that share one network (pattern set and couplings); 1 draws a new network for every trial. Default: 1.')
+    .default(SPEC_DEFAULTS.trialsPerNetwork)
+}).meta({
+  id: 'SweepSpec',
+  title: 'Sweep spec',
+  description: 'A sweep: a network model, a cue and dynamics, and the parameters to vary. Any numeric parameter may be a number or an axis ({ values } | { from, to, step } | { from, to, count, scale }); several axes form a grid (Cartesian product, axes in canonical order, first slowest).'
+})
+
+/** A spec as a client may write it. */
+export type SweepSpecInput = z.input<typeof SweepSpecSchema>
+/** A spec after zod parsing (defaults filled, axes not yet expanded). */
+export type ParsedSpec = z.output<typeof SweepSpecSchema>

@@ -1,0 +1,119 @@
+/**
+ * How much work a sweep is, from the engine's per-point cost model, and the service's
+ * limits on it. Everything here uses counts and estimates only: a sweep is refused
+ * before any network is allocated.
+ */
+import { estimatePointCost } from '../engine/index.js'
+import { WorkLimitError, type WorkLimitName } from './errors.js'
+import { countPoints, gridAxes, pointAt } from './grid.js'
+import type { NormalisedSpec } from './types.js'
+
+// VARIABLES //
+
+/**
+ * Engine operations per CPU second on one core, the unit of `cpuSeconds`. An operation is
+ * one unit of the engine's cost model (estimatePointCost): a neuron visit costs
+ * `opsPerVisit`, building a network `buildOpsPerNetwork`.
+ *
+ * Measured with scripts/measure-throughput.ts (ops of a mix of workloads ÷ their CPU time,
+ * median of the mix) on the development machine: 2 vCPU, Node 20.20, engine 0.1.0.
+ * Re-measure when the engine's kernels change; only chunk sizes and the cpuSeconds
+ * estimate depend on it, never results.
+ */
+export const ENGINE_OPS_PER_CPU_SECOND = 2.0e8
+
+/** Chunks aim at this much CPU time each (between ~1 and ~10 s on the measured machine). */
+export const TARGET_CHUNK_SECONDS = 3
+
+export interface WorkLimits {
+  /** Largest network size N at any grid point. */
+  maxNeurons: number
+  /** Most grid points. */
+  maxPoints: number
+  /** Most trials in total (points × trials per point). */
+  maxTrials: number
+  /** Largest estimated memory one worker holds while running a point, in bytes. */
+  maxBytes: number
+  /** Largest estimated total CPU time, in seconds (all workers together); omitted = no limit. */
+  maxCpuSeconds?: number
+}
+
+/** Limits for a single shared machine; operators override them in the service config. */
+export const DEFAULT_LIMITS: Readonly<Required<WorkLimits>> = Object.freeze({
+  maxNeurons: 20_000,
+  maxPoints: 10_000,
+  maxTrials: 10_000_000,
+  maxBytes: 1024 * 1024 * 1024,
+  maxCpuSeconds: 24 * 3600
+})
+
+export interface WorkEstimate {
+  points: number
+  trialsPerPoint: number
+  /** points × trialsPerPoint. */
+  trials: number
+  /** Expected neuron visits over the whole sweep. */
+  neuronUpdates: number
+  /** Largest memory one worker holds while running any single point, in bytes. */
+  peakBytes: number
+  /** Estimated CPU time of the whole sweep on one core of the measured machine. */
+  cpuSeconds: number
+}
+
+// MAIN //
+
+/** The estimated work of one point's `trials` trials, in engine operations. */
+export function pointOps (cost: ReturnType<typeof estimatePointCost>, trials: number, trialsPerNetwork: number): number {
+  const networks = Math.ceil(trials / trialsPerNetwork)
+  return trials * cost.neuronUpdatesPerTrial * cost.opsPerVisit + networks * cost.buildOpsPerNetwork
+}
+
+export function estimateWork (spec: NormalisedSpec): WorkEstimate {
+  const points = countPoints(spec)
+  let neuronUpdates = 0
+  let ops = 0
+  let peakBytes = 0
+  for (let index = 0; index < points; index++) {
+    const { params } = pointAt(spec, index)
+    const cost = estimatePointCost(params)
+    neuronUpdates += spec.trials * cost.neuronUpdatesPerTrial
+    ops += pointOps(cost, spec.trials, params.trialsPerNetwork)
+    peakBytes = Math.max(peakBytes, cost.bytes)
+  }
+  return {
+    points,
+    trialsPerPoint: spec.trials,
+    trials: points * spec.trials,
+    neuronUpdates,
+    peakBytes,
+    cpuSeconds: ops / ENGINE_OPS_PER_CPU_SECOND
+  }
+}
+
+/**
+ * Refuses work over the limits, cheapest checks first: network size, grid points and
+ * trials come from counts alone; memory and CPU time from the cost model.
+ *
+ * @throws {WorkLimitError} for the first limit exceeded.
+ */
+export function checkLimits (spec: NormalisedSpec, limits: WorkLimits): WorkEstimate {
+  const largestN = largestNeurons(spec)
+  exceeds('maxNeurons', largestN, limits.maxNeurons)
+  const points = countPoints(spec)
+  exceeds('maxPoints', points, limits.maxPoints)
+  exceeds('maxTrials', points * spec.trials, limits.maxTrials)
+  const estimate = estimateWork(spec)
+  exceeds('maxBytes', estimate.peakBytes, limits.maxBytes)
+  if (limits.maxCpuSeconds !== undefined) exceeds('maxCpuSeconds', Math.ceil(estimate.cpuSeconds), limits.maxCpuSeconds)
+  return estimate
+}
+
+function exceeds (limit: WorkLimitName, value: number, max: number): void {
+  if (value > max) throw new WorkLimitError(limit, value, max)
+}
+
+function largestNeurons (spec: NormalisedSpec): number {
+  if (typeof spec.neurons === 'number') return spec.neurons
+  const axis = gridAxes(spec).find((a) => a.path === 'neurons')
+  return axis === undefined ? 0 : Math.max(...axis.values)
+}
