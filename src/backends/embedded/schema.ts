@@ -1,0 +1,80 @@
+/**
+ * The embedded backend's SQLite layout. `PRAGMA user_version` records which migrations
+ * have run; each migration runs once, inside a transaction, in order.
+ */
+import type Database from 'better-sqlite3'
+
+const MIGRATIONS: readonly string[] = [
+  `
+  CREATE TABLE sweeps (
+    -- Insertion order: breaks createdAt ties for FIFO dispatch and list cursors.
+    seq           INTEGER PRIMARY KEY AUTOINCREMENT,
+    id            TEXT NOT NULL UNIQUE,
+    owner         TEXT,
+    label         TEXT,
+    spec_hash     TEXT NOT NULL,
+    spec_json     TEXT NOT NULL,
+    status        TEXT NOT NULL CHECK (status IN ('queued', 'running', 'succeeded', 'failed', 'canceled')),
+    created_ms    INTEGER NOT NULL,
+    started_ms    INTEGER,
+    finished_ms   INTEGER,
+    points_total  INTEGER NOT NULL,
+    trials_total  INTEGER NOT NULL,
+    chunks_total  INTEGER NOT NULL,
+    points_done   INTEGER NOT NULL DEFAULT 0,
+    trials_done   INTEGER NOT NULL DEFAULT 0,
+    chunks_done   INTEGER NOT NULL DEFAULT 0,
+    error_kind    TEXT CHECK (error_kind IN ('user', 'system')),
+    error_message TEXT,
+    reused_from   TEXT REFERENCES sweeps (id)
+  );
+  CREATE INDEX sweeps_by_owner ON sweeps (owner, created_ms, seq);
+  CREATE INDEX sweeps_by_owner_status ON sweeps (owner, status, created_ms, seq);
+  CREATE INDEX sweeps_reusable ON sweeps (owner, spec_hash, created_ms) WHERE status = 'succeeded';
+
+  -- One row per finished chunk; a retried chunk replaces its row (primary key), never adds.
+  CREATE TABLE chunk_results (
+    sweep_id    TEXT NOT NULL REFERENCES sweeps (id),
+    chunk_index INTEGER NOT NULL,
+    point       INTEGER NOT NULL,
+    trials      INTEGER NOT NULL,
+    compute_ms  REAL NOT NULL,
+    codec       TEXT NOT NULL,
+    body        BLOB NOT NULL,
+    finished_ms INTEGER NOT NULL,
+    PRIMARY KEY (sweep_id, chunk_index)
+  ) WITHOUT ROWID;
+
+  -- The assembled result, written once when the sweep succeeds.
+  CREATE TABLE sweep_results (
+    sweep_id   TEXT PRIMARY KEY REFERENCES sweeps (id),
+    codec      TEXT NOT NULL,
+    body       BLOB NOT NULL,
+    created_ms INTEGER NOT NULL
+  );
+
+  -- Idempotency-Key bindings, per owner ('' when tokens are off).
+  CREATE TABLE idempotency_keys (
+    owner_key  TEXT NOT NULL,
+    key        TEXT NOT NULL,
+    spec_hash  TEXT NOT NULL,
+    sweep_id   TEXT NOT NULL REFERENCES sweeps (id),
+    created_ms INTEGER NOT NULL,
+    PRIMARY KEY (owner_key, key)
+  ) WITHOUT ROWID;
+  `
+]
+
+/** Brings the database to the latest layout; refuses one written by a newer memsweep. */
+export function migrate (db: Database.Database): void {
+  const current = Number(db.pragma('user_version', { simple: true }))
+  if (current > MIGRATIONS.length) {
+    throw new Error(`The data directory was written by a newer memsweep (schema ${current}, this build knows ${MIGRATIONS.length}).`)
+  }
+  for (let version = current; version < MIGRATIONS.length; version++) {
+    db.transaction(() => {
+      db.exec(MIGRATIONS[version] as string)
+      db.pragma(`user_version = ${version + 1}`, { simple: true })
+    })()
+  }
+}

@@ -1,0 +1,30 @@
+/**
+ * Where a compute thread's module lives and how to start it. Compiled (dist/), the entry
+ * is plain JavaScript beside this file. From source (vitest, tsx, `npm run dev`) it is the
+ * TypeScript file, and the thread needs tsx's loader: a worker thread does not inherit the
+ * loader hooks of the thread that started it.
+ */
+import { createRequire } from 'node:module'
+import { pathToFileURL } from 'node:url'
+
+export interface WorkerEntry {
+  /** file: URL of the module whose default export handles a task. */
+  filename: string
+  /** Node flags for the thread. */
+  execArgv: string[]
+}
+
+/** The chunk worker that ships with memsweep. */
+export function defaultChunkWorkerEntry (): WorkerEntry {
+  const fromSource = import.meta.url.endsWith('.ts')
+  const url = new URL(fromSource ? './chunk-worker.ts' : './chunk-worker.js', import.meta.url)
+  return workerEntryFor(url)
+}
+
+/** Any worker module (tests use fixtures that wrap the real one). */
+export function workerEntryFor (url: URL): WorkerEntry {
+  if (!url.pathname.endsWith('.ts')) return { filename: url.href, execArgv: [] }
+  // Resolved from here rather than from the working directory, so it works from any cwd.
+  const tsxLoader = pathToFileURL(createRequire(import.meta.url).resolve('tsx')).href
+  return { filename: url.href, execArgv: ['--import', tsxLoader] }
+}
