@@ -9,14 +9,22 @@ export function mixtureLevel (neurons: number): number {
   return Math.max(0.15, 4 / Math.sqrt(neurons))
 }
 
-/** Normalised overlaps (ξ^μ − b)·s / (N(1 − b²)) of the current state with every stored pattern, into out. */
+/**
+ * Normalised overlaps m_μ = Σ_i (ξ_i^μ − b) s_i / Σ_i (ξ_i^μ − b) ξ_i^μ of the current state
+ * with every stored pattern, into out. With b = 0 (unbiased) this is the usual (1/N) ξ^μ·s;
+ * for biased patterns (b = 2a − 1) centring removes the trivial overlap of any sparse state
+ * and the pattern's own norm makes m = 1 exactly on the pattern.
+ */
 export function normalisedOverlaps (net: Network, centre: number, out: Float64Array): void {
   net.rawOverlaps(out)
+  if (centre === 0) {
+    for (let mu = 0; mu < net.patternCount; mu++) out[mu] = out[mu]! / net.neurons
+    return
+  }
   const n = net.neurons
   let total = 0
-  if (centre !== 0) for (let i = 0; i < n; i++) total += net.state[i]!
-  const norm = n * (1 - centre * centre)
-  for (let mu = 0; mu < net.patternCount; mu++) out[mu] = (out[mu]! - centre * total) / norm
+  for (let i = 0; i < n; i++) total += net.state[i]!
+  for (let mu = 0; mu < net.patternCount; mu++) out[mu] = (out[mu]! - centre * total) / patternNorm(net, mu, centre)
 }
 
 export function targetOverlapOf (net: Network, target: number, centre: number): number {
@@ -28,7 +36,15 @@ export function targetOverlapOf (net: Network, target: number, centre: number): 
     raw += net.patterns[base + i]! * net.state[i]!
     total += net.state[i]!
   }
-  return (raw - centre * total) / (n * (1 - centre * centre))
+  return centre === 0 ? raw / n : (raw - centre * total) / patternNorm(net, target, centre)
+}
+
+/** Σ_i (ξ_i^μ − b) ξ_i^μ = N − b Σ_i ξ_i^μ. */
+function patternNorm (net: Network, mu: number, centre: number): number {
+  const n = net.neurons
+  let sum = 0
+  for (let i = 0; i < n; i++) sum += net.patterns[mu * n + i]!
+  return n - centre * sum
 }
 
 export function classifyEndState (overlaps: Float64Array, count: number, target: number, neurons: number): EndState {

@@ -6,7 +6,10 @@
  * the engine trusts them apart from the cheap invariant checks in `checkPointParams`.
  */
 
-/** How pattern entries are written down. `pm1`: ±1 neurons; `binary`: 0/1 neurons. */
+/**
+ * Neuron coding. `pm1`: ±1 neurons; `binary`: 0/1 neurons (V = (1 + s)/2), which changes
+ * the local field (silent units contribute nothing) as well as how patterns are written.
+ */
 export type Coding = 'pm1' | 'binary'
 
 export type PatternFamily =
@@ -30,8 +33,9 @@ export type LearningRule =
   | { kind: 'storkey', selfCoupling: boolean }
   /**
    * Covariance rule for biased patterns with activity a (Tsodyks & Feigel'man 1988):
-   * J_ij = (1/N) Σ_μ (η_i^μ − a)(η_j^μ − a) on 0/1 variables η, with a uniform firing
-   * threshold θ (in units of the field). `threshold: null` means the default θ = (½ − a)·a(1−a)... see rules/covariance.ts.
+   * J_ij = (1/N) Σ_μ (ξ_i^μ − b)(ξ_j^μ − b), b = 2a − 1, with a uniform threshold θ on the
+   * field of the chosen coding; `threshold` is θ/(1 − b²), null → midway between the mean
+   * fields of active and silent units (see rules/covariance.ts).
    */
   | { kind: 'covariance', selfCoupling: boolean, threshold: number | null }
 

@@ -10,9 +10,9 @@ import type { Network } from './network.js'
 import { OverlapSpaceNetwork } from './overlap-space.js'
 import { DenseNetwork } from './dense.js'
 
-/** Which representation a point uses: overlap space whenever the rule allows it (Hebbian, fully connected). */
+/** Which representation a point uses: overlap space whenever the rule allows it (Hebbian, fully connected, ±1 neurons). */
 export function chooseRepresentation (p: PointParams): Network['representation'] {
-  return p.rule.kind === 'hebbian' && p.dilution === null ? 'overlap-space' : 'dense-incremental'
+  return p.rule.kind === 'hebbian' && p.dilution === null && p.coding === 'pm1' ? 'overlap-space' : 'dense-incremental'
 }
 
 /**
@@ -27,7 +27,7 @@ export function buildNetwork (p: PointParams, rng: RandomSource): Network {
   }
   let couplings: Float64Array
   let fieldScale = 1
-  let bias = 0
+  let theta = 0
   switch (p.rule.kind) {
     case 'hebbian':
       couplings = hebbianCouplings(patterns, n, count, p.rule.selfCoupling)
@@ -41,20 +41,32 @@ export function buildNetwork (p: PointParams, rng: RandomSource): Network {
       break
     case 'covariance': {
       const activity = p.family.kind === 'random' ? p.family.activity : 0.5
-      const built = covarianceCouplings(patterns, n, count, activity, p.rule.selfCoupling, p.rule.threshold)
+      const built = covarianceCouplings(patterns, n, count, activity, p.rule.selfCoupling, p.rule.threshold, p.coding === 'binary')
       couplings = built.couplings
-      bias = built.bias
+      theta = built.theta
       break
     }
   }
   if (p.dilution !== null) diluteCouplings(couplings, n, p.dilution, rng)
+  const bias = new Float64Array(n)
+  if (p.coding === 'binary') {
+    // 0/1 neurons V = (1 + s)/2: Σ_j J_ij V_j − θ = ½(Σ_j J_ij s_j + Σ_j J_ij − 2θ), so the
+    // spin dynamics run on the same couplings with bias Σ_j J_ij − 2θ and half the scale.
+    for (let i = 0; i < n; i++) {
+      let rowSum = 0
+      for (let j = 0; j < n; j++) rowSum += couplings[i * n + j]!
+      bias[i] = rowSum - 2 * theta / fieldScale
+    }
+    fieldScale /= 2
+  } else {
+    bias.fill(-theta / fieldScale)
+  }
   return new DenseNetwork({
     patterns,
     neurons: n,
     patternCount: count,
     couplings,
-    // Bias is physical; the network works in raw units.
-    bias: new Float64Array(n).fill(bias / fieldScale),
+    bias,
     fieldScale,
     symmetric: p.dilution === null || p.dilution.symmetric
   })

@@ -1,12 +1,15 @@
 /**
- * Covariance rule for biased patterns (Tsodyks & Feigel'man 1988), written for ±1 spins:
- *   J_ij = (1/N) Σ_μ (ξ_i^μ − b)(ξ_j^μ − b),   b = 2a − 1 the nominal mean of the entries,
- * with a uniform threshold θ so that h_i = Σ_j J_ij s_j − θ. On a stored pattern the
- * field of an active unit is ≈ (1 − b)(1 − b²) and of a silent one ≈ −(1 + b)(1 − b²);
- * the default θ = −b(1 − b²) sits midway. `threshold` is θ / (1 − b²).
- * Returns physical couplings (scale 1) and the bias −θ.
+ * Covariance rule for biased patterns (Tsodyks & Feigel'man 1988):
+ *   J_ij = (1/N) Σ_μ (ξ_i^μ − b)(ξ_j^μ − b),   b = 2a − 1 the nominal mean of the ±1 entries,
+ * with a uniform threshold θ on the field of the chosen coding: h_i = Σ_j J_ij s_j − θ for ±1
+ * neurons, h_i = Σ_j J_ij V_j − θ for 0/1 neurons V = (1 + s)/2. On a stored pattern an
+ * active unit's field is ≈ (1 − b)(1 − b²)·c and a silent one's ≈ −(1 + b)(1 − b²)·c with
+ * c = 1 (±1) or ½ (0/1), so the default θ = −b(1 − b²)·c sits midway. `threshold` is
+ * θ / (1 − b²). With 0/1 neurons silent units add no crosstalk, which is what lets sparse
+ * patterns be stored far beyond the unbiased capacity.
+ * Returns physical couplings (scale 1) and θ.
  */
-export function covarianceCouplings (patterns: Int8Array, n: number, p: number, activity: number, selfCoupling: boolean, threshold: number | null): { couplings: Float64Array, bias: number } {
+export function covarianceCouplings (patterns: Int8Array, n: number, p: number, activity: number, selfCoupling: boolean, threshold: number | null, binary: boolean): { couplings: Float64Array, theta: number } {
   const b = 2 * activity - 1
   const centred = new Float64Array(p * n)
   for (let k = 0; k < p * n; k++) centred[k] = patterns[k]! - b
@@ -20,6 +23,6 @@ export function covarianceCouplings (patterns: Int8Array, n: number, p: number, 
     }
   }
   if (!selfCoupling) for (let r = 0; r < n; r++) j[r * n + r] = 0
-  const theta = (threshold ?? -b) * (1 - b * b)
-  return { couplings: j, bias: -theta }
+  const theta = (threshold ?? (binary ? -b / 2 : -b)) * (1 - b * b)
+  return { couplings: j, theta }
 }
