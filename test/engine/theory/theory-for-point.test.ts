@@ -1,0 +1,116 @@
+import { describe, it, expect } from 'vitest'
+import type { PointParams } from '../../../src/engine/params.js'
+import {
+  crosstalkErrorExact, curieWeissOverlap, firstParallelStepExact, rsCriticalLoad, rsRetrievalOverlap, theoryForPoint
+} from '../../../src/engine/theory/index.js'
+
+/** A Hebbian point: N = 1000, P = 100, unbiased random patterns, async T = 0, 10 % flip cue. */
+function point (changes: Partial<PointParams> = {}): PointParams {
+  return {
+    neurons: 1000,
+    patterns: 100,
+    coding: 'pm1',
+    family: { kind: 'random', activity: 0.5 },
+    rule: { kind: 'hebbian', selfCoupling: false },
+    dilution: null,
+    cue: { kind: 'flip', fraction: 0.1 },
+    dynamics: { update: 'async-random', temperature: 0, maxSweeps: 50, burnIn: 0 },
+    measures: { overlapTrajectory: false, energyTrajectory: false, stability: false },
+    successThreshold: 0.9,
+    trialsPerNetwork: 1,
+    ...changes
+  }
+}
+
+describe('theoryForPoint', () => {
+  it('gives crosstalk, critical load and RS retrieval for Hebbian asynchronous T = 0', () => {
+    const theory = theoryForPoint(point())
+    expect(Object.keys(theory).sort()).toEqual([
+      'criticalLoad', 'crosstalkErrorExact', 'crosstalkErrorGaussian', 'crosstalkTieExact', 'loadAlpha', 'retrievalOverlapRS'
+    ])
+    expect(theory.loadAlpha).toBe(0.1)
+    // CHECK_VALUES §1 [D]: (1000, 100) → 7.37e-4, half a unit of the last digit.
+    expect(Math.abs((theory.crosstalkErrorExact as number) - 7.37e-4)).toBeLessThanOrEqual(5e-7)
+    expect(theory.crosstalkTieExact).toBe(crosstalkErrorExact(1000, 100).tie)
+    // CHECK_VALUES §2 (AGS 1987): m(0.10) = 0.9979993, tolerance 1e-6; α_c = 0.137906.
+    expect(Math.abs((theory.retrievalOverlapRS as number) - 0.9979993)).toBeLessThanOrEqual(1e-6)
+    expect(theory.criticalLoad).toBe(rsCriticalLoad().alphaC)
+  })
+
+  it('uses the kept diagonal in the crosstalk and drops the J_ii = 0 theories', () => {
+    const theory = theoryForPoint(point({ rule: { kind: 'hebbian', selfCoupling: true } }))
+    // CHECK_VALUES §1 [D]: 2.35e-4 with J_ii = P/N.
+    expect(Math.abs((theory.crosstalkErrorExact as number) - 2.35e-4)).toBeLessThanOrEqual(5e-7)
+    expect(theory.retrievalOverlapRS).toBeUndefined()
+    expect(theory.criticalLoad).toBeUndefined()
+  })
+
+  it('reports 0 for RS retrieval above α_c', () => {
+    expect(theoryForPoint(point({ patterns: 150 })).retrievalOverlapRS).toBe(0)
+  })
+
+  it('gives the first parallel step for synchronous T = 0 with a flip cue, ties kept as the engine does', () => {
+    const theory = theoryForPoint(point({
+      cue: { kind: 'flip', fraction: 0.2 },
+      dynamics: { update: 'sync', temperature: 0, maxSweeps: 50, burnIn: 0 }
+    }))
+    expect(theory.retrievalOverlapRS).toBeUndefined()
+    // m₀ = 0.6: CHECK_VALUES §5a, erf(0.6/√0.2) = 0.9422 (4 digits).
+    expect(Math.abs((theory.firstStepOverlap as number) - 0.9422)).toBeLessThanOrEqual(5e-5)
+    expect(theory.firstStepOverlapExact).toBe(firstParallelStepExact(1000, 100, 0.6, { ties: 'keep' }))
+    // Keeping ties sits slightly above random tie-breaking (0.94334, CHECK_VALUES §5a).
+    expect(theory.firstStepOverlapExact).toBeGreaterThan(0.94334)
+  })
+
+  it('uses the realised number of flipped bits for m₀', () => {
+    // fraction 0.1234 of N = 1000 flips round(123.4) = 123 bits: m₀ = 0.754.
+    const theory = theoryForPoint(point({
+      cue: { kind: 'flip', fraction: 0.1234 },
+      dynamics: { update: 'sync', temperature: 0, maxSweeps: 50, burnIn: 0 }
+    }))
+    expect(theory.firstStepOverlapExact).toBe(firstParallelStepExact(1000, 100, 0.754, { ties: 'keep' }))
+  })
+
+  it('gives Curie–Weiss and T_g at vanishing load and T > 0, only T_g at finite load', () => {
+    const dynamics = { update: 'async-random' as const, temperature: 0.6, maxSweeps: 50, burnIn: 10 }
+    const low = theoryForPoint(point({ patterns: 5, dynamics }))
+    expect(low.curieWeissOverlap).toBe(curieWeissOverlap(0.6))
+    expect(low.spinGlassTemperature).toBe(1 + Math.sqrt(0.005))
+    expect(low.retrievalOverlapRS).toBeUndefined()
+    const high = theoryForPoint(point({ dynamics }))
+    expect(high.curieWeissOverlap).toBeUndefined()
+    expect(high.spinGlassTemperature).toBe(1 + Math.sqrt(0.1))
+  })
+
+  it('gives the symmetric mixture overlap for an odd mixture cue at vanishing load', () => {
+    // AGS 1985, CHECK_VALUES §4: m₃ = ½.
+    expect(theoryForPoint(point({ patterns: 10, cue: { kind: 'mixture', components: 3 } })).mixtureOverlap).toBe(0.5)
+    expect(theoryForPoint(point({ patterns: 10, cue: { kind: 'mixture', components: 4 } })).mixtureOverlap).toBeUndefined()
+    expect(theoryForPoint(point({ cue: { kind: 'mixture', components: 3 } })).mixtureOverlap).toBeUndefined()
+  })
+
+  it('gives critical load 1 for the pseudo-inverse rule', () => {
+    // Kanter & Sompolinsky, PRA 35, 380 (1987) [S]: maximum capacity α = 1.
+    const theory = theoryForPoint(point({ rule: { kind: 'pseudo-inverse', selfCoupling: false }, patterns: 500 }))
+    expect(theory).toEqual({ loadAlpha: 0.5, criticalLoad: 1 })
+  })
+
+  it('returns {} where none of these theories applies', () => {
+    expect(theoryForPoint(point({ rule: { kind: 'storkey', selfCoupling: false } }))).toEqual({})
+    expect(theoryForPoint(point({ family: { kind: 'random', activity: 0.1 } }))).toEqual({})
+    expect(theoryForPoint(point({ family: { kind: 'correlated', parents: 3, parentOverlap: 0.5 } }))).toEqual({})
+    expect(theoryForPoint(point({ dilution: { keep: 0.5, symmetric: true } }))).toEqual({})
+    expect(theoryForPoint(point({ coding: 'binary' }))).toEqual({})
+  })
+
+  it('treats dilution that keeps every coupling as none', () => {
+    expect(theoryForPoint(point({ dilution: { keep: 1, symmetric: false } }))).toEqual(theoryForPoint(point()))
+  })
+
+  it('stays consistent with the standalone functions over a load sweep', () => {
+    for (let p = 10; p <= 200; p += 10) {
+      const theory = theoryForPoint(point({ patterns: p }))
+      expect(theory.retrievalOverlapRS).toBe(rsRetrievalOverlap(p / 1000))
+    }
+  })
+})
