@@ -15,12 +15,14 @@ import type { NormalisedSpec } from './types.js'
  * one unit of the engine's cost model (estimatePointCost): a neuron visit costs
  * `opsPerVisit`, building a network `buildOpsPerNetwork`.
  *
- * Measured with scripts/measure-throughput.ts (ops of a mix of workloads ÷ their CPU time,
- * median of the mix) on the development machine: 2 vCPU, Node 20.20, engine 0.1.0.
- * Re-measure when the engine's kernels change; only chunk sizes and the cpuSeconds
- * estimate depend on it, never results.
+ * Measured with `npx tsx test/spec/measure-throughput.ts`: eight workloads (Hebbian T = 0
+ * async and sync, Glauber, pseudo-inverse, Storkey, covariance, diluted; N 200–1000), each
+ * rate = modelled ops ÷ process CPU time after a warm-up; two runs gave medians of
+ * 1.83e8 and 1.94e8 on the development machine (2 vCPU, Node 20.20, engine 0.1.0), with
+ * single workloads between 0.33× and 1.5× the median. Re-measure when the engine's
+ * kernels change; only chunk sizes and the cpuSeconds estimate depend on it, never results.
  */
-export const ENGINE_OPS_PER_CPU_SECOND = 2.0e8
+export const ENGINE_OPS_PER_CPU_SECOND = 1.9e8
 
 /** Chunks aim at this much CPU time each (between ~1 and ~10 s on the measured machine). */
 export const TARGET_CHUNK_SECONDS = 3

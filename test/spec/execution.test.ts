@@ -1,0 +1,159 @@
+import { describe, expect, it } from 'vitest'
+import fc from 'fast-check'
+import {
+  assembleResult, ChunkCanceledError, IncompleteResultError, makeProvenance, normaliseSpec, planChunks,
+  resultToCsv, resultToJson, runChunk, type Chunk, type ChunkResult, type NormalisedSpec
+} from '../../src/spec/index.js'
+
+// Small enough to run in well under a second, varied enough to exercise two axes and
+// networks shared by several trials.
+const spec = normaliseSpec({
+  label: 'lobby and corridor rooms, small',
+  seed: 2024,
+  neurons: 48,
+  load: { values: [0.05, 0.15] },
+  cue: { kind: 'flip', fraction: { values: [0.1, 0.3] } },
+  trials: 9,
+  trialsPerNetwork: 3,
+  measures: { stability: true }
+})
+const provenance = makeProvenance(spec, { wallSeconds: 1.5, cpuSeconds: 2.5, workers: 2 })
+
+function runAll (s: NormalisedSpec, chunks: Chunk[]): ChunkResult[] {
+  return chunks.map((chunk) => runChunk(s, chunk))
+}
+
+/** Every trial in its own chunk: the finest possible split. */
+function singleTrialChunks (s: NormalisedSpec, points: number): Chunk[] {
+  const chunks: Chunk[] = []
+  for (let point = 0; point < points; point++) {
+    for (let t = 0; t < s.trials; t++) chunks.push({ index: chunks.length, point, firstTrial: t, count: 1 })
+  }
+  return chunks
+}
+
+const planned = planChunks(spec)
+const fullRun = runAll(spec, planned)
+const reference = assembleResult(spec, fullRun, provenance)
+
+describe('planChunks', () => {
+  it('is a deterministic function of the spec', () => {
+    expect(planChunks(normaliseSpec(JSON.parse(JSON.stringify(spec))))).toEqual(planned)
+  })
+
+  it('covers every trial of every point once, in order, on network boundaries', () => {
+    const big = normaliseSpec({ neurons: 400, load: { values: [0.05, 0.1] }, dynamics: { temperature: 0.3, maxSweeps: 2000, burnIn: 100 }, trials: 300, trialsPerNetwork: 4 })
+    const chunks = planChunks(big)
+    expect(chunks.length).toBeGreaterThan(2)
+    expect(chunks.map((c) => c.index)).toEqual(chunks.map((_, i) => i))
+    for (const point of [0, 1]) {
+      const mine = chunks.filter((c) => c.point === point)
+      expect(mine[0]!.firstTrial).toBe(0)
+      for (let k = 1; k < mine.length; k++) expect(mine[k]!.firstTrial).toBe(mine[k - 1]!.firstTrial + mine[k - 1]!.count)
+      expect(mine.at(-1)!.firstTrial + mine.at(-1)!.count).toBe(300)
+      for (const c of mine) expect(c.firstTrial % 4).toBe(0)
+    }
+  })
+})
+
+describe('runChunk', () => {
+  it('gives the same trials as the full run, whatever the chunk boundaries', () => {
+    const middle = runChunk(spec, { index: 99, point: 3, firstTrial: 4, count: 4 })
+    expect(middle.point).toBe(3)
+    expect(middle.chunk).toBe(99)
+    expect(middle.trials).toEqual(reference.trials[3]!.slice(4, 8))
+  })
+
+  it('reports progress after each trial and stops between trials when asked', () => {
+    const progress: number[] = []
+    runChunk(spec, { index: 0, point: 0, firstTrial: 0, count: 3 }, { onTrial: (done) => progress.push(done) })
+    expect(progress).toEqual([1, 2, 3])
+    let polls = 0
+    const stop = () => ++polls > 2
+    expect(() => runChunk(spec, { index: 5, point: 1, firstTrial: 0, count: 9 }, { shouldStop: stop }))
+      .toThrow(ChunkCanceledError)
+    expect(polls).toBe(3)
+  })
+
+  it('refuses a chunk outside the grid', () => {
+    expect(() => runChunk(spec, { index: 0, point: 4, firstTrial: 0, count: 1 })).toThrow(RangeError)
+    expect(() => runChunk(spec, { index: 0, point: 0, firstTrial: 8, count: 2 })).toThrow(RangeError)
+  })
+})
+
+describe('assembleResult', () => {
+  it('aggregates each point in trial order, with values, params and theory', () => {
+    expect(reference.rows).toHaveLength(4)
+    const row = reference.rows[3]!
+    expect(row.values).toEqual({ load: 0.15, 'cue.fraction': 0.3 })
+    expect(row.params).toEqual({ alpha: 7 / 48, neurons: 48, patterns: 7 })
+    expect(row.summary.trials).toBe(9)
+    expect(row.summary.stability?.networks).toBe(3)
+    expect(reference.trials[3]!.map((t) => t.trial)).toEqual([0, 1, 2, 3, 4, 5, 6, 7, 8])
+    expect(reference.specHash).toBe(provenance.specHash)
+  })
+
+  it('gives byte-identical JSON and CSV whatever the chunk order or chunking', () => {
+    const bytes = (chunks: ChunkResult[]) => {
+      const result = assembleResult(spec, chunks, provenance)
+      return [true, false].flatMap((perTrial) => [resultToJson(result, { perTrial }), resultToCsv(result, { perTrial })])
+    }
+    const expected = bytes(fullRun)
+    fc.assert(fc.property(fc.shuffledSubarray(fullRun, { minLength: fullRun.length }), (shuffled) => {
+      expect(bytes(shuffled)).toEqual(expected)
+    }), { numRuns: 20 })
+    const fine = runAll(spec, singleTrialChunks(spec, 4)).reverse()
+    expect(bytes(fine)).toEqual(expected)
+  })
+
+  it('accepts a chunk delivered twice but refuses missing or conflicting trials', () => {
+    expect(resultToJson(assembleResult(spec, [...fullRun, fullRun[0]!], provenance), { perTrial: true }))
+      .toBe(resultToJson(reference, { perTrial: true }))
+    expect(() => assembleResult(spec, fullRun.slice(1), provenance)).toThrow(IncompleteResultError)
+    const tampered: ChunkResult = { ...fullRun[0]!, trials: fullRun[0]!.trials.map((t) => ({ ...t, overlap: -t.overlap })) }
+    expect(() => assembleResult(spec, [...fullRun, tampered], provenance)).toThrow(/delivered twice with different content/)
+  })
+
+  it('refuses provenance made for another spec', () => {
+    const other = makeProvenance(normaliseSpec({ neurons: 48, patterns: 2 }), { wallSeconds: 0, cpuSeconds: 0 })
+    expect(() => assembleResult(spec, fullRun, other)).toThrow(RangeError)
+  })
+})
+
+describe('output', () => {
+  it('writes canonical JSON, with trials only on request', () => {
+    const json = resultToJson(reference, { perTrial: false })
+    expect(json.endsWith('}\n')).toBe(true)
+    const parsed = JSON.parse(json)
+    expect(Object.keys(parsed)).toEqual(['provenance', 'rows', 'spec', 'specHash'])
+    expect(parsed.spec.label).toBe('lobby and corridor rooms, small')
+    expect(JSON.parse(resultToJson(reference, { perTrial: true })).trials).toHaveLength(4)
+  })
+
+  it('writes one tidy CSV row per point, varied parameters first', () => {
+    const csv = resultToCsv(reference, { perTrial: false })
+    const lines = csv.split('\r\n')
+    expect(lines).toHaveLength(6)
+    expect(lines.at(-1)).toBe('')
+    const header = lines[0]!.split(',')
+    expect(header.slice(0, 7)).toEqual(['point', 'load', 'cue.fraction', 'neurons', 'patterns', 'alpha', 'trials'])
+    expect(header).toEqual(expect.arrayContaining(['overlap.mean', 'success.rate', 'success.low', 'endState.target', 'stability.unstableFraction']))
+    expect(header.some((h) => h.startsWith('theory.'))).toBe(true)
+    const cells = lines[4]!.split(',')
+    expect(cells.slice(0, 7)).toEqual(['3', '0.15', '0.3', '48', '7', String(7 / 48), '9'])
+    expect(Number(cells[header.indexOf('success.count')])).toBe(reference.rows[3]!.summary.success.count)
+  })
+
+  it('writes one CSV row per trial on request', () => {
+    const lines = resultToCsv(reference, { perTrial: true }).trimEnd().split('\r\n')
+    expect(lines).toHaveLength(1 + 4 * 9)
+    const header = lines[0]!.split(',')
+    expect(header.slice(0, 8)).toEqual(['point', 'load', 'cue.fraction', 'neurons', 'patterns', 'alpha', 'trial', 'target'])
+    const last = lines.at(-1)!.split(',')
+    expect(last[0]).toBe('3')
+    expect(last[6]).toBe('8')
+    const trial = reference.trials[3]![8]!
+    expect(last[header.indexOf('overlap')]).toBe(String(trial.overlap))
+    expect(last[header.indexOf('success')]).toBe(trial.overlap >= 0.9 ? '1' : '0')
+  })
+})
