@@ -101,6 +101,7 @@ export class ChunkScheduler {
     const task = this.#pool.runChunk(
       { kind: 'run', spec: sweep.spec, chunk, attempt, stopFlag: sweep.stopFlag, progressIntervalMs: Math.min(100, this.#options.progressIntervalMs) },
       message => {
+        if (this.#active.get(sweep.id) !== sweep) return
         sweep.reportTrials(chunk.index, message.trialsDone)
         this.#events.progress(sweep.id)
       }
