@@ -9,7 +9,7 @@ import fastifyBearerAuth from '@fastify/bearer-auth'
 import type { FastifyInstance, FastifyRequest } from 'fastify'
 import fp from 'fastify-plugin'
 import { ServiceError } from '../../errors.js'
-import type { Principal, Role, TokenTable } from '../tokens.js'
+import { loadTokens, type Principal, type Role, type TokenTable } from '../tokens.js'
 
 declare module 'fastify' {
   interface FastifyRequest {
@@ -25,11 +25,15 @@ const SINGLE_USER: Principal = Object.freeze({ owner: null, role: 'admin' })
 const ANONYMOUS: Principal = Object.freeze({ owner: null, role: 'read' })
 
 export interface AuthOptions {
-  tokens: TokenTable | null
+  /** A loaded token table (tests); when undefined, `tokensFile` is read. */
+  tokens?: TokenTable | null | undefined
+  tokensFile: string | null
 }
 
 async function auth (app: FastifyInstance, options: AuthOptions): Promise<void> {
-  const tokens = options.tokens
+  const tokens = options.tokens !== undefined
+    ? options.tokens
+    : options.tokensFile === null ? null : await loadTokens(options.tokensFile)
   app.decorateRequest('principal', null as unknown as Principal)
   if (tokens === null) {
     app.addHook('onRequest', async (request) => { request.principal = SINGLE_USER })

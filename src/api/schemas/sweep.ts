@@ -54,3 +54,17 @@ export const sweepListSchema = z.object({
 }).meta({ id: 'SweepList' })
 
 export type SweepStatusBody = z.infer<typeof sweepStatusSchema>
+
+export const sweepDetailSchema = sweepStatusSchema.extend({
+  spec: z.record(z.string(), z.unknown())
+    .describe('The normalised spec: every default filled in, every axis expanded to { values }. It is itself a valid spec, so it can be resubmitted as is.')
+}).meta({ id: 'SweepDetail' })
+
+export const workEstimateSchema = z.object({
+  points: z.number().int().describe('Grid points.'),
+  trialsPerPoint: z.number().int(),
+  trials: z.number().int().describe('points × trialsPerPoint.'),
+  neuronUpdates: z.number().describe('Expected neuron visits over the whole sweep.'),
+  peakBytes: z.number().describe('Largest memory one worker holds while running any single point.'),
+  cpuSeconds: z.number().describe('Estimated CPU time of the whole sweep on one core of a reference machine.')
+}).meta({ id: 'WorkEstimate' })

@@ -1,0 +1,106 @@
+/**
+ * The HTTP API as a fastify instance that never listens: server.ts listens, tests inject.
+ * Everything it needs arrives as arguments; the queue port is its only way to a backend.
+ */
+import { randomUUID } from 'node:crypto'
+import fastifyRateLimit from '@fastify/rate-limit'
+import fastifySwagger from '@fastify/swagger'
+import Fastify, { type FastifyInstance, type FastifyServerOptions } from 'fastify'
+import { jsonSchemaTransform, serializerCompiler, validatorCompiler, type ZodTypeProvider } from 'fastify-type-provider-zod'
+import type { Logger } from 'pino'
+import type { SweepQueue } from '../backends/port.js'
+import type { Config } from '../config.js'
+import { ServiceError } from '../errors.js'
+import { DEFAULT_LIMITS, type WorkLimits } from '../spec/index.js'
+import { EventStreamRegistry } from './event-stream.js'
+import { authPlugin } from './plugins/auth.js'
+import { metricsPlugin } from './plugins/metrics.js'
+import { problemsPlugin } from './plugins/problems.js'
+import { OwnerGate, type RouteContext } from './routes/context.js'
+import { eventRoutes } from './routes/events.js'
+import { healthRoutes } from './routes/health.js'
+import { resultRoutes } from './routes/results.js'
+import { sweepRoutes } from './routes/sweeps.js'
+import { theoryRoutes } from './routes/theory.js'
+import type { TokenTable } from './tokens.js'
+import { API_DOCUMENT_INFO } from './openapi-info.js'
+import { transformDocument } from './openapi-document.js'
+
+export interface AppDependencies {
+  config: Config
+  queue: SweepQueue
+  logger: Logger
+  /** Already loaded tokens; by default they are read from config.tokensFile when the app starts. */
+  tokens?: TokenTable | null
+}
+
+/** A client-supplied X-Request-Id is kept when it is short and plain, so logs can be joined across services. */
+const REQUEST_ID = /^[A-Za-z0-9._:-]{1,128}$/
+
+export function buildApp (deps: AppDependencies): FastifyInstance {
+  const { config, queue, logger } = deps
+  const options: FastifyServerOptions = {
+    loggerInstance: logger,
+    bodyLimit: config.bodyLimit,
+    trustProxy: config.trustProxy,
+    genReqId: (req) => {
+      const offered = req.headers['x-request-id']
+      return typeof offered === 'string' && REQUEST_ID.test(offered) ? offered : randomUUID()
+    },
+    return503OnClosing: true,
+    // Keep-alive sockets would otherwise hold close() until their idle timeout.
+    forceCloseConnections: 'idle'
+  }
+  const app = Fastify(options).withTypeProvider<ZodTypeProvider>()
+  app.setValidatorCompiler(validatorCompiler)
+  app.setSerializerCompiler(serializerCompiler)
+
+  const limits: Required<WorkLimits> = { ...DEFAULT_LIMITS, ...config.limits }
+  const streams = new EventStreamRegistry()
+  const context: RouteContext = {
+    queue,
+    limits,
+    maxActiveSweepsPerOwner: config.maxActiveSweepsPerOwner,
+    heartbeatMs: config.sseHeartbeatSeconds * 1000,
+    streams,
+    gate: new OwnerGate()
+  }
+
+  app.addHook('onRequest', async (request, reply) => {
+    reply.header('x-request-id', request.id)
+  })
+  // Open event streams would keep the server from closing: end them first.
+  app.addHook('preClose', async () => { streams.endAll() })
+
+  app.register(problemsPlugin, { bodyLimit: config.bodyLimit })
+  app.register(metricsPlugin, { queue })
+  app.register(authPlugin, { tokens: deps.tokens, tokensFile: config.tokensFile })
+  app.register(fastifyRateLimit, {
+    max: config.rateLimit.max,
+    timeWindow: config.rateLimit.windowSeconds * 1000,
+    // After authentication, so a lab's users behind one NAT address do not share a budget.
+    hook: 'preParsing',
+    keyGenerator: (request) => request.principal?.owner !== null && request.principal?.owner !== undefined
+      ? `owner:${request.principal.owner}`
+      : `ip:${request.ip}`,
+    errorResponseBuilder: (_request, context) => new ServiceError('MEMSWEEP_RATE_LIMITED', {
+      max: context.max,
+      window: `${config.rateLimit.windowSeconds} s`,
+      retryAfter: Math.ceil(context.ttl / 1000)
+    }, { extensions: { retryAfter: Math.ceil(context.ttl / 1000) } })
+  })
+  app.register(fastifySwagger, {
+    openapi: {
+      openapi: '3.1.0',
+      ...API_DOCUMENT_INFO
+    },
+    transform: jsonSchemaTransform,
+    transformObject: transformDocument
+  })
+  app.register(healthRoutes, { queue })
+  app.register(sweepRoutes, context)
+  app.register(resultRoutes, context)
+  app.register(eventRoutes, context)
+  app.register(theoryRoutes, context)
+  return app as unknown as FastifyInstance
+}

@@ -1,0 +1,55 @@
+/** What the route plugins share: the queue port, the limits and per-owner bookkeeping. */
+import type { FastifySchemaCompiler } from 'fastify'
+import { validatorCompiler } from 'fastify-type-provider-zod'
+import type { SweepQueue, SweepRecord } from '../../backends/port.js'
+import { ServiceError } from '../../errors.js'
+import type { WorkLimits } from '../../spec/index.js'
+import type { EventStreamRegistry } from '../event-stream.js'
+import { canSee } from '../plugins/auth.js'
+import type { Principal } from '../tokens.js'
+
+export interface RouteContext {
+  queue: SweepQueue
+  limits: WorkLimits
+  maxActiveSweepsPerOwner: number
+  heartbeatMs: number
+  streams: EventStreamRegistry
+  gate: OwnerGate
+}
+
+/** The record of a sweep the caller may see; anything else is a 404 (never a 403, so ids reveal nothing). */
+export async function visibleSweep (queue: SweepQueue, principal: Principal, id: string): Promise<SweepRecord> {
+  const record = await queue.get(id)
+  if (record === null || !canSee(principal, record.owner)) throw new ServiceError('MEMSWEEP_SWEEP_NOT_FOUND', { id })
+  return record
+}
+
+/**
+ * Runs one owner's submissions one at a time in this process, so the active-sweep cap cannot
+ * be overrun by a burst of parallel requests (across API processes it is a soft cap).
+ */
+export class OwnerGate {
+  readonly #tails = new Map<string, Promise<unknown>>()
+
+  async run<T> (owner: string | null, task: () => Promise<T>): Promise<T> {
+    const key = owner ?? ''
+    const previous = this.#tails.get(key) ?? Promise.resolve()
+    const current = previous.catch(() => undefined).then(task)
+    this.#tails.set(key, current)
+    try {
+      return await current
+    } finally {
+      if (this.#tails.get(key) === current) this.#tails.delete(key)
+    }
+  }
+}
+
+/**
+ * Validates querystring, params and headers with zod but passes a spec body through
+ * untouched: the spec layer's normaliseSpec is the one place that judges a spec, so its
+ * field paths and cross-field rules are what the client sees.
+ */
+export const specBodyValidator: FastifySchemaCompiler<unknown> = (route) => {
+  if (route.httpPart === 'body') return (data: unknown) => ({ value: data })
+  return validatorCompiler(route as Parameters<typeof validatorCompiler>[0])
+}

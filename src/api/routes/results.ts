@@ -1,0 +1,124 @@
+/** Results of a succeeded sweep as JSON or CSV, with strong ETags (a result never changes). */
+import { createHash } from 'node:crypto'
+import { z } from 'zod'
+import type { FastifyReply } from 'fastify'
+import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod'
+import { ServiceError } from '../../errors.js'
+import { resultToCsv, resultToJson } from '../../spec/index.js'
+import { negotiate } from '../negotiate.js'
+import { ifNoneMatchHits, sweepPath } from '../presenters.js'
+import { problemResponses } from '../schemas/problem.js'
+import { sweepResultSchema } from '../schemas/result.js'
+import { sweepIdSchema } from '../schemas/sweep.js'
+import { visibleSweep, type RouteContext } from './context.js'
+
+const MEDIA = { json: 'application/json', csv: 'text/csv' } as const
+type Format = keyof typeof MEDIA
+
+const resultsQuery = z.object({
+  format: z.enum(['json', 'csv']).optional().describe('Overrides the Accept header.'),
+  trials: z.enum(['true', 'false']).optional().describe('true: one record per trial (JSON: a `trials` member; CSV: one row per trial). Default: false (one row per grid point).')
+})
+
+interface Rendered { body: Buffer, etag: string }
+
+/**
+ * Rendered results, newest last. Results are immutable, so an entry never goes stale; the
+ * cache only saves re-encoding for repeated downloads and 304 checks.
+ */
+class RenderedCache {
+  readonly #entries = new Map<string, Rendered>()
+  #bytes = 0
+
+  constructor (readonly maxBytes: number) {}
+
+  get (key: string): Rendered | undefined {
+    const hit = this.#entries.get(key)
+    if (hit !== undefined) { this.#entries.delete(key); this.#entries.set(key, hit) }
+    return hit
+  }
+
+  set (key: string, value: Rendered): void {
+    if (value.body.length > this.maxBytes / 4) return
+    this.#entries.set(key, value)
+    this.#bytes += value.body.length
+    for (const [oldKey, old] of this.#entries) {
+      if (this.#bytes <= this.maxBytes) break
+      this.#entries.delete(oldKey)
+      this.#bytes -= old.body.length
+    }
+  }
+}
+
+/** Ready-made bytes skip the response serializer (and its typing): they are the representation. */
+function sendBytes (reply: FastifyReply, body: Buffer): FastifyReply {
+  return reply.send(body)
+}
+
+export const resultRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx) => {
+  const cache = new RenderedCache(64 * 1024 * 1024)
+
+  app.get('/v1/sweeps/:id/results', {
+    schema: {
+      operationId: 'getSweepResults',
+      summary: 'Results of a succeeded sweep (JSON or CSV)',
+      description: 'JSON by default; CSV with `Accept: text/csv` or `?format=csv`. One row per grid point with the varied parameters, aggregated measures with uncertainties and the theory values that apply; `?trials=true` for per-trial rows. A strong ETag (sha256 of the bytes) supports If-None-Match → 304. 409 while the sweep has not succeeded.',
+      tags: ['sweeps'],
+      params: z.object({ id: sweepIdSchema }),
+      querystring: resultsQuery,
+      response: {
+        200: {
+          description: 'The results.',
+          content: {
+            'application/json': { schema: sweepResultSchema },
+            'text/csv': { schema: z.string().describe('RFC 4180 CSV with a header row; CRLF line ends.') }
+          }
+        },
+        304: z.undefined().describe('Not modified: the ETag in If-None-Match is current.'),
+        ...problemResponses(400, 401, 404, 406, 409, 429)
+      }
+    }
+  }, async (request, reply) => {
+    const { id } = request.params
+    const record = await visibleSweep(ctx.queue, request.principal, id)
+    let format: Format | null = request.query.format ?? null
+    if (format === null) {
+      const media = negotiate(request.headers.accept, [MEDIA.json, MEDIA.csv])
+      if (media === null) {
+        throw new ServiceError('MEMSWEEP_NOT_ACCEPTABLE', { accept: request.headers.accept ?? '', available: `${MEDIA.json}, ${MEDIA.csv}` })
+      }
+      format = media === MEDIA.csv ? 'csv' : 'json'
+    }
+    if (record.status === 'queued' || record.status === 'running') {
+      throw new ServiceError('MEMSWEEP_RESULTS_NOT_READY', { id, status: record.status }, {
+        headers: { 'retry-after': '5', link: `<${sweepPath(id)}>; rel="monitor"` },
+        extensions: { sweepId: id, retryAfter: 5 }
+      })
+    }
+    if (record.status !== 'succeeded') {
+      throw new ServiceError('MEMSWEEP_RESULTS_UNAVAILABLE', { id, status: record.status }, { extensions: { sweepId: id } })
+    }
+    const perTrial = request.query.trials === 'true'
+    const key = `${id}\u0000${format}\u0000${perTrial ? 1 : 0}`
+    let rendered = cache.get(key)
+    if (rendered === undefined) {
+      const result = await ctx.queue.results(id)
+      if (result === null) throw new Error(`sweep ${id} succeeded but the backend has no result for it`)
+      const text = format === 'csv' ? resultToCsv(result, { perTrial }) : resultToJson(result, { perTrial })
+      const body = Buffer.from(text, 'utf8')
+      rendered = { body, etag: `"${createHash('sha256').update(body).digest('base64url')}"` }
+      cache.set(key, rendered)
+    }
+    reply
+      .header('etag', rendered.etag)
+      .header('vary', 'Accept')
+      .header('cache-control', 'private, max-age=86400, immutable')
+    if (ifNoneMatchHits(request.headers['if-none-match'], rendered.etag)) return reply.code(304).send()
+    if (format === 'csv') {
+      const name = `memsweep-${id}${perTrial ? '-trials' : ''}.csv`
+      reply.header('content-disposition', `attachment; filename="${name}"`)
+      return sendBytes(reply.type('text/csv; charset=utf-8; header=present'), rendered.body)
+    }
+    return sendBytes(reply.type('application/json; charset=utf-8'), rendered.body)
+  })
+}

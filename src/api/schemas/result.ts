@@ -1,0 +1,85 @@
+/**
+ * The JSON result of a sweep as resultToJson writes it (canonical JSON: sorted keys,
+ * non-finite numbers as null). Documentation and response validation only: the bytes
+ * themselves come from the spec layer unchanged, so their hash is a stable ETag.
+ */
+import { z } from 'zod'
+import { END_STATES, ENDINGS } from '../../engine/index.js'
+
+const stat = z.number().nullable()
+
+const meanWithError = z.object({
+  mean: stat,
+  sd: stat.describe('Sample standard deviation over trials.'),
+  se: stat.describe('Standard error of the mean.')
+}).meta({ id: 'MeanWithError' })
+
+const countsOf = (names: readonly string[]) => z.object(Object.fromEntries(names.map((n) => [n, z.number().int()])))
+
+const stabilitySummary = z.object({
+  networks: z.number().int(),
+  unstableFraction: stat,
+  tieFraction: stat,
+  fixedPatternFraction: stat
+})
+
+export const pointSummarySchema = z.object({
+  trials: z.number().int(),
+  overlap: meanWithError.describe('Final overlap with the target pattern.'),
+  success: z.object({
+    count: z.number().int(),
+    rate: stat,
+    low: stat.describe('Wilson 95 % interval, lower end.'),
+    high: stat.describe('Wilson 95 % interval, upper end.')
+  }).describe('Trials whose final overlap reached the success threshold.'),
+  sweeps: meanWithError,
+  maxOtherOverlap: meanWithError,
+  energy: meanWithError.describe('Energy per neuron of the final state.'),
+  endings: countsOf(ENDINGS).describe('How the dynamics ended: fixed point, 2-cycle, sweep limit, or sampled (T > 0).'),
+  endStates: countsOf(END_STATES).describe('Where the final state sits: target, reversed target, another pattern, a mixture, or elsewhere.'),
+  stability: stabilitySummary.nullable().describe('One-step stability of the stored patterns (when measured).')
+}).meta({ id: 'PointSummary' })
+
+export const resultRowSchema = z.object({
+  point: z.number().int(),
+  values: z.record(z.string(), z.number()).describe('The varied parameters at this point, by path.'),
+  params: z.object({ alpha: z.number(), neurons: z.number().int(), patterns: z.number().int() }),
+  summary: pointSummarySchema,
+  theory: z.record(z.string(), stat).describe('Theory values that apply at this point, by name; {} when none does.')
+}).meta({ id: 'ResultRow' })
+
+export const trialRecordSchema = z.object({
+  trial: z.number().int(),
+  target: z.number().int(),
+  initialOverlap: stat,
+  overlap: stat,
+  maxOtherOverlap: stat,
+  sweeps: z.number().int(),
+  ending: z.enum(ENDINGS),
+  energy: stat,
+  endState: z.enum(END_STATES),
+  stability: z.object({ unstableFraction: stat, tieFraction: stat, fixedPatternFraction: stat }).optional(),
+  overlapTrajectory: z.array(stat).optional(),
+  energyTrajectory: z.array(stat).optional()
+}).meta({ id: 'TrialRecord' })
+
+export const provenanceSchema = z.looseObject({
+  specHash: z.string(),
+  engineVersion: z.string(),
+  node: z.string(),
+  v8: z.string(),
+  rng: z.string(),
+  wallSeconds: z.number(),
+  cpuSeconds: z.number(),
+  workers: z.number().int().optional(),
+  fastPath: z.string().optional()
+}).describe('Where and how the result was computed. Timing fields differ between runs; everything else is fixed by the spec and the code.')
+  .meta({ id: 'Provenance' })
+
+export const sweepResultSchema = z.object({
+  specHash: z.string(),
+  spec: z.record(z.string(), z.unknown()).describe('The normalised spec the result belongs to.'),
+  rows: z.array(resultRowSchema).describe('One row per grid point, in grid order (the last axis varies fastest).'),
+  trials: z.array(z.array(trialRecordSchema)).optional().describe('trials[point][trial], only with ?trials=true.'),
+  provenance: provenanceSchema
+}).meta({ id: 'SweepResult' })

@@ -1,0 +1,94 @@
+/**
+ * The service process: config → queue backend → app → listen, with graceful shutdown.
+ * The embedded backend (SQLite + worker threads) is the default; REDIS_URL selects Redis.
+ * This is the only module that listens on a port.
+ */
+import { existsSync } from 'node:fs'
+import { pathToFileURL } from 'node:url'
+import closeWithGrace from 'close-with-grace'
+import type { FastifyInstance } from 'fastify'
+import { buildApp } from './api/app.js'
+import type { SweepQueue } from './backends/port.js'
+import { ConfigError, loadConfig, type Config } from './config.js'
+import { createLogger, type Logger } from './logger.js'
+
+/** Seconds the shutdown may take before the process exits anyway (open streams, running chunks). */
+const SHUTDOWN_GRACE_MS = 10_000
+
+type RedisQueueFactory = (options: { url: string, prefix: string, logger: Logger }) => Promise<SweepQueue> | SweepQueue
+
+async function createQueue (config: Config, logger: Logger): Promise<SweepQueue> {
+  if (config.redisUrl !== null) {
+    // Loaded only when asked for, so an embedded-only install never needs Redis client code.
+    const here = new URL(import.meta.url)
+    const candidates = ['./backends/redis/index.js', './backends/redis/index.ts'].map((p) => new URL(p, here))
+    const found = candidates.find((url) => existsSync(url))
+    if (found === undefined) throw new Error('REDIS_URL is set but this build has no Redis backend (src/backends/redis).')
+    const module = await import(found.href) as { createRedisQueue?: RedisQueueFactory }
+    if (typeof module.createRedisQueue !== 'function') throw new Error('The Redis backend module does not export createRedisQueue.')
+    return await module.createRedisQueue({ url: config.redisUrl, prefix: config.redisPrefix, logger })
+  }
+  const { createEmbeddedQueue } = await import('./backends/embedded/index.js')
+  return await createEmbeddedQueue({ dataDir: config.dataDir, threads: config.workerThreads, logger })
+}
+
+export interface RunningServer {
+  app: FastifyInstance
+  queue: SweepQueue
+  address: string
+  /** Stops taking requests, ends event streams, then closes the queue. */
+  close: () => Promise<void>
+}
+
+/** Starts the service with the given environment; resolves once it listens. */
+export async function startServer (env: Record<string, string | undefined>, logger?: Logger): Promise<RunningServer> {
+  const config = loadConfig(env)
+  const log = logger ?? createLogger({ level: config.logLevel, name: 'memsweep' })
+  const queue = await createQueue(config, log)
+  const app = buildApp({ config, queue, logger: log })
+  try {
+    const address = await app.listen({ port: config.port, host: config.host })
+    log.info({ address, backend: queue.kind, dataDir: queue.kind === 'embedded' ? config.dataDir : undefined, tokens: config.tokensFile !== null }, 'memsweep listening')
+    let closing: Promise<void> | null = null
+    const close = async (): Promise<void> => {
+      closing ??= (async () => {
+        await app.close()
+        await queue.close()
+      })()
+      return await closing
+    }
+    return { app, queue, address, close }
+  } catch (error) {
+    await app.close().catch(() => undefined)
+    await queue.close().catch(() => undefined)
+    throw error
+  }
+}
+
+/** Runs the service until SIGTERM/SIGINT; used by `npm start` and `memsweep serve`. */
+export async function main (env: Record<string, string | undefined> = process.env): Promise<void> {
+  let server: RunningServer
+  try {
+    server = await startServer(env)
+  } catch (error) {
+    if (error instanceof ConfigError) {
+      console.error(error.message)
+      process.exit(2)
+    }
+    throw error
+  }
+  const log = server.app.log
+  closeWithGrace({ delay: SHUTDOWN_GRACE_MS }, async ({ signal, err }) => {
+    if (err !== undefined) log.fatal({ err }, 'shutting down after an uncaught error')
+    else log.info({ signal }, 'shutting down')
+    await server.close()
+  })
+}
+
+const invokedDirectly = process.argv[1] !== undefined && import.meta.url === pathToFileURL(process.argv[1]).href
+if (invokedDirectly) {
+  main().catch((error: unknown) => {
+    console.error(error)
+    process.exit(1)
+  })
+}
