@@ -176,7 +176,7 @@ describe('schema', () => {
     const { z } = await import('zod')
     const json = JSON.stringify(z.toJSONSchema(SweepSpecSchema, { io: 'input' }))
     expect(json).toContain('"additionalProperties":false')
-    const schema = z.toJSONSchema(SweepSpecSchema, { io: 'input' }) as { $defs: { SweepSpec: { properties: Record<string, { default?: unknown, description?: string }> } } }
+    const schema = z.toJSONSchema(SweepSpecSchema, { io: 'input' }) as unknown as { $defs: { SweepSpec: { properties: Record<string, { default?: unknown, description?: string }> } } }
     const threshold = schema.$defs.SweepSpec.properties.successThreshold!
     expect(threshold.default).toBe(0.9)
     expect(threshold.description).toMatch(/^A trial succeeds .* Default: 0\.9\.$/)
