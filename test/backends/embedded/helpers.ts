@@ -31,9 +31,9 @@ export function roomCodesSpec (overrides: Record<string, unknown> = {}): Normali
 export function corridorSweepSpec (overrides: Record<string, unknown> = {}): NormalisedSpec {
   return normaliseSpec({
     label: 'corridor recall',
-    neurons: 300,
-    load: { values: [0.06, 0.08, 0.1, 0.12, 0.14, 0.16] },
-    trials: 300,
+    neurons: 400,
+    load: { values: [0.05, 0.07, 0.09, 0.11, 0.13, 0.15, 0.17, 0.19] },
+    trials: 600,
     seed: 2024,
     ...overrides
   })
