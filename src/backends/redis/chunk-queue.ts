@@ -1,0 +1,105 @@
+/**
+ * The BullMQ side of the Redis backend: a sweep becomes one job per chunk, plus one
+ * assembly job once every chunk is stored. Job ids are derived from the sweep id, so adding
+ * a job twice is a no-op while the first copy exists, and job payloads are references
+ * (sweep id, chunk coordinates): the spec is stored once, in the sweep record.
+ */
+import { Queue, type JobsOptions } from 'bullmq'
+import type { Redis } from 'ioredis'
+import type { Chunk } from '../../spec/index.js'
+import { assembleJobId, CHUNK_QUEUE_NAME, chunkJobId, type KeyLayout } from './keys.js'
+
+export interface ChunkJobData {
+  sweepId: string
+  specHash: string
+  chunk: Chunk
+  chunksTotal: number
+}
+
+export interface AssembleJobData {
+  sweepId: string
+  specHash: string
+  chunksTotal: number
+}
+
+export type SweepJobName = 'chunk' | 'assemble'
+
+export interface ChunkRetryPolicy {
+  /**
+   * Tries per chunk; only system failures are retried (user errors fail at once).
+   * @defaultValue 3
+   */
+  attempts: number
+  /**
+   * First retry delay in ms; doubles with every further try (±20 % jitter).
+   * @defaultValue 5000
+   */
+  backoffMs: number
+}
+
+export const DEFAULT_RETRY_POLICY: ChunkRetryPolicy = { attempts: 3, backoffMs: 5000 }
+
+/** Jobs per addBulk round trip: large sweeps have thousands of chunks. */
+const ADD_BATCH = 500
+/** Concurrent removals when a sweep stops. */
+const REMOVE_BATCH = 100
+
+export class ChunkQueue {
+  readonly queue: Queue
+
+  constructor (connection: Redis, readonly keys: KeyLayout, readonly retry: ChunkRetryPolicy = DEFAULT_RETRY_POLICY) {
+    this.queue = new Queue(CHUNK_QUEUE_NAME, { connection, prefix: keys.bullPrefix, skipWaitingForReady: true })
+  }
+
+  #jobOptions (jobId: string): JobsOptions {
+    return {
+      jobId,
+      attempts: this.retry.attempts,
+      backoff: { type: 'exponential', delay: this.retry.backoffMs, jitter: 0.2 },
+      // Our sweep record is the source of truth; finished jobs are kept only for inspection.
+      removeOnComplete: { age: 3600, count: 1000 },
+      removeOnFail: { age: 7 * 24 * 3600, count: 10_000 }
+    }
+  }
+
+  async enqueueChunks (sweepId: string, specHash: string, chunks: readonly Chunk[]): Promise<void> {
+    for (let first = 0; first < chunks.length; first += ADD_BATCH) {
+      const batch = chunks.slice(first, first + ADD_BATCH).map(chunk => ({
+        name: 'chunk' as const,
+        data: { sweepId, specHash, chunk, chunksTotal: chunks.length } satisfies ChunkJobData,
+        opts: this.#jobOptions(chunkJobId(sweepId, chunk.index))
+      }))
+      await this.queue.addBulk(batch)
+    }
+  }
+
+  async enqueueAssembly (sweepId: string, specHash: string, chunksTotal: number): Promise<void> {
+    await this.queue.add('assemble', { sweepId, specHash, chunksTotal } satisfies AssembleJobData, this.#jobOptions(assembleJobId(sweepId)))
+  }
+
+  /** Removes a sweep's chunks that are not running (waiting or delayed for a retry); running ones are locked and stay. */
+  async removePending (sweepId: string, chunksTotal: number): Promise<number> {
+    let removed = 0
+    for (let first = 0; first < chunksTotal; first += REMOVE_BATCH) {
+      const last = Math.min(chunksTotal, first + REMOVE_BATCH)
+      const replies = await Promise.all(Array.from({ length: last - first }, (_unused, offset) =>
+        this.queue.remove(chunkJobId(sweepId, first + offset)).catch(() => 0)))
+      removed += replies.reduce<number>((sum, reply) => sum + reply, 0)
+    }
+    return removed
+  }
+
+  async counts (): Promise<{ waiting: number, active: number, completed: number, failed: number }> {
+    const counts = await this.queue.getJobCounts('wait', 'prioritized', 'delayed', 'active', 'completed', 'failed')
+    return {
+      waiting: (counts.wait ?? 0) + (counts.prioritized ?? 0) + (counts.delayed ?? 0),
+      active: counts.active ?? 0,
+      completed: counts.completed ?? 0,
+      failed: counts.failed ?? 0
+    }
+  }
+
+  async close (): Promise<void> {
+    await this.queue.close()
+  }
+}

@@ -1,0 +1,229 @@
+/**
+ * The Redis backend of the queue port: sweeps are records in Redis, their chunks are BullMQ
+ * jobs that any number of worker processes (src/worker) take from a shared queue. An API
+ * instance keeps no sweep state of its own, so any instance can answer for any sweep, and
+ * an instance can die and come back without losing anything. Key layout: docs/redis.md.
+ */
+import { randomUUID } from 'node:crypto'
+import type { Redis } from 'ioredis'
+import type { Logger } from 'pino'
+import { countPoints, planChunks, specHash, type Chunk, type SweepResult } from '../../spec/index.js'
+import { IdempotencyConflictError, TERMINAL_STATUSES } from '../port.js'
+import type { ListQuery, QueueStats, SubmitInput, SweepEvent, SweepQueue, SweepRecord } from '../port.js'
+import { CODEC_NAME, decodeValue } from '../shared/trial-codec.js'
+import { ChunkQueue, DEFAULT_RETRY_POLICY, type ChunkRetryPolicy } from './chunk-queue.js'
+import { closeConnection, openConnection, redactUrl } from './connections.js'
+import { publishStop, publishSweepEvent, SweepEventHub } from './events.js'
+import { keyLayout, type KeyLayout } from './keys.js'
+import { checkRedisSettings } from './settings.js'
+import { RedisSweepStore, type NewSweep } from './store.js'
+
+export { RedisSettingsError } from './settings.js'
+export type { ChunkRetryPolicy } from './chunk-queue.js'
+
+export interface RedisQueueOptions {
+  /** redis:// or rediss:// URL. */
+  url: string
+  /**
+   * Prefix of every key and channel; API instances and workers of one deployment share it.
+   * @defaultValue 'memsweep'
+   */
+  prefix?: string
+  logger: Logger
+  /**
+   * How long a finished (succeeded, failed or canceled) sweep and its result are kept.
+   * @defaultValue 604800 (7 days)
+   */
+  retentionSeconds?: number
+  /**
+   * How long an Idempotency-Key stays bound to its sweep.
+   * @defaultValue 86400
+   */
+  idempotencyTtlSeconds?: number
+  /** Retries of failing chunks (system failures only); keep it equal to the workers'. */
+  retry?: Partial<ChunkRetryPolicy>
+  /**
+   * While someone listens to a sweep, its record is re-read this often in case an event hint was lost.
+   * @defaultValue 2000
+   */
+  eventPollMs?: number
+  /**
+   * Refuse to start when Redis may evict keys.
+   * @defaultValue true
+   */
+  requireNoEviction?: boolean
+}
+
+export const DEFAULT_PREFIX = 'memsweep'
+export const DEFAULT_RETENTION_SECONDS = 7 * 24 * 3600
+const DEFAULT_IDEMPOTENCY_TTL_SECONDS = 24 * 3600
+/** Sweep ids are UUIDs; anything else cannot name a sweep (and must not reach a key name). */
+const SWEEP_ID = /^[A-Za-z0-9-]{1,64}$/
+const READY_TIMEOUT_MS = 2000
+
+export async function createRedisQueue (options: RedisQueueOptions): Promise<SweepQueue> {
+  const prefix = options.prefix ?? DEFAULT_PREFIX
+  const logger = options.logger.child({ component: 'redis-queue' })
+  const producer = await openConnection(options.url, 'producer', 'memsweep:api')
+  let subscriber: Redis | null = null
+  try {
+    await checkRedisSettings(producer, logger, { allowEviction: options.requireNoEviction === false })
+    subscriber = await openConnection(options.url, 'subscriber', 'memsweep:api-events')
+  } catch (error) {
+    await closeConnection(producer)
+    throw error
+  }
+  producer.on('error', (err) => logger.warn({ err: err.message }, 'Redis connection error'))
+  subscriber.on('error', (err) => logger.warn({ err: err.message }, 'Redis subscriber error'))
+  const keys = keyLayout(prefix)
+  const store = new RedisSweepStore(producer, keys, options.retentionSeconds ?? DEFAULT_RETENTION_SECONDS)
+  const chunks = new ChunkQueue(producer, keys, { ...DEFAULT_RETRY_POLICY, ...options.retry })
+  chunks.queue.on('error', (err) => logger.warn({ err: err.message }, 'chunk queue error'))
+  const hub = new SweepEventHub(subscriber, keys, id => store.get(id), logger, options.eventPollMs ?? 2000)
+  logger.info({ redis: redactUrl(options.url), prefix }, 'Redis queue ready')
+  return new RedisQueue(producer, subscriber, keys, store, chunks, hub, options.idempotencyTtlSeconds ?? DEFAULT_IDEMPOTENCY_TTL_SECONDS, logger)
+}
+
+class RedisQueue implements SweepQueue {
+  readonly kind = 'redis' as const
+  #closed: Promise<void> | null = null
+
+  constructor (
+    readonly producer: Redis,
+    readonly subscriber: Redis,
+    readonly keys: KeyLayout,
+    readonly store: RedisSweepStore,
+    readonly chunks: ChunkQueue,
+    readonly hub: SweepEventHub,
+    readonly idempotencyTtlSeconds: number,
+    readonly logger: Logger
+  ) {}
+
+  async submit (input: SubmitInput): Promise<SweepRecord> {
+    this.#assertOpen()
+    const spec = input.spec
+    const hash = specHash(spec)
+    const plan = planChunks(spec)
+    const sweep: NewSweep = {
+      id: randomUUID(),
+      owner: input.owner,
+      label: spec.label,
+      specHash: hash,
+      spec,
+      createdMs: Date.now(),
+      pointsTotal: countPoints(spec),
+      trialsTotal: plan.reduce((sum, chunk) => sum + chunk.count, 0),
+      chunksTotal: plan.length,
+      chunksPerPoint: chunksPerPoint(plan)
+    }
+    const reuseFrom = input.reuse === true ? await this.store.findReusable(input.owner, hash) : null
+    const idempotency = input.idempotencyKey === undefined ? undefined : { key: input.idempotencyKey, ttlSeconds: this.idempotencyTtlSeconds }
+    const outcome = await this.store.create(sweep, { ...(idempotency === undefined ? {} : { idempotency }), reuseFrom })
+    if (outcome.kind === 'existing') {
+      if (outcome.binding.specHash !== hash) throw new IdempotencyConflictError(input.idempotencyKey ?? '')
+      const existing = await this.store.get(outcome.binding.sweepId)
+      if (existing === null) {
+        // The key outlived its sweep (retention shorter than the key's life): start afresh.
+        await this.store.releaseIdempotencyKey(input.owner, input.idempotencyKey ?? '')
+        return await this.submit(input)
+      }
+      // A retry after a submit that stored the record but died before enqueueing: finish the job.
+      if (!TERMINAL_STATUSES.has(existing.status) && !await this.store.isEnqueued(existing.id)) {
+        await this.#enqueue(existing.id, existing.specHash, planChunks(existing.spec))
+      }
+      return existing
+    }
+    if (outcome.status === 'queued') await this.#enqueue(sweep.id, hash, plan)
+    const record = await this.store.get(sweep.id)
+    if (record === null) throw new Error(`Sweep ${sweep.id} vanished right after it was stored.`)
+    return record
+  }
+
+  async #enqueue (id: string, hash: string, plan: readonly Chunk[]): Promise<void> {
+    await this.chunks.enqueueChunks(id, hash, plan)
+    await this.store.markEnqueued(id)
+  }
+
+  async get (id: string): Promise<SweepRecord | null> {
+    this.#assertOpen()
+    if (!SWEEP_ID.test(id)) return null
+    return await this.store.get(id)
+  }
+
+  async list (query: ListQuery): Promise<{ items: SweepRecord[], nextCursor: string | null }> {
+    this.#assertOpen()
+    return await this.store.list(query)
+  }
+
+  async cancel (id: string): Promise<SweepRecord | null> {
+    this.#assertOpen()
+    if (!SWEEP_ID.test(id)) return null
+    const record = await this.store.get(id)
+    if (record === null || TERMINAL_STATUSES.has(record.status)) return record
+    const transition = await this.store.stop(id, 'canceled', Date.now())
+    if (transition.changed) {
+      // Running chunks stop on every worker; waiting ones are removed so no worker picks them up.
+      await publishStop(this.producer, this.keys, id)
+      await publishSweepEvent(this.producer, this.keys, id, 'state')
+      const removed = await this.chunks.removePending(id, record.progress.chunksTotal)
+      this.logger.info({ sweepId: id, removedChunks: removed }, 'sweep canceled')
+    }
+    return await this.store.get(id)
+  }
+
+  async results (id: string): Promise<SweepResult | null> {
+    this.#assertOpen()
+    if (!SWEEP_ID.test(id)) return null
+    const body = await this.store.resultBody(id)
+    return body === null ? null : decodeValue<SweepResult>(CODEC_NAME, body)
+  }
+
+  subscribe (id: string, listener: (event: SweepEvent) => void): () => void {
+    if (this.#closed !== null || !SWEEP_ID.test(id)) return () => {}
+    return this.hub.subscribe(id, listener)
+  }
+
+  async stats (): Promise<QueueStats> {
+    this.#assertOpen()
+    const [counts, jobs] = await Promise.all([this.store.counts(), this.chunks.counts()])
+    return { ...counts, chunksWaiting: jobs.waiting, chunksActive: jobs.active }
+  }
+
+  async ready (): Promise<{ ok: boolean, detail?: string }> {
+    if (this.#closed !== null) return { ok: false, detail: 'the Redis queue is closed' }
+    let timer: NodeJS.Timeout | undefined
+    try {
+      await Promise.race([
+        this.producer.ping(),
+        new Promise((_resolve, reject) => { timer = setTimeout(() => reject(new Error('timeout')), READY_TIMEOUT_MS) })
+      ])
+      if (this.subscriber.status !== 'ready') return { ok: false, detail: 'the Redis event subscriber is reconnecting' }
+      return { ok: true }
+    } catch (error) {
+      return { ok: false, detail: `Redis does not answer (${error instanceof Error ? error.message : String(error)})` }
+    } finally {
+      clearTimeout(timer)
+    }
+  }
+
+  close (): Promise<void> {
+    this.#closed ??= (async () => {
+      this.hub.close()
+      await this.chunks.close()
+      await closeConnection(this.subscriber)
+      await closeConnection(this.producer)
+      this.logger.info('Redis queue closed')
+    })()
+    return this.#closed
+  }
+
+  #assertOpen (): void {
+    if (this.#closed !== null) throw new Error('The Redis queue is closed.')
+  }
+}
+
+function chunksPerPoint (plan: readonly Chunk[]): Map<number, number> {
+  const counts = new Map<number, number>()
+  for (const chunk of plan) counts.set(chunk.point, (counts.get(chunk.point) ?? 0) + 1)
+  return counts
+}

@@ -1,0 +1,97 @@
+/**
+ * Every Redis key and channel the Redis backend touches, in one place, under one prefix.
+ * docs/redis.md documents the layout; change both together.
+ */
+import { createHash } from 'node:crypto'
+
+/** Name of the BullMQ queue that carries chunk and assembly jobs (queue names may not contain ':'). */
+export const CHUNK_QUEUE_NAME = 'chunks'
+
+/** Widest createdAt (milliseconds since the epoch) the index member can hold: year 33658. */
+const CREATED_MS_DIGITS = 15
+
+export interface SweepKeys {
+  /** Hash: the sweep record (status, counters, spec, timestamps). */
+  record: string
+  /** Hash: chunk index → encoded chunk result. A retried chunk overwrites its own field. */
+  chunks: string
+  /** Hash: chunk index → trials finished so far by the chunk's current attempt. */
+  chunkTrials: string
+  /** Hash: grid point index → chunks of that point not yet finished. */
+  pointsLeft: string
+  /** String: the encoded assembled result. */
+  result: string
+  /** Pub/sub channel: hints that the record changed (`progress` or `state`). */
+  events: string
+}
+
+export interface KeyLayout {
+  prefix: string
+  /** BullMQ's own key prefix: its keys live under `<prefix>:bull:chunks:*`. */
+  bullPrefix: string
+  /** Sorted set, all scores 0, members `<createdAt ms, 15 digits>:<id>`: every sweep, ordered by (createdAt, id). */
+  index: string
+  /** Hash: sweep status → number of sweeps that entered it and have not left it. */
+  counts: string
+  /** Sorted set: id → createdAt ms of sweeps whose chunk jobs are not yet known to be enqueued. */
+  unenqueued: string
+  /** Pub/sub channel: ids of sweeps whose running chunks must stop (canceled or failed). */
+  stopChannel: string
+  sweep: (id: string) => SweepKeys
+  ownerIndex: (owner: string) => string
+  idempotency: (owner: string | null, key: string) => string
+  /** String: id of the latest succeeded sweep of an owner with this spec hash (reuse is per owner). */
+  reuse: (owner: string | null, specHash: string) => string
+}
+
+export function keyLayout (prefix: string): KeyLayout {
+  return {
+    prefix,
+    bullPrefix: `${prefix}:bull`,
+    index: `${prefix}:sweeps`,
+    counts: `${prefix}:counts`,
+    unenqueued: `${prefix}:unenqueued`,
+    stopChannel: `${prefix}:stop`,
+    sweep: (id) => ({
+      record: `${prefix}:sweep:${id}`,
+      chunks: `${prefix}:sweep:${id}:chunks`,
+      chunkTrials: `${prefix}:sweep:${id}:chunk-trials`,
+      pointsLeft: `${prefix}:sweep:${id}:points-left`,
+      result: `${prefix}:sweep:${id}:result`,
+      events: `${prefix}:sweep:${id}:events`
+    }),
+    // Owners are token names of arbitrary text; encoding keeps the key readable and unambiguous.
+    ownerIndex: (owner) => `${prefix}:sweeps:owner:${encodeURIComponent(owner)}`,
+    // Clients choose idempotency keys; hashing bounds the key length whatever they send.
+    idempotency: (owner, key) => `${prefix}:idempotency:${sha256(`${owner ?? ''}\n${key}`)}`,
+    reuse: (owner, specHash) => `${prefix}:reuse:${sha256(owner ?? '').slice(0, 16)}:${specHash}`
+  }
+}
+
+/** The index member of a sweep: sorts by creation time, then id. */
+export function indexMember (createdMs: number, id: string): string {
+  return `${String(createdMs).padStart(CREATED_MS_DIGITS, '0')}:${id}`
+}
+
+const INDEX_MEMBER = new RegExp(`^\\d{${CREATED_MS_DIGITS}}:[A-Za-z0-9-]{1,64}$`)
+
+export function isIndexMember (text: string): boolean {
+  return INDEX_MEMBER.test(text)
+}
+
+export function idFromIndexMember (member: string): string {
+  return member.slice(CREATED_MS_DIGITS + 1)
+}
+
+/** Job ids: deterministic, so enqueueing the same chunk twice is a no-op, and never integer-like. */
+export function chunkJobId (sweepId: string, chunkIndex: number): string {
+  return `sw-${sweepId}-c${chunkIndex}`
+}
+
+export function assembleJobId (sweepId: string): string {
+  return `sw-${sweepId}-assemble`
+}
+
+function sha256 (text: string): string {
+  return createHash('sha256').update(text).digest('hex')
+}

@@ -1,0 +1,196 @@
+/**
+ * The sandboxed processor: BullMQ runs this module in a worker thread of the worker
+ * process, so a CPU-bound chunk never blocks the process's lock renewals. It handles two
+ * jobs: `chunk` (run a chunk's trials and store its result) and `assemble` (turn a
+ * finished sweep's chunk results into the sweep result).
+ *
+ * Exactly-once in effect: a chunk's result is stored under its index (a retry overwrites
+ * it with the same bytes and counts nothing), the chunk that completes the count enqueues
+ * the assembly under a fixed job id, and the result is stored by a script that only moves
+ * a running sweep to succeeded. Every step can be repeated after a crash.
+ */
+import { performance } from 'node:perf_hooks'
+import { workerData } from 'node:worker_threads'
+import { UnrecoverableError, WaitingError, type SandboxedJob } from 'bullmq'
+import type { Redis } from 'ioredis'
+import { assembleResult, makeProvenance, runChunk, specHash, type ChunkResult, type NormalisedSpec } from '../spec/index.js'
+import { classifyChunkError, systemFailureMessage } from '../backends/shared/failure.js'
+import { CODEC_NAME, decodeValue, encodeValue } from '../backends/shared/trial-codec.js'
+import { TERMINAL_STATUSES, type SweepFailure } from '../backends/port.js'
+import { ChunkQueue, type AssembleJobData, type ChunkJobData, type ChunkRetryPolicy } from '../backends/redis/chunk-queue.js'
+import { openConnection } from '../backends/redis/connections.js'
+import { publishStop, publishSweepEvent } from '../backends/redis/events.js'
+import { keyLayout, type KeyLayout } from '../backends/redis/keys.js'
+import { RedisSweepStore } from '../backends/redis/store.js'
+import { StopBoardReader } from './stop-board.js'
+
+/** What the worker process hands every sandbox thread (BullMQ's `workerThreadsOptions.workerData`). */
+export interface SandboxSettings {
+  url: string
+  prefix: string
+  retentionSeconds: number
+  retry: ChunkRetryPolicy
+  progressIntervalMs: number
+  /** Shared with the worker process: see stop-board.ts. */
+  stopBoard: SharedArrayBuffer
+  /** Name of the worker process, for connection names. */
+  workerName: string
+}
+
+export type ProcessorOutcome =
+  | { outcome: 'stored', chunk: number, trials: number, computeMs: number, completedSweep: boolean }
+  | { outcome: 'assembled', changed: boolean }
+  | { outcome: 'skipped', reason: string }
+  | { outcome: 'stopped', chunk: number }
+
+interface SandboxContext {
+  redis: Redis
+  keys: KeyLayout
+  store: RedisSweepStore
+  chunks: ChunkQueue
+  board: StopBoardReader
+  settings: SandboxSettings
+}
+
+let contextPromise: Promise<SandboxContext> | null = null
+
+function sandboxContext (): Promise<SandboxContext> {
+  contextPromise ??= (async () => {
+    const settings = workerData as SandboxSettings
+    // Waits out a Redis restart instead of failing the chunk it is storing.
+    const redis = await openConnection(settings.url, 'worker', `${settings.workerName}:sandbox`)
+    const keys = keyLayout(settings.prefix)
+    return {
+      redis,
+      keys,
+      store: new RedisSweepStore(redis, keys, settings.retentionSeconds),
+      chunks: new ChunkQueue(redis, keys, settings.retry),
+      board: new StopBoardReader(settings.stopBoard),
+      settings
+    }
+  })()
+  contextPromise.catch(() => { contextPromise = null })
+  return contextPromise
+}
+
+/** The last spec parsed in this thread: consecutive chunks usually belong to one sweep. */
+let cachedSpec: { sweepId: string, hash: string, spec: NormalisedSpec } | null = null
+
+/** Parses the stored spec and proves it is the one the job was created for. */
+function loadSpec (sweepId: string, jobSpecHash: string, storedHash: string, specJson: string): NormalisedSpec {
+  if (cachedSpec !== null && cachedSpec.sweepId === sweepId && cachedSpec.hash === storedHash && storedHash === jobSpecHash) return cachedSpec.spec
+  const spec = JSON.parse(specJson) as NormalisedSpec
+  const actual = specHash(spec)
+  if (actual !== jobSpecHash || storedHash !== jobSpecHash) {
+    throw new Error(`the stored spec of sweep ${sweepId} does not match the spec it was submitted with (hash ${actual}, expected ${jobSpecHash})`)
+  }
+  cachedSpec = { sweepId, hash: storedHash, spec }
+  return spec
+}
+
+export default async function processSweepJob (job: SandboxedJob<ChunkJobData | AssembleJobData>, token?: string, signal?: AbortSignal): Promise<ProcessorOutcome> {
+  const context = await sandboxContext()
+  if (job.name === 'assemble') return await assemble(context, job as SandboxedJob<AssembleJobData>)
+  return await runChunkJob(context, job as SandboxedJob<ChunkJobData>, token, signal)
+}
+
+async function runChunkJob (context: SandboxContext, job: SandboxedJob<ChunkJobData>, token: string | undefined, signal: AbortSignal | undefined): Promise<ProcessorOutcome> {
+  const { store, board, settings } = context
+  const { sweepId, chunk, chunksTotal } = job.data
+  const view = await store.workView(sweepId)
+  if (view === null) return { outcome: 'skipped', reason: 'sweep no longer stored' }
+  if (TERMINAL_STATUSES.has(view.status)) return { outcome: 'skipped', reason: `sweep is ${view.status}` }
+  await store.markRunning(sweepId, Date.now())
+
+  const started = performance.now()
+  let lastReport = started
+  let result: ChunkResult
+  try {
+    const spec = loadSpec(sweepId, job.data.specHash, view.specHash, view.specJson)
+    result = runChunk(spec, chunk, {
+      // Called between trials while this thread's event loop is blocked: only shared memory can answer.
+      shouldStop: () => board.isStopped(sweepId) || board.handBackRequested() || signal?.aborted === true,
+      onTrial: (trialsDone) => {
+        const now = performance.now()
+        if (now - lastReport < settings.progressIntervalMs) return
+        lastReport = now
+        // Posted to the worker process at once (the message does not wait for this loop); it stores the progress.
+        job.updateProgress({ chunk: chunk.index, trialsDone }).catch(() => {})
+      }
+    })
+  } catch (error) {
+    const classified = classifyChunkError(error)
+    if (classified.kind === 'canceled') {
+      if (!board.isStopped(sweepId) && board.handBackRequested()) {
+        // The worker process is shutting down: give the chunk back without spending one of its attempts.
+        await job.moveToWait(token)
+        throw new WaitingError()
+      }
+      return { outcome: 'stopped', chunk: chunk.index }
+    }
+    if (classified.kind === 'user') {
+      await failSweep(context, sweepId, chunksTotal, { kind: 'user', message: classified.message })
+      throw new UnrecoverableError(classified.message)
+    }
+    const attempts = job.opts.attempts ?? 1
+    if (job.attemptsMade + 1 >= attempts) {
+      await failSweep(context, sweepId, chunksTotal, {
+        kind: 'system',
+        message: systemFailureMessage(chunk.index, chunksTotal, attempts, classified.name)
+      })
+    }
+    throw new Error(`${classified.name}: ${classified.message}`)
+  }
+  const computeMs = performance.now() - started
+  const body = Buffer.from(encodeValue(result))
+  const stored = await store.recordChunk(sweepId, chunk, body, result.trials.length, computeMs, Date.now())
+  if (stored.status !== 'running') return { outcome: 'skipped', reason: `sweep is ${stored.status === '' ? 'gone' : stored.status}` }
+  await publishSweepEvent(context.redis, context.keys, sweepId, 'progress')
+  const completedSweep = stored.chunksDone === stored.chunksTotal
+  // Whichever attempt sees the count complete enqueues the assembly; its fixed id makes repeats no-ops.
+  if (completedSweep) await context.chunks.enqueueAssembly(sweepId, job.data.specHash, chunksTotal)
+  return { outcome: 'stored', chunk: chunk.index, trials: result.trials.length, computeMs, completedSweep }
+}
+
+async function assemble (context: SandboxContext, job: SandboxedJob<AssembleJobData>): Promise<ProcessorOutcome> {
+  const { store } = context
+  const { sweepId, chunksTotal } = job.data
+  const view = await store.workView(sweepId)
+  if (view === null) return { outcome: 'skipped', reason: 'sweep no longer stored' }
+  if (TERMINAL_STATUSES.has(view.status)) return { outcome: 'skipped', reason: `sweep is ${view.status}` }
+  let body: Buffer
+  try {
+    const spec = loadSpec(sweepId, job.data.specHash, view.specHash, view.specJson)
+    const bodies = await store.chunkBodies(sweepId, chunksTotal)
+    const chunkResults = bodies.map(stored => decodeValue<ChunkResult>(CODEC_NAME, stored))
+    const finishedMs = Date.now()
+    const provenance = makeProvenance(spec, {
+      wallSeconds: Math.max(0, finishedMs - (view.startedMs ?? finishedMs)) / 1000,
+      cpuSeconds: view.computeMs / 1000
+    })
+    body = Buffer.from(encodeValue(assembleResult(spec, chunkResults, provenance)))
+  } catch (error) {
+    const classified = classifyChunkError(error)
+    const attempts = job.opts.attempts ?? 1
+    // Stored chunks that cannot be assembled are the system's fault, never the spec's.
+    if (job.attemptsMade + 1 >= attempts) {
+      await failSweep(context, sweepId, chunksTotal, {
+        kind: 'system',
+        message: `The results of all ${chunksTotal} chunks were computed but could not be assembled (${classified.name}). The service log has the details.`
+      })
+    }
+    throw new Error(`${classified.name}: ${classified.message}`)
+  }
+  const finished = await store.finish(sweepId, view.owner, view.specHash, body, Date.now())
+  if (finished.changed) await publishSweepEvent(context.redis, context.keys, sweepId, 'state')
+  return { outcome: 'assembled', changed: finished.changed }
+}
+
+/** Fails the sweep (once), stops its other running chunks everywhere and drops its waiting ones. */
+async function failSweep (context: SandboxContext, sweepId: string, chunksTotal: number, failure: SweepFailure): Promise<void> {
+  const transition = await context.store.stop(sweepId, 'failed', Date.now(), failure)
+  if (!transition.changed) return
+  await publishStop(context.redis, context.keys, sweepId)
+  await publishSweepEvent(context.redis, context.keys, sweepId, 'state')
+  await context.chunks.removePending(sweepId, chunksTotal)
+}
