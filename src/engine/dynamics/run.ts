@@ -1,8 +1,9 @@
 import type { Dynamics } from '../params.js'
 import type { Ending } from '../results.js'
 import type { RandomSource } from '../random/source.js'
-import type { Network } from '../network/network.js'
+import type { Network, SyncOutcome } from '../network/network.js'
 import { resetIdentity, type Scratch } from './scratch.js'
+import { nativeShuffle } from '../kernels/native-shuffle.js'
 
 export interface DynamicsOutcome {
   sweeps: number
@@ -47,12 +48,12 @@ export function runDynamics (net: Network, dynamics: Dynamics, rng: RandomSource
 
   for (let sweep = 1; sweep <= dynamics.maxSweeps; sweep++) {
     sweeps = sweep
-    let outcome: 'changed' | 'fixed' | 'cycle2'
+    let outcome: SyncOutcome
     if (dynamics.update === 'sync') {
       outcome = thermal ? syncGlauberStep(net, dynamics.temperature, rng, scratch) : syncStep(net, scratch, sweep)
     } else {
       if (dynamics.update === 'async-random') shuffle(order, rng)
-      outcome = thermal ? asyncGlauberSweep(net, order, dynamics.temperature, rng) : asyncSweep(net, order)
+      outcome = thermal ? asyncGlauberSweep(net, order, dynamics.temperature, rng, scratch.fields) : asyncSweep(net, order)
     }
     record()
     if (thermal) {
@@ -76,6 +77,7 @@ export function runDynamics (net: Network, dynamics: Dynamics, rng: RandomSource
 
 /** In-place Fisher–Yates, i = N−1 down to 1, j = below(i + 1). */
 function shuffle (order: Int32Array, rng: RandomSource): void {
+  if (nativeShuffle(order, rng)) return
   for (let i = order.length - 1; i > 0; i--) {
     const j = rng.below(i + 1)
     const t = order[i]!
@@ -85,6 +87,7 @@ function shuffle (order: Int32Array, rng: RandomSource): void {
 }
 
 function asyncSweep (net: Network, order: Int32Array): 'changed' | 'fixed' {
+  if (net.native !== null) return net.native.sweepZeroTemperature(order) ? 'changed' : 'fixed'
   const s = net.state
   let changed = false
   for (let k = 0; k < order.length; k++) {
@@ -99,9 +102,16 @@ function asyncSweep (net: Network, order: Int32Array): 'changed' | 'fixed' {
   return changed ? 'changed' : 'fixed'
 }
 
-function asyncGlauberSweep (net: Network, order: Int32Array, temperature: number, rng: RandomSource): 'changed' {
+function asyncGlauberSweep (net: Network, order: Int32Array, temperature: number, rng: RandomSource, noise: Float64Array): 'changed' {
   const s = net.state
   const factor = -2 * net.fieldScale / temperature
+  if (net.native !== null) {
+    // Visit k draws the k-th uniform, and nothing else draws during a sweep, so drawing
+    // them all first consumes the stream exactly as the loop below does.
+    for (let k = 0; k < order.length; k++) noise[k] = rng.uniform()
+    net.native.sweepGlauber(order, noise, factor)
+    return 'changed'
+  }
   for (let k = 0; k < order.length; k++) {
     const i = order[k]!
     const up = rng.uniform() * (1 + Math.exp(factor * net.field(i))) < 1
@@ -112,7 +122,8 @@ function asyncGlauberSweep (net: Network, order: Int32Array, temperature: number
 }
 
 /** One parallel step s(t) = sign(h(s(t−1))); detects s(t) = s(t−1) and s(t) = s(t−2). */
-function syncStep (net: Network, scratch: Scratch, step: number): 'changed' | 'fixed' | 'cycle2' {
+function syncStep (net: Network, scratch: Scratch, step: number): SyncOutcome {
+  if (net.native !== null) return net.native.stepZeroTemperature(scratch.previous, step >= 2)
   const n = net.neurons
   const s = net.state
   const next = scratch.next
@@ -139,6 +150,12 @@ function syncGlauberStep (net: Network, temperature: number, rng: RandomSource, 
   const n = net.neurons
   const next = scratch.next
   const factor = -2 * net.fieldScale / temperature
+  if (net.native !== null) {
+    const noise = scratch.fields
+    for (let i = 0; i < n; i++) noise[i] = rng.uniform()
+    net.native.stepGlauber(noise, factor)
+    return 'changed'
+  }
   for (let i = 0; i < n; i++) {
     next[i] = rng.uniform() * (1 + Math.exp(factor * net.field(i))) < 1 ? 1 : -1
   }

@@ -19,6 +19,8 @@ export class DenseNetwork implements Network {
   readonly fieldScale: number
   readonly state: Int8Array
   readonly bytes: number
+  readonly fastPath = 'js'
+  readonly native = null
   private readonly couplings: Float64Array
   private readonly columns: Float64Array
   private readonly bias: Float64Array

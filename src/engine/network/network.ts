@@ -7,6 +7,9 @@
  * where the representation folds the bias into `field`; raw units keep Hebbian fields
  * exact integers so the tie rule (h = 0 keeps the state) is decided exactly.
  */
+/** How a synchronous step ended: s(t) = s(t−1) is `fixed`, s(t) = s(t−2) is `cycle2`. */
+export type SyncOutcome = 'changed' | 'fixed' | 'cycle2'
+
 export interface Network {
   readonly neurons: number
   readonly patternCount: number
@@ -16,6 +19,11 @@ export interface Network {
   readonly fieldScale: number
   /** Name of the representation, recorded in result provenance. */
   readonly representation: 'overlap-space' | 'dense-incremental'
+  /**
+   * Name of the fast path the network runs on ('js' for the plain per-neuron path), recorded
+   * in result provenance. Every fast path gives bit-identical results to the plain path.
+   */
+  readonly fastPath: string
   /** Current state; entries are −1, 0 (erased cue bits only) or +1. Do not write directly. */
   readonly state: Int8Array
   /** Load a state and rebuild the accumulators from scratch. */
@@ -28,6 +36,27 @@ export interface Network {
   energyPerNeuron (): number
   /** Raw overlaps Σ_i ξ_i^μ s_i with every stored pattern, written to out (length P). */
   rawOverlaps (out: Float64Array): void
+  /**
+   * Whole sweeps run natively by a fast path, or null: the dynamics then use `field`/`set`.
+   * Either way the network ends in exactly the same state.
+   */
+  readonly native: NativeSweeps | null
   /** Approximate bytes held by the representation (couplings or patterns, accumulators). */
   readonly bytes: number
+}
+
+/**
+ * Whole-sweep operations a fast path runs in one call. Each must leave the network exactly
+ * as the per-neuron loops of dynamics/run.ts would, drawing nothing itself: the caller draws
+ * the visiting order and Glauber's uniforms first, in the order those loops draw them.
+ */
+export interface NativeSweeps {
+  /** Zero-temperature asynchronous sweep in `order`; true if any neuron changed. */
+  sweepZeroTemperature (order: Int32Array): boolean
+  /** Zero-temperature synchronous step; `previous` holds s(t−2) and receives s(t−1) unless the step is `fixed`. */
+  stepZeroTemperature (previous: Int8Array, checkPrevious: boolean): SyncOutcome
+  /** Asynchronous Glauber sweep: visit k uses noise[k]; s_i ← +1 iff noise[k]·(1 + exp(factor·field(i))) < 1. */
+  sweepGlauber (order: Int32Array, noise: Float64Array, factor: number): void
+  /** Synchronous Glauber step: neuron i uses noise[i], every field from the current state. */
+  stepGlauber (noise: Float64Array, factor: number): void
 }

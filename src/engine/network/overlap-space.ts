@@ -1,4 +1,6 @@
-import type { Network } from './network.js'
+import type { NativeSweeps, Network } from './network.js'
+import { OverlapKernel } from '../kernels/overlap-kernel.js'
+import { areFastPathsEnabled } from '../kernels/wasm.js'
 
 /**
  * Hebbian network held in overlap space: no coupling matrix at all.
@@ -8,21 +10,29 @@ import type { Network } from './network.js'
  *   N·h_i = Σ_μ ξ_i^μ m_μ − P s_i,   m_μ = Σ_j ξ_j^μ s_j,
  * the −P s_i term removing the self-coupling J_ii = P/N (kept when `selfCoupling`).
  * A visit costs O(P) and a change O(P), against O(N) for a coupling row, and memory is
- * N·P bytes instead of N² words. All arithmetic is on small integers, so it is exact.
- * Patterns are stored neuron-major (ξ_i^· contiguous) because a visit reads one neuron's
- * entries for every pattern.
+ * about 2·N·P bytes instead of N² words. All arithmetic is on small integers, so it is exact.
+ * Patterns are also stored neuron-major (ξ_i^· contiguous, int8, rows padded to a multiple
+ * of 16) because a visit reads one neuron's entries for every pattern.
+ *
+ * Whole sweeps and steps run in the WebAssembly SIMD kernel (`fastPath` names it) when the
+ * host supports it and the size suits it; the per-neuron methods below are the plain path
+ * and give the same integers.
  */
 export class OverlapSpaceNetwork implements Network {
   readonly representation = 'overlap-space' as const
+  readonly fastPath: string
   readonly neurons: number
   readonly patternCount: number
   readonly patterns: Int8Array
   readonly fieldScale: number
   readonly state: Int8Array
   readonly bytes: number
-  private readonly byNeuron: Float64Array
-  private readonly overlaps: Float64Array
+  readonly native: NativeSweeps | null
+  private readonly byNeuron: Int8Array
+  private readonly stride: number
+  private readonly overlaps: Int32Array
   private readonly selfTerm: number
+  private readonly kernel: OverlapKernel | null
 
   constructor (patterns: Int8Array, neurons: number, patternCount: number, selfCoupling: boolean) {
     this.neurons = neurons
@@ -30,22 +40,33 @@ export class OverlapSpaceNetwork implements Network {
     this.patterns = patterns
     this.fieldScale = 1 / neurons
     this.selfTerm = selfCoupling ? 0 : patternCount
-    this.byNeuron = new Float64Array(neurons * patternCount)
-    for (let mu = 0; mu < patternCount; mu++) {
-      for (let i = 0; i < neurons; i++) this.byNeuron[i * patternCount + mu] = patterns[mu * neurons + i]!
+    this.kernel = areFastPathsEnabled() ? OverlapKernel.create(neurons, patternCount, this.selfTerm) : null
+    this.fastPath = this.kernel?.name ?? 'js'
+    if (this.kernel !== null) {
+      this.stride = this.kernel.stride
+      this.byNeuron = this.kernel.xi
+      this.kernel.loadPatterns(patterns)
+    } else {
+      this.stride = patternCount
+      this.byNeuron = transposeToNeuronMajor(patterns, neurons, patternCount)
     }
-    this.overlaps = new Float64Array(patternCount)
+    this.overlaps = new Int32Array(patternCount)
     this.state = new Int8Array(neurons)
-    this.bytes = 9 * neurons * patternCount + 8 * patternCount + neurons
+    this.bytes = patterns.byteLength + this.byNeuron.byteLength + 4 * patternCount + neurons
+    this.native = this.kernel === null ? null : kernelSweeps(this.kernel, this.state, this.overlaps)
   }
 
   load (state: Int8Array): void {
+    if (this.kernel !== null) {
+      this.state.set(state)
+      this.kernel.overlaps(this.state, this.overlaps)
+      return
+    }
     if (this.loadChanges(state)) return
     this.state.set(state)
     const p = this.patternCount
     const n = this.neurons
     const m = this.overlaps
-    m.fill(0)
     for (let mu = 0; mu < p; mu++) {
       let sum = 0
       const base = mu * n
@@ -58,9 +79,9 @@ export class OverlapSpaceNetwork implements Network {
     const p = this.patternCount
     const xi = this.byNeuron
     const m = this.overlaps
-    const base = i * p
-    // Four independent sums break the add-latency chain (V8 does not vectorise); every
-    // term is a small integer, so the regrouping is exact.
+    const base = i * this.stride
+    // Four independent sums break the add-latency chain; every term is a small integer, so
+    // the regrouping is exact.
     let h0 = 0
     let h1 = 0
     let h2 = 0
@@ -101,7 +122,7 @@ export class OverlapSpaceNetwork implements Network {
     const p = this.patternCount
     const xi = this.byNeuron
     const m = this.overlaps
-    const base = i * p
+    const base = i * this.stride
     for (let mu = 0; mu < p; mu++) m[mu] = m[mu]! + delta * xi[base + mu]!
   }
 
@@ -118,4 +139,24 @@ export class OverlapSpaceNetwork implements Network {
   rawOverlaps (out: Float64Array): void {
     for (let mu = 0; mu < this.patternCount; mu++) out[mu] = this.overlaps[mu]!
   }
+}
+
+function kernelSweeps (kernel: OverlapKernel, state: Int8Array, overlaps: Int32Array): NativeSweeps {
+  return {
+    sweepZeroTemperature: (order) => kernel.sweep(state, overlaps, order),
+    stepZeroTemperature: (previous, checkPrevious) => {
+      const outcome = kernel.sync(state, overlaps, previous, checkPrevious)
+      return outcome === 1 ? 'fixed' : outcome === 2 ? 'cycle2' : 'changed'
+    },
+    sweepGlauber: (order, noise, factor) => kernel.glauber(state, overlaps, order, noise, factor),
+    stepGlauber: (noise, factor) => kernel.glauberSync(state, overlaps, noise, factor)
+  }
+}
+
+function transposeToNeuronMajor (patterns: Int8Array, n: number, p: number): Int8Array {
+  const out = new Int8Array(n * p)
+  for (let mu = 0; mu < p; mu++) {
+    for (let i = 0; i < n; i++) out[i * p + mu] = patterns[mu * n + i]!
+  }
+  return out
 }

@@ -1,0 +1,385 @@
+/**
+ * Generates src/engine/kernels/overlap-kernel.generated.ts: the WebAssembly (SIMD128)
+ * module behind the overlap-space fast path, embedded as bytes so the engine reads no file
+ * at run time. The WebAssembly text below is the source of truth; `npm run kernels:generate`
+ * assembles it with wabt (a dev dependency used only here) and rewrites the generated file.
+ *
+ * Layout the kernels expect (all offsets are byte addresses in the module's memory, 16-aligned):
+ *   xi     neuron-major patterns, int8 ±1: xi[i·pp + μ] = ξ_i^μ, rows padded with zeros to
+ *          pp = P rounded up to 16, so one visit reads one contiguous row;
+ *   m      overlaps m_μ = Σ_j ξ_j^μ s_j, pp lanes of int16 (variant "16", N ≤ 32767, so |m| ≤ N
+ *          fits) or int32 (variant "32", any N); padding lanes stay 0;
+ *   s      state, int8 in {−1, 0, +1};  next, prev: int8 scratch rows for synchronous steps;
+ *   order  visiting order, int32;  noise: float64 uniforms, one per visit (Glauber).
+ * The raw field is h_i = Σ_μ ξ_i^μ m_μ − self·s_i in int32 (exact: the caller checks P·(N+1) < 2^31).
+ */
+import { writeFileSync } from 'node:fs'
+import { fileURLToPath } from 'node:url'
+import wabtFactory from 'wabt'
+
+type Width = 16 | 32
+
+/** Body that leaves Σ_μ ξ_row^μ m_μ in local $h; uses locals $r $e $mp $x $a $b $c $d. */
+function dot (w: Width): string {
+  const init = `
+    (local.set $r (local.get $row))
+    (local.set $e (i32.add (local.get $row) (local.get $pp)))
+    (local.set $mp (local.get $m))
+    (local.set $a (v128.const i32x4 0 0 0 0))
+    (local.set $b (v128.const i32x4 0 0 0 0))`
+  if (w === 16) {
+    return `${init}
+    (loop $dot
+      (local.set $x (v128.load (local.get $r)))
+      (local.set $a (i32x4.add (local.get $a) (i32x4.dot_i16x8_s (i16x8.extend_low_i8x16_s (local.get $x)) (v128.load (local.get $mp)))))
+      (local.set $b (i32x4.add (local.get $b) (i32x4.dot_i16x8_s (i16x8.extend_high_i8x16_s (local.get $x)) (v128.load offset=16 (local.get $mp)))))
+      (local.set $mp (i32.add (local.get $mp) (i32.const 32)))
+      (br_if $dot (i32.lt_u (local.tee $r (i32.add (local.get $r) (i32.const 16))) (local.get $e))))
+    ${horizontal()}`
+  }
+  return `${init}
+    (local.set $c (v128.const i32x4 0 0 0 0))
+    (local.set $d (v128.const i32x4 0 0 0 0))
+    (loop $dot
+      (local.set $x (v128.load (local.get $r)))
+      (local.set $y (i16x8.extend_low_i8x16_s (local.get $x)))
+      (local.set $a (i32x4.add (local.get $a) (i32x4.mul (i32x4.extend_low_i16x8_s (local.get $y)) (v128.load (local.get $mp)))))
+      (local.set $b (i32x4.add (local.get $b) (i32x4.mul (i32x4.extend_high_i16x8_s (local.get $y)) (v128.load offset=16 (local.get $mp)))))
+      (local.set $y (i16x8.extend_high_i8x16_s (local.get $x)))
+      (local.set $c (i32x4.add (local.get $c) (i32x4.mul (i32x4.extend_low_i16x8_s (local.get $y)) (v128.load offset=32 (local.get $mp)))))
+      (local.set $d (i32x4.add (local.get $d) (i32x4.mul (i32x4.extend_high_i16x8_s (local.get $y)) (v128.load offset=48 (local.get $mp)))))
+      (local.set $mp (i32.add (local.get $mp) (i32.const 64)))
+      (br_if $dot (i32.lt_u (local.tee $r (i32.add (local.get $r) (i32.const 16))) (local.get $e))))
+    (local.set $a (i32x4.add (local.get $a) (local.get $c)))
+    (local.set $b (i32x4.add (local.get $b) (local.get $d)))
+    ${horizontal()}`
+}
+
+function horizontal (): string {
+  return `(local.set $a (i32x4.add (local.get $a) (local.get $b)))
+    (local.set $h (i32.add
+      (i32.add (i32x4.extract_lane 0 (local.get $a)) (i32x4.extract_lane 1 (local.get $a)))
+      (i32.add (i32x4.extract_lane 2 (local.get $a)) (i32x4.extract_lane 3 (local.get $a)))))`
+}
+
+/** Body that adds $delta·ξ_row to m; uses locals $r $e $mp $x $y $dv. */
+function flip (w: Width): string {
+  const init = `
+    (local.set $r (local.get $row))
+    (local.set $e (i32.add (local.get $row) (local.get $pp)))
+    (local.set $mp (local.get $m))`
+  if (w === 16) {
+    return `${init}
+    (local.set $dv (i16x8.splat (local.get $delta)))
+    (loop $flip
+      (local.set $x (v128.load (local.get $r)))
+      (v128.store (local.get $mp) (i16x8.add (v128.load (local.get $mp)) (i16x8.mul (i16x8.extend_low_i8x16_s (local.get $x)) (local.get $dv))))
+      (v128.store offset=16 (local.get $mp) (i16x8.add (v128.load offset=16 (local.get $mp)) (i16x8.mul (i16x8.extend_high_i8x16_s (local.get $x)) (local.get $dv))))
+      (local.set $mp (i32.add (local.get $mp) (i32.const 32)))
+      (br_if $flip (i32.lt_u (local.tee $r (i32.add (local.get $r) (i32.const 16))) (local.get $e))))`
+  }
+  return `${init}
+    (local.set $dv (i32x4.splat (local.get $delta)))
+    (loop $flip
+      (local.set $x (v128.load (local.get $r)))
+      (local.set $y (i16x8.extend_low_i8x16_s (local.get $x)))
+      (v128.store (local.get $mp) (i32x4.add (v128.load (local.get $mp)) (i32x4.mul (i32x4.extend_low_i16x8_s (local.get $y)) (local.get $dv))))
+      (v128.store offset=16 (local.get $mp) (i32x4.add (v128.load offset=16 (local.get $mp)) (i32x4.mul (i32x4.extend_high_i16x8_s (local.get $y)) (local.get $dv))))
+      (local.set $y (i16x8.extend_high_i8x16_s (local.get $x)))
+      (v128.store offset=32 (local.get $mp) (i32x4.add (v128.load offset=32 (local.get $mp)) (i32x4.mul (i32x4.extend_low_i16x8_s (local.get $y)) (local.get $dv))))
+      (v128.store offset=48 (local.get $mp) (i32x4.add (v128.load offset=48 (local.get $mp)) (i32x4.mul (i32x4.extend_high_i16x8_s (local.get $y)) (local.get $dv))))
+      (local.set $mp (i32.add (local.get $mp) (i32.const 64)))
+      (br_if $flip (i32.lt_u (local.tee $r (i32.add (local.get $r) (i32.const 16))) (local.get $e))))`
+}
+
+const LOCALS = `(local $row i32) (local $r i32) (local $e i32) (local $mp i32) (local $h i32) (local $delta i32)
+    (local $x v128) (local $y v128) (local $a v128) (local $b v128) (local $c v128) (local $d v128) (local $dv v128)`
+
+/** The zero-temperature decision: v = +1 if h > 0, −1 if h < 0, else unchanged (the tie rule). */
+const DECIDE = '(select (i32.const 1) (select (i32.const -1) (local.get $si) (i32.lt_s (local.get $h) (i32.const 0))) (i32.gt_s (local.get $h) (i32.const 0)))'
+
+function variant (w: Width): string {
+  const lane = w === 16 ? 2 : 4
+  return `
+  ;; Raw field without the self term: Σ_μ ξ_i^μ m_μ.
+  (func (export "dot${w}") (param $xi i32) (param $m i32) (param $pp i32) (param $i i32) (result i32)
+    ${LOCALS}
+    (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+    ${dot(w)}
+    (local.get $h))
+
+  ;; m += delta·ξ_i (a change of s_i by delta).
+  (func (export "flip${w}") (param $xi i32) (param $m i32) (param $pp i32) (param $i i32) (param $d0 i32)
+    ${LOCALS}
+    (local.set $delta (local.get $d0))
+    (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+    ${flip(w)})
+
+  ;; m = Σ_i s_i ξ_i from scratch, one block of 16 patterns at a time so the accumulators stay in registers.
+  (func (export "overlaps${w}") (param $xi i32) (param $m i32) (param $s i32) (param $n i32) (param $pp i32)
+    (local $blk i32) (local $r i32) (local $sp i32) (local $se i32) (local $x v128) (local $y v128) (local $sv v128)
+    (local $a v128) (local $b v128) (local $c v128) (local $d v128)
+    (local.set $se (i32.add (local.get $s) (local.get $n)))
+    (local.set $blk (i32.const 0))
+    (loop $block
+      (local.set $a (v128.const i32x4 0 0 0 0))
+      (local.set $b (v128.const i32x4 0 0 0 0))
+      (local.set $c (v128.const i32x4 0 0 0 0))
+      (local.set $d (v128.const i32x4 0 0 0 0))
+      (local.set $r (i32.add (local.get $xi) (local.get $blk)))
+      (local.set $sp (local.get $s))
+      (loop $neuron
+        (local.set $x (v128.load (local.get $r)))
+        ${w === 16
+          ? `(local.set $sv (i16x8.splat (i32.load8_s (local.get $sp))))
+        (local.set $a (i16x8.add (local.get $a) (i16x8.mul (i16x8.extend_low_i8x16_s (local.get $x)) (local.get $sv))))
+        (local.set $b (i16x8.add (local.get $b) (i16x8.mul (i16x8.extend_high_i8x16_s (local.get $x)) (local.get $sv))))`
+          : `(local.set $sv (i32x4.splat (i32.load8_s (local.get $sp))))
+        (local.set $y (i16x8.extend_low_i8x16_s (local.get $x)))
+        (local.set $a (i32x4.add (local.get $a) (i32x4.mul (i32x4.extend_low_i16x8_s (local.get $y)) (local.get $sv))))
+        (local.set $b (i32x4.add (local.get $b) (i32x4.mul (i32x4.extend_high_i16x8_s (local.get $y)) (local.get $sv))))
+        (local.set $y (i16x8.extend_high_i8x16_s (local.get $x)))
+        (local.set $c (i32x4.add (local.get $c) (i32x4.mul (i32x4.extend_low_i16x8_s (local.get $y)) (local.get $sv))))
+        (local.set $d (i32x4.add (local.get $d) (i32x4.mul (i32x4.extend_high_i16x8_s (local.get $y)) (local.get $sv))))`}
+        (local.set $r (i32.add (local.get $r) (local.get $pp)))
+        (br_if $neuron (i32.lt_u (local.tee $sp (i32.add (local.get $sp) (i32.const 1))) (local.get $se))))
+      (local.set $r (i32.add (local.get $m) (i32.mul (local.get $blk) (i32.const ${lane}))))
+      (v128.store (local.get $r) (local.get $a))
+      (v128.store offset=16 (local.get $r) (local.get $b))
+      ${w === 32 ? '(v128.store offset=32 (local.get $r) (local.get $c)) (v128.store offset=48 (local.get $r) (local.get $d))' : ''}
+      (br_if $block (i32.lt_u (local.tee $blk (i32.add (local.get $blk) (i32.const 16))) (local.get $pp)))))
+
+  ;; One asynchronous zero-temperature sweep in the given order; returns 1 if any neuron changed.
+  (func (export "sweep${w}") (param $xi i32) (param $m i32) (param $s i32) (param $order i32) (param $n i32) (param $pp i32) (param $self i32) (result i32)
+    ${LOCALS}
+    (local $k i32) (local $ke i32) (local $i i32) (local $si i32) (local $v i32) (local $changed i32)
+    (local.set $k (local.get $order))
+    (local.set $ke (i32.add (local.get $order) (i32.shl (local.get $n) (i32.const 2))))
+    (loop $visit
+      (local.set $i (i32.load (local.get $k)))
+      (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+      (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+      ${dot(w)}
+      (local.set $h (i32.sub (local.get $h) (i32.mul (local.get $self) (local.get $si))))
+      (local.set $v ${DECIDE})
+      (if (i32.ne (local.get $v) (local.get $si))
+        (then
+          (i32.store8 (i32.add (local.get $s) (local.get $i)) (local.get $v))
+          (local.set $delta (i32.sub (local.get $v) (local.get $si)))
+          ${flip(w)}
+          (local.set $changed (i32.const 1))))
+      (br_if $visit (i32.lt_u (local.tee $k (i32.add (local.get $k) (i32.const 4))) (local.get $ke))))
+    (local.get $changed))
+
+  ;; One synchronous zero-temperature step s(t) = sign(h(s(t−1))), ties keep s_i.
+  ;; Returns 1 if s(t) = s(t−1) (state left as is), 2 if s(t) = prev (checked when $check), else 0;
+  ;; unless 1, prev ← s(t−1) and s, m ← s(t), m updated from the changed neurons only.
+  (func (export "sync${w}") (param $xi i32) (param $m i32) (param $s i32) (param $next i32) (param $prev i32) (param $n i32) (param $pp i32) (param $self i32) (param $check i32) (result i32)
+    ${LOCALS}
+    (local $i i32) (local $si i32) (local $v i32) (local $same i32)
+    (local.set $same (i32.const 1))
+    (local.set $i (i32.const 0))
+    (loop $visit
+      (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+      (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+      ${dot(w)}
+      (local.set $h (i32.sub (local.get $h) (i32.mul (local.get $self) (local.get $si))))
+      (local.set $v ${DECIDE})
+      (i32.store8 (i32.add (local.get $next) (local.get $i)) (local.get $v))
+      (if (i32.ne (local.get $v) (local.get $si)) (then (local.set $same (i32.const 0))))
+      (br_if $visit (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))
+    (if (local.get $same) (then (return (i32.const 1))))
+    (if (local.get $check)
+      (then
+        (local.set $i (i32.const 0))
+        (block $differs
+          (loop $compare
+            (br_if $differs (i32.ne (i32.load8_s (i32.add (local.get $next) (local.get $i))) (i32.load8_s (i32.add (local.get $prev) (local.get $i)))))
+            (br_if $compare (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))
+          (local.set $same (i32.const 2)))))
+    (local.set $i (i32.const 0))
+    (loop $apply
+      (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+      (local.set $v (i32.load8_s (i32.add (local.get $next) (local.get $i))))
+      (i32.store8 (i32.add (local.get $prev) (local.get $i)) (local.get $si))
+      (if (i32.ne (local.get $v) (local.get $si))
+        (then
+          (i32.store8 (i32.add (local.get $s) (local.get $i)) (local.get $v))
+          (local.set $delta (i32.sub (local.get $v) (local.get $si)))
+          (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+          ${flip(w)}))
+      (br_if $apply (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))
+    (local.get $same))
+
+  ;; One asynchronous Glauber sweep: s_i ← +1 iff u_k·(1 + exp(factor·h_i)) < 1, u_k = noise[k].
+  ;; The same IEEE operations, in the same order, as the plain path; exp is the host's Math.exp.
+  (func (export "glauber${w}") (param $xi i32) (param $m i32) (param $s i32) (param $order i32) (param $noise i32) (param $n i32) (param $pp i32) (param $self i32) (param $factor f64)
+    ${LOCALS}
+    (local $k i32) (local $i i32) (local $si i32) (local $v i32)
+    (local.set $k (i32.const 0))
+    (loop $visit
+      (local.set $i (i32.load (i32.add (local.get $order) (i32.shl (local.get $k) (i32.const 2)))))
+      (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+      (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+      ${dot(w)}
+      (local.set $h (i32.sub (local.get $h) (i32.mul (local.get $self) (local.get $si))))
+      (local.set $v (select (i32.const 1) (i32.const -1)
+        (f64.lt
+          (f64.mul (f64.load (i32.add (local.get $noise) (i32.shl (local.get $k) (i32.const 3))))
+            (f64.add (f64.const 1) (call $exp (f64.mul (local.get $factor) (f64.convert_i32_s (local.get $h))))))
+          (f64.const 1))))
+      (if (i32.ne (local.get $v) (local.get $si))
+        (then
+          (i32.store8 (i32.add (local.get $s) (local.get $i)) (local.get $v))
+          (local.set $delta (i32.sub (local.get $v) (local.get $si)))
+          ${flip(w)}))
+      (br_if $visit (i32.lt_u (local.tee $k (i32.add (local.get $k) (i32.const 1))) (local.get $n)))))
+
+  ;; Synchronous Glauber step: next_i from the current state for every i, then s, m ← next.
+  (func (export "glauberSync${w}") (param $xi i32) (param $m i32) (param $s i32) (param $next i32) (param $noise i32) (param $n i32) (param $pp i32) (param $self i32) (param $factor f64)
+    ${LOCALS}
+    (local $i i32) (local $si i32) (local $v i32)
+    (local.set $i (i32.const 0))
+    (loop $visit
+      (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+      (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+      ${dot(w)}
+      (local.set $h (i32.sub (local.get $h) (i32.mul (local.get $self) (local.get $si))))
+      (i32.store8 (i32.add (local.get $next) (local.get $i)) (select (i32.const 1) (i32.const -1)
+        (f64.lt
+          (f64.mul (f64.load (i32.add (local.get $noise) (i32.shl (local.get $i) (i32.const 3))))
+            (f64.add (f64.const 1) (call $exp (f64.mul (local.get $factor) (f64.convert_i32_s (local.get $h))))))
+          (f64.const 1))))
+      (br_if $visit (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))
+    (local.set $i (i32.const 0))
+    (loop $apply
+      (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+      (local.set $v (i32.load8_s (i32.add (local.get $next) (local.get $i))))
+      (if (i32.ne (local.get $v) (local.get $si))
+        (then
+          (i32.store8 (i32.add (local.get $s) (local.get $i)) (local.get $v))
+          (local.set $delta (i32.sub (local.get $v) (local.get $si)))
+          (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+          ${flip(w)}))
+      (br_if $apply (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n)))))`
+}
+
+/**
+ * Pattern-major int8 (rows of np bytes, P padded to pp rows of zeros) to neuron-major
+ * (rows of pp bytes), in 16×16 tiles: four rounds of byte interleaves of rows j and j+8
+ * transpose a tile in registers (64 shuffles per 256 entries instead of 256 scalar moves).
+ */
+function transpose (): string {
+  const lo = '0 16 1 17 2 18 3 19 4 20 5 21 6 22 7 23'
+  const hi = '8 24 9 25 10 26 11 27 12 28 13 29 14 30 15 31'
+  const decl: string[] = []
+  for (let k = 0; k < 16; k++) decl.push(`(local $v${k} v128) (local $w${k} v128)`)
+  const loads: string[] = []
+  for (let r = 0; r < 16; r++) loads.push(`(local.set $v${r} (v128.load (i32.add (local.get $in) (i32.mul (i32.const ${r}) (local.get $np)))))`)
+  const rounds: string[] = []
+  for (let round = 0; round < 4; round++) {
+    const [from, to] = round % 2 === 0 ? ['v', 'w'] : ['w', 'v']
+    for (let j = 0; j < 8; j++) {
+      rounds.push(`(local.set $${to}${2 * j} (i8x16.shuffle ${lo} (local.get $${from}${j}) (local.get $${from}${j + 8})))`)
+      rounds.push(`(local.set $${to}${2 * j + 1} (i8x16.shuffle ${hi} (local.get $${from}${j}) (local.get $${from}${j + 8})))`)
+    }
+  }
+  const stores: string[] = []
+  for (let c = 0; c < 16; c++) stores.push(`(v128.store (i32.add (local.get $out) (i32.mul (i32.const ${c}) (local.get $stride))) (local.get $v${c}))`)
+  return `
+  ;; dst[i·stride + μ] = src[μ·np + i] for i < np, μ < rows (np, rows multiples of 16).
+  (func (export "transpose") (param $src i32) (param $np i32) (param $dst i32) (param $stride i32) (param $rows i32)
+    (local $ti i32) (local $tm i32) (local $in i32) (local $out i32)
+    ${decl.join(' ')}
+    (local.set $ti (i32.const 0))
+    (loop $cols
+      (local.set $tm (i32.const 0))
+      (loop $rows
+        (local.set $in (i32.add (local.get $src) (i32.add (i32.mul (local.get $tm) (local.get $np)) (local.get $ti))))
+        (local.set $out (i32.add (local.get $dst) (i32.add (i32.mul (local.get $ti) (local.get $stride)) (local.get $tm))))
+        ${loads.join('\n        ')}
+        ${rounds.join('\n        ')}
+        ${stores.join('\n        ')}
+        (br_if $rows (i32.lt_u (local.tee $tm (i32.add (local.get $tm) (i32.const 16))) (local.get $rows))))
+      (br_if $cols (i32.lt_u (local.tee $ti (i32.add (local.get $ti) (i32.const 16))) (local.get $np)))))`
+}
+
+/**
+ * xoshiro256** (Blackman & Vigna 2021) on native 64-bit words, for the per-sweep Fisher–Yates
+ * shuffle: for i = n−1 down to 1, j = below(i + 1) = ⌊next()·(i + 1) / 2^64⌋, swap order[i],
+ * order[j]. ⌊x·k / 2^64⌋ for k < 2^32 is computed exactly from the 32-bit halves of x:
+ * (x_hi·k + ⌊x_lo·k / 2^32⌋) / 2^32 never exceeds 64 bits. The state (four words s0..s3,
+ * little-endian) is read from and written back to `state`; the last output goes to state+32.
+ */
+function shuffle (): string {
+  return `
+  (func (export "shuffle") (param $order i32) (param $n i32) (param $state i32)
+    (local $s0 i64) (local $s1 i64) (local $s2 i64) (local $s3 i64) (local $t i64) (local $x i64)
+    (local $i i32) (local $j i32) (local $pi i32) (local $pj i32) (local $tmp i32)
+    (if (i32.lt_u (local.get $n) (i32.const 2)) (then (return)))
+    (local.set $s0 (i64.load (local.get $state)))
+    (local.set $s1 (i64.load offset=8 (local.get $state)))
+    (local.set $s2 (i64.load offset=16 (local.get $state)))
+    (local.set $s3 (i64.load offset=24 (local.get $state)))
+    (local.set $i (i32.sub (local.get $n) (i32.const 1)))
+    (loop $draw
+      (local.set $x (i64.mul (i64.rotl (i64.mul (local.get $s1) (i64.const 5)) (i64.const 7)) (i64.const 9)))
+      (local.set $t (i64.shl (local.get $s1) (i64.const 17)))
+      (local.set $s2 (i64.xor (local.get $s2) (local.get $s0)))
+      (local.set $s3 (i64.xor (local.get $s3) (local.get $s1)))
+      (local.set $s1 (i64.xor (local.get $s1) (local.get $s2)))
+      (local.set $s0 (i64.xor (local.get $s0) (local.get $s3)))
+      (local.set $s2 (i64.xor (local.get $s2) (local.get $t)))
+      (local.set $s3 (i64.rotl (local.get $s3) (i64.const 45)))
+      (local.set $t (i64.extend_i32_u (i32.add (local.get $i) (i32.const 1))))
+      (local.set $j (i32.wrap_i64 (i64.shr_u
+        (i64.add
+          (i64.mul (i64.shr_u (local.get $x) (i64.const 32)) (local.get $t))
+          (i64.shr_u (i64.mul (i64.and (local.get $x) (i64.const 0xffffffff)) (local.get $t)) (i64.const 32)))
+        (i64.const 32))))
+      (local.set $pi (i32.add (local.get $order) (i32.shl (local.get $i) (i32.const 2))))
+      (local.set $pj (i32.add (local.get $order) (i32.shl (local.get $j) (i32.const 2))))
+      (local.set $tmp (i32.load (local.get $pi)))
+      (i32.store (local.get $pi) (i32.load (local.get $pj)))
+      (i32.store (local.get $pj) (local.get $tmp))
+      (br_if $draw (local.tee $i (i32.sub (local.get $i) (i32.const 1)))))
+    (i64.store (local.get $state) (local.get $s0))
+    (i64.store offset=8 (local.get $state) (local.get $s1))
+    (i64.store offset=16 (local.get $state) (local.get $s2))
+    (i64.store offset=24 (local.get $state) (local.get $s3))
+    (i64.store offset=32 (local.get $state) (local.get $x)))`
+}
+
+export const OVERLAP_KERNEL_WAT = `(module
+  (import "host" "exp" (func $exp (param f64) (result f64)))
+  (memory (export "memory") 1)
+${variant(16)}
+${variant(32)}
+${transpose()}
+${shuffle()}
+)
+`
+
+async function main (): Promise<void> {
+  const wabt = await wabtFactory()
+  const mod = wabt.parseWat('overlap-kernel.wat', OVERLAP_KERNEL_WAT, { simd: true })
+  mod.validate()
+  const { buffer } = mod.toBinary({})
+  mod.destroy()
+  const hex = Buffer.from(buffer).toString('hex')
+  const lines: string[] = []
+  for (let k = 0; k < hex.length; k += 120) lines.push(`  '${hex.slice(k, k + 120)}'`)
+  const out = `// Generated by scripts/gen-kernels.ts (npm run kernels:generate). Do not edit by hand.
+// WebAssembly SIMD128 module for the overlap-space fast path; its text source and layout
+// notes live in the generator.
+
+/** The module's bytes, hex-encoded. */
+export const OVERLAP_KERNEL_HEX =
+${lines.join(' +\n')}
+`
+  const target = fileURLToPath(new URL('../src/engine/kernels/overlap-kernel.generated.ts', import.meta.url))
+  writeFileSync(target, out)
+  console.log(`wrote ${target} (${buffer.length} bytes of wasm)`)
+}
+
+if (process.argv[1] === fileURLToPath(import.meta.url)) await main()

@@ -1,0 +1,266 @@
+import { OVERLAP_KERNEL_HEX } from './overlap-kernel.generated.js'
+import { compileOnce, wasmApi, WASM_PAGE, type WasmMemory } from './wasm.js'
+
+/**
+ * WebAssembly SIMD128 fast path of the overlap-space network (kernel text and memory
+ * layout: scripts/gen-kernels.ts).
+ *
+ * ## Why this shape
+ * A visit costs one dot product of a neuron's P pattern entries with the P overlaps, so the
+ * patterns are held neuron-major as int8 (one contiguous row per visit, 16 entries per SIMD
+ * load, N·P bytes in all) and the overlaps as int16 lanes when N ≤ 32767 (eight products
+ * per `i32x4.dot_i16x8_s`), int32 lanes otherwise. Every quantity is an exact integer, so
+ * the kernel reproduces the plain path bit for bit. Whole sweeps and synchronous steps run
+ * inside one call; the caller keeps drawing random numbers in JavaScript (the visiting order
+ * and Glauber's uniforms are drawn before the sweep they serve, in the same order as the
+ * plain path draws them).
+ *
+ * ## Memory
+ * Small networks share one module instance (one linear memory, grown as needed): the network
+ * keeps its own copy of the neuron-major patterns, which is copied in when another network
+ * used the workspace last. State and overlaps stay canonical in the network's JavaScript
+ * arrays and cross the boundary (O(N + P) bytes) on every call. Networks whose patterns take
+ * at least PRIVATE_BYTES get an instance of their own holding the only copy, so a big network
+ * costs N·P bytes once. (One memory per small network would be simpler, but V8 reserves
+ * gigabytes of address space per memory and stalls on garbage collection when thousands of
+ * networks are built in a row.)
+ */
+interface OverlapExports {
+  memory: WasmMemory
+  overlaps16: (xi: number, m: number, s: number, n: number, pp: number) => void
+  overlaps32: (xi: number, m: number, s: number, n: number, pp: number) => void
+  sweep16: (xi: number, m: number, s: number, order: number, n: number, pp: number, self: number) => number
+  sweep32: (xi: number, m: number, s: number, order: number, n: number, pp: number, self: number) => number
+  sync16: (xi: number, m: number, s: number, next: number, prev: number, n: number, pp: number, self: number, check: number) => number
+  sync32: (xi: number, m: number, s: number, next: number, prev: number, n: number, pp: number, self: number, check: number) => number
+  glauber16: (xi: number, m: number, s: number, order: number, noise: number, n: number, pp: number, self: number, factor: number) => void
+  glauber32: (xi: number, m: number, s: number, order: number, noise: number, n: number, pp: number, self: number, factor: number) => void
+  glauberSync16: (xi: number, m: number, s: number, next: number, noise: number, n: number, pp: number, self: number, factor: number) => void
+  glauberSync32: (xi: number, m: number, s: number, next: number, noise: number, n: number, pp: number, self: number, factor: number) => void
+  transpose: (src: number, np: number, dst: number, stride: number, rows: number) => void
+}
+
+/** Networks whose neuron-major patterns take at least this many bytes get a private instance. */
+export const PRIVATE_BYTES = 32 * 1024 * 1024
+/** Largest N for int16 overlap lanes (|m_μ| ≤ N). */
+const I16_NEURONS = 32767
+
+const overlapModule = compileOnce(OVERLAP_KERNEL_HEX)
+
+function instantiate (): OverlapExports | null {
+  const api = wasmApi()
+  const mod = overlapModule()
+  if (api === null || mod === null) return null
+  return new api.Instance(mod, { host: { exp: Math.exp } }).exports as unknown as OverlapExports
+}
+
+class Workspace {
+  residentId = 0
+  constructor (readonly k: OverlapExports) {}
+
+  reserve (bytes: number): void {
+    const have = this.k.memory.buffer.byteLength
+    if (bytes > have) this.k.memory.grow(Math.ceil((bytes - have) / WASM_PAGE))
+  }
+}
+
+let sharedWorkspace: Workspace | null | undefined
+let nextId = 1
+
+function workspaceFor (bytes: number): Workspace | null {
+  if (bytes >= PRIVATE_BYTES) {
+    const k = instantiate()
+    return k === null ? null : new Workspace(k)
+  }
+  if (sharedWorkspace === undefined) {
+    const k = instantiate()
+    sharedWorkspace = k === null ? null : new Workspace(k)
+  }
+  return sharedWorkspace
+}
+
+const align16 = (x: number): number => (x + 15) & ~15
+
+/** The fast-path names recorded in provenance. */
+export type OverlapKernelName = 'wasm-simd128-overlap-i16' | 'wasm-simd128-overlap-i32'
+
+/**
+ * Decides whether the kernel can serve a network of this size: int32 fields must not
+ * overflow (|h| ≤ P·(N + 1)) and the layout must fit a 32-bit memory.
+ */
+export function overlapKernelName (neurons: number, patterns: number): OverlapKernelName | null {
+  if (patterns * (neurons + 1) >= 2 ** 31) return null
+  if (align16(neurons) * align16(patterns) + 16 * neurons + 8 * patterns > 3.5 * 2 ** 30) return null
+  return neurons <= I16_NEURONS ? 'wasm-simd128-overlap-i16' : 'wasm-simd128-overlap-i32'
+}
+
+export class OverlapKernel {
+  readonly name: OverlapKernelName
+  /** Row stride of `xi`: P rounded up to 16. */
+  readonly stride: number
+  /** Neuron-major patterns, xi[i·stride + μ]; padding entries are 0. */
+  readonly xi: Int8Array
+  private readonly ws: Workspace
+  private readonly k: OverlapExports
+  private readonly isPrivate: boolean
+  private readonly id = nextId++
+  private readonly n: number
+  private readonly p: number
+  private readonly self: number
+  private readonly wide: boolean
+  // Byte offsets of the layout in the workspace memory.
+  private readonly xiAt = 0
+  private readonly mAt: number
+  private readonly sAt: number
+  private readonly nextAt: number
+  private readonly prevAt: number
+  private readonly orderAt: number
+  private readonly noiseAt: number
+  private readonly stageAt: number
+  private readonly end: number
+  private buffer: ArrayBuffer | null = null
+  private u8 = new Uint8Array(0)
+  private s8 = new Int8Array(0)
+  private prev8 = new Int8Array(0)
+  private m16 = new Int16Array(0)
+  private m32 = new Int32Array(0)
+  private order32 = new Int32Array(0)
+  private noise64 = new Float64Array(0)
+
+  /** Null when the host has no WebAssembly SIMD or the size does not suit the kernel. */
+  static create (neurons: number, patterns: number, selfTerm: number): OverlapKernel | null {
+    const name = overlapKernelName(neurons, patterns)
+    if (name === null) return null
+    const stride = align16(patterns)
+    const ws = workspaceFor(align16(neurons) * stride)
+    return ws === null ? null : new OverlapKernel(ws, name, neurons, patterns, selfTerm)
+  }
+
+  private constructor (ws: Workspace, name: OverlapKernelName, n: number, p: number, selfTerm: number) {
+    this.ws = ws
+    this.k = ws.k
+    this.name = name
+    this.n = n
+    this.p = p
+    this.self = selfTerm
+    this.wide = name === 'wasm-simd128-overlap-i32'
+    const np = align16(n)
+    const pp = align16(p)
+    this.stride = pp
+    this.mAt = align16(np * pp)
+    this.sAt = align16(this.mAt + pp * (this.wide ? 4 : 2))
+    this.nextAt = align16(this.sAt + n)
+    this.prevAt = align16(this.nextAt + n)
+    this.orderAt = align16(this.prevAt + n)
+    this.noiseAt = align16(this.orderAt + 4 * n)
+    this.stageAt = align16(this.noiseAt + 8 * n)
+    this.end = this.stageAt + 16 * np
+    this.isPrivate = ws !== sharedWorkspace
+    ws.reserve(this.end)
+    this.xi = this.isPrivate ? new Int8Array(ws.k.memory.buffer, 0, n * pp) : new Int8Array(n * pp)
+  }
+
+  /** Fills `xi` from pattern-major ±1 patterns (patterns[μ·N + i]), 16 patterns at a time. */
+  loadPatterns (patterns: Int8Array): void {
+    const { n, p } = this
+    const np = align16(n)
+    this.enter(false)
+    const u8 = this.u8
+    const stage = new Int8Array(u8.buffer, this.stageAt, 16 * np)
+    for (let mu0 = 0; mu0 < p; mu0 += 16) {
+      stage.fill(0)
+      const rows = Math.min(16, p - mu0)
+      for (let r = 0; r < rows; r++) stage.set(patterns.subarray((mu0 + r) * n, (mu0 + r + 1) * n), r * np)
+      this.k.transpose(this.stageAt, np, this.xiAt + mu0, this.stride, 16)
+    }
+    if (!this.isPrivate) this.xi.set(new Int8Array(u8.buffer, this.xiAt, n * this.stride))
+  }
+
+  /** m = Ξᵀ s. */
+  overlaps (state: Int8Array, m: Int32Array): void {
+    this.enter()
+    this.s8.set(state)
+    const fn = this.wide ? this.k.overlaps32 : this.k.overlaps16
+    fn(this.xiAt, this.mAt, this.sAt, this.n, this.stride)
+    this.leave(state, m, false)
+  }
+
+  /** One zero-temperature asynchronous sweep in `order`; true if a neuron changed. */
+  sweep (state: Int8Array, m: Int32Array, order: Int32Array): boolean {
+    this.enter()
+    this.pass(state, m)
+    this.order32.set(order)
+    const fn = this.wide ? this.k.sweep32 : this.k.sweep16
+    const changed = fn(this.xiAt, this.mAt, this.sAt, this.orderAt, this.n, this.stride, this.self)
+    this.leave(state, m, true)
+    return changed !== 0
+  }
+
+  /** One zero-temperature synchronous step: 0 changed, 1 fixed point, 2 two-cycle (see the kernel). */
+  sync (state: Int8Array, m: Int32Array, previous: Int8Array, check: boolean): number {
+    this.enter()
+    this.pass(state, m)
+    this.prev8.set(previous)
+    const fn = this.wide ? this.k.sync32 : this.k.sync16
+    const outcome = fn(this.xiAt, this.mAt, this.sAt, this.nextAt, this.prevAt, this.n, this.stride, this.self, check ? 1 : 0)
+    if (outcome !== 1) {
+      previous.set(this.prev8)
+      this.leave(state, m, true)
+    }
+    return outcome
+  }
+
+  /** One asynchronous Glauber sweep with noise[k] the uniform of the k-th visit. */
+  glauber (state: Int8Array, m: Int32Array, order: Int32Array, noise: Float64Array, factor: number): void {
+    this.enter()
+    this.pass(state, m)
+    this.order32.set(order)
+    this.noise64.set(noise.subarray(0, this.n))
+    const fn = this.wide ? this.k.glauber32 : this.k.glauber16
+    fn(this.xiAt, this.mAt, this.sAt, this.orderAt, this.noiseAt, this.n, this.stride, this.self, factor)
+    this.leave(state, m, true)
+  }
+
+  /** One synchronous Glauber step with noise[i] the uniform of neuron i. */
+  glauberSync (state: Int8Array, m: Int32Array, noise: Float64Array, factor: number): void {
+    this.enter()
+    this.pass(state, m)
+    this.noise64.set(noise.subarray(0, this.n))
+    const fn = this.wide ? this.k.glauberSync32 : this.k.glauberSync16
+    fn(this.xiAt, this.mAt, this.sAt, this.nextAt, this.noiseAt, this.n, this.stride, this.self, factor)
+    this.leave(state, m, true)
+  }
+
+  /** Makes this network's layout current: memory large enough, views fresh, patterns resident. */
+  private enter (copyPatterns = true): void {
+    const ws = this.ws
+    if (!this.isPrivate) ws.reserve(this.end)
+    const buffer = ws.k.memory.buffer
+    if (buffer !== this.buffer) {
+      this.buffer = buffer
+      this.u8 = new Uint8Array(buffer)
+      this.s8 = new Int8Array(buffer, this.sAt, this.n)
+      this.prev8 = new Int8Array(buffer, this.prevAt, this.n)
+      this.m16 = new Int16Array(buffer, this.mAt, this.p)
+      this.m32 = new Int32Array(buffer, this.mAt, this.p)
+      this.order32 = new Int32Array(buffer, this.orderAt, this.n)
+      this.noise64 = new Float64Array(buffer, this.noiseAt, this.n)
+    }
+    if (ws.residentId !== this.id) {
+      if (!this.isPrivate && copyPatterns) this.u8.set(new Uint8Array(this.xi.buffer, this.xi.byteOffset, this.xi.length), this.xiAt)
+      ws.residentId = this.id
+    }
+  }
+
+  /** State and overlaps into the workspace. */
+  private pass (state: Int8Array, m: Int32Array): void {
+    this.s8.set(state)
+    if (this.wide) this.m32.set(m)
+    else this.m16.set(m)
+  }
+
+  private leave (state: Int8Array, m: Int32Array, withState: boolean): void {
+    if (withState) state.set(this.s8)
+    m.set(this.wide ? this.m32 : this.m16)
+  }
+}
