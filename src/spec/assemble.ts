@@ -101,19 +101,21 @@ function placeTrials (spec: NormalisedSpec, chunkResults: readonly ChunkResult[]
       continue
     }
     const slot = slots[result.point]!
+    let outside = 0
+    let conflicting = 0
     for (const record of result.trials) {
       const t = record.trial
       if (!(Number.isSafeInteger(t) && t >= 0 && t < spec.trials)) {
-        problems.push(`chunk ${result.chunk} holds trial ${t} of point ${result.point}, outside 0…${spec.trials - 1}`)
+        outside++
         continue
       }
       const earlier = slot[t]
       // A retried chunk may be delivered twice; identical records are harmless, different ones are a bug.
-      if (earlier !== undefined && earlier !== record && canonicalJson(earlier) !== canonicalJson(record)) {
-        problems.push(`trial ${t} of point ${result.point} was delivered twice with different content`)
-      }
       if (earlier === undefined) slot[t] = record
+      else if (earlier !== record && canonicalJson(earlier) !== canonicalJson(record)) conflicting++
     }
+    if (outside > 0) problems.push(`chunk ${result.chunk} holds ${outside} trial(s) of point ${result.point} outside 0…${spec.trials - 1}`)
+    if (conflicting > 0) problems.push(`chunk ${result.chunk} delivered ${conflicting} trial(s) of point ${result.point} twice with different content`)
   }
   for (let point = 0; point < points; point++) {
     const slot = slots[point]!

@@ -26,7 +26,7 @@ export function resultToJson (result: SweepResult, opts: OutputOptions): string 
 
 /**
  * The result as tidy CSV. Per point: point, the varied parameters (by path), neurons,
- * patterns, alpha, trials, overlap/sweeps/maxOtherOverlap/energy mean·sd·se, success
+ * patterns and alpha (= P/N; unless already varied), trials, overlap/sweeps/maxOtherOverlap/energy mean·sd·se, success
  * count·rate·low·high (Wilson 95 %), ending and end-state counts, stability (when measured)
  * and one `theory.<name>` column per theory value (empty where it does not apply).
  * Per trial: point, varied parameters, neurons, patterns, alpha, then the trial record
@@ -38,12 +38,20 @@ export function resultToCsv (result: SweepResult, opts: OutputOptions): string {
 
 const MEAN_FIELDS = ['overlap', 'sweeps', 'maxOtherOverlap', 'energy'] as const
 
+const PARAM_COLUMNS = ['neurons', 'patterns', 'alpha'] as const
+
+/** N, P and α follow the varied columns, except those already among them (a varied N or P). */
+function paramColumns (result: SweepResult): Array<typeof PARAM_COLUMNS[number]> {
+  const varied = new Set<string>(gridAxes(result.spec).map((axis) => axis.path))
+  return PARAM_COLUMNS.filter((name) => !varied.has(name))
+}
+
 function leadingHeader (result: SweepResult): string[] {
-  return ['point', ...gridAxes(result.spec).map((axis) => axis.path), 'neurons', 'patterns', 'alpha']
+  return ['point', ...gridAxes(result.spec).map((axis) => axis.path), ...paramColumns(result)]
 }
 
 function leadingCells (result: SweepResult, row: ResultRow): CsvCell[] {
-  return [row.point, ...gridAxes(result.spec).map((axis) => row.values[axis.path]), row.params.neurons, row.params.patterns, row.params.alpha]
+  return [row.point, ...gridAxes(result.spec).map((axis) => row.values[axis.path]), ...paramColumns(result).map((name) => row.params[name])]
 }
 
 function pointCsv (result: SweepResult): string {

@@ -111,7 +111,7 @@ describe('assembleResult', () => {
       .toBe(resultToJson(reference, { perTrial: true }))
     expect(() => assembleResult(spec, fullRun.slice(1), provenance)).toThrow(IncompleteResultError)
     const tampered: ChunkResult = { ...fullRun[0]!, trials: fullRun[0]!.trials.map((t) => ({ ...t, overlap: -t.overlap })) }
-    expect(() => assembleResult(spec, [...fullRun, tampered], provenance)).toThrow(/delivered twice with different content/)
+    expect(() => assembleResult(spec, [...fullRun, tampered], provenance)).toThrow(/twice with different content/)
   })
 
   it('refuses provenance made for another spec', () => {
@@ -155,5 +155,12 @@ describe('output', () => {
     const trial = reference.trials[3]![8]!
     expect(last[header.indexOf('overlap')]).toBe(String(trial.overlap))
     expect(last[header.indexOf('success')]).toBe(trial.overlap >= 0.9 ? '1' : '0')
+  })
+
+  it('does not repeat N or P when they are themselves varied', () => {
+    const sizes = normaliseSpec({ neurons: { values: [20, 30] }, patterns: { values: [2, 3] }, trials: 2 })
+    const result = assembleResult(sizes, runAll(sizes, planChunks(sizes)), makeProvenance(sizes, { wallSeconds: 0, cpuSeconds: 0 }))
+    expect(resultToCsv(result, { perTrial: false }).split('\r\n')[0]!.split(',').slice(0, 5)).toEqual(['point', 'neurons', 'patterns', 'alpha', 'trials'])
+    expect(resultToCsv(result, { perTrial: true }).split('\r\n')[1]!.split(',').slice(0, 5)).toEqual(['0', '20', '2', '0.1', '0'])
   })
 })

@@ -1,0 +1,22 @@
+import { readdirSync, readFileSync } from 'node:fs'
+import { describe, expect, it } from 'vitest'
+import { checkLimits, DEFAULT_LIMITS, normaliseSpec } from '../../src/spec/index.js'
+
+const dir = new URL('../../examples/', import.meta.url)
+const files = readdirSync(dir).filter((name) => name.endsWith('.json')).sort()
+
+describe('examples/', () => {
+  it('holds the documented examples', () => {
+    expect(files).toEqual(expect.arrayContaining(['room-capacity.json', 'room-cue-noise.json', 'room-temperature.json']))
+  })
+
+  it.each(files)('%s normalises, fits the default limits and is a quick demo', (name) => {
+    const spec = normaliseSpec(JSON.parse(readFileSync(new URL(name, dir), 'utf8')))
+    expect(spec.label).toBeTruthy()
+    const work = checkLimits(spec, DEFAULT_LIMITS)
+    expect(work.points).toBeGreaterThan(1)
+    // Examples must finish within 30 s on 2 cores; the cost model can be ~3× off for some
+    // workloads, so the estimate stays well under the 60 CPU-seconds that would allow.
+    expect(work.cpuSeconds).toBeLessThan(15)
+  })
+})
