@@ -47,13 +47,16 @@ export function buildApp (deps: AppDependencies): FastifyInstance {
       const offered = req.headers['x-request-id']
       return typeof offered === 'string' && REQUEST_ID.test(offered) ? offered : randomUUID()
     },
-    return503OnClosing: true,
+    // Fastify's own closing answer is not a problem document; the hook below sends one instead.
+    return503OnClosing: false,
     // Keep-alive sockets would otherwise hold close() until their idle timeout.
     forceCloseConnections: 'idle'
   }
   const app = Fastify(options).withTypeProvider<ZodTypeProvider>()
   app.setValidatorCompiler(validatorCompiler)
   app.setSerializerCompiler(serializerCompiler)
+  // Only JSON bodies are accepted; fastify's built-in text/plain parser would let text through to a 422.
+  app.removeContentTypeParser('text/plain')
 
   const limits: Required<WorkLimits> = { ...DEFAULT_LIMITS, ...config.limits }
   const streams = new EventStreamRegistry()
@@ -66,11 +69,19 @@ export function buildApp (deps: AppDependencies): FastifyInstance {
     gate: new OwnerGate()
   }
 
+  let shuttingDown = false
   app.addHook('onRequest', async (request, reply) => {
     reply.header('x-request-id', request.id)
+    if (shuttingDown) {
+      reply.header('connection', 'close')
+      throw new ServiceError('MEMSWEEP_NOT_READY', { reason: 'the server is shutting down' }, { headers: { 'retry-after': '5' } })
+    }
   })
   // Open event streams would keep the server from closing: end them first.
-  app.addHook('preClose', async () => { streams.endAll() })
+  app.addHook('preClose', async () => {
+    shuttingDown = true
+    streams.endAll()
+  })
 
   app.register(problemsPlugin, { bodyLimit: config.bodyLimit })
   app.register(metricsPlugin, { queue })

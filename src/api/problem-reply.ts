@@ -55,6 +55,12 @@ export function toServiceError (error: unknown, request: FastifyRequest, context
       extensions: { limit: { name: error.limit, value: error.value, max: error.max } }
     })
   }
+  // Each backend issues its own opaque cursors; any of them names its rejection this way.
+  if (error instanceof Error && error.name === 'InvalidCursorError') {
+    return new ServiceError('MEMSWEEP_MALFORMED_REQUEST', { reason: 'the cursor was not issued by this service' }, {
+      extensions: { errors: [{ ...fieldIssue(['cursor'], 'not a cursor issued by this service'), path: 'querystring.cursor' }] }
+    })
+  }
   if (error instanceof IdempotencyConflictError) {
     return new ServiceError('MEMSWEEP_IDEMPOTENCY_KEY_REUSED', { key: error.key })
   }

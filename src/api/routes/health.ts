@@ -25,7 +25,7 @@ export const healthRoutes: FastifyPluginAsyncZod<HealthRoutesOptions> = async (a
       description: 'Checks nothing else (no storage, no Redis), so an outage of a dependency never gets a healthy process restarted.',
       tags: ['operations'],
       security: [],
-      response: { 200: liveSchema.describe('The process is up.') }
+      response: { 200: liveSchema.describe('The process is up.'), ...problemResponses(503) }
     }
   }, async () => ({ status: 'ok' as const }))
 
@@ -36,7 +36,7 @@ export const healthRoutes: FastifyPluginAsyncZod<HealthRoutesOptions> = async (a
       summary: 'Readiness: storage and queue connections answer',
       tags: ['operations'],
       security: [],
-      response: { 200: readySchema.describe('Ready to take requests.'), ...problemResponses(503) }
+      response: { 200: readySchema.describe('Ready to take requests.'), ...problemResponses() }
     }
   }, async (request, reply) => {
     let state: { ok: boolean, detail?: string }

@@ -31,10 +31,13 @@ export type FieldIssue = z.infer<typeof fieldIssueSchema>
 
 export const PROBLEM_MEDIA_TYPE = 'application/problem+json'
 
-/** OpenAPI response entries for the error statuses a route can answer with. */
+/** Statuses any route may answer with: an unexpected failure, or a request arriving during shutdown. */
+const ALWAYS_POSSIBLE = [500, 503]
+
+/** OpenAPI response entries for the error statuses a route can answer with (500 and 503 are always added). */
 export function problemResponses (...statuses: number[]): Record<number, { description: string, content: Record<string, { schema: typeof problemSchema }> }> {
   const entries: Record<number, { description: string, content: Record<string, { schema: typeof problemSchema }> }> = {}
-  for (const status of statuses) {
+  for (const status of [...new Set([...statuses, ...ALWAYS_POSSIBLE])].sort((a, b) => a - b)) {
     const codes = (Object.keys(ERRORS) as ErrorCode[]).filter((code) => ERRORS[code].status === status)
     if (codes.length === 0) throw new Error(`no error code is registered for status ${status}`)
     entries[status] = {

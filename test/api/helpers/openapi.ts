@@ -1,0 +1,84 @@
+/**
+ * Validates real responses against the committed OpenAPI document (Ajv, JSON Schema
+ * 2020-12, which OpenAPI 3.1 uses): the operation is found by method and path template,
+ * the response by status code, the schema by media type.
+ */
+import { readFileSync } from 'node:fs'
+import { fileURLToPath } from 'node:url'
+import { Ajv2020 } from 'ajv/dist/2020.js'
+
+const DOCUMENT_ID = 'https://memsweep.invalid/openapi.json'
+
+export const openApiDocument = JSON.parse(readFileSync(fileURLToPath(new URL('../../../openapi/openapi.json', import.meta.url)), 'utf8')) as {
+  paths: Record<string, Record<string, { responses: Record<string, { content?: Record<string, { schema: unknown }> }> }>>
+  components: { schemas: Record<string, unknown> }
+}
+
+const ajv = new Ajv2020({ strict: false, allErrors: true })
+ajv.addSchema({ ...openApiDocument, $id: DOCUMENT_ID })
+
+const pointer = (segment: string): string => segment.replaceAll('~', '~0').replaceAll('/', '~1')
+
+/** The path template of a concrete URL path (`/v1/sweeps/abc/results` → `/v1/sweeps/{id}/results`). */
+export function templateOf (path: string): string | null {
+  const clean = path.split('?')[0] ?? ''
+  for (const template of Object.keys(openApiDocument.paths)) {
+    const pattern = new RegExp('^' + template.replace(/\{[^}]+\}/g, '[^/]+') + '$')
+    if (pattern.test(clean)) return template
+  }
+  return null
+}
+
+export interface CheckedResponse {
+  statusCode: number
+  headers: Record<string, string | string[] | number | undefined>
+  body: string
+}
+
+/**
+ * Throws unless the response is one the document declares, with a body matching its schema.
+ * Unknown routes must answer 404 problem+json (the not-found handler).
+ */
+export function assertMatchesDocument (method: string, url: string, response: CheckedResponse): void {
+  const template = templateOf(url)
+  const contentType = String(response.headers['content-type'] ?? '').split(';')[0]?.trim() ?? ''
+  if (template === null) {
+    if (response.statusCode !== 404 || contentType !== 'application/problem+json') {
+      throw new Error(`${method} ${url}: not in the document, and answered ${response.statusCode} ${contentType}`)
+    }
+    validate('#/components/schemas/Problem', JSON.parse(response.body), `${method} ${url}`)
+    return
+  }
+  const operation = openApiDocument.paths[template]?.[method.toLowerCase()]
+  if (operation === undefined) {
+    if (response.statusCode === 404 && contentType === 'application/problem+json') return
+    throw new Error(`${method} ${template}: no such operation, answered ${response.statusCode}`)
+  }
+  const declared = operation.responses[String(response.statusCode)]
+  if (declared === undefined) {
+    throw new Error(`${method} ${template}: status ${response.statusCode} is not declared (declared: ${Object.keys(operation.responses).join(', ')}); body ${response.body.slice(0, 300)}`)
+  }
+  if (declared.content === undefined) {
+    if (response.body !== '') throw new Error(`${method} ${template} ${response.statusCode}: declared without a body but sent one`)
+    return
+  }
+  if (declared.content[contentType] === undefined) {
+    throw new Error(`${method} ${template} ${response.statusCode}: content type '${contentType}' not declared (${Object.keys(declared.content).join(', ')})`)
+  }
+  const body: unknown = contentType.endsWith('json') ? JSON.parse(response.body) : response.body
+  const ref = `#/paths/${pointer(template)}/${method.toLowerCase()}/responses/${response.statusCode}/content/${pointer(contentType)}/schema`
+  validate(ref, body, `${method} ${template} ${response.statusCode}`)
+}
+
+function validate (ref: string, body: unknown, where: string): void {
+  const check = ajv.getSchema(`${DOCUMENT_ID}${ref}`)
+  if (check === undefined) throw new Error(`${where}: no schema at ${ref}`)
+  if (!check(body)) {
+    throw new Error(`${where}: body does not match the document: ${ajv.errorsText(check.errors)}\n${JSON.stringify(body).slice(0, 500)}`)
+  }
+}
+
+/** Throws unless `body` matches the named component schema. */
+export function assertComponent (name: string, body: unknown): void {
+  validate(`#/components/schemas/${name}`, body, `component ${name}`)
+}
