@@ -94,12 +94,27 @@ export function variedSchema (domain: NumericDomain, description: string) {
     count: z.int().min(1).max(MAX_AXIS_VALUES).optional().describe('Number of evenly spaced values from `from` to `to`, both included.'),
     scale: z.enum(['linear', 'log']).optional().describe('Spacing of a `count` axis. Default: linear. `log` spaces values evenly in log(value) and needs positive bounds.')
   }).superRefine((input, ctx) => {
+    // Bad bounds, steps or counts are already reported on their own fields.
+    if (!fieldsWellFormed(input, domain)) return
     const result = expandAxis(input, domain)
     if ('problem' in result) ctx.addIssue({ code: 'custom', message: result.problem })
   }).describe('An axis of values for this parameter; several axes in one spec form a grid (Cartesian product).')
   return z.union([value, axis], {
-    error: 'expected a number or an axis object ({ values } | { from, to, step } | { from, to, count, scale })'
+    error: (issue) => {
+      if (issue.input === undefined) return 'required'
+      if (typeof issue.input === 'number') return domainViolation(issue.input, domain) ?? undefined
+      return 'expected a number or an axis object ({ values } | { from, to, step } | { from, to, count, scale })'
+    }
   }).describe(description)
+}
+
+function fieldsWellFormed (input: AxisInput, domain: NumericDomain): boolean {
+  const inDomain = (x: number | undefined) => x === undefined || domainViolation(x, domain) === null
+  const { step, count } = input
+  return inDomain(input.from) && inDomain(input.to) &&
+    (step === undefined || (Number.isFinite(step) && step > 0)) &&
+    (count === undefined || (Number.isSafeInteger(count) && count >= 1 && count <= MAX_AXIS_VALUES)) &&
+    (input.values === undefined || (input.values.length >= 1 && input.values.length <= MAX_AXIS_VALUES && input.values.every(inDomain)))
 }
 
 /**

@@ -169,7 +169,7 @@ export const SweepSpecSchema = z.strictObject({
     .describe(`Spec format version. Default: ${SPEC_FORMAT_VERSION}.`),
   label: z.string().max(SPEC_CEILINGS.labelLength).nullable().default(null)
     .describe('Free text to recognise the sweep by; not part of the work, so not part of the spec hash. Default: null.'),
-  seed: z.int().min(0).max(Number.MAX_SAFE_INTEGER).default(SPEC_DEFAULTS.seed)
+  seed: z.int().min(0).default(SPEC_DEFAULTS.seed)
     .describe('Master seed; with the rest of the spec it fixes every random draw. Default: 1.'),
   neurons: varied('neurons', 'N, the number of neurons. Required unless the patterns are supplied (then it is their length).').optional(),
   patterns: varied('patterns', 'P, the number of stored patterns. Give exactly one of patterns and load (supplied patterns: at most one; default all rows).').optional(),

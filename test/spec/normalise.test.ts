@@ -93,6 +93,20 @@ describe('strictness', () => {
     expect(issue).toEqual({ path: 'load', message: expect.stringMatching(/number or an axis object/) })
   })
 
+  it('says "required" for a missing varied field and names a non-integer count', () => {
+    expect(issuesOf({ neurons: 100, patterns: 3, family: { kind: 'correlated' }, dilution: {} })).toEqual([
+      { path: 'family.parents', message: 'required' },
+      { path: 'family.parentOverlap', message: 'required' },
+      { path: 'dilution.keep', message: 'required' }
+    ])
+    expect(issuesOf({ neurons: 100.5, patterns: 3 })).toEqual([{ path: 'neurons', message: '100.5 is not an integer' }])
+  })
+
+  it('reports a bad axis bound once, on the bound itself', () => {
+    expect(issuesOf({ neurons: 100, load: { from: -1, to: 0.2, step: 0.1 } })).toEqual([{ path: 'load.from', message: expect.stringMatching(/>0/) }])
+    expect(paths({ neurons: 100, load: { from: 0.1, to: 0.2, step: 0 } })).toEqual(['load.step'])
+  })
+
   it('reports an unknown variant at its kind', () => {
     expect(issuesOf({ neurons: 100, patterns: 5, rule: { kind: 'oja' } })).toEqual([{ path: 'rule.kind', message: expect.stringMatching(/hebbian/) }])
   })
