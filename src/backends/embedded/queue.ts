@@ -77,6 +77,7 @@ export async function createEmbeddedQueue (options: EmbeddedQueueOptions): Promi
   const pool = new ChunkThreadPool({
     threads,
     entry: options.workerEntry ?? defaultChunkWorkerEntry(),
+    onIdleThreadError: error => logger?.error({ err: error }, 'an idle compute thread failed'),
     ...(options.resourceLimits ? { resourceLimits: options.resourceLimits } : {})
   })
   try {

@@ -32,7 +32,8 @@ const MIGRATIONS: readonly string[] = [
   CREATE INDEX sweeps_by_owner_status ON sweeps (owner, status, created_ms, seq);
   CREATE INDEX sweeps_reusable ON sweeps (owner, spec_hash, created_ms) WHERE status = 'succeeded';
 
-  -- One row per finished chunk; a retried chunk replaces its row (primary key), never adds.
+  -- One row per finished chunk of an active sweep; a retried chunk replaces its row (primary
+  -- key), never adds. Rows are dropped once the sweep ends: the result holds every trial.
   CREATE TABLE chunk_results (
     sweep_id    TEXT NOT NULL REFERENCES sweeps (id),
     chunk_index INTEGER NOT NULL,

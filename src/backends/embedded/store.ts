@@ -232,11 +232,15 @@ export class SweepStore {
     return { bodies: rows.map(row => row.body), computeMs }
   }
 
-  /** Stores the assembled result and marks the sweep succeeded, atomically. */
+  /**
+   * Stores the assembled result and marks the sweep succeeded, atomically. The chunk rows
+   * go: the result holds every trial record, in order.
+   */
   completeSweep (sweepId: string, body: Uint8Array, nowMs: number): boolean {
     return this.transaction(() => {
       if (this.#statements.markSucceeded.run(nowMs, sweepId).changes !== 1) return false
       this.#statements.insertResult.run(sweepId, CODEC_NAME, body, nowMs)
+      this.#statements.deleteChunks.run(sweepId)
       return true
     })
   }

@@ -13,6 +13,8 @@ export interface ThreadPoolOptions {
   threads: number
   entry: WorkerEntry
   resourceLimits?: ResourceLimits
+  /** Errors of an idle thread, which no task can receive (unhandled, they would end the process). */
+  onIdleThreadError: (error: unknown) => void
 }
 
 export class ChunkThreadPool {
@@ -32,6 +34,7 @@ export class ChunkThreadPool {
       concurrentTasksPerWorker: 1,
       ...(options.resourceLimits ? { resourceLimits: options.resourceLimits } : {})
     })
+    this.#pool.on('error', options.onIdleThreadError)
   }
 
   get busy (): number {
