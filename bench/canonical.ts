@@ -14,6 +14,10 @@ export interface WorkloadRun {
   simSeconds: number
   weightBytes: number
   representation: string
+  /** Fast path the network ran on ('js' for the plain path). */
+  fastPath: string
+  /** Bytes held by the network representation (patterns in both layouts, accumulators). */
+  representationBytes: number
 }
 
 export function workloadParams (neurons: number, patterns: number, flips: number, update: 'async-random' | 'sync'): PointParams {
@@ -42,11 +46,11 @@ export function runSharedNetworkWorkload (workload: string, p: PointParams, tria
   const records: TrialRecord[] = []
   for (let t = 0; t < trials; t++) records.push(runTrialOn(net, p, t, t % p.patterns, rng, scratch))
   const t2 = performance.now()
-  return { workload, neurons: p.neurons, patterns: p.patterns, trials: records, buildSeconds: (t1 - t0) / 1000, simSeconds: (t2 - t1) / 1000, weightBytes: 0, representation: net.representation }
+  return { workload, neurons: p.neurons, patterns: p.patterns, trials: records, buildSeconds: (t1 - t0) / 1000, simSeconds: (t2 - t1) / 1000, weightBytes: 0, representation: net.representation, fastPath: net.fastPath, representationBytes: net.bytes }
 }
 
 /** W2: a fresh pattern set for every trial, α ascending, all from one stream. */
-export function runCapacityWorkload (seed: number, trialsPerAlpha = 50): { alphas: number[], success: number[], meanOverlap: number[], meanSweeps: number[], totalSeconds: number, updates: number } {
+export function runCapacityWorkload (seed: number, trialsPerAlpha = 50): { alphas: number[], success: number[], meanOverlap: number[], meanSweeps: number[], totalSeconds: number, updates: number, fastPath: string } {
   const rng = Xoshiro256StarStar.fromSeed(BigInt(seed))
   const n = 500
   const alphas: number[] = []
@@ -54,6 +58,7 @@ export function runCapacityWorkload (seed: number, trialsPerAlpha = 50): { alpha
   const meanOverlap: number[] = []
   const meanSweeps: number[] = []
   let updates = 0
+  let fastPath = ''
   const t0 = performance.now()
   for (let k = 1; k <= 12; k++) {
     const p = workloadParams(n, 10 * k, 25, 'async-random')
@@ -61,13 +66,14 @@ export function runCapacityWorkload (seed: number, trialsPerAlpha = 50): { alpha
     let ok = 0; let sumM = 0; let sumS = 0
     for (let t = 0; t < trialsPerAlpha; t++) {
       const net = buildNetwork(p, rng)
+      fastPath = net.fastPath
       const r = runTrialOn(net, p, t, t % p.patterns, rng, scratch)
       if (r.overlap >= 0.95) ok++
       sumM += r.overlap; sumS += r.sweeps; updates += r.sweeps * n
     }
     alphas.push(p.patterns / n); success.push(ok / trialsPerAlpha); meanOverlap.push(sumM / trialsPerAlpha); meanSweeps.push(sumS / trialsPerAlpha)
   }
-  return { alphas, success, meanOverlap, meanSweeps, totalSeconds: (performance.now() - t0) / 1000, updates }
+  return { alphas, success, meanOverlap, meanSweeps, totalSeconds: (performance.now() - t0) / 1000, updates, fastPath }
 }
 
 export function summarize (records: readonly TrialRecord[]): { meanOverlap: number, sdOverlap: number, fracSuccess: number, meanSweeps: number, maxed: number, fixed: number, cycle2: number } {

@@ -350,6 +350,57 @@ function shuffle (): string {
     (i64.store offset=32 (local.get $state) (local.get $x)))`
 }
 
+/** One xoshiro256** step on locals $s0..$s3, leaving the output in $x (uses $t). */
+const XOSHIRO_NEXT = `
+      (local.set $x (i64.mul (i64.rotl (i64.mul (local.get $s1) (i64.const 5)) (i64.const 7)) (i64.const 9)))
+      (local.set $t (i64.shl (local.get $s1) (i64.const 17)))
+      (local.set $s2 (i64.xor (local.get $s2) (local.get $s0)))
+      (local.set $s3 (i64.xor (local.get $s3) (local.get $s1)))
+      (local.set $s1 (i64.xor (local.get $s1) (local.get $s2)))
+      (local.set $s0 (i64.xor (local.get $s0) (local.get $s3)))
+      (local.set $s2 (i64.xor (local.get $s2) (local.get $t)))
+      (local.set $s3 (i64.rotl (local.get $s3) (i64.const 45)))`
+
+/**
+ * Unbiased ±1 patterns, pattern-major: for each of `count` rows of n entries, one 64-bit
+ * draw per 64 entries, bit k → entry k (1 → +1, 0 → −1), each row starting a fresh draw.
+ * 16 bits become 16 bytes by a byte swizzle, a per-lane bit mask and a compare. A short last
+ * block still writes 64 bytes; the next row overwrites them and the caller leaves 64 bytes
+ * of slack after the last row.
+ */
+function unbiasedRows (): string {
+  const expand = (q: number): string => `
+        (local.set $v (v128.and (i8x16.swizzle (local.get $w) (v128.const i8x16 ${2 * q} ${2 * q} ${2 * q} ${2 * q} ${2 * q} ${2 * q} ${2 * q} ${2 * q} ${2 * q + 1} ${2 * q + 1} ${2 * q + 1} ${2 * q + 1} ${2 * q + 1} ${2 * q + 1} ${2 * q + 1} ${2 * q + 1})) (local.get $bits)))
+        (v128.store offset=${16 * q} (local.get $p) (i8x16.sub (v128.and (i8x16.eq (local.get $v) (local.get $bits)) (local.get $two)) (local.get $one)))`
+  return `
+  (func (export "unbiasedRows") (param $out i32) (param $n i32) (param $count i32) (param $state i32)
+    (local $s0 i64) (local $s1 i64) (local $s2 i64) (local $s3 i64) (local $t i64) (local $x i64)
+    (local $row i32) (local $p i32) (local $e i32) (local $w v128) (local $v v128) (local $bits v128) (local $two v128) (local $one v128)
+    (if (i32.eqz (i32.mul (local.get $n) (local.get $count))) (then (return)))
+    (local.set $bits (v128.const i8x16 1 2 4 8 16 32 64 128 1 2 4 8 16 32 64 128))
+    (local.set $two (i8x16.splat (i32.const 2)))
+    (local.set $one (i8x16.splat (i32.const 1)))
+    (local.set $s0 (i64.load (local.get $state)))
+    (local.set $s1 (i64.load offset=8 (local.get $state)))
+    (local.set $s2 (i64.load offset=16 (local.get $state)))
+    (local.set $s3 (i64.load offset=24 (local.get $state)))
+    (local.set $row (i32.const 0))
+    (loop $rows
+      (local.set $p (i32.add (local.get $out) (i32.mul (local.get $row) (local.get $n))))
+      (local.set $e (i32.add (local.get $p) (local.get $n)))
+      (loop $words
+        ${XOSHIRO_NEXT}
+        (local.set $w (i64x2.splat (local.get $x)))
+        ${[0, 1, 2, 3].map(expand).join('')}
+        (br_if $words (i32.lt_u (local.tee $p (i32.add (local.get $p) (i32.const 64))) (local.get $e))))
+      (br_if $rows (i32.lt_u (local.tee $row (i32.add (local.get $row) (i32.const 1))) (local.get $count))))
+    (i64.store (local.get $state) (local.get $s0))
+    (i64.store offset=8 (local.get $state) (local.get $s1))
+    (i64.store offset=16 (local.get $state) (local.get $s2))
+    (i64.store offset=24 (local.get $state) (local.get $s3))
+    (i64.store offset=32 (local.get $state) (local.get $x)))`
+}
+
 export const OVERLAP_KERNEL_WAT = `(module
   (import "host" "exp" (func $exp (param f64) (result f64)))
   (memory (export "memory") 1)
@@ -357,6 +408,7 @@ ${variant(16)}
 ${variant(32)}
 ${transpose()}
 ${shuffle()}
+${unbiasedRows()}
 )
 `
 

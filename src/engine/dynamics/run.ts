@@ -3,7 +3,7 @@ import type { Ending } from '../results.js'
 import type { RandomSource } from '../random/source.js'
 import type { Network, SyncOutcome } from '../network/network.js'
 import { resetIdentity, type Scratch } from './scratch.js'
-import { nativeShuffle } from '../kernels/native-shuffle.js'
+import { nativeShuffle } from '../kernels/native-random.js'
 
 export interface DynamicsOutcome {
   sweeps: number

@@ -1,5 +1,6 @@
 import type { PointParams } from '../params.js'
 import type { RandomSource } from '../random/source.js'
+import { nativeUnbiasedRows } from '../kernels/native-random.js'
 
 /**
  * Draws the P stored patterns of one network as ±1 entries, pattern-major:
@@ -17,6 +18,7 @@ export function generatePatterns (p: PointParams, rng: RandomSource): Int8Array 
   const out = new Int8Array(count * n)
   switch (family.kind) {
     case 'random':
+      if (family.activity === 0.5 && nativeUnbiasedRows(out, 0, n, count, rng)) return out
       for (let mu = 0; mu < count; mu++) {
         if (family.activity === 0.5) fillUnbiased(out, mu * n, n, rng)
         else fillBiased(out, mu * n, n, family.activity, rng)
@@ -56,11 +58,11 @@ export function fillUnbiased (out: Int8Array, offset: number, n: number, rng: Ra
     rng.next64()
     const lo = word[0]!
     const hi = word[1]!
-    const end = Math.min(64, n - i0)
-    for (let k = 0; k < end; k++) {
-      const bit = k < 32 ? (lo >>> k) & 1 : (hi >>> (k - 32)) & 1
-      out[offset + i0 + k] = bit === 1 ? 1 : -1
-    }
+    const base = offset + i0
+    const low = Math.min(32, n - i0)
+    for (let k = 0; k < low; k++) out[base + k] = (((lo >>> k) & 1) << 1) - 1
+    const high = Math.min(64, n - i0)
+    for (let k = 32; k < high; k++) out[base + k] = (((hi >>> (k - 32)) & 1) << 1) - 1
   }
 }
 

@@ -1,0 +1,205 @@
+import { median, type Run } from './measure.js'
+
+/** Everything the report needs besides the runs. */
+export interface Context {
+  date: string
+  cpu: string
+  cores: number
+  memoryGiB: number
+  node: string
+  v8: string
+  gcc: string
+  python: string
+  loadBefore: string
+  loadAfter: string
+  reps: Record<string, number>
+  notes: string[]
+  seconds: number
+}
+
+const WORKLOADS: Record<string, string> = {
+  W1: 'W1 recall (N=1000, P=100, 200 trials, async)',
+  W2: 'W2 capacity (N=500, 12 loads × 50 trials, new patterns every trial, async)',
+  W3: 'W3 big (N=4000, P=400, 20 trials, async)',
+  W4: 'W4 sync (N=1000, P=100, 200 trials, synchronous)'
+}
+
+/** The time a workload is judged by: the whole curve for W2, the dynamics (sim_s) otherwise. */
+export function timeOf (r: Run): number {
+  return r.workload === 'W2' ? (r.total_s as number) : (r.sim_s as number)
+}
+
+interface Group { key: string, impl: string, variant: string, runs: Run[], time: number }
+
+function groups (runs: Run[], workload: string): Group[] {
+  const map = new Map<string, Run[]>()
+  for (const r of runs) {
+    if (r.workload !== workload) continue
+    const key = `${r.label}|${r.variant}`
+    map.set(key, [...(map.get(key) ?? []), r])
+  }
+  return [...map.entries()].map(([key, rs]) => ({ key, impl: rs[0]!.label, variant: rs[0]!.variant, runs: rs, time: median(rs.map(timeOf)) }))
+}
+
+const ms = (s: number): string => s >= 1 ? `${s.toFixed(3)} s` : `${(s * 1000).toFixed(1)} ms`
+const rate = (x: number): string => x >= 1e6 ? `${(x / 1e6).toFixed(2)} M` : x >= 1e3 ? `${(x / 1e3).toFixed(1)} k` : x.toFixed(1)
+const mib = (kb: number): string => Number.isFinite(kb) ? `${(kb / 1024).toFixed(1)} MiB` : '-'
+const ratio = (x: number): string => Number.isFinite(x) ? `${x.toFixed(x >= 10 ? 1 : 2)}×` : '-'
+
+function find (gs: Group[], impl: string, variant: string): Group | undefined {
+  return gs.find((g) => g.impl === impl && g.variant === variant)
+}
+
+/** The incremental-field numpy peer (the sync one for W4) and, for W4, the batched one. */
+function numpyRef (gs: Group[], workload: string): { inc?: Group, batch?: Group } {
+  return workload === 'W4' ? { inc: find(gs, 'numpy', 'sync'), batch: find(gs, 'numpy', 'syncbatch') } : { inc: find(gs, 'numpy', 'inc') }
+}
+
+function bestC (gs: Group[]): Group | undefined {
+  return gs.filter((g) => g.impl === 'c').sort((a, b) => a.time - b.time)[0]
+}
+
+function workloadTable (runs: Run[], workload: string): string[] {
+  const gs = groups(runs, workload)
+  const { inc, batch } = numpyRef(gs, workload)
+  const c = bestC(gs)
+  const incName = workload === 'W4' ? 'numpy sync' : 'numpy inc'
+  const head = `| impl | variant / fast path | runs | median time | min..max | trials/s | neuron-updates/s | peak RSS (median) | × vs ${incName} |${batch !== undefined ? ' × vs numpy syncbatch |' : ''} time ÷ best C |`
+  const lines = [`### ${WORKLOADS[workload]}`, '', head, `|${'---|'.repeat(head.split('|').length - 2)}`]
+  for (const g of gs) {
+    const times = g.runs.map(timeOf)
+    const trials = workload === 'W2' ? 600 : (g.runs[0]!.trials as number)
+    const updates = g.runs[0]!.updates as number
+    const fast = typeof g.runs[0]!.fast_path === 'string' ? ` (${String(g.runs[0]!.fast_path)})` : ''
+    lines.push(`| ${g.impl} | ${g.variant}${fast} | ${g.runs.length} | ${ms(g.time)} | ${ms(Math.min(...times))}..${ms(Math.max(...times))} | ${rate(trials / g.time)} | ${rate(updates / g.time)} | ${mib(median(g.runs.map((r) => r.maxrss_kb)))} | ${inc ? ratio(inc.time / g.time) : '-'} |${batch !== undefined ? ` ${ratio(batch.time / g.time)} |` : ''} ${c ? ratio(g.time / c.time) : '-'} |`)
+  }
+  return [...lines, '']
+}
+
+function headline (runs: Run[]): string[] {
+  const lines = [
+    '| workload | memsweep (median) | numpy inc / sync | × numpy (target ≥ 10×) | numpy syncbatch | × batched (target ≥ 3×) | best C | ÷ best C (target ≤ 2×) | beats numpy inc |',
+    '|---|---|---|---|---|---|---|---|---|'
+  ]
+  for (const w of ['W1', 'W2', 'W3', 'W4']) {
+    const gs = groups(runs, w)
+    const ours = find(gs, 'memsweep', 'fast')
+    if (ours === undefined) continue
+    const { inc, batch } = numpyRef(gs, w)
+    const c = bestC(gs)
+    const vsInc = inc ? inc.time / ours.time : Number.NaN
+    const vsBatch = batch ? batch.time / ours.time : Number.NaN
+    const vsC = c ? ours.time / c.time : Number.NaN
+    const mark = (ok: boolean): string => ok ? 'met' : 'missed'
+    lines.push(`| ${w} | ${ms(ours.time)} | ${inc ? ms(inc.time) : 'not run'} | ${ratio(vsInc)}${inc && w !== 'W4' ? ` (${mark(vsInc >= 10)})` : w === 'W4' && inc ? ` (${mark(vsInc >= 10)})` : ''} | ${batch ? ms(batch.time) : '-'} | ${batch ? `${ratio(vsBatch)} (${mark(vsBatch >= 3)})` : '-'} | ${c ? `${ms(c.time)} (${c.variant})` : 'not run'} | ${c ? `${ratio(vsC)} (${mark(vsC <= 2)})` : '-'} | ${inc ? (vsInc > 1 ? 'yes' : 'NO') : '-'} |`)
+  }
+  return lines
+}
+
+const fmt = (x: unknown, digits: number): string => typeof x === 'number' ? x.toFixed(digits) : Array.isArray(x) ? x.map((v) => (v as number).toFixed(digits)).join(',') : String(x)
+
+/** Output fields compared with the C integer variants, at the precision the C peer prints. */
+const CHECKED: Record<string, Array<[string, number]>> = {
+  W1: [['mean_overlap', 6], ['sd_overlap', 6], ['frac_success', 6], ['mean_sweeps', 4], ['n_maxed', 0]],
+  W3: [['mean_overlap', 6], ['sd_overlap', 6], ['frac_success', 6], ['mean_sweeps', 4], ['n_maxed', 0]],
+  W4: [['mean_overlap', 6], ['sd_overlap', 6], ['frac_success', 6], ['mean_steps', 4], ['n_maxed', 0], ['n_fixed', 0], ['n_cycle2', 0]],
+  W2: [['success', 4], ['mean_overlap', 4], ['mean_sweeps', 3]]
+}
+
+function bitCheck (runs: Run[]): string[] {
+  const lines = ['| workload | memsweep path | compared with | fields | outputs | same across repeats |', '|---|---|---|---|---|---|']
+  for (const w of ['W1', 'W2', 'W3', 'W4']) {
+    const fields = CHECKED[w]!
+    const signature = (r: Run): string => fields.map(([f, d]) => `${f}=${fmt(r[f], d)}`).join('; ')
+    const refs = runs.filter((r) => r.workload === w && r.label === 'c' && r.variant !== 'f32')
+    for (const variant of ['fast', 'plain']) {
+      const ours = runs.filter((r) => r.workload === w && r.label === 'memsweep' && r.variant === variant)
+      if (ours.length === 0) continue
+      const sigs = new Set(ours.map(signature))
+      const consistent = sigs.size === 1 ? 'yes' : `NO (${sigs.size} different)`
+      const mine = signature(ours[0]!)
+      if (refs.length === 0) {
+        lines.push(`| ${w} | ${variant} | C not run | ${fields.map((f) => f[0]).join(', ')} | ${mine} | ${consistent} |`)
+        continue
+      }
+      const cVariants = [...new Set(refs.map((r) => r.variant))]
+      const verdict = cVariants.map((v) => {
+        const ref = refs.find((r) => r.variant === v)!
+        return `${signature(ref) === mine ? 'identical to' : 'DIFFERS from'} C ${v}`
+      }).join(', ')
+      lines.push(`| ${w} | ${variant} | ${cVariants.map((v) => `C ${v}`).join(', ')} | ${fields.map((f) => f[0]).join(', ')} | ${verdict}: ${mine} | ${consistent} |`)
+    }
+  }
+  return lines
+}
+
+export function renderReport (runs: Run[], extra: { scale: Run | null, baseline: Run[], ctx: Context }): string {
+  const { ctx, scale, baseline } = extra
+  const baselineKb = baseline.length > 0 ? median(baseline.map((r) => r.maxrss_kb)) : Number.NaN
+  const w3 = runs.filter((r) => r.workload === 'W3' && r.label === 'memsweep' && r.variant === 'fast')
+  const out: string[] = [
+    '# Benchmark results: memsweep against the numpy and C peers',
+    '',
+    '<!-- Generated by `npm run bench` (bench/run.ts). Do not edit by hand: re-run the benchmark. -->',
+    '',
+    `Generated ${ctx.date} in ${ctx.seconds.toFixed(0)} s. Workloads, timing rules and peers: \`../shared/bench/WORKLOADS.md\`.`,
+    'Every measurement is a fresh process running the workload once (JIT warm-up inside the timed region counts), single-threaded,',
+    'seed 1, repeated with the implementations interleaved; medians are reported. Time is the dynamics (`sim_s`) for W1, W3, W4 and the',
+    'whole curve including all pattern generation (`total_s`) for W2. Speed-ups are ratios of median times measured in this same run.',
+    '',
+    '## Machine and versions',
+    '',
+    `- CPU: ${ctx.cpu}, ${ctx.cores} cores; memory ${ctx.memoryGiB.toFixed(1)} GiB`,
+    `- Node ${ctx.node} (V8 ${ctx.v8}); ${ctx.gcc}; Python ${ctx.python}`,
+    `- Load average before / after: ${ctx.loadBefore} / ${ctx.loadAfter} (the run itself accounts for about 1)`,
+    `- Repeats: ${Object.entries(ctx.reps).map(([k, v]) => `${k}=${v}`).join(', ')}; numpy with its default BLAS threads`,
+    ...ctx.notes.map((n) => `- Note: ${n}`),
+    '',
+    '## Headline (single thread)',
+    '',
+    ...headline(runs),
+    '',
+    'Targets from the performance issue: at least 10× the incremental-field numpy peer (3× the batched numpy peer on W4) and within 2×',
+    'of the best C variant. `memsweep plain` is the engine with its fast paths switched off (the per-neuron JavaScript path), run on the',
+    'same stream for comparison.',
+    '',
+    '## Per workload',
+    '',
+    ...['W1', 'W2', 'W3', 'W4'].flatMap((w) => workloadTable(runs, w)),
+    '## Bit-for-bit cross-check against the C integer variants',
+    '',
+    'memsweep draws the canonical xoshiro256** stream of WORKLOADS.md §7 and decides on exact integer fields, so its outputs must equal',
+    'those of the C `i16` / `i16inc` / `ovl` variants printed in this run, field by field at the precision C prints.',
+    '',
+    ...bitCheck(runs),
+    '',
+    '## Memory',
+    '',
+    `- Node baseline (a process that loads the engine and runs nothing): ${mib(baselineKb)} peak RSS (median of ${baseline.length}).`
+  ]
+  if (w3.length > 0) {
+    const bytes = w3[0]!.representation_bytes as number
+    const peak = median(w3.map((r) => r.maxrss_kb))
+    out.push(`- W3: representation ${(bytes / 1e6).toFixed(2)} MB (int8 patterns pattern-major and neuron-major, overlaps, state; no coupling matrix); peak RSS ${mib(peak)}; peak − baseline ${mib(peak - baselineKb)}; peak ÷ (representation + baseline) = ${(peak * 1024 / (bytes + baselineKb * 1024)).toFixed(2)} (target ≤ 1.5).`)
+  }
+  out.push('', '## Scale: Hebbian N = 100,000 at load 0.05 (P = 5000), one recall trial', '')
+  if (scale === null) {
+    out.push('Not run (set SKIP_SCALE unset to run it).')
+  } else {
+    const sweeps = scale.sweeps as number
+    out.push(
+      `- Fast path ${String(scale.fast_path)}; 10 % of the bits flipped; asynchronous dynamics.`,
+      `- Build (patterns in both layouts): ${ms(scale.build_s as number)}; recall trial: ${ms(scale.sim_s as number)} for ${sweeps} sweeps, ${ms((scale.sim_s as number) / sweeps)} per sweep (including the initial overlaps); final overlap ${(scale.mean_overlap as number).toFixed(5)}.`,
+      `- Representation ${(Number(scale.representation_bytes) / 1e6).toFixed(0)} MB; peak RSS ${mib(scale.maxrss_kb)}; process wall time ${(scale.proc_wall_s).toFixed(1)} s.`
+    )
+  }
+  out.push(
+    '',
+    '## Multi-core scaling',
+    '',
+    'Not measured yet. The hook: the W2 curve\'s wall time from 1 to 2 cores with the embedded backend and with 2 Redis workers belongs',
+    'here; whoever owns those backends adds the measurement to bench/run.ts (a `scaling` step) so it lands in this file.',
+    ''
+  )
+  return out.join('\n')
+}

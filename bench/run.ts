@@ -1,0 +1,91 @@
+/**
+ * `npm run bench`: times the standard workloads W1–W4 on the engine (fresh processes, medians),
+ * runs the numpy and C peers from a temporary copy of ../shared/bench in the same invocation
+ * when their toolchains exist, adds the N = 100,000 scale run and the memory report, and
+ * writes bench/RESULTS.md.
+ *
+ * Environment: ENGINE_REPS (5), PLAIN_REPS (3), C_REPS (5), NP_REPS (3), PEERS_DIR
+ * (../shared/bench), SKIP_PEERS, SKIP_PLAIN, SKIP_SCALE, RESULTS (bench/RESULTS.md).
+ */
+import { cpus, freemem, loadavg, totalmem } from 'node:os'
+import { readFileSync, rmSync, writeFileSync } from 'node:fs'
+import { dirname, join, resolve } from 'node:path'
+import { fileURLToPath } from 'node:url'
+import { measure, median, type Run } from './measure.js'
+import { preparePeers } from './peers.js'
+import { renderReport, timeOf, type Context } from './report.js'
+
+const here = dirname(fileURLToPath(import.meta.url))
+const root = resolve(here, '..')
+const env = process.env
+const reps = {
+  ENGINE_REPS: Number(env.ENGINE_REPS ?? 5),
+  PLAIN_REPS: env.SKIP_PLAIN ? 0 : Number(env.PLAIN_REPS ?? 3),
+  C_REPS: env.SKIP_PEERS ? 0 : Number(env.C_REPS ?? 5),
+  NP_REPS: env.SKIP_PEERS ? 0 : Number(env.NP_REPS ?? 3)
+}
+const started = Date.now()
+const loadBefore = loadavg().map((x) => x.toFixed(2)).join(' ')
+const peers = env.SKIP_PEERS ? null : preparePeers(resolve(env.PEERS_DIR ?? join(root, '..', 'shared', 'bench')))
+const notes = peers?.notes ?? ['peers skipped (SKIP_PEERS set)']
+const engine = (workload: string, path: string): string[] => [process.execPath, '--import', 'tsx', join(here, 'workload.ts'), workload, path, '1']
+
+interface Job { label: string, reps: number, workload: string, command: string[], cwd?: string }
+const jobs: Job[] = []
+for (const w of ['W1', 'W2', 'W3', 'W4']) {
+  jobs.push({ label: 'memsweep', reps: reps.ENGINE_REPS, workload: w, command: engine(w, 'fast') })
+  jobs.push({ label: 'memsweep', reps: reps.PLAIN_REPS, workload: w, command: engine(w, 'plain') })
+  if (peers?.cBinary) {
+    jobs.push({ label: 'c', reps: reps.C_REPS, workload: w, command: [peers.cBinary, w, 'ovl', '1'] })
+    jobs.push({ label: 'c', reps: reps.C_REPS, workload: w, command: [peers.cBinary, w, w === 'W4' ? 'i16' : 'i16inc', '1'] })
+  }
+  if (peers?.numpy && peers.dir !== null) {
+    for (const v of w === 'W4' ? ['sync', 'syncbatch'] : ['inc']) {
+      jobs.push({ label: 'numpy', reps: reps.NP_REPS, workload: w, command: ['python3', 'peer_numpy.py', w, v, '--seed', '1'], cwd: peers.dir })
+    }
+  }
+}
+
+const runs: Run[] = []
+const rounds = Math.max(...jobs.map((j) => j.reps))
+for (let round = 1; round <= rounds; round++) {
+  process.stderr.write(`[bench] round ${round}/${rounds}, ${((Date.now() - started) / 1000).toFixed(0)} s elapsed\n`)
+  for (const job of jobs) {
+    if (round > job.reps) continue
+    const run = measure(job.label, job.command, job.cwd !== undefined ? { cwd: job.cwd } : {})
+    runs.push(run)
+    process.stderr.write(`  ${job.label} ${job.workload} ${run.variant}: ${(timeOf(run) * 1000).toFixed(1)} ms, ${(run.maxrss_kb / 1024).toFixed(0)} MiB\n`)
+  }
+}
+
+const baseline = [1, 2, 3].map(() => measure('memsweep', engine('BASELINE', 'fast')))
+let scale: Run | null = null
+if (!env.SKIP_SCALE) {
+  process.stderr.write('[bench] scale run: N = 100000, P = 5000\n')
+  scale = measure('memsweep', engine('SCALE', 'fast'))
+}
+if (peers?.dir) rmSync(dirname(peers.dir), { recursive: true, force: true })
+
+const cpuLine = readFileSync('/proc/cpuinfo', 'utf8').split('\n').find((l) => l.startsWith('model name'))?.split(':')[1]?.trim() ?? cpus()[0]?.model ?? 'unknown'
+const ctx: Context = {
+  date: new Date().toISOString(),
+  cpu: cpuLine,
+  cores: cpus().length,
+  memoryGiB: totalmem() / 2 ** 30,
+  node: process.version,
+  v8: process.versions.v8,
+  gcc: peers?.gcc ?? 'gcc not probed',
+  python: peers?.python ?? 'not probed',
+  loadBefore,
+  loadAfter: loadavg().map((x) => x.toFixed(2)).join(' '),
+  reps,
+  notes: [...notes, `free memory at the end ${(freemem() / 2 ** 30).toFixed(1)} GiB`],
+  seconds: (Date.now() - started) / 1000
+}
+const target = resolve(env.RESULTS ?? join(here, 'RESULTS.md'))
+writeFileSync(target, renderReport(runs, { scale, baseline, ctx }))
+process.stderr.write(`[bench] wrote ${target} in ${ctx.seconds.toFixed(0)} s\n`)
+for (const w of ['W1', 'W2', 'W3', 'W4']) {
+  const ours = runs.filter((r) => r.workload === w && r.label === 'memsweep' && r.variant === 'fast')
+  if (ours.length > 0) process.stdout.write(`${w}: memsweep ${(median(ours.map(timeOf)) * 1000).toFixed(1)} ms\n`)
+}

@@ -1,0 +1,91 @@
+/**
+ * One benchmark measurement in a fresh process: `node --import tsx bench/workload.ts <W1|W2|W3|W4|SCALE|BASELINE> <fast|plain> [seed]`.
+ * Prints one JSON line with the keys the shared peers print (WORKLOADS.md §8), so engine
+ * and peer runs land in the same tables. Timing is in-process with a monotonic clock;
+ * module loading is excluded, JIT warm-up inside the timed region counts.
+ */
+import { runCapacityWorkload, runSharedNetworkWorkload, summarize, workloadParams } from './canonical.js'
+import { setFastPathsEnabled } from '../src/engine/kernels/wasm.js'
+
+const [workload = 'W1', path = 'fast', seedArg = '1'] = process.argv.slice(2)
+const seed = Number(seedArg)
+if (path !== 'fast' && path !== 'plain') throw new Error(`path must be fast or plain, not ${path}`)
+setFastPathsEnabled(path === 'fast')
+const impl = 'memsweep'
+const variant = path
+const selfRssKb = (): number => process.resourceUsage().maxRSS
+
+function shared (name: string, neurons: number, patterns: number, flips: number, update: 'async-random' | 'sync', trials: number): Record<string, unknown> {
+  const run = runSharedNetworkWorkload(name, workloadParams(neurons, patterns, flips, update), trials, seed)
+  const s = summarize(run.trials)
+  const sweeps = run.trials.reduce((a, r) => a + r.sweeps, 0)
+  const updates = sweeps * neurons
+  return {
+    impl,
+    workload: name,
+    variant,
+    fast_path: run.fastPath,
+    representation: run.representation,
+    seed,
+    N: neurons,
+    P: patterns,
+    trials,
+    mean_overlap: s.meanOverlap,
+    sd_overlap: sdSample(run.trials.map((r) => r.overlap)),
+    frac_success: s.fracSuccess,
+    [update === 'sync' ? 'mean_steps' : 'mean_sweeps']: s.meanSweeps,
+    n_maxed: s.maxed,
+    ...(update === 'sync' ? { n_fixed: s.fixed, n_cycle2: s.cycle2 } : {}),
+    updates,
+    sweeps,
+    build_s: run.buildSeconds,
+    sim_s: run.simSeconds,
+    total_s: run.buildSeconds + run.simSeconds,
+    trials_per_s: trials / run.simSeconds,
+    updates_per_s: updates / run.simSeconds,
+    weight_bytes: 0,
+    representation_bytes: run.representationBytes,
+    self_maxrss_kb: selfRssKb()
+  }
+}
+
+/** Sample standard deviation (n − 1), as the peers print it. */
+function sdSample (xs: number[]): number {
+  const n = xs.length
+  if (n < 2) return 0
+  const mean = xs.reduce((a, b) => a + b, 0) / n
+  return Math.sqrt(xs.reduce((a, x) => a + (x - mean) * (x - mean), 0) / (n - 1))
+}
+
+let out: Record<string, unknown>
+switch (workload) {
+  case 'W1': out = shared('W1', 1000, 100, 100, 'async-random', 200); break
+  case 'W3': out = shared('W3', 4000, 400, 400, 'async-random', 20); break
+  case 'W4': out = shared('W4', 1000, 100, 100, 'sync', 200); break
+  case 'SCALE': out = shared('SCALE', 100_000, 5000, 10_000, 'async-random', 1); break
+  case 'W2': {
+    const r = runCapacityWorkload(seed)
+    out = {
+      impl,
+      workload: 'W2',
+      variant,
+      fast_path: r.fastPath,
+      seed,
+      N: 500,
+      trials_per_alpha: 50,
+      alpha: r.alphas,
+      success: r.success,
+      mean_overlap: r.meanOverlap,
+      mean_sweeps: r.meanSweeps,
+      updates: r.updates,
+      total_s: r.totalSeconds,
+      trials_per_s: 600 / r.totalSeconds,
+      updates_per_s: r.updates / r.totalSeconds,
+      self_maxrss_kb: selfRssKb()
+    }
+    break
+  }
+  case 'BASELINE': out = { impl, workload: 'BASELINE', variant, self_maxrss_kb: selfRssKb() }; break
+  default: throw new Error(`unknown workload ${workload}`)
+}
+console.log(JSON.stringify(out))
