@@ -18,7 +18,7 @@ import { publishStop, publishSweepEvent } from '../backends/redis/events.js'
 import { CHUNK_QUEUE_NAME, keyLayout } from '../backends/redis/keys.js'
 import { checkRedisSettings } from '../backends/redis/settings.js'
 import { RedisSweepStore } from '../backends/redis/store.js'
-import type { SandboxSettings } from './processor.js'
+import type { ProcessorOutcome, SandboxSettings } from './processor.js'
 import { createStopBoardBuffer, StopBoardWriter } from './stop-board.js'
 
 export interface WorkerProcessOptions {
@@ -70,6 +70,16 @@ export interface WorkerProcessOptions {
    * @defaultValue true
    */
   requireNoEviction?: boolean
+  /** Told when this process starts and ends a job (for supervisors and tests). */
+  observer?: (activity: WorkerActivity) => void
+}
+
+export interface WorkerActivity {
+  /** `stopped`: the chunk was abandoned because its sweep was canceled or failed. */
+  type: 'started' | 'stored' | 'assembled' | 'stopped' | 'skipped' | 'failed'
+  jobId: string
+  sweepId: string
+  job: SweepJobName
 }
 
 export interface RunningWorker {
@@ -163,11 +173,28 @@ export async function startWorker (options: WorkerProcessOptions): Promise<Runni
     await chunkQueue.removePending(sweepId, chunksTotal)
   }
 
-  worker.on('active', (job) => { running.add(job.id ?? '', job.data.sweepId) })
-  worker.on('completed', (job) => { running.remove(job.id ?? '') })
+  const observe = (type: WorkerActivity['type'], job: Job<ChunkJobData | AssembleJobData, unknown, SweepJobName>): void => {
+    if (options.observer === undefined) return
+    try {
+      options.observer({ type, jobId: job.id ?? '', sweepId: job.data.sweepId, job: job.name })
+    } catch (err) {
+      logger.warn({ err }, 'worker observer threw')
+    }
+  }
+
+  worker.on('active', (job) => {
+    running.add(job.id ?? '', job.data.sweepId)
+    observe('started', job)
+  })
+  worker.on('completed', (job, result) => {
+    running.remove(job.id ?? '')
+    const outcome = (result as ProcessorOutcome | null)?.outcome
+    observe(outcome === 'stored' || outcome === 'assembled' || outcome === 'stopped' ? outcome : 'skipped', job)
+  })
   worker.on('failed', (job, error) => {
     if (job === undefined) return
     running.remove(job.id ?? '')
+    observe('failed', job)
     if (error.name === 'WaitingError') return
     logger.warn({ jobId: job.id, sweepId: job.data.sweepId, attemptsMade: job.attemptsMade, err: error.message }, 'chunk attempt failed')
     if (job.finishedOn !== undefined && job.id !== undefined) failFromJob(job.id, error.message).catch((err: unknown) => logger.error({ err }, 'cannot record a failed sweep'))
@@ -275,4 +302,28 @@ async function enqueueForgotten (store: RedisSweepStore, chunkQueue: ChunkQueue,
 function firstWords (text: string): string {
   const line = text.split('\n', 1)[0] ?? ''
   return line.length > 200 ? `${line.slice(0, 199)}…` : line
+}
+
+/**
+ * Closes the worker on the first SIGTERM or SIGINT (running chunks finish within the grace
+ * period or go back to the queue); a second signal exits at once. Resolves once closed.
+ */
+export function closeOnSignals (worker: RunningWorker, logger: Logger): Promise<void> {
+  return new Promise((resolve, reject) => {
+    let received = 0
+    const onSignal = (signal: NodeJS.Signals): void => {
+      received++
+      if (received > 1) {
+        logger.warn({ signal }, 'second signal: exiting without waiting for running chunks (they return to the queue when their locks expire)')
+        process.exit(1)
+      }
+      logger.info({ signal }, 'shutting down: no new chunks; running chunks finish or are handed back')
+      worker.close().then(resolve, reject).finally(() => {
+        process.off('SIGTERM', onSignal)
+        process.off('SIGINT', onSignal)
+      })
+    }
+    process.on('SIGTERM', onSignal)
+    process.on('SIGINT', onSignal)
+  })
 }

@@ -1,0 +1,33 @@
+/**
+ * `npm run worker`: one worker process of the Redis backend, configured from the
+ * environment (REDIS_URL, REDIS_PREFIX, WORKER_THREADS for the concurrency, LOG_LEVEL).
+ * Start as many as you like, on any machines that reach the same Redis.
+ */
+import { pathToFileURL } from 'node:url'
+import { loadConfig } from '../config.js'
+import { createLogger } from '../logger.js'
+import { closeOnSignals, startWorker } from './main.js'
+
+export async function runWorkerFromEnvironment (env: Record<string, string | undefined>): Promise<void> {
+  const config = loadConfig(env)
+  const logger = createLogger({ level: config.logLevel, name: 'worker' })
+  if (config.redisUrl === null) {
+    throw new Error('REDIS_URL is not set: workers serve the Redis backend (the embedded backend runs its own threads inside the API).')
+  }
+  // Never trap a crash: log it and let the supervisor restart the process; its chunks return to the queue.
+  const fatal = (err: unknown): void => {
+    logger.fatal({ err }, 'worker crashed')
+    process.exit(1)
+  }
+  process.on('uncaughtException', fatal)
+  process.on('unhandledRejection', fatal)
+  const worker = await startWorker({ url: config.redisUrl, prefix: config.redisPrefix, concurrency: config.workerThreads, logger })
+  await closeOnSignals(worker, logger)
+}
+
+if (process.argv[1] !== undefined && import.meta.url === pathToFileURL(process.argv[1]).href) {
+  runWorkerFromEnvironment(process.env).then(() => process.exit(0), (error: unknown) => {
+    console.error(error instanceof Error ? error.message : error)
+    process.exit(1)
+  })
+}

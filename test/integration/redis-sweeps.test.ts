@@ -1,0 +1,160 @@
+/**
+ * The Redis backend against a real Redis: a sweep's life through the queue port, listing,
+ * idempotency and reuse, and API instances that come and go while workers compute.
+ */
+import { afterEach, beforeEach, describe, expect, it } from 'vitest'
+import { Redis } from 'ioredis'
+import { IdempotencyConflictError, type SweepQueue, type SweepRecord } from '../../src/backends/port.js'
+import { createRedisQueue } from '../../src/backends/redis/index.js'
+import { keyLayout } from '../../src/backends/redis/keys.js'
+import { startWorker, type RunningWorker } from '../../src/worker/main.js'
+import {
+  computeInProcess, corridorSpec, quietLogger, REDIS_URL, redisAvailable, removePrefix, resultBytes, roomCodesSpec,
+  testPrefix, waitForRecord, waitForTerminal
+} from './helpers.js'
+
+const available = await redisAvailable()
+
+describe.runIf(available)('Redis backend: sweeps through the queue port', () => {
+  const logger = quietLogger()
+  let prefix: string
+  let queue: SweepQueue
+  const closers: Array<() => Promise<void>> = []
+
+  const worker = async (concurrency = 2): Promise<RunningWorker> => {
+    const started = await startWorker({ url: REDIS_URL, prefix, logger, concurrency })
+    closers.push(() => started.close())
+    return started
+  }
+
+  beforeEach(async () => {
+    prefix = testPrefix()
+    queue = await createRedisQueue({ url: REDIS_URL, prefix, logger })
+    closers.push(() => queue.close())
+  })
+
+  afterEach(async () => {
+    for (const close of closers.splice(0).reverse()) await close()
+    await removePrefix(prefix)
+  })
+
+  it('runs a submitted sweep to results bit-identical to an in-process run', async () => {
+    const spec = corridorSpec()
+    const submitted = await queue.submit({ spec, owner: null })
+    expect(submitted).toMatchObject({ status: 'queued', owner: null, label: 'corridor recall', reusedFrom: null, error: null })
+    expect(submitted.progress).toMatchObject({ chunksDone: 0, trialsDone: 0, pointsTotal: 6, trialsTotal: 1200 })
+    expect(await queue.results(submitted.id)).toBeNull()
+
+    await worker()
+    const states: string[] = []
+    const unsubscribe = queue.subscribe(submitted.id, (event) => { if (event.type === 'state') states.push(event.sweep.status) })
+    const done = await waitForTerminal(queue, submitted.id)
+    unsubscribe()
+
+    expect(done.status).toBe('succeeded')
+    expect(done.error).toBeNull()
+    expect(states.at(-1)).toBe('succeeded')
+    // Every chunk counted once: the counters land exactly on the totals.
+    expect(done.progress).toEqual({ pointsDone: 6, pointsTotal: 6, trialsDone: 1200, trialsTotal: 1200, chunksDone: done.progress.chunksTotal, chunksTotal: done.progress.chunksTotal })
+    expect(Date.parse(done.startedAt ?? '')).toBeGreaterThanOrEqual(Date.parse(done.createdAt))
+    expect(Date.parse(done.finishedAt ?? '')).toBeGreaterThanOrEqual(Date.parse(done.startedAt ?? ''))
+    const result = await queue.results(submitted.id)
+    expect(result?.provenance.cpuSeconds).toBeGreaterThan(0)
+    expect(resultBytes(result!)).toBe(resultBytes(computeInProcess(spec)))
+
+    const stats = await queue.stats()
+    expect(stats).toMatchObject({ queued: 0, running: 0, succeeded: 1, failed: 0, canceled: 0, chunksWaiting: 0, chunksActive: 0 })
+    expect(await queue.ready()).toEqual({ ok: true })
+  })
+
+  it('keeps the sweep going when the API instance that submitted it is closed and another one opens', async () => {
+    const spec = corridorSpec({ seed: 11 })
+    const submitted = await queue.submit({ spec, owner: 'lab-a' })
+    await worker()
+    await waitForRecord(queue, submitted.id, record => record.progress.chunksDone >= 1)
+    await queue.close()
+
+    const second = await createRedisQueue({ url: REDIS_URL, prefix, logger })
+    closers.push(() => second.close())
+    const done = await waitForTerminal(second, submitted.id)
+    expect(done.status).toBe('succeeded')
+    expect(done.progress.chunksDone).toBe(done.progress.chunksTotal)
+    expect(resultBytes((await second.results(submitted.id))!)).toBe(resultBytes(computeInProcess(spec)))
+  })
+
+  it('lists sweeps newest first with an opaque cursor, filtered by owner and status', async () => {
+    const created: SweepRecord[] = []
+    for (let seed = 1; seed <= 5; seed++) {
+      created.push(await queue.submit({ spec: roomCodesSpec({ seed }), owner: seed % 2 === 0 ? 'lab-b' : 'lab-a' }))
+    }
+    await queue.cancel(created[0]!.id)
+
+    const firstPage = await queue.list({ owner: null, limit: 2 })
+    expect(firstPage.items.map(item => item.id)).toEqual([created[4]!.id, created[3]!.id])
+    expect(firstPage.nextCursor).toEqual(expect.any(String))
+    const secondPage = await queue.list({ owner: null, limit: 2, cursor: firstPage.nextCursor! })
+    expect(secondPage.items.map(item => item.id)).toEqual([created[2]!.id, created[1]!.id])
+    const lastPage = await queue.list({ owner: null, limit: 2, cursor: secondPage.nextCursor! })
+    expect(lastPage.items.map(item => item.id)).toEqual([created[0]!.id])
+    expect(lastPage.nextCursor).toBeNull()
+
+    const labA = await queue.list({ owner: 'lab-a', limit: 10 })
+    expect(labA.items.map(item => item.id)).toEqual([created[4]!.id, created[2]!.id, created[0]!.id])
+    const queuedOfA = await queue.list({ owner: 'lab-a', status: 'queued', limit: 10 })
+    expect(queuedOfA.items.map(item => item.id)).toEqual([created[4]!.id, created[2]!.id])
+    const canceled = await queue.list({ owner: null, status: 'canceled', limit: 10 })
+    expect(canceled.items.map(item => item.id)).toEqual([created[0]!.id])
+
+    await expect(queue.list({ owner: null, limit: 2, cursor: 'not-a-cursor' })).rejects.toMatchObject({ name: 'InvalidCursorError' })
+  })
+
+  it('drops index entries of sweeps whose retention expired', async () => {
+    const kept = await queue.submit({ spec: roomCodesSpec({ seed: 1 }), owner: null })
+    const expired = await queue.submit({ spec: roomCodesSpec({ seed: 2 }), owner: null })
+    const redis = new Redis(REDIS_URL)
+    try {
+      await redis.del(keyLayout(prefix).sweep(expired.id).record)
+      const page = await queue.list({ owner: null, limit: 10 })
+      expect(page.items.map(item => item.id)).toEqual([kept.id])
+      expect(await redis.zcard(keyLayout(prefix).index)).toBe(1)
+    } finally {
+      redis.disconnect()
+    }
+    expect(await queue.get(expired.id)).toBeNull()
+    expect(await queue.get('../../etc')).toBeNull()
+  })
+
+  it('answers a repeated Idempotency-Key with the same sweep and refuses it for another spec', async () => {
+    const spec = roomCodesSpec({ seed: 21 })
+    const first = await queue.submit({ spec, owner: 'lab-a', idempotencyKey: 'batch-7' })
+    const again = await queue.submit({ spec: JSON.parse(JSON.stringify(spec)), owner: 'lab-a', idempotencyKey: 'batch-7' })
+    expect(again.id).toBe(first.id)
+    await expect(queue.submit({ spec: roomCodesSpec({ seed: 22 }), owner: 'lab-a', idempotencyKey: 'batch-7' }))
+      .rejects.toBeInstanceOf(IdempotencyConflictError)
+    // Keys belong to their owner: another lab's identical key starts its own sweep.
+    const otherOwner = await queue.submit({ spec, owner: 'lab-b', idempotencyKey: 'batch-7' })
+    expect(otherOwner.id).not.toBe(first.id)
+
+    const listed = await queue.list({ owner: null, limit: 10 })
+    expect(listed.items).toHaveLength(2)
+    // The repeat enqueued nothing new: one job per chunk of each sweep.
+    expect((await queue.stats()).chunksWaiting).toBe(2 * first.progress.chunksTotal)
+  })
+
+  it('reuses the finished results of an identical spec of the same owner when asked', async () => {
+    const spec = roomCodesSpec({ seed: 31 })
+    const original = await queue.submit({ spec, owner: 'lab-a' })
+    await worker()
+    await waitForTerminal(queue, original.id)
+
+    const reused = await queue.submit({ spec, owner: 'lab-a', reuse: true })
+    expect(reused).toMatchObject({ status: 'succeeded', reusedFrom: original.id })
+    expect(reused.progress.trialsDone).toBe(reused.progress.trialsTotal)
+    expect(resultBytes((await queue.results(reused.id))!)).toBe(resultBytes((await queue.results(original.id))!))
+
+    const fresh = await queue.submit({ spec, owner: 'lab-a' })
+    expect(fresh).toMatchObject({ status: 'queued', reusedFrom: null })
+    const otherLab = await queue.submit({ spec, owner: 'lab-b', reuse: true })
+    expect(otherLab).toMatchObject({ status: 'queued', reusedFrom: null })
+  })
+})

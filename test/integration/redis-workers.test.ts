@@ -1,0 +1,116 @@
+/**
+ * Workers of the Redis backend: the result does not depend on how many workers computed
+ * it, and a failing chunk fails its sweep with the right kind (the user's spec, or the
+ * system), retrying only what a retry could fix.
+ */
+import { afterEach, beforeEach, describe, expect, it } from 'vitest'
+import { Queue, QueueEvents, type Job } from 'bullmq'
+import { Redis } from 'ioredis'
+import type { SweepQueue } from '../../src/backends/port.js'
+import { createRedisQueue } from '../../src/backends/redis/index.js'
+import { CHUNK_QUEUE_NAME, chunkJobId, keyLayout } from '../../src/backends/redis/keys.js'
+import { startWorker, type WorkerProcessOptions } from '../../src/worker/main.js'
+import { normaliseSpec } from '../../src/spec/index.js'
+import {
+  computeInProcess, corridorSpec, quietLogger, REDIS_URL, redisAvailable, removePrefix, resultBytes, roomCodesSpec,
+  testPrefix, waitForTerminal
+} from './helpers.js'
+
+const available = await redisAvailable()
+/** Quick retries: the backoff policy is BullMQ's; what matters here is that it is applied. */
+const FAST_RETRY = { attempts: 3, backoffMs: 50 }
+
+describe.runIf(available)('Redis backend: workers', () => {
+  const logger = quietLogger()
+  let prefix: string
+  const closers: Array<() => Promise<void>> = []
+
+  const openQueue = async (): Promise<SweepQueue> => {
+    const queue = await createRedisQueue({ url: REDIS_URL, prefix, logger, retry: FAST_RETRY })
+    closers.push(() => queue.close())
+    return queue
+  }
+  const startWorkers = async (count: number, options: Partial<WorkerProcessOptions> = {}): Promise<void> => {
+    for (let n = 0; n < count; n++) {
+      const worker = await startWorker({ url: REDIS_URL, prefix, logger, concurrency: 1, retry: FAST_RETRY, ...options })
+      closers.push(() => worker.close())
+    }
+  }
+  /** The chunk's BullMQ job once it has failed for good (the sweep is marked failed a moment before). */
+  const failedChunkJob = async (sweepId: string, index: number): Promise<Job> => {
+    const options = { connection: { url: REDIS_URL }, prefix: keyLayout(prefix).bullPrefix }
+    const bull = new Queue(CHUNK_QUEUE_NAME, options)
+    const events = new QueueEvents(CHUNK_QUEUE_NAME, options)
+    try {
+      await events.waitUntilReady()
+      const job = await bull.getJob(chunkJobId(sweepId, index))
+      if (job === undefined) throw new Error(`no job for chunk ${index}`)
+      await expect(job.waitUntilFinished(events)).rejects.toThrow()
+      return (await bull.getJob(chunkJobId(sweepId, index)))!
+    } finally {
+      await events.close()
+      await bull.close()
+    }
+  }
+
+  beforeEach(() => { prefix = testPrefix() })
+
+  afterEach(async () => {
+    for (const close of closers.splice(0).reverse()) await close()
+    await removePrefix(prefix)
+  })
+
+  it('gives byte-identical results with one worker and with two', async () => {
+    const spec = corridorSpec({ seed: 5 })
+    const queue = await openQueue()
+
+    await startWorkers(1)
+    const single = await queue.submit({ spec, owner: null })
+    expect((await waitForTerminal(queue, single.id)).status).toBe('succeeded')
+
+    await startWorkers(1)
+    const pair = await queue.submit({ spec, owner: null })
+    expect((await waitForTerminal(queue, pair.id)).status).toBe('succeeded')
+
+    const one = resultBytes((await queue.results(single.id))!)
+    expect(resultBytes((await queue.results(pair.id))!)).toBe(one)
+    expect(one).toBe(resultBytes(computeInProcess(spec)))
+  })
+
+  it('fails a sweep whose spec the engine refuses as a user error, without retrying', async () => {
+    const queue = await openQueue()
+    // Passes the schema-free queue port but not the engine: an overlap threshold outside [−1, 1].
+    const spec = { ...roomCodesSpec({ seed: 3 }), successThreshold: 5 }
+    const submitted = await queue.submit({ spec, owner: null })
+    await startWorkers(1)
+    const done = await waitForTerminal(queue, submitted.id)
+    expect(done.status).toBe('failed')
+    expect(done.error?.kind).toBe('user')
+    expect(done.error?.message).toMatch(/successThreshold/)
+    const job = await failedChunkJob(submitted.id, 0)
+    expect(job.attemptsMade).toBe(1)
+    // The sweep's other chunks never ran: they were removed or skipped once it failed.
+    expect(done.progress.chunksDone).toBe(0)
+    expect(await queue.stats()).toMatchObject({ failed: 1, running: 0, queued: 0 })
+  })
+
+  it('retries a system failure with backoff, then fails the sweep as the system\'s fault', async () => {
+    const queue = await openQueue()
+    const spec = normaliseSpec({ label: 'single room', neurons: 60, patterns: 3, trials: 4, seed: 1 })
+    const submitted = await queue.submit({ spec, owner: null })
+    // Storage corruption: the stored spec no longer matches the hash the sweep was submitted with.
+    const redis = new Redis(REDIS_URL)
+    try {
+      await redis.hset(keyLayout(prefix).sweep(submitted.id).record, 'spec', JSON.stringify({ ...spec, seed: 2 }))
+    } finally {
+      redis.disconnect()
+    }
+    await startWorkers(1)
+    const done = await waitForTerminal(queue, submitted.id)
+    expect(done.status).toBe('failed')
+    expect(done.error?.kind).toBe('system')
+    expect(done.error?.message).toMatch(/failed 3 times/)
+    const job = await failedChunkJob(submitted.id, 0)
+    expect(job.attemptsMade).toBe(3)
+  })
+})
