@@ -39,6 +39,7 @@ function xoshiroState (rng: RandomSource): Int32Array | null {
 
 const STATE_AT = 0
 const DATA_AT = 64
+const CHUNK_BYTES = 4 * 1024 * 1024
 
 /** Kernel with at least `bytes` of data room, the generator's state copied in (little-endian words). */
 function enter (s: Int32Array, bytes: number): RandomExports | null {
@@ -89,10 +90,16 @@ export function nativeUnbiasedRows (out: Int8Array, offset: number, n: number, c
   const s = xoshiroState(rng)
   if (s === null) return false
   if (n * count === 0) return true
-  const k = enter(s, n * count + 64)
+  // Bounded chunks, so a big network does not leave a pattern-sized workspace behind.
+  const rows = Math.max(1, Math.min(count, Math.floor(CHUNK_BYTES / n)))
+  const k = enter(s, n * rows + 64)
   if (k === null) return false
-  k.unbiasedRows(DATA_AT, n, count, STATE_AT)
-  out.set(new Int8Array(k.memory.buffer, DATA_AT, n * count), offset)
+  for (let row = 0; row < count; row += rows) {
+    const take = Math.min(rows, count - row)
+    k.unbiasedRows(DATA_AT, n, take, STATE_AT)
+    out.set(new Int8Array(k.memory.buffer, DATA_AT, n * take), offset + row * n)
+    // The kernel stored the state where the next chunk reads it.
+  }
   leave(k, s, rng)
   return true
 }

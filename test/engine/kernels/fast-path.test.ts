@@ -1,0 +1,107 @@
+import { afterEach, describe, expect, it } from 'vitest'
+import { buildNetwork, createPointRunner, createScratch, runTrialOn, SeedrandomSource, Xoshiro256StarStar, type PointParams, type TrialRecord } from '../../../src/engine/index.js'
+import { setFastPathsEnabled } from '../../../src/engine/kernels/wasm.js'
+
+// The fast paths must reproduce the plain per-neuron path bit for bit on the same stream:
+// every test runs the same trials twice, fast paths off and on, and compares whole records.
+
+function params (overrides: Partial<PointParams> & { dynamics?: Partial<PointParams['dynamics']> } = {}): PointParams {
+  const base: PointParams = {
+    neurons: 300,
+    patterns: 30,
+    coding: 'pm1',
+    family: { kind: 'random', activity: 0.5 },
+    rule: { kind: 'hebbian', selfCoupling: false },
+    dilution: null,
+    cue: { kind: 'flip', fraction: 0.15 },
+    dynamics: { update: 'async-random', temperature: 0, maxSweeps: 30, burnIn: 0 },
+    measures: { overlapTrajectory: true, energyTrajectory: true, stability: false },
+    successThreshold: 0.95,
+    trialsPerNetwork: 3
+  }
+  return { ...base, ...overrides, dynamics: { ...base.dynamics, ...overrides.dynamics } }
+}
+
+function trials (p: PointParams, fast: boolean, count: number, seed = 7): { records: TrialRecord[], fastPath: string } {
+  setFastPathsEnabled(fast)
+  const runner = createPointRunner(p, seed, 2)
+  const records: TrialRecord[] = []
+  for (let t = 0; t < count; t++) records.push(runner.runTrial(t))
+  const fastPath = buildNetwork(p, Xoshiro256StarStar.fromSeed(1n)).fastPath
+  return { records, fastPath }
+}
+
+function expectSame (p: PointParams, count = 6, expectedPath = 'wasm-simd128-overlap-i16'): TrialRecord[] {
+  const plain = trials(p, false, count)
+  const fast = trials(p, true, count)
+  expect(plain.fastPath).toBe('js')
+  expect(fast.fastPath).toBe(expectedPath)
+  expect(fast.records).toStrictEqual(plain.records)
+  return fast.records
+}
+
+afterEach(() => setFastPathsEnabled(true))
+
+describe('overlap-space fast path is bit-identical to the plain path', () => {
+  it('asynchronous zero-temperature recall near capacity (W1-like), with trajectories', () => {
+    const records = expectSame(params({ patterns: 40 }))
+    // Near α = 0.13 some trials must fail or wander, so the comparison covers real dynamics.
+    expect(new Set(records.map((r) => r.sweeps)).size).toBeGreaterThan(1)
+  })
+
+  it('synchronous zero-temperature dynamics with fixed points and 2-cycles', () => {
+    const records = expectSame(params({ patterns: 45, cue: { kind: 'random' }, dynamics: { update: 'sync', maxSweeps: 40 } }), 8)
+    // Random starts at α = 0.15 end in both kinds of attractor, so both kernel exits are compared.
+    expect(new Set(records.map((r) => r.ending))).toStrictEqual(new Set(['fixed', 'cycle2']))
+  })
+
+  it('Glauber dynamics, asynchronous and synchronous', () => {
+    expectSame(params({ dynamics: { temperature: 0.4, maxSweeps: 6, burnIn: 2 } }), 4)
+    expectSame(params({ dynamics: { update: 'sync', temperature: 0.7, maxSweeps: 6, burnIn: 2 } }), 4)
+  })
+
+  it('erased cues (zero and random fill), fixed sequential order', () => {
+    expectSame(params({ cue: { kind: 'erase', fraction: 0.4, fill: 'zero' } }))
+    expectSame(params({ cue: { kind: 'erase', fraction: 0.4, fill: 'random' }, dynamics: { update: 'async-sequential' } }))
+  })
+
+  it('self-coupling kept, mixture cues and the stability measure', () => {
+    expectSame(params({ rule: { kind: 'hebbian', selfCoupling: true }, cue: { kind: 'mixture', components: 3 }, measures: { overlapTrajectory: false, energyTrajectory: true, stability: true } }))
+  })
+
+  it('a pattern count that is not a multiple of 16 and a size that is not a multiple of 64', () => {
+    expectSame(params({ neurons: 203, patterns: 17 }))
+  })
+
+  it('int32 overlaps when N exceeds the int16 range', () => {
+    const p = params({ neurons: 33_000, patterns: 3, cue: { kind: 'flip', fraction: 0.3 }, dynamics: { maxSweeps: 3 }, measures: { overlapTrajectory: false, energyTrajectory: false, stability: false } })
+    expectSame(p, 2, 'wasm-simd128-overlap-i32')
+  })
+
+  it('networks sharing the kernel workspace do not disturb each other', () => {
+    const a = params({ neurons: 256, patterns: 20 })
+    const b = params({ neurons: 500, patterns: 50, dynamics: { update: 'sync' } })
+    setFastPathsEnabled(true)
+    const alone = [trials(a, true, 4).records, trials(b, true, 4).records]
+    const ra = createPointRunner(a, 7, 2)
+    const rb = createPointRunner(b, 7, 2)
+    const interleaved: TrialRecord[][] = [[], []]
+    for (let t = 0; t < 4; t++) {
+      interleaved[0]!.push(ra.runTrial(t))
+      interleaved[1]!.push(rb.runTrial(t))
+    }
+    expect(interleaved).toStrictEqual(alone)
+  })
+
+  it('an injected non-xoshiro source shuffles in JavaScript and still matches', () => {
+    const p = params()
+    const run = (fast: boolean): TrialRecord[] => {
+      setFastPathsEnabled(fast)
+      const rng = new SeedrandomSource('rooms', 'alea')
+      const net = buildNetwork(p, rng)
+      const scratch = createScratch(p.neurons, p.patterns)
+      return [0, 1, 2].map((t) => runTrialOn(net, p, t, t, rng, scratch))
+    }
+    expect(run(true)).toStrictEqual(run(false))
+  })
+})
