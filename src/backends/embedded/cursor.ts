@@ -3,18 +3,13 @@
  * of a page. Keyset positions neither skip nor repeat items when sweeps are added between
  * two page reads.
  */
+import { InvalidCursorError } from '../shared/invalid-cursor.js'
+
+export { InvalidCursorError }
 
 export interface ListPosition {
   createdMs: number
   seq: number
-}
-
-/** Raised for a cursor this backend did not issue (the API answers 400). */
-export class InvalidCursorError extends RangeError {
-  constructor (readonly cursor: string) {
-    super('invalid argument. cursor: not a cursor issued by this service.')
-    this.name = 'InvalidCursorError'
-  }
 }
 
 export function encodeCursor (position: ListPosition): string {
