@@ -56,7 +56,7 @@ describe('error codes', () => {
   it('agree between src/errors.ts, docs/errors.md and the OpenAPI Problem schema', () => {
     const rows = [...read('../../docs/errors.md').matchAll(/^\| `(MEMSWEEP_[A-Z_]+)` \| (\d{3}) \|/gm)].map((m) => [m[1], Number(m[2])])
     expect(rows).toEqual(ERROR_CODES.map((code) => [code, ERRORS[code].status]))
-    const problem = (openApiDocument.components.schemas.Problem as { properties: { code: { enum: string[] } } })
+    const problem = openApiDocument.components.schemas.Problem as { properties: { code: { enum: string[] } } }
     expect(problem.properties.code.enum).toEqual([...ERROR_CODES])
   })
 
