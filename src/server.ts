@@ -3,7 +3,7 @@
  * The embedded backend (SQLite + worker threads) is the default; REDIS_URL selects Redis.
  * This is the only module that listens on a port.
  */
-import { existsSync } from 'node:fs'
+import { realpathSync } from 'node:fs'
 import { pathToFileURL } from 'node:url'
 import closeWithGrace from 'close-with-grace'
 import type { FastifyInstance } from 'fastify'
@@ -15,18 +15,11 @@ import { createLogger, type Logger } from './logger.js'
 /** Seconds the shutdown may take before the process exits anyway (open streams, running chunks). */
 const SHUTDOWN_GRACE_MS = 10_000
 
-type RedisQueueFactory = (options: { url: string, prefix: string, logger: Logger }) => Promise<SweepQueue> | SweepQueue
-
 async function createQueue (config: Config, logger: Logger): Promise<SweepQueue> {
   if (config.redisUrl !== null) {
-    // Loaded only when asked for, so an embedded-only install never needs Redis client code.
-    const here = new URL(import.meta.url)
-    const candidates = ['./backends/redis/index.js', './backends/redis/index.ts'].map((p) => new URL(p, here))
-    const found = candidates.find((url) => existsSync(url))
-    if (found === undefined) throw new Error('REDIS_URL is set but this build has no Redis backend (src/backends/redis).')
-    const module = await import(found.href) as { createRedisQueue?: RedisQueueFactory }
-    if (typeof module.createRedisQueue !== 'function') throw new Error('The Redis backend module does not export createRedisQueue.')
-    return await module.createRedisQueue({ url: config.redisUrl, prefix: config.redisPrefix, logger })
+    // Loaded only when asked for: a single-machine server never loads the Redis client.
+    const { createRedisQueue } = await import('./backends/redis/index.js')
+    return await createRedisQueue({ url: config.redisUrl, prefix: config.redisPrefix, logger })
   }
   const { createEmbeddedQueue } = await import('./backends/embedded/index.js')
   return await createEmbeddedQueue({ dataDir: config.dataDir, threads: config.workerThreads, logger })
@@ -85,7 +78,8 @@ export async function main (env: Record<string, string | undefined> = process.en
   })
 }
 
-const invokedDirectly = process.argv[1] !== undefined && import.meta.url === pathToFileURL(process.argv[1]).href
+// Compared through realpath: an npm bin is a symlink to this file.
+const invokedDirectly = process.argv[1] !== undefined && import.meta.url === pathToFileURL(realpathSync(process.argv[1])).href
 if (invokedDirectly) {
   main().catch((error: unknown) => {
     console.error(error)

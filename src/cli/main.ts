@@ -1,0 +1,107 @@
+#!/usr/bin/env node
+/**
+ * The `memsweep` command: serve the API, run a Redis worker, run a sweep locally, or submit
+ * one to a server. Commands are functions of an injected CliIo, so tests drive them exactly
+ * as a terminal does.
+ */
+import { availableParallelism } from 'node:os'
+import { realpathSync } from 'node:fs'
+import { pathToFileURL } from 'node:url'
+import { Command, CommanderError, InvalidArgumentError } from 'commander'
+import { runLocal } from './commands/run-local.js'
+import { serve, worker } from './commands/services.js'
+import { submit } from './commands/submit.js'
+import { CliError, EXIT, say, type CliIo } from './io.js'
+
+const EPILOG = `
+Exit codes: 0 success; 1 the sweep failed or was canceled; 2 invalid input or a request the
+server refused; 3 the server could not be reached or failed.
+
+Environment: MEMSWEEP_SERVER and MEMSWEEP_TOKEN are defaults for submit's --server and --token;
+serve and worker read the variables listed in .env.example (PORT, DATA_DIR, REDIS_URL, ...).`
+
+function positiveInt (value: string): number {
+  const n = Number(value)
+  if (!Number.isInteger(n) || n < 1) throw new InvalidArgumentError('must be a positive integer')
+  return n
+}
+
+/** Parses argv and runs the command; returns the process exit code. */
+export async function runCli (argv: readonly string[], io: CliIo): Promise<number> {
+  let exitCode: number = EXIT.ok
+  const program = new Command()
+    .name('memsweep')
+    .description('Simulation sweeps of Hopfield-type associative-memory networks.')
+    .exitOverride()
+    .configureOutput({ writeOut: (s) => io.stdout.write(s), writeErr: (s) => io.stderr.write(s) })
+    .addHelpText('after', EPILOG)
+    .showHelpAfterError()
+
+  program.command('serve')
+    .description('start the HTTP API (embedded backend, or Redis when --redis-url / REDIS_URL is set)')
+    .option('--port <port>', 'port to listen on (PORT, default 8080)')
+    .option('--host <host>', 'address to bind (HOST, default 0.0.0.0)')
+    .option('--data-dir <dir>', 'where the embedded backend keeps sweeps and results (DATA_DIR, default ./data)')
+    .option('--threads <n>', 'compute threads of the embedded backend (WORKER_THREADS, default: cores)')
+    .option('--tokens-file <file>', 'bearer tokens, one owner:token[:role] per line (TOKENS_FILE)')
+    .option('--redis-url <url>', 'use the Redis backend (REDIS_URL)')
+    .action(async (options) => { await serve(io, options) })
+
+  program.command('worker')
+    .description('start a worker of the Redis backend (any number, on any machines sharing the Redis)')
+    .option('--redis-url <url>', 'the shared Redis (REDIS_URL)')
+    .option('--prefix <prefix>', 'key prefix shared with the API (REDIS_PREFIX, default memsweep)')
+    .option('--concurrency <n>', 'chunks run at once (WORKER_THREADS, default: cores)')
+    .action(async (options) => { await worker(io, options) })
+
+  program.command('run')
+    .description('run a sweep on this machine, no server, and write its results')
+    .argument('<spec>', 'sweep spec (JSON file)')
+    .requiredOption('-o, --output <file>', 'results file: .csv or .json')
+    .option('--format <format>', 'csv or json (default: from the file name)')
+    .option('--trials', 'one row per trial instead of one per grid point')
+    .option('--threads <n>', `compute threads (default: ${availableParallelism()}); 1 runs in this process`, positiveInt)
+    .action(async (spec: string, options) => {
+      exitCode = await runLocal(io, spec, { ...options, ...(io.signal === undefined ? {} : { signal: io.signal }) })
+    })
+
+  program.command('submit')
+    .description('submit a sweep to a server; with --wait, follow it and download the results')
+    .argument('<spec>', 'sweep spec (JSON file)')
+    .option('--server <url>', 'server URL (MEMSWEEP_SERVER)', io.env.MEMSWEEP_SERVER ?? 'http://127.0.0.1:8080')
+    .option('--token <token>', 'bearer token (MEMSWEEP_TOKEN)', io.env.MEMSWEEP_TOKEN)
+    .option('--wait', 'follow the sweep until it ends; exit non-zero unless it succeeded')
+    .option('--output <file>', 'download the results here (.csv or .json); implies --wait')
+    .option('--format <format>', 'csv or json (default: from the file name)')
+    .option('--trials', 'per-trial rows')
+    .option('--reuse', 'reuse the results of an identical finished sweep instead of running again')
+    .option('--idempotency-key <key>', 'makes retrying this submission safe')
+    .action(async (spec: string, options) => { exitCode = await submit(io, spec, options) })
+
+  try {
+    await program.parseAsync([...argv], { from: 'user' })
+    return exitCode
+  } catch (error) {
+    if (error instanceof CommanderError) {
+      return error.code === 'commander.helpDisplayed' || error.code === 'commander.version' || error.code === 'commander.help' ? EXIT.ok : EXIT.refused
+    }
+    if (error instanceof CliError) {
+      say(io, error.message)
+      return error.exitCode
+    }
+    say(io, `Unexpected error: ${error instanceof Error ? error.stack ?? error.message : String(error)}`)
+    return EXIT.unavailable
+  }
+}
+
+// Compared through realpath: an npm bin is a symlink to this file.
+const invokedDirectly = process.argv[1] !== undefined && import.meta.url === pathToFileURL(realpathSync(process.argv[1])).href
+if (invokedDirectly) {
+  const interrupt = new AbortController()
+  process.once('SIGINT', () => interrupt.abort())
+  runCli(process.argv.slice(2), { stdout: process.stdout, stderr: process.stderr, env: process.env, isTTY: process.stderr.isTTY, signal: interrupt.signal })
+    .then((code) => { process.exitCode = code }, (error: unknown) => {
+      console.error(error)
+      process.exitCode = EXIT.unavailable
+    })
+}

@@ -1,0 +1,79 @@
+/** `memsweep submit` against a real server (the app on the embedded backend, listening on a port). */
+import { mkdtemp, readFile, rm, writeFile } from 'node:fs/promises'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { createEmbeddedQueue } from '../../src/backends/embedded/index.js'
+import { createHarness, isTerminal, type Harness } from '../api/helpers/harness.js'
+import { slowSpec } from '../api/helpers/specs.js'
+import { cli } from './helpers.js'
+
+const TOKEN = 'alice-laptop-7f3a9c2e1b'
+const spec = { label: 'rooms of a museum', neurons: 100, load: { values: [0.05, 0.12] }, trials: 20, seed: 17 }
+
+let h: Harness
+let url = ''
+let dir = ''
+
+beforeAll(async () => {
+  dir = await mkdtemp(join(tmpdir(), 'memsweep-cli-submit-'))
+  await writeFile(join(dir, 'spec.json'), JSON.stringify(spec))
+  await writeFile(join(dir, 'slow.json'), JSON.stringify(slowSpec()))
+  await writeFile(join(dir, 'bad.json'), JSON.stringify({ neurons: 100, load: 0.1, dynamics: { update: 'teleport' } }))
+  h = await createHarness(async ({ dataDir }) => await createEmbeddedQueue({ dataDir, threads: 2 }), { tokens: [`alice:${TOKEN}`] })
+  url = await h.app.listen({ port: 0, host: '127.0.0.1' })
+})
+afterAll(async () => {
+  await h.close()
+  await rm(dir, { recursive: true, force: true })
+})
+
+describe('memsweep submit', () => {
+  it('submits, follows the sweep and downloads the CSV the server serves', async () => {
+    const res = await cli(['submit', join(dir, 'spec.json'), '--server', url, '--wait', '--output', join(dir, 'out.csv')], { env: { MEMSWEEP_TOKEN: TOKEN } })
+    expect(res.code, res.stderr).toBe(0)
+    const id = res.stdout.trim()
+    expect(id).toMatch(/^[0-9a-f-]{36}$/)
+    expect(res.stderr).toContain(`Sweep ${id} succeeded.`)
+    const served = await h.app.inject({ method: 'GET', url: `/v1/sweeps/${id}/results?format=csv`, headers: { authorization: `Bearer ${TOKEN}` } })
+    expect(await readFile(join(dir, 'out.csv'), 'utf8')).toBe(served.body)
+  })
+
+  it('without --wait prints the id and returns at once', async () => {
+    const res = await cli(['submit', join(dir, 'spec.json'), '--server', url, '--token', TOKEN])
+    expect(res.code).toBe(0)
+    const record = await h.queue.get(res.stdout.trim())
+    expect(record?.owner).toBe('alice')
+    await h.waitFor(record!.id, isTerminal)
+  })
+
+  it('exits 1 when the sweep is canceled while it waits', async () => {
+    const waiting = cli(['submit', join(dir, 'slow.json'), '--server', url, '--token', TOKEN, '--wait'])
+    let id: string | undefined
+    while (id === undefined) {
+      id = (await h.queue.list({ owner: 'alice', status: 'running', limit: 1 })).items[0]?.id
+      if (id === undefined) await new Promise((resolve) => setTimeout(resolve, 50))
+    }
+    await h.waitFor(id, (r) => r.progress.trialsDone > 0)
+    await h.app.inject({ method: 'DELETE', url: `/v1/sweeps/${id}`, headers: { authorization: `Bearer ${TOKEN}` } })
+    const res = await waiting
+    expect(res.code).toBe(1)
+    expect(res.stderr).toContain('was canceled')
+  })
+
+  it('exits 2 with the server\'s reasons for a refused spec or a missing token', async () => {
+    const bad = await cli(['submit', join(dir, 'bad.json'), '--server', url, '--token', TOKEN, '--wait'])
+    expect(bad.code).toBe(2)
+    expect(bad.stderr).toContain('422 MEMSWEEP_SPEC_INVALID')
+    expect(bad.stderr).toMatch(/dynamics\.update: /)
+    const anonymous = await cli(['submit', join(dir, 'spec.json'), '--server', url])
+    expect(anonymous.code).toBe(2)
+    expect(anonymous.stderr).toContain('401 MEMSWEEP_UNAUTHENTICATED')
+  })
+
+  it('exits 3 when the server cannot be reached', async () => {
+    const res = await cli(['submit', join(dir, 'spec.json'), '--server', 'http://127.0.0.1:9'])
+    expect(res.code).toBe(3)
+    expect(res.stderr).toContain('Cannot reach http://127.0.0.1:9')
+  })
+})
