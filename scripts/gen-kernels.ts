@@ -401,6 +401,135 @@ function unbiasedRows (): string {
     (i64.store offset=32 (local.get $state) (local.get $x)))`
 }
 
+/**
+ * Dense float64 kernels: h[0..n) += c·col[0..n) two lanes at a time (f64x2), with a scalar
+ * tail for odd n. Each element sees exactly the scalar operations h + (col·c), in the same
+ * order, so the results equal the plain loops bit for bit (no fused multiply-add in wasm).
+ * Uses locals $hp $cp $he $cv.
+ */
+function axpy (col: string, coef: string): string {
+  return `
+    (local.set $hp (local.get $h))
+    (local.set $cp ${col})
+    (local.set $he (i32.add (local.get $h) (i32.shl (i32.and (local.get $n) (i32.const -2)) (i32.const 3))))
+    (local.set $cv (f64x2.splat ${coef}))
+    (if (i32.lt_u (local.get $hp) (local.get $he))
+      (then
+        (loop $axpy
+          (v128.store (local.get $hp) (f64x2.add (v128.load (local.get $hp)) (f64x2.mul (v128.load (local.get $cp)) (local.get $cv))))
+          (local.set $cp (i32.add (local.get $cp) (i32.const 16)))
+          (br_if $axpy (i32.lt_u (local.tee $hp (i32.add (local.get $hp) (i32.const 16))) (local.get $he))))))
+    (if (i32.and (local.get $n) (i32.const 1))
+      (then (f64.store (local.get $hp) (f64.add (f64.load (local.get $hp)) (f64.mul (f64.load (local.get $cp)) ${coef})))))`
+}
+
+const DENSE_LOCALS = '(local $hp i32) (local $cp i32) (local $he i32) (local $cv v128) (local $k i32) (local $i i32) (local $si i32) (local $v i32) (local $f f64)'
+
+/** Column j of the n×n column-major coupling array starts at cols + 8·n·j. */
+const COLUMN = (j: string): string => `(i32.add (local.get $cols) (i32.mul (i32.shl (local.get $n) (i32.const 3)) ${j}))`
+
+function dense (): string {
+  // h = bias + Σ_j J_ij s_j, j ascending: the plain row loop's order for every element. With
+  // $rowwise the array is read as rows (a matrix declared symmetric that is not exactly so:
+  // the plain path builds fields from rows and updates them from the same array as columns);
+  // otherwise as exact columns, two rows at a time.
+  const reload = `
+    (if (local.get $rowwise)
+      (then
+        (local.set $i (i32.const 0))
+        (loop $row
+          (local.set $f (f64.load (i32.add (local.get $bias) (i32.shl (local.get $i) (i32.const 3)))))
+          (local.set $cp ${COLUMN('(local.get $i)')})
+          (local.set $k (i32.const 0))
+          (loop $el
+            (local.set $f (f64.add (local.get $f) (f64.mul (f64.load (i32.add (local.get $cp) (i32.shl (local.get $k) (i32.const 3)))) (f64.convert_i32_s (i32.load8_s (i32.add (local.get $s) (local.get $k)))))))
+            (br_if $el (i32.lt_u (local.tee $k (i32.add (local.get $k) (i32.const 1))) (local.get $n))))
+          (f64.store (i32.add (local.get $h) (i32.shl (local.get $i) (i32.const 3))) (local.get $f))
+          (br_if $row (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n)))))
+      (else
+        (memory.copy (local.get $h) (local.get $bias) (i32.shl (local.get $n) (i32.const 3)))
+        (local.set $k (i32.const 0))
+        (loop $col
+          ${axpy(COLUMN('(local.get $k)'), '(f64.convert_i32_s (i32.load8_s (i32.add (local.get $s) (local.get $k))))')}
+          (br_if $col (i32.lt_u (local.tee $k (i32.add (local.get $k) (i32.const 1))) (local.get $n))))))`
+  const change = `
+        (i32.store8 (i32.add (local.get $s) (local.get $i)) (local.get $v))
+        ${axpy(COLUMN('(local.get $i)'), '(f64.convert_i32_s (i32.sub (local.get $v) (local.get $si)))')}`
+  const field = '(f64.load (i32.add (local.get $h) (i32.shl (local.get $i) (i32.const 3))))'
+  const glauberUp = (noiseIndex: string): string => `(select (i32.const 1) (i32.const -1)
+          (f64.lt
+            (f64.mul (f64.load (i32.add (local.get $noise) (i32.shl ${noiseIndex} (i32.const 3))))
+              (f64.add (f64.const 1) (call $exp (f64.mul (local.get $factor) ${field}))))
+            (f64.const 1)))`
+  return `
+  ;; Dense: h = bias + J s from scratch (cols[j·n + i] = J_ij).
+  (func (export "denseLoad") (param $cols i32) (param $bias i32) (param $s i32) (param $h i32) (param $n i32) (param $rowwise i32)
+    ${DENSE_LOCALS}
+    ${reload})
+
+  ;; Dense zero-temperature asynchronous sweep; returns 1 if any neuron changed.
+  (func (export "denseSweep") (param $cols i32) (param $s i32) (param $h i32) (param $order i32) (param $n i32) (result i32)
+    ${DENSE_LOCALS} (local $changed i32) (local $fh f64)
+    (local.set $k (i32.const 0))
+    (loop $visit
+      (local.set $i (i32.load (i32.add (local.get $order) (i32.shl (local.get $k) (i32.const 2)))))
+      (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+      (local.set $fh ${field})
+      (local.set $v (select (i32.const 1) (select (i32.const -1) (local.get $si) (f64.lt (local.get $fh) (f64.const 0))) (f64.gt (local.get $fh) (f64.const 0))))
+      (if (i32.ne (local.get $v) (local.get $si))
+        (then ${change}
+          (local.set $changed (i32.const 1))))
+      (br_if $visit (i32.lt_u (local.tee $k (i32.add (local.get $k) (i32.const 1))) (local.get $n))))
+    (local.get $changed))
+
+  ;; Dense asynchronous Glauber sweep, noise[k] the uniform of the k-th visit.
+  (func (export "denseGlauber") (param $cols i32) (param $s i32) (param $h i32) (param $order i32) (param $noise i32) (param $n i32) (param $factor f64)
+    ${DENSE_LOCALS}
+    (local.set $k (i32.const 0))
+    (loop $visit
+      (local.set $i (i32.load (i32.add (local.get $order) (i32.shl (local.get $k) (i32.const 2)))))
+      (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+      (local.set $v ${glauberUp('(local.get $k)')})
+      (if (i32.ne (local.get $v) (local.get $si)) (then ${change}))
+      (br_if $visit (i32.lt_u (local.tee $k (i32.add (local.get $k) (i32.const 1))) (local.get $n)))))
+
+  ;; Dense synchronous zero-temperature step (same contract as sync16), then h reloaded from scratch.
+  (func (export "denseSync") (param $cols i32) (param $bias i32) (param $s i32) (param $h i32) (param $next i32) (param $prev i32) (param $n i32) (param $check i32) (param $rowwise i32) (result i32)
+    ${DENSE_LOCALS} (local $same i32) (local $fh f64)
+    (local.set $same (i32.const 1))
+    (local.set $i (i32.const 0))
+    (loop $visit
+      (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+      (local.set $fh ${field})
+      (local.set $v (select (i32.const 1) (select (i32.const -1) (local.get $si) (f64.lt (local.get $fh) (f64.const 0))) (f64.gt (local.get $fh) (f64.const 0))))
+      (i32.store8 (i32.add (local.get $next) (local.get $i)) (local.get $v))
+      (if (i32.ne (local.get $v) (local.get $si)) (then (local.set $same (i32.const 0))))
+      (br_if $visit (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))
+    (if (local.get $same) (then (return (i32.const 1))))
+    (if (local.get $check)
+      (then
+        (local.set $i (i32.const 0))
+        (block $differs
+          (loop $compare
+            (br_if $differs (i32.ne (i32.load8_s (i32.add (local.get $next) (local.get $i))) (i32.load8_s (i32.add (local.get $prev) (local.get $i)))))
+            (br_if $compare (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))
+          (local.set $same (i32.const 2)))))
+    (memory.copy (local.get $prev) (local.get $s) (local.get $n))
+    (memory.copy (local.get $s) (local.get $next) (local.get $n))
+    ${reload}
+    (local.get $same))
+
+  ;; Dense synchronous Glauber step: next_i from h_i and noise[i], then s ← next and h reloaded.
+  (func (export "denseGlauberSync") (param $cols i32) (param $bias i32) (param $s i32) (param $h i32) (param $next i32) (param $noise i32) (param $n i32) (param $factor f64) (param $rowwise i32)
+    ${DENSE_LOCALS}
+    (local.set $i (i32.const 0))
+    (loop $visit
+      (i32.store8 (i32.add (local.get $next) (local.get $i)) ${glauberUp('(local.get $i)')})
+      (br_if $visit (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))
+    (memory.copy (local.get $s) (local.get $next) (local.get $n))
+    ${reload})`
+}
+
 export const OVERLAP_KERNEL_WAT = `(module
   (import "host" "exp" (func $exp (param f64) (result f64)))
   (memory (export "memory") 1)
@@ -409,12 +538,13 @@ ${variant(32)}
 ${transpose()}
 ${shuffle()}
 ${unbiasedRows()}
+${dense()}
 )
 `
 
 async function main (): Promise<void> {
   const wabt = await wabtFactory()
-  const mod = wabt.parseWat('overlap-kernel.wat', OVERLAP_KERNEL_WAT, { simd: true })
+  const mod = wabt.parseWat('overlap-kernel.wat', OVERLAP_KERNEL_WAT, { simd: true, bulk_memory: true })
   mod.validate()
   const { buffer } = mod.toBinary({})
   mod.destroy()
@@ -429,7 +559,7 @@ async function main (): Promise<void> {
 export const OVERLAP_KERNEL_HEX =
 ${lines.join(' +\n')}
 `
-  const target = fileURLToPath(new URL('../src/engine/kernels/overlap-kernel.generated.ts', import.meta.url))
+  const target = process.env.KERNEL_OUT ?? fileURLToPath(new URL('../src/engine/kernels/overlap-kernel.generated.ts', import.meta.url))
   writeFileSync(target, out)
   console.log(`wrote ${target} (${buffer.length} bytes of wasm)`)
 }

@@ -1,4 +1,6 @@
-import type { Network } from './network.js'
+import type { NativeSweeps, Network } from './network.js'
+import { DenseKernel } from '../kernels/dense-kernel.js'
+import { areFastPathsEnabled } from '../kernels/wasm.js'
 
 /**
  * Network with an explicit N×N coupling matrix and incrementally maintained local fields.
@@ -10,6 +12,11 @@ import type { Network } from './network.js'
  * O(1) per visit, so a sweep with few changes is cheap. Column j is read as a contiguous
  * row: the matrix itself when symmetric, a transposed copy otherwise.
  * Hebbian couplings stored as raw integers stay exact in doubles (|J| ≤ P ≪ 2^53).
+ *
+ * Whole sweeps, steps and field builds run in the WebAssembly SIMD kernel (`fastPath`) when
+ * the host supports it; field builds are vectorised when the columns are the exact transpose
+ * of the rows (always for the transposed copy; checked bit by bit for a matrix declared
+ * symmetric, which numerical rules such as the pseudo-inverse need not be).
  */
 export class DenseNetwork implements Network {
   readonly representation = 'dense-incremental' as const
@@ -19,8 +26,9 @@ export class DenseNetwork implements Network {
   readonly fieldScale: number
   readonly state: Int8Array
   readonly bytes: number
-  readonly fastPath = 'js'
-  readonly native = null
+  readonly fastPath: string
+  readonly native: NativeSweeps | null
+  private readonly kernel: DenseKernel | null
   private readonly couplings: Float64Array
   private readonly columns: Float64Array
   private readonly bias: Float64Array
@@ -39,18 +47,28 @@ export class DenseNetwork implements Network {
     this.neurons = n
     this.patternCount = options.patternCount
     this.patterns = options.patterns
-    this.couplings = options.couplings
     this.bias = options.bias
     this.fieldScale = options.fieldScale
-    this.columns = options.symmetric ? options.couplings : transpose(options.couplings, n)
+    const columns = options.symmetric ? options.couplings : transpose(options.couplings, n)
+    const exact = !options.symmetric || isExactlySymmetric(options.couplings, n)
+    this.kernel = areFastPathsEnabled() ? DenseKernel.create(columns, this.bias, n, exact) : null
+    // A private kernel memory holds the only copy of the columns (and, symmetric, of the rows).
+    this.columns = this.kernel?.columns ?? columns
+    this.couplings = options.symmetric ? this.columns : options.couplings
+    this.fastPath = this.kernel?.name ?? 'js'
     this.state = new Int8Array(n)
     this.h = new Float64Array(n)
+    this.native = this.kernel === null ? null : kernelSweeps(this.kernel, this.state, this.h)
     this.bytes = 8 * n * n * (options.symmetric ? 1 : 2) + 16 * n + options.patterns.length
   }
 
   load (state: Int8Array): void {
     const n = this.neurons
     this.state.set(state)
+    if (this.kernel !== null) {
+      this.kernel.load(this.state, this.h)
+      return
+    }
     for (let i = 0; i < n; i++) {
       let sum = this.bias[i]!
       const row = i * n
@@ -95,6 +113,28 @@ export class DenseNetwork implements Network {
       out[mu] = sum
     }
   }
+}
+
+function kernelSweeps (kernel: DenseKernel, state: Int8Array, h: Float64Array): NativeSweeps {
+  return {
+    sweepZeroTemperature: (order) => kernel.sweep(state, h, order),
+    stepZeroTemperature: (previous, checkPrevious) => {
+      const outcome = kernel.sync(state, h, previous, checkPrevious)
+      return outcome === 1 ? 'fixed' : outcome === 2 ? 'cycle2' : 'changed'
+    },
+    sweepGlauber: (order, noise, factor) => kernel.glauber(state, h, order, noise, factor),
+    stepGlauber: (noise, factor) => kernel.glauberSync(state, h, noise, factor)
+  }
+}
+
+/** True when J_ij and J_ji are the same double (Object.is: signed zeros count). */
+function isExactlySymmetric (matrix: Float64Array, n: number): boolean {
+  for (let i = 0; i < n; i++) {
+    for (let j = i + 1; j < n; j++) {
+      if (!Object.is(matrix[i * n + j], matrix[j * n + i])) return false
+    }
+  }
+  return true
 }
 
 function transpose (matrix: Float64Array, n: number): Float64Array {
