@@ -14,8 +14,8 @@ import { compileOnce, wasmApi, WASM_PAGE, type WasmMemory } from './wasm.js'
  * columns when the network has them (a transposed copy, or a matrix symmetric bit for bit),
  * else row by row in scalar code, as the plain path does.
  *
- * Memory as in the overlap kernel: small networks share one instance and copy their columns
- * in when another network used it last; networks of PRIVATE_BYTES or more own an instance
+ * Memory as in the overlap kernel: small networks (columns under 1 MiB) share one instance
+ * and copy their columns in when another network used it last; larger ones own an instance
  * whose memory holds the only copy of the columns.
  */
 interface DenseExports {
@@ -27,7 +27,12 @@ interface DenseExports {
   denseGlauberSync: (cols: number, bias: number, s: number, h: number, next: number, noise: number, n: number, factor: number, rowwise: number) => void
 }
 
-const PRIVATE_BYTES = 32 * 1024 * 1024
+/** Dense networks are built at most a few per second, so all but the smallest get a private memory. */
+let privateBytes = 1024 * 1024
+
+export function setDensePrivateBytes (bytes: number): void {
+  privateBytes = bytes
+}
 const denseModule = compileOnce(OVERLAP_KERNEL_HEX)
 
 function instantiate (): DenseExports | null {
@@ -73,7 +78,7 @@ export class DenseKernel {
   static create (columns: Float64Array, bias: Float64Array, n: number, exactColumns: boolean): DenseKernel | null {
     if (8 * n * n + 40 * n > 3.5 * 2 ** 30) return null
     let ws: Workspace | null
-    if (8 * n * n >= PRIVATE_BYTES) {
+    if (8 * n * n >= privateBytes) {
       const k = instantiate()
       ws = k === null ? null : { k, residentId: 0 }
     } else {

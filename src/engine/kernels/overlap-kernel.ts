@@ -20,8 +20,8 @@ import { compileOnce, wasmApi, WASM_PAGE, type WasmMemory } from './wasm.js'
  * keeps its own copy of the neuron-major patterns, which is copied in when another network
  * used the workspace last. State and overlaps stay canonical in the network's JavaScript
  * arrays and cross the boundary (O(N + P) bytes) on every call. Networks whose patterns take
- * at least PRIVATE_BYTES get an instance of their own holding the only copy, so a big network
- * costs N·P bytes once. (One memory per small network would be simpler, but V8 reserves
+ * at least `privateBytes` (8 MiB) get an instance of their own holding the only copy, so a big network
+ * costs N·P bytes once (plus its pattern-major copy). (One memory per small network would be simpler, but V8 reserves
  * gigabytes of address space per memory and stalls on garbage collection when thousands of
  * networks are built in a row.)
  */
@@ -40,8 +40,16 @@ interface OverlapExports {
   transpose: (src: number, np: number, dst: number, stride: number, rows: number) => void
 }
 
-/** Networks whose neuron-major patterns take at least this many bytes get a private instance. */
-export const PRIVATE_BYTES = 32 * 1024 * 1024
+/**
+ * Networks whose neuron-major patterns take at least this many bytes get a private instance,
+ * so the shared workspace never holds more than this beyond the networks themselves.
+ */
+let privateBytes = 8 * 1024 * 1024
+
+/** Moves the shared/private boundary (tests use it to exercise private instances on small networks). */
+export function setOverlapPrivateBytes (bytes: number): void {
+  privateBytes = bytes
+}
 /** Largest N for int16 overlap lanes (|m_μ| ≤ N). */
 const I16_NEURONS = 32767
 
@@ -68,7 +76,7 @@ let sharedWorkspace: Workspace | null | undefined
 let nextId = 1
 
 function workspaceFor (bytes: number): Workspace | null {
-  if (bytes >= PRIVATE_BYTES) {
+  if (bytes >= privateBytes) {
     const k = instantiate()
     return k === null ? null : new Workspace(k)
   }

@@ -2,6 +2,8 @@ import { afterEach, describe, expect, it } from 'vitest'
 import { buildNetwork, createPointRunner, createScratch, runTrialOn, SeedrandomSource, Xoshiro256StarStar, type PointParams, type TrialRecord } from '../../../src/engine/index.js'
 import { setFastPathsEnabled } from '../../../src/engine/kernels/wasm.js'
 import { DenseNetwork } from '../../../src/engine/network/dense.js'
+import { setOverlapPrivateBytes } from '../../../src/engine/kernels/overlap-kernel.js'
+import { setDensePrivateBytes } from '../../../src/engine/kernels/dense-kernel.js'
 
 // The fast paths must reproduce the plain per-neuron path bit for bit on the same stream:
 // every test runs the same trials twice, fast paths off and on, and compares whole records.
@@ -92,6 +94,20 @@ describe('overlap-space fast path is bit-identical to the plain path', () => {
       interleaved[1]!.push(rb.runTrial(t))
     }
     expect(interleaved).toStrictEqual(alone)
+  })
+
+  it('networks with a private kernel memory (big networks) match too', () => {
+    setOverlapPrivateBytes(0)
+    setDensePrivateBytes(0)
+    try {
+      expectSame(params({ neurons: 150, patterns: 20 }), 3)
+      expectSame(params({ neurons: 150, patterns: 20, dynamics: { update: 'sync' } }), 3)
+      expectSame(params({ neurons: 100, patterns: 10, dilution: { keep: 0.5, symmetric: true } }), 3, 'wasm-simd128-dense-f64')
+      expectSame(params({ neurons: 100, patterns: 10, dilution: { keep: 0.5, symmetric: false }, dynamics: { update: 'sync' } }), 3, 'wasm-simd128-dense-f64')
+    } finally {
+      setOverlapPrivateBytes(8 * 1024 * 1024)
+      setDensePrivateBytes(1024 * 1024)
+    }
   })
 
   it('an injected non-xoshiro source shuffles in JavaScript and still matches', () => {
