@@ -75,11 +75,16 @@ export interface WorkerProcessOptions {
 }
 
 export interface WorkerActivity {
-  /** `stopped`: the chunk was abandoned because its sweep was canceled or failed. */
-  type: 'started' | 'stored' | 'assembled' | 'stopped' | 'skipped' | 'failed'
+  /**
+   * `progress`: a running chunk reported its trials done; `stopped`: the chunk was abandoned
+   * because its sweep was canceled or failed; `skipped`: the sweep had ended before the job ran.
+   */
+  type: 'started' | 'progress' | 'stored' | 'assembled' | 'stopped' | 'skipped' | 'failed'
   jobId: string
   sweepId: string
   job: SweepJobName
+  /** Trials of the chunk done so far (progress only). */
+  trialsDone?: number
 }
 
 export interface RunningWorker {
@@ -173,10 +178,10 @@ export async function startWorker (options: WorkerProcessOptions): Promise<Runni
     await chunkQueue.removePending(sweepId, chunksTotal)
   }
 
-  const observe = (type: WorkerActivity['type'], job: Job<ChunkJobData | AssembleJobData, unknown, SweepJobName>): void => {
+  const observe = (type: WorkerActivity['type'], job: Job<ChunkJobData | AssembleJobData, unknown, SweepJobName>, trialsDone?: number): void => {
     if (options.observer === undefined) return
     try {
-      options.observer({ type, jobId: job.id ?? '', sweepId: job.data.sweepId, job: job.name })
+      options.observer({ type, jobId: job.id ?? '', sweepId: job.data.sweepId, job: job.name, ...(trialsDone === undefined ? {} : { trialsDone }) })
     } catch (err) {
       logger.warn({ err }, 'worker observer threw')
     }
@@ -202,6 +207,7 @@ export async function startWorker (options: WorkerProcessOptions): Promise<Runni
   worker.on('progress', (job, progress) => {
     const report = progress as { chunk?: number, trialsDone?: number }
     if (typeof report.chunk !== 'number' || typeof report.trialsDone !== 'number') return
+    observe('progress', job, report.trialsDone)
     const sweepId = job.data.sweepId
     store.reportProgress(sweepId, report.chunk, report.trialsDone, Date.now()).then(async (status) => {
       if (status === 'running') await publishSweepEvent(redis, keys, sweepId, 'progress')

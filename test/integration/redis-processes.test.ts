@@ -1,0 +1,154 @@
+/**
+ * Worker processes that die, stop or are told to stop: each test runs real `node` worker
+ * processes against a real Redis and watches them through the lines they print.
+ */
+import { afterEach, beforeEach, describe, expect, it } from 'vitest'
+import { Queue } from 'bullmq'
+import type { SweepQueue } from '../../src/backends/port.js'
+import { createRedisQueue } from '../../src/backends/redis/index.js'
+import { CHUNK_QUEUE_NAME, chunkJobId, keyLayout } from '../../src/backends/redis/keys.js'
+import { normaliseSpec, type NormalisedSpec } from '../../src/spec/index.js'
+import { startWorker } from '../../src/worker/main.js'
+import {
+  computeInProcess, quietLogger, REDIS_URL, redisAvailable, removePrefix, resultBytes, testPrefix, waitForRecord,
+  waitForTerminal
+} from './helpers.js'
+import { spawnWorker, stopWorker, type WorkerLine, type WorkerProcess } from './worker-processes.js'
+
+const available = await redisAvailable()
+
+/** Noisy recall in a model place-cell network at finite temperature: chunks of about a second each. */
+function noisyRecallSpec (overrides: Record<string, unknown> = {}): NormalisedSpec {
+  return normaliseSpec({
+    label: 'noisy room recall',
+    neurons: 400,
+    load: { values: [0.05, 0.1, 0.15] },
+    dynamics: { temperature: 0.3, maxSweeps: 200, burnIn: 50 },
+    trials: 120,
+    seed: 17,
+    ...overrides
+  })
+}
+
+/** Stalled-job recovery in seconds rather than BullMQ's production default of about 30 s. */
+const FAST_RECOVERY = { lockDurationMs: 2000, stalledIntervalMs: 1000 }
+
+const isProgressOf = (sweepId: string) => (line: WorkerLine): boolean => line.type === 'progress' && 'sweepId' in line && line.sweepId === sweepId
+
+describe.runIf(available)('Redis backend: worker processes', () => {
+  const logger = quietLogger()
+  let prefix: string
+  const workers: WorkerProcess[] = []
+  const closers: Array<() => Promise<void>> = []
+
+  const openQueue = async (): Promise<SweepQueue> => {
+    const queue = await createRedisQueue({ url: REDIS_URL, prefix, logger })
+    closers.push(() => queue.close())
+    return queue
+  }
+  const spawn = async (options: Record<string, unknown> = {}): Promise<WorkerProcess> => {
+    const worker = spawnWorker({ url: REDIS_URL, prefix, concurrency: 1, ...FAST_RECOVERY, ...options })
+    workers.push(worker)
+    await worker.waitFor(line => line.type === 'ready')
+    return worker
+  }
+  const jobState = async (jobId: string): Promise<string> => {
+    const bull = new Queue(CHUNK_QUEUE_NAME, { connection: { url: REDIS_URL }, prefix: keyLayout(prefix).bullPrefix })
+    try {
+      return await bull.getJobState(jobId)
+    } finally {
+      await bull.close()
+    }
+  }
+
+  beforeEach(() => { prefix = testPrefix() })
+
+  afterEach(async () => {
+    await Promise.all(workers.splice(0).map(worker => stopWorker(worker)))
+    for (const close of closers.splice(0).reverse()) await close()
+    await removePrefix(prefix)
+  })
+
+  it('completes a sweep with byte-identical results when one of two worker processes is SIGKILLed mid-chunk', async () => {
+    const queue = await openQueue()
+    const [victim, survivor] = await Promise.all([spawn(), spawn()])
+    const spec = noisyRecallSpec()
+    const submitted = await queue.submit({ spec, owner: null })
+
+    // Mid-chunk: the victim's chunk has reported trials done and is still computing.
+    const progress = await victim.waitFor(isProgressOf(submitted.id))
+    const killedJob = (progress as { jobId: string }).jobId
+    victim.child.kill('SIGKILL')
+    const killedAt = performance.now()
+    await victim.exited
+    expect(victim.lines.some(line => line.type === 'stored' && 'jobId' in line && line.jobId === killedJob)).toBe(false)
+
+    await survivor.waitFor(line => line.type === 'started' && 'jobId' in line && line.jobId === killedJob)
+    const recoveredAfterMs = performance.now() - killedAt
+    const done = await waitForTerminal(queue, submitted.id)
+    logger.info({ recoveredAfterMs }, 'crashed chunk picked up again')
+
+    expect(done.status).toBe('succeeded')
+    // No chunk lost, none counted twice.
+    expect(done.progress.chunksDone).toBe(done.progress.chunksTotal)
+    expect(done.progress.trialsDone).toBe(done.progress.trialsTotal)
+    expect(done.progress.pointsDone).toBe(done.progress.pointsTotal)
+    expect(resultBytes((await queue.results(submitted.id))!)).toBe(resultBytes(computeInProcess(spec)))
+  })
+
+  it('stops a chunk running in another worker process within two seconds of a cancel sent to another API instance', async () => {
+    const submitter = await openQueue()
+    const canceler = await openQueue()
+    const worker = await spawn()
+    const spec = noisyRecallSpec({ load: 0.1, trials: 600, seed: 23 })
+    const submitted = await submitter.submit({ spec, owner: null })
+    expect(submitted.progress.chunksTotal).toBeGreaterThan(1)
+
+    // Progress of the running chunk is visible from the other API instance before any chunk is stored.
+    const midway = await waitForRecord(canceler, submitted.id, record => record.progress.trialsDone > 0)
+    expect(midway).toMatchObject({ status: 'running', progress: { chunksDone: 0 } })
+    const running = await worker.waitFor(isProgressOf(submitted.id))
+    const runningJob = (running as { jobId: string }).jobId
+
+    const seenBySubmitter = waitForRecord(submitter, submitted.id, record => record.status === 'canceled')
+    const canceledAt = performance.now()
+    const afterCancel = await canceler.cancel(submitted.id)
+    expect(afterCancel?.status).toBe('canceled')
+    await worker.waitFor(line => line.type === 'stopped' && 'jobId' in line && line.jobId === runningJob)
+    const stopLatencyMs = performance.now() - canceledAt
+    logger.info({ stopLatencyMs }, 'running chunk stopped after cancel')
+    expect(stopLatencyMs).toBeLessThan(2000)
+    expect((await seenBySubmitter).finishedAt).not.toBeNull()
+
+    // The chunks that were waiting are gone from the queue; nothing of the sweep runs any more.
+    for (let index = 0; index < submitted.progress.chunksTotal; index++) {
+      const jobId = chunkJobId(submitted.id, index)
+      if (jobId !== runningJob) expect(await jobState(jobId)).toBe('unknown')
+    }
+    expect(await canceler.stats()).toMatchObject({ canceled: 1, running: 0, chunksWaiting: 0, chunksActive: 0 })
+    expect(await canceler.results(submitted.id)).toBeNull()
+  })
+
+  it('hands a running chunk back to the queue when its worker gets SIGTERM and the grace period runs out', async () => {
+    const queue = await openQueue()
+    const leaving = await spawn({ shutdownGraceMs: 200 })
+    const spec = noisyRecallSpec({ load: 0.1, trials: 200, seed: 29 })
+    const submitted = await queue.submit({ spec, owner: null })
+    const running = await leaving.waitFor(isProgressOf(submitted.id))
+    const handedBack = (running as { jobId: string }).jobId
+
+    leaving.child.kill('SIGTERM')
+    expect(await leaving.exited).toEqual({ code: 0, signal: null })
+    // Back in the queue at once, not after a lock timeout, and not counted as a failed attempt.
+    expect(await jobState(handedBack)).toBe('waiting')
+    const record = await queue.get(submitted.id)
+    expect(record?.status).toBe('running')
+
+    const successor = await startWorker({ url: REDIS_URL, prefix, logger, concurrency: 1 })
+    closers.push(() => successor.close())
+    const done = await waitForTerminal(queue, submitted.id)
+    expect(done.status).toBe('succeeded')
+    expect(done.progress.trialsDone).toBe(done.progress.trialsTotal)
+    expect(resultBytes((await queue.results(submitted.id))!)).toBe(resultBytes(computeInProcess(spec)))
+  })
+})
