@@ -8,7 +8,7 @@
 import type { FastifyInstance } from 'fastify'
 import fp from 'fastify-plugin'
 import { Gauge, Histogram, Registry, collectDefaultMetrics } from 'prom-client'
-import { SWEEP_STATUSES, type SweepQueue } from '../../backends/port.js'
+import { SWEEP_STATUSES, type QueueStats, type SweepQueue } from '../../backends/port.js'
 
 declare module 'fastify' {
   interface FastifyInstance {
@@ -24,21 +24,37 @@ async function metrics (app: FastifyInstance, options: MetricsOptions): Promise<
   const registry = new Registry()
   collectDefaultMetrics({ register: registry, prefix: 'memsweep_' })
 
+  // The registry collects every metric at once, so each gauge reads the queue through one
+  // shared, short-lived read: all of them show the same moment and the backend is asked once.
   const queue = options.queue
+  let pending: { at: number, stats: Promise<QueueStats> } | null = null
+  const stats = (): Promise<QueueStats> => {
+    const now = Date.now()
+    if (pending === null || now - pending.at > 250) pending = { at: now, stats: queue.stats() }
+    return pending.stats
+  }
   new Gauge({ // eslint-disable-line no-new -- registered with the registry, read at scrape time
     name: 'memsweep_sweeps',
     help: 'Sweeps known to the queue backend, by status.',
     labelNames: ['status'],
     registers: [registry],
     async collect () {
-      const stats = await queue.stats()
-      for (const status of SWEEP_STATUSES) this.set({ status }, stats[status])
-      chunksWaiting.set(stats.chunksWaiting)
-      chunksActive.set(stats.chunksActive)
+      const current = await stats()
+      for (const status of SWEEP_STATUSES) this.set({ status }, current[status])
     }
   })
-  const chunksWaiting = new Gauge({ name: 'memsweep_chunks_waiting', help: 'Chunks of trials waiting for a worker.', registers: [registry] })
-  const chunksActive = new Gauge({ name: 'memsweep_chunks_active', help: 'Chunks of trials being computed now.', registers: [registry] })
+  new Gauge({ // eslint-disable-line no-new -- as above
+    name: 'memsweep_chunks_waiting',
+    help: 'Chunks of trials waiting for a worker.',
+    registers: [registry],
+    async collect () { this.set((await stats()).chunksWaiting) }
+  })
+  new Gauge({ // eslint-disable-line no-new -- as above
+    name: 'memsweep_chunks_active',
+    help: 'Chunks of trials being computed now.',
+    registers: [registry],
+    async collect () { this.set((await stats()).chunksActive) }
+  })
   const openStreams = new Gauge({ name: 'memsweep_event_streams_open', help: 'Server-Sent Event streams open now.', registers: [registry] })
   const duration = new Histogram({
     name: 'memsweep_http_request_duration_seconds',

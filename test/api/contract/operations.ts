@@ -2,7 +2,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { createHarness, isTerminal, type Harness, type QueueFactory } from '../helpers/harness.js'
 import { openApiDocument } from '../helpers/openapi.js'
-import { quickSpec } from '../helpers/specs.js'
+import { quickSpec, slowSpec } from '../helpers/specs.js'
 
 export function operationsContract (factory: QueueFactory): void {
   describe('operations', () => {
@@ -34,6 +34,16 @@ export function operationsContract (factory: QueueFactory): void {
       expect(text).toContain('route="/v1/sweeps/:id"')
       expect(text).not.toContain(id)
       expect(text).toMatch(/memsweep_http_request_duration_seconds_bucket\{le="\+Inf",method="POST",route="\/v1\/sweeps",status_code="202"\} \d+/)
+    })
+
+    it('/metrics shows running sweeps and active chunks on the first scrape', async () => {
+      const id = (await h.request({ method: 'POST', url: '/v1/sweeps', payload: slowSpec() })).json().id
+      await h.waitFor(id, (r) => r.status === 'running' && r.progress.trialsDone > 0)
+      const text = (await h.request({ method: 'GET', url: '/metrics' })).body
+      expect(Number(/^memsweep_sweeps\{status="running"\} (\d+)$/m.exec(text)?.[1])).toBe(1)
+      expect(Number(/^memsweep_chunks_active (\d+)$/m.exec(text)?.[1])).toBeGreaterThanOrEqual(1)
+      await h.request({ method: 'DELETE', url: `/v1/sweeps/${id as string}` })
+      await h.waitFor(id, isTerminal)
     })
 
     it('/openapi.json serves the committed document', async () => {
