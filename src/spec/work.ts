@@ -17,10 +17,13 @@ import type { NormalisedSpec } from './types.js'
  *
  * Measured with `npx tsx test/spec/measure-throughput.ts`: eight workloads (Hebbian T = 0
  * async and sync, Glauber, pseudo-inverse, Storkey, covariance, diluted; N 200–1000), each
- * rate = modelled ops ÷ process CPU time after a warm-up; two runs gave medians of
- * 1.83e8 and 1.94e8 on the development machine (2 vCPU, Node 20.20, engine 0.1.0), with
- * single workloads between 0.33× and 1.5× the median. Re-measure when the engine's
- * kernels change; only chunk sizes and the cpuSeconds estimate depend on it, never results.
+ * rate = modelled ops ÷ process CPU time after a warm-up. Medians of four runs on the
+ * development machine (2 vCPU shared with other jobs, Node 20.20, engine 0.1.0 before and
+ * after its WebAssembly kernels landed): 1.8e8–2.9e8. We take 1.9e8, the low end, so
+ * estimates err towards more work. Single workloads run between 0.46× (Storkey) and 8×
+ * (large-N overlap-space, where the SIMD kernel beats the model) of the modelled time, so
+ * a 3 s chunk takes about 0.4–6.5 s. Re-measure when the engine's kernels or cost model
+ * change; only chunk sizes and the cpuSeconds estimate depend on it, never results.
  */
 export const ENGINE_OPS_PER_CPU_SECOND = 1.9e8
 
