@@ -3,7 +3,8 @@
  * The embedded backend (SQLite + worker threads) is the default; REDIS_URL selects Redis.
  * This is the only module that listens on a port.
  */
-import { realpathSync } from 'node:fs'
+import { existsSync, readFileSync, realpathSync } from 'node:fs'
+import { parseEnv } from 'node:util'
 import { pathToFileURL } from 'node:url'
 import closeWithGrace from 'close-with-grace'
 import type { FastifyInstance } from 'fastify'
@@ -58,11 +59,20 @@ export async function startServer (env: Record<string, string | undefined>, logg
   }
 }
 
+/**
+ * Variables from a `.env` file in the working directory, if there is one (copy .env.example).
+ * The real environment wins over the file, as with `node --env-file`.
+ */
+export function withDotEnv (env: Record<string, string | undefined>, file = '.env'): Record<string, string | undefined> {
+  if (!existsSync(file)) return env
+  return { ...parseEnv(readFileSync(file, 'utf8')), ...env }
+}
+
 /** Runs the service until SIGTERM/SIGINT; used by `npm start` and `memsweep serve`. */
 export async function main (env: Record<string, string | undefined> = process.env): Promise<void> {
   let server: RunningServer
   try {
-    server = await startServer(env)
+    server = await startServer(withDotEnv(env))
   } catch (error) {
     if (error instanceof ConfigError) {
       console.error(error.message)

@@ -44,3 +44,22 @@ describe('loadConfig', () => {
     for (const name of ['PORT', 'LOG_LEVEL', 'REDIS_URL', 'WORKER_THREADS']) expect(issues).toContain(name)
   })
 })
+
+describe('.env file', () => {
+  it('fills unset variables from the file; the real environment wins', async () => {
+    const { mkdtemp, writeFile, rm } = await import('node:fs/promises')
+    const { join } = await import('node:path')
+    const { tmpdir } = await import('node:os')
+    const { withDotEnv } = await import('../../src/server.js')
+    const dir = await mkdtemp(join(tmpdir(), 'memsweep-env-'))
+    const file = join(dir, '.env')
+    await writeFile(file, '# comment\nPORT=9090\nLOG_LEVEL=debug\nDATA_DIR="/srv/memsweep data"\n')
+    try {
+      const env = withDotEnv({ LOG_LEVEL: 'warn' }, file)
+      expect(loadConfig(env)).toMatchObject({ port: 9090, logLevel: 'warn', dataDir: '/srv/memsweep data' })
+      expect(withDotEnv({ PORT: '1' }, join(dir, 'missing.env'))).toEqual({ PORT: '1' })
+    } finally {
+      await rm(dir, { recursive: true, force: true })
+    }
+  })
+})

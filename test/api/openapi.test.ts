@@ -3,7 +3,9 @@
  * what the code generates now; error codes agree between the registry, docs/errors.md and
  * the document; every operation documents its problems.
  */
+import { spawn } from 'node:child_process'
 import { readFileSync } from 'node:fs'
+import { join } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { describe, expect, it } from 'vitest'
 import { buildOpenApiDocument, serialiseOpenApiDocument } from '../../src/api/openapi-build.js'
@@ -15,6 +17,22 @@ const read = (path: string): string => readFileSync(fileURLToPath(new URL(path, 
 describe('OpenAPI document', () => {
   it('is exactly what the route schemas generate (run `npm run openapi:generate` after changing a route)', async () => {
     expect(read('../../openapi/openapi.json')).toBe(serialiseOpenApiDocument(await buildOpenApiDocument()))
+  })
+
+  it('passes redocly lint (the recommended rules, see openapi/redocly.yaml)', async () => {
+    const root = fileURLToPath(new URL('../../', import.meta.url))
+    const child = spawn(process.execPath, [join(root, 'node_modules/@redocly/cli/bin/cli.js'), 'lint', '--config', 'openapi/redocly.yaml', 'openapi/openapi.json'], {
+      cwd: root,
+      env: { ...process.env, REDOCLY_TELEMETRY: 'off', REDOCLY_SUPPRESS_UPDATE_NOTICE: 'true' }
+    })
+    let output = ''
+    child.stdout.on('data', (chunk: Buffer) => { output += chunk.toString('utf8') })
+    child.stderr.on('data', (chunk: Buffer) => { output += chunk.toString('utf8') })
+    const code = await new Promise<number | null>((resolve) => child.on('close', resolve))
+    expect(code, output).toBe(0)
+    // Problems are reported as `[n] openapi/openapi.json:line:col`; the Node-version notice is not one.
+    expect(output).not.toMatch(/^\[\d+\] openapi\//m)
+    expect(output).toContain('valid')
   })
 
   it('is OpenAPI 3.1 with the fixed /v1 routes', () => {
