@@ -79,7 +79,12 @@ print(json.dumps({"trials": v["work"]["trials"], "theory": len(t["points"]), "sa
     const res = await python(['-c', script])
     expect(res.status, res.stderr).toBe(0)
     expect(JSON.parse(res.stdout)).toEqual({
-      trials: 32, theory: 2, same: true, final: 'succeeded', rows: 2, listed: true,
+      trials: 32,
+      theory: 2,
+      same: true,
+      final: 'succeeded',
+      rows: 2,
+      listed: true,
       problem: { status: 422, code: 'MEMSWEEP_SPEC_INVALID', paths: ['neurons'] }
     })
   })
