@@ -1,7 +1,7 @@
 /**
- * Generates src/engine/kernels/overlap-kernel.generated.ts: the WebAssembly (SIMD128)
- * module behind the overlap-space fast path, embedded as bytes so the engine reads no file
- * at run time. The WebAssembly text below is the source of truth; `npm run kernels:generate`
+ * Generates src/engine/kernels/kernels.generated.ts: the WebAssembly (SIMD128) module behind
+ * the engine's fast paths (overlap-space and dense sweeps, native xoshiro256** draws),
+ * embedded as base64 so the engine reads no file at run time. The WebAssembly text below is the source of truth; `npm run kernels:generate`
  * assembles it with wabt (a dev dependency used only here) and rewrites the generated file.
  *
  * Layout the kernels expect (all offsets are byte addresses in the module's memory, 16-aligned):
@@ -92,11 +92,182 @@ function flip (w: Width): string {
       (br_if $flip (i32.lt_u (local.tee $r (i32.add (local.get $r) (i32.const 16))) (local.get $e))))`
 }
 
+/** int16 overlaps, 64 patterns per pass over the neurons: eight int16x8 accumulators. */
+function overlapGroups16 (): string {
+  const acc = ['$a', '$b', '$c', '$d', '$a4', '$a5', '$a6', '$a7']
+  const zero = acc.map((v) => `(local.set ${v} (v128.const i32x4 0 0 0 0))`).join(' ')
+  const body: string[] = []
+  for (let q = 0; q < 4; q++) {
+    body.push(`(local.set $x (v128.load offset=${16 * q} (local.get $r)))`)
+    body.push(`(local.set ${acc[2 * q]} (i16x8.add (local.get ${acc[2 * q]}) (i16x8.mul (i16x8.extend_low_i8x16_s (local.get $x)) (local.get $sv))))`)
+    body.push(`(local.set ${acc[2 * q + 1]} (i16x8.add (local.get ${acc[2 * q + 1]}) (i16x8.mul (i16x8.extend_high_i8x16_s (local.get $x)) (local.get $sv))))`)
+  }
+  const stores = acc.map((v, k) => `(v128.store offset=${16 * k} (local.get $r) (local.get ${v}))`).join(' ')
+  return `
+    (block $groupsDone
+      (loop $group
+        (br_if $groupsDone (i32.gt_u (i32.add (local.get $blk) (i32.const 64)) (local.get $pp)))
+        ${zero}
+        (local.set $r (i32.add (local.get $xi) (local.get $blk)))
+        (local.set $sp (local.get $s))
+        (loop $neuron64
+          (local.set $sv (i16x8.splat (i32.load8_s (local.get $sp))))
+          ${body.join('\n          ')}
+          (local.set $r (i32.add (local.get $r) (local.get $pp)))
+          (br_if $neuron64 (i32.lt_u (local.tee $sp (i32.add (local.get $sp) (i32.const 1))) (local.get $se))))
+        (local.set $r (i32.add (local.get $m) (i32.mul (local.get $blk) (i32.const 2))))
+        ${stores}
+        (local.set $blk (i32.add (local.get $blk) (i32.const 64)))
+        (br $group)))`
+}
+
+/**
+ * Four fields at once (int16 overlaps): rows $r0..$r3 against the same overlaps, so each
+ * pair of overlap loads and the loop control serve four neurons (about 7.5 instead of 13
+ * instructions per 16 entries and neuron). Leaves Σ_μ ξ_rj^μ m_μ in $h0..$h3.
+ */
+function dot4 (): string {
+  const acc = (j: number, half: number): string => `$q${2 * j + half}`
+  const zero = [0, 1, 2, 3, 4, 5, 6, 7].map((k) => `(local.set $q${k} (v128.const i32x4 0 0 0 0))`).join(' ')
+  const body: string[] = []
+  for (let j = 0; j < 4; j++) {
+    body.push(`(local.set $x (v128.load (i32.add (local.get $r${j}) (local.get $o))))`)
+    body.push(`(local.set ${acc(j, 0)} (i32x4.add (local.get ${acc(j, 0)}) (i32x4.dot_i16x8_s (i16x8.extend_low_i8x16_s (local.get $x)) (local.get $ml))))`)
+    body.push(`(local.set ${acc(j, 1)} (i32x4.add (local.get ${acc(j, 1)}) (i32x4.dot_i16x8_s (i16x8.extend_high_i8x16_s (local.get $x)) (local.get $mh))))`)
+  }
+  const sums: string[] = []
+  for (let j = 0; j < 4; j++) {
+    sums.push(`(local.set $x (i32x4.add (local.get ${acc(j, 0)}) (local.get ${acc(j, 1)})))
+    (local.set $h${j} (i32.add
+      (i32.add (i32x4.extract_lane 0 (local.get $x)) (i32x4.extract_lane 1 (local.get $x)))
+      (i32.add (i32x4.extract_lane 2 (local.get $x)) (i32x4.extract_lane 3 (local.get $x)))))`)
+  }
+  return `
+    ${zero}
+    (local.set $o (i32.const 0))
+    (local.set $mp (local.get $m))
+    (loop $dot4
+      (local.set $ml (v128.load (local.get $mp)))
+      (local.set $mh (v128.load offset=16 (local.get $mp)))
+      ${body.join('\n      ')}
+      (local.set $mp (i32.add (local.get $mp) (i32.const 32)))
+      (br_if $dot4 (i32.lt_u (local.tee $o (i32.add (local.get $o) (i32.const 16))) (local.get $pp))))
+    ${sums.join('\n    ')}`
+}
+
+const LOCALS4 = `(local $o i32) (local $ml v128) (local $mh v128)
+    (local $q0 v128) (local $q1 v128) (local $q2 v128) (local $q3 v128) (local $q4 v128) (local $q5 v128) (local $q6 v128) (local $q7 v128)
+    (local $r0 i32) (local $r1 i32) (local $r2 i32) (local $r3 i32) (local $h0 i32) (local $h1 i32) (local $h2 i32) (local $h3 i32)
+    (local $i0 i32) (local $i1 i32) (local $i2 i32) (local $i3 i32)`
+
+/**
+ * int16 asynchronous sweep, four visits per field computation. Fields of visits k..k+3 are
+ * computed together from the current overlaps; they stay valid until one of those visits
+ * changes a neuron, so the group is cut short there and the next group starts right after
+ * it. Every decision therefore sees exactly the field the one-at-a-time sweep would.
+ */
+function sweep16Grouped (): string {
+  const visit = (j: number): string => `
+          (local.set $i (local.get $i${j}))
+          (local.set $row (local.get $r${j}))
+          (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+          (local.set $h (i32.sub (local.get $h${j}) (i32.mul (local.get $self) (local.get $si))))
+          (local.set $v ${DECIDE})
+          (if (i32.ne (local.get $v) (local.get $si))
+            (then
+              (i32.store8 (i32.add (local.get $s) (local.get $i)) (local.get $v))
+              (local.set $delta (i32.sub (local.get $v) (local.get $si)))
+              ${flip(16)}
+              (local.set $changed (i32.const 1))
+              (local.set $k (i32.add (local.get $k) (i32.const ${j + 1})))
+              (br $visit)))`
+  const load = (j: number): string => `
+          (local.set $i${j} (i32.load offset=${4 * j} (i32.add (local.get $order) (i32.shl (local.get $k) (i32.const 2)))))
+          (local.set $r${j} (i32.add (local.get $xi) (i32.mul (local.get $i${j}) (local.get $pp))))`
+  return `
+  (func (export "sweep16") (param $xi i32) (param $m i32) (param $s i32) (param $order i32) (param $n i32) (param $pp i32) (param $self i32) (result i32)
+    ${LOCALS} ${LOCALS4}
+    (local $k i32) (local $i i32) (local $si i32) (local $v i32) (local $changed i32)
+    (local.set $k (i32.const 0))
+    (block $done
+      (loop $visit
+        (br_if $done (i32.ge_u (local.get $k) (local.get $n)))
+        (if (i32.le_u (i32.add (local.get $k) (i32.const 4)) (local.get $n))
+          (then
+            ${[0, 1, 2, 3].map(load).join('')}
+            ${dot4()}
+            ${[0, 1, 2, 3].map(visit).join('')}
+            (local.set $k (i32.add (local.get $k) (i32.const 4)))
+            (br $visit)))
+        (local.set $i (i32.load (i32.add (local.get $order) (i32.shl (local.get $k) (i32.const 2)))))
+        (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+        (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+        ${dot(16)}
+        (local.set $h (i32.sub (local.get $h) (i32.mul (local.get $self) (local.get $si))))
+        (local.set $v ${DECIDE})
+        (if (i32.ne (local.get $v) (local.get $si))
+          (then
+            (i32.store8 (i32.add (local.get $s) (local.get $i)) (local.get $v))
+            (local.set $delta (i32.sub (local.get $v) (local.get $si)))
+            ${flip(16)}
+            (local.set $changed (i32.const 1))))
+        (local.set $k (i32.add (local.get $k) (i32.const 1)))
+        (br $visit)))
+    (local.get $changed))`
+}
+
+/** The decision pass of the int16 synchronous step, four neurons per field computation. */
+function syncFields16 (): string {
+  const decide = (j: number): string => `
+        (local.set $si (i32.load8_s (i32.add (local.get $s) (i32.add (local.get $i) (i32.const ${j})))))
+        (local.set $h (i32.sub (local.get $h${j}) (i32.mul (local.get $self) (local.get $si))))
+        (local.set $v ${DECIDE})
+        (i32.store8 offset=${j} (i32.add (local.get $next) (local.get $i)) (local.get $v))
+        (if (i32.ne (local.get $v) (local.get $si)) (then (local.set $same (i32.const 0))))`
+  return `
+    (block $groupsDone
+      (loop $group
+        (br_if $groupsDone (i32.gt_u (i32.add (local.get $i) (i32.const 4)) (local.get $n)))
+        (local.set $r0 (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+        (local.set $r1 (i32.add (local.get $r0) (local.get $pp)))
+        (local.set $r2 (i32.add (local.get $r1) (local.get $pp)))
+        (local.set $r3 (i32.add (local.get $r2) (local.get $pp)))
+        ${dot4()}
+        ${[0, 1, 2, 3].map(decide).join('')}
+        (local.set $i (i32.add (local.get $i) (i32.const 4)))
+        (br $group)))`
+}
+
 const LOCALS = `(local $row i32) (local $r i32) (local $e i32) (local $mp i32) (local $h i32) (local $delta i32)
     (local $x v128) (local $y v128) (local $a v128) (local $b v128) (local $c v128) (local $d v128) (local $dv v128)`
 
 /** The zero-temperature decision: v = +1 if h > 0, −1 if h < 0, else unchanged (the tie rule). */
 const DECIDE = '(select (i32.const 1) (select (i32.const -1) (local.get $si) (i32.lt_s (local.get $h) (i32.const 0))) (i32.gt_s (local.get $h) (i32.const 0)))'
+
+/** The one-visit-at-a-time asynchronous sweep (int32 overlaps). */
+function sweepOne (w: Width): string {
+  return `
+  (func (export "sweep${w}") (param $xi i32) (param $m i32) (param $s i32) (param $order i32) (param $n i32) (param $pp i32) (param $self i32) (result i32)
+    ${LOCALS}
+    (local $k i32) (local $ke i32) (local $i i32) (local $si i32) (local $v i32) (local $changed i32)
+    (local.set $k (local.get $order))
+    (local.set $ke (i32.add (local.get $order) (i32.shl (local.get $n) (i32.const 2))))
+    (loop $visit
+      (local.set $i (i32.load (local.get $k)))
+      (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+      (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+      ${dot(w)}
+      (local.set $h (i32.sub (local.get $h) (i32.mul (local.get $self) (local.get $si))))
+      (local.set $v ${DECIDE})
+      (if (i32.ne (local.get $v) (local.get $si))
+        (then
+          (i32.store8 (i32.add (local.get $s) (local.get $i)) (local.get $v))
+          (local.set $delta (i32.sub (local.get $v) (local.get $si)))
+          ${flip(w)}
+          (local.set $changed (i32.const 1))))
+      (br_if $visit (i32.lt_u (local.tee $k (i32.add (local.get $k) (i32.const 4))) (local.get $ke))))
+    (local.get $changed))`
+}
 
 function variant (w: Width): string {
   const lane = w === 16 ? 2 : 4
@@ -115,12 +286,16 @@ function variant (w: Width): string {
     (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
     ${flip(w)})
 
-  ;; m = Σ_i s_i ξ_i from scratch, one block of 16 patterns at a time so the accumulators stay in registers.
+  ;; m = Σ_i s_i ξ_i from scratch. ${w === 16 ? 'Groups of 64 patterns (one cache line of a row) then single blocks of 16' : 'One block of 16 patterns at a time'},
+  ;; so the accumulators stay in registers and every cache line fetched is used whole.
   (func (export "overlaps${w}") (param $xi i32) (param $m i32) (param $s i32) (param $n i32) (param $pp i32)
     (local $blk i32) (local $r i32) (local $sp i32) (local $se i32) (local $x v128) (local $y v128) (local $sv v128)
     (local $a v128) (local $b v128) (local $c v128) (local $d v128)
+    (local $a4 v128) (local $a5 v128) (local $a6 v128) (local $a7 v128)
     (local.set $se (i32.add (local.get $s) (local.get $n)))
     (local.set $blk (i32.const 0))
+    ${w === 16 ? overlapGroups16() : ''}
+    (if (i32.lt_u (local.get $blk) (local.get $pp)) (then
     (loop $block
       (local.set $a (v128.const i32x4 0 0 0 0))
       (local.set $b (v128.const i32x4 0 0 0 0))
@@ -147,38 +322,21 @@ function variant (w: Width): string {
       (v128.store (local.get $r) (local.get $a))
       (v128.store offset=16 (local.get $r) (local.get $b))
       ${w === 32 ? '(v128.store offset=32 (local.get $r) (local.get $c)) (v128.store offset=48 (local.get $r) (local.get $d))' : ''}
-      (br_if $block (i32.lt_u (local.tee $blk (i32.add (local.get $blk) (i32.const 16))) (local.get $pp)))))
+      (br_if $block (i32.lt_u (local.tee $blk (i32.add (local.get $blk) (i32.const 16))) (local.get $pp)))))))
 
   ;; One asynchronous zero-temperature sweep in the given order; returns 1 if any neuron changed.
-  (func (export "sweep${w}") (param $xi i32) (param $m i32) (param $s i32) (param $order i32) (param $n i32) (param $pp i32) (param $self i32) (result i32)
-    ${LOCALS}
-    (local $k i32) (local $ke i32) (local $i i32) (local $si i32) (local $v i32) (local $changed i32)
-    (local.set $k (local.get $order))
-    (local.set $ke (i32.add (local.get $order) (i32.shl (local.get $n) (i32.const 2))))
-    (loop $visit
-      (local.set $i (i32.load (local.get $k)))
-      (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
-      (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
-      ${dot(w)}
-      (local.set $h (i32.sub (local.get $h) (i32.mul (local.get $self) (local.get $si))))
-      (local.set $v ${DECIDE})
-      (if (i32.ne (local.get $v) (local.get $si))
-        (then
-          (i32.store8 (i32.add (local.get $s) (local.get $i)) (local.get $v))
-          (local.set $delta (i32.sub (local.get $v) (local.get $si)))
-          ${flip(w)}
-          (local.set $changed (i32.const 1))))
-      (br_if $visit (i32.lt_u (local.tee $k (i32.add (local.get $k) (i32.const 4))) (local.get $ke))))
-    (local.get $changed))
+  ${w === 16 ? sweep16Grouped() : sweepOne(w)}
 
   ;; One synchronous zero-temperature step s(t) = sign(h(s(t−1))), ties keep s_i.
   ;; Returns 1 if s(t) = s(t−1) (state left as is), 2 if s(t) = prev (checked when $check), else 0;
   ;; unless 1, prev ← s(t−1) and s, m ← s(t), m updated from the changed neurons only.
   (func (export "sync${w}") (param $xi i32) (param $m i32) (param $s i32) (param $next i32) (param $prev i32) (param $n i32) (param $pp i32) (param $self i32) (param $check i32) (result i32)
     ${LOCALS}
-    (local $i i32) (local $si i32) (local $v i32) (local $same i32)
+    (local $i i32) (local $si i32) (local $v i32) (local $same i32) ${w === 16 ? LOCALS4 : ''}
     (local.set $same (i32.const 1))
     (local.set $i (i32.const 0))
+    ${w === 16 ? syncFields16() : ''}
+    (if (i32.lt_u (local.get $i) (local.get $n)) (then
     (loop $visit
       (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
       (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
@@ -187,7 +345,7 @@ function variant (w: Width): string {
       (local.set $v ${DECIDE})
       (i32.store8 (i32.add (local.get $next) (local.get $i)) (local.get $v))
       (if (i32.ne (local.get $v) (local.get $si)) (then (local.set $same (i32.const 0))))
-      (br_if $visit (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))
+      (br_if $visit (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))))
     (if (local.get $same) (then (return (i32.const 1))))
     (if (local.get $check)
       (then
@@ -548,18 +706,18 @@ async function main (): Promise<void> {
   mod.validate()
   const { buffer } = mod.toBinary({})
   mod.destroy()
-  const hex = Buffer.from(buffer).toString('hex')
+  const base64 = Buffer.from(buffer).toString('base64')
   const lines: string[] = []
-  for (let k = 0; k < hex.length; k += 120) lines.push(`  '${hex.slice(k, k + 120)}'`)
+  for (let k = 0; k < base64.length; k += 120) lines.push(`  '${base64.slice(k, k + 120)}'`)
   const out = `// Generated by scripts/gen-kernels.ts (npm run kernels:generate). Do not edit by hand.
-// WebAssembly SIMD128 module for the overlap-space fast path; its text source and layout
-// notes live in the generator.
+// The WebAssembly SIMD128 module of the engine's fast paths; its text source, layout notes
+// and the reasons for each kernel's shape live in the generator.
 
-/** The module's bytes, hex-encoded. */
-export const OVERLAP_KERNEL_HEX =
+/** The module's bytes, base64-encoded. */
+export const KERNELS_WASM_BASE64 =
 ${lines.join(' +\n')}
 `
-  const target = process.env.KERNEL_OUT ?? fileURLToPath(new URL('../src/engine/kernels/overlap-kernel.generated.ts', import.meta.url))
+  const target = process.env.KERNEL_OUT ?? fileURLToPath(new URL('../src/engine/kernels/kernels.generated.ts', import.meta.url))
   writeFileSync(target, out)
   console.log(`wrote ${target} (${buffer.length} bytes of wasm)`)
 }

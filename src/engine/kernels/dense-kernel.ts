@@ -1,5 +1,4 @@
-import { OVERLAP_KERNEL_HEX } from './overlap-kernel.generated.js'
-import { compileOnce, wasmApi, WASM_PAGE, type WasmMemory } from './wasm.js'
+import { instantiateKernels, WASM_PAGE, type WasmMemory } from './wasm.js'
 
 /**
  * WebAssembly SIMD128 fast path of the dense network (kernel text: scripts/gen-kernels.ts).
@@ -33,15 +32,8 @@ let privateBytes = 1024 * 1024
 export function setDensePrivateBytes (bytes: number): void {
   privateBytes = bytes
 }
-const denseModule = compileOnce(OVERLAP_KERNEL_HEX)
 
-function instantiate (): DenseExports | null {
-  const api = wasmApi()
-  const mod = denseModule()
-  if (api === null || mod === null) return null
-  const k = new api.Instance(mod, { host: { exp: Math.exp } }).exports as unknown as DenseExports
-  return typeof k.denseSweep === 'function' ? k : null
-}
+const instantiate = (): DenseExports | null => instantiateKernels<DenseExports>()
 
 interface Workspace { k: DenseExports, residentId: number }
 let shared: Workspace | null | undefined

@@ -1,5 +1,4 @@
-import { OVERLAP_KERNEL_HEX } from './overlap-kernel.generated.js'
-import { areFastPathsEnabled, compileOnce, wasmApi, WASM_PAGE, type WasmMemory } from './wasm.js'
+import { areFastPathsEnabled, instantiateKernels, WASM_PAGE, type WasmMemory } from './wasm.js'
 import { Xoshiro256StarStar } from '../random/xoshiro256.js'
 import type { RandomSource } from '../random/source.js'
 
@@ -18,14 +17,11 @@ interface RandomExports {
   unbiasedRows: (out: number, n: number, count: number, state: number) => void
 }
 
-const module = compileOnce(OVERLAP_KERNEL_HEX)
 let kernel: RandomExports | null | undefined
 
 function randomKernel (): RandomExports | null {
   if (kernel === undefined) {
-    const api = wasmApi()
-    const mod = module()
-    kernel = api === null || mod === null ? null : new api.Instance(mod, { host: { exp: Math.exp } }).exports as unknown as RandomExports
+    kernel = instantiateKernels<RandomExports>()
   }
   return kernel
 }

@@ -1,5 +1,4 @@
-import { OVERLAP_KERNEL_HEX } from './overlap-kernel.generated.js'
-import { compileOnce, wasmApi, WASM_PAGE, type WasmMemory } from './wasm.js'
+import { instantiateKernels, WASM_PAGE, type WasmMemory } from './wasm.js'
 
 /**
  * WebAssembly SIMD128 fast path of the overlap-space network (kernel text and memory
@@ -53,14 +52,7 @@ export function setOverlapPrivateBytes (bytes: number): void {
 /** Largest N for int16 overlap lanes (|m_μ| ≤ N). */
 const I16_NEURONS = 32767
 
-const overlapModule = compileOnce(OVERLAP_KERNEL_HEX)
-
-function instantiate (): OverlapExports | null {
-  const api = wasmApi()
-  const mod = overlapModule()
-  if (api === null || mod === null) return null
-  return new api.Instance(mod, { host: { exp: Math.exp } }).exports as unknown as OverlapExports
-}
+const instantiate = (): OverlapExports | null => instantiateKernels<OverlapExports>()
 
 class Workspace {
   residentId = 0

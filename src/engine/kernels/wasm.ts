@@ -3,6 +3,8 @@
  * TypeScript libraries carry no WebAssembly declarations, plus the switch that lets tests
  * run the plain JavaScript path on purpose.
  */
+import { KERNELS_WASM_BASE64 } from './kernels.generated.js'
+
 export interface WasmMemory {
   readonly buffer: ArrayBuffer
   grow (pages: number): number
@@ -25,23 +27,34 @@ export function wasmApi (): WasmApi | null {
   return (globalThis as { WebAssembly?: WasmApi }).WebAssembly ?? null
 }
 
-export function hexToBytes (hex: string): Uint8Array {
-  const out = new Uint8Array(hex.length >> 1)
-  for (let k = 0; k < out.length; k++) out[k] = parseInt(hex.slice(2 * k, 2 * k + 2), 16)
+function base64ToBytes (text: string): Uint8Array {
+  const binary = atob(text)
+  const out = new Uint8Array(binary.length)
+  for (let k = 0; k < binary.length; k++) out[k] = binary.charCodeAt(k)
   return out
 }
 
-/** Compiles `hex` once; null when the host lacks WebAssembly or a feature the module uses (SIMD128). */
-export function compileOnce (hex: string): () => object | null {
-  let compiled: object | null | undefined
-  return () => {
-    if (compiled === undefined) {
-      const api = wasmApi()
-      const bytes = hexToBytes(hex)
-      compiled = api !== null && api.validate(bytes) ? new api.Module(bytes) : null
-    }
-    return compiled
+let compiled: object | null | undefined
+
+/**
+ * The engine's kernel module, compiled once per process on first use; null when the host
+ * lacks WebAssembly or a feature the module uses (SIMD128, bulk memory).
+ */
+function kernelModule (): object | null {
+  if (compiled === undefined) {
+    const api = wasmApi()
+    const bytes = base64ToBytes(KERNELS_WASM_BASE64)
+    compiled = api !== null && api.validate(bytes) ? new api.Module(bytes) : null
   }
+  return compiled
+}
+
+/** A fresh instance of the kernel module (its own linear memory), or null without WebAssembly SIMD. */
+export function instantiateKernels<T> (): T | null {
+  const api = wasmApi()
+  const mod = kernelModule()
+  if (api === null || mod === null) return null
+  return new api.Instance(mod, { host: { exp: Math.exp } }).exports as unknown as T
 }
 
 let fastPathsEnabled = true

@@ -72,8 +72,9 @@ describe('overlap-space fast path is bit-identical to the plain path', () => {
     expectSame(params({ rule: { kind: 'hebbian', selfCoupling: true }, cue: { kind: 'mixture', components: 3 }, measures: { overlapTrajectory: false, energyTrajectory: true, stability: true } }))
   })
 
-  it('a pattern count that is not a multiple of 16 and a size that is not a multiple of 64', () => {
+  it('pattern counts that are not multiples of 16 or 64, sizes that are not multiples of 64', () => {
     expectSame(params({ neurons: 203, patterns: 17 }))
+    expectSame(params({ neurons: 410, patterns: 70, dynamics: { update: 'sync' } }), 4)
   })
 
   it('int32 overlaps when N exceeds the int16 range', () => {
