@@ -13,6 +13,12 @@ import { sweepIdSchema } from '../schemas/sweep.js'
 import { visibleSweep, type RouteContext } from './context.js'
 
 const MEDIA = { json: 'application/json', csv: 'text/csv' } as const
+
+/**
+ * Most per-trial rows one download may hold. A result is rendered as one string, and about
+ * 250 bytes a trial in JSON would pass V8's string-length ceiling (~512 MiB) near 2 million.
+ */
+export const MAX_TRIAL_ROWS = 1_000_000
 type Format = keyof typeof MEDIA
 
 const resultsQuery = z.object({
@@ -62,7 +68,7 @@ export const resultRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
     schema: {
       operationId: 'getSweepResults',
       summary: 'Results of a succeeded sweep (JSON or CSV)',
-      description: 'JSON by default; CSV with `Accept: text/csv` or `?format=csv`. One row per grid point with the varied parameters, aggregated measures with uncertainties and the theory values that apply; `?trials=true` for per-trial rows. A strong ETag (sha256 of the bytes) supports If-None-Match → 304. 409 while the sweep has not succeeded.',
+      description: 'JSON by default; CSV with `Accept: text/csv` or `?format=csv`. One row per grid point with the varied parameters, aggregated measures with uncertainties and the theory values that apply; `?trials=true` for per-trial rows. A strong ETag (sha256 of the bytes) supports If-None-Match → 304. 409 while the sweep has not succeeded; 422 (limit maxTrialRows) for per-trial rows of sweeps over a million trials.',
       tags: ['sweeps'],
       params: z.object({ id: sweepIdSchema }),
       querystring: resultsQuery,
@@ -75,7 +81,7 @@ export const resultRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
           }
         },
         304: z.undefined().describe('Not modified: the ETag in If-None-Match is current.'),
-        ...problemResponses(400, 401, 404, 406, 409, 429)
+        ...problemResponses(400, 401, 404, 406, 409, 422, 429)
       }
     }
   }, async (request, reply) => {
@@ -89,6 +95,13 @@ export const resultRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
       }
       format = media === MEDIA.csv ? 'csv' : 'json'
     }
+    // Known from submission on, so refused before the sweep even finishes.
+    const perTrial = request.query.trials === 'true'
+    if (perTrial && record.progress.trialsTotal > MAX_TRIAL_ROWS) {
+      throw new ServiceError('MEMSWEEP_WORK_LIMIT_EXCEEDED', { limit: 'maxTrialRows', value: record.progress.trialsTotal, max: MAX_TRIAL_ROWS }, {
+        extensions: { limit: { name: 'maxTrialRows', value: record.progress.trialsTotal, max: MAX_TRIAL_ROWS } }
+      })
+    }
     if (record.status === 'queued' || record.status === 'running') {
       throw new ServiceError('MEMSWEEP_RESULTS_NOT_READY', { id, status: record.status }, {
         headers: { 'retry-after': '5', link: `<${sweepPath(id)}>; rel="monitor"` },
@@ -98,7 +111,6 @@ export const resultRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
     if (record.status !== 'succeeded') {
       throw new ServiceError('MEMSWEEP_RESULTS_UNAVAILABLE', { id, status: record.status }, { extensions: { sweepId: id } })
     }
-    const perTrial = request.query.trials === 'true'
     const key = `${id}\u0000${format}\u0000${perTrial ? 1 : 0}`
     let rendered = cache.get(key)
     if (rendered === undefined) {

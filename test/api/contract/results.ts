@@ -73,6 +73,14 @@ export function resultsContract (factory: QueueFactory): void {
       expect(cached.body).toBe('')
     })
 
+    it('refuses per-trial rows of a sweep over a million trials with 422 naming maxTrialRows', async () => {
+      const huge = (await h.request({ method: 'POST', url: '/v1/sweeps', payload: { neurons: 16, patterns: 1, trials: 1_000_001 } })).json()
+      const res = await h.request({ method: 'GET', url: `/v1/sweeps/${huge.id as string}/results?trials=true` })
+      expect(expectProblem(res, 422, 'MEMSWEEP_WORK_LIMIT_EXCEEDED').limit).toEqual({ name: 'maxTrialRows', value: 1_000_001, max: 1_000_000 })
+      await h.request({ method: 'DELETE', url: `/v1/sweeps/${huge.id as string}` })
+      await h.waitFor(huge.id, isTerminal)
+    })
+
     it('answers 409 while the sweep is not finished, 406 for an unavailable media type', async () => {
       const running = (await h.request({ method: 'POST', url: '/v1/sweeps', payload: slowSpec() })).json()
       const res = await h.request({ method: 'GET', url: `/v1/sweeps/${running.id}/results` })
