@@ -433,7 +433,7 @@ function transpose (): string {
   const decl: string[] = []
   for (let k = 0; k < 16; k++) decl.push(`(local $v${k} v128) (local $w${k} v128)`)
   const loads: string[] = []
-  for (let r = 0; r < 16; r++) loads.push(`(local.set $v${r} (v128.load (i32.add (local.get $in) (i32.mul (i32.const ${r}) (local.get $np)))))`)
+  for (let r = 0; r < 16; r++) loads.push(`(local.set $v${r} (v128.load (i32.add (local.get $in) (i32.mul (i32.const ${r}) (local.get $srcStride)))))`)
   const rounds: string[] = []
   for (let round = 0; round < 4; round++) {
     const [from, to] = round % 2 === 0 ? ['v', 'w'] : ['w', 'v']
@@ -445,21 +445,21 @@ function transpose (): string {
   const stores: string[] = []
   for (let c = 0; c < 16; c++) stores.push(`(v128.store (i32.add (local.get $out) (i32.mul (i32.const ${c}) (local.get $stride))) (local.get $v${c}))`)
   return `
-  ;; dst[i·stride + μ] = src[μ·np + i] for i < np, μ < rows (np, rows multiples of 16).
-  (func (export "transpose") (param $src i32) (param $np i32) (param $dst i32) (param $stride i32) (param $rows i32)
+  ;; dst[i·stride + μ] = src[μ·srcStride + i] for i < cols, μ < rows (cols, rows multiples of 16).
+  (func (export "transpose") (param $src i32) (param $srcStride i32) (param $cols i32) (param $dst i32) (param $stride i32) (param $rows i32)
     (local $ti i32) (local $tm i32) (local $in i32) (local $out i32)
     ${decl.join(' ')}
     (local.set $ti (i32.const 0))
-    (loop $cols
+    (loop $tiles
       (local.set $tm (i32.const 0))
       (loop $rows
-        (local.set $in (i32.add (local.get $src) (i32.add (i32.mul (local.get $tm) (local.get $np)) (local.get $ti))))
+        (local.set $in (i32.add (local.get $src) (i32.add (i32.mul (local.get $tm) (local.get $srcStride)) (local.get $ti))))
         (local.set $out (i32.add (local.get $dst) (i32.add (i32.mul (local.get $ti) (local.get $stride)) (local.get $tm))))
         ${loads.join('\n        ')}
         ${rounds.join('\n        ')}
         ${stores.join('\n        ')}
         (br_if $rows (i32.lt_u (local.tee $tm (i32.add (local.get $tm) (i32.const 16))) (local.get $rows))))
-      (br_if $cols (i32.lt_u (local.tee $ti (i32.add (local.get $ti) (i32.const 16))) (local.get $np)))))`
+      (br_if $tiles (i32.lt_u (local.tee $ti (i32.add (local.get $ti) (i32.const 16))) (local.get $cols)))))`
 }
 
 /**

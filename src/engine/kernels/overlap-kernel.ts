@@ -36,7 +36,7 @@ interface OverlapExports {
   glauber32: (xi: number, m: number, s: number, order: number, noise: number, n: number, pp: number, self: number, factor: number) => void
   glauberSync16: (xi: number, m: number, s: number, next: number, noise: number, n: number, pp: number, self: number, factor: number) => void
   glauberSync32: (xi: number, m: number, s: number, next: number, noise: number, n: number, pp: number, self: number, factor: number) => void
-  transpose: (src: number, np: number, dst: number, stride: number, rows: number) => void
+  transpose: (src: number, srcStride: number, cols: number, dst: number, stride: number, rows: number) => void
 }
 
 /**
@@ -80,6 +80,8 @@ function workspaceFor (bytes: number): Workspace | null {
 }
 
 const align16 = (x: number): number => (x + 15) & ~15
+/** Bound on the staging area of private networks. */
+const STAGE_BYTES = 1024 * 1024
 
 /** The fast-path names recorded in provenance. */
 export type OverlapKernelName = 'wasm-simd128-overlap-i16' | 'wasm-simd128-overlap-i32'
@@ -117,6 +119,7 @@ export class OverlapKernel {
   private readonly orderAt: number
   private readonly noiseAt: number
   private readonly stageAt: number
+  private readonly stageRows: number
   private readonly end: number
   private buffer: ArrayBuffer | null = null
   private u8 = new Uint8Array(0)
@@ -154,24 +157,31 @@ export class OverlapKernel {
     this.orderAt = align16(this.prevAt + n)
     this.noiseAt = align16(this.orderAt + 4 * n)
     this.stageAt = align16(this.noiseAt + 8 * n)
-    this.end = this.stageAt + 16 * np
+    // Pattern rows staged for the transposer in chunks of about STAGE_BYTES (multiples of 16
+    // rows), so no second pattern-sized buffer stays behind in a private memory.
+    this.stageRows = Math.min(pp, Math.max(16, Math.floor(STAGE_BYTES / n / 16) * 16))
+    this.end = this.stageAt + this.stageRows * n + 32
     this.isPrivate = ws !== sharedWorkspace
     ws.reserve(this.end)
     this.xi = this.isPrivate ? new Int8Array(ws.k.memory.buffer, 0, n * pp) : new Int8Array(n * pp)
   }
 
-  /** Fills `xi` from pattern-major ±1 patterns (patterns[μ·N + i]), 16 patterns at a time. */
+  /**
+   * Fills `xi` from pattern-major ±1 patterns (patterns[μ·N + i]): rows are staged as they
+   * are (stride N) and transposed 16×16 at a time. Columns past N read the next row; they land
+   * in rows i ≥ N of the layout, which no visit reads. Missing patterns of the last block are
+   * staged as zeros, so the padding entries of every real row are 0.
+   */
   loadPatterns (patterns: Int8Array): void {
     const { n, p } = this
-    const np = align16(n)
     this.enter(false)
     const u8 = this.u8
-    const stage = new Int8Array(u8.buffer, this.stageAt, 16 * np)
-    for (let mu0 = 0; mu0 < p; mu0 += 16) {
-      stage.fill(0)
-      const rows = Math.min(16, p - mu0)
-      for (let r = 0; r < rows; r++) stage.set(patterns.subarray((mu0 + r) * n, (mu0 + r + 1) * n), r * np)
-      this.k.transpose(this.stageAt, np, this.xiAt + mu0, this.stride, 16)
+    for (let mu0 = 0; mu0 < p; mu0 += this.stageRows) {
+      const rows = Math.min(this.stageRows, p - mu0)
+      const padded = align16(rows)
+      u8.set(new Uint8Array(patterns.buffer, patterns.byteOffset + mu0 * n, rows * n), this.stageAt)
+      u8.fill(0, this.stageAt + rows * n, this.stageAt + padded * n + 32)
+      this.k.transpose(this.stageAt, n, align16(n), this.xiAt + mu0, this.stride, padded)
     }
     if (!this.isPrivate) this.xi.set(new Int8Array(u8.buffer, this.xiAt, n * this.stride))
   }

@@ -77,8 +77,8 @@ describe('overlap-space fast path is bit-identical to the plain path', () => {
     expectSame(params({ neurons: 410, patterns: 70, dynamics: { update: 'sync' } }), 4)
   })
 
-  it('int32 overlaps when N exceeds the int16 range', () => {
-    const p = params({ neurons: 33_000, patterns: 3, cue: { kind: 'flip', fraction: 0.3 }, dynamics: { maxSweeps: 3 }, measures: { overlapTrajectory: false, energyTrajectory: false, stability: false } })
+  it('int32 overlaps when N exceeds the int16 range; patterns staged in several chunks', () => {
+    const p = params({ neurons: 33_000, patterns: 40, cue: { kind: 'flip', fraction: 0.3 }, dynamics: { maxSweeps: 3 }, measures: { overlapTrajectory: false, energyTrajectory: false, stability: false } })
     expectSame(p, 2, 'wasm-simd128-overlap-i32')
   })
 
