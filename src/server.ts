@@ -8,6 +8,7 @@ import { parseEnv } from 'node:util'
 import { pathToFileURL } from 'node:url'
 import closeWithGrace from 'close-with-grace'
 import type { FastifyInstance } from 'fastify'
+import type { Redis } from 'ioredis'
 import { buildApp } from './api/app.js'
 import type { SweepQueue } from './backends/port.js'
 import { ConfigError, loadConfig, type Config } from './config.js'
@@ -39,24 +40,34 @@ export async function startServer (env: Record<string, string | undefined>, logg
   const config = loadConfig(env)
   const log = logger ?? createLogger({ level: config.logLevel, name: 'memsweep' })
   const queue = await createQueue(config, log)
-  const app = buildApp({ config, queue, logger: log })
+  let rateLimitRedis: Redis | undefined
+  let app: FastifyInstance | undefined
+  const closeAll = async (): Promise<void> => {
+    await app?.close()
+    await queue.close()
+    if (rateLimitRedis !== undefined) await closeConnection(rateLimitRedis)
+  }
   try {
+    if (config.redisUrl !== null) {
+      // API instances behind one load balancer share their rate-limit counters.
+      const { openConnection } = await import('./backends/redis/connections.js')
+      rateLimitRedis = await openConnection(config.redisUrl, 'producer', 'memsweep:api-rate-limit')
+    }
+    app = buildApp({ config, queue, logger: log, ...(rateLimitRedis === undefined ? {} : { rateLimitRedis }) })
     const address = await app.listen({ port: config.port, host: config.host })
     log.info({ address, backend: queue.kind, dataDir: queue.kind === 'embedded' ? config.dataDir : undefined, tokens: config.tokensFile !== null }, 'memsweep listening')
     let closing: Promise<void> | null = null
-    const close = async (): Promise<void> => {
-      closing ??= (async () => {
-        await app.close()
-        await queue.close()
-      })()
-      return await closing
-    }
-    return { app, queue, address, close }
+    const running = app
+    return { app: running, queue, address, close: async () => { closing ??= closeAll(); return await closing } }
   } catch (error) {
-    await app.close().catch(() => undefined)
-    await queue.close().catch(() => undefined)
+    await closeAll().catch(() => undefined)
     throw error
   }
+}
+
+async function closeConnection (redis: Redis): Promise<void> {
+  const { closeConnection: close } = await import('./backends/redis/connections.js')
+  await close(redis)
 }
 
 /**

@@ -7,6 +7,7 @@ import fastifyRateLimit from '@fastify/rate-limit'
 import fastifySwagger from '@fastify/swagger'
 import Fastify, { type FastifyInstance, type FastifyServerOptions } from 'fastify'
 import { jsonSchemaTransform, serializerCompiler, validatorCompiler, type ZodTypeProvider } from 'fastify-type-provider-zod'
+import type { Redis } from 'ioredis'
 import type { Logger } from 'pino'
 import type { SweepQueue } from '../backends/port.js'
 import type { Config } from '../config.js'
@@ -32,6 +33,11 @@ export interface AppDependencies {
   logger: Logger
   /** Already loaded tokens; by default they are read from config.tokensFile when the app starts. */
   tokens?: TokenTable | null
+  /**
+   * A Redis connection for rate-limit counters shared by every API instance (keys under
+   * `<REDIS_PREFIX>:rate:`); without it each instance counts on its own.
+   */
+  rateLimitRedis?: Redis
 }
 
 /** A client-supplied X-Request-Id is kept when it is short and plain, so logs can be joined across services. */
@@ -91,6 +97,10 @@ export function buildApp (deps: AppDependencies): FastifyInstance {
     timeWindow: config.rateLimit.windowSeconds * 1000,
     // After authentication, so a lab's users behind one NAT address do not share a budget.
     hook: 'preParsing',
+    ...(deps.rateLimitRedis === undefined
+      ? {}
+      // A Redis hiccup must not take the API down: requests pass uncounted until it is back.
+      : { redis: deps.rateLimitRedis, nameSpace: `${config.redisPrefix}:rate:`, skipOnError: true }),
     keyGenerator: (request) => request.principal?.owner !== null && request.principal?.owner !== undefined
       ? `owner:${request.principal.owner}`
       : `ip:${request.ip}`,
