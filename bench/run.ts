@@ -4,7 +4,7 @@
  * when their toolchains exist, adds the N = 100,000 scale run and the memory report, and
  * writes bench/RESULTS.md.
  *
- * Environment: ENGINE_REPS (5), PLAIN_REPS (3), C_REPS (5), NP_REPS (3), PEERS_DIR
+ * Environment: ENGINE_REPS (5), PLAIN_REPS (3), C_REPS (5), NP_REPS (3), WARM_REPEATS (5), PEERS_DIR
  * (../shared/bench), SKIP_PEERS, SKIP_PLAIN, SKIP_SCALE, RESULTS (bench/RESULTS.md).
  */
 import { cpus, freemem, loadavg, totalmem } from 'node:os'
@@ -28,12 +28,13 @@ const started = Date.now()
 const loadBefore = loadavg().map((x) => x.toFixed(2)).join(' ')
 const peers = env.SKIP_PEERS ? null : preparePeers(resolve(env.PEERS_DIR ?? join(root, '..', 'shared', 'bench')))
 const notes = peers?.notes ?? ['peers skipped (SKIP_PEERS set)']
-const engine = (workload: string, path: string): string[] => [process.execPath, '--import', 'tsx', join(here, 'workload.ts'), workload, path, '1']
+const warm = Number(env.WARM_REPEATS ?? 5)
+const engine = (workload: string, path: string, warmRepeats = 0): string[] => [process.execPath, '--import', 'tsx', join(here, 'workload.ts'), workload, path, '1', String(warmRepeats)]
 
 interface Job { label: string, reps: number, workload: string, command: string[], cwd?: string }
 const jobs: Job[] = []
 for (const w of ['W1', 'W2', 'W3', 'W4']) {
-  jobs.push({ label: 'memsweep', reps: reps.ENGINE_REPS, workload: w, command: engine(w, 'fast') })
+  jobs.push({ label: 'memsweep', reps: reps.ENGINE_REPS, workload: w, command: engine(w, 'fast', warm) })
   jobs.push({ label: 'memsweep', reps: reps.PLAIN_REPS, workload: w, command: engine(w, 'plain') })
   if (peers?.cBinary) {
     jobs.push({ label: 'c', reps: reps.C_REPS, workload: w, command: [peers.cBinary, w, 'ovl', '1'] })
@@ -78,7 +79,7 @@ const ctx: Context = {
   python: peers?.python ?? 'not probed',
   loadBefore,
   loadAfter: loadavg().map((x) => x.toFixed(2)).join(' '),
-  reps,
+  reps: { ...reps, WARM_REPEATS: warm },
   notes: [...notes, `free memory at the end ${(freemem() / 2 ** 30).toFixed(1)} GiB`],
   seconds: (Date.now() - started) / 1000
 }

@@ -1,5 +1,6 @@
 /**
- * One benchmark measurement in a fresh process: `node --import tsx bench/workload.ts <W1|W2|W3|W4|SCALE|BASELINE> <fast|plain> [seed]`.
+ * One benchmark measurement in a fresh process:
+ * `node --import tsx bench/workload.ts <W1|W2|W3|W4|SCALE|BASELINE> <fast|plain> [seed] [warm repeats]`.
  * Prints one JSON line with the keys the shared peers print (WORKLOADS.md §8), so engine
  * and peer runs land in the same tables. Timing is in-process with a monotonic clock;
  * module loading is excluded, JIT warm-up inside the timed region counts.
@@ -7,7 +8,8 @@
 import { runCapacityWorkload, runSharedNetworkWorkload, summarize, workloadParams } from './canonical.js'
 import { setFastPathsEnabled } from '../src/engine/kernels/wasm.js'
 
-const [workload = 'W1', path = 'fast', seedArg = '1'] = process.argv.slice(2)
+const [workload = 'W1', path = 'fast', seedArg = '1', warmArg = '0'] = process.argv.slice(2)
+const warmRepeats = Number(warmArg)
 const seed = Number(seedArg)
 if (path !== 'fast' && path !== 'plain') throw new Error(`path must be fast or plain, not ${path}`)
 setFastPathsEnabled(path === 'fast')
@@ -57,35 +59,46 @@ function sdSample (xs: number[]): number {
   return Math.sqrt(xs.reduce((a, x) => a + (x - mean) * (x - mean), 0) / (n - 1))
 }
 
-let out: Record<string, unknown>
-switch (workload) {
-  case 'W1': out = shared('W1', 1000, 100, 100, 'async-random', 200); break
-  case 'W3': out = shared('W3', 4000, 400, 400, 'async-random', 20); break
-  case 'W4': out = shared('W4', 1000, 100, 100, 'sync', 200); break
-  case 'SCALE': out = shared('SCALE', 100_000, 5000, 10_000, 'async-random', 1); break
-  case 'W2': {
-    const r = runCapacityWorkload(seed)
-    out = {
-      impl,
-      workload: 'W2',
-      variant,
-      fast_path: r.fastPath,
-      seed,
-      N: 500,
-      trials_per_alpha: 50,
-      alpha: r.alphas,
-      success: r.success,
-      mean_overlap: r.meanOverlap,
-      mean_sweeps: r.meanSweeps,
-      updates: r.updates,
-      total_s: r.totalSeconds,
-      trials_per_s: 600 / r.totalSeconds,
-      updates_per_s: r.updates / r.totalSeconds,
-      self_maxrss_kb: selfRssKb()
+function once (): Record<string, unknown> {
+  switch (workload) {
+    case 'W1': return shared('W1', 1000, 100, 100, 'async-random', 200)
+    case 'W3': return shared('W3', 4000, 400, 400, 'async-random', 20)
+    case 'W4': return shared('W4', 1000, 100, 100, 'sync', 200)
+    case 'SCALE': return shared('SCALE', 100_000, 5000, 10_000, 'async-random', 1)
+    case 'W2': {
+      const r = runCapacityWorkload(seed)
+      return {
+        impl,
+        workload: 'W2',
+        variant,
+        fast_path: r.fastPath,
+        seed,
+        N: 500,
+        trials_per_alpha: 50,
+        alpha: r.alphas,
+        success: r.success,
+        mean_overlap: r.meanOverlap,
+        mean_sweeps: r.meanSweeps,
+        updates: r.updates,
+        total_s: r.totalSeconds,
+        trials_per_s: 600 / r.totalSeconds,
+        updates_per_s: r.updates / r.totalSeconds,
+        self_maxrss_kb: selfRssKb()
+      }
     }
-    break
+    case 'BASELINE': return { impl, workload: 'BASELINE', variant, self_maxrss_kb: selfRssKb() }
+    default: throw new Error(`unknown workload ${workload}`)
   }
-  case 'BASELINE': out = { impl, workload: 'BASELINE', variant, self_maxrss_kb: selfRssKb() }; break
-  default: throw new Error(`unknown workload ${workload}`)
+}
+
+const out = once()
+if (warmRepeats > 0) {
+  const key = workload === 'W2' ? 'total_s' : 'sim_s'
+  const times: number[] = []
+  for (let k = 0; k < warmRepeats; k++) times.push(once()[key] as number)
+  times.sort((a, b) => a - b)
+  out.warm_s = times[times.length >> 1]
+  out.warm_repeats = warmRepeats
+  out.self_maxrss_kb = selfRssKb()
 }
 console.log(JSON.stringify(out))
