@@ -80,7 +80,14 @@ export class DenseKernel {
       }
       ws = shared
     }
-    return ws === null ? null : new DenseKernel(ws, columns, bias, n, exactColumns)
+    if (ws === null) return null
+    try {
+      return new DenseKernel(ws, columns, bias, n, exactColumns)
+    } catch (error) {
+      // The host refused to grow the kernel memory: keep the plain path.
+      if (error instanceof RangeError) return null
+      throw error
+    }
   }
 
   private constructor (ws: Workspace, columns: Float64Array, bias: Float64Array, n: number, exactColumns: boolean) {

@@ -136,7 +136,14 @@ export class OverlapKernel {
     if (name === null) return null
     const stride = align16(patterns)
     const ws = workspaceFor(align16(neurons) * stride)
-    return ws === null ? null : new OverlapKernel(ws, name, neurons, patterns, selfTerm)
+    if (ws === null) return null
+    try {
+      return new OverlapKernel(ws, name, neurons, patterns, selfTerm)
+    } catch (error) {
+      // The host refused to grow the kernel memory: the plain path needs less, so use it.
+      if (error instanceof RangeError) return null
+      throw error
+    }
   }
 
   private constructor (ws: Workspace, name: OverlapKernelName, n: number, p: number, selfTerm: number) {
