@@ -55,7 +55,7 @@ export async function startServer (env: Record<string, string | undefined>, logg
     }
     app = buildApp({ config, queue, logger: log, ...(rateLimitRedis === undefined ? {} : { rateLimitRedis }) })
     const address = await app.listen({ port: config.port, host: config.host })
-    log.info({ address, backend: queue.kind, dataDir: queue.kind === 'embedded' ? config.dataDir : undefined, tokens: config.tokensFile !== null }, 'memsweep listening')
+    log.info({ address, backend: queue.kind, dataDir: queue.kind === 'embedded' ? config.dataDir : undefined, tokensRequired: config.tokensFile !== null }, 'memsweep listening')
     let closing: Promise<void> | null = null
     const running = app
     return { app: running, queue, address, close: async () => { closing ??= closeAll(); return await closing } }
