@@ -14,6 +14,7 @@ import { planChunks, type NormalisedSpec } from '../spec/index.js'
 import { TERMINAL_STATUSES, type SweepStatus } from '../backends/port.js'
 import { ChunkQueue, DEFAULT_RETRY_POLICY, type AssembleJobData, type ChunkJobData, type ChunkRetryPolicy, type SweepJobName } from '../backends/redis/chunk-queue.js'
 import { closeConnection, openConnection, redactUrl, workerConnectionOptions } from '../backends/redis/connections.js'
+import { EpochWatch } from '../backends/redis/data-loss.js'
 import { publishStop, publishSweepEvent } from '../backends/redis/events.js'
 import { CHUNK_QUEUE_NAME, keyLayout } from '../backends/redis/keys.js'
 import { checkRedisSettings } from '../backends/redis/settings.js'
@@ -122,7 +123,7 @@ export async function startWorker (options: WorkerProcessOptions): Promise<Runni
     throw error
   }
   const store = new RedisSweepStore(redis, keys, retentionSeconds)
-  const chunkQueue = new ChunkQueue(redis, keys, retry)
+  const chunkQueue = new ChunkQueue(redis, keys, retry, (err) => logger.warn({ err: err.message }, 'chunk queue error'))
   const stopBuffer = createStopBoardBuffer()
   const board = new StopBoardWriter(stopBuffer)
   const sandbox: SandboxSettings = {
@@ -224,15 +225,20 @@ export async function startWorker (options: WorkerProcessOptions): Promise<Runni
   })
   await subscriber.subscribe(keys.stopChannel)
 
+  const epoch = new EpochWatch(redis, keys.epoch, logger)
+  await epoch.start()
   // Safety net for stop messages lost while the subscriber reconnected.
   const statusPoll = setInterval(() => {
     pollStatuses(store, running.sweeps()).then((stopped) => {
       for (const [sweepId, status] of stopped) stopSweep(sweepId, `sweep is ${status}`)
+      return epoch.check()
     }).catch((err: unknown) => logger.warn({ err }, 'cannot poll sweep statuses'))
   }, options.statusPollMs ?? 2000)
-  const repair = setInterval(() => {
+  const repairForgotten = (): void => {
     enqueueForgotten(store, chunkQueue, logger).catch((err: unknown) => logger.warn({ err }, 'cannot repair unenqueued sweeps'))
-  }, UNENQUEUED_REPAIR_AGE_MS)
+  }
+  const repair = setInterval(repairForgotten, UNENQUEUED_REPAIR_AGE_MS)
+  repairForgotten()
 
   await Promise.all([worker.waitUntilReady(), failures.waitUntilReady()])
   worker.run().catch((err: unknown) => logger.error({ err }, 'worker loop stopped'))

@@ -30,8 +30,11 @@ function noisyRecallSpec (overrides: Record<string, unknown> = {}): NormalisedSp
   })
 }
 
-/** Stalled-job recovery in seconds rather than BullMQ's production default of about 30 s. */
-const FAST_RECOVERY = { lockDurationMs: 2000, stalledIntervalMs: 1000 }
+/**
+ * Stalled-job recovery in seconds rather than BullMQ's production default of about 30 s, and
+ * progress lines several times a second, so "mid-chunk" is a moment the test can see.
+ */
+const FAST_RECOVERY = { lockDurationMs: 2000, stalledIntervalMs: 1000, progressIntervalMs: 200 }
 
 const isProgressOf = (sweepId: string) => (line: WorkerLine): boolean => line.type === 'progress' && 'sweepId' in line && line.sweepId === sweepId
 
@@ -132,7 +135,7 @@ describe.runIf(available)('Redis backend: worker processes', () => {
   it('hands a running chunk back to the queue when its worker gets SIGTERM and the grace period runs out', async () => {
     const queue = await openQueue()
     const leaving = await spawn({ shutdownGraceMs: 200 })
-    const spec = noisyRecallSpec({ load: 0.1, trials: 200, seed: 29 })
+    const spec = noisyRecallSpec({ load: 0.1, trials: 300, seed: 29 })
     const submitted = await queue.submit({ spec, owner: null })
     const running = await leaving.waitFor(isProgressOf(submitted.id))
     const handedBack = (running as { jobId: string }).jobId

@@ -19,6 +19,16 @@ if (!installed && process.env.MEMSWEEP_REQUIRE_REDIS === '1') {
   throw new Error('MEMSWEEP_REQUIRE_REDIS=1 but redis-server is not installed: the Redis restart tests cannot run.')
 }
 
+/** A log destination that keeps parsed lines, to assert on what was logged. */
+function collect (lines: Array<{ level: number, msg: string }>): Writable {
+  return new Writable({
+    write (chunk: Buffer, _encoding, done) {
+      lines.push(JSON.parse(chunk.toString()) as { level: number, msg: string })
+      done()
+    }
+  })
+}
+
 describe.runIf(installed)('Redis backend: Redis restarts and settings', () => {
   const logger = quietLogger()
   const cleanups: Array<() => Promise<void>> = []
@@ -49,11 +59,12 @@ describe.runIf(installed)('Redis backend: Redis restarts and settings', () => {
       neurons: 300,
       load: { values: [0.05, 0.08, 0.11, 0.14, 0.17, 0.2] },
       dynamics: { temperature: 0.3, maxSweeps: 100, burnIn: 20 },
-      trials: 60,
+      trials: 120,
       seed: 41
     })
     const submitted = await queue.submit({ spec, owner: null })
-    await waitForRecord(queue, submitted.id, record => record.progress.chunksDone >= 1)
+    const before = await waitForRecord(queue, submitted.id, record => record.progress.chunksDone >= 1)
+    expect(before.progress.chunksDone).toBeLessThan(before.progress.chunksTotal)
 
     await server.crash()
     await server.restart()
@@ -81,6 +92,20 @@ describe.runIf(installed)('Redis backend: Redis restarts and settings', () => {
     await expect.poll(() => queue.ready(), { timeout: 10_000, interval: 100 }).toEqual({ ok: true })
   })
 
+  it('says loudly that Redis lost its data when it restarts without persistence', async () => {
+    const server = await privateRedis(['--appendonly', 'no'])
+    const lines: Array<{ level: number, msg: string }> = []
+    const queue = await createRedisQueue({ url: server.url, prefix: testPrefix(), logger: pino({ level: 'warn' }, collect(lines)) })
+    cleanups.push(() => queue.close())
+    const submitted = await queue.submit({ spec: normaliseSpec({ label: 'lost room', neurons: 60, patterns: 3, trials: 4, seed: 1 }), owner: null })
+
+    await server.crash()
+    await server.restart()
+    await expect.poll(() => queue.ready(), { timeout: 10_000, interval: 100 }).toEqual({ ok: true })
+    expect(lines.some(line => line.level === 50 && /REDIS LOST MEMSWEEP DATA/.test(line.msg))).toBe(true)
+    expect(await queue.get(submitted.id)).toBeNull()
+  })
+
   it('refuses a Redis that may evict keys, unless explicitly allowed', async () => {
     const server = await privateRedis(['--maxmemory-policy', 'allkeys-lru'])
     const prefix = testPrefix()
@@ -99,13 +124,7 @@ describe.runIf(installed)('Redis backend: Redis restarts and settings', () => {
     await redis.config('SET', 'appendonly', 'no')
     expect((await inspectRedisSettings(redis)).persistence).toBe('off')
     const lines: Array<{ level: number, msg: string }> = []
-    const sink = new Writable({
-      write (chunk: Buffer, _encoding, done) {
-        lines.push(JSON.parse(chunk.toString()) as { level: number, msg: string })
-        done()
-      }
-    })
-    const queue = await createRedisQueue({ url: server.url, prefix: testPrefix(), logger: pino({ level: 'warn' }, sink) })
+    const queue = await createRedisQueue({ url: server.url, prefix: testPrefix(), logger: pino({ level: 'warn' }, collect(lines)) })
     await queue.close()
     expect(lines.some(line => line.level === 40 && /persistence is OFF/.test(line.msg))).toBe(true)
   })

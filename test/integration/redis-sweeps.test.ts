@@ -7,6 +7,8 @@ import { Redis } from 'ioredis'
 import { IdempotencyConflictError, type SweepQueue, type SweepRecord } from '../../src/backends/port.js'
 import { createRedisQueue } from '../../src/backends/redis/index.js'
 import { keyLayout } from '../../src/backends/redis/keys.js'
+import { RedisSweepStore, type NewSweep } from '../../src/backends/redis/store.js'
+import { countPoints, planChunks, specHash, type NormalisedSpec } from '../../src/spec/index.js'
 import { startWorker, type RunningWorker } from '../../src/worker/main.js'
 import {
   computeInProcess, corridorSpec, quietLogger, REDIS_URL, redisAvailable, removePrefix, resultBytes, roomCodesSpec,
@@ -62,8 +64,9 @@ describe.runIf(available)('Redis backend: sweeps through the queue port', () => 
     expect(result?.provenance.cpuSeconds).toBeGreaterThan(0)
     expect(resultBytes(result!)).toBe(resultBytes(computeInProcess(spec)))
 
-    const stats = await queue.stats()
-    expect(stats).toMatchObject({ queued: 0, running: 0, succeeded: 1, failed: 0, canceled: 0, chunksWaiting: 0, chunksActive: 0 })
+    expect(await queue.stats()).toMatchObject({ queued: 0, running: 0, succeeded: 1, failed: 0, canceled: 0, chunksWaiting: 0 })
+    // The assembly job stores the result a moment before BullMQ marks the job itself completed.
+    await expect.poll(async () => (await queue.stats()).chunksActive, { timeout: 5000, interval: 20 }).toBe(0)
     expect(await queue.ready()).toEqual({ ok: true })
   })
 
@@ -139,6 +142,47 @@ describe.runIf(available)('Redis backend: sweeps through the queue port', () => 
     expect(listed.items).toHaveLength(2)
     // The repeat enqueued nothing new: one job per chunk of each sweep.
     expect((await queue.stats()).chunksWaiting).toBe(2 * first.progress.chunksTotal)
+  })
+
+  it('finishes a sweep whose API instance died between storing it and enqueueing its chunks', async () => {
+    // What the dying instance left behind: the record and its index entries, but no jobs.
+    const redis = new Redis(REDIS_URL)
+    const store = new RedisSweepStore(redis, keyLayout(prefix), 3600)
+    const storeOnly = async (spec: NormalisedSpec, createdMs: number, idempotencyKey?: string): Promise<string> => {
+      const plan = planChunks(spec)
+      const perPoint = new Map<number, number>()
+      for (const chunk of plan) perPoint.set(chunk.point, (perPoint.get(chunk.point) ?? 0) + 1)
+      const sweep: NewSweep = {
+        id: crypto.randomUUID(),
+        owner: null,
+        label: spec.label,
+        specHash: specHash(spec),
+        spec,
+        createdMs,
+        pointsTotal: countPoints(spec),
+        trialsTotal: plan.reduce((sum, chunk) => sum + chunk.count, 0),
+        chunksTotal: plan.length,
+        chunksPerPoint: perPoint
+      }
+      await store.create(sweep, idempotencyKey === undefined ? {} : { idempotency: { key: idempotencyKey, ttlSeconds: 60 } })
+      return sweep.id
+    }
+    try {
+      // Long forgotten: any worker enqueues it when it starts (and every 30 s after).
+      const forgotten = await storeOnly(roomCodesSpec({ seed: 41 }), Date.now() - 60_000)
+      // Just interrupted: the client's retry with the same Idempotency-Key completes the submission.
+      const retriedSpec = roomCodesSpec({ seed: 42 })
+      const retried = await storeOnly(retriedSpec, Date.now(), 'upload-3')
+      expect((await queue.stats()).chunksWaiting).toBe(0)
+      expect((await queue.submit({ spec: retriedSpec, owner: null, idempotencyKey: 'upload-3' })).id).toBe(retried)
+
+      await worker()
+      expect((await waitForTerminal(queue, forgotten)).status).toBe('succeeded')
+      expect((await waitForTerminal(queue, retried)).status).toBe('succeeded')
+      expect(resultBytes((await queue.results(retried))!)).toBe(resultBytes(computeInProcess(retriedSpec)))
+    } finally {
+      redis.disconnect()
+    }
   })
 
   it('reuses the finished results of an identical spec of the same owner when asked', async () => {

@@ -47,8 +47,13 @@ const REMOVE_BATCH = 100
 export class ChunkQueue {
   readonly queue: Queue
 
-  constructor (connection: Redis, readonly keys: KeyLayout, readonly retry: ChunkRetryPolicy = DEFAULT_RETRY_POLICY) {
+  /**
+   * @param onError - told of connection errors; without a listener BullMQ's 'error' event
+   *   would throw and take the process (or sandbox thread) down during a Redis restart.
+   */
+  constructor (connection: Redis, readonly keys: KeyLayout, readonly retry: ChunkRetryPolicy = DEFAULT_RETRY_POLICY, onError: (error: Error) => void = () => {}) {
     this.queue = new Queue(CHUNK_QUEUE_NAME, { connection, prefix: keys.bullPrefix, skipWaitingForReady: true })
+    this.queue.on('error', onError)
   }
 
   #jobOptions (jobId: string): JobsOptions {

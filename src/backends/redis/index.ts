@@ -15,6 +15,7 @@ import { ChunkQueue, DEFAULT_RETRY_POLICY, type ChunkRetryPolicy } from './chunk
 import { closeConnection, openConnection, redactUrl } from './connections.js'
 import { publishStop, publishSweepEvent, SweepEventHub } from './events.js'
 import { keyLayout, type KeyLayout } from './keys.js'
+import { EpochWatch } from './data-loss.js'
 import { checkRedisSettings } from './settings.js'
 import { RedisSweepStore, type NewSweep } from './store.js'
 
@@ -77,11 +78,12 @@ export async function createRedisQueue (options: RedisQueueOptions): Promise<Swe
   subscriber.on('error', (err) => logger.warn({ err: err.message }, 'Redis subscriber error'))
   const keys = keyLayout(prefix)
   const store = new RedisSweepStore(producer, keys, options.retentionSeconds ?? DEFAULT_RETENTION_SECONDS)
-  const chunks = new ChunkQueue(producer, keys, { ...DEFAULT_RETRY_POLICY, ...options.retry })
-  chunks.queue.on('error', (err) => logger.warn({ err: err.message }, 'chunk queue error'))
+  const chunks = new ChunkQueue(producer, keys, { ...DEFAULT_RETRY_POLICY, ...options.retry }, (err) => logger.warn({ err: err.message }, 'chunk queue error'))
   const hub = new SweepEventHub(subscriber, keys, id => store.get(id), logger, options.eventPollMs ?? 2000)
+  const epoch = new EpochWatch(producer, keys.epoch, logger)
+  await epoch.start()
   logger.info({ redis: redactUrl(options.url), prefix }, 'Redis queue ready')
-  return new RedisQueue(producer, subscriber, keys, store, chunks, hub, options.idempotencyTtlSeconds ?? DEFAULT_IDEMPOTENCY_TTL_SECONDS, logger)
+  return new RedisQueue(producer, subscriber, keys, store, chunks, hub, epoch, options.idempotencyTtlSeconds ?? DEFAULT_IDEMPOTENCY_TTL_SECONDS, logger)
 }
 
 class RedisQueue implements SweepQueue {
@@ -95,6 +97,7 @@ class RedisQueue implements SweepQueue {
     readonly store: RedisSweepStore,
     readonly chunks: ChunkQueue,
     readonly hub: SweepEventHub,
+    readonly epoch: EpochWatch,
     readonly idempotencyTtlSeconds: number,
     readonly logger: Logger
   ) {}
@@ -197,6 +200,8 @@ class RedisQueue implements SweepQueue {
         this.producer.ping(),
         new Promise((_resolve, reject) => { timer = setTimeout(() => reject(new Error('timeout')), READY_TIMEOUT_MS) })
       ])
+      // Readiness probes run often: a cheap place to notice (and log loudly) that Redis lost its data.
+      await this.epoch.check()
       if (this.subscriber.status !== 'ready') return { ok: false, detail: 'the Redis event subscriber is reconnecting' }
       return { ok: true }
     } catch (error) {

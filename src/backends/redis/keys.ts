@@ -37,6 +37,8 @@ export interface KeyLayout {
   unenqueued: string
   /** Pub/sub channel: ids of sweeps whose running chunks must stop (canceled or failed). */
   stopChannel: string
+  /** String: a random id shared by every process; its loss means Redis lost its data. */
+  epoch: string
   sweep: (id: string) => SweepKeys
   ownerIndex: (owner: string) => string
   idempotency: (owner: string | null, key: string) => string
@@ -52,6 +54,7 @@ export function keyLayout (prefix: string): KeyLayout {
     counts: `${prefix}:counts`,
     unenqueued: `${prefix}:unenqueued`,
     stopChannel: `${prefix}:stop`,
+    epoch: `${prefix}:epoch`,
     sweep: (id) => ({
       record: `${prefix}:sweep:${id}`,
       chunks: `${prefix}:sweep:${id}:chunks`,
