@@ -215,6 +215,7 @@ export async function startWorker (options: WorkerProcessOptions): Promise<Runni
       else if (status === null || TERMINAL_STATUSES.has(status)) stopSweep(sweepId, `sweep is ${status ?? 'gone'}`)
     }).catch((err: unknown) => logger.warn({ err, sweepId }, 'cannot store chunk progress'))
   })
+  worker.on('stalled', (jobId) => logger.warn({ jobId }, 'a chunk lost its worker (crash or lost lock) and returns to the queue'))
   worker.on('error', (err) => logger.error({ err }, 'worker error'))
   failures.on('failed', ({ jobId, failedReason }) => {
     failFromJob(jobId, failedReason).catch((err: unknown) => logger.error({ err, jobId }, 'cannot record a failed sweep'))
