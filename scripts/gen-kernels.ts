@@ -688,6 +688,149 @@ function dense (): string {
     ${reload})`
 }
 
+/**
+ * Dense int16 kernels, for integer couplings (|J| ≤ 32767: Hebbian on 0/1 neurons, dilution
+ * that keeps 1 in k): columns as int16 rows of `stride` entries (n rounded up to 8, zero
+ * padded), fields h and bias as exact int32. A change adds delta·J_·j eight lanes at a time; a
+ * field build is one int16 dot product per neuron when the rows are the columns (a matrix
+ * symmetric bit for bit), else column by column. Integer sums are exact in any order, so the
+ * fields equal the plain float64 ones (whose integer-valued sums are exact as well).
+ * Column j starts at cols + 2·stride·j; the axpy uses locals $hp $cp $he $cv.
+ */
+const COLUMN16 = (j: string): string => `(i32.add (local.get $cols) (i32.mul (i32.shl (local.get $stride) (i32.const 1)) ${j}))`
+
+function axpy16 (col: string, coef: string): string {
+  return `
+    (local.set $hp (local.get $h))
+    (local.set $cp ${col})
+    (local.set $he (i32.add (local.get $h) (i32.shl (local.get $stride) (i32.const 2))))
+    (local.set $cv (i32x4.splat ${coef}))
+    (loop $axpy
+      (local.set $x (v128.load (local.get $cp)))
+      (v128.store (local.get $hp) (i32x4.add (v128.load (local.get $hp)) (i32x4.mul (i32x4.extend_low_i16x8_s (local.get $x)) (local.get $cv))))
+      (v128.store offset=16 (local.get $hp) (i32x4.add (v128.load offset=16 (local.get $hp)) (i32x4.mul (i32x4.extend_high_i16x8_s (local.get $x)) (local.get $cv))))
+      (local.set $cp (i32.add (local.get $cp) (i32.const 16)))
+      (br_if $axpy (i32.lt_u (local.tee $hp (i32.add (local.get $hp) (i32.const 32))) (local.get $he))))`
+}
+
+const DENSE16_LOCALS = '(local $hp i32) (local $cp i32) (local $he i32) (local $cv v128) (local $x v128) (local $acc v128) (local $k i32) (local $i i32) (local $si i32) (local $v i32) (local $fh i32)'
+
+function dense16 (): string {
+  // s16 ← s, then h = bias + J s (dot products of rows with s16, or column by column).
+  const reload = `
+    (local.set $i (i32.const 0))
+    (loop $widen
+      (i32.store16 (i32.add (local.get $s16) (i32.shl (local.get $i) (i32.const 1))) (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+      (br_if $widen (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))
+    (if (local.get $rowsAreColumns)
+      (then
+        (local.set $i (i32.const 0))
+        (loop $row
+          (local.set $acc (v128.const i32x4 0 0 0 0))
+          (local.set $cp ${COLUMN16('(local.get $i)')})
+          (local.set $hp (local.get $s16))
+          (local.set $he (i32.add (local.get $s16) (i32.shl (local.get $stride) (i32.const 1))))
+          (loop $dot
+            (local.set $acc (i32x4.add (local.get $acc) (i32x4.dot_i16x8_s (v128.load (local.get $cp)) (v128.load (local.get $hp)))))
+            (local.set $cp (i32.add (local.get $cp) (i32.const 16)))
+            (br_if $dot (i32.lt_u (local.tee $hp (i32.add (local.get $hp) (i32.const 16))) (local.get $he))))
+          (i32.store (i32.add (local.get $h) (i32.shl (local.get $i) (i32.const 2)))
+            (i32.add (i32.load (i32.add (local.get $bias) (i32.shl (local.get $i) (i32.const 2))))
+              (i32.add
+                (i32.add (i32x4.extract_lane 0 (local.get $acc)) (i32x4.extract_lane 1 (local.get $acc)))
+                (i32.add (i32x4.extract_lane 2 (local.get $acc)) (i32x4.extract_lane 3 (local.get $acc))))))
+          (br_if $row (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n)))))
+      (else
+        (memory.copy (local.get $h) (local.get $bias) (i32.shl (local.get $stride) (i32.const 2)))
+        (local.set $k (i32.const 0))
+        (loop $col
+          (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $k))))
+          (if (local.get $si) (then ${axpy16(COLUMN16('(local.get $k)'), '(local.get $si)')}))
+          (br_if $col (i32.lt_u (local.tee $k (i32.add (local.get $k) (i32.const 1))) (local.get $n))))))`
+  const change = `
+        (i32.store8 (i32.add (local.get $s) (local.get $i)) (local.get $v))
+        ${axpy16(COLUMN16('(local.get $i)'), '(i32.sub (local.get $v) (local.get $si))')}`
+  const field = '(i32.load (i32.add (local.get $h) (i32.shl (local.get $i) (i32.const 2))))'
+  const decide = '(select (i32.const 1) (select (i32.const -1) (local.get $si) (i32.lt_s (local.get $fh) (i32.const 0))) (i32.gt_s (local.get $fh) (i32.const 0)))'
+  const glauberUp = (noiseIndex: string): string => `(select (i32.const 1) (i32.const -1)
+          (f64.lt
+            (f64.mul (f64.load (i32.add (local.get $noise) (i32.shl ${noiseIndex} (i32.const 3))))
+              (f64.add (f64.const 1) (call $exp (f64.mul (local.get $factor) (f64.convert_i32_s ${field})))))
+            (f64.const 1)))`
+  return `
+  ;; Dense int16: h = bias + J s from scratch.
+  (func (export "dense16Load") (param $cols i32) (param $bias i32) (param $s i32) (param $s16 i32) (param $h i32) (param $n i32) (param $stride i32) (param $rowsAreColumns i32)
+    ${DENSE16_LOCALS}
+    ${reload})
+
+  ;; Dense int16: s_j changes by delta (the per-neuron set of the JavaScript API).
+  (func (export "dense16Set") (param $cols i32) (param $h i32) (param $stride i32) (param $j i32) (param $delta i32)
+    ${DENSE16_LOCALS}
+    ${axpy16(COLUMN16('(local.get $j)'), '(local.get $delta)')})
+
+  ;; Dense int16 zero-temperature asynchronous sweep; returns 1 if any neuron changed.
+  (func (export "dense16Sweep") (param $cols i32) (param $s i32) (param $h i32) (param $order i32) (param $n i32) (param $stride i32) (result i32)
+    ${DENSE16_LOCALS} (local $changed i32)
+    (local.set $k (i32.const 0))
+    (loop $visit
+      (local.set $i (i32.load (i32.add (local.get $order) (i32.shl (local.get $k) (i32.const 2)))))
+      (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+      (local.set $fh ${field})
+      (local.set $v ${decide})
+      (if (i32.ne (local.get $v) (local.get $si))
+        (then ${change}
+          (local.set $changed (i32.const 1))))
+      (br_if $visit (i32.lt_u (local.tee $k (i32.add (local.get $k) (i32.const 1))) (local.get $n))))
+    (local.get $changed))
+
+  ;; Dense int16 asynchronous Glauber sweep, noise[k] the uniform of the k-th visit.
+  (func (export "dense16Glauber") (param $cols i32) (param $s i32) (param $h i32) (param $order i32) (param $noise i32) (param $n i32) (param $stride i32) (param $factor f64)
+    ${DENSE16_LOCALS}
+    (local.set $k (i32.const 0))
+    (loop $visit
+      (local.set $i (i32.load (i32.add (local.get $order) (i32.shl (local.get $k) (i32.const 2)))))
+      (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+      (local.set $v ${glauberUp('(local.get $k)')})
+      (if (i32.ne (local.get $v) (local.get $si)) (then ${change}))
+      (br_if $visit (i32.lt_u (local.tee $k (i32.add (local.get $k) (i32.const 1))) (local.get $n)))))
+
+  ;; Dense int16 synchronous zero-temperature step (contract of sync16), then h rebuilt.
+  (func (export "dense16Sync") (param $cols i32) (param $bias i32) (param $s i32) (param $s16 i32) (param $h i32) (param $next i32) (param $prev i32) (param $n i32) (param $stride i32) (param $check i32) (param $rowsAreColumns i32) (result i32)
+    ${DENSE16_LOCALS} (local $same i32)
+    (local.set $same (i32.const 1))
+    (local.set $i (i32.const 0))
+    (loop $visit
+      (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+      (local.set $fh ${field})
+      (local.set $v ${decide})
+      (i32.store8 (i32.add (local.get $next) (local.get $i)) (local.get $v))
+      (if (i32.ne (local.get $v) (local.get $si)) (then (local.set $same (i32.const 0))))
+      (br_if $visit (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))
+    (if (local.get $same) (then (return (i32.const 1))))
+    (if (local.get $check)
+      (then
+        (local.set $i (i32.const 0))
+        (block $differs
+          (loop $compare
+            (br_if $differs (i32.ne (i32.load8_s (i32.add (local.get $next) (local.get $i))) (i32.load8_s (i32.add (local.get $prev) (local.get $i)))))
+            (br_if $compare (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))
+          (local.set $same (i32.const 2)))))
+    (memory.copy (local.get $prev) (local.get $s) (local.get $n))
+    (memory.copy (local.get $s) (local.get $next) (local.get $n))
+    ${reload}
+    (local.get $same))
+
+  ;; Dense int16 synchronous Glauber step: next_i from h_i and noise[i], then s ← next and h rebuilt.
+  (func (export "dense16GlauberSync") (param $cols i32) (param $bias i32) (param $s i32) (param $s16 i32) (param $h i32) (param $next i32) (param $noise i32) (param $n i32) (param $stride i32) (param $factor f64) (param $rowsAreColumns i32)
+    ${DENSE16_LOCALS}
+    (local.set $i (i32.const 0))
+    (loop $visit
+      (i32.store8 (i32.add (local.get $next) (local.get $i)) ${glauberUp('(local.get $i)')})
+      (br_if $visit (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))
+    (memory.copy (local.get $s) (local.get $next) (local.get $n))
+    ${reload})`
+}
+
 export const OVERLAP_KERNEL_WAT = `(module
   (import "host" "exp" (func $exp (param f64) (result f64)))
   (memory (export "memory") 1)
@@ -697,6 +840,7 @@ ${transpose()}
 ${shuffle()}
 ${unbiasedRows()}
 ${dense()}
+${dense16()}
 )
 `
 

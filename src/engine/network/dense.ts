@@ -1,5 +1,6 @@
 import type { NativeSweeps, Network } from './network.js'
 import { DenseKernel } from '../kernels/dense-kernel.js'
+import { DenseIntKernel, integerCouplings } from '../kernels/dense-int-kernel.js'
 import { areFastPathsEnabled } from '../kernels/wasm.js'
 
 /**
@@ -13,10 +14,12 @@ import { areFastPathsEnabled } from '../kernels/wasm.js'
  * row: the matrix itself when symmetric, a transposed copy otherwise.
  * Hebbian couplings stored as raw integers stay exact in doubles (|J| ≤ P ≪ 2^53).
  *
- * Whole sweeps, steps and field builds run in the WebAssembly SIMD kernel (`fastPath`) when
- * the host supports it; field builds are vectorised when the columns are the exact transpose
- * of the rows (always for the transposed copy; checked bit by bit for a matrix declared
- * symmetric, which numerical rules such as the pseudo-inverse need not be).
+ * Whole sweeps, steps and field builds run in a WebAssembly SIMD kernel (`fastPath`) when the
+ * host supports it: int16 couplings with exact int32 fields when every coupling is an integer
+ * (Hebbian on 0/1 neurons, dilution keeping 1 in k), float64 otherwise. Float64 field builds
+ * are vectorised when the columns are the exact transpose of the rows (always for the
+ * transposed copy; checked bit by bit for a matrix declared symmetric, which numerical rules
+ * such as the pseudo-inverse need not be).
  */
 export class DenseNetwork implements Network {
   readonly representation = 'dense-incremental' as const
@@ -28,9 +31,12 @@ export class DenseNetwork implements Network {
   readonly bytes: number
   readonly fastPath: string
   readonly native: NativeSweeps | null
-  private readonly kernel: DenseKernel | null
-  private readonly couplings: Float64Array
-  private readonly columns: Float64Array
+  private readonly kernel: DenseKernel | DenseIntKernel | null
+  /** Rows, for the plain field build; null when a kernel builds the fields. */
+  private readonly couplings: Float64Array | null
+  /** Columns read by the plain `set`; null when the int16 kernel holds the only copy. */
+  private readonly columns: Float64Array | null
+  private readonly diagonal: Float64Array
   private readonly bias: Float64Array
   private readonly h: Float64Array
 
@@ -49,17 +55,33 @@ export class DenseNetwork implements Network {
     this.patterns = options.patterns
     this.bias = options.bias
     this.fieldScale = options.fieldScale
+    this.diagonal = new Float64Array(n)
+    for (let i = 0; i < n; i++) this.diagonal[i] = options.couplings[i * n + i]!
     const columns = options.symmetric ? options.couplings : transpose(options.couplings, n)
     const exact = !options.symmetric || isExactlySymmetric(options.couplings, n)
-    this.kernel = areFastPathsEnabled() ? DenseKernel.create(columns, this.bias, n, exact) : null
-    // A private kernel memory holds the only copy of the columns (and, symmetric, of the rows).
-    this.columns = this.kernel?.columns ?? columns
-    this.couplings = options.symmetric ? this.columns : options.couplings
-    this.fastPath = this.kernel?.name ?? 'js'
+    let kernel: DenseKernel | DenseIntKernel | null = null
+    if (areFastPathsEnabled()) {
+      if (exact && integerCouplings(options.couplings, this.bias, n)) kernel = DenseIntKernel.create(columns, this.bias, n, options.symmetric)
+      kernel ??= DenseKernel.create(columns, this.bias, n, exact)
+    }
+    this.kernel = kernel
+    if (kernel === null) {
+      this.columns = columns
+      this.couplings = options.couplings
+    } else {
+      // A kernel builds the fields, so the rows are not needed; a private kernel memory holds
+      // the only copy of the columns.
+      this.columns = kernel instanceof DenseKernel ? kernel.columns : null
+      this.couplings = null
+    }
+    this.fastPath = kernel?.name ?? 'js'
     this.state = new Int8Array(n)
     this.h = new Float64Array(n)
-    this.native = this.kernel === null ? null : kernelSweeps(this.kernel, this.state, this.h)
-    this.bytes = 8 * n * n * (options.symmetric ? 1 : 2) + 16 * n + options.patterns.length
+    this.native = kernel === null ? null : kernelSweeps(kernel, this.state, this.h)
+    const matrixBytes = kernel instanceof DenseIntKernel
+      ? 2 * kernel.columns.length
+      : 8 * n * n * (kernel === null && !options.symmetric ? 2 : 1)
+    this.bytes = matrixBytes + 24 * n + options.patterns.length
   }
 
   load (state: Int8Array): void {
@@ -69,10 +91,11 @@ export class DenseNetwork implements Network {
       this.kernel.load(this.state, this.h)
       return
     }
+    const rows = this.couplings!
     for (let i = 0; i < n; i++) {
       let sum = this.bias[i]!
       const row = i * n
-      for (let j = 0; j < n; j++) sum += this.couplings[row + j]! * state[j]!
+      for (let j = 0; j < n; j++) sum += rows[row + j]! * state[j]!
       this.h[i] = sum
     }
   }
@@ -82,11 +105,15 @@ export class DenseNetwork implements Network {
   }
 
   set (j: number, v: number): void {
+    const col = this.columns
+    if (col === null) {
+      (this.kernel as DenseIntKernel).set(this.state, this.h, j, v)
+      return
+    }
     const delta = v - this.state[j]!
     if (delta === 0) return
     this.state[j] = v
     const n = this.neurons
-    const col = this.columns
     const h = this.h
     const base = j * n
     for (let i = 0; i < n; i++) h[i] = h[i]! + delta * col[base + i]!
@@ -98,7 +125,7 @@ export class DenseNetwork implements Network {
     let threshold = 0
     for (let i = 0; i < n; i++) {
       const s = this.state[i]!
-      const coupled = this.h[i]! - this.bias[i]! - this.couplings[i * n + i]! * s
+      const coupled = this.h[i]! - this.bias[i]! - this.diagonal[i]! * s
       pair += s * coupled
       threshold += this.bias[i]! * s
     }
@@ -115,7 +142,7 @@ export class DenseNetwork implements Network {
   }
 }
 
-function kernelSweeps (kernel: DenseKernel, state: Int8Array, h: Float64Array): NativeSweeps {
+function kernelSweeps (kernel: DenseKernel | DenseIntKernel, state: Int8Array, h: Float64Array): NativeSweeps {
   return {
     sweepZeroTemperature: (order) => kernel.sweep(state, h, order),
     stepZeroTemperature: (previous, checkPrevious) => {

@@ -4,6 +4,7 @@ import { setFastPathsEnabled } from '../../../src/engine/kernels/wasm.js'
 import { DenseNetwork } from '../../../src/engine/network/dense.js'
 import { setOverlapPrivateBytes } from '../../../src/engine/kernels/overlap-kernel.js'
 import { setDensePrivateBytes } from '../../../src/engine/kernels/dense-kernel.js'
+import { setDenseIntPrivateBytes } from '../../../src/engine/kernels/dense-int-kernel.js'
 
 // The fast paths must reproduce the plain per-neuron path bit for bit on the same stream:
 // every test runs the same trials twice, fast paths off and on, and compares whole records.
@@ -103,11 +104,14 @@ describe('overlap-space fast path is bit-identical to the plain path', () => {
     try {
       expectSame(params({ neurons: 150, patterns: 20 }), 3)
       expectSame(params({ neurons: 150, patterns: 20, dynamics: { update: 'sync' } }), 3)
-      expectSame(params({ neurons: 100, patterns: 10, dilution: { keep: 0.5, symmetric: true } }), 3, 'wasm-simd128-dense-f64')
-      expectSame(params({ neurons: 100, patterns: 10, dilution: { keep: 0.5, symmetric: false }, dynamics: { update: 'sync' } }), 3, 'wasm-simd128-dense-f64')
+      expectSame(params({ neurons: 100, patterns: 10, dilution: { keep: 0.3, symmetric: true } }), 3, 'wasm-simd128-dense-f64')
+      expectSame(params({ neurons: 100, patterns: 10, dilution: { keep: 0.3, symmetric: false }, dynamics: { update: 'sync' } }), 3, 'wasm-simd128-dense-f64')
+      expectSame(params({ neurons: 100, patterns: 10, dilution: { keep: 0.5, symmetric: true } }), 3, 'wasm-simd128-dense-i16')
+      expectSame(params({ neurons: 100, patterns: 10, dilution: { keep: 0.5, symmetric: false }, dynamics: { update: 'sync' } }), 3, 'wasm-simd128-dense-i16')
     } finally {
       setOverlapPrivateBytes(8 * 1024 * 1024)
       setDensePrivateBytes(1024 * 1024)
+      setDenseIntPrivateBytes(1024 * 1024)
     }
   })
 
@@ -129,8 +133,21 @@ describe('dense fast path is bit-identical to the plain path', () => {
   const small = { neurons: 120, patterns: 12, trialsPerNetwork: 2 }
 
   it('diluted Hebbian couplings, symmetric and asymmetric, asynchronous and synchronous', () => {
+    // Survivors scaled by 1/0.3 are not integers: float64 kernel.
     expectSame(params({ ...small, dilution: { keep: 0.3, symmetric: true } }), 4, dense)
-    expectSame(params({ ...small, dilution: { keep: 0.5, symmetric: false }, dynamics: { update: 'sync' } }), 4, dense)
+    expectSame(params({ ...small, dilution: { keep: 0.3, symmetric: false }, dynamics: { update: 'sync' } }), 4, dense)
+    // Keeping one in two doubles the survivors: integer couplings, int16 kernel.
+    expectSame(params({ ...small, dilution: { keep: 0.5, symmetric: true } }), 4, 'wasm-simd128-dense-i16')
+    expectSame(params({ ...small, dilution: { keep: 0.5, symmetric: false }, dynamics: { update: 'sync' } }), 4, 'wasm-simd128-dense-i16')
+    expectSame(params({ ...small, dilution: { keep: 0.5, symmetric: false }, cue: { kind: 'erase', fraction: 0.3, fill: 'zero' } }), 4, 'wasm-simd128-dense-i16')
+  })
+
+  it('Hebbian networks of 0/1 neurons (integer couplings and bias), all dynamics', () => {
+    const binary = { ...small, coding: 'binary' as const }
+    expectSame(params({ ...binary }), 4, 'wasm-simd128-dense-i16')
+    expectSame(params({ ...binary, cue: { kind: 'erase', fraction: 0.3, fill: 'zero' }, dynamics: { update: 'sync' } }), 4, 'wasm-simd128-dense-i16')
+    expectSame(params({ ...binary, dynamics: { temperature: 0.5, maxSweeps: 5, burnIn: 1 } }), 3, 'wasm-simd128-dense-i16')
+    expectSame(params({ ...binary, dilution: { keep: 0.5, symmetric: false }, dynamics: { update: 'sync', temperature: 0.5, maxSweeps: 5, burnIn: 1 } }), 3, 'wasm-simd128-dense-i16')
   })
 
   it('pseudo-inverse, Storkey and covariance rules', () => {
@@ -143,6 +160,7 @@ describe('dense fast path is bit-identical to the plain path', () => {
 
   it('Glauber dynamics on a diluted network, asynchronous and synchronous', () => {
     expectSame(params({ ...small, dilution: { keep: 0.7, symmetric: true }, dynamics: { temperature: 0.5, maxSweeps: 5, burnIn: 1 } }), 3, dense)
+    expectSame(params({ ...small, dilution: { keep: 0.5, symmetric: true }, dynamics: { temperature: 0.5, maxSweeps: 5, burnIn: 1 } }), 3, 'wasm-simd128-dense-i16')
     expectSame(params({ ...small, dilution: { keep: 0.7, symmetric: false }, dynamics: { update: 'sync', temperature: 0.5, maxSweeps: 5, burnIn: 1 } }), 3, dense)
   })
 
@@ -170,5 +188,22 @@ describe('dense fast path is bit-identical to the plain path', () => {
       expect(fast.path).toBe('wasm-simd128-dense-f64-rows')
       expect(fast.records).toStrictEqual(run(false, update).records)
     }
+  })
+
+  it('the per-neuron API (load, set, field, energy) gives the plain values on the int16 kernel', () => {
+    const n = 70
+    const fields = (fast: boolean): number[] => {
+      setFastPathsEnabled(fast)
+      const rng = Xoshiro256StarStar.fromSeed(9n)
+      const couplings = new Float64Array(n * n)
+      for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) if (i !== j) couplings[i * n + j] = rng.below(41) - 20
+      const net = new DenseNetwork({ patterns: new Int8Array(n), neurons: n, patternCount: 1, couplings, bias: new Float64Array(n).fill(3), fieldScale: 0.5, symmetric: false })
+      expect(net.fastPath).toBe(fast ? 'wasm-simd128-dense-i16' : 'js')
+      const state = Int8Array.from({ length: n }, (_, i) => (i % 3 === 0 ? -1 : i % 3 === 1 ? 1 : 0))
+      net.load(state)
+      for (const [j, v] of [[4, -1], [5, 1], [4, 1], [9, 0]] as const) net.set(j, v)
+      return [...Array.from({ length: n }, (_, i) => net.field(i)), net.energyPerNeuron()]
+    }
+    expect(fields(true)).toStrictEqual(fields(false))
   })
 })
