@@ -89,10 +89,11 @@ export class DenseIntKernel {
   private noise64 = new Float64Array(0)
 
   /**
-   * `columns[j·n + i]` = J_ij exactly (the transposed copy, or the matrix itself when it is
-   * symmetric bit for bit: `rowsAreColumns`). Null without WebAssembly SIMD or memory.
+   * `couplings` row-major (J_ij at i·n + j). A matrix symmetric bit for bit (`symmetric`)
+   * serves as its own columns and builds fields by row dot products; otherwise the columns
+   * are written transposed. Null without WebAssembly SIMD or memory.
    */
-  static create (columns: Float64Array, bias: Float64Array, n: number, rowsAreColumns: boolean): DenseIntKernel | null {
+  static create (couplings: Float64Array, bias: Float64Array, n: number, symmetric: boolean): DenseIntKernel | null {
     const stride = (n + 7) & ~7
     if (2 * n * stride + 32 * stride > 3.5 * 2 ** 30) return null
     let ws: Workspace | null
@@ -108,18 +109,18 @@ export class DenseIntKernel {
     }
     if (ws === null) return null
     try {
-      return new DenseIntKernel(ws, columns, bias, n, stride, rowsAreColumns)
+      return new DenseIntKernel(ws, couplings, bias, n, stride, symmetric)
     } catch (error) {
       if (error instanceof RangeError) return null
       throw error
     }
   }
 
-  private constructor (ws: Workspace, columns: Float64Array, bias: Float64Array, n: number, stride: number, rowsAreColumns: boolean) {
+  private constructor (ws: Workspace, couplings: Float64Array, bias: Float64Array, n: number, stride: number, symmetric: boolean) {
     this.ws = ws
     this.n = n
     this.stride = stride
-    this.rowsAreColumns = rowsAreColumns ? 1 : 0
+    this.rowsAreColumns = symmetric ? 1 : 0
     this.isPrivate = ws !== shared
     this.biasAt = align16(2 * n * stride)
     this.hAt = align16(this.biasAt + 4 * stride)
@@ -135,7 +136,14 @@ export class DenseIntKernel {
     this.bias = new Int32Array(stride)
     this.bias.set(bias)
     this.columns = this.isPrivate ? new Int16Array(ws.k.memory.buffer, this.colsAt, n * stride) : new Int16Array(n * stride)
-    for (let j = 0; j < n; j++) this.columns.set(columns.subarray(j * n, (j + 1) * n), j * stride)
+    const cols = this.columns
+    if (symmetric) {
+      for (let j = 0; j < n; j++) cols.set(couplings.subarray(j * n, (j + 1) * n), j * stride)
+    } else {
+      for (let i = 0; i < n; i++) {
+        for (let j = 0; j < n; j++) cols[j * stride + i] = couplings[i * n + j]!
+      }
+    }
     if (this.isPrivate) new Int32Array(ws.k.memory.buffer, this.biasAt, stride).set(this.bias)
     ws.residentId = this.isPrivate ? this.id : 0
   }

@@ -67,7 +67,12 @@ export class DenseKernel {
   private noise64 = new Float64Array(0)
 
   /** Null when the host lacks WebAssembly SIMD or the matrix does not fit a 32-bit memory. */
-  static create (columns: Float64Array, bias: Float64Array, n: number, exactColumns: boolean): DenseKernel | null {
+  /**
+   * `couplings` row-major (J_ij at i·n + j); `transposed` asks for the columns to be written
+   * transposed (an asymmetric matrix), else the rows serve as columns; `exactColumns` says
+   * whether the columns are the exact transpose of the rows (see the class notes).
+   */
+  static create (couplings: Float64Array, transposed: boolean, bias: Float64Array, n: number, exactColumns: boolean): DenseKernel | null {
     if (8 * n * n + 40 * n > 3.5 * 2 ** 30) return null
     let ws: Workspace | null
     if (8 * n * n >= privateBytes) {
@@ -82,7 +87,7 @@ export class DenseKernel {
     }
     if (ws === null) return null
     try {
-      return new DenseKernel(ws, columns, bias, n, exactColumns)
+      return new DenseKernel(ws, couplings, transposed, bias, n, exactColumns)
     } catch (error) {
       // The host refused to grow the kernel memory: keep the plain path.
       if (error instanceof RangeError) return null
@@ -90,7 +95,7 @@ export class DenseKernel {
     }
   }
 
-  private constructor (ws: Workspace, columns: Float64Array, bias: Float64Array, n: number, exactColumns: boolean) {
+  private constructor (ws: Workspace, couplings: Float64Array, transposed: boolean, bias: Float64Array, n: number, exactColumns: boolean) {
     this.ws = ws
     this.n = n
     this.rowwise = exactColumns ? 0 : 1
@@ -111,9 +116,10 @@ export class DenseKernel {
     if (this.isPrivate) {
       new Float64Array(buffer, this.biasAt, n).set(bias)
       this.columns = new Float64Array(buffer, this.colsAt, n * n)
-      this.columns.set(columns)
+      if (transposed) transposeInto(couplings, this.columns, n)
+      else this.columns.set(couplings)
     } else {
-      this.columns = columns
+      this.columns = transposed ? transposeInto(couplings, new Float64Array(n * n), n) : couplings
       ws.residentId = 0
     }
   }
@@ -198,4 +204,12 @@ export class DenseKernel {
     state.set(this.s8)
     h.set(this.h64)
   }
+}
+
+/** out[j·n + i] = matrix[i·n + j]; written straight into the kernel memory, so no transposed copy is left behind. */
+function transposeInto (matrix: Float64Array, out: Float64Array, n: number): Float64Array {
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) out[j * n + i] = matrix[i * n + j]!
+  }
+  return out
 }

@@ -57,16 +57,16 @@ export class DenseNetwork implements Network {
     this.fieldScale = options.fieldScale
     this.diagonal = new Float64Array(n)
     for (let i = 0; i < n; i++) this.diagonal[i] = options.couplings[i * n + i]!
-    const columns = options.symmetric ? options.couplings : transpose(options.couplings, n)
     const exact = !options.symmetric || isExactlySymmetric(options.couplings, n)
+    const transposed = !options.symmetric
     let kernel: DenseKernel | DenseIntKernel | null = null
     if (areFastPathsEnabled()) {
-      if (exact && integerCouplings(options.couplings, this.bias, n)) kernel = DenseIntKernel.create(columns, this.bias, n, options.symmetric)
-      kernel ??= DenseKernel.create(columns, this.bias, n, exact)
+      if (exact && integerCouplings(options.couplings, this.bias, n)) kernel = DenseIntKernel.create(options.couplings, this.bias, n, options.symmetric)
+      kernel ??= DenseKernel.create(options.couplings, transposed, this.bias, n, exact)
     }
     this.kernel = kernel
     if (kernel === null) {
-      this.columns = columns
+      this.columns = transposed ? transpose(options.couplings, n) : options.couplings
       this.couplings = options.couplings
     } else {
       // A kernel builds the fields, so the rows are not needed; a private kernel memory holds
