@@ -831,7 +831,7 @@ function dense16 (): string {
     ${reload})`
 }
 
-export const OVERLAP_KERNEL_WAT = `(module
+export const KERNELS_WAT = `(module
   (import "host" "exp" (func $exp (param f64) (result f64)))
   (memory (export "memory") 1)
 ${variant(16)}
@@ -846,7 +846,7 @@ ${dense16()}
 
 async function main (): Promise<void> {
   const wabt = await wabtFactory()
-  const mod = wabt.parseWat('overlap-kernel.wat', OVERLAP_KERNEL_WAT, { simd: true, bulk_memory: true })
+  const mod = wabt.parseWat('kernels.wat', KERNELS_WAT, { simd: true, bulk_memory: true })
   mod.validate()
   const { buffer } = mod.toBinary({})
   mod.destroy()
