@@ -139,6 +139,39 @@ function bitCheck (runs: Run[]): string[] {
   return lines
 }
 
+const DENSE_WORKLOADS: Record<string, string> = {
+  D1: 'Hebbian on 0/1 neurons, N=1000, P=50, 100 trials, 10 % flipped, async (integer couplings)',
+  D2: 'pseudo-inverse, N=500, P=100, 50 trials, 10 % flipped, async',
+  D3: 'Hebbian diluted to 30 % (symmetric), N=1000, P=50, 100 trials, 10 % flipped, synchronous'
+}
+
+/** Dense representations have no peer: the fast paths against the plain path on the same stream. */
+function denseSection (runs: Run[]): string[] {
+  const rows: string[] = []
+  for (const [w, what] of Object.entries(DENSE_WORKLOADS)) {
+    const fast = runs.filter((r) => r.workload === w && r.variant === 'fast')
+    const plain = runs.filter((r) => r.workload === w && r.variant === 'plain')
+    if (fast.length === 0 || plain.length === 0) continue
+    const tf = median(fast.map(timeOf))
+    const tp = median(plain.map(timeOf))
+    const signature = (r: Run): string => JSON.stringify([r.mean_overlap, r.sd_overlap, r.frac_success, r.mean_sweeps ?? r.mean_steps, r.n_maxed, r.n_fixed, r.n_cycle2])
+    const same = new Set([...fast, ...plain].map(signature)).size === 1
+    rows.push(`| ${w} | ${what} | ${String(fast[0]!.fast_path)} | ${ms(tp)} | ${ms(tf)} | ${ratio(tp / tf)} | ${mib(median(plain.map((r) => r.maxrss_kb)))} / ${mib(median(fast.map((r) => r.maxrss_kb)))} | ${same ? 'yes' : 'NO'} |`)
+  }
+  if (rows.length === 0) return []
+  return [
+    '## Dense representations (no peer): fast path against the plain path',
+    '',
+    'Rules and codings that need an explicit coupling matrix. Time is the dynamics (`sim_s`), fresh processes, medians; the outputs',
+    '(mean and sd of the overlap, success fraction, mean sweeps, endings) must be identical between the two paths.',
+    '',
+    '| workload | network | fast path | plain | fast | speed-up | peak RSS plain / fast | identical outputs |',
+    '|---|---|---|---|---|---|---|---|',
+    ...rows,
+    ''
+  ]
+}
+
 export function renderReport (runs: Run[], extra: { scale: Run | null, baseline: Run[], ctx: Context }): string {
   const { ctx, scale, baseline } = extra
   const baselineKb = baseline.length > 0 ? median(baseline.map((r) => r.maxrss_kb)) : Number.NaN
@@ -181,6 +214,7 @@ export function renderReport (runs: Run[], extra: { scale: Run | null, baseline:
     '',
     ...bitCheck(runs),
     '',
+    ...denseSection(runs),
     '## Memory',
     '',
     `- Node baseline (a process that loads the engine and runs nothing): ${mib(baselineKb)} peak RSS (median of ${baseline.length}).`

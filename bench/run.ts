@@ -4,8 +4,9 @@
  * when their toolchains exist, adds the N = 100,000 scale run and the memory report, and
  * writes bench/RESULTS.md.
  *
- * Environment: ENGINE_REPS (5), PLAIN_REPS (3), C_REPS (5), NP_REPS (3), WARM_REPEATS (5), PEERS_DIR
- * (../shared/bench), SKIP_PEERS, SKIP_PLAIN, SKIP_SCALE, RESULTS (bench/RESULTS.md).
+ * Environment: ENGINE_REPS (5), PLAIN_REPS (3), C_REPS (5), NP_REPS (3), WARM_REPEATS (5),
+ * DENSE_REPS (3), PEERS_DIR (../shared/bench), SKIP_PEERS, SKIP_PLAIN, SKIP_DENSE, SKIP_SCALE,
+ * RESULTS (bench/RESULTS.md).
  */
 import { cpus, freemem, loadavg, totalmem } from 'node:os'
 import { readFileSync, rmSync, writeFileSync } from 'node:fs'
@@ -22,7 +23,8 @@ const reps = {
   ENGINE_REPS: Number(env.ENGINE_REPS ?? 5),
   PLAIN_REPS: env.SKIP_PLAIN ? 0 : Number(env.PLAIN_REPS ?? 3),
   C_REPS: env.SKIP_PEERS ? 0 : Number(env.C_REPS ?? 5),
-  NP_REPS: env.SKIP_PEERS ? 0 : Number(env.NP_REPS ?? 3)
+  NP_REPS: env.SKIP_PEERS ? 0 : Number(env.NP_REPS ?? 3),
+  DENSE_REPS: env.SKIP_DENSE ? 0 : Number(env.DENSE_REPS ?? 3)
 }
 const started = Date.now()
 const loadBefore = loadavg().map((x) => x.toFixed(2)).join(' ')
@@ -45,6 +47,11 @@ for (const w of ['W1', 'W2', 'W3', 'W4']) {
       jobs.push({ label: 'numpy', reps: reps.NP_REPS, workload: w, command: ['python3', 'peer_numpy.py', w, v, '--seed', '1'], cwd: peers.dir })
     }
   }
+}
+
+for (const d of ['D1', 'D2', 'D3']) {
+  jobs.push({ label: 'memsweep', reps: reps.DENSE_REPS, workload: d, command: engine(d, 'fast') })
+  jobs.push({ label: 'memsweep', reps: reps.DENSE_REPS, workload: d, command: engine(d, 'plain') })
 }
 
 const runs: Run[] = []

@@ -1,12 +1,13 @@
 /**
  * One benchmark measurement in a fresh process:
- * `node --import tsx bench/workload.ts <W1|W2|W3|W4|SCALE|BASELINE> <fast|plain> [seed] [warm repeats]`.
+ * `node --import tsx bench/workload.ts <W1|W2|W3|W4|D1|D2|D3|SCALE|BASELINE> <fast|plain> [seed] [warm repeats]`.
  * Prints one JSON line with the keys the shared peers print (WORKLOADS.md §8), so engine
  * and peer runs land in the same tables. Timing is in-process with a monotonic clock;
  * module loading is excluded, JIT warm-up inside the timed region counts.
  */
 import { runCapacityWorkload, runSharedNetworkWorkload, summarize, workloadParams } from './canonical.js'
 import { setFastPathsEnabled } from '../src/engine/kernels/wasm.js'
+import type { PointParams } from '../src/engine/index.js'
 
 const [workload = 'W1', path = 'fast', seedArg = '1', warmArg = '0'] = process.argv.slice(2)
 const warmRepeats = Number(warmArg)
@@ -17,8 +18,16 @@ const impl = 'memsweep'
 const variant = path
 const selfRssKb = (): number => process.resourceUsage().maxRSS
 
+/** Dense-representation workloads (no peer): the engine's plain and fast paths only. */
+const DENSE: Record<string, (p: PointParams) => PointParams> = {
+  D1: (p) => ({ ...p, coding: 'binary' }),
+  D2: (p) => ({ ...p, rule: { kind: 'pseudo-inverse', selfCoupling: false } }),
+  D3: (p) => ({ ...p, dilution: { keep: 0.3, symmetric: true } })
+}
+
 function shared (name: string, neurons: number, patterns: number, flips: number, update: 'async-random' | 'sync', trials: number): Record<string, unknown> {
-  const run = runSharedNetworkWorkload(name, workloadParams(neurons, patterns, flips, update), trials, seed)
+  const base = workloadParams(neurons, patterns, flips, update)
+  const run = runSharedNetworkWorkload(name, DENSE[name]?.(base) ?? base, trials, seed)
   const s = summarize(run.trials)
   const sweeps = run.trials.reduce((a, r) => a + r.sweeps, 0)
   const updates = sweeps * neurons
@@ -65,6 +74,9 @@ function once (): Record<string, unknown> {
     case 'W3': return shared('W3', 4000, 400, 400, 'async-random', 20)
     case 'W4': return shared('W4', 1000, 100, 100, 'sync', 200)
     case 'SCALE': return shared('SCALE', 100_000, 5000, 10_000, 'async-random', 1)
+    case 'D1': return shared('D1', 1000, 50, 100, 'async-random', 100)
+    case 'D2': return shared('D2', 500, 100, 50, 'async-random', 50)
+    case 'D3': return shared('D3', 1000, 50, 100, 'sync', 100)
     case 'W2': {
       const r = runCapacityWorkload(seed)
       return {
