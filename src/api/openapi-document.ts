@@ -34,4 +34,52 @@ export function pruneUnusedSchemas<T extends { paths?: unknown, components?: { s
   return { ...document, components: { ...document.components, schemas: kept } }
 }
 
-export const transformDocument: SwaggerTransformObject = (document) => pruneUnusedSchemas(jsonSchemaTransformObject(document) as Parameters<typeof pruneUnusedSchemas>[0]) as ReturnType<SwaggerTransformObject>
+interface HeaderObject { description: string, schema: { type: 'string' | 'integer' } }
+type Operation = { operationId?: string, responses?: Record<string, { headers?: Record<string, HeaderObject> }> }
+
+const text = (description: string): HeaderObject => ({ description, schema: { type: 'string' } })
+const seconds = (description: string): HeaderObject => ({ description, schema: { type: 'integer' } })
+
+/** Response headers clients rely on, which route schemas cannot express. */
+const OPERATION_HEADERS: Record<string, Record<string, Record<string, HeaderObject>>> = {
+  submitSweep: { 202: { Location: text('Path of the new sweep\'s status.'), 'Retry-After': seconds('Suggested seconds before the first status poll.') } },
+  getSweep: { 200: { ETag: text('Weak validator of the sweep\'s state; send it in If-None-Match to get 304 until the sweep changes.') }, 304: { ETag: text('The current validator.') } },
+  listSweeps: { 200: { Link: text('`<…>; rel="next"` URL of the next page; absent on the last page.') } },
+  getSweepResults: {
+    200: {
+      ETag: text('Strong validator: the sha256 of the bytes (base64url), one per representation.'),
+      Vary: text('Accept.'),
+      'Content-Disposition': text('CSV only: attachment; filename="memsweep-<id>.csv".')
+    },
+    304: { ETag: text('The current validator.'), Vary: text('Accept.') },
+    409: {
+      'Retry-After': seconds('While the sweep runs: suggested seconds before asking again.'),
+      Link: text('While the sweep runs: `<…>; rel="monitor"`, the status to follow.')
+    }
+  }
+}
+
+/** Headers any answer may carry, by status. */
+const STATUS_HEADERS: Record<string, Record<string, HeaderObject>> = {
+  401: { 'WWW-Authenticate': text('Bearer challenge.') },
+  429: { 'Retry-After': seconds('Seconds until the limit resets (or until a sweep may have finished).') },
+  503: { 'Retry-After': seconds('Seconds before trying again.') }
+}
+
+const REQUEST_ID: Record<string, HeaderObject> = { 'X-Request-Id': text('The request id (the client\'s, when it sent a plain one); also in problem documents and in the server log.') }
+
+export function addResponseHeaders<T extends { paths?: unknown }> (document: T): T {
+  const paths = document.paths as Record<string, Record<string, Operation>> | undefined
+  for (const operations of Object.values(paths ?? {})) {
+    for (const operation of Object.values(operations)) {
+      for (const [status, response] of Object.entries(operation.responses ?? {})) {
+        const headers = { ...REQUEST_ID, ...STATUS_HEADERS[status], ...OPERATION_HEADERS[operation.operationId ?? '']?.[status] }
+        response.headers = { ...response.headers, ...headers }
+      }
+    }
+  }
+  return document
+}
+
+export const transformDocument: SwaggerTransformObject = (document) =>
+  addResponseHeaders(pruneUnusedSchemas(jsonSchemaTransformObject(document) as Parameters<typeof pruneUnusedSchemas>[0])) as ReturnType<SwaggerTransformObject>

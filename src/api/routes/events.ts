@@ -17,6 +17,8 @@ const EVENT_STREAM_DESCRIPTION = [
 
 export const eventRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx) => {
   app.get('/v1/sweeps/:id/events', {
+    // A HEAD request would open a stream that never sends a body.
+    exposeHeadRoute: false,
     schema: {
       operationId: 'streamSweepEvents',
       summary: 'Follow a sweep live (Server-Sent Events)',

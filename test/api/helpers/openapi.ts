@@ -10,7 +10,7 @@ import { Ajv2020 } from 'ajv/dist/2020.js'
 const DOCUMENT_ID = 'https://memsweep.invalid/openapi.json'
 
 export const openApiDocument = JSON.parse(readFileSync(fileURLToPath(new URL('../../../openapi/openapi.json', import.meta.url)), 'utf8')) as {
-  paths: Record<string, Record<string, { responses: Record<string, { content?: Record<string, { schema: unknown }> }> }>>
+  paths: Record<string, Record<string, { responses: Record<string, { content?: Record<string, { schema: unknown }>, headers?: Record<string, unknown> }> }>>
   components: { schemas: Record<string, unknown> }
 }
 
@@ -40,6 +40,7 @@ export interface CheckedResponse {
  * Unknown routes must answer 404 problem+json (the not-found handler).
  */
 export function assertMatchesDocument (method: string, url: string, response: CheckedResponse): void {
+  if (typeof response.headers['x-request-id'] !== 'string') throw new Error(`${method} ${url}: no X-Request-Id header`)
   const template = templateOf(url)
   const contentType = String(response.headers['content-type'] ?? '').split(';')[0]?.trim() ?? ''
   if (template === null) {
@@ -57,6 +58,12 @@ export function assertMatchesDocument (method: string, url: string, response: Ch
   const declared = operation.responses[String(response.statusCode)]
   if (declared === undefined) {
     throw new Error(`${method} ${template}: status ${response.statusCode} is not declared (declared: ${Object.keys(operation.responses).join(', ')}); body ${response.body.slice(0, 300)}`)
+  }
+  // Headers a response sends must be documented for it (the conditional ones may be absent).
+  for (const name of ['location', 'etag', 'link', 'retry-after', 'www-authenticate', 'content-disposition']) {
+    if (response.headers[name] !== undefined && !Object.keys(declared.headers ?? {}).some((h) => h.toLowerCase() === name)) {
+      throw new Error(`${method} ${template} ${response.statusCode}: sends ${name} but the document does not declare it`)
+    }
   }
   if (declared.content === undefined) {
     if (response.body !== '') throw new Error(`${method} ${template} ${response.statusCode}: declared without a body but sent one`)
