@@ -217,7 +217,8 @@ export function renderReport (runs: Run[], extra: { scale: Run | null, baseline:
     ...denseSection(runs),
     '## Memory',
     '',
-    `- Node baseline (a process that loads the engine and runs nothing): ${mib(baselineKb)} peak RSS (median of ${baseline.length}).`
+    `- Node baseline (a process that loads the engine and runs nothing): ${mib(baselineKb)} peak RSS (median of ${baseline.length}).`,
+    '- Peak RSS of memsweep fast-path processes is taken at the end of the measured run, before the warm repeats.'
   ]
   if (w3.length > 0) {
     const bytes = w3[0]!.representation_bytes as number

@@ -104,6 +104,8 @@ function once (): Record<string, unknown> {
 }
 
 const out = once()
+// Peak RSS of the measured run itself, before any warm repeat can raise it.
+out.first_maxrss_kb = selfRssKb()
 if (warmRepeats > 0) {
   const key = workload === 'W2' ? 'total_s' : 'sim_s'
   const times: number[] = []
@@ -111,6 +113,5 @@ if (warmRepeats > 0) {
   times.sort((a, b) => a - b)
   out.warm_s = times[times.length >> 1]
   out.warm_repeats = warmRepeats
-  out.self_maxrss_kb = selfRssKb()
 }
 console.log(JSON.stringify(out))
