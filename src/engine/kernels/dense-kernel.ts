@@ -1,4 +1,4 @@
-import { instantiateKernels, WASM_PAGE, type WasmMemory } from './wasm.js'
+import { EMPTY, instantiateKernels, WASM_PAGE, type WasmMemory } from './wasm.js'
 
 /**
  * WebAssembly SIMD128 fast path of the dense network (kernel text: scripts/gen-kernels.ts).
@@ -60,11 +60,11 @@ export class DenseKernel {
   private readonly noiseAt: number
   private readonly end: number
   private buffer: ArrayBuffer | null = null
-  private h64 = new Float64Array(0)
-  private s8 = new Int8Array(0)
-  private prev8 = new Int8Array(0)
-  private order32 = new Int32Array(0)
-  private noise64 = new Float64Array(0)
+  private h64: Float64Array = EMPTY.f64
+  private s8: Int8Array = EMPTY.i8
+  private prev8: Int8Array = EMPTY.i8
+  private order32: Int32Array = EMPTY.i32
+  private noise64: Float64Array = EMPTY.f64
 
   /** Null when the host lacks WebAssembly SIMD or the matrix does not fit a 32-bit memory. */
   /**

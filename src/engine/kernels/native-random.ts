@@ -37,6 +37,10 @@ const STATE_AT = 0
 const DATA_AT = 64
 const CHUNK_BYTES = 4 * 1024 * 1024
 
+let viewsOf: ArrayBuffer | null = null
+let stateView = new Int32Array(0)
+let dataView32 = new Int32Array(0)
+
 /** Kernel with at least `bytes` of data room, the generator's state copied in (little-endian words). */
 function enter (s: Int32Array, bytes: number): RandomExports | null {
   const k = randomKernel()
@@ -44,22 +48,26 @@ function enter (s: Int32Array, bytes: number): RandomExports | null {
   const need = DATA_AT + bytes
   const have = k.memory.buffer.byteLength
   if (need > have) k.memory.grow(Math.ceil((need - have) / WASM_PAGE))
-  const state = new Int32Array(k.memory.buffer, STATE_AT, 10)
+  const buffer = k.memory.buffer
+  if (buffer !== viewsOf) {
+    viewsOf = buffer
+    stateView = new Int32Array(buffer, STATE_AT, 10)
+    dataView32 = new Int32Array(buffer, DATA_AT, (buffer.byteLength - DATA_AT) >> 2)
+  }
   for (let w = 0; w < 4; w++) {
-    state[2 * w] = s[2 * w + 1]!
-    state[2 * w + 1] = s[2 * w]!
+    stateView[2 * w] = s[2 * w + 1]!
+    stateView[2 * w + 1] = s[2 * w]!
   }
   return k
 }
 
-function leave (k: RandomExports, s: Int32Array, rng: RandomSource): void {
-  const state = new Int32Array(k.memory.buffer, STATE_AT, 10)
+function leave (s: Int32Array, rng: RandomSource): void {
   for (let w = 0; w < 4; w++) {
-    s[2 * w + 1] = state[2 * w]!
-    s[2 * w] = state[2 * w + 1]!
+    s[2 * w + 1] = stateView[2 * w]!
+    s[2 * w] = stateView[2 * w + 1]!
   }
-  rng.word[0] = state[8]!
-  rng.word[1] = state[9]!
+  rng.word[0] = stateView[8]!
+  rng.word[1] = stateView[9]!
 }
 
 /** Shuffles `order` in place exactly as the plain Fisher–Yates loop would with `rng`; false if it cannot. */
@@ -70,11 +78,10 @@ export function nativeShuffle (order: Int32Array, rng: RandomSource): boolean {
   if (n < 2) return true
   const k = enter(s, 4 * n)
   if (k === null) return false
-  const view = new Int32Array(k.memory.buffer, DATA_AT, n)
-  view.set(order)
+  dataView32.set(order)
   k.shuffle(DATA_AT, n, STATE_AT)
-  order.set(view)
-  leave(k, s, rng)
+  order.set(dataView32.subarray(0, n))
+  leave(s, rng)
   return true
 }
 
@@ -96,6 +103,6 @@ export function nativeUnbiasedRows (out: Int8Array, offset: number, n: number, c
     out.set(new Int8Array(k.memory.buffer, DATA_AT, n * take), offset + row * n)
     // The kernel stored the state where the next chunk reads it.
   }
-  leave(k, s, rng)
+  leave(s, rng)
   return true
 }

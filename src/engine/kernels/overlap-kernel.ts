@@ -1,4 +1,4 @@
-import { instantiateKernels, WASM_PAGE, type WasmMemory } from './wasm.js'
+import { EMPTY, instantiateKernels, WASM_PAGE, type WasmMemory } from './wasm.js'
 
 /**
  * WebAssembly SIMD128 fast path of the overlap-space network (kernel text and memory
@@ -122,13 +122,13 @@ export class OverlapKernel {
   private readonly stageRows: number
   private readonly end: number
   private buffer: ArrayBuffer | null = null
-  private u8 = new Uint8Array(0)
-  private s8 = new Int8Array(0)
-  private prev8 = new Int8Array(0)
-  private m16 = new Int16Array(0)
-  private m32 = new Int32Array(0)
-  private order32 = new Int32Array(0)
-  private noise64 = new Float64Array(0)
+  private u8: Uint8Array = EMPTY.u8
+  private s8: Int8Array = EMPTY.i8
+  private prev8: Int8Array = EMPTY.i8
+  private m16: Int16Array = EMPTY.i16
+  private m32: Int32Array = EMPTY.i32
+  private order32: Int32Array = EMPTY.i32
+  private noise64: Float64Array = EMPTY.f64
 
   /** Null when the host has no WebAssembly SIMD or the size does not suit the kernel. */
   static create (neurons: number, patterns: number, selfTerm: number): OverlapKernel | null {

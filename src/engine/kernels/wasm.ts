@@ -22,6 +22,15 @@ interface WasmApi {
 
 export const WASM_PAGE = 65536
 
+/** Placeholders for views that are made on first use, so building a network allocates no throwaway buffers. */
+export const EMPTY = {
+  u8: new Uint8Array(0),
+  i8: new Int8Array(0),
+  i16: new Int16Array(0),
+  i32: new Int32Array(0),
+  f64: new Float64Array(0)
+} as const
+
 /** The host's WebAssembly API, or null where there is none. */
 export function wasmApi (): WasmApi | null {
   return (globalThis as { WebAssembly?: WasmApi }).WebAssembly ?? null
