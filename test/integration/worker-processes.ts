@@ -16,8 +16,8 @@ export interface WorkerProcess {
   child: ChildProcess
   /** Every line printed so far. */
   lines: WorkerLine[]
-  /** Resolves with the first line (past or future) that satisfies `predicate`. */
-  waitFor: (predicate: (line: WorkerLine) => boolean, timeoutMs?: number) => Promise<WorkerLine>
+  /** Resolves with the first line (past or future) that satisfies `predicate`; `index` counts lines from 0. */
+  waitFor: (predicate: (line: WorkerLine, index: number) => boolean, timeoutMs?: number) => Promise<WorkerLine>
   /** Resolves when the process has exited. */
   exited: Promise<{ code: number | null, signal: NodeJS.Signals | null }>
 }
@@ -28,7 +28,7 @@ export function spawnWorker (options: Omit<WorkerProcessOptions, 'logger' | 'obs
     stdio: ['ignore', 'pipe', 'inherit']
   })
   const lines: WorkerLine[] = []
-  const waiters = new Set<{ predicate: (line: WorkerLine) => boolean, resolve: (line: WorkerLine) => void }>()
+  const waiters = new Set<{ predicate: (line: WorkerLine, index: number) => boolean, resolve: (line: WorkerLine) => void }>()
   createInterface({ input: child.stdout! }).on('line', (text) => {
     let line: WorkerLine
     try {
@@ -38,7 +38,7 @@ export function spawnWorker (options: Omit<WorkerProcessOptions, 'logger' | 'obs
     }
     lines.push(line)
     for (const waiter of [...waiters]) {
-      if (waiter.predicate(line)) {
+      if (waiter.predicate(line, lines.length - 1)) {
         waiters.delete(waiter)
         waiter.resolve(line)
       }
@@ -47,7 +47,7 @@ export function spawnWorker (options: Omit<WorkerProcessOptions, 'logger' | 'obs
   const exited = new Promise<{ code: number | null, signal: NodeJS.Signals | null }>((resolve) => {
     child.once('exit', (code, signal) => resolve({ code, signal }))
   })
-  const waitFor = (predicate: (line: WorkerLine) => boolean, timeoutMs = 60_000): Promise<WorkerLine> => {
+  const waitFor = (predicate: (line: WorkerLine, index: number) => boolean, timeoutMs = 60_000): Promise<WorkerLine> => {
     const seen = lines.find(predicate)
     if (seen !== undefined) return Promise.resolve(seen)
     return new Promise((resolve, reject) => {
