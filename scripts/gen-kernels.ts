@@ -166,7 +166,7 @@ const LOCALS4 = `(local $o i32) (local $ml v128) (local $mh v128)
  * changes a neuron, so the group is cut short there and the next group starts right after
  * it. Every decision therefore sees exactly the field the one-at-a-time sweep would.
  */
-function sweep16Grouped (): string {
+function sweep16Body (): string {
   const visit = (j: number): string => `
           (local.set $i (local.get $i${j}))
           (local.set $row (local.get $r${j}))
@@ -185,9 +185,6 @@ function sweep16Grouped (): string {
           (local.set $i${j} (i32.load offset=${4 * j} (i32.add (local.get $order) (i32.shl (local.get $k) (i32.const 2)))))
           (local.set $r${j} (i32.add (local.get $xi) (i32.mul (local.get $i${j}) (local.get $pp))))`
   return `
-  (func (export "sweep16") (param $xi i32) (param $m i32) (param $s i32) (param $order i32) (param $n i32) (param $pp i32) (param $self i32) (result i32)
-    ${LOCALS} ${LOCALS4}
-    (local $k i32) (local $i i32) (local $si i32) (local $v i32) (local $changed i32)
     (local.set $k (i32.const 0))
     (block $done
       (loop $visit
@@ -212,8 +209,75 @@ function sweep16Grouped (): string {
             ${flip(16)}
             (local.set $changed (i32.const 1))))
         (local.set $k (i32.add (local.get $k) (i32.const 1)))
-        (br $visit)))
+        (br $visit)))`
+}
+
+function sweep16Locals (): string {
+  return `${LOCALS} ${LOCALS4}
+    (local $k i32) (local $i i32) (local $si i32) (local $v i32) (local $changed i32)`
+}
+
+function sweep16Grouped (): string {
+  return `
+  (func (export "sweep16") (param $xi i32) (param $m i32) (param $s i32) (param $order i32) (param $n i32) (param $pp i32) (param $self i32) (result i32)
+    ${sweep16Locals()}
+    ${sweep16Body()}
     (local.get $changed))`
+}
+
+/**
+ * A whole zero-temperature asynchronous trial in one call (int16 overlaps): before each sweep
+ * the visiting order is reshuffled in place (Fisher–Yates on the xoshiro256** state at $state,
+ * as in "shuffle") unless $shuffle is 0, then one grouped sweep; stops after the first sweep
+ * that changes nothing or after $max sweeps. Returns 2·sweeps + (1 if the last sweep changed
+ * a neuron). The generator state and its last output are written back as in "shuffle".
+ */
+function runAsync16 (): string {
+  return `
+  (func (export "runAsync16") (param $xi i32) (param $m i32) (param $s i32) (param $order i32) (param $n i32) (param $pp i32) (param $self i32) (param $state i32) (param $max i32) (param $shuffle i32) (result i32)
+    ${sweep16Locals()}
+    (local $w0 i64) (local $w1 i64) (local $w2 i64) (local $w3 i64) (local $wt i64) (local $wx i64) (local $drew i32)
+    (local $fi i32) (local $fj i32) (local $fpi i32) (local $fpj i32) (local $ftmp i32) (local $sweeps i32)
+    (local.set $w0 (i64.load (local.get $state)))
+    (local.set $w1 (i64.load offset=8 (local.get $state)))
+    (local.set $w2 (i64.load offset=16 (local.get $state)))
+    (local.set $w3 (i64.load offset=24 (local.get $state)))
+    (loop $trial
+      (local.set $sweeps (i32.add (local.get $sweeps) (i32.const 1)))
+      (if (i32.and (local.get $shuffle) (i32.ge_u (local.get $n) (i32.const 2)))
+        (then
+          (local.set $drew (i32.const 1))
+          (local.set $fi (i32.sub (local.get $n) (i32.const 1)))
+          (loop $draw
+            (local.set $wx (i64.mul (i64.rotl (i64.mul (local.get $w1) (i64.const 5)) (i64.const 7)) (i64.const 9)))
+            (local.set $wt (i64.shl (local.get $w1) (i64.const 17)))
+            (local.set $w2 (i64.xor (local.get $w2) (local.get $w0)))
+            (local.set $w3 (i64.xor (local.get $w3) (local.get $w1)))
+            (local.set $w1 (i64.xor (local.get $w1) (local.get $w2)))
+            (local.set $w0 (i64.xor (local.get $w0) (local.get $w3)))
+            (local.set $w2 (i64.xor (local.get $w2) (local.get $wt)))
+            (local.set $w3 (i64.rotl (local.get $w3) (i64.const 45)))
+            (local.set $wt (i64.extend_i32_u (i32.add (local.get $fi) (i32.const 1))))
+            (local.set $fj (i32.wrap_i64 (i64.shr_u
+              (i64.add
+                (i64.mul (i64.shr_u (local.get $wx) (i64.const 32)) (local.get $wt))
+                (i64.shr_u (i64.mul (i64.and (local.get $wx) (i64.const 0xffffffff)) (local.get $wt)) (i64.const 32)))
+              (i64.const 32))))
+            (local.set $fpi (i32.add (local.get $order) (i32.shl (local.get $fi) (i32.const 2))))
+            (local.set $fpj (i32.add (local.get $order) (i32.shl (local.get $fj) (i32.const 2))))
+            (local.set $ftmp (i32.load (local.get $fpi)))
+            (i32.store (local.get $fpi) (i32.load (local.get $fpj)))
+            (i32.store (local.get $fpj) (local.get $ftmp))
+            (br_if $draw (local.tee $fi (i32.sub (local.get $fi) (i32.const 1)))))))
+      (local.set $changed (i32.const 0))
+      ${sweep16Body()}
+      (br_if $trial (i32.and (local.get $changed) (i32.lt_u (local.get $sweeps) (local.get $max)))))
+    (i64.store (local.get $state) (local.get $w0))
+    (i64.store offset=8 (local.get $state) (local.get $w1))
+    (i64.store offset=16 (local.get $state) (local.get $w2))
+    (i64.store offset=24 (local.get $state) (local.get $w3))
+    (if (local.get $drew) (then (i64.store offset=32 (local.get $state) (local.get $wx))))
+    (i32.add (i32.shl (local.get $sweeps) (i32.const 1)) (local.get $changed)))`
 }
 
 /** The decision pass of the int16 synchronous step, four neurons per field computation. */
@@ -839,6 +903,7 @@ ${variant(32)}
 ${transpose()}
 ${shuffle()}
 ${unbiasedRows()}
+${runAsync16()}
 ${dense()}
 ${dense16()}
 )

@@ -45,6 +45,10 @@ export function runDynamics (net: Network, dynamics: Dynamics, rng: RandomSource
   let sweeps = 0
   const order = scratch.order
   resetIdentity(order)
+  if (!thermal && dynamics.update !== 'sync' && overlapTrajectory === null && energyTrajectory === null && net.native?.runZeroTemperature !== undefined) {
+    const run = net.native.runZeroTemperature(order, dynamics.maxSweeps, dynamics.update === 'async-random', rng)
+    if (run !== null) return { sweeps: run.sweeps, ending: run.ending, timeAveragedOverlap: Number.NaN, overlapTrajectory: null, energyTrajectory: null }
+  }
 
   for (let sweep = 1; sweep <= dynamics.maxSweeps; sweep++) {
     sweeps = sweep

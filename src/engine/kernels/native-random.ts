@@ -27,7 +27,7 @@ function randomKernel (): RandomExports | null {
 }
 
 /** The generator's state words, [s0 high, s0 low, s1 high, …] (see random/xoshiro256.ts), if reachable. */
-function xoshiroState (rng: RandomSource): Int32Array | null {
+export function xoshiroState (rng: RandomSource): Int32Array | null {
   if (!areFastPathsEnabled() || !(rng instanceof Xoshiro256StarStar)) return null
   const s = (rng as unknown as { s?: unknown }).s
   return s instanceof Int32Array && s.length === 8 ? s : null
@@ -105,4 +105,27 @@ export function nativeUnbiasedRows (out: Int8Array, offset: number, n: number, c
   }
   leave(s, rng)
   return true
+}
+
+/**
+ * Copies a generator's state words into a kernel's state area: four little-endian 64-bit
+ * words, then its last output (kept if the kernel draws nothing).
+ */
+export function stateToKernel (s: Int32Array, rng: RandomSource, view: Int32Array): void {
+  for (let w = 0; w < 4; w++) {
+    view[2 * w] = s[2 * w + 1]!
+    view[2 * w + 1] = s[2 * w]!
+  }
+  view[8] = rng.word[0]!
+  view[9] = rng.word[1]!
+}
+
+/** Copies a kernel's state area back into the generator (state words and last output). */
+export function stateFromKernel (view: Int32Array, s: Int32Array, rng: RandomSource): void {
+  for (let w = 0; w < 4; w++) {
+    s[2 * w + 1] = view[2 * w]!
+    s[2 * w] = view[2 * w + 1]!
+  }
+  rng.word[0] = view[8]!
+  rng.word[1] = view[9]!
 }

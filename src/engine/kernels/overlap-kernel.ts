@@ -1,4 +1,6 @@
 import { EMPTY, instantiateKernels, WASM_PAGE, type WasmMemory } from './wasm.js'
+import { stateFromKernel, stateToKernel, xoshiroState } from './native-random.js'
+import type { RandomSource } from '../random/source.js'
 
 /**
  * WebAssembly SIMD128 fast path of the overlap-space network (kernel text and memory
@@ -37,6 +39,7 @@ interface OverlapExports {
   glauberSync16: (xi: number, m: number, s: number, next: number, noise: number, n: number, pp: number, self: number, factor: number) => void
   glauberSync32: (xi: number, m: number, s: number, next: number, noise: number, n: number, pp: number, self: number, factor: number) => void
   transpose: (src: number, srcStride: number, cols: number, dst: number, stride: number, rows: number) => void
+  runAsync16: (xi: number, m: number, s: number, order: number, n: number, pp: number, self: number, state: number, max: number, shuffle: number) => number
 }
 
 /**
@@ -119,6 +122,7 @@ export class OverlapKernel {
   private readonly orderAt: number
   private readonly noiseAt: number
   private readonly stageAt: number
+  private readonly rngAt: number
   private readonly stageRows: number
   private readonly end: number
   private buffer: ArrayBuffer | null = null
@@ -129,6 +133,7 @@ export class OverlapKernel {
   private m32: Int32Array = EMPTY.i32
   private order32: Int32Array = EMPTY.i32
   private noise64: Float64Array = EMPTY.f64
+  private rng32: Int32Array = EMPTY.i32
 
   /** Null when the host has no WebAssembly SIMD or the size does not suit the kernel. */
   static create (neurons: number, patterns: number, selfTerm: number): OverlapKernel | null {
@@ -163,7 +168,8 @@ export class OverlapKernel {
     this.prevAt = align16(this.nextAt + n)
     this.orderAt = align16(this.prevAt + n)
     this.noiseAt = align16(this.orderAt + 4 * n)
-    this.stageAt = align16(this.noiseAt + 8 * n)
+    this.rngAt = align16(this.noiseAt + 8 * n)
+    this.stageAt = this.rngAt + 48
     // Pattern rows staged for the transposer in chunks of about STAGE_BYTES (multiples of 16
     // rows), so no second pattern-sized buffer stays behind in a private memory.
     this.stageRows = Math.min(pp, Math.max(16, Math.floor(STAGE_BYTES / n / 16) * 16))
@@ -211,6 +217,28 @@ export class OverlapKernel {
     const changed = fn(this.xiAt, this.mAt, this.sAt, this.orderAt, this.n, this.stride, this.self)
     this.leave(state, m, true)
     return changed !== 0
+  }
+
+  /**
+   * A whole zero-temperature asynchronous trial from the loaded state: before each sweep the
+   * order is reshuffled with `rng` (when `shuffle`), as the plain loop does. Returns the sweeps
+   * and whether the last one still changed a neuron (the sweep limit was hit), or null when
+   * this kernel cannot (int32 overlaps, or a random source other than the engine's
+   * xoshiro256**), leaving everything untouched.
+   */
+  runAsync (state: Int8Array, m: Int32Array, order: Int32Array, maxSweeps: number, shuffle: boolean, rng: RandomSource): { sweeps: number, changedLast: boolean } | null {
+    if (this.wide) return null
+    const words = shuffle ? xoshiroState(rng) : null
+    if (shuffle && words === null) return null
+    this.enter()
+    this.pass(state, m)
+    this.order32.set(order)
+    if (words !== null) stateToKernel(words, rng, this.rng32)
+    const r = this.k.runAsync16(this.xiAt, this.mAt, this.sAt, this.orderAt, this.n, this.stride, this.self, this.rngAt, maxSweeps, shuffle ? 1 : 0)
+    this.leave(state, m, true)
+    order.set(this.order32)
+    if (words !== null) stateFromKernel(this.rng32, words, rng)
+    return { sweeps: r >>> 1, changedLast: (r & 1) === 1 }
   }
 
   /** One zero-temperature synchronous step: 0 changed, 1 fixed point, 2 two-cycle (see the kernel). */
@@ -262,6 +290,7 @@ export class OverlapKernel {
       this.m32 = new Int32Array(buffer, this.mAt, this.p)
       this.order32 = new Int32Array(buffer, this.orderAt, this.n)
       this.noise64 = new Float64Array(buffer, this.noiseAt, this.n)
+      this.rng32 = new Int32Array(buffer, this.rngAt, 10)
     }
     if (ws.residentId !== this.id) {
       if (!this.isPrivate && copyPatterns) this.u8.set(new Uint8Array(this.xi.buffer, this.xi.byteOffset, this.xi.length), this.xiAt)

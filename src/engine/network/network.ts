@@ -7,6 +7,8 @@
  * where the representation folds the bias into `field`; raw units keep Hebbian fields
  * exact integers so the tie rule (h = 0 keeps the state) is decided exactly.
  */
+import type { RandomSource } from '../random/source.js'
+
 /** How a synchronous step ended: s(t) = s(t−1) is `fixed`, s(t) = s(t−2) is `cycle2`. */
 export type SyncOutcome = 'changed' | 'fixed' | 'cycle2'
 
@@ -51,6 +53,14 @@ export interface Network {
  * the visiting order and Glauber's uniforms first, in the order those loops draw them.
  */
 export interface NativeSweeps {
+  /**
+   * Optional: a whole zero-temperature asynchronous trial (no trajectories) in one call:
+   * before each sweep `order` is reshuffled with `rng` when `shuffle` (drawing exactly as
+   * dynamics/run.ts does), and the trial stops after the first sweep that changes nothing or
+   * after `maxSweeps`. Null when it cannot (for instance another random source), with nothing
+   * drawn or changed.
+   */
+  runZeroTemperature? (order: Int32Array, maxSweeps: number, shuffle: boolean, rng: RandomSource): { sweeps: number, ending: 'fixed' | 'max' } | null
   /** Zero-temperature asynchronous sweep in `order`; true if any neuron changed. */
   sweepZeroTemperature (order: Int32Array): boolean
   /** Zero-temperature synchronous step; `previous` holds s(t−2) and receives s(t−1) unless the step is `fixed`. */

@@ -143,6 +143,10 @@ export class OverlapSpaceNetwork implements Network {
 
 function kernelSweeps (kernel: OverlapKernel, state: Int8Array, overlaps: Int32Array): NativeSweeps {
   return {
+    runZeroTemperature: (order, maxSweeps, shuffle, rng) => {
+      const run = kernel.runAsync(state, overlaps, order, maxSweeps, shuffle, rng)
+      return run === null ? null : { sweeps: run.sweeps, ending: run.changedLast ? 'max' : 'fixed' }
+    },
     sweepZeroTemperature: (order) => kernel.sweep(state, overlaps, order),
     stepZeroTemperature: (previous, checkPrevious) => {
       const outcome = kernel.sync(state, overlaps, previous, checkPrevious)

@@ -53,6 +53,18 @@ describe('overlap-space fast path is bit-identical to the plain path', () => {
     expect(new Set(records.map((r) => r.sweeps)).size).toBeGreaterThan(1)
   })
 
+  it('whole trials in one call (no trajectories): random and sequential orders, erased cues, sweep limit', () => {
+    const quiet = { overlapTrajectory: false, energyTrajectory: false, stability: false }
+    expectSame(params({ patterns: 40, measures: quiet }), 8)
+    expectSame(params({ neurons: 203, patterns: 30, cue: { kind: 'erase', fraction: 0.4, fill: 'zero' }, measures: quiet }))
+    expectSame(params({ neurons: 150, rule: { kind: 'hebbian', selfCoupling: true }, dynamics: { update: 'async-sequential' }, measures: quiet }))
+    // At most two sweeps: trials that need a third end at the limit.
+    const limited = expectSame(params({ patterns: 30, cue: { kind: 'flip', fraction: 0.05 }, dynamics: { maxSweeps: 2 }, measures: quiet }), 8)
+    expect(limited.some((r) => r.ending === 'max')).toBe(true)
+    expect(limited.some((r) => r.ending === 'fixed')).toBe(true)
+    expectSame(params({ neurons: 1, patterns: 1, cue: { kind: 'random' }, measures: quiet }), 3)
+  })
+
   it('synchronous zero-temperature dynamics with fixed points and 2-cycles', () => {
     const records = expectSame(params({ patterns: 45, cue: { kind: 'random' }, dynamics: { update: 'sync', maxSweeps: 40 } }), 8)
     // Random starts at α = 0.15 end in both kinds of attractor, so both kernel exits are compared.
