@@ -333,6 +333,68 @@ function sweepOne (w: Width): string {
     (local.get $changed))`
 }
 
+/**
+ * One synchronous zero-temperature step as a block: leaves in $same 1 if s(t) = s(t−1) (state
+ * left as is), 2 if s(t) equals prev (compared when $check), else 0; unless 1, prev ← s(t−1)
+ * and s, m ← s(t), m updated from the changed neurons only.
+ */
+function syncBody (w: Width): string {
+  return `
+    (block $step
+    (local.set $same (i32.const 1))
+    (local.set $i (i32.const 0))
+    ${w === 16 ? syncFields16() : ''}
+    (if (i32.lt_u (local.get $i) (local.get $n)) (then
+    (loop $visit
+      (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+      (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+      ${dot(w)}
+      (local.set $h (i32.sub (local.get $h) (i32.mul (local.get $self) (local.get $si))))
+      (local.set $v ${DECIDE})
+      (i32.store8 (i32.add (local.get $next) (local.get $i)) (local.get $v))
+      (if (i32.ne (local.get $v) (local.get $si)) (then (local.set $same (i32.const 0))))
+      (br_if $visit (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))))
+    (br_if $step (local.get $same))
+    (if (local.get $check)
+      (then
+        (local.set $i (i32.const 0))
+        (block $differs
+          (loop $compare
+            (br_if $differs (i32.ne (i32.load8_s (i32.add (local.get $next) (local.get $i))) (i32.load8_s (i32.add (local.get $prev) (local.get $i)))))
+            (br_if $compare (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))
+          (local.set $same (i32.const 2)))))
+    (local.set $i (i32.const 0))
+    (loop $apply
+      (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+      (local.set $v (i32.load8_s (i32.add (local.get $next) (local.get $i))))
+      (i32.store8 (i32.add (local.get $prev) (local.get $i)) (local.get $si))
+      (if (i32.ne (local.get $v) (local.get $si))
+        (then
+          (i32.store8 (i32.add (local.get $s) (local.get $i)) (local.get $v))
+          (local.set $delta (i32.sub (local.get $v) (local.get $si)))
+          (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+          ${flip(w)}))
+      (br_if $apply (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n)))))`
+}
+
+/**
+ * A whole zero-temperature synchronous trial in one call: steps t = 1, 2, … (the two-cycle
+ * compared from t = 2 on) until a fixed point, a two-cycle or $max steps. Returns
+ * 4·steps + ending (0 limit reached, 1 fixed point, 2 two-cycle).
+ */
+function runSync (w: Width): string {
+  return `
+  (func (export "runSync${w}") (param $xi i32) (param $m i32) (param $s i32) (param $next i32) (param $prev i32) (param $n i32) (param $pp i32) (param $self i32) (param $max i32) (result i32)
+    ${LOCALS}
+    (local $i i32) (local $si i32) (local $v i32) (local $same i32) (local $check i32) (local $steps i32) ${w === 16 ? LOCALS4 : ''}
+    (loop $trial
+      (local.set $steps (i32.add (local.get $steps) (i32.const 1)))
+      (local.set $check (i32.ge_u (local.get $steps) (i32.const 2)))
+      ${syncBody(w)}
+      (br_if $trial (i32.and (i32.eqz (local.get $same)) (i32.lt_u (local.get $steps) (local.get $max)))))
+    (i32.add (i32.shl (local.get $steps) (i32.const 2)) (local.get $same)))`
+}
+
 function variant (w: Width): string {
   const lane = w === 16 ? 2 : 4
   return `
@@ -397,40 +459,7 @@ function variant (w: Width): string {
   (func (export "sync${w}") (param $xi i32) (param $m i32) (param $s i32) (param $next i32) (param $prev i32) (param $n i32) (param $pp i32) (param $self i32) (param $check i32) (result i32)
     ${LOCALS}
     (local $i i32) (local $si i32) (local $v i32) (local $same i32) ${w === 16 ? LOCALS4 : ''}
-    (local.set $same (i32.const 1))
-    (local.set $i (i32.const 0))
-    ${w === 16 ? syncFields16() : ''}
-    (if (i32.lt_u (local.get $i) (local.get $n)) (then
-    (loop $visit
-      (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
-      (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
-      ${dot(w)}
-      (local.set $h (i32.sub (local.get $h) (i32.mul (local.get $self) (local.get $si))))
-      (local.set $v ${DECIDE})
-      (i32.store8 (i32.add (local.get $next) (local.get $i)) (local.get $v))
-      (if (i32.ne (local.get $v) (local.get $si)) (then (local.set $same (i32.const 0))))
-      (br_if $visit (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))))
-    (if (local.get $same) (then (return (i32.const 1))))
-    (if (local.get $check)
-      (then
-        (local.set $i (i32.const 0))
-        (block $differs
-          (loop $compare
-            (br_if $differs (i32.ne (i32.load8_s (i32.add (local.get $next) (local.get $i))) (i32.load8_s (i32.add (local.get $prev) (local.get $i)))))
-            (br_if $compare (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))
-          (local.set $same (i32.const 2)))))
-    (local.set $i (i32.const 0))
-    (loop $apply
-      (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
-      (local.set $v (i32.load8_s (i32.add (local.get $next) (local.get $i))))
-      (i32.store8 (i32.add (local.get $prev) (local.get $i)) (local.get $si))
-      (if (i32.ne (local.get $v) (local.get $si))
-        (then
-          (i32.store8 (i32.add (local.get $s) (local.get $i)) (local.get $v))
-          (local.set $delta (i32.sub (local.get $v) (local.get $si)))
-          (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
-          ${flip(w)}))
-      (br_if $apply (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))
+    ${syncBody(w)}
     (local.get $same))
 
   ;; One asynchronous Glauber sweep: s_i ← +1 iff u_k·(1 + exp(factor·h_i)) < 1, u_k = noise[k].
@@ -904,6 +933,8 @@ ${transpose()}
 ${shuffle()}
 ${unbiasedRows()}
 ${runAsync16()}
+${runSync(16)}
+${runSync(32)}
 ${dense()}
 ${dense16()}
 )

@@ -45,9 +45,13 @@ export function runDynamics (net: Network, dynamics: Dynamics, rng: RandomSource
   let sweeps = 0
   const order = scratch.order
   resetIdentity(order)
-  if (!thermal && dynamics.update !== 'sync' && overlapTrajectory === null && energyTrajectory === null && net.native?.runZeroTemperature !== undefined) {
-    const run = net.native.runZeroTemperature(order, dynamics.maxSweeps, dynamics.update === 'async-random', rng)
-    if (run !== null) return { sweeps: run.sweeps, ending: run.ending, timeAveragedOverlap: Number.NaN, overlapTrajectory: null, energyTrajectory: null }
+  // Without trajectories a zero-temperature trial observes nothing between sweeps, so a fast
+  // path may run it whole in one call.
+  if (!thermal && overlapTrajectory === null && energyTrajectory === null && net.native !== null) {
+    const run = dynamics.update === 'sync'
+      ? net.native.runSynchronous?.(scratch.previous, dynamics.maxSweeps)
+      : net.native.runZeroTemperature?.(order, dynamics.maxSweeps, dynamics.update === 'async-random', rng)
+    if (run !== undefined && run !== null) return { sweeps: run.sweeps, ending: run.ending, timeAveragedOverlap: Number.NaN, overlapTrajectory: null, energyTrajectory: null }
   }
 
   for (let sweep = 1; sweep <= dynamics.maxSweeps; sweep++) {

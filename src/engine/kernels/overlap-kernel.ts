@@ -39,6 +39,8 @@ interface OverlapExports {
   glauberSync16: (xi: number, m: number, s: number, next: number, noise: number, n: number, pp: number, self: number, factor: number) => void
   glauberSync32: (xi: number, m: number, s: number, next: number, noise: number, n: number, pp: number, self: number, factor: number) => void
   transpose: (src: number, srcStride: number, cols: number, dst: number, stride: number, rows: number) => void
+  runSync16: (xi: number, m: number, s: number, next: number, prev: number, n: number, pp: number, self: number, max: number) => number
+  runSync32: (xi: number, m: number, s: number, next: number, prev: number, n: number, pp: number, self: number, max: number) => number
   runAsync16: (xi: number, m: number, s: number, order: number, n: number, pp: number, self: number, state: number, max: number, shuffle: number) => number
 }
 
@@ -239,6 +241,22 @@ export class OverlapKernel {
     order.set(this.order32)
     if (words !== null) stateFromKernel(this.rng32, words, rng)
     return { sweeps: r >>> 1, changedLast: (r & 1) === 1 }
+  }
+
+  /**
+   * A whole zero-temperature synchronous trial from the loaded state: steps until a fixed
+   * point, a two-cycle or `maxSteps`. `previous` ends as the plain loop leaves it.
+   */
+  runSync (state: Int8Array, m: Int32Array, previous: Int8Array, maxSteps: number): { steps: number, ending: 'fixed' | 'cycle2' | 'max' } {
+    this.enter()
+    this.pass(state, m)
+    this.prev8.set(previous)
+    const fn = this.wide ? this.k.runSync32 : this.k.runSync16
+    const r = fn(this.xiAt, this.mAt, this.sAt, this.nextAt, this.prevAt, this.n, this.stride, this.self, maxSteps)
+    previous.set(this.prev8)
+    this.leave(state, m, true)
+    const ending = r & 3
+    return { steps: r >>> 2, ending: ending === 1 ? 'fixed' : ending === 2 ? 'cycle2' : 'max' }
   }
 
   /** One zero-temperature synchronous step: 0 changed, 1 fixed point, 2 two-cycle (see the kernel). */

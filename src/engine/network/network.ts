@@ -61,6 +61,11 @@ export interface NativeSweeps {
    * drawn or changed.
    */
   runZeroTemperature? (order: Int32Array, maxSweeps: number, shuffle: boolean, rng: RandomSource): { sweeps: number, ending: 'fixed' | 'max' } | null
+  /**
+   * Optional: a whole zero-temperature synchronous trial (no trajectories) in one call, steps
+   * t = 1, 2, … as `stepZeroTemperature` with the two-cycle compared from t = 2 on.
+   */
+  runSynchronous? (previous: Int8Array, maxSteps: number): { sweeps: number, ending: 'fixed' | 'cycle2' | 'max' }
   /** Zero-temperature asynchronous sweep in `order`; true if any neuron changed. */
   sweepZeroTemperature (order: Int32Array): boolean
   /** Zero-temperature synchronous step; `previous` holds s(t−2) and receives s(t−1) unless the step is `fixed`. */

@@ -147,6 +147,10 @@ function kernelSweeps (kernel: OverlapKernel, state: Int8Array, overlaps: Int32A
       const run = kernel.runAsync(state, overlaps, order, maxSweeps, shuffle, rng)
       return run === null ? null : { sweeps: run.sweeps, ending: run.changedLast ? 'max' : 'fixed' }
     },
+    runSynchronous: (previous, maxSteps) => {
+      const run = kernel.runSync(state, overlaps, previous, maxSteps)
+      return { sweeps: run.steps, ending: run.ending }
+    },
     sweepZeroTemperature: (order) => kernel.sweep(state, overlaps, order),
     stepZeroTemperature: (previous, checkPrevious) => {
       const outcome = kernel.sync(state, overlaps, previous, checkPrevious)

@@ -65,6 +65,15 @@ describe('overlap-space fast path is bit-identical to the plain path', () => {
     expectSame(params({ neurons: 1, patterns: 1, cue: { kind: 'random' }, measures: quiet }), 3)
   })
 
+  it('whole synchronous trials in one call (no trajectories): fixed points, 2-cycles, step limit, int32 overlaps', () => {
+    const quiet = { overlapTrajectory: false, energyTrajectory: false, stability: false }
+    const records = expectSame(params({ patterns: 45, cue: { kind: 'random' }, dynamics: { update: 'sync', maxSweeps: 40 }, measures: quiet }), 8)
+    expect(new Set(records.map((r) => r.ending))).toStrictEqual(new Set(['fixed', 'cycle2']))
+    const limited = expectSame(params({ patterns: 45, cue: { kind: 'random' }, dynamics: { update: 'sync', maxSweeps: 3 }, measures: quiet }), 8)
+    expect(limited.some((r) => r.ending === 'max')).toBe(true)
+    expectSame(params({ neurons: 33_000, patterns: 5, cue: { kind: 'flip', fraction: 0.3 }, dynamics: { update: 'sync', maxSweeps: 4 }, measures: quiet }), 2, 'wasm-simd128-overlap-i32')
+  })
+
   it('synchronous zero-temperature dynamics with fixed points and 2-cycles', () => {
     const records = expectSame(params({ patterns: 45, cue: { kind: 'random' }, dynamics: { update: 'sync', maxSweeps: 40 } }), 8)
     // Random starts at α = 0.15 end in both kinds of attractor, so both kernel exits are compared.
