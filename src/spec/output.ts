@@ -11,17 +11,30 @@ import { gridAxes } from './grid.js'
 export interface OutputOptions {
   /** Include every trial's record (JSON: the `trials` member; CSV: one row per trial). */
   perTrial: boolean
+  /**
+   * JSON only: keep the run's timing (wallSeconds, cpuSeconds, workers) in the provenance.
+   * Off by default so that the same spec gives byte-identical results whatever ran it,
+   * however often it was interrupted. @defaultValue false
+   */
+  timing?: boolean
 }
+
+/** Provenance members that describe one run rather than the result. */
+const RUN_TIMING = ['wallSeconds', 'cpuSeconds', 'workers'] as const
 
 // MAIN //
 
 /**
  * The result as canonical JSON (sorted keys, no whitespace, one trailing newline).
- * Without perTrial the `trials` member is left out. Non-finite numbers become null.
+ * Without perTrial the `trials` member is left out; without timing the run's timing is.
+ * Non-finite numbers become null.
  */
 export function resultToJson (result: SweepResult, opts: OutputOptions): string {
-  const { trials, ...rest } = result
-  return canonicalJson(opts.perTrial ? { ...rest, trials } : rest) + '\n'
+  const { trials, provenance, ...rest } = result
+  const kept: Record<string, unknown> = { ...provenance }
+  if (opts.timing !== true) for (const key of RUN_TIMING) delete kept[key]
+  const body = { ...rest, provenance: kept }
+  return canonicalJson(opts.perTrial ? { ...body, trials } : body) + '\n'
 }
 
 /**

@@ -130,6 +130,14 @@ describe('output', () => {
     expect(JSON.parse(resultToJson(reference, { perTrial: true })).trials).toHaveLength(4)
   })
 
+  it('leaves the run timing out unless asked, so reruns give the same bytes', () => {
+    const rerun = { ...reference, provenance: { ...reference.provenance, wallSeconds: 99, cpuSeconds: 42, workers: 7 } }
+    expect(resultToJson(rerun, { perTrial: true })).toBe(resultToJson(reference, { perTrial: true }))
+    const timed = JSON.parse(resultToJson(rerun, { perTrial: false, timing: true }))
+    expect(timed.provenance).toMatchObject({ wallSeconds: 99, cpuSeconds: 42, workers: 7 })
+    expect(JSON.parse(resultToJson(rerun, { perTrial: false })).provenance.wallSeconds).toBeUndefined()
+  })
+
   it('writes one tidy CSV row per point, varied parameters first', () => {
     const csv = resultToCsv(reference, { perTrial: false })
     const lines = csv.split('\r\n')

@@ -23,7 +23,8 @@ type Format = keyof typeof MEDIA
 
 const resultsQuery = z.object({
   format: z.enum(['json', 'csv']).optional().describe('Overrides the Accept header.'),
-  trials: z.enum(['true', 'false']).optional().describe('true: one record per trial (JSON: a `trials` member; CSV: one row per trial). Default: false (one row per grid point).')
+  trials: z.enum(['true', 'false']).optional().describe('true: one record per trial (JSON: a `trials` member; CSV: one row per trial). Default: false (one row per grid point).'),
+  timing: z.enum(['true', 'false']).optional().describe('JSON only. true: include the run timing (wallSeconds, cpuSeconds, workers) in the provenance. Default false, so the bytes depend on the spec and the code only.')
 })
 
 interface Rendered { body: Buffer, etag: string }
@@ -111,12 +112,13 @@ export const resultRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
     if (record.status !== 'succeeded') {
       throw new ServiceError('MEMSWEEP_RESULTS_UNAVAILABLE', { id, status: record.status }, { extensions: { sweepId: id } })
     }
-    const key = `${id}\u0000${format}\u0000${perTrial ? 1 : 0}`
+    const timing = request.query.timing === 'true'
+    const key = `${id}\u0000${format}\u0000${perTrial ? 1 : 0}\u0000${timing ? 1 : 0}`
     let rendered = cache.get(key)
     if (rendered === undefined) {
       const result = await ctx.queue.results(id)
       if (result === null) throw new Error(`sweep ${id} succeeded but the backend has no result for it`)
-      const text = format === 'csv' ? resultToCsv(result, { perTrial }) : resultToJson(result, { perTrial })
+      const text = format === 'csv' ? resultToCsv(result, { perTrial }) : resultToJson(result, { perTrial, timing })
       const body = Buffer.from(text, 'utf8')
       rendered = { body, etag: `"${createHash('sha256').update(body).digest('base64url')}"` }
       cache.set(key, rendered)

@@ -69,11 +69,11 @@ export const provenanceSchema = z.looseObject({
   node: z.string(),
   v8: z.string(),
   rng: z.string(),
-  wallSeconds: z.number(),
-  cpuSeconds: z.number(),
+  wallSeconds: z.number().optional().describe('Only with ?timing=true: wall-clock seconds from the first chunk started to the last one finished.'),
+  cpuSeconds: z.number().optional().describe('Only with ?timing=true: CPU seconds summed over all chunks.'),
   workers: z.number().int().optional(),
   fastPath: z.string().optional()
-}).describe('Where and how the result was computed. Timing fields differ between runs; everything else is fixed by the spec and the code.')
+}).describe('Where and how the result was computed: fixed by the spec and the code, so repeated or interrupted runs give the same bytes. The run timing (which differs between runs) appears only with ?timing=true.')
   .meta({ id: 'Provenance' })
 
 export const sweepResultSchema = z.object({

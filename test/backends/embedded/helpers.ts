@@ -78,14 +78,10 @@ export async function pollUntil (check: () => Promise<boolean>, timeoutMs: numbe
   }
 }
 
-/**
- * The result's bytes with the timing fields of the provenance zeroed: wall and CPU time
- * legitimately differ between two runs of the same spec; everything else must not.
- */
+/** The result's published bytes (JSON without run timing, both CSV forms). */
 export function resultBytes (result: SweepResult): { json: string, pointCsv: string, trialCsv: string } {
-  const timeless: SweepResult = { ...result, provenance: { ...result.provenance, wallSeconds: 0, cpuSeconds: 0, workers: 0 } }
   return {
-    json: resultToJson(timeless, { perTrial: true }),
+    json: resultToJson(result, { perTrial: true }),
     pointCsv: resultToCsv(result, { perTrial: false }),
     trialCsv: resultToCsv(result, { perTrial: true })
   }
