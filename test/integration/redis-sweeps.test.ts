@@ -196,9 +196,12 @@ describe.runIf(available)('Redis backend: sweeps through the queue port', () => 
     expect(reused.progress.trialsDone).toBe(reused.progress.trialsTotal)
     expect(resultBytes((await queue.results(reused.id))!)).toBe(resultBytes((await queue.results(original.id))!))
 
+    // Not asked to reuse, or another lab's results: a fresh run (the idle worker may start it at once).
     const fresh = await queue.submit({ spec, owner: 'lab-a' })
-    expect(fresh).toMatchObject({ status: 'queued', reusedFrom: null })
+    expect(fresh.reusedFrom).toBeNull()
+    expect(['queued', 'running']).toContain(fresh.status)
     const otherLab = await queue.submit({ spec, owner: 'lab-b', reuse: true })
-    expect(otherLab).toMatchObject({ status: 'queued', reusedFrom: null })
+    expect(otherLab.reusedFrom).toBeNull()
+    expect(['queued', 'running']).toContain(otherLab.status)
   })
 })
