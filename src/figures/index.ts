@@ -1,0 +1,27 @@
+/**
+ * Figures of sweep results as standalone SVG: a measure against one varied parameter, one
+ * series per value of another (or per sweep when several are overlaid), error bars, theory
+ * where it applies. Pure functions of their arguments; no I/O.
+ */
+import type { SweepResult } from '../spec/index.js'
+import { drawFigure } from './draw.js'
+import type { FigureOptionsInput } from './options.js'
+import { parseFigureOptions, planFigure } from './plan.js'
+
+export { FigureOptionsSchema, FIGURE_MEASURES, FIGURE_SIZE, type FigureMeasure, type FigureOptions, type FigureOptionsInput } from './options.js'
+export { FigureOptionsError, type FigureIssue } from './errors.js'
+export { parseFigureOptions, planFigure, type FigurePlan } from './plan.js'
+export { MAX_POINTS, MAX_SERIES, type PlotPoint, type PlotSeries } from './series.js'
+export type { TheoryOverlay } from './theory.js'
+export { MARKER_SHAPES, SERIES_DASHES } from './styles.js'
+
+/**
+ * Renders one result, or several overlaid (one series per sweep, labelled by its label), as
+ * an SVG document.
+ *
+ * @throws {FigureOptionsError} when the options are invalid or do not fit the results.
+ */
+export function renderFigure (results: SweepResult | readonly SweepResult[], options: FigureOptionsInput = {}): string {
+  const list: readonly SweepResult[] = Array.isArray(results) ? results : [results as SweepResult]
+  return drawFigure(planFigure(list, parseFigureOptions(options)))
+}
