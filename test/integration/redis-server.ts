@@ -72,7 +72,14 @@ export async function startPrivateRedis (extraArgs: string[] = []): Promise<Priv
     await exited
   }
 
-  await launch()
+  try {
+    await launch()
+  } catch (error) {
+    // Never leave a half-started server (or its directory) behind.
+    await kill('SIGKILL')
+    rmSync(dir, { recursive: true, force: true })
+    throw error
+  }
   return {
     url,
     crash: () => kill('SIGKILL'),
