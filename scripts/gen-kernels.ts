@@ -601,6 +601,31 @@ function shuffle (): string {
     (i64.store offset=32 (local.get $state) (local.get $x)))`
 }
 
+/**
+ * `count` uniform doubles in [0, 1) from the xoshiro256** state at `state` (as "shuffle"):
+ * the top 53 bits of each output times 2^−53, exactly the engine's `uniform()`.
+ */
+function uniforms (): string {
+  return `
+  (func (export "uniforms") (param $out i32) (param $count i32) (param $state i32)
+    (local $s0 i64) (local $s1 i64) (local $s2 i64) (local $s3 i64) (local $t i64) (local $x i64) (local $e i32)
+    (if (i32.eqz (local.get $count)) (then (return)))
+    (local.set $s0 (i64.load (local.get $state)))
+    (local.set $s1 (i64.load offset=8 (local.get $state)))
+    (local.set $s2 (i64.load offset=16 (local.get $state)))
+    (local.set $s3 (i64.load offset=24 (local.get $state)))
+    (local.set $e (i32.add (local.get $out) (i32.shl (local.get $count) (i32.const 3))))
+    (loop $draw
+      ${XOSHIRO_NEXT}
+      (f64.store (local.get $out) (f64.mul (f64.convert_i64_u (i64.shr_u (local.get $x) (i64.const 11))) (f64.const 0x1p-53)))
+      (br_if $draw (i32.lt_u (local.tee $out (i32.add (local.get $out) (i32.const 8))) (local.get $e))))
+    (i64.store (local.get $state) (local.get $s0))
+    (i64.store offset=8 (local.get $state) (local.get $s1))
+    (i64.store offset=16 (local.get $state) (local.get $s2))
+    (i64.store offset=24 (local.get $state) (local.get $s3))
+    (i64.store offset=32 (local.get $state) (local.get $x)))`
+}
+
 /** One xoshiro256** step on locals $s0..$s3, leaving the output in $x (uses $t). */
 const XOSHIRO_NEXT = `
       (local.set $x (i64.mul (i64.rotl (i64.mul (local.get $s1) (i64.const 5)) (i64.const 7)) (i64.const 9)))
@@ -932,6 +957,7 @@ ${variant(32)}
 ${transpose()}
 ${shuffle()}
 ${unbiasedRows()}
+${uniforms()}
 ${runAsync16()}
 ${runSync(16)}
 ${runSync(32)}

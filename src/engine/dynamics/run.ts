@@ -3,7 +3,7 @@ import type { Ending } from '../results.js'
 import type { RandomSource } from '../random/source.js'
 import type { Network, SyncOutcome } from '../network/network.js'
 import { resetIdentity, type Scratch } from './scratch.js'
-import { nativeShuffle } from '../kernels/native-random.js'
+import { nativeShuffle, nativeUniforms } from '../kernels/native-random.js'
 
 export interface DynamicsOutcome {
   sweeps: number
@@ -116,7 +116,7 @@ function asyncGlauberSweep (net: Network, order: Int32Array, temperature: number
   if (net.native !== null) {
     // Visit k draws the k-th uniform, and nothing else draws during a sweep, so drawing
     // them all first consumes the stream exactly as the loop below does.
-    for (let k = 0; k < order.length; k++) noise[k] = rng.uniform()
+    if (!nativeUniforms(noise, order.length, rng)) for (let k = 0; k < order.length; k++) noise[k] = rng.uniform()
     net.native.sweepGlauber(order, noise, factor)
     return 'changed'
   }
@@ -160,7 +160,7 @@ function syncGlauberStep (net: Network, temperature: number, rng: RandomSource, 
   const factor = -2 * net.fieldScale / temperature
   if (net.native !== null) {
     const noise = scratch.fields
-    for (let i = 0; i < n; i++) noise[i] = rng.uniform()
+    if (!nativeUniforms(noise, n, rng)) for (let i = 0; i < n; i++) noise[i] = rng.uniform()
     net.native.stepGlauber(noise, factor)
     return 'changed'
   }

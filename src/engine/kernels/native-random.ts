@@ -4,7 +4,7 @@ import type { RandomSource } from '../random/source.js'
 
 /**
  * Bulk draws from the engine's own xoshiro256** streams run in WebAssembly on native 64-bit
- * words: the per-sweep Fisher–Yates shuffle and unbiased pattern rows. A JavaScript draw
+ * words: the per-sweep Fisher–Yates shuffle, unbiased pattern rows and Glauber's uniforms. A JavaScript draw
  * costs tens of nanoseconds (64-bit arithmetic on 32-bit halves), a native one about one.
  * The kernel continues the stream from the generator's state and writes the state and the
  * last output back, so the stream and every value drawn are exactly those of the plain
@@ -15,6 +15,7 @@ interface RandomExports {
   memory: WasmMemory
   shuffle: (order: number, n: number, state: number) => void
   unbiasedRows: (out: number, n: number, count: number, state: number) => void
+  uniforms: (out: number, count: number, state: number) => void
 }
 
 let kernel: RandomExports | null | undefined
@@ -103,6 +104,22 @@ export function nativeUnbiasedRows (out: Int8Array, offset: number, n: number, c
     out.set(new Int8Array(k.memory.buffer, DATA_AT, n * take), offset + row * n)
     // The kernel stored the state where the next chunk reads it.
   }
+  leave(s, rng)
+  return true
+}
+
+let dataView64 = new Float64Array(0)
+
+/** Fills out[0..count) with `count` successive `rng.uniform()` values; false if it cannot. */
+export function nativeUniforms (out: Float64Array, count: number, rng: RandomSource): boolean {
+  const s = xoshiroState(rng)
+  if (s === null) return false
+  if (count === 0) return true
+  const k = enter(s, 8 * count)
+  if (k === null) return false
+  if (dataView64.buffer !== viewsOf || dataView64.length < count) dataView64 = new Float64Array(viewsOf!, DATA_AT, count)
+  k.uniforms(DATA_AT, count, STATE_AT)
+  out.set(dataView64.subarray(0, count))
   leave(s, rng)
   return true
 }

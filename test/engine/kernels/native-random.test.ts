@@ -1,6 +1,6 @@
 import { afterEach, describe, expect, it } from 'vitest'
 import { Xoshiro256StarStar } from '../../../src/engine/index.js'
-import { nativeShuffle, nativeUnbiasedRows } from '../../../src/engine/kernels/native-random.js'
+import { nativeShuffle, nativeUnbiasedRows, nativeUniforms } from '../../../src/engine/kernels/native-random.js'
 import { fillUnbiased } from '../../../src/engine/patterns/generate.js'
 import { setFastPathsEnabled } from '../../../src/engine/kernels/wasm.js'
 
@@ -50,6 +50,19 @@ describe('native xoshiro256** draws continue the JavaScript stream exactly', () 
       const y = new Int8Array(n * count + 5)
       expect(nativeUnbiasedRows(x, 5, n, count, a)).toBe(true)
       for (let mu = 0; mu < count; mu++) fillUnbiased(y, 5 + mu * n, n, b)
+      expect(x).toStrictEqual(y)
+      expect(nextWords(a)).toStrictEqual(nextWords(b))
+    }
+  })
+
+  it('draws uniforms like uniform(), leaving the same state and last output', () => {
+    for (const count of [1, 7, 3000]) {
+      const a = Xoshiro256StarStar.fromSeed(21n)
+      const b = Xoshiro256StarStar.fromSeed(21n)
+      const x = new Float64Array(count + 2).fill(-1)
+      expect(nativeUniforms(x, count, a)).toBe(true)
+      const y = new Float64Array(count + 2).fill(-1)
+      for (let k = 0; k < count; k++) y[k] = b.uniform()
       expect(x).toStrictEqual(y)
       expect(nextWords(a)).toStrictEqual(nextWords(b))
     }
