@@ -12,19 +12,20 @@ import type { RandomSource } from '../random/source.js'
  * load, N·P bytes in all) and the overlaps as int16 lanes when N ≤ 32767 (eight products
  * per `i32x4.dot_i16x8_s`), int32 lanes otherwise. Every quantity is an exact integer, so
  * the kernel reproduces the plain path bit for bit. Whole sweeps and synchronous steps run
- * inside one call; the caller keeps drawing random numbers in JavaScript (the visiting order
- * and Glauber's uniforms are drawn before the sweep they serve, in the same order as the
- * plain path draws them).
+ * inside one call, and so do whole zero-temperature trials when nothing is observed between
+ * sweeps (the shuffle then runs natively on the engine's xoshiro256** state). Otherwise the
+ * caller draws the visiting order and Glauber's uniforms before the sweep they serve, in the
+ * order the plain path draws them.
  *
  * ## Memory
  * Small networks share one module instance (one linear memory, grown as needed): the network
  * keeps its own copy of the neuron-major patterns, which is copied in when another network
  * used the workspace last. State and overlaps stay canonical in the network's JavaScript
  * arrays and cross the boundary (O(N + P) bytes) on every call. Networks whose patterns take
- * at least `privateBytes` (8 MiB) get an instance of their own holding the only copy, so a big network
- * costs N·P bytes once (plus its pattern-major copy). (One memory per small network would be simpler, but V8 reserves
- * gigabytes of address space per memory and stalls on garbage collection when thousands of
- * networks are built in a row.)
+ * at least `privateBytes` (8 MiB) get an instance of their own holding the only copy, so a
+ * big network costs N·P bytes once (plus its pattern-major copy). (One memory per small
+ * network would be simpler, but V8 reserves gigabytes of address space per memory and stalls
+ * on garbage collection when thousands of networks are built in a row.)
  */
 interface OverlapExports {
   memory: WasmMemory
@@ -54,6 +55,7 @@ let privateBytes = 8 * 1024 * 1024
 export function setOverlapPrivateBytes (bytes: number): void {
   privateBytes = bytes
 }
+
 /** Largest N for int16 overlap lanes (|m_μ| ≤ N). */
 const I16_NEURONS = 32767
 
@@ -85,7 +87,7 @@ function workspaceFor (bytes: number): Workspace | null {
 }
 
 const align16 = (x: number): number => (x + 15) & ~15
-/** Bound on the staging area of private networks. */
+/** Bound on the staging area for the pattern transposition. */
 const STAGE_BYTES = 1024 * 1024
 
 /** The fast-path names recorded in provenance. */
