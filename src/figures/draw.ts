@@ -292,6 +292,7 @@ function drawAnnotations (theory: readonly TheoryOverlay[], xs: AxisScale, plot:
     return element('text', {
       class: 'annotation',
       'data-theory': o.key,
+      'data-label': plainText(o.annotation!),
       x: centre,
       y: plot.top - 5,
       'text-anchor': 'middle',
