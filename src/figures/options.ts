@@ -51,7 +51,7 @@ export const FigureOptionsSchema = z.strictObject({
   height: z.coerce.number().int().min(FIGURE_SIZE.minHeight).max(FIGURE_SIZE.maxHeight).default(FIGURE_SIZE.height)
     .describe(`Height in px. Default: ${FIGURE_SIZE.height}.`),
   title: z.string().max(300).optional().describe('Title. Default: the sweep label, or the measure against x.')
-}).meta({ id: 'FigureOptions' })
+})
 
 /** Options as a caller may write them (every field optional). */
 export type FigureOptionsInput = z.input<typeof FigureOptionsSchema>

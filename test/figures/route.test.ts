@@ -1,0 +1,76 @@
+/** GET /v1/sweeps/{id}/figure.svg through the real app and the embedded backend. */
+import { createHash } from 'node:crypto'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { createEmbeddedQueue } from '../../src/backends/embedded/index.js'
+import { renderFigure } from '../../src/figures/index.js'
+import { createHarness, isTerminal, type Harness } from '../api/helpers/harness.js'
+import { expectProblem } from '../api/helpers/problems.js'
+import { slowSpec } from '../api/helpers/specs.js'
+import { drawnPoints, parseSvg } from './helpers.js'
+
+/** Rooms along a corridor, two network sizes: a second varied parameter for the series. */
+const corridor = { label: 'rooms along a corridor', neurons: { values: [48, 64] }, load: { values: [0.05, 0.1, 0.15] }, trials: 6, seed: 17 }
+
+describe('GET /v1/sweeps/{id}/figure.svg', () => {
+  let h: Harness
+  let id: string
+  beforeAll(async () => {
+    h = await createHarness(async ({ dataDir }) => await createEmbeddedQueue({ dataDir, threads: 2 }))
+    id = (await h.request({ method: 'POST', url: '/v1/sweeps', payload: corridor })).json().id
+    await h.waitFor(id, isTerminal)
+  })
+  afterAll(async () => { await h.close() })
+
+  it('draws the stored result with the query\'s options: the points are the result rows', async () => {
+    const res = await h.request({ method: 'GET', url: `/v1/sweeps/${id}/figure.svg?measure=overlap&x=load&errorBars=se&width=720` })
+    expect(res.statusCode).toBe(200)
+    expect(res.headers['content-type']).toBe('image/svg+xml; charset=utf-8')
+    expect(res.headers['content-security-policy']).toContain("default-src 'none'")
+    expect(res.headers['content-disposition']).toBe(`inline; filename="memsweep-${id}-overlap.svg"`)
+    const result = (await h.request({ method: 'GET', url: `/v1/sweeps/${id}/results?trials=true` })).json()
+    const doc = parseSvg(res.body)
+    expect(doc.documentElement!.getAttribute('width')).toBe('720')
+    const points = drawnPoints(doc)
+    expect(points).toHaveLength(6)
+    for (const p of points) {
+      const row = result.rows[p.point]
+      expect(p.x).toBe(row.values.load)
+      expect(p.y).toBe(row.summary.overlap.mean)
+      expect(p.low).toBeCloseTo(row.summary.overlap.mean - row.summary.overlap.se, 12)
+    }
+    // The same bytes as rendering the downloaded result locally.
+    expect(res.body).toBe(renderFigure(result, { measure: 'overlap', x: 'load', errorBars: 'se', width: 720 }))
+  })
+
+  it('sets a strong ETag per set of options and answers If-None-Match with 304', async () => {
+    const first = await h.request({ method: 'GET', url: `/v1/sweeps/${id}/figure.svg` })
+    expect(first.headers.etag).toBe(`"${createHash('sha256').update(first.rawPayload).digest('base64url')}"`)
+    const other = await h.request({ method: 'GET', url: `/v1/sweeps/${id}/figure.svg?measure=sweeps` })
+    expect(other.headers.etag).not.toBe(first.headers.etag)
+    const again = await h.request({ method: 'GET', url: `/v1/sweeps/${id}/figure.svg`, headers: { 'if-none-match': first.headers.etag as string } })
+    expect(again.statusCode).toBe(304)
+    expect(again.body).toBe('')
+    expect(again.headers.etag).toBe(first.headers.etag)
+  })
+
+  it('answers 400 naming the option: invalid values, unknown options, options that do not fit the sweep', async () => {
+    const bad = expectProblem(await h.request({ method: 'GET', url: `/v1/sweeps/${id}/figure.svg?measure=speed` }), 400, 'MEMSWEEP_MALFORMED_REQUEST')
+    expect(bad.errors[0].path).toBe('querystring.measure')
+    const unknown = expectProblem(await h.request({ method: 'GET', url: `/v1/sweeps/${id}/figure.svg?colour=red` }), 400, 'MEMSWEEP_MALFORMED_REQUEST')
+    expect(JSON.stringify(unknown.errors)).toContain('colour')
+    const misfit = expectProblem(await h.request({ method: 'GET', url: `/v1/sweeps/${id}/figure.svg?x=dynamics.temperature` }), 400, 'MEMSWEEP_MALFORMED_REQUEST')
+    expect(misfit.errors).toEqual([expect.objectContaining({ path: 'querystring.x', message: expect.stringContaining("does not vary 'dynamics.temperature'") })])
+  })
+
+  it('answers 409 while the sweep runs and 404 for an unknown sweep', async () => {
+    const running = (await h.request({ method: 'POST', url: '/v1/sweeps', payload: slowSpec() })).json()
+    const res = await h.request({ method: 'GET', url: `/v1/sweeps/${running.id as string}/figure.svg` })
+    expect(expectProblem(res, 409, 'MEMSWEEP_RESULTS_NOT_READY').sweepId).toBe(running.id)
+    expect(res.headers['retry-after']).toBe('5')
+    await h.request({ method: 'DELETE', url: `/v1/sweeps/${running.id as string}` })
+    await h.waitFor(running.id, isTerminal)
+    const canceled = await h.request({ method: 'GET', url: `/v1/sweeps/${running.id as string}/figure.svg` })
+    expectProblem(canceled, 409, 'MEMSWEEP_RESULTS_UNAVAILABLE')
+    expectProblem(await h.request({ method: 'GET', url: '/v1/sweeps/no-such-sweep/figure.svg' }), 404, 'MEMSWEEP_SWEEP_NOT_FOUND')
+  })
+})
