@@ -19,6 +19,7 @@ import { metricsPlugin } from './plugins/metrics.js'
 import { problemsPlugin } from './plugins/problems.js'
 import { OwnerGate, type RouteContext } from './routes/context.js'
 import { eventRoutes } from './routes/events.js'
+import { figureRoutes } from './routes/figure.js'
 import { healthRoutes } from './routes/health.js'
 import { resultRoutes } from './routes/results.js'
 import { sweepRoutes } from './routes/sweeps.js'
@@ -123,5 +124,6 @@ export function buildApp (deps: AppDependencies): FastifyInstance {
   app.register(resultRoutes, context)
   app.register(eventRoutes, context)
   app.register(theoryRoutes, context)
+  app.register(figureRoutes, context)
   return app as unknown as FastifyInstance
 }

@@ -56,6 +56,18 @@ const OPERATION_HEADERS: Record<string, Record<string, Record<string, HeaderObje
       'Retry-After': seconds('While the sweep runs: suggested seconds before asking again.'),
       Link: text('While the sweep runs: `<…>; rel="monitor"`, the status to follow.')
     }
+  },
+  getSweepFigure: {
+    200: {
+      ETag: text('Strong validator: the sha256 of the bytes (base64url), one per set of options.'),
+      'Content-Disposition': text('inline; filename="memsweep-<id>-<measure>.svg".'),
+      'Content-Security-Policy': text('default-src \'none\': the figure runs and loads nothing.')
+    },
+    304: { ETag: text('The current validator.') },
+    409: {
+      'Retry-After': seconds('While the sweep runs: suggested seconds before asking again.'),
+      Link: text('While the sweep runs: `<…>; rel="monitor"`, the status to follow.')
+    }
   }
 }
 

@@ -48,6 +48,7 @@ describe('OpenAPI document', () => {
       'GET /v1/sweeps',
       'GET /v1/sweeps/{id}',
       'GET /v1/sweeps/{id}/events',
+      'GET /v1/sweeps/{id}/figure.svg',
       'GET /v1/sweeps/{id}/results',
       'POST /v1/sweeps',
       'POST /v1/sweeps/validate',
