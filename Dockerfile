@@ -11,6 +11,10 @@ COPY package.json package-lock.json ./
 RUN npm ci --no-audit --no-fund
 COPY tsconfig.json tsconfig.build.json ./
 COPY src ./src
+# The web page: its sources, its build script and the examples it offers.
+COPY web ./web
+COPY scripts/build-web.mjs ./scripts/
+COPY examples ./examples
 RUN npm run build && npm prune --omit=dev
 
 FROM node:20-bookworm-slim AS runtime

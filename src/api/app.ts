@@ -24,6 +24,7 @@ import { healthRoutes } from './routes/health.js'
 import { resultRoutes } from './routes/results.js'
 import { sweepRoutes } from './routes/sweeps.js'
 import { theoryRoutes } from './routes/theory.js'
+import { DEFAULT_WEB_ROOT, webRoutes } from './routes/web.js'
 import type { TokenTable } from './tokens.js'
 import { API_DOCUMENT_INFO } from './openapi-info.js'
 import { transformDocument } from './openapi-document.js'
@@ -39,6 +40,8 @@ export interface AppDependencies {
    * `<REDIS_PREFIX>:rate:`); without it each instance counts on its own.
    */
   rateLimitRedis?: Redis
+  /** Folder of the built web page (default dist/web); null leaves the page out. */
+  webRoot?: string | null
 }
 
 /** A client-supplied X-Request-Id is kept when it is short and plain, so logs can be joined across services. */
@@ -124,6 +127,7 @@ export function buildApp (deps: AppDependencies): FastifyInstance {
   app.register(resultRoutes, context)
   app.register(eventRoutes, context)
   app.register(theoryRoutes, context)
+  app.register(webRoutes, { root: deps.webRoot === undefined ? DEFAULT_WEB_ROOT : deps.webRoot })
   app.register(figureRoutes, context)
   return app as unknown as FastifyInstance
 }

@@ -1,0 +1,46 @@
+/** Names of parameters and measures as the page shows them. Pure: no DOM. */
+
+const PARAMETERS: Record<string, string> = {
+  neurons: 'neurons N',
+  patterns: 'patterns P',
+  load: 'load α = P/N',
+  'family.activity': 'pattern activity',
+  'family.parents': 'parent patterns',
+  'family.parentOverlap': 'overlap with parent',
+  'rule.threshold': 'covariance threshold',
+  'dilution.keep': 'couplings kept',
+  'cue.fraction': 'cue corruption',
+  'cue.components': 'mixture components',
+  'dynamics.temperature': 'temperature T',
+  'dynamics.maxSweeps': 'sweep limit',
+  'dynamics.burnIn': 'burn-in sweeps',
+  successThreshold: 'success threshold',
+  trialsPerNetwork: 'trials per network'
+}
+
+/** A readable name for a varied parameter's path; unknown paths are shown as they are. */
+export function parameterName (path: string): string {
+  return PARAMETERS[path] ?? path
+}
+
+export interface MeasureInfo {
+  value: string
+  name: string
+  /** Only offered when the spec measured one-step stability. */
+  needsStability?: boolean
+}
+
+export const MEASURES: readonly MeasureInfo[] = [
+  { value: 'success', name: 'recall success rate' },
+  { value: 'overlap', name: 'final overlap with the cued pattern' },
+  { value: 'sweeps', name: 'sweeps until the dynamics stopped' },
+  { value: 'maxOtherOverlap', name: 'largest overlap with another pattern' },
+  { value: 'energy', name: 'energy per neuron' },
+  { value: 'endState', name: 'fraction ending in the cued pattern' },
+  { value: 'unstableFraction', name: 'unstable neurons in stored patterns', needsStability: true },
+  { value: 'fixedPatternFraction', name: 'stored patterns that are fixed points', needsStability: true }
+]
+
+export function measureName (value: string): string {
+  return MEASURES.find((m) => m.value === value)?.name ?? value
+}

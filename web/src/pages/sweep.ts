@@ -1,0 +1,232 @@
+/**
+ * One sweep: what it is (normalised spec, provenance), how far it is (live), and what came out
+ * (figure, table, downloads), with copy, re-run and cancel.
+ */
+import { ApiProblem, cancelSweep, download, followSweep, getJson, getSweep, submitSweep, sweepPath, TERMINAL } from '../api.js'
+import { copyText } from '../clipboard.js'
+import { fill, h } from '../dom.js'
+import { freshSeed, rerunLabel, saveDraft } from '../drafts.js'
+import { figurePanel } from '../figure-panel.js'
+import { formatAgo, formatCount, formatStamp } from '../format.js'
+import { parameterName } from '../labels.js'
+import type { Dispose } from '../main.js'
+import { resultsTable } from '../results-table.js'
+import { routeHref } from '../router.js'
+import type { Spec, SweepDetail, SweepResult, SweepStatus } from '../types.js'
+import { inBackground, confirmAction, messageOf, notify, progressView, statusBadge } from '../widgets.js'
+
+function describeGrid (spec: Spec): string {
+  const axes: string[] = []
+  const visit = (node: unknown, path: string): void => {
+    if (node === null || typeof node !== 'object' || Array.isArray(node)) return
+    const values = (node as { values?: unknown }).values
+    if (Array.isArray(values) && path !== '' && path !== 'family.data') {
+      axes.push(`${parameterName(path)} (${values.length})`)
+      return
+    }
+    for (const [key, child] of Object.entries(node)) visit(child, path === '' ? key : `${path}.${key}`)
+  }
+  visit(spec, '')
+  return axes.length === 0 ? 'a single point' : axes.join(' × ')
+}
+
+function metaList (entries: Array<[string, Node | string]>): HTMLDListElement {
+  return h('dl', { class: 'meta' }, entries.flatMap(([term, value]) => [h('dt', {}, term), h('dd', {}, value)]))
+}
+
+function timeNode (iso: string | null): Node | string {
+  if (iso === null) return '–'
+  return h('time', { datetime: iso, title: iso }, `${formatStamp(iso)} (${formatAgo(iso, Date.now())})`)
+}
+
+export function renderSweep (main: HTMLElement, id: string): Dispose {
+  const stop = new AbortController()
+  let ticker: ReturnType<typeof setInterval> | null = null
+  const head = h('div', { class: 'page-head' }, h('h1', {}, 'Sweep'))
+  const body = h('div', { class: 'sweep-page' }, h('p', { class: 'loading' }, 'Loading the sweep…'))
+  main.append(h('p', { class: 'crumbs' }, h('a', { href: '#/' }, '← All sweeps')), head, body)
+
+  const progress = progressView('this sweep')
+  const statusSlot = h('span', { class: 'status-slot' })
+  const actions = h('div', { class: 'actions sweep-actions' })
+  const failure = h('div', { class: 'failure', role: 'alert', hidden: true })
+  const resultsSlot = h('div', { class: 'results-slot' })
+  let current: SweepDetail | null = null
+  let resultsShown = false
+
+  const rerun = async (detail: SweepDetail): Promise<void> => {
+    const seed = freshSeed()
+    const sure = await confirmAction({
+      title: 'Run this sweep again with a new seed?',
+      body: `A copy of this spec is submitted with master seed ${seed} (this one used ${String(detail.spec.seed)}). Everything else stays the same, so the two runs are independent replicates.`,
+      confirm: 'Submit the copy',
+      keep: 'Not now'
+    })
+    if (!sure) return
+    try {
+      const submitted = await submitSweep({ ...detail.spec, seed, label: rerunLabel(detail.label, seed) }, { reuse: false, idempotencyKey: crypto.randomUUID() })
+      location.hash = routeHref({ page: 'sweep', id: submitted.id })
+    } catch (error) {
+      notify(`The copy was not submitted: ${messageOf(error)}`, 'error')
+    }
+  }
+
+  const renderActions = (detail: SweepDetail): void => {
+    const label = detail.label ?? detail.id
+    fill(actions,
+      h('button', {
+        type: 'button',
+        class: 'secondary',
+        onclick: async () => {
+          const copied = await copyText(JSON.stringify(detail.spec, null, 2))
+          notify(copied ? 'The normalised spec is on the clipboard.' : 'Copying was refused by the browser; select the spec below instead.', copied ? 'info' : 'error')
+        }
+      }, 'Copy spec'),
+      h('button', { type: 'button', class: 'secondary', onclick: () => { inBackground(rerun(detail)) } }, 'Re-run with a new seed'),
+      h('button', {
+        type: 'button',
+        class: 'secondary',
+        onclick: () => {
+          saveDraft({ ...detail.spec, label: detail.label ?? undefined })
+          location.hash = routeHref({ page: 'submit', from: null })
+        }
+      }, 'Edit a copy'),
+      TERMINAL.has(detail.status)
+        ? null
+        : h('button', {
+          type: 'button',
+          class: 'danger-outline',
+          onclick: async () => {
+            const sure = await confirmAction({
+              title: 'Cancel this sweep?',
+              body: `“${label}” stops within about a second. Trials already run are not kept, and there will be no results.`,
+              confirm: 'Cancel sweep',
+              keep: 'Keep it running'
+            })
+            if (!sure) return
+            try {
+              applyStatus(await cancelSweep(detail.id))
+            } catch (error) {
+              notify(`Could not cancel: ${messageOf(error)}`, 'error')
+            }
+          }
+        }, 'Cancel sweep'))
+  }
+
+  const showResults = async (detail: SweepDetail): Promise<void> => {
+    if (resultsShown) return
+    resultsShown = true
+    fill(resultsSlot, h('p', { class: 'loading' }, 'Loading the results…'))
+    let result: SweepResult
+    try {
+      result = await getJson<SweepResult>(`${sweepPath(detail.id)}/results`, { signal: stop.signal })
+    } catch (error) {
+      if (stop.signal.aborted) return
+      resultsShown = false
+      fill(resultsSlot, h('p', { class: 'page-error', role: 'alert' }, `Could not load the results: ${messageOf(error)}`))
+      return
+    }
+    const label = detail.label ?? 'Untitled sweep'
+    const figure = figurePanel(detail.id, label, result, stop.signal)
+    const downloads = h('section', { class: 'panel downloads', 'aria-labelledby': 'downloads-heading' },
+      h('h2', { id: 'downloads-heading' }, 'Downloads'),
+      h('div', { class: 'actions' },
+        h('button', { type: 'button', class: 'secondary', 'data-download': 'csv', onclick: () => { inBackground(save(`${sweepPath(detail.id)}/results?format=csv`, `memsweep-${detail.id}.csv`, 'text/csv')) } }, 'Results (CSV)'),
+        h('button', { type: 'button', class: 'secondary', 'data-download': 'json', onclick: () => { inBackground(save(`${sweepPath(detail.id)}/results?format=json`, `memsweep-${detail.id}.json`, 'application/json')) } }, 'Results (JSON)'),
+        h('button', { type: 'button', class: 'secondary', 'data-download': 'svg', onclick: () => { figure.downloadSvg().catch((error: unknown) => notify(`Could not download the figure: ${messageOf(error)}`, 'error')) } }, 'Figure (SVG)')),
+      h('p', { class: 'hint' }, 'CSV and JSON hold one row per grid point with every measure, its uncertainty and the theory values; the per-trial rows are in the API (?trials=true).'))
+    const provenance = h('section', { class: 'panel', 'aria-labelledby': 'provenance-heading' },
+      h('h2', { id: 'provenance-heading' }, 'Provenance'),
+      metaList(Object.entries(result.provenance).map(([key, value]): [string, string] => [key, String(value)])))
+    fill(resultsSlot,
+      figure.panel,
+      h('section', { class: 'panel', 'aria-labelledby': 'table-heading' }, h('h2', { id: 'table-heading' }, 'Results'), resultsTable(result)),
+      h('div', { class: 'two-up' }, downloads, provenance))
+  }
+
+  async function save (path: string, name: string, accept: string): Promise<void> {
+    try {
+      await download(path, name, accept)
+    } catch (error) {
+      notify(`Could not download: ${messageOf(error)}`, 'error')
+    }
+  }
+
+  function applyStatus (status: SweepStatus): void {
+    if (current === null) return
+    const changed = current.status !== status.status
+    current = { ...current, ...status }
+    progress.update(current)
+    if (!changed) return
+    fill(statusSlot, statusBadge(current.status))
+    renderActions(current)
+    showFailure(current)
+    if (current.status === 'succeeded') inBackground(showResults(current))
+  }
+
+  function showFailure (detail: SweepDetail): void {
+    failure.hidden = detail.status !== 'failed'
+    if (detail.error === null) return
+    fill(failure,
+      h('h2', {}, detail.error.kind === 'user' ? 'The spec cannot be computed as given' : 'The service failed while running this sweep'),
+      h('p', {}, detail.error.message),
+      h('p', { class: 'hint' }, detail.error.kind === 'user' ? 'Change the spec (Edit a copy) and submit it again.' : 'Nothing is wrong with the spec: re-running it may work.'))
+  }
+
+  const renderDetail = (detail: SweepDetail): void => {
+    current = detail
+    const label = detail.label ?? 'Untitled sweep'
+    document.title = `${label} · memsweep`
+    fill(head, h('h1', {}, label), statusSlot)
+    fill(statusSlot, statusBadge(detail.status))
+    progress.update(detail)
+    renderActions(detail)
+    showFailure(detail)
+    const seed = typeof detail.spec.seed === 'number' ? String(detail.spec.seed) : '–'
+    fill(body,
+      h('section', { class: 'panel live', 'aria-labelledby': 'progress-heading' },
+        h('h2', { id: 'progress-heading', class: 'visually-hidden' }, 'Progress'),
+        progress.el,
+        h('p', { class: 'grid-line' },
+          `${formatCount(detail.progress.pointsTotal)} grid points (${describeGrid(detail.spec)}), ${formatCount(detail.progress.trialsTotal)} trials, seed ${seed}.`),
+        actions),
+      failure,
+      resultsSlot,
+      h('div', { class: 'two-up' },
+        h('section', { class: 'panel', 'aria-labelledby': 'record-heading' },
+          h('h2', { id: 'record-heading' }, 'Record'),
+          metaList([
+            ['id', h('code', {}, detail.id)],
+            ['owner', detail.owner ?? '– (server without tokens)'],
+            ['submitted', timeNode(detail.createdAt)],
+            ['started', timeNode(detail.startedAt)],
+            ['finished', timeNode(detail.finishedAt)],
+            ['spec hash', h('code', { class: 'hash' }, detail.specHash)],
+            ...(detail.reusedFrom === null ? [] : [['reuses results of', h('a', { href: routeHref({ page: 'sweep', id: detail.reusedFrom }) }, detail.reusedFrom)] as [string, Node]])
+          ])),
+        h('section', { class: 'panel', 'aria-labelledby': 'spec-heading' },
+          h('h2', { id: 'spec-heading' }, 'Normalised spec'),
+          h('p', { class: 'hint' }, 'Every default filled in and every axis written out; it can be submitted again as it is.'),
+          h('pre', { class: 'spec-json', tabindex: 0, 'aria-label': 'Normalised spec as JSON' }, JSON.stringify(detail.spec, null, 2)))))
+    if (detail.status === 'succeeded') inBackground(showResults(detail))
+    if (!TERMINAL.has(detail.status)) {
+      followSweep(detail.id, applyStatus, stop.signal).catch((error: unknown) => {
+        if (!stop.signal.aborted) notify(`Live progress stopped: ${messageOf(error)}`, 'error')
+      })
+    }
+  }
+
+  getSweep(id, stop.signal).then(renderDetail, (error: unknown) => {
+    if (stop.signal.aborted) return
+    const missing = error instanceof ApiProblem && error.status === 404
+    fill(head, h('h1', {}, missing ? 'No such sweep' : 'Sweep'))
+    fill(body, h('p', { class: 'page-error', role: 'alert' },
+      missing ? `There is no sweep ${id} that you can see.` : `Could not load the sweep: ${messageOf(error)}`))
+  })
+  ticker = setInterval(() => progress.tick(Date.now()), 1000)
+
+  return () => {
+    stop.abort()
+    if (ticker !== null) clearInterval(ticker)
+  }
+}
