@@ -8,6 +8,7 @@ import { availableParallelism } from 'node:os'
 import { realpathSync } from 'node:fs'
 import { pathToFileURL } from 'node:url'
 import { Command, CommanderError, InvalidArgumentError } from 'commander'
+import { figure } from './commands/figure.js'
 import { runLocal } from './commands/run-local.js'
 import { serve, worker } from './commands/services.js'
 import { submit } from './commands/submit.js'
@@ -77,6 +78,23 @@ export async function runCli (argv: readonly string[], io: CliIo): Promise<numbe
     .option('--reuse', 'reuse the results of an identical finished sweep instead of running again')
     .option('--idempotency-key <key>', 'makes retrying this submission safe')
     .action(async (spec: string, options) => { exitCode = await submit(io, spec, options) })
+
+  program.command('figure')
+    .description('draw results files (JSON) as an SVG figure; several files are overlaid, one series per sweep')
+    .argument('<results...>', 'results files written by run or downloaded from /results (JSON)')
+    .requiredOption('-o, --output <file>', 'SVG file to write (- for standard output)')
+    .option('--measure <measure>', 'success, overlap, sweeps, maxOtherOverlap, energy, endState, unstableFraction or fixedPatternFraction (default success)')
+    .option('--end-state <class>', 'with --measure endState: target, reversed, other-pattern, mixture or other')
+    .option('--x <parameter>', 'varied parameter on the x axis, e.g. load (default: the one with the most values)')
+    .option('--series <parameter>', 'varied parameter named first in the series labels')
+    .option('--x-scale <scale>', 'linear or log')
+    .option('--y-scale <scale>', 'linear or log')
+    .option('--error-bars <kind>', 'ci (95 %), se, sd or none (default ci)')
+    .option('--no-theory', 'leave theory curves out')
+    .option('--width <px>', 'width in px (default 640)')
+    .option('--height <px>', 'height in px (default 440)')
+    .option('--title <text>', 'title (default: the sweep label)')
+    .action(async (files: string[], options) => { exitCode = await figure(io, files, options) })
 
   try {
     await program.parseAsync([...argv], { from: 'user' })
