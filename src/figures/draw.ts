@@ -33,9 +33,11 @@ export function drawFigure (plan: FigurePlan): string {
   const id = `msfig-${fingerprint(plan)}`
   const innerWidth = width - 2 * OUTER
 
-  const titleLines = wrapText(plan.title, TITLE_FONT * 1.12, innerWidth, 3)
-  const conditionLines = plan.conditions === '' ? [] : wrapText(plainText(plan.conditions), CONDITIONS_FONT, innerWidth, 2)
-  const noteLines = wrapText(plan.note, NOTE_FONT, innerWidth, 2)
+  // Small figures (thumbnails, a side panel) keep the plot and drop the model line.
+  const compact = width < 480 || height < 320
+  const titleLines = wrapText(plan.title, TITLE_FONT * 1.12, innerWidth, compact ? 1 : 3)
+  const conditionLines = plan.conditions === '' || compact ? [] : wrapText(plainText(plan.conditions), CONDITIONS_FONT, innerWidth, 2)
+  const noteLines = wrapText(plan.note, NOTE_FONT, innerWidth, compact ? 1 : 2)
   let cursor = OUTER + TITLE_FONT
   const header: string[] = []
   for (const line of titleLines) {
@@ -67,8 +69,9 @@ export function drawFigure (plan: FigurePlan): string {
     const inside = measureLegend(entries, Math.min(260, (plot.right - plot.left) * 0.6))
     const spot = placeInside(inside, plot, obstacles(plan, xScale, yScale))
     const outsideBox = measureLegend(entries, Math.min(220, width * 0.3))
-    if (spot.covered === 0 || outsideBox.width > width * 0.38) {
-      legend = { box: inside, left: spot.left, top: spot.top }
+    if (spot.covered === 0 || compact || outsideBox.width > width * 0.38) {
+      // A legend taller than the plot would hide the axes too; the description still names every series.
+      legend = inside.height > plot.bottom - plot.top - 8 ? null : { box: inside, left: spot.left, top: spot.top }
     } else {
       plot = { ...plot, right: width - OUTER - outsideBox.width - 10 }
       xScale = makeXScale(plan, plot)

@@ -223,13 +223,18 @@ function merge (overlays: readonly TheoryOverlay[]): TheoryOverlay[] {
   return [...bySignature.values()]
 }
 
-/** When one theory gives different lines for different series, each line names its series. */
+/**
+ * When one theory gives different lines for different series, or holds for only some of
+ * them, each line names its series.
+ */
 function labelDistinct (overlays: TheoryOverlay[], series: readonly PlotSeries[]): TheoryOverlay[] {
   const perKey = new Map<string, number>()
   for (const o of overlays) perKey.set(`${o.key}|${o.kind}`, (perKey.get(`${o.key}|${o.kind}`) ?? 0) + 1)
+  const drawn = series.filter((s) => s.points.length > 0).length
   return overlays.map((o) => {
-    // Reference lines carry their value beside them instead.
-    if (perKey.get(`${o.key}|${o.kind}`)! < 2 || o.kind === 'reference') return o
+    const partial = series.length > 1 && o.series.length < drawn
+    const several = perKey.get(`${o.key}|${o.kind}`)! > 1 && o.kind !== 'reference'
+    if (!partial && !several) return o
     const names = o.series.map((i) => series[i]!.label)
     return { ...o, label: `${o.label}, ${names.join('; ')}` }
   })

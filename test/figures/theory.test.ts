@@ -66,6 +66,14 @@ describe('theory overlays', () => {
     expect(overlays(doc).map((g) => g.getAttribute('data-theory'))).toEqual([])
   })
 
+  it('name the series a theory holds for when it holds for only some of them', () => {
+    const result = runSweep({ ...hebbianRooms, neurons: 40, dilution: { keep: { values: [1, 0.5] } } })
+    const doc = parseSvg(renderFigure(result, { measure: 'success', x: 'load' }))
+    const reference = overlays(doc).find((g) => g.getAttribute('data-theory') === 'criticalLoad')!
+    expect(reference.getAttribute('data-series')).toBe('0')
+    expect(reference.getAttribute('data-label')).toBe('Critical load α_c (replica-symmetric), c = 1')
+  })
+
   it('join the rows\' own values when x is not the variable of the closed form', () => {
     const result = runSweep({ neurons: { values: [40, 80, 120] }, load: 0.1, trials: 3, seed: 4 })
     const doc = parseSvg(renderFigure(result, { measure: 'overlap', x: 'neurons' }))
