@@ -21,6 +21,7 @@ const envSchema = z.object({
   DATA_DIR: z.preprocess(emptyAsUnset, z.string().min(1).default('./data')),
   REDIS_URL: z.preprocess(emptyAsUnset, z.url({ protocol: /^rediss?$/ }).optional()),
   REDIS_PREFIX: z.preprocess(emptyAsUnset, z.string().regex(/^[A-Za-z0-9_-]+$/).default('memsweep')),
+  SWEEP_RETENTION_DAYS: z.preprocess(emptyAsUnset, positiveInt.max(3650).default(7)),
   WORKER_THREADS: z.preprocess(emptyAsUnset, positiveInt.max(1024).optional()),
   TOKENS_FILE: z.preprocess(emptyAsUnset, z.string().min(1).optional()),
   BODY_LIMIT: z.preprocess(emptyAsUnset, positiveInt.default(256 * 1024)),
@@ -46,6 +47,8 @@ export interface Config {
   dataDir: string
   redisUrl: string | null
   redisPrefix: string
+  /** Redis backend: how long finished sweeps and their results are kept, seconds. */
+  retentionSeconds: number
   /** Worker threads of the embedded backend (and the default worker concurrency). */
   workerThreads: number
   tokensFile: string | null
@@ -85,6 +88,7 @@ export function loadConfig (env: Record<string, string | undefined>): Config {
     dataDir: e.DATA_DIR,
     redisUrl: e.REDIS_URL ?? null,
     redisPrefix: e.REDIS_PREFIX,
+    retentionSeconds: e.SWEEP_RETENTION_DAYS * 86400,
     workerThreads: e.WORKER_THREADS ?? availableParallelism(),
     tokensFile: e.TOKENS_FILE ?? null,
     bodyLimit: e.BODY_LIMIT,

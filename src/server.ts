@@ -21,7 +21,7 @@ async function createQueue (config: Config, logger: Logger): Promise<SweepQueue>
   if (config.redisUrl !== null) {
     // Loaded only when asked for: a single-machine server never loads the Redis client.
     const { createRedisQueue } = await import('./backends/redis/index.js')
-    return await createRedisQueue({ url: config.redisUrl, prefix: config.redisPrefix, logger })
+    return await createRedisQueue({ url: config.redisUrl, prefix: config.redisPrefix, retentionSeconds: config.retentionSeconds, logger })
   }
   const { createEmbeddedQueue } = await import('./backends/embedded/index.js')
   return await createEmbeddedQueue({ dataDir: config.dataDir, threads: config.workerThreads, logger })
