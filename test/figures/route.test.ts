@@ -6,7 +6,7 @@ import { renderFigure } from '../../src/figures/index.js'
 import { createHarness, isTerminal, type Harness } from '../api/helpers/harness.js'
 import { expectProblem } from '../api/helpers/problems.js'
 import { slowSpec } from '../api/helpers/specs.js'
-import { drawnPoints, parseSvg } from './helpers.js'
+import { byClass, drawnPoints, parseSvg } from './helpers.js'
 
 /** Rooms along a corridor, two network sizes: a second varied parameter for the series. */
 const corridor = { label: 'rooms along a corridor', neurons: { values: [48, 64] }, load: { values: [0.05, 0.1, 0.15] }, trials: 6, seed: 17 }
@@ -62,11 +62,32 @@ describe('GET /v1/sweeps/{id}/figure.svg', () => {
     expect(misfit.errors).toEqual([expect.objectContaining({ path: 'querystring.x', message: expect.stringContaining("does not vary 'dynamics.temperature'") })])
   })
 
+  it('overlays several sweeps, one series per sweep, labelled by sweep label', async () => {
+    const other = (await h.request({ method: 'POST', url: '/v1/sweeps', payload: { ...corridor, label: 'corridor, Storkey rule', neurons: 48, rule: { kind: 'storkey' } } })).json()
+    await h.waitFor(other.id, isTerminal)
+    const res = await h.request({ method: 'GET', url: `/v1/figures/overlay.svg?sweeps=${id},${other.id as string}&measure=success&x=load` })
+    expect(res.statusCode).toBe(200)
+    expect(res.headers['content-disposition']).toBe('inline; filename="memsweep-overlay-success.svg"')
+    const doc = parseSvg(res.body)
+    const labels = byClass(doc, 'series', 'g').map((g) => g.getAttribute('data-label'))
+    expect(labels).toEqual(['rooms along a corridor · N = 48', 'rooms along a corridor · N = 64', 'corridor, Storkey rule'])
+    const storkey = (await h.request({ method: 'GET', url: `/v1/sweeps/${other.id as string}/results` })).json()
+    for (const p of drawnPoints(doc).filter((p) => p.sweep === 1)) expect(p.y).toBe(storkey.rows[p.point].summary.success.rate)
+    const cached = await h.request({ method: 'GET', url: `/v1/figures/overlay.svg?sweeps=${id},${other.id as string}&measure=success&x=load`, headers: { 'if-none-match': res.headers.etag as string } })
+    expect(cached.statusCode).toBe(304)
+
+    const malformed = expectProblem(await h.request({ method: 'GET', url: '/v1/figures/overlay.svg?sweeps=a;b' }), 400, 'MEMSWEEP_MALFORMED_REQUEST')
+    expect(malformed.errors[0].path).toBe('querystring.sweeps')
+    expectProblem(await h.request({ method: 'GET', url: `/v1/figures/overlay.svg?sweeps=${id},no-such-sweep` }), 404, 'MEMSWEEP_SWEEP_NOT_FOUND')
+  })
+
   it('answers 409 while the sweep runs and 404 for an unknown sweep', async () => {
     const running = (await h.request({ method: 'POST', url: '/v1/sweeps', payload: slowSpec() })).json()
     const res = await h.request({ method: 'GET', url: `/v1/sweeps/${running.id as string}/figure.svg` })
     expect(expectProblem(res, 409, 'MEMSWEEP_RESULTS_NOT_READY').sweepId).toBe(running.id)
     expect(res.headers['retry-after']).toBe('5')
+    const overlay = await h.request({ method: 'GET', url: `/v1/figures/overlay.svg?sweeps=${id},${running.id as string}` })
+    expect(expectProblem(overlay, 409, 'MEMSWEEP_RESULTS_NOT_READY').sweepId).toBe(running.id)
     await h.request({ method: 'DELETE', url: `/v1/sweeps/${running.id as string}` })
     await h.waitFor(running.id, isTerminal)
     const canceled = await h.request({ method: 'GET', url: `/v1/sweeps/${running.id as string}/figure.svg` })

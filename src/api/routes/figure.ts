@@ -1,14 +1,16 @@
 /**
- * A figure of a succeeded sweep's results, drawn by src/figures as a standalone SVG. The
- * query is the figure options schema itself, so the OpenAPI document lists every option;
- * options that do not fit this sweep (an x it does not vary, …) are 400s naming the field.
+ * Figures of succeeded sweeps, drawn by src/figures as standalone SVG: one sweep, or several
+ * overlaid (one series per sweep). The query is the figure options schema itself, so the
+ * OpenAPI document lists every option; options that do not fit the sweeps (an x one of them
+ * does not vary, …) are 400s naming the field.
  */
 import { createHash } from 'node:crypto'
 import { z } from 'zod'
-import type { FastifyReply } from 'fastify'
+import type { FastifyReply, FastifyRequest } from 'fastify'
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod'
 import { ServiceError } from '../../errors.js'
 import { FigureOptionsError, FigureOptionsSchema, renderFigure } from '../../figures/index.js'
+import type { SweepResult } from '../../spec/index.js'
 import { ifNoneMatchHits, sweepPath } from '../presenters.js'
 import { fieldIssue } from '../problem-reply.js'
 import { problemResponses } from '../schemas/problem.js'
@@ -23,8 +25,48 @@ const CACHED_FIGURES = 128
 /** A figure is a document of its own: nothing in it may run or load anything. */
 const SVG_POLICY = "default-src 'none'; style-src 'unsafe-inline'"
 
+/** Most sweeps one overlay draws; more would not stay legible (and each is a full result in memory). */
+export const MAX_OVERLAID_SWEEPS = 8
+
+const overlayQuery = z.strictObject({
+  sweeps: z.string().regex(new RegExp(`^[A-Za-z0-9_-]{1,128}(,[A-Za-z0-9_-]{1,128}){0,${MAX_OVERLAID_SWEEPS - 1}}$`), `1 to ${MAX_OVERLAID_SWEEPS} sweep ids separated by commas`)
+    .describe(`Ids of the succeeded sweeps to overlay, separated by commas (at most ${MAX_OVERLAID_SWEEPS}); series are labelled by each sweep's label.`),
+  ...FigureOptionsSchema.shape
+})
+
+type FigureQuery = z.output<typeof FigureOptionsSchema>
+
+const svgResponses = {
+  200: {
+    description: 'The figure.',
+    content: { 'image/svg+xml': { schema: z.string().describe('A standalone SVG document (UTF-8) with <title> and <desc>.') } }
+  },
+  304: z.undefined().describe('Not modified: the ETag in If-None-Match is current.'),
+  ...problemResponses(400, 401, 404, 409, 429)
+}
+
 function sendBytes (reply: FastifyReply, body: Buffer): FastifyReply {
   return reply.send(body)
+}
+
+/** Refuses, with the problem that explains why, a sweep the caller may not see or that has no result (yet). */
+async function checkSucceeded (ctx: RouteContext, request: FastifyRequest, id: string): Promise<void> {
+  const record = await visibleSweep(ctx.queue, request.principal, id)
+  if (record.status === 'queued' || record.status === 'running') {
+    throw new ServiceError('MEMSWEEP_RESULTS_NOT_READY', { id, status: record.status }, {
+      headers: { 'retry-after': '5', link: `<${sweepPath(id)}>; rel="monitor"` },
+      extensions: { sweepId: id, retryAfter: 5 }
+    })
+  }
+  if (record.status !== 'succeeded') {
+    throw new ServiceError('MEMSWEEP_RESULTS_UNAVAILABLE', { id, status: record.status }, { extensions: { sweepId: id } })
+  }
+}
+
+async function loadResult (ctx: RouteContext, id: string): Promise<SweepResult> {
+  const result = await ctx.queue.results(id)
+  if (result === null) throw new Error(`sweep ${id} succeeded but the backend has no result for it`)
+  return result
 }
 
 export const figureRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx) => {
@@ -38,58 +80,74 @@ export const figureRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
       tags: ['sweeps'],
       params: z.object({ id: sweepIdSchema }),
       querystring: FigureOptionsSchema,
-      response: {
-        200: {
-          description: 'The figure.',
-          content: { 'image/svg+xml': { schema: z.string().describe('A standalone SVG document (UTF-8) with <title> and <desc>.') } }
-        },
-        304: z.undefined().describe('Not modified: the ETag in If-None-Match is current.'),
-        ...problemResponses(400, 401, 404, 409, 429)
-      }
+      response: svgResponses
     }
   }, async (request, reply) => {
     const { id } = request.params
-    const record = await visibleSweep(ctx.queue, request.principal, id)
-    if (record.status === 'queued' || record.status === 'running') {
-      throw new ServiceError('MEMSWEEP_RESULTS_NOT_READY', { id, status: record.status }, {
-        headers: { 'retry-after': '5', link: `<${sweepPath(id)}>; rel="monitor"` },
-        extensions: { sweepId: id, retryAfter: 5 }
-      })
-    }
-    if (record.status !== 'succeeded') {
-      throw new ServiceError('MEMSWEEP_RESULTS_UNAVAILABLE', { id, status: record.status }, { extensions: { sweepId: id } })
-    }
     const options = request.query
-    const key = `${id}\u0000${JSON.stringify(Object.entries(options).sort(([a], [b]) => a.localeCompare(b)))}`
+    // Visibility is checked on every request; the result is only loaded when the figure is not cached.
+    await checkSucceeded(ctx, request, id)
+    const rendered = await cached(`${id}\u0000${optionsKey(options)}`, async () => render([await loadResult(ctx, id)], options))
+    return sendSvg(request, reply, rendered, `memsweep-${id}-${options.measure}.svg`)
+  })
+
+  app.get('/v1/figures/overlay.svg', {
+    schema: {
+      operationId: 'getOverlayFigure',
+      summary: 'Several succeeded sweeps overlaid in one figure (SVG)',
+      description: `The figure of /v1/sweeps/{id}/figure.svg for up to ${MAX_OVERLAID_SWEEPS} sweeps at once, one series per sweep (and per value of its other varied parameters), labelled by sweep label; x must be varied by every sweep. For comparing, for example, two learning rules' capacity curves. 404 if any sweep is unknown, 409 if any has not succeeded.`,
+      tags: ['sweeps'],
+      querystring: overlayQuery,
+      response: svgResponses
+    }
+  }, async (request, reply) => {
+    const { sweeps, ...options } = request.query
+    const ids = sweeps.split(',')
+    for (const id of ids) await checkSucceeded(ctx, request, id)
+    const rendered = await cached(`${ids.join(',')}\u0000${optionsKey(options)}`, async () => {
+      const results: SweepResult[] = []
+      for (const id of ids) results.push(await loadResult(ctx, id))
+      return render(results, options)
+    })
+    return sendSvg(request, reply, rendered, `memsweep-overlay-${options.measure}.svg`)
+  })
+
+  async function cached (key: string, draw: () => Promise<string>): Promise<Rendered> {
     let rendered = cache.get(key)
     if (rendered === undefined) {
-      const result = await ctx.queue.results(id)
-      if (result === null) throw new Error(`sweep ${id} succeeded but the backend has no result for it`)
-      const body = Buffer.from(render(result, options), 'utf8')
+      const body = Buffer.from(await draw(), 'utf8')
       rendered = { body, etag: `"${createHash('sha256').update(body).digest('base64url')}"` }
       cache.set(key, rendered)
       if (cache.size > CACHED_FIGURES) cache.delete(cache.keys().next().value!)
     }
-    reply
-      .header('etag', rendered.etag)
-      .header('cache-control', 'private, max-age=86400, immutable')
-      .header('content-security-policy', SVG_POLICY)
-      .header('x-content-type-options', 'nosniff')
-    if (ifNoneMatchHits(request.headers['if-none-match'], rendered.etag)) return reply.code(304).send()
-    reply.header('content-disposition', `inline; filename="memsweep-${id}-${options.measure}.svg"`)
-    return sendBytes(reply.type('image/svg+xml; charset=utf-8'), rendered.body)
-  })
+    return rendered
+  }
 }
 
-function render (result: Parameters<typeof renderFigure>[0], options: z.output<typeof FigureOptionsSchema>): string {
+function optionsKey (options: FigureQuery): string {
+  return JSON.stringify(Object.entries(options).sort(([a], [b]) => a.localeCompare(b)))
+}
+
+function sendSvg (request: FastifyRequest, reply: FastifyReply, rendered: Rendered, filename: string): FastifyReply {
+  reply
+    .header('etag', rendered.etag)
+    .header('cache-control', 'private, max-age=86400, immutable')
+    .header('content-security-policy', SVG_POLICY)
+    .header('x-content-type-options', 'nosniff')
+  if (ifNoneMatchHits(request.headers['if-none-match'], rendered.etag)) return reply.code(304).send()
+  reply.header('content-disposition', `inline; filename="${filename}"`)
+  return sendBytes(reply.type('image/svg+xml; charset=utf-8'), rendered.body)
+}
+
+function render (results: readonly SweepResult[], options: FigureQuery): string {
   try {
-    return renderFigure(result, options)
+    return renderFigure(results, options)
   } catch (error) {
     if (!(error instanceof FigureOptionsError)) throw error
     const errors = error.issues.map((issue) => ({
       ...fieldIssue(issue.path === '' ? [] : [issue.path], issue.message),
       path: issue.path === '' ? 'querystring' : `querystring.${issue.path}`
     }))
-    throw new ServiceError('MEMSWEEP_MALFORMED_REQUEST', { reason: 'the figure options do not fit this sweep' }, { extensions: { errors } })
+    throw new ServiceError('MEMSWEEP_MALFORMED_REQUEST', { reason: 'the figure options do not fit the sweep(s)' }, { extensions: { errors } })
   }
 }
