@@ -40,6 +40,19 @@ type Operation = { operationId?: string, responses?: Record<string, { headers?: 
 const text = (description: string): HeaderObject => ({ description, schema: { type: 'string' } })
 const seconds = (description: string): HeaderObject => ({ description, schema: { type: 'integer' } })
 
+const FIGURE_HEADERS: Record<string, Record<string, HeaderObject>> = {
+  200: {
+    ETag: text('Strong validator: the sha256 of the bytes (base64url), one per set of options.'),
+    'Content-Disposition': text('inline; filename="memsweep-<id>-<measure>.svg" (overlays: memsweep-overlay-<measure>.svg).'),
+    'Content-Security-Policy': text('default-src \'none\': the figure runs and loads nothing.')
+  },
+  304: { ETag: text('The current validator.') },
+  409: {
+    'Retry-After': seconds('While a sweep runs: suggested seconds before asking again.'),
+    Link: text('While a sweep runs: `<…>; rel="monitor"`, the status to follow.')
+  }
+}
+
 /** Response headers clients rely on, which route schemas cannot express. */
 const OPERATION_HEADERS: Record<string, Record<string, Record<string, HeaderObject>>> = {
   submitSweep: { 202: { Location: text('Path of the new sweep\'s status.'), 'Retry-After': seconds('Suggested seconds before the first status poll.') } },
@@ -57,18 +70,8 @@ const OPERATION_HEADERS: Record<string, Record<string, Record<string, HeaderObje
       Link: text('While the sweep runs: `<…>; rel="monitor"`, the status to follow.')
     }
   },
-  getSweepFigure: {
-    200: {
-      ETag: text('Strong validator: the sha256 of the bytes (base64url), one per set of options.'),
-      'Content-Disposition': text('inline; filename="memsweep-<id>-<measure>.svg".'),
-      'Content-Security-Policy': text('default-src \'none\': the figure runs and loads nothing.')
-    },
-    304: { ETag: text('The current validator.') },
-    409: {
-      'Retry-After': seconds('While the sweep runs: suggested seconds before asking again.'),
-      Link: text('While the sweep runs: `<…>; rel="monitor"`, the status to follow.')
-    }
-  }
+  getSweepFigure: FIGURE_HEADERS,
+  getOverlayFigure: FIGURE_HEADERS
 }
 
 /** Headers any answer may carry, by status. */

@@ -45,6 +45,7 @@ describe('OpenAPI document', () => {
       'GET /metrics',
       'GET /openapi.json',
       'GET /readyz',
+      'GET /v1/figures/overlay.svg',
       'GET /v1/sweeps',
       'GET /v1/sweeps/{id}',
       'GET /v1/sweeps/{id}/events',
