@@ -4,7 +4,7 @@
  * Paths are relative ('v1/sweeps'), so the page also works behind a proxy under a prefix.
  */
 import { EventStreamParser } from './event-stream.js'
-import { askForToken, currentToken } from './token.js'
+import { askForToken, currentToken, forgetToken } from './token.js'
 import type { Problem, SweepDetail, SweepList, SweepStatus, SweepStatusName, Validation } from './types.js'
 
 export class ApiProblem extends Error {
@@ -49,6 +49,8 @@ export async function call (path: string, options: CallOptions = {}): Promise<Re
     const response = await fetch(url(path), { ...rest, headers: merged, ...(json === undefined ? {} : { body: JSON.stringify(json) }) })
     if (response.ok || response.status === 304) return response
     if (response.status === 401) {
+      // A token the server refuses is of no further use: it is dropped, not kept around.
+      if (token !== null) forgetToken()
       const fresh = await askForToken(rejected || token !== null)
       rejected = true
       if (fresh !== null) continue

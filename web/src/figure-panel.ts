@@ -83,8 +83,8 @@ export function figurePanel (id: string, label: string, result: SweepResult, sig
   signal.addEventListener('abort', () => { if (objectUrl !== null) URL.revokeObjectURL(objectUrl) })
 
   const size = (): [number, number] => {
-    const width = Math.max(360, Math.min(960, Math.round(figure.clientWidth || 760)))
-    return [width, Math.round(width * 0.62)]
+    const width = Math.max(360, Math.min(1000, Math.round(figure.clientWidth || 760)))
+    return [width, Math.round(Math.min(width * 0.66, 620))]
   }
 
   const showSvg = (text: string): void => {
@@ -185,7 +185,7 @@ export function figurePanel (id: string, label: string, result: SweepResult, sig
     link.remove()
   }
 
-  panel.append(controls, problem, status, figure)
+  panel.append(h('div', { class: 'figure-layout' }, h('div', { class: 'figure-main' }, problem, status, figure), controls))
   queueMicrotask(() => { inBackground(load()) })
   return { panel, downloadSvg }
 }

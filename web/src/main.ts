@@ -62,6 +62,11 @@ function start (): void {
   }
 
   window.addEventListener('hashchange', navigate)
+  // The fragment holds the page, so the skip link moves the focus itself instead of changing it.
+  document.querySelector('.skip-link')?.addEventListener('click', (event) => {
+    event.preventDefault()
+    main.focus()
+  })
   document.getElementById('forget-token')?.addEventListener('click', () => {
     forgetToken()
     navigate()

@@ -62,7 +62,8 @@ export function drawPlot (curves: readonly Curve[], options: PlotOptions): SVGSV
   const pad = (lo: number, hi: number): [number, number] => lo === hi ? [lo - 0.5, hi + 0.5] : [lo, hi]
   const [x0, x1] = logX ? [Math.log10(xExtent[0]), Math.log10(xExtent[1])] : pad(...xExtent)
   const [yLow, yHigh] = pad(...yExtent)
-  const yMargin = options.yRange === undefined ? (yHigh - yLow) * 0.05 : 0
+  // A little room above and below, so points at 0 or 1 stay clear of the frame.
+  const yMargin = (yHigh - yLow) * (options.yRange === undefined ? 0.05 : 0.03)
   const [y0, y1] = [yLow - yMargin, yHigh + yMargin]
   const xSpan = x1 === x0 ? 1 : x1 - x0
   const xPos = (x: number): number => margin.left + ((logX ? Math.log10(x) : x) - x0) / xSpan * innerW

@@ -70,7 +70,7 @@ function showDialog (rejected: boolean): Promise<string | null> {
       input,
       h('div', { class: 'actions' },
         h('button', { type: 'submit', class: 'primary', value: 'use' }, 'Use token'),
-        h('button', { type: 'button', value: 'cancel', onclick: () => dialog.close('cancel') }, 'Not now')))
+        h('button', { type: 'button', class: 'secondary', value: 'cancel', onclick: () => dialog.close('cancel') }, 'Not now')))
     const dialog = h('dialog', { class: 'token-dialog', 'aria-labelledby': 'token-title' }, form)
     dialog.addEventListener('close', () => {
       const token = input.value.trim()

@@ -168,7 +168,7 @@ export function renderList (main: HTMLElement): Dispose {
         h('div', { class: 'sub' }, h('code', {}, status.id.slice(0, 8)))),
       statusCell,
       h('td', { class: 'col-owner', hidden: !showOwner }, status.owner ?? '–'),
-      h('td', { class: 'col-time' }, h('time', { datetime: status.createdAt, title: formatStamp(status.createdAt) }, formatAgo(status.createdAt, Date.now()))),
+      h('td', { class: 'col-time' }, h('span', { class: 'narrow-only' }, 'submitted '), h('time', { datetime: status.createdAt, title: formatStamp(status.createdAt) }, formatAgo(status.createdAt, Date.now()))),
       h('td', { class: 'col-progress' }, progress.el),
       actionCell)
     const row: Row = { status, tr, progress, statusCell, actionCell, stream: null }

@@ -155,8 +155,10 @@ export function renderSweep (main: HTMLElement, id: string): Dispose {
   function applyStatus (status: SweepStatus): void {
     if (current === null) return
     const changed = current.status !== status.status
+    const moved = current.startedAt !== status.startedAt || current.finishedAt !== status.finishedAt
     current = { ...current, ...status }
     progress.update(current)
+    if (changed || moved) renderRecord(current)
     if (!changed) return
     fill(statusSlot, statusBadge(current.status))
     renderActions(current)
@@ -173,6 +175,21 @@ export function renderSweep (main: HTMLElement, id: string): Dispose {
       h('p', { class: 'hint' }, detail.error.kind === 'user' ? 'Change the spec (Edit a copy) and submit it again.' : 'Nothing is wrong with the spec: re-running it may work.'))
   }
 
+  const recordPanel = h('section', { class: 'panel', 'aria-labelledby': 'record-heading' })
+  const renderRecord = (detail: SweepStatus): void => {
+    fill(recordPanel,
+      h('h2', { id: 'record-heading' }, 'Record'),
+      metaList([
+        ['id', h('code', {}, detail.id)],
+        ['owner', detail.owner ?? '– (server without tokens)'],
+        ['submitted', timeNode(detail.createdAt)],
+        ['started', timeNode(detail.startedAt)],
+        ['finished', timeNode(detail.finishedAt)],
+        ['spec hash', h('code', { class: 'hash' }, detail.specHash)],
+        ...(detail.reusedFrom === null ? [] : [['reuses results of', h('a', { href: routeHref({ page: 'sweep', id: detail.reusedFrom }) }, detail.reusedFrom)] as [string, Node]])
+      ]))
+  }
+
   const renderDetail = (detail: SweepDetail): void => {
     current = detail
     const label = detail.label ?? 'Untitled sweep'
@@ -182,6 +199,7 @@ export function renderSweep (main: HTMLElement, id: string): Dispose {
     progress.update(detail)
     renderActions(detail)
     showFailure(detail)
+    renderRecord(detail)
     const seed = typeof detail.spec.seed === 'number' ? String(detail.spec.seed) : '–'
     fill(body,
       h('section', { class: 'panel live', 'aria-labelledby': 'progress-heading' },
@@ -193,17 +211,7 @@ export function renderSweep (main: HTMLElement, id: string): Dispose {
       failure,
       resultsSlot,
       h('div', { class: 'two-up' },
-        h('section', { class: 'panel', 'aria-labelledby': 'record-heading' },
-          h('h2', { id: 'record-heading' }, 'Record'),
-          metaList([
-            ['id', h('code', {}, detail.id)],
-            ['owner', detail.owner ?? '– (server without tokens)'],
-            ['submitted', timeNode(detail.createdAt)],
-            ['started', timeNode(detail.startedAt)],
-            ['finished', timeNode(detail.finishedAt)],
-            ['spec hash', h('code', { class: 'hash' }, detail.specHash)],
-            ...(detail.reusedFrom === null ? [] : [['reuses results of', h('a', { href: routeHref({ page: 'sweep', id: detail.reusedFrom }) }, detail.reusedFrom)] as [string, Node]])
-          ])),
+        recordPanel,
         h('section', { class: 'panel', 'aria-labelledby': 'spec-heading' },
           h('h2', { id: 'spec-heading' }, 'Normalised spec'),
           h('p', { class: 'hint' }, 'Every default filled in and every axis written out; it can be submitted again as it is.'),

@@ -1,0 +1,287 @@
+/**
+ * The web page end to end: Debian's Chromium (playwright-core) against the real service
+ * (buildApp + the embedded backend on 127.0.0.1). Submits an example and follows it to 100 %,
+ * reads the figure, downloads the CSV, cancels a running sweep, shows a validation error at
+ * its field, overlays two sweeps, and asks for a token that never reaches a URL or a log.
+ * Screenshots go to test/artifacts/web/ (git-ignored) for people to look at.
+ */
+import { mkdirSync, readFileSync } from 'node:fs'
+import { join } from 'node:path'
+import type { Browser, BrowserContext, Page } from 'playwright-core'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import type { SweepRecord } from '../../src/backends/port.js'
+import { TERMINAL_STATUSES } from '../../src/backends/port.js'
+import { ARTIFACTS, launchChromium } from './helpers/browser.js'
+import { startWebServer, type WebServer } from './helpers/server.js'
+
+const SHOTS = join(ARTIFACTS, 'web')
+const WIDE = { width: 1280, height: 800 }
+const NARROW = { width: 390, height: 844 }
+
+const example = (name: string): Record<string, unknown> =>
+  JSON.parse(readFileSync(new URL(`../../examples/${name}.json`, import.meta.url), 'utf8')) as Record<string, unknown>
+
+async function submit (server: WebServer, spec: Record<string, unknown>, token?: string): Promise<string> {
+  const response = await fetch(`${server.url}/v1/sweeps`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json', ...(token === undefined ? {} : { authorization: `Bearer ${token}` }) },
+    body: JSON.stringify(spec)
+  })
+  expect(response.status).toBe(202)
+  return (await response.json() as { id: string }).id
+}
+
+/** Resolves once the sweep's record satisfies `until` (backend events, not sleeps). */
+async function waitFor (server: WebServer, id: string, until: (r: SweepRecord) => boolean, timeoutMs = 30_000): Promise<SweepRecord> {
+  return await new Promise((resolve, reject) => {
+    const timer = setTimeout(() => { unsubscribe(); reject(new Error(`sweep ${id} did not get there in ${timeoutMs} ms`)) }, timeoutMs)
+    const done = (record: SweepRecord): void => { clearTimeout(timer); unsubscribe(); resolve(record) }
+    const unsubscribe = server.queue.subscribe(id, (event) => { if (until(event.sweep)) done(event.sweep) })
+    server.queue.get(id).then((record) => { if (record !== null && until(record)) done(record) }, reject)
+  })
+}
+
+/** In-page test: the figure image shows a loaded blob: image. (A string: the test program has no DOM types.) */
+const IMAGE_SHOWN = "(() => { const img = document.querySelector('img.figure-image'); return img !== null && img.src.startsWith('blob:') && img.complete && img.naturalWidth > 0 })()"
+
+async function shot (page: Page, name: string, fullPage = true): Promise<void> {
+  await page.screenshot({ path: join(SHOTS, `${name}.png`), fullPage })
+}
+
+/** Fails when the page is wider than the window (content cut off or a sideways scroll of the whole page). */
+async function expectNoSidewaysScroll (page: Page): Promise<void> {
+  const overflow = await page.evaluate<number>('document.documentElement.scrollWidth - window.innerWidth')
+  expect(overflow).toBeLessThanOrEqual(1)
+}
+
+describe('web page in Chromium', () => {
+  let browser: Browser
+  let open: WebServer
+  let guarded: WebServer
+  let context: BrowserContext
+  const pageErrors: string[] = []
+
+  beforeAll(async () => {
+    mkdirSync(SHOTS, { recursive: true })
+    ;[browser, open] = await Promise.all([launchChromium(), startWebServer()])
+    context = await browser.newContext({ viewport: WIDE, acceptDownloads: true, locale: 'en-GB' })
+    context.on('weberror', (error) => pageErrors.push(error.error().message))
+  })
+
+  afterAll(async () => {
+    await context?.close()
+    await browser?.close()
+    await open?.close()
+    await guarded?.close()
+  })
+
+  it('submits an example, follows it live to 100 %, shows the figure and table, and downloads the CSV', async () => {
+    const page = await context.newPage()
+    await page.goto(`${open.url}/#/new?from=room-capacity`)
+    await page.locator('#check-state[data-state="valid"]').waitFor()
+    await page.fill('#f-trials-value', '60')
+    // 36 points × 60 trials: the estimate follows the edit.
+    await page.locator('.estimates', { hasText: '2,160' }).waitFor()
+    await shot(page, 'submit-valid')
+    await page.click('#submit-sweep')
+    await page.waitForURL(/#\/sweeps\/[\w-]+$/)
+    const id = decodeURIComponent(page.url().split('#/sweeps/')[1] ?? '')
+
+    const bar = page.locator('.live [role="progressbar"]')
+    const seen: number[] = []
+    let tookShot = false
+    const deadline = Date.now() + 40_000
+    while (Date.now() < deadline) {
+      const value = Number(await bar.getAttribute('aria-valuenow'))
+      seen.push(value)
+      if (value === 100) break
+      if (value > 20 && !tookShot) { await shot(page, 'sweep-running', false); tookShot = true }
+      await page.waitForTimeout(100)
+    }
+    expect(seen.at(-1)).toBe(100)
+    // The bar moved while the page watched: the event stream drove it, nobody reloaded.
+    expect(seen.some((v) => v < 100)).toBe(true)
+    expect(await bar.getAttribute('aria-valuetext')).toContain('2,160 of 2,160 trials')
+    expect(await page.locator('.page-head .status').getAttribute('data-status')).toBe('succeeded')
+
+    // The figure from the figure route, with a text alternative taken from the SVG.
+    const image = page.locator('img.figure-image')
+    await page.waitForFunction(IMAGE_SHOWN)
+    expect(await image.getAttribute('alt')).toContain('Rooms remembered by a place-cell network')
+    expect(await page.locator('.figure-status').textContent()).toBe('')
+    const firstSrc = await image.getAttribute('src')
+    await page.selectOption('.figure-controls select >> nth=0', 'overlap')
+    await page.waitForFunction(`(${IMAGE_SHOWN}) && document.querySelector('img.figure-image').src !== ${JSON.stringify(firstSrc)}`)
+    expect(await page.locator('.figure figcaption').textContent()).toContain('final overlap')
+
+    expect(await page.locator('table.results tbody tr').count()).toBe(36)
+    await shot(page, 'sweep-finished')
+
+    const [download] = await Promise.all([page.waitForEvent('download'), page.click('[data-download="csv"]')])
+    expect(download.suggestedFilename()).toBe(`memsweep-${id}.csv`)
+    const csv = readFileSync(await download.path(), 'utf8')
+    const fromApi = await (await fetch(`${open.url}/v1/sweeps/${id}/results?format=csv`)).text()
+    expect(csv).toBe(fromApi)
+    expect(csv.split('\r\n')[0]).toMatch(/^point,neurons,load,/)
+    expect(csv.trimEnd().split('\r\n')).toHaveLength(37)
+
+    await page.setViewportSize(NARROW)
+    await shot(page, 'sweep-narrow')
+    await expectNoSidewaysScroll(page)
+    await page.close()
+  })
+
+  it('shows each validation error at its field, in the form and in the JSON view', async () => {
+    const page = await context.newPage()
+    await page.goto(`${open.url}/#/new?from=room-capacity`)
+    await page.locator('#check-state[data-state="valid"]').waitFor()
+    await page.fill('#f-cue-fraction-value', '1.5')
+    await page.fill('#f-load-step', '')
+    const cueError = page.locator('[data-field="cue.fraction"] .field-error')
+    const loadError = page.locator('[data-field="load"] .field-error')
+    await cueError.waitFor()
+    await loadError.waitFor()
+    expect(await cueError.textContent()).toMatch(/<=\s*1/)
+    expect(await loadError.textContent()).toMatch(/step/)
+    expect(await page.locator('#f-cue-fraction-value').getAttribute('aria-invalid')).toBe('true')
+    expect(await page.locator('[data-field="neurons"] .field-error').isHidden()).toBe(true)
+    expect(await page.locator('#check-state').textContent()).toContain('2 problems')
+    expect(await page.locator('#submit-sweep').isDisabled()).toBe(true)
+    await shot(page, 'submit-errors')
+
+    await page.check('#edit-mode-json')
+    const issues = page.locator('#spec-json-issues')
+    await issues.locator('li', { hasText: 'cue.fraction' }).waitFor()
+    expect(await issues.textContent()).toMatch(/cue\.fraction \(line \d+\)/)
+    await shot(page, 'submit-json-errors')
+
+    await page.check('#edit-mode-form')
+    await page.fill('#f-cue-fraction-value', '0.1')
+    await page.fill('#f-load-step', '0.02')
+    await page.locator('#check-state[data-state="valid"]').waitFor()
+    expect(await cueError.isHidden()).toBe(true)
+    expect(await page.locator('#submit-sweep').isEnabled()).toBe(true)
+
+    await page.setViewportSize(NARROW)
+    await shot(page, 'submit-narrow')
+    await expectNoSidewaysScroll(page)
+    await page.close()
+  })
+
+  it('overlays two finished sweeps on one figure', async () => {
+    const base = { neurons: 120, load: { from: 0.04, to: 0.28, step: 0.04 }, cue: { kind: 'flip', fraction: 0.05 }, dynamics: { maxSweeps: 30 }, trials: 24 }
+    const hebbian = await submit(open, { ...base, label: 'Room codes, Hebbian rule', rule: { kind: 'hebbian' } })
+    const storkey = await submit(open, { ...base, label: 'Room codes, Storkey rule', rule: { kind: 'storkey' } })
+    await Promise.all([hebbian, storkey].map(async (id) => await waitFor(open, id, (r) => TERMINAL_STATUSES.has(r.status))))
+    const page = await context.newPage()
+    await page.goto(`${open.url}/#/compare?ids=${hebbian},${storkey}`)
+    const plot = page.locator('svg.plot')
+    await plot.waitFor()
+    expect(await plot.locator('g[data-curve]').count()).toBe(2)
+    expect(await plot.locator('g[data-curve]').evaluateAll((gs) => gs.map((g) => g.getAttribute('data-curve')))).toEqual(['Room codes, Hebbian rule', 'Room codes, Storkey rule'])
+    // Each curve has its own dash pattern and marker, not only its own colour.
+    const dashes = await plot.locator('g[data-curve] > path:first-child').evaluateAll((ps) => ps.map((p) => p.getAttribute('stroke-dasharray')))
+    expect(new Set(dashes).size).toBe(2)
+    await shot(page, 'compare')
+    await page.close()
+  })
+
+  it('cancels a running sweep from the list, only after confirmation', async () => {
+    const id = await submit(open, { ...example('room-capacity'), label: 'Large capacity sweep to cancel', trials: 4000 })
+    await waitFor(open, id, (r) => r.status === 'running' && r.progress.trialsDone > 0)
+    const page = await context.newPage()
+    await page.goto(`${open.url}/`)
+    // Keyboard first: the skip link comes first and lands on the content without leaving the page.
+    await page.keyboard.press('Tab')
+    expect(await page.evaluate<string>('document.activeElement.className')).toBe('skip-link')
+    await page.keyboard.press('Enter')
+    expect(await page.evaluate<string>('document.activeElement.id')).toBe('main')
+    expect(new URL(page.url()).hash).toBe('')
+    const row = page.locator(`tr[data-id="${id}"]`)
+    await row.locator('.status[data-status="running"]').waitFor()
+    // Progress arrives live and says how long is left.
+    await row.locator('.bar-text', { hasText: 'left' }).waitFor()
+    await shot(page, 'list-running', false)
+
+    await row.getByRole('button', { name: /^Cancel/ }).click()
+    const dialog = page.getByRole('dialog', { name: 'Cancel this sweep?' })
+    await dialog.waitFor()
+    await shot(page, 'list-cancel-dialog', false)
+    // Escape is the safe way out: nothing is canceled.
+    await page.keyboard.press('Escape')
+    await dialog.waitFor({ state: 'detached' })
+    expect((await open.queue.get(id))?.status).toBe('running')
+
+    await row.getByRole('button', { name: /^Cancel/ }).click()
+    await dialog.getByRole('button', { name: 'Cancel sweep' }).click()
+    await row.locator('.status[data-status="canceled"]').waitFor()
+    const record = await waitFor(open, id, (r) => TERMINAL_STATUSES.has(r.status))
+    expect(record.status).toBe('canceled')
+    await shot(page, 'list-after-cancel', false)
+
+    // The status filter asks the server for one status only.
+    await page.selectOption('#status-filter', 'canceled')
+    await page.waitForFunction(`[...document.querySelectorAll('table.sweeps tbody tr')].every((r) => r.dataset.status === 'canceled') &&
+      document.querySelectorAll('table.sweeps tbody tr').length > 0`)
+    expect(await page.locator('table.sweeps tbody tr').count()).toBe(1)
+    await page.selectOption('#status-filter', '')
+    await page.locator('table.sweeps tbody tr[data-status="succeeded"] >> nth=0').waitFor()
+
+    await page.setViewportSize(NARROW)
+    await shot(page, 'list-narrow')
+    await expectNoSidewaysScroll(page)
+    await page.close()
+  })
+
+  it('asks for a token on 401 and keeps it in this tab\'s session storage only, never in a URL or a log', async () => {
+    const token = 'lab-token-for-ada-5f1c2e9a7b'
+    guarded = await startWebServer({ tokens: [`ada:${token}`, 'grace:lab-token-for-grace-83d0a4:admin'] })
+    const id = await submit(guarded, { ...example('room-temperature'), trials: 10 }, token)
+    await waitFor(guarded, id, (r) => TERMINAL_STATUSES.has(r.status))
+
+    const tab = await browser.newContext({ viewport: WIDE })
+    const page = await tab.newPage()
+    const urls: string[] = []
+    const authorised: string[] = []
+    page.on('request', (request) => {
+      urls.push(request.url())
+      if (request.headers().authorization !== undefined) authorised.push(new URL(request.url()).pathname)
+    })
+    await page.goto(`${guarded.url}/`)
+    const dialog = page.getByRole('dialog', { name: 'This server needs an access token' })
+    await dialog.waitFor()
+    await page.fill('#token-input', 'not-a-token-anyone-has-1234')
+    await page.keyboard.press('Enter')
+    await dialog.getByText('did not accept').waitFor()
+    await shot(page, 'token-rejected', false)
+    await page.fill('#token-input', token)
+    await dialog.getByRole('button', { name: 'Use token' }).click()
+
+    const row = page.locator(`tr[data-id="${id}"]`)
+    await row.waitFor()
+    expect((await row.locator('td.col-owner').textContent())?.trim()).toBe('ada')
+    expect(await page.locator('#token-state').isVisible()).toBe(true)
+    await shot(page, 'list-with-owner', false)
+
+    // The sweep page reads everything with the token too (status, results, figure).
+    await row.getByRole('link').click()
+    await page.locator('img.figure-image[src^="blob:"]').waitFor()
+
+    expect(await page.evaluate<string | null>('sessionStorage.getItem("memsweep.token")')).toBe(token)
+    expect(await page.evaluate<number>('localStorage.length')).toBe(0)
+    expect(await tab.cookies()).toEqual([])
+    expect(urls.filter((u) => u.includes(token))).toEqual([])
+    expect(authorised).toEqual(expect.arrayContaining(['/v1/sweeps', `/v1/sweeps/${id}`, `/v1/sweeps/${id}/results`, `/v1/sweeps/${id}/figure.svg`]))
+    expect(guarded.logs.join('')).not.toContain(token)
+    expect(guarded.logs.join('')).not.toContain('not-a-token-anyone-has')
+
+    await page.click('#forget-token')
+    expect(await page.evaluate<string | null>('sessionStorage.getItem("memsweep.token")')).toBeNull()
+    await dialog.waitFor()
+    await tab.close()
+  })
+
+  it('raised no script errors on any page', () => {
+    expect(pageErrors).toEqual([])
+  })
+})
