@@ -13,6 +13,8 @@ export interface PointRunner {
   runTrial (trial: number): TrialRecord
   /** The representation the point runs on, for provenance. */
   readonly representation: Network['representation']
+  /** The accelerated path of the networks built so far (e.g. `wasm-simd128-overlap-i16`, `js`); null before the first trial. */
+  readonly fastPath: string | null
   readonly algorithm: string
 }
 
@@ -37,6 +39,7 @@ export function createPointRunner (p: PointParams, masterSeed: number, pointInde
   }
   return {
     representation: chooseRepresentation(p),
+    get fastPath () { return cached === null ? null : cached.fastPath },
     algorithm: RNG_ALGORITHM,
     runTrial (trial: number): TrialRecord {
       const networkIndex = Math.floor(trial / p.trialsPerNetwork)

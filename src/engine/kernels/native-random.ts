@@ -30,8 +30,7 @@ function randomKernel (): RandomExports | null {
 /** The generator's state words, [s0 high, s0 low, s1 high, …] (see random/xoshiro256.ts), if reachable. */
 export function xoshiroState (rng: RandomSource): Int32Array | null {
   if (!areFastPathsEnabled() || !(rng instanceof Xoshiro256StarStar)) return null
-  const s = (rng as unknown as { s?: unknown }).s
-  return s instanceof Int32Array && s.length === 8 ? s : null
+  return rng.stateWords
 }
 
 const STATE_AT = 0

@@ -20,6 +20,14 @@ export class Xoshiro256StarStar implements RandomSource {
   // [s0h, s0l, s1h, s1l, s2h, s2l, s3h, s3l]
   private readonly s = new Int32Array(8)
 
+  /**
+   * The live state words [s0 high, s0 low, s1 high, …, s3 low], shared, not copied: native
+   * kernels advance the same stream in place, so the JS and kernel draws stay one sequence.
+   */
+  get stateWords (): Int32Array {
+    return this.s
+  }
+
   static fromSeed (seed: bigint): Xoshiro256StarStar {
     const sm = new SplitMix64(seed)
     const r = new Xoshiro256StarStar()
