@@ -137,8 +137,25 @@ function makeYScale (plan: FigurePlan, bottom: number, top: number): AxisScale {
 function makeXScale (plan: FigurePlan, plot: Rect): AxisScale {
   const xs = plan.series.flatMap((s) => s.rows.map((row) => row.values[plan.x]!))
   const extent: [number, number] = xs.length === 0 ? [0, 1] : [Math.min(...xs), Math.max(...xs)]
-  const spacing = Math.max(60, Math.max(...xs.map((v) => textWidth(String(v), TICK_FONT)), 0) + 24)
-  return makeScale(plan.options.xScale, xDomain(extent, plan.options.xScale), plot.left, plot.right, spacing)
+  const domain = xDomain(extent, plan.options.xScale)
+  // Fewer ticks until neighbouring labels keep a gap between them.
+  let spacing = 70
+  let scale = makeScale(plan.options.xScale, domain, plot.left, plot.right, spacing)
+  for (let attempt = 0; attempt < 6 && crowded(scale); attempt++) {
+    spacing *= 1.4
+    scale = makeScale(plan.options.xScale, domain, plot.left, plot.right, spacing)
+  }
+  return scale
+}
+
+function crowded (scale: AxisScale): boolean {
+  for (let i = 1; i < scale.ticks.length; i++) {
+    const [a, b] = [scale.ticks[i - 1]!, scale.ticks[i]!]
+    const room = Math.abs(scale.toPx(b) - scale.toPx(a))
+    const need = (textWidth(scale.label(a), TICK_FONT) + textWidth(scale.label(b), TICK_FONT)) / 2 + 18
+    if (room < need) return true
+  }
+  return false
 }
 
 /** Where the data are, in px: what a legend inside the plot must not cover. */
@@ -202,16 +219,21 @@ function drawAxisTitles (plan: FigurePlan, plot: Rect, noteTop: number): string 
   const xTitleY = noteTop - NOTE_FONT - 10
   const yTitleX = OUTER + AXIS_TITLE_FONT * 0.8
   const yMid = (plot.top + plot.bottom) / 2
-  const yTitle = fitLabel(plan.yTitle, AXIS_TITLE_FONT, plot.bottom - plot.top)
-  return element('g', { class: 'axis-titles', 'font-size': AXIS_TITLE_FONT, fill: '#111111' }, [
-    element('text', { class: 'x-title', x: (plot.left + plot.right) / 2, y: xTitleY, 'text-anchor': 'middle' }, richText(fitLabel(plan.xTitle, AXIS_TITLE_FONT, plot.right - plot.left + 40), AXIS_TITLE_FONT)),
-    element('text', { class: 'y-title', x: yTitleX, y: yMid, 'text-anchor': 'middle', transform: `rotate(-90 ${px(yTitleX)} ${px(yMid)})` }, richText(yTitle, AXIS_TITLE_FONT))
+  const x = fitLabel(plan.xTitle, plot.right - plot.left + 40)
+  const y = fitLabel(plan.yTitle, plot.bottom - plot.top + 20)
+  return element('g', { class: 'axis-titles', fill: '#111111' }, [
+    element('text', { class: 'x-title', x: (plot.left + plot.right) / 2, y: xTitleY, 'text-anchor': 'middle', 'font-size': x.size }, richText(x.text, x.size)),
+    element('text', { class: 'y-title', x: yTitleX, y: yMid, 'text-anchor': 'middle', 'font-size': y.size, transform: `rotate(-90 ${px(yTitleX)} ${px(yMid)})` }, richText(y.text, y.size))
   ])
 }
 
-function fitLabel (label: string, fontSize: number, room: number): string {
-  if (richTextWidth(label, fontSize) <= room) return label
-  return wrapText(label, fontSize, room, 1)[0] ?? label
+/** An axis title that fits its room: a smaller font first, then cut with an ellipsis. */
+function fitLabel (label: string, room: number): { text: string, size: number } {
+  for (let size = AXIS_TITLE_FONT; size >= AXIS_TITLE_FONT - 2; size -= 0.5) {
+    if (richTextWidth(label, size) <= room) return { text: label, size }
+  }
+  const size = AXIS_TITLE_FONT - 2
+  return { text: wrapText(label, size, room, 1)[0] ?? label, size }
 }
 
 function drawSeries (plan: FigurePlan, index: number, xs: AxisScale, ys: AxisScale, shift: number): string {

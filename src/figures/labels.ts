@@ -35,9 +35,9 @@ const PARAMETERS: Record<VariedPath, ParameterWords> = {
 }
 
 const END_STATE_WORDS: Record<EndState, string> = {
-  target: 'at the target pattern',
+  target: 'at the target',
   reversed: 'at the reversed target',
-  'other-pattern': 'at another stored pattern',
+  'other-pattern': 'at another pattern',
   mixture: 'in a mixture state',
   other: 'elsewhere (spin-glass-like)'
 }
@@ -97,7 +97,7 @@ export function measureAxisTitle (measure: FigureMeasure, specs: readonly Normal
     case 'energy':
       return 'Energy per neuron E/N'
     case 'endState':
-      return `Fraction of trials ending ${END_STATE_WORDS[endState]}`
+      return `Fraction ending ${END_STATE_WORDS[endState]}`
     case 'unstableFraction':
       return 'Fraction of unstable bits'
     case 'fixedPatternFraction':
