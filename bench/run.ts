@@ -6,7 +6,7 @@
  *
  * Environment: ENGINE_REPS (5), PLAIN_REPS (3), C_REPS (5), NP_REPS (3), WARM_REPEATS (5),
  * DENSE_REPS (3), PEERS_DIR (../shared/bench), SKIP_PEERS, SKIP_PLAIN, SKIP_DENSE, SKIP_SCALE,
- * RESULTS (bench/RESULTS.md).
+ * SKIP_SCALING, TRIALS and REPS (for bench/scaling.ts), RESULTS (bench/RESULTS.md).
  */
 import { cpus, freemem, loadavg, totalmem } from 'node:os'
 import { readFileSync, rmSync, writeFileSync } from 'node:fs'
@@ -14,7 +14,8 @@ import { dirname, join, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { measure, median, type Run } from './measure.js'
 import { preparePeers } from './peers.js'
-import { renderReport, timeOf, type Context } from './report.js'
+import { renderReport, timeOf, type Context, type ScalingReport } from './report.js'
+import { spawnSync } from 'node:child_process'
 
 const here = dirname(fileURLToPath(import.meta.url))
 const root = resolve(here, '..')
@@ -74,6 +75,18 @@ if (!env.SKIP_SCALE) {
 }
 if (peers?.dir) rmSync(dirname(peers.dir), { recursive: true, force: true })
 
+let scaling: ScalingReport | null = null
+if (!env.SKIP_SCALING) {
+  process.stderr.write('[bench] multi-core scaling: W2 curve through the embedded and Redis backends, 1 and 2 cores\n')
+  const out = spawnSync(process.execPath, ['--import', 'tsx', join(here, 'scaling.ts')], { cwd: root, encoding: 'utf8', env: { ...env } })
+  const line = out.stdout.trim().split('\n').at(-1) ?? ''
+  try {
+    scaling = JSON.parse(line) as ScalingReport
+  } catch {
+    notes.push(`multi-core scaling run failed: ${out.stderr.trim().split('\n').at(-1) ?? `exit ${String(out.status)}`}`)
+  }
+}
+
 const cpuLine = readFileSync('/proc/cpuinfo', 'utf8').split('\n').find((l) => l.startsWith('model name'))?.split(':')[1]?.trim() ?? cpus()[0]?.model ?? 'unknown'
 const ctx: Context = {
   date: new Date().toISOString(),
@@ -91,7 +104,7 @@ const ctx: Context = {
   seconds: (Date.now() - started) / 1000
 }
 const target = resolve(env.RESULTS ?? join(here, 'RESULTS.md'))
-writeFileSync(target, renderReport(runs, { scale, baseline, ctx }))
+writeFileSync(target, renderReport(runs, { scale, baseline, scaling, ctx }))
 process.stderr.write(`[bench] wrote ${target} in ${ctx.seconds.toFixed(0)} s\n`)
 for (const w of ['W1', 'W2', 'W3', 'W4']) {
   const ours = runs.filter((r) => r.workload === w && r.label === 'memsweep' && r.variant === 'fast')
