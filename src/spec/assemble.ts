@@ -4,6 +4,8 @@
  * the result is the same whatever the chunking, worker count or completion order.
  */
 import { aggregatePoint, ENGINE_VERSION, RNG_ALGORITHM, theoryForPoint, type PointSummary, type TrialRecord } from '../engine/index.js'
+import { assembleSearches } from './analysis/assemble.js'
+import type { ScalingRow, SearchRow } from './analysis/types.js'
 import { canonicalJson, sortKeysDeep, specHash } from './canonical.js'
 import type { ChunkResult } from './chunks.js'
 import { IncompleteResultError } from './errors.js'
@@ -44,9 +46,14 @@ export interface ResultRow {
 export interface SweepResult {
   specHash: string
   spec: NormalisedSpec
+  /** One row per grid point (empty for an analysis: see `searches`). */
   rows: ResultRow[]
-  /** trials[point][trial]. */
+  /** trials[point][trial] (empty for an analysis, which keeps per-step summaries instead). */
   trials: TrialRecord[][]
+  /** Analysis specs only: one threshold search per point of the outer grid. */
+  searches?: SearchRow[]
+  /** Analysis specs with a scaling fit only: one fit per combination of the other varied parameters. */
+  scaling?: ScalingRow[]
   provenance: Provenance
 }
 
@@ -75,6 +82,10 @@ export function assembleResult (spec: NormalisedSpec, chunkResults: readonly Chu
   const hash = specHash(spec)
   if (provenance.specHash !== hash) {
     throw new RangeError(`invalid argument. The provenance is for spec ${provenance.specHash}, not ${hash}.`)
+  }
+  if (spec.analysis !== undefined) {
+    const analysed = assembleSearches(spec, spec.analysis, chunkResults)
+    return sortKeysDeep({ specHash: hash, spec, rows: [], trials: [], ...analysed, provenance })
   }
   const trials = placeTrials(spec, chunkResults)
   const rows: ResultRow[] = trials.map((pointTrials, point) => {

@@ -4,6 +4,8 @@
  * cut into chunks, and who runs them in which order, never changes a result.
  */
 import { createPointRunner, estimatePointCost, type TrialRecord } from '../engine/index.js'
+import { planSearchChunks, runSearchChunk } from './analysis/run.js'
+import type { SearchPayload } from './analysis/types.js'
 import { ChunkCanceledError } from './errors.js'
 import { countPoints, pointAt } from './grid.js'
 import type { NormalisedSpec } from './types.js'
@@ -20,8 +22,10 @@ export interface Chunk {
 export interface ChunkResult {
   chunk: number
   point: number
-  /** Records of trials firstTrial … firstTrial + count − 1, in order. */
+  /** Records of trials firstTrial … firstTrial + count − 1, in order (empty for a search chunk). */
   trials: TrialRecord[]
+  /** A search chunk's outcome: its steps' summaries, the estimate and its interval. Absent for grid chunks. */
+  search?: SearchPayload
 }
 
 export interface RunChunkOptions {
@@ -34,12 +38,14 @@ export interface RunChunkOptions {
 // MAIN //
 
 /**
- * Splits each point's trials into balanced chunks of about TARGET_CHUNK_SECONDS of
+ * A threshold-search spec gets one chunk per outer grid point (see analysis/run.ts).
+ * Otherwise: splits each point's trials into balanced chunks of about TARGET_CHUNK_SECONDS of
  * estimated CPU time. Chunk boundaries fall on network boundaries (multiples of
  * trialsPerNetwork) where a chunk holds at least one network, so no network is built twice.
  * A deterministic function of the spec (and the throughput constant).
  */
 export function planChunks (spec: NormalisedSpec): Chunk[] {
+  if (spec.analysis !== undefined) return planSearchChunks(spec, spec.analysis)
   const chunks: Chunk[] = []
   const points = countPoints(spec)
   const trials = spec.trials
@@ -58,12 +64,13 @@ export function planChunks (spec: NormalisedSpec): Chunk[] {
 }
 
 /**
- * Runs one chunk's trials on a single point runner.
+ * Runs one chunk's trials on a single point runner (a search chunk: its whole search).
  *
  * @throws {ChunkCanceledError} when `shouldStop` returns true before a trial.
  * @throws {RangeError} when the chunk does not fit the spec's grid.
  */
 export function runChunk (spec: NormalisedSpec, chunk: Chunk, opts: RunChunkOptions = {}): ChunkResult {
+  if (spec.analysis !== undefined) return runSearchChunk(spec, spec.analysis, chunk, opts)
   const points = countPoints(spec)
   if (!(Number.isSafeInteger(chunk.point) && chunk.point >= 0 && chunk.point < points) ||
       !(Number.isSafeInteger(chunk.firstTrial) && chunk.firstTrial >= 0) ||

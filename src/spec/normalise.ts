@@ -8,7 +8,8 @@ import { checkPointParams, EngineInputError, type PointParams } from '../engine/
 import { normaliseVaried, type AxisInput, type Varied } from './axis.js'
 import { sortKeysDeep } from './canonical.js'
 import { SpecValidationError, type SpecIssue } from './errors.js'
-import { countPoints, gridAxes, pointAt } from './grid.js'
+import { analysisIssues, normaliseAnalysis, pointsToCheck, searchesLoad } from './analysis/normalise.js'
+import { countPoints, gridAxes } from './grid.js'
 import { issuesFromZod, uniqueIssues } from './issues.js'
 import { domainOf, SPEC_CEILINGS, SweepSpecSchema, type ParsedSpec, type VariedPath } from './schema.js'
 import type { NormalisedCue, NormalisedFamily, NormalisedRule, NormalisedSpec } from './types.js'
@@ -30,7 +31,7 @@ export function normaliseSpec (input: unknown): NormalisedSpec {
   if (presence.length > 0) fail(presence)
 
   const spec = buildNormalised(parsed.data)
-  const supplied = suppliedIssues(spec, parsed.data)
+  const supplied = [...suppliedIssues(spec, parsed.data), ...analysisIssues(spec)]
   if (supplied.length > 0) fail(supplied)
 
   const points = countPoints(spec)
@@ -58,7 +59,10 @@ function presenceIssues (input: unknown): SpecIssue[] {
   const has = (key: string) => input[key] !== undefined
   const issues: SpecIssue[] = []
   if (!has('neurons') && !supplied) issues.push({ path: 'neurons', message: 'required (the network size N), unless the patterns are supplied' })
-  if (has('patterns') && has('load')) {
+  if (searchesLoad(input)) {
+    const message = 'the analysis searches the load: leave out patterns and load (the range is analysis.from … analysis.to)'
+    for (const key of ['patterns', 'load']) if (has(key)) issues.push({ path: key, message })
+  } else if (has('patterns') && has('load')) {
     const message = 'give either patterns (a count) or load (α = P/N), not both'
     issues.push({ path: 'patterns', message }, { path: 'load', message })
   } else if (!has('patterns') && !has('load') && !supplied) {
@@ -115,6 +119,7 @@ function buildNormalised (p: ParsedSpec): NormalisedSpec {
   if (p.patterns !== undefined) spec.patterns = varied('patterns', p.patterns)
   else if (p.load !== undefined) spec.load = varied('load', p.load)
   else if (suppliedRows !== null) spec.patterns = suppliedRows.length
+  if (p.analysis !== undefined) spec.analysis = normaliseAnalysis(p.analysis)
   return sortKeysDeep(spec)
 }
 
@@ -176,21 +181,25 @@ function checkEveryPoint (spec: NormalisedSpec, points: number): SpecIssue[] {
     else known.count++
   }
   const checkedSuppliedCounts = new Set<number>()
+  const searched = spec.analysis?.parameter
   for (let index = 0; index < points; index++) {
-    const { values, params } = pointAt(spec, index)
-    if (params.patterns < 1 && spec.load !== undefined) {
-      note('load', `load × neurons rounds to ${params.patterns} patterns; at least 1 is needed`, values)
-      continue
-    }
-    if (params.family.kind === 'supplied' && params.patterns > params.family.data.length) {
-      note('load', `round(load × neurons) = ${params.patterns} patterns, but only ${params.family.data.length} are supplied`, values)
-      continue
-    }
-    try {
-      checkPointParams(lightForCheck(params, checkedSuppliedCounts))
-    } catch (error) {
-      if (!(error instanceof EngineInputError)) throw error
-      note(specPathOf(error.field, spec), reasonOf(error), values)
+    for (const { values, params, end } of pointsToCheck(spec, index)) {
+      // A search's ends are checked in place of the searched field: problems there belong to analysis.from / analysis.to.
+      const pathOf = (field: string) => (end !== undefined && field === searched ? `analysis.${end}` : field)
+      if (params.patterns < 1 && (spec.load !== undefined || searched === 'load')) {
+        note(pathOf('load'), `load × neurons rounds to ${params.patterns} patterns; at least 1 is needed`, values)
+        continue
+      }
+      if (params.family.kind === 'supplied' && params.patterns > params.family.data.length) {
+        note('load', `round(load × neurons) = ${params.patterns} patterns, but only ${params.family.data.length} are supplied`, values)
+        continue
+      }
+      try {
+        checkPointParams(lightForCheck(params, checkedSuppliedCounts))
+      } catch (error) {
+        if (!(error instanceof EngineInputError)) throw error
+        note(pathOf(specPathOf(error.field, spec)), reasonOf(error), values)
+      }
     }
   }
   return [...problems].map(([path, problem]) => ({
@@ -217,7 +226,7 @@ function lightForCheck (params: PointParams, checkedCounts: Set<number>): PointP
 
 /** Engine field paths are point paths; a point's `patterns` comes from `load` when the spec gives a load. */
 function specPathOf (field: string, spec: NormalisedSpec): string {
-  if (field === 'patterns' && spec.load !== undefined) return 'load'
+  if (field === 'patterns' && (spec.load !== undefined || spec.analysis?.parameter === 'load')) return 'load'
   return field
 }
 

@@ -2,11 +2,13 @@
  * A sweep result as bytes: canonical JSON, or tidy CSV (one row per grid point, or one
  * per trial). Both depend on the result's content only, never on how it was computed.
  */
-import { END_STATES, ENDINGS, type MeanWithError, type TrialRecord } from '../engine/index.js'
+import type { TrialRecord } from '../engine/index.js'
+import { searchCsv } from './analysis/output.js'
 import type { ResultRow, SweepResult } from './assemble.js'
 import { canonicalJson } from './canonical.js'
 import { toCsv, type CsvCell } from './csv.js'
 import { gridAxes } from './grid.js'
+import { summaryCells, summaryHeader } from './summary-cells.js'
 
 export interface OutputOptions {
   /** Include every trial's record (JSON: the `trials` member; CSV: one row per trial). */
@@ -43,13 +45,13 @@ export function resultToJson (result: SweepResult, opts: OutputOptions): string 
  * count·rate·low·high (Wilson 95 %), ending and end-state counts, stability (when measured)
  * and one `theory.<name>` column per theory value (empty where it does not apply).
  * Per trial: point, varied parameters, neurons, patterns, alpha, then the trial record
- * (trajectories are JSON-only).
+ * (trajectories are JSON-only). An analysis gives one row per search, or with perTrial one
+ * per evaluated step (see analysis/output.ts).
  */
 export function resultToCsv (result: SweepResult, opts: OutputOptions): string {
+  if (result.searches !== undefined) return searchCsv(result, result.searches, opts.perTrial)
   return opts.perTrial ? trialCsv(result) : pointCsv(result)
 }
-
-const MEAN_FIELDS = ['overlap', 'sweeps', 'maxOtherOverlap', 'energy'] as const
 
 const PARAM_COLUMNS = ['neurons', 'patterns', 'alpha'] as const
 
@@ -72,33 +74,15 @@ function pointCsv (result: SweepResult): string {
   const stability = result.spec.measures.stability
   const header = [
     ...leadingHeader(result),
-    'trials',
-    ...MEAN_FIELDS.flatMap((f) => [`${f}.mean`, `${f}.sd`, `${f}.se`]),
-    'success.count', 'success.rate', 'success.low', 'success.high',
-    ...ENDINGS.map((e) => `ending.${e}`),
-    ...END_STATES.map((s) => `endState.${s}`),
-    ...(stability ? ['stability.networks', 'stability.unstableFraction', 'stability.tieFraction', 'stability.fixedPatternFraction'] : []),
+    ...summaryHeader(stability),
     ...theoryNames.map((name) => `theory.${name}`)
   ]
-  const rows = result.rows.map((row) => {
-    const s = row.summary
-    const st = s.stability
-    return [
-      ...leadingCells(result, row),
-      s.trials,
-      ...MEAN_FIELDS.flatMap((f) => meanCells(s[f])),
-      s.success.count, s.success.rate, s.success.low, s.success.high,
-      ...ENDINGS.map((e) => s.endings[e]),
-      ...END_STATES.map((e) => s.endStates[e]),
-      ...(stability ? [st?.networks, st?.unstableFraction, st?.tieFraction, st?.fixedPatternFraction] : []),
-      ...theoryNames.map((name) => row.theory[name])
-    ]
-  })
+  const rows = result.rows.map((row) => [
+    ...leadingCells(result, row),
+    ...summaryCells(row.summary, stability),
+    ...theoryNames.map((name) => row.theory[name])
+  ])
   return toCsv(header, rows)
-}
-
-function meanCells (m: MeanWithError): CsvCell[] {
-  return [m.mean, m.sd, m.se]
 }
 
 function trialCsv (result: SweepResult): string {

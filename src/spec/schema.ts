@@ -6,6 +6,7 @@
  */
 import { z } from 'zod'
 import { type NumericDomain, variedSchema } from './axis.js'
+import { analysisSchema } from './analysis/schema.js'
 
 // VARIABLES //
 
@@ -185,9 +186,10 @@ export const SweepSpecSchema = z.strictObject({
   successThreshold: varied('successThreshold', `A trial succeeds when its final target overlap is at least this. Default: ${SPEC_DEFAULTS.successThreshold}.`)
     .default(SPEC_DEFAULTS.successThreshold),
   trials: z.int().min(1).max(SPEC_CEILINGS.trials).default(SPEC_DEFAULTS.trials)
-    .describe(`Trials (recall attempts) per grid point. Default: ${SPEC_DEFAULTS.trials}.`),
+    .describe(`Trials (recall attempts) per grid point; with an analysis, per evaluated value of the searched parameter. Default: ${SPEC_DEFAULTS.trials}.`),
   trialsPerNetwork: varied('trialsPerNetwork', 'Consecutive trials that share one network (pattern set and couplings); 1 draws a new network for every trial. Default: 1.')
-    .default(SPEC_DEFAULTS.trialsPerNetwork)
+    .default(SPEC_DEFAULTS.trialsPerNetwork),
+  analysis: analysisSchema(VARIED_PARAMETERS).optional()
 }).meta({
   id: 'SweepSpec',
   title: 'Sweep spec',

@@ -5,6 +5,7 @@
  */
 import type { Coding, UpdateScheme } from '../engine/index.js'
 import type { Varied } from './axis.js'
+import type { NormalisedAnalysis } from './analysis/types.js'
 
 export type { Varied }
 
@@ -42,4 +43,6 @@ export interface NormalisedSpec {
   successThreshold: Varied
   trials: number
   trialsPerNetwork: Varied
+  /** Present only for an analysis (threshold search); absent for a grid sweep, so grid specs and their hashes are unchanged. */
+  analysis?: NormalisedAnalysis
 }

@@ -4,6 +4,8 @@
  * before any network is allocated.
  */
 import { estimatePointCost } from '../engine/index.js'
+import { pointsToCheck } from './analysis/normalise.js'
+import { searchTrialBudget } from './analysis/run.js'
 import { WorkLimitError, type WorkLimitName } from './errors.js'
 import { countPoints, gridAxes, pointAt } from './grid.js'
 import type { NormalisedSpec } from './types.js'
@@ -54,6 +56,7 @@ export const DEFAULT_LIMITS: Readonly<Required<WorkLimits>> = Object.freeze({
 
 export interface WorkEstimate {
   points: number
+  /** Trials per grid point; for an analysis, the most a search may run (maxSteps × trials). */
   trialsPerPoint: number
   /** points × trialsPerPoint. */
   trials: number
@@ -73,22 +76,39 @@ export function pointOps (cost: ReturnType<typeof estimatePointCost>, trials: nu
   return trials * cost.neuronUpdatesPerTrial * cost.opsPerVisit + networks * cost.buildOpsPerNetwork
 }
 
+/** Trials one grid point may run: `trials`, or for a search its whole budget. */
+export function trialsPerPoint (spec: NormalisedSpec): number {
+  return spec.analysis === undefined ? spec.trials : searchTrialBudget(spec, spec.analysis)
+}
+
+/**
+ * A search's steps lie between the ends of its range, so its cost is bounded by running
+ * every step at the costlier end (per resource: the more trial work, the more memory).
+ */
 export function estimateWork (spec: NormalisedSpec): WorkEstimate {
   const points = countPoints(spec)
+  const trials = trialsPerPoint(spec)
+  // Each step of a search runs `trials` trials on networks of its own.
+  const steps = spec.analysis?.maxSteps ?? 1
   let neuronUpdates = 0
   let ops = 0
   let peakBytes = 0
   for (let index = 0; index < points; index++) {
-    const { params } = pointAt(spec, index)
-    const cost = estimatePointCost(params)
-    neuronUpdates += spec.trials * cost.neuronUpdatesPerTrial
-    ops += pointOps(cost, spec.trials, params.trialsPerNetwork)
-    peakBytes = Math.max(peakBytes, cost.bytes)
+    let pointUpdates = 0
+    let pointWork = 0
+    for (const { params } of spec.analysis === undefined ? [pointAt(spec, index)] : pointsToCheck(spec, index)) {
+      const cost = estimatePointCost(params)
+      pointUpdates = Math.max(pointUpdates, trials * cost.neuronUpdatesPerTrial)
+      pointWork = Math.max(pointWork, steps * pointOps(cost, spec.trials, params.trialsPerNetwork))
+      peakBytes = Math.max(peakBytes, cost.bytes)
+    }
+    neuronUpdates += pointUpdates
+    ops += pointWork
   }
   return {
     points,
-    trialsPerPoint: spec.trials,
-    trials: points * spec.trials,
+    trialsPerPoint: trials,
+    trials: points * trials,
     neuronUpdates,
     peakBytes,
     cpuSeconds: ops / ENGINE_OPS_PER_CPU_SECOND
@@ -106,7 +126,7 @@ export function checkLimits (spec: NormalisedSpec, limits: WorkLimits): WorkEsti
   exceeds('maxNeurons', largestN, limits.maxNeurons)
   const points = countPoints(spec)
   exceeds('maxPoints', points, limits.maxPoints)
-  exceeds('maxTrials', points * spec.trials, limits.maxTrials)
+  exceeds('maxTrials', points * trialsPerPoint(spec), limits.maxTrials)
   const estimate = estimateWork(spec)
   exceeds('maxBytes', estimate.peakBytes, limits.maxBytes)
   if (limits.maxCpuSeconds !== undefined) exceeds('maxCpuSeconds', Math.ceil(estimate.cpuSeconds), limits.maxCpuSeconds)

@@ -143,13 +143,14 @@ async function runChunkJob (context: SandboxContext, job: SandboxedJob<ChunkJobD
   }
   const computeMs = performance.now() - started
   const body = Buffer.from(encodeValue(result))
-  const stored = await store.recordChunk(sweepId, chunk, body, result.trials.length, computeMs, Date.now())
+  // Credit the planned count: a grid chunk ran exactly that many trials, a search chunk's count is its budget (progress reaches 100 % when it ends).
+  const stored = await store.recordChunk(sweepId, chunk, body, chunk.count, computeMs, Date.now())
   if (stored.status !== 'running') return { outcome: 'skipped', reason: `sweep is ${stored.status === '' ? 'gone' : stored.status}` }
   await publishSweepEvent(context.redis, context.keys, sweepId, 'progress')
   const completedSweep = stored.chunksDone === stored.chunksTotal
   // Whichever attempt sees the count complete enqueues the assembly; its fixed id makes repeats no-ops.
   if (completedSweep) await context.chunks.enqueueAssembly(sweepId, job.data.specHash, chunksTotal)
-  return { outcome: 'stored', chunk: chunk.index, trials: result.trials.length, computeMs, completedSweep }
+  return { outcome: 'stored', chunk: chunk.index, trials: chunk.count, computeMs, completedSweep }
 }
 
 async function assemble (context: SandboxContext, job: SandboxedJob<AssembleJobData>): Promise<ProcessorOutcome> {

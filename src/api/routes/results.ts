@@ -69,7 +69,7 @@ export const resultRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
     schema: {
       operationId: 'getSweepResults',
       summary: 'Results of a succeeded sweep (JSON or CSV)',
-      description: 'JSON by default; CSV with `Accept: text/csv` or `?format=csv`. One row per grid point with the varied parameters, aggregated measures with uncertainties and the theory values that apply; `?trials=true` for per-trial rows. A strong ETag (sha256 of the bytes) supports If-None-Match → 304. 409 while the sweep has not succeeded; 422 (limit maxTrialRows) for per-trial rows of sweeps over a million trials.',
+      description: 'JSON by default; CSV with `Accept: text/csv` or `?format=csv`. One row per grid point with the varied parameters, aggregated measures with uncertainties and the theory values that apply; `?trials=true` for per-trial rows. An analysis (threshold search) gives `searches` (and `scaling` when asked for) in JSON; its CSV has one row per search, or with `?trials=true` one row per evaluated step (searches keep per-step summaries, not per-trial records; scaling fits are JSON-only). A strong ETag (sha256 of the bytes) supports If-None-Match → 304. 409 while the sweep has not succeeded; 422 (limit maxTrialRows) for per-trial rows of sweeps over a million trials.',
       tags: ['sweeps'],
       params: z.object({ id: sweepIdSchema }),
       querystring: resultsQuery,

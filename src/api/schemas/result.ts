@@ -5,6 +5,7 @@
  */
 import { z } from 'zod'
 import { END_STATES, ENDINGS } from '../../engine/index.js'
+import { analysisResultSchemas } from './analysis-result.js'
 
 const stat = z.number().nullable()
 
@@ -76,10 +77,14 @@ export const provenanceSchema = z.looseObject({
 }).describe('Where and how the result was computed: fixed by the spec and the code, so repeated or interrupted runs give the same bytes. The run timing (which differs between runs) appears only with ?timing=true.')
   .meta({ id: 'Provenance' })
 
+const { searchRow: searchRowSchema, scalingRow: scalingRowSchema } = analysisResultSchemas(pointSummarySchema)
+
 export const sweepResultSchema = z.object({
   specHash: z.string(),
   spec: z.record(z.string(), z.unknown()).describe('The normalised spec the result belongs to.'),
-  rows: z.array(resultRowSchema).describe('One row per grid point, in grid order (the last axis varies fastest).'),
-  trials: z.array(z.array(trialRecordSchema)).optional().describe('trials[point][trial], only with ?trials=true.'),
+  rows: z.array(resultRowSchema).describe('One row per grid point, in grid order (the last axis varies fastest). Empty for an analysis: see `searches`.'),
+  trials: z.array(z.array(trialRecordSchema)).optional().describe('trials[point][trial], only with ?trials=true. Empty for an analysis, which keeps per-step summaries (in `searches`) instead.'),
+  searches: z.array(searchRowSchema).optional().describe('Analysis specs only: one threshold search per point of the grid of the other varied parameters, in grid order.'),
+  scaling: z.array(scalingRowSchema).optional().describe('Analysis specs with `analysis.scaling` only: one finite-size fit per combination of the varied parameters other than `neurons`.'),
   provenance: provenanceSchema
 }).meta({ id: 'SweepResult' })

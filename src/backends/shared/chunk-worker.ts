@@ -37,7 +37,8 @@ function runOneChunk (task: RunChunkTask): ChunkTaskOutcome {
         }
       }
     })
-    return { kind: 'chunk-done', body: encodeValue(result), trials: result.trials.length, computeMs: performance.now() - started }
+    // Credit the planned count: a grid chunk ran exactly that many trials, a search chunk's count is its budget (progress reaches 100 % when it ends).
+    return { kind: 'chunk-done', body: encodeValue(result), trials: task.chunk.count, computeMs: performance.now() - started }
   } catch (error) {
     const classified = classifyChunkError(error)
     return classified.kind === 'canceled' ? { kind: 'stopped' } : { kind: 'failed', error: classified }
