@@ -15,6 +15,7 @@ import { ARTIFACTS, launchChromium } from './helpers/browser.js'
 import { startWebServer, type WebServer } from './helpers/server.js'
 
 const SHOTS = join(ARTIFACTS, 'web')
+const POLL = { timeout: 20_000, interval: 50 }
 const WIDE = { width: 1280, height: 800 }
 const NARROW = { width: 390, height: 844 }
 
@@ -41,7 +42,11 @@ async function waitFor (server: WebServer, id: string, until: (r: SweepRecord) =
   })
 }
 
-/** In-page test: the figure image shows a loaded blob: image. (A string: the test program has no DOM types.) */
+/**
+ * In-page check that the figure shows a loaded blob: image. Evaluated through the DevTools
+ * protocol (page.evaluate), which the page's content-security policy rightly does not allow
+ * for its own scripts; a string because the test program has no DOM types.
+ */
 const IMAGE_SHOWN = "(() => { const img = document.querySelector('img.figure-image'); return img !== null && img.src.startsWith('blob:') && img.complete && img.naturalWidth > 0 })()"
 
 async function shot (page: Page, name: string, fullPage = true): Promise<void> {
@@ -106,12 +111,13 @@ describe('web page in Chromium', () => {
 
     // The figure from the figure route, with a text alternative taken from the SVG.
     const image = page.locator('img.figure-image')
-    await page.waitForFunction(IMAGE_SHOWN)
+    await expect.poll(async () => await page.evaluate<boolean>(IMAGE_SHOWN), POLL).toBe(true)
     expect(await image.getAttribute('alt')).toContain('Rooms remembered by a place-cell network')
     expect(await page.locator('.figure-status').textContent()).toBe('')
     const firstSrc = await image.getAttribute('src')
     await page.selectOption('.figure-controls select >> nth=0', 'overlap')
-    await page.waitForFunction(`(${IMAGE_SHOWN}) && document.querySelector('img.figure-image').src !== ${JSON.stringify(firstSrc)}`)
+    await expect.poll(async () => await image.getAttribute('src'), POLL).not.toBe(firstSrc)
+    await expect.poll(async () => await page.evaluate<boolean>(IMAGE_SHOWN), POLL).toBe(true)
     expect(await page.locator('.figure figcaption').textContent()).toContain('final overlap')
 
     expect(await page.locator('table.results tbody tr').count()).toBe(36)
@@ -168,7 +174,7 @@ describe('web page in Chromium', () => {
     await page.close()
   })
 
-  it('overlays two finished sweeps on one figure', async () => {
+  it('overlays two finished sweeps on one figure; copies a spec and re-runs it with a new seed', async () => {
     const base = { neurons: 120, load: { from: 0.04, to: 0.28, step: 0.04 }, cue: { kind: 'flip', fraction: 0.05 }, dynamics: { maxSweeps: 30 }, trials: 24 }
     const hebbian = await submit(open, { ...base, label: 'Room codes, Hebbian rule', rule: { kind: 'hebbian' } })
     const storkey = await submit(open, { ...base, label: 'Room codes, Storkey rule', rule: { kind: 'storkey' } })
@@ -183,6 +189,26 @@ describe('web page in Chromium', () => {
     const dashes = await plot.locator('g[data-curve] > path:first-child').evaluateAll((ps) => ps.map((p) => p.getAttribute('stroke-dasharray')))
     expect(new Set(dashes).size).toBe(2)
     await shot(page, 'compare')
+
+    // From a sweep's page: copy its normalised spec, then run it again with a new seed.
+    await context.grantPermissions(['clipboard-read', 'clipboard-write'], { origin: open.url })
+    await page.goto(`${open.url}/#/sweeps/${hebbian}`)
+    await page.getByRole('button', { name: 'Copy spec' }).click()
+    await page.getByText('The normalised spec is on the clipboard.').waitFor()
+    const copied = JSON.parse(await page.evaluate<string>('navigator.clipboard.readText()')) as Record<string, unknown>
+    const original = (await open.queue.get(hebbian))?.spec as unknown as Record<string, unknown>
+    expect(copied).toEqual(original)
+
+    await page.getByRole('button', { name: 'Re-run with a new seed' }).click()
+    await page.getByRole('dialog').getByRole('button', { name: 'Submit the copy' }).click()
+    await page.waitForURL((url) => url.hash.startsWith('#/sweeps/') && !url.hash.endsWith(hebbian))
+    const rerun = decodeURIComponent(page.url().split('#/sweeps/')[1] ?? '')
+    const record = await waitFor(open, rerun, (r) => TERMINAL_STATUSES.has(r.status))
+    const spec = record.spec as unknown as Record<string, unknown>
+    expect(record.status).toBe('succeeded')
+    expect(spec.seed).not.toBe(original.seed)
+    expect({ ...spec, seed: 0, label: '' }).toEqual({ ...original, seed: 0, label: '' })
+    expect(record.label).toBe(`Room codes, Hebbian rule · seed ${String(spec.seed)}`)
     await page.close()
   })
 
@@ -221,9 +247,7 @@ describe('web page in Chromium', () => {
 
     // The status filter asks the server for one status only.
     await page.selectOption('#status-filter', 'canceled')
-    await page.waitForFunction(`[...document.querySelectorAll('table.sweeps tbody tr')].every((r) => r.dataset.status === 'canceled') &&
-      document.querySelectorAll('table.sweeps tbody tr').length > 0`)
-    expect(await page.locator('table.sweeps tbody tr').count()).toBe(1)
+    await expect.poll(async () => await page.locator('table.sweeps tbody tr').evaluateAll((rows) => rows.map((r) => r.getAttribute('data-status'))), POLL).toEqual(['canceled'])
     await page.selectOption('#status-filter', '')
     await page.locator('table.sweeps tbody tr[data-status="succeeded"] >> nth=0').waitFor()
 

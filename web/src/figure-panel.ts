@@ -156,9 +156,9 @@ export function figurePanel (id: string, label: string, result: SweepResult, sig
     inBackground(load())
   }
 
-  const measures = MEASURES.filter((m) => m.needsStability !== true || stability).map((m): [string, string] => [m.value, m.name])
+  const measures = MEASURES.filter((m) => m.needsStability !== true || stability).map((m): [string, string] => [m.value, m.short])
   const xOptions = varied.map((path): [string, string] => [path, parameterName(path)])
-  const seriesOptions: Array<[string, string]> = [['', 'every other varied parameter'], ...xOptions]
+  const seriesOptions: Array<[string, string]> = [['', 'other varied values'], ...xOptions]
   const theoryId = uid('fig')
   const theoryBox = h('input', { type: 'checkbox', id: theoryId, checked: choice.theory, onchange: () => set('theory')(String(theoryBox.checked)) })
 
@@ -187,5 +187,16 @@ export function figurePanel (id: string, label: string, result: SweepResult, sig
 
   panel.append(h('div', { class: 'figure-layout' }, h('div', { class: 'figure-main' }, problem, status, figure), controls))
   queueMicrotask(() => { inBackground(load()) })
+  // A window made much wider or narrower gets a figure drawn for its width (text stays legible).
+  let drawnWidth = 0
+  const resized = new ResizeObserver(() => {
+    const width = size()[0]
+    if (drawnWidth === 0) { drawnWidth = width; return }
+    if (Math.abs(width - drawnWidth) / drawnWidth < 0.15) return
+    drawnWidth = width
+    inBackground(load())
+  })
+  resized.observe(figure)
+  signal.addEventListener('abort', () => resized.disconnect())
   return { panel, downloadSvg }
 }

@@ -25,20 +25,23 @@ export function parameterName (path: string): string {
 
 export interface MeasureInfo {
   value: string
+  /** For menus. */
+  short: string
+  /** For axis titles and captions. */
   name: string
   /** Only offered when the spec measured one-step stability. */
   needsStability?: boolean
 }
 
 export const MEASURES: readonly MeasureInfo[] = [
-  { value: 'success', name: 'recall success rate' },
-  { value: 'overlap', name: 'final overlap with the cued pattern' },
-  { value: 'sweeps', name: 'sweeps until the dynamics stopped' },
-  { value: 'maxOtherOverlap', name: 'largest overlap with another pattern' },
-  { value: 'energy', name: 'energy per neuron' },
-  { value: 'endState', name: 'fraction ending in the cued pattern' },
-  { value: 'unstableFraction', name: 'unstable neurons in stored patterns', needsStability: true },
-  { value: 'fixedPatternFraction', name: 'stored patterns that are fixed points', needsStability: true }
+  { value: 'success', short: 'success rate', name: 'recall success rate' },
+  { value: 'overlap', short: 'final overlap', name: 'final overlap with the cued pattern' },
+  { value: 'sweeps', short: 'sweeps run', name: 'sweeps until the dynamics stopped' },
+  { value: 'maxOtherOverlap', short: 'largest other overlap', name: 'largest overlap with another pattern' },
+  { value: 'energy', short: 'energy per neuron', name: 'energy per neuron' },
+  { value: 'endState', short: 'ended at the cue', name: 'fraction ending in the cued pattern' },
+  { value: 'unstableFraction', short: 'unstable neurons', name: 'unstable neurons in stored patterns', needsStability: true },
+  { value: 'fixedPatternFraction', short: 'fixed stored patterns', name: 'stored patterns that are fixed points', needsStability: true }
 ]
 
 export function measureName (value: string): string {

@@ -99,7 +99,7 @@ export function renderCompare (main: HTMLElement, ids: string[]): Dispose {
       return
     }
     const stability = loaded.every((item) => (item.result.spec.measures as Record<string, unknown> | undefined)?.stability === true)
-    const measureSelect = h('select', {}, MEASURES.filter((m) => m.needsStability !== true || stability).map((m) => h('option', { value: m.value }, m.name)))
+    const measureSelect = h('select', {}, MEASURES.filter((m) => m.needsStability !== true || stability).map((m) => h('option', { value: m.value }, m.short)))
     const xSelect = h('select', {}, (shared.length > 0 ? shared : anyAxis).map((path) => h('option', { value: path }, parameterName(path))))
     const scaleSelect = h('select', {}, h('option', { value: 'linear' }, 'linear'), h('option', { value: 'log' }, 'logarithmic'))
     const note = h('p', { class: 'hint', role: 'status' })
