@@ -40,10 +40,13 @@ const scaling = z.discriminatedUnion('form', [
 ]).nullable().default(null)
   .describe('Finite-size scaling of the crossing over `neurons` (which must be an axis of at least 3 sizes, 4 with a fitted exponent): a weighted least-squares fit and its extrapolation to N → ∞. Default: null (no fit).')
 
-/** The analysis member's schema, for the varied-parameter table of the spec schema. */
+/**
+ * The analysis member's schema, for the varied-parameter table of the spec schema. One kind
+ * so far; a second will make this a discriminated union on `kind` (a one-member union would
+ * put a one-schema oneOf in the OpenAPI document).
+ */
 export function analysisSchema<P extends string> (varied: ReadonlyArray<{ path: P, domain: NumericDomain }>) {
-  return z.discriminatedUnion('kind', [thresholdAnalysisSchema(varied)])
-    .describe('Turns the sweep into an analysis. Omit for a plain grid sweep.')
+  return thresholdAnalysisSchema(varied)
 }
 
 function thresholdAnalysisSchema<P extends string> (varied: ReadonlyArray<{ path: P, domain: NumericDomain }>) {
@@ -66,5 +69,5 @@ function thresholdAnalysisSchema<P extends string> (varied: ReadonlyArray<{ path
     confidence: z.number().gt(0).lt(1).default(ANALYSIS_DEFAULTS.confidence)
       .describe('Confidence level of the step intervals that steer the search and of the reported interval. Default: 0.95.'),
     scaling
-  }).describe('Threshold search: for every point of the grid of the other varied parameters, the value of `parameter` at which `measure` crosses `level`, with a confidence interval.')
+  }).describe('Turns the sweep into an analysis (omit for a plain grid sweep). Threshold search: for every point of the grid of the other varied parameters, the value of `parameter` at which `measure` crosses `level`, with a confidence interval.')
 }
