@@ -180,15 +180,30 @@ describe('web page in Chromium', () => {
     const storkey = await submit(open, { ...base, label: 'Room codes, Storkey rule', rule: { kind: 'storkey' } })
     await Promise.all([hebbian, storkey].map(async (id) => await waitFor(open, id, (r) => TERMINAL_STATUSES.has(r.status))))
     const page = await context.newPage()
+    const overlays: string[] = []
+    page.on('request', (request) => { if (request.url().includes('/v1/figures/overlay.svg')) overlays.push(request.url()) })
     await page.goto(`${open.url}/#/compare?ids=${hebbian},${storkey}`)
-    const plot = page.locator('svg.plot')
-    await plot.waitFor()
-    expect(await plot.locator('g[data-curve]').count()).toBe(2)
-    expect(await plot.locator('g[data-curve]').evaluateAll((gs) => gs.map((g) => g.getAttribute('data-curve')))).toEqual(['Room codes, Hebbian rule', 'Room codes, Storkey rule'])
-    // Each curve has its own dash pattern and marker, not only its own colour.
-    const dashes = await plot.locator('g[data-curve] > path:first-child').evaluateAll((ps) => ps.map((p) => p.getAttribute('stroke-dasharray')))
-    expect(new Set(dashes).size).toBe(2)
+    await expect.poll(async () => await page.evaluate<boolean>(IMAGE_SHOWN), POLL).toBe(true)
+    // The figure comes from the overlay route, one series per sweep.
+    expect(new URL(overlays.at(-1) ?? 'http://x/').searchParams.get('sweeps')).toBe(`${hebbian},${storkey}`)
+    const overlay = await (await fetch(overlays.at(-1) as string)).text()
+    expect(overlay).toContain('Room codes, Hebbian rule')
+    expect(overlay).toContain('Room codes, Storkey rule')
+    expect(await page.locator('img.figure-image').getAttribute('alt')).not.toBe('')
     await shot(page, 'compare')
+
+    // A server without the overlay route: the page draws the curves itself from the results.
+    await page.route('**/v1/figures/overlay.svg*', async (route) => await route.fulfill({
+      status: 404,
+      contentType: 'application/problem+json',
+      body: JSON.stringify({ status: 404, title: 'No such route', code: 'MEMSWEEP_ROUTE_NOT_FOUND' })
+    }))
+    await page.reload()
+    await page.locator('.figure-status', { hasText: 'Drawn in the browser from the results.' }).waitFor()
+    await expect.poll(async () => await page.evaluate<boolean>(IMAGE_SHOWN), POLL).toBe(true)
+    expect(await page.locator('img.figure-image').getAttribute('alt')).toContain('2 curve(s) of recall success rate')
+    await shot(page, 'compare-drawn-in-page')
+    await page.unroute('**/v1/figures/overlay.svg*')
 
     // From a sweep's page: copy its normalised spec, then run it again with a new seed.
     await context.grantPermissions(['clipboard-read', 'clipboard-write'], { origin: open.url })
@@ -209,6 +224,26 @@ describe('web page in Chromium', () => {
     expect(spec.seed).not.toBe(original.seed)
     expect({ ...spec, seed: 0, label: '' }).toEqual({ ...original, seed: 0, label: '' })
     expect(record.label).toBe(`Room codes, Hebbian rule · seed ${String(spec.seed)}`)
+    await page.close()
+  })
+
+  it('shows a threshold search: each crossing with its interval, and the evaluated steps around the level', async () => {
+    const spec = { ...example('room-basin-search'), neurons: 300, trials: 30 }
+    const id = await submit(open, spec)
+    const record = await waitFor(open, id, (r) => TERMINAL_STATUSES.has(r.status))
+    expect(record.status).toBe('succeeded')
+    const page = await context.newPage()
+    await page.goto(`${open.url}/#/sweeps/${id}`)
+    const rows = page.locator('#search-heading + .table-wrap tbody tr')
+    await rows.first().waitFor()
+    expect(await rows.count()).toBe(3)
+    const result = await (await fetch(`${open.url}/v1/sweeps/${id}/results`)).json() as { searches: Array<{ estimate: number | null }> }
+    const shown = await rows.evaluateAll((trs) => trs.map((tr) => tr.children[2]?.textContent ?? ''))
+    expect(shown).toEqual(result.searches.map((search) => search.estimate === null ? '–' : String(Number(search.estimate.toPrecision(4)))))
+    const plot = page.locator('.search-figure svg.plot')
+    expect(await plot.locator('g[data-curve]').count()).toBe(3)
+    expect(await plot.locator('text', { hasText: 'level 0.5' }).count()).toBe(1)
+    await shot(page, 'threshold-search')
     await page.close()
   })
 

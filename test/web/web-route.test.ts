@@ -3,9 +3,10 @@
  * revalidated by ETag, a strict content-security policy, a helpful answer when no build
  * exists, and nothing of it in the OpenAPI document.
  */
-import { mkdtemp, rm } from 'node:fs/promises'
+import { mkdtemp, readdir, readFile, rm } from 'node:fs/promises'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
+import { fileURLToPath } from 'node:url'
 import type { FastifyInstance } from 'fastify'
 import { pino } from 'pino'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
@@ -73,10 +74,15 @@ describe('web page route', () => {
     }
   })
 
-  it('ships every example spec for the submit page', async () => {
+  it('ships every example spec of examples/ for the submit page, as written', async () => {
     const examples = (await app.inject({ url: '/assets/examples.json' })).json<Array<{ name: string, spec: Record<string, unknown> }>>()
-    expect(examples.map((e) => e.name)).toEqual(['room-capacity', 'room-cue-noise', 'room-flat-codes', 'room-floors', 'room-temperature'])
-    for (const example of examples) expect(typeof example.spec.label, example.name).toBe('string')
+    const folder = fileURLToPath(new URL('../../examples/', import.meta.url))
+    const files = (await readdir(folder)).filter((name) => name.endsWith('.json')).sort()
+    expect(files.length).toBeGreaterThan(0)
+    expect(examples.map((e) => `${e.name}.json`)).toEqual(files)
+    for (const example of examples) {
+      expect(example.spec, example.name).toEqual(JSON.parse(await readFile(join(folder, `${example.name}.json`), 'utf8')))
+    }
   })
 
   it('answers 304 to a matching If-None-Match, so reloads cost no bytes', async () => {

@@ -1,11 +1,12 @@
 /**
- * A sweep's figure from the service's figure route, with controls for the measure, the axes,
- * the error bars and the theory overlay. The SVG is fetched with the token and shown as an
- * image from a blob: URL (scripts in an image never run); its title and description become
- * the image's text alternative.
+ * A figure from the service's figure routes (one sweep, or several overlaid), with controls
+ * for the measure, the axes, the error bars and the theory overlay. The SVG is fetched with
+ * the token and shown as an image from a blob: URL (scripts in an image never run); its title
+ * and description become the image's text alternative. Where the server has no such route,
+ * the page draws the same curves itself from the results (plot.ts).
  */
-import { ApiProblem, call, download, sweepPath } from './api.js'
-import { curvesOf } from './curves.js'
+import { ApiProblem, call, download } from './api.js'
+import { curvesOf, variedOf } from './curves.js'
 import { fill, h, uid } from './dom.js'
 import { MEASURES, measureName, parameterName } from './labels.js'
 import { drawPlot } from './plot.js'
@@ -22,9 +23,10 @@ export interface FigureChoice {
   theory: boolean
 }
 
-/** The figure route's query for a choice; `series` '' leaves the grouping to the route. */
-export function figureQuery (choice: FigureChoice, width: number, height: number): string {
+/** The figure routes' query for a choice; `series` '' leaves the grouping to the route. */
+export function figureQuery (choice: FigureChoice, width: number, height: number, extra: Record<string, string> = {}): string {
   const params = new URLSearchParams({
+    ...extra,
     measure: choice.measure,
     x: choice.x,
     xScale: choice.xScale,
@@ -38,6 +40,26 @@ export function figureQuery (choice: FigureChoice, width: number, height: number
   return params.toString()
 }
 
+const RATE_MEASURES = new Set(['success', 'endState', 'unstableFraction', 'fixedPatternFraction'])
+
+/** Where a figure comes from and what it shows. */
+export interface FigureSource {
+  /** The route, relative: 'v1/sweeps/<id>/figure.svg' or 'v1/figures/overlay.svg'. */
+  route: string
+  /** Query parameters besides the choice (the overlay's `sweeps`). */
+  query: Record<string, string>
+  /** File names of downloads start with this. */
+  fileStem: string
+  /** The results shown, named as their curves are; the page draws from them when the route is missing. */
+  results: ReadonlyArray<{ name: string, result: SweepResult }>
+  /** Title of the page's own drawing; default: the measure against x. */
+  title?: string
+  /** Offer "one curve per" (a single sweep); an overlay has one series per sweep. */
+  seriesControl: boolean
+  /** Draw in the page from the start (the route cannot take this many sweeps). */
+  drawHere?: boolean
+}
+
 function select (label: string, options: Array<[string, string]>, value: string, onChange: (value: string) => void): HTMLElement {
   const id = uid('fig')
   const el = h('select', { id, onchange: () => onChange(el.value) },
@@ -45,32 +67,38 @@ function select (label: string, options: Array<[string, string]>, value: string,
   return h('div', { class: 'control' }, h('label', { for: id }, label), el)
 }
 
-/** The varied parameter with the most values, the later one on a tie (as the route defaults). */
-function defaultX (result: SweepResult, varied: string[]): string {
-  let best = varied[0] ?? ''
+/** The varied parameter with the most values, the later one on a tie (as the routes default). */
+function defaultX (results: FigureSource['results'], candidates: string[]): string {
+  let best = candidates[0] ?? ''
   let most = 0
-  for (const path of varied) {
-    const count = new Set(result.rows.map((row) => row.values[path])).size
+  for (const path of candidates) {
+    const count = new Set(results.flatMap(({ result }) => result.rows.map((row) => row.values[path]))).size
     if (count >= most) { best = path; most = count }
   }
   return best
 }
 
 export interface FigurePanel {
-  panel: HTMLElement
+  el: HTMLElement
   downloadSvg: () => Promise<void>
 }
 
-export function figurePanel (id: string, label: string, result: SweepResult, signal: AbortSignal): FigurePanel {
-  const varied = Object.keys(result.rows[0]?.values ?? {})
-  const panel = h('section', { class: 'panel figure-panel', 'aria-labelledby': 'figure-heading' },
-    h('h2', { id: 'figure-heading' }, 'Figure'))
-  if (varied.length === 0) {
-    panel.append(h('p', {}, 'This sweep has a single grid point, so there is no curve to draw: the table below holds its values.'))
-    return { panel, downloadSvg: async () => {} }
+export function figurePanel (source: FigureSource, signal: AbortSignal): FigurePanel {
+  const el = h('div', { class: 'figure-block' })
+  const variedSets = source.results.map(({ result }) => variedOf(result))
+  const anyVaried = [...new Set(variedSets.flat())]
+  // The routes need an x that every sweep varies; the page's own drawing leaves the others out.
+  const shared = anyVaried.filter((path) => variedSets.every((set) => set.includes(path)))
+  if (anyVaried.length === 0) {
+    el.append(h('p', {}, source.results.length === 1
+      ? 'This sweep has a single grid point, so there is no curve to draw: the table below holds its values.'
+      : 'None of these sweeps varies a parameter, so there is no curve to overlay.'))
+    return { el, downloadSvg: async () => {} }
   }
-  const stability = (result.spec.measures as Record<string, unknown> | undefined)?.stability === true
-  const choice: FigureChoice = { measure: 'success', x: defaultX(result, varied), series: '', xScale: 'linear', yScale: 'linear', errorBars: 'ci', theory: true }
+  let drawHere = source.drawHere === true || shared.length === 0
+  const xChoices = drawHere ? anyVaried : shared
+  const stability = source.results.every(({ result }) => (result.spec.measures as Record<string, unknown> | undefined)?.stability === true)
+  const choice: FigureChoice = { measure: 'success', x: defaultX(source.results, xChoices), series: '', xScale: 'linear', yScale: 'linear', errorBars: 'ci', theory: true }
 
   const image = h('img', { class: 'figure-image', alt: '' })
   const caption = h('figcaption', {})
@@ -79,7 +107,6 @@ export function figurePanel (id: string, label: string, result: SweepResult, sig
   const figure = h('figure', { class: 'figure', 'aria-busy': 'true' }, image, caption)
   let objectUrl: string | null = null
   let inFlight: AbortController | null = null
-  let routeMissing = false
   signal.addEventListener('abort', () => { if (objectUrl !== null) URL.revokeObjectURL(objectUrl) })
 
   const size = (): [number, number] => {
@@ -95,27 +122,41 @@ export function figurePanel (id: string, label: string, result: SweepResult, sig
     objectUrl = URL.createObjectURL(new Blob([text], { type: 'image/svg+xml' }))
     image.src = objectUrl
     image.alt = [title, desc].filter((t) => t !== '').join('. ') || `${measureName(choice.measure)} against ${parameterName(choice.x)}`
-    const bars = { ci: '95 % confidence intervals', se: '± one standard error', sd: '± one standard deviation of single trials', none: 'no error bars' }[choice.errorBars]
+    const bars = drawHere
+      ? (choice.measure === 'success' ? 'Wilson 95 % intervals' : RATE_MEASURES.has(choice.measure) ? 'no error bars' : '± one standard error')
+      : { ci: '95 % confidence intervals', se: '± one standard error', sd: '± one standard deviation of single trials', none: 'no error bars' }[choice.errorBars]
     fill(caption,
       h('span', {}, `${measureName(choice.measure)} against ${parameterName(choice.x)}; ${bars}.`),
       desc === '' ? null : h('details', {}, h('summary', {}, 'Text description of the figure'), h('p', {}, desc)))
   }
 
-  /** Without the figure route the page draws the same curves itself (success: Wilson intervals; means: ± s.e.). */
-  const drawHere = (): void => {
-    const curves = curvesOf([{ name: label, result }], choice.measure, choice.x)
-    const rate = ['success', 'endState', 'unstableFraction', 'fixedPatternFraction'].includes(choice.measure)
+  const localOnly: HTMLElement[] = []
+  /** The page's own drawing has no theory overlay, log y axis or choice of error bars. */
+  const markDrawnHere = (): void => {
+    for (const control of localOnly) {
+      control.setAttribute('disabled', '')
+      control.title = 'Only the server\'s figure route offers this'
+    }
+  }
+
+  const drawInPage = (): void => {
+    markDrawnHere()
+    const curves = curvesOf(source.results, choice.measure, choice.x)
+    const left = source.results.filter(({ result }) => !variedOf(result).includes(choice.x)).map(({ name }) => `“${name}”`)
     const svg = drawPlot(curves, {
-      title: label,
+      title: source.title ?? `${measureName(choice.measure)} against ${parameterName(choice.x)}`,
       xLabel: parameterName(choice.x),
       yLabel: measureName(choice.measure),
       xScale: choice.xScale,
-      ...(rate ? { yRange: [0, 1] as [number, number] } : {}),
+      ...(RATE_MEASURES.has(choice.measure) ? { yRange: [0, 1] as [number, number] } : {}),
       width: size()[0],
       description: `${curves.length} curve(s) of ${measureName(choice.measure)} against ${parameterName(choice.x)}, drawn in the browser from the results.`
     })
     showSvg(new XMLSerializer().serializeToString(svg))
+    status.textContent = `Drawn in the browser from the results.${left.length === 0 ? '' : ` Left out, since they do not vary ${parameterName(choice.x)}: ${left.join(', ')}.`}`
   }
+
+  const routeUrl = (): string => `${source.route}?${figureQuery(choice, ...size(), source.query)}`
 
   const load = async (): Promise<void> => {
     inFlight?.abort()
@@ -126,20 +167,18 @@ export function figurePanel (id: string, label: string, result: SweepResult, sig
     status.textContent = 'Drawing the figure…'
     problem.hidden = true
     try {
-      if (routeMissing) {
-        drawHere()
+      if (drawHere) {
+        drawInPage()
       } else {
-        const [width, height] = size()
-        const response = await call(`${sweepPath(id)}/figure.svg?${figureQuery(choice, width, height)}`, { headers: { accept: 'image/svg+xml' }, signal: controller.signal })
+        const response = await call(routeUrl(), { headers: { accept: 'image/svg+xml' }, signal: controller.signal })
         showSvg(await response.text())
+        status.textContent = ''
       }
-      status.textContent = ''
     } catch (error) {
       if (controller.signal.aborted) return
       if (error instanceof ApiProblem && error.status === 404 && error.problem.code === 'MEMSWEEP_ROUTE_NOT_FOUND') {
-        routeMissing = true
-        drawHere()
-        status.textContent = 'Drawn in the browser: this server has no figure route.'
+        drawHere = true
+        drawInPage()
         return
       }
       status.textContent = ''
@@ -157,25 +196,27 @@ export function figurePanel (id: string, label: string, result: SweepResult, sig
   }
 
   const measures = MEASURES.filter((m) => m.needsStability !== true || stability).map((m): [string, string] => [m.value, m.short])
-  const xOptions = varied.map((path): [string, string] => [path, parameterName(path)])
-  const seriesOptions: Array<[string, string]> = [['', 'other varied values'], ...xOptions]
+  const xOptions = xChoices.map((path): [string, string] => [path, parameterName(path)])
   const theoryId = uid('fig')
   const theoryBox = h('input', { type: 'checkbox', id: theoryId, checked: choice.theory, onchange: () => set('theory')(String(theoryBox.checked)) })
-
+  const yScale = select('y scale', [['linear', 'linear'], ['log', 'logarithmic']], choice.yScale, set('yScale'))
+  const errorBars = select('Error bars', [['ci', '95 % interval'], ['se', '± standard error'], ['sd', '± standard deviation'], ['none', 'none']], choice.errorBars, set('errorBars'))
+  const series = source.seriesControl && anyVaried.length > 1 ? select('One curve per', [['', 'other varied values'], ...xOptions], choice.series, set('series')) : null
+  localOnly.push(...[yScale, errorBars, series].flatMap((c) => c === null ? [] : [...c.querySelectorAll('select')]), theoryBox)
   const controls = h('div', { class: 'figure-controls' },
     select('Measure', measures, choice.measure, set('measure')),
     select('x axis', xOptions, choice.x, set('x')),
-    varied.length > 1 ? select('One curve per', seriesOptions, choice.series, set('series')) : null,
+    series,
     select('x scale', [['linear', 'linear'], ['log', 'logarithmic']], choice.xScale, set('xScale')),
-    select('y scale', [['linear', 'linear'], ['log', 'logarithmic']], choice.yScale, set('yScale')),
-    select('Error bars', [['ci', '95 % interval'], ['se', '± standard error'], ['sd', '± standard deviation'], ['none', 'none']], choice.errorBars, set('errorBars')),
+    yScale,
+    errorBars,
     h('div', { class: 'control checkbox' }, theoryBox, h('label', { for: theoryId }, 'Theory where it applies')))
 
   /** Saves the figure as shown (same options) as an SVG file. */
   const downloadSvg = async (): Promise<void> => {
-    const name = `memsweep-${id}-${choice.measure}.svg`
-    if (!routeMissing) {
-      await download(`${sweepPath(id)}/figure.svg?${figureQuery(choice, ...size())}`, name, 'image/svg+xml')
+    const name = `${source.fileStem}-${choice.measure}.svg`
+    if (!drawHere) {
+      await download(routeUrl(), name, 'image/svg+xml')
       return
     }
     if (objectUrl === null) return
@@ -185,7 +226,7 @@ export function figurePanel (id: string, label: string, result: SweepResult, sig
     link.remove()
   }
 
-  panel.append(h('div', { class: 'figure-layout' }, h('div', { class: 'figure-main' }, problem, status, figure), controls))
+  el.append(h('div', { class: 'figure-layout' }, h('div', { class: 'figure-main' }, problem, status, figure), controls))
   queueMicrotask(() => { inBackground(load()) })
   // A window made much wider or narrower gets a figure drawn for its width (text stays legible).
   let drawnWidth = 0
@@ -198,5 +239,5 @@ export function figurePanel (id: string, label: string, result: SweepResult, sig
   })
   resized.observe(figure)
   signal.addEventListener('abort', () => resized.disconnect())
-  return { panel, downloadSvg }
+  return { el, downloadSvg }
 }

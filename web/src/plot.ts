@@ -21,6 +21,10 @@ export interface PlotOptions {
   yRange?: [number, number]
   width: number
   description: string
+  /** A horizontal reference line (a threshold search's level). */
+  level?: number
+  /** Per curve, an estimate on x with its interval (a threshold search's crossing). */
+  crossings?: Array<{ curve: number, at: number | null, low: number | null, high: number | null }>
 }
 
 export function styleOf (index: number): { ink: string, dash: string, marker: typeof MARKERS[number] } {
@@ -44,6 +48,10 @@ function marker (kind: typeof MARKERS[number], x: number, y: number, ink: string
   }
 }
 
+function cut (text: string, max: number): string {
+  return text.length > max ? `${text.slice(0, Math.max(1, max - 1))}…` : text
+}
+
 /** Draws the curves as a standalone SVG document element (downloadable as it is). */
 export function drawPlot (curves: readonly Curve[], options: PlotOptions): SVGSVGElement {
   const width = options.width
@@ -56,11 +64,17 @@ export function drawPlot (curves: readonly Curve[], options: PlotOptions): SVGSV
   const innerW = width - margin.left - margin.right
   const innerH = plotHeight
 
-  const xExtent = extentOf(curves, 'x') ?? [0, 1]
+  const crossings = options.crossings ?? []
+  const dataX = extentOf(curves, 'x') ?? [0, 1]
+  const crossingXs = crossings.flatMap((c) => [c.low, c.high, c.at]).filter((v): v is number => v !== null && Number.isFinite(v))
+  const xExtent: [number, number] = [Math.min(dataX[0], ...crossingXs), Math.max(dataX[1], ...crossingXs)]
   const yExtent = options.yRange ?? extentOf(curves, 'y') ?? [0, 1]
   const logX = options.xScale === 'log' && xExtent[0] > 0
   const pad = (lo: number, hi: number): [number, number] => lo === hi ? [lo - 0.5, hi + 0.5] : [lo, hi]
-  const [x0, x1] = logX ? [Math.log10(xExtent[0]), Math.log10(xExtent[1])] : pad(...xExtent)
+  const [xLow, xHigh] = logX ? [Math.log10(xExtent[0]), Math.log10(xExtent[1])] : pad(...xExtent)
+  // Points at the ends of x keep clear of the frame too.
+  const xMargin = (xHigh - xLow) * 0.03
+  const [x0, x1] = [xLow - xMargin, xHigh + xMargin]
   const [yLow, yHigh] = pad(...yExtent)
   // A little room above and below, so points at 0 or 1 stay clear of the frame.
   const yMargin = (yHigh - yLow) * (options.yRange === undefined ? 0.05 : 0.03)
@@ -85,7 +99,8 @@ export function drawPlot (curves: readonly Curve[], options: PlotOptions): SVGSV
   s('title', { id: titleId }, options.title),
   s('desc', { id: descId }, options.description),
   s('rect', { x: 0, y: 0, width, height, fill: '#ffffff' }),
-  s('text', { x: margin.left, y: 24, 'font-size': 15, 'font-weight': 600, fill: '#101418' }, options.title))
+  // About 8.5 px a character at 15 px bold: a long title is cut, whole in its tooltip and in <title>.
+  s('text', { x: margin.left, y: 24, 'font-size': 15, 'font-weight': 600, fill: '#101418' }, cut(options.title, Math.floor((width - margin.left - margin.right) / 8.5)), s('title', {}, options.title)))
 
   // Grid and ticks.
   const grid = s('g', { stroke: '#d9dde2', 'stroke-width': 1 })
@@ -105,6 +120,24 @@ export function drawPlot (curves: readonly Curve[], options: PlotOptions): SVGSV
     s('rect', { x: margin.left, y: margin.top, width: innerW, height: innerH, fill: 'none', stroke: '#48515b', 'stroke-width': 1.2 }),
     s('text', { x: margin.left + innerW / 2, y: margin.top + innerH + 42, 'text-anchor': 'middle', fill: '#101418' }, options.xLabel + (logX ? ' (log scale)' : '')),
     s('text', { transform: `translate(18 ${margin.top + innerH / 2}) rotate(-90)`, 'text-anchor': 'middle', fill: '#101418' }, options.yLabel))
+
+  // Crossings under the data: a pale band for the interval, a line in the curve's ink and dash at the estimate.
+  for (const crossing of crossings) {
+    const style = styleOf(crossing.curve)
+    if (crossing.low !== null && crossing.high !== null) {
+      svg.append(s('rect', { x: xPos(crossing.low), y: margin.top, width: Math.max(1, xPos(crossing.high) - xPos(crossing.low)), height: innerH, fill: style.ink, 'fill-opacity': 0.1 }))
+    }
+    if (crossing.at !== null) {
+      const x = xPos(crossing.at)
+      svg.append(s('line', { x1: x, x2: x, y1: margin.top, y2: margin.top + innerH, stroke: style.ink, 'stroke-width': 1.4, 'stroke-dasharray': style.dash === '' ? '6 3' : style.dash }))
+    }
+  }
+  if (options.level !== undefined) {
+    const y = yPos(options.level)
+    svg.append(
+      s('line', { x1: margin.left, x2: margin.left + innerW, y1: y, y2: y, stroke: '#48515b', 'stroke-width': 1.2, 'stroke-dasharray': '2 3' }),
+      s('text', { x: margin.left + innerW - 4, y: y - 5, 'text-anchor': 'end', fill: '#2b323a', 'font-size': 12 }, `level ${formatValue(options.level, 3)}`))
+  }
 
   curves.forEach((curve, index) => {
     const style = styleOf(index)
@@ -139,7 +172,7 @@ export function drawPlot (curves: readonly Curve[], options: PlotOptions): SVGSV
       s('line', { x1: x, x2: x + 34, y1: y, y2: y, stroke: style.ink, 'stroke-width': 1.8, 'stroke-dasharray': style.dash === '' ? null : style.dash }),
       marker(style.marker, x + 17, y, style.ink),
       s('text', { x: x + 42, y: y + 4.5, fill: '#101418' },
-        curve.name.length > maxChars ? `${curve.name.slice(0, maxChars - 1)}…` : curve.name,
+        cut(curve.name, maxChars),
         s('title', {}, curve.name))))
   })
   return svg

@@ -30,7 +30,12 @@ interface FieldBox {
 
 class FormBuilder {
   readonly fields: FieldBox[] = []
-  constructor (readonly spec: Spec, readonly onEdit: EditHandler) {}
+  /** The parameter a threshold search moves: its own field is set by the search. */
+  readonly searched: string | null
+  constructor (readonly spec: Spec, readonly onEdit: EditHandler) {
+    const parameter = getAt(spec, 'analysis.parameter')
+    this.searched = typeof parameter === 'string' ? parameter : null
+  }
 
   #box (path: string, label: string, help: string, control: (describedBy: string) => Child[], legend: boolean): HTMLElement {
     const helpId = idOf(path, 'help')
@@ -70,7 +75,7 @@ class FormBuilder {
         id: idOf(path),
         type: 'text',
         inputmode: 'numeric',
-        value: value === undefined ? '' : typeof value === 'object' ? JSON.stringify(value) : String(value),
+        value: value === undefined || value === null ? '' : typeof value === 'object' ? JSON.stringify(value) : String(value),
         placeholder,
         'aria-describedby': describedBy,
         oninput: () => {
@@ -122,6 +127,9 @@ class FormBuilder {
 
   /** A numeric parameter that may be varied: one value, a list, or a range by step or by count. */
   axis (path: string, label: string, help: string, placeholder: string): HTMLElement {
+    if (path === this.searched) {
+      return this.#box(path, label, help, () => [h('p', { class: 'searched' }, 'Moved by the threshold search (see below).')], true)
+    }
     const value = getAt(this.spec, path)
     const mode = axisModeOf(value)
     const part = (name: string, text: string, current: unknown, write: (raw: string) => void, describedBy: string, wide = false): HTMLElement => {
@@ -286,10 +294,12 @@ export function buildSpecForm (spec: Spec, view: FormView, onEdit: EditHandler, 
         }, 'New seed'))),
     section('Network', 'Any numeric parameter can be one value, a list or a range: the sweep runs every combination.',
       f.axis('neurons', 'Neurons N', 'Network size. Required unless the patterns are supplied.', 'e.g. 400'),
-      sizeField,
-      usesPatterns
-        ? f.axis('patterns', 'Stored patterns P', 'How many patterns are stored.', 'e.g. 40')
-        : f.axis('load', 'Load α = P/N', 'Patterns per neuron; P = round(α·N).', 'e.g. 0.1'),
+      f.searched === 'load' ? f.axis('load', 'Load α = P/N', 'Patterns per neuron; P = round(α·N).', '') : sizeField,
+      f.searched === 'load'
+        ? null
+        : usesPatterns
+          ? f.axis('patterns', 'Stored patterns P', 'How many patterns are stored.', 'e.g. 40')
+          : f.axis('load', 'Load α = P/N', 'Patterns per neuron; P = round(α·N).', 'e.g. 0.1'),
       f.select('coding', 'Neuron states', 'How states are written: −1/+1 or 0/1.', [['pm1', '−1 / +1'], ['binary', '0 / 1']], 'pm1'),
       f.select('rule.kind', 'Learning rule', 'How patterns become couplings.', [['hebbian', 'Hebbian'], ['pseudo-inverse', 'pseudo-inverse (projection)'], ['storkey', 'Storkey'], ['covariance', 'covariance']], 'hebbian',
         kindSwitch(spec, 'rule', { hebbian: ['selfCoupling'], 'pseudo-inverse': ['selfCoupling'], storkey: ['selfCoupling'], covariance: ['selfCoupling', 'threshold'] })),
@@ -335,6 +345,8 @@ export function buildSpecForm (spec: Spec, view: FormView, onEdit: EditHandler, 
       f.checkbox('measures.overlapTrajectory', 'Record overlap trajectories', 'Per trial, in the JSON results only.', false),
       f.checkbox('measures.energyTrajectory', 'Record energy trajectories', 'Per trial, in the JSON results only.', false)))
 
+  el.append(analysisSection(f, spec, onEdit))
+
   return {
     el,
     fieldPaths: f.fields.map((field) => field.path),
@@ -351,4 +363,70 @@ export function buildSpecForm (spec: Spec, view: FormView, onEdit: EditHandler, 
       }
     }
   }
+}
+
+/** Parameters a threshold search may move (continuous ones; see src/spec/analysis/schema.ts). */
+const SEARCHABLE: Array<[string, string]> = [
+  ['load', 'load α = P/N'],
+  ['cue.fraction', 'cue corruption'],
+  ['dynamics.temperature', 'temperature T'],
+  ['family.activity', 'pattern activity'],
+  ['family.parentOverlap', 'overlap with parent'],
+  ['dilution.keep', 'fraction of couplings kept'],
+  ['rule.threshold', 'covariance threshold']
+]
+
+/** The search's own parameter takes its value from the search: a load leaves neither load nor patterns. */
+function makeRoomFor (spec: Spec, parameter: string | null, previous: string | null): void {
+  if (parameter === 'load') {
+    setAt(spec, 'load', undefined)
+    setAt(spec, 'patterns', undefined)
+  } else if (previous === 'load' && getAt(spec, 'load') === undefined && getAt(spec, 'patterns') === undefined) {
+    setAt(spec, 'load', 0.1)
+  }
+}
+
+function analysisSection (f: FormBuilder, spec: Spec, onEdit: EditHandler): HTMLElement {
+  const on = getAt(spec, 'analysis') !== undefined
+  const toggle = h('div', { class: 'field checkbox' },
+    h('input', {
+      type: 'checkbox',
+      id: 'f-analysis-on',
+      checked: on,
+      onchange: (event: Event) => {
+        const previous = f.searched
+        if ((event.target as HTMLInputElement).checked) {
+          setAt(spec, 'analysis', { kind: 'threshold', parameter: 'load', from: 0.05, to: 0.25 })
+          makeRoomFor(spec, 'load', previous)
+        } else {
+          setAt(spec, 'analysis', undefined)
+          makeRoomFor(spec, null, previous)
+        }
+        onEdit(true)
+      }
+    }),
+    h('label', { for: 'f-analysis-on' }, 'Search for a threshold instead of running a grid'),
+    h('p', { class: 'help' }, 'Finds where the measure crosses a level as one parameter moves (a capacity, a basin radius), with a confidence interval, for every point of the other varied parameters.'))
+  if (!on) return section('Threshold search', null, toggle)
+  const scaling = getAt(spec, 'analysis.scaling')
+  const scalingForm = scaling !== null && typeof scaling === 'object' ? String((scaling as Record<string, unknown>).form ?? '') : 'none'
+  return section('Threshold search', null,
+    toggle,
+    f.select('analysis.parameter', 'Searched parameter', 'Its own field above is set by the search.', SEARCHABLE, 'load', (picked) => {
+      const previous = f.searched
+      setAt(spec, 'analysis.parameter', picked)
+      makeRoomFor(spec, picked, previous)
+    }),
+    f.select('analysis.measure', 'Measure', 'Success rate or mean final overlap.', [['success', 'success rate'], ['overlap', 'final overlap']], 'success'),
+    f.number('analysis.level', 'Level', 'The crossing sought: a rate in (0, 1) or an overlap in (−1, 1).', '0.5'),
+    f.select('analysis.direction', 'The measure…', 'How it moves as the parameter grows.', [['decreasing', 'falls as the parameter grows'], ['increasing', 'rises as the parameter grows']], 'decreasing'),
+    f.number('analysis.from', 'From', 'Low end of the searched range. Required.', ''),
+    f.number('analysis.to', 'To', 'High end of the searched range. Required.', ''),
+    f.number('analysis.maxSteps', 'Most steps', 'Values evaluated per search, both ends included; each runs the trials above.', '12'),
+    f.number('analysis.tolerance', 'Tolerance', 'Stop once the bracket is this narrow.', '(to − from) / 32'),
+    f.number('analysis.confidence', 'Confidence', 'Of the reported interval.', '0.95'),
+    f.select('analysis.scaling', 'Finite-size fit over N', 'Needs neurons as a list of at least 3 sizes (4 to fit the exponent).', [['none', 'none'], ['power', 'x∞ + a·N^(−b)'], ['linear-inverse', 'x∞ + a/N']], scalingForm, (picked) => {
+      setAt(spec, 'analysis.scaling', picked === 'none' ? undefined : picked === 'power' ? { form: 'power', exponent: null } : { form: 'linear-inverse' })
+    }),
+    scalingForm === 'power' ? f.number('analysis.scaling.exponent', 'Exponent b', 'Empty: fitted.', 'fitted') : null)
 }

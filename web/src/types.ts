@@ -96,9 +96,55 @@ export interface ResultRow {
   theory: Record<string, number | null>
 }
 
+export interface SearchStep {
+  step: number
+  value: number
+  side: 'above' | 'below'
+  params: { alpha: number, neurons: number, patterns: number }
+  summary: ResultRow['summary']
+}
+
+/** One threshold search of an analysis spec. */
+export interface SearchRow {
+  search: number
+  values: Record<string, number>
+  neurons: number
+  estimate: number | null
+  low: number | null
+  high: number | null
+  stoppedBy: string
+  bracket: { low: number, high: number } | null
+  fit: { method: string, estimate: number | null, low: number | null, high: number | null, slope: number | null, separated: boolean, dispersion: number | null } | null
+  note: string | null
+  stepsUsed: number
+  trialsUsed: number
+  steps: SearchStep[]
+}
+
+/** One finite-size fit of an analysis spec with `analysis.scaling`. */
+export interface ScalingRow {
+  values: Record<string, number>
+  form: string
+  fit: {
+    limit: { value: number, se: number | null }
+    limitInterval: { low: number, high: number, confidence: number }
+    amplitude: { value: number, se: number | null }
+    exponent: { value: number, se: number | null }
+    chiSquare: number
+    degreesOfFreedom: number
+  } | null
+  sizes: Array<{ search: number, neurons: number, estimate: number, se: number }>
+  excluded: Array<{ search: number, neurons: number, reason: string }>
+  references: Array<{ name: string, value: number, uncertainty: number | null, source: string, deviation: number | null }>
+  note: string | null
+}
+
 export interface SweepResult {
   specHash: string
   spec: Spec
+  /** One per grid point; empty for an analysis (see searches). */
   rows: ResultRow[]
+  searches?: SearchRow[]
+  scaling?: ScalingRow[]
   provenance: Record<string, string | number | undefined>
 }

@@ -3,25 +3,18 @@
  * drawn in the browser from their results, with a picker of finished sweeps.
  */
 import { getJson, getSweep, listSweeps, sweepPath } from '../api.js'
-import { curvesOf, variedOf } from '../curves.js'
 import { fill, h, uid } from '../dom.js'
+import { figurePanel } from '../figure-panel.js'
 import { formatStamp } from '../format.js'
-import { MEASURES, measureName, parameterName } from '../labels.js'
 import type { Dispose } from '../main.js'
-import { drawPlot } from '../plot.js'
 import { routeHref } from '../router.js'
 import type { SweepResult, SweepStatus } from '../types.js'
 import { inBackground, messageOf, notify } from '../widgets.js'
 
 interface Loaded { id: string, name: string, result: SweepResult }
 
-const RATE_MEASURES = new Set(['success', 'endState', 'unstableFraction', 'fixedPatternFraction'])
-
-function labelled (label: string, control: HTMLElement): HTMLElement {
-  const id = uid('cmp')
-  control.id = id
-  return h('div', { class: 'control' }, h('label', { for: id }, label), control)
-}
+/** Sweeps the overlay route draws at once (MAX_OVERLAID_SWEEPS in src/api/routes/figure.ts). */
+const MAX_OVERLAID = 8
 
 /** Names that tell the sweeps apart: the label, with a short id where labels repeat. */
 function names (statuses: SweepStatus[]): string[] {
@@ -36,7 +29,7 @@ export function renderCompare (main: HTMLElement, ids: string[]): Dispose {
   main.append(
     h('p', { class: 'crumbs' }, h('a', { href: '#/' }, '← All sweeps')),
     h('div', { class: 'page-head' }, h('h1', {}, 'Compare sweeps')),
-    h('p', { class: 'lead' }, 'The curves of two or more finished sweeps on one figure, for the measure and x axis you choose. Each sweep keeps its own marker and line style, so the figure also reads in print.'),
+    h('p', { class: 'lead' }, 'The curves of two or more finished sweeps on one figure (two learning rules\' capacity curves, say), for the measure and x axis you choose. Each curve has its own marker and line style, so the figure also reads in print.'),
     figureSlot,
     h('section', { class: 'panel', 'aria-labelledby': 'picker-heading' }, h('h2', { id: 'picker-heading' }, 'Sweeps to compare'), pickerSlot))
 
@@ -85,71 +78,37 @@ export function renderCompare (main: HTMLElement, ids: string[]): Dispose {
       const results = await Promise.all(ids.map(async (id) => await getJson<SweepResult>(`${sweepPath(id)}/results`, { signal: stop.signal })))
       const shown = names(statuses)
       loaded = ids.map((id, i) => ({ id, name: shown[i] as string, result: results[i] as SweepResult }))
+      const searches = loaded.filter((item) => item.result.searches !== undefined)
+      if (searches.length > 0) {
+        fill(figureSlot, h('p', { class: 'page-error', role: 'alert' },
+          `Threshold searches have no grid curves to overlay: ${searches.map((item) => `“${item.name}”`).join(', ')}. Their crossings are on their own pages.`))
+        return
+      }
     } catch (error) {
       if (!stop.signal.aborted) fill(figureSlot, h('p', { class: 'page-error', role: 'alert' }, `Could not load the sweeps: ${messageOf(error)}`))
       return
     }
 
-    const axisCount = new Map<string, number>()
-    for (const item of loaded) for (const path of variedOf(item.result)) axisCount.set(path, (axisCount.get(path) ?? 0) + 1)
-    const shared = [...axisCount.entries()].filter(([, n]) => n === loaded.length).map(([path]) => path)
-    const anyAxis = [...axisCount.keys()]
-    if (anyAxis.length === 0) {
-      fill(figureSlot, h('p', { class: 'page-error' }, 'None of these sweeps varies a parameter, so there is no curve to overlay.'))
-      return
-    }
-    const stability = loaded.every((item) => (item.result.spec.measures as Record<string, unknown> | undefined)?.stability === true)
-    const measureSelect = h('select', {}, MEASURES.filter((m) => m.needsStability !== true || stability).map((m) => h('option', { value: m.value }, m.short)))
-    const xSelect = h('select', {}, (shared.length > 0 ? shared : anyAxis).map((path) => h('option', { value: path }, parameterName(path))))
-    const scaleSelect = h('select', {}, h('option', { value: 'linear' }, 'linear'), h('option', { value: 'log' }, 'logarithmic'))
-    const note = h('p', { class: 'hint', role: 'status' })
-    const plotSlot = h('figure', { class: 'figure' })
-    let svg: SVGSVGElement | null = null
-
-    const draw = (): void => {
-      const measure = measureSelect.value
-      const x = xSelect.value
-      const curves = curvesOf(loaded.map((item) => ({ name: item.name, result: item.result })), measure, x)
-      const missing = loaded.filter((item) => !variedOf(item.result).includes(x)).map((item) => `“${item.name}”`)
-      note.textContent = missing.length === 0 ? '' : `Left out, since they do not vary ${parameterName(x)}: ${missing.join(', ')}.`
-      const width = Math.max(360, Math.min(1000, Math.round(plotSlot.clientWidth || 900)))
-      svg = drawPlot(curves, {
-        title: `${measureName(measure)} against ${parameterName(x)}`,
-        xLabel: parameterName(x),
-        yLabel: measureName(measure),
-        xScale: scaleSelect.value === 'log' ? 'log' : 'linear',
-        ...(RATE_MEASURES.has(measure) ? { yRange: [0, 1] as [number, number] } : {}),
-        width,
-        description: `${curves.length} curves from ${loaded.length} sweeps: ${loaded.map((item) => item.name).join('; ')}. Error bars: Wilson 95 % intervals for rates, ± one standard error for means.`
-      })
-      fill(plotSlot, svg, h('figcaption', {}, measure === 'success'
-        ? 'Error bars: Wilson 95 % intervals of the success rate.'
-        : RATE_MEASURES.has(measure) ? 'Fractions of trials; no error bars.' : 'Error bars: ± one standard error of the mean.'))
-    }
-
-    for (const select of [measureSelect, xSelect, scaleSelect]) select.addEventListener('change', draw)
+    const figure = figurePanel({
+      route: 'v1/figures/overlay.svg',
+      query: { sweeps: ids.join(',') },
+      fileStem: 'memsweep-overlay',
+      results: loaded.map((item) => ({ name: item.name, result: item.result })),
+      seriesControl: false,
+      // The overlay route takes a bounded number of sweeps; beyond it the page draws them itself.
+      drawHere: ids.length > MAX_OVERLAID
+    }, stop.signal)
     const saveSvg = h('button', {
       type: 'button',
       class: 'secondary',
-      onclick: () => {
-        if (svg === null) return
-        const blob = new Blob([new XMLSerializer().serializeToString(svg)], { type: 'image/svg+xml' })
-        const href = URL.createObjectURL(blob)
-        const link = h('a', { href, download: 'memsweep-comparison.svg' })
-        document.body.append(link)
-        link.click()
-        link.remove()
-        setTimeout(() => URL.revokeObjectURL(href), 10_000)
-      }
+      'data-download': 'svg',
+      onclick: () => { figure.downloadSvg().catch((error: unknown) => notify(`Could not download the figure: ${messageOf(error)}`, 'error')) }
     }, 'Figure (SVG)')
     fill(figureSlot,
-      h('section', { class: 'panel', 'aria-label': 'Comparison figure' },
-        h('div', { class: 'figure-controls' },
-          labelled('Measure', measureSelect), labelled('x axis', xSelect), labelled('x scale', scaleSelect), saveSvg),
-        note,
-        plotSlot),
+      h('section', { class: 'panel', 'aria-labelledby': 'overlay-heading' },
+        h('div', { class: 'panel-head' }, h('h2', { id: 'overlay-heading' }, `${loaded.length} sweeps overlaid`), saveSvg),
+        figure.el),
       h('ul', { class: 'compared' }, loaded.map((item) => h('li', {}, h('a', { href: routeHref({ page: 'sweep', id: item.id }) }, item.name)))))
-    draw()
   }
 
   inBackground(renderFigure())

@@ -112,6 +112,7 @@ export function renderSubmit (main: HTMLElement, from: string | null): Dispose {
   const showEstimates = (validation: Validation): void => {
     const { work, limits, exceeded } = validation
     estimates.hidden = false
+    estimates.classList.remove('stale')
     const row = (term: string, value: string, detail: string): HTMLElement[] => [h('dt', {}, term), h('dd', {}, h('strong', {}, value), detail === '' ? '' : h('span', { class: 'of-limit' }, ` ${detail}`))]
     fill(estimates,
       row('Grid points', formatCount(work.points), `(limit ${formatCount(limits.maxPoints)})`),
@@ -166,6 +167,9 @@ export function renderSubmit (main: HTMLElement, from: string | null): Dispose {
     if (checkTimer !== null) clearTimeout(checkTimer)
     checked = null
     submitKey = null
+    // Numbers of the previous spec stay visible but dimmed until the new ones arrive.
+    estimates.classList.add('stale')
+    setCheckState('checking', 'Checking the spec…')
     updateSubmit()
     checkTimer = setTimeout(() => { checkTimer = null; inBackground(check()) }, CHECK_DELAY_MS)
   }
@@ -208,6 +212,7 @@ export function renderSubmit (main: HTMLElement, from: string | null): Dispose {
       jsonIssues.hidden = false
       fill(jsonIssues, h('p', {}, `This is not valid JSON${where}.`))
       jsonArea.setAttribute('aria-invalid', 'true')
+      estimates.classList.add('stale')
       setCheckState('invalid', 'Fix the JSON first.')
       return
     }

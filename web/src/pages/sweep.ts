@@ -6,6 +6,7 @@ import { ApiProblem, cancelSweep, download, followSweep, getJson, getSweep, subm
 import { copyText } from '../clipboard.js'
 import { fill, h } from '../dom.js'
 import { freshSeed, rerunLabel, saveDraft } from '../drafts.js'
+import { analysisView } from '../analysis-view.js'
 import { figurePanel } from '../figure-panel.js'
 import { formatAgo, formatCount, formatStamp } from '../format.js'
 import { parameterName } from '../labels.js'
@@ -127,20 +128,45 @@ export function renderSweep (main: HTMLElement, id: string): Dispose {
       return
     }
     const label = detail.label ?? 'Untitled sweep'
-    const figure = figurePanel(detail.id, label, result, stop.signal)
+    // An analysis (threshold search) has searches instead of grid rows, and its own figure.
+    const isAnalysis = result.searches !== undefined
+    const figure = isAnalysis
+      ? null
+      : figurePanel({
+        route: `${sweepPath(detail.id)}/figure.svg`,
+        query: {},
+        fileStem: `memsweep-${detail.id}`,
+        results: [{ name: label, result }],
+        title: label,
+        seriesControl: true
+      }, stop.signal)
+    const analysis = isAnalysis ? analysisView(result) : null
+    const saveFigure = async (): Promise<void> => {
+      if (figure !== null) { await figure.downloadSvg(); return }
+      const svg = analysis?.querySelector('svg.plot')
+      if (svg === null || svg === undefined) return
+      const href = URL.createObjectURL(new Blob([new XMLSerializer().serializeToString(svg)], { type: 'image/svg+xml' }))
+      const link = h('a', { href, download: `memsweep-${detail.id}-search.svg` })
+      document.body.append(link)
+      link.click()
+      link.remove()
+      setTimeout(() => URL.revokeObjectURL(href), 10_000)
+    }
     const downloads = h('section', { class: 'panel downloads', 'aria-labelledby': 'downloads-heading' },
       h('h2', { id: 'downloads-heading' }, 'Downloads'),
       h('div', { class: 'actions' },
         h('button', { type: 'button', class: 'secondary', 'data-download': 'csv', onclick: () => { inBackground(save(`${sweepPath(detail.id)}/results?format=csv`, `memsweep-${detail.id}.csv`, 'text/csv')) } }, 'Results (CSV)'),
         h('button', { type: 'button', class: 'secondary', 'data-download': 'json', onclick: () => { inBackground(save(`${sweepPath(detail.id)}/results?format=json`, `memsweep-${detail.id}.json`, 'application/json')) } }, 'Results (JSON)'),
-        h('button', { type: 'button', class: 'secondary', 'data-download': 'svg', onclick: () => { figure.downloadSvg().catch((error: unknown) => notify(`Could not download the figure: ${messageOf(error)}`, 'error')) } }, 'Figure (SVG)')),
-      h('p', { class: 'hint' }, 'CSV and JSON hold one row per grid point with every measure, its uncertainty and the theory values; the per-trial rows are in the API (?trials=true).'))
+        h('button', { type: 'button', class: 'secondary', 'data-download': 'svg', onclick: () => { saveFigure().catch((error: unknown) => notify(`Could not download the figure: ${messageOf(error)}`, 'error')) } }, 'Figure (SVG)')),
+      h('p', { class: 'hint' }, isAnalysis
+        ? 'The JSON holds every search with all its steps and fits; the CSV one row per search.'
+        : 'CSV and JSON hold one row per grid point with every measure, its uncertainty and the theory values; the per-trial rows are in the API (?trials=true).'))
     const provenance = h('section', { class: 'panel', 'aria-labelledby': 'provenance-heading' },
       h('h2', { id: 'provenance-heading' }, 'Provenance'),
       metaList(Object.entries(result.provenance).map(([key, value]): [string, string] => [key, String(value)])))
     fill(resultsSlot,
-      figure.panel,
-      h('section', { class: 'panel', 'aria-labelledby': 'table-heading' }, h('h2', { id: 'table-heading' }, 'Results'), resultsTable(result)),
+      figure === null ? null : h('section', { class: 'panel figure-panel', 'aria-labelledby': 'figure-heading' }, h('h2', { id: 'figure-heading' }, 'Figure'), figure.el),
+      analysis ?? h('section', { class: 'panel', 'aria-labelledby': 'table-heading' }, h('h2', { id: 'table-heading' }, 'Results'), resultsTable(result)),
       h('div', { class: 'two-up' }, downloads, provenance))
   }
 
