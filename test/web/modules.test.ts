@@ -2,6 +2,7 @@
  * The page's pure modules, run in Node: the event-stream parser, spec paths and error
  * placement, routes, axis ticks and curves, and the number formats.
  */
+import { readFileSync } from 'node:fs'
 import { describe, expect, it } from 'vitest'
 import { curvesOf, extentOf, linearTicks, logTicks, measureAt } from '../../web/src/curves.js'
 import { EventStreamParser } from '../../web/src/event-stream.js'
@@ -189,5 +190,34 @@ describe('formats', () => {
     expect(formatDuration(2 * 3600 + 600)).toBe('2 h 10 min')
     expect(formatPercent(0.999)).toBe('99 %')
     expect(formatPercent(1)).toBe('100 %')
+  })
+})
+
+describe('colours of style.css', () => {
+  // WCAG 2.x relative luminance and contrast ratio; 4.5:1 is the level for body text (1.4.3).
+  const luminance = (hex: string): number => {
+    const [r, g, b] = [0, 2, 4].map((i) => parseInt(hex.slice(1 + i, 3 + i), 16) / 255).map((c) => c <= 0.03928 ? c / 12.92 : ((c + 0.055) / 1.055) ** 2.4) as [number, number, number]
+    return 0.2126 * r + 0.7152 * g + 0.0722 * b
+  }
+  const contrast = (a: string, b: string): number => {
+    const [hi, lo] = [luminance(a), luminance(b)].sort((x, y) => y - x) as [number, number]
+    return (hi + 0.05) / (lo + 0.05)
+  }
+
+  it('keep text at 4.5:1 or more against its ground', () => {
+    const css = readFileSync(new URL('../../web/static/style.css', import.meta.url), 'utf8')
+    const vars = Object.fromEntries([...css.matchAll(/--([\w-]+):\s*(#[0-9a-f]{6});/gi)].map((m) => [m[1] as string, m[2] as string]))
+    const pairs: Array<[string, string]> = [
+      ['ink', 'ground'], ['ink-soft', 'ground'], ['ink-soft', 'surface'], ['action', 'surface'], ['action', 'ground'],
+      ['action', 'action-tint'], ['bad', 'bad-tint'], ['bad', 'surface'], ['good', 'good-tint'], ['wait', 'wait-tint'],
+      ['stop', 'stop-tint'], ['mast-ink', 'mast']
+    ]
+    for (const [text, ground] of pairs) {
+      expect(vars[text], text).toMatch(/^#/)
+      expect(vars[ground], ground).toMatch(/^#/)
+      expect(contrast(vars[text] as string, vars[ground] as string), `${text} on ${ground}`).toBeGreaterThanOrEqual(4.5)
+    }
+    // Focus rings and bars are not text: 3:1 (1.4.11).
+    expect(contrast(vars.focus as string, vars.ground as string)).toBeGreaterThanOrEqual(3)
   })
 })
