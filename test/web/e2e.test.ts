@@ -159,6 +159,10 @@ describe('web page in Chromium', () => {
     const issues = page.locator('#spec-json-issues')
     await issues.locator('li', { hasText: 'cue.fraction' }).waitFor()
     expect(await issues.textContent()).toMatch(/cue\.fraction \(line \d+\)/)
+    // The line number takes you to the offending line.
+    await issues.locator('li', { hasText: 'cue.fraction' }).getByRole('button', { name: /^line \d+$/ }).click()
+    const selected = await page.evaluate<string>("(() => { const t = document.getElementById('spec-json'); return t.value.slice(t.selectionStart, t.selectionEnd) })()")
+    expect(selected).toContain('"fraction": 1.5')
     await shot(page, 'submit-json-errors')
 
     await page.check('#edit-mode-form')

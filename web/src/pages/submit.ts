@@ -63,7 +63,7 @@ export function renderSubmit (main: HTMLElement, from: string | null): Dispose {
   const exampleSelect = h('select', { id: 'example-select' })
   const editorSlot = h('div', { class: 'editor-slot' })
   const otherIssues = h('div', { class: 'other-issues', role: 'alert', hidden: true })
-  const jsonArea = h('textarea', { id: 'spec-json', class: 'json-editor', spellcheck: 'false', rows: 28, 'aria-describedby': 'spec-json-issues' })
+  const jsonArea = h('textarea', { id: 'spec-json', class: 'json-editor', spellcheck: 'false', wrap: 'off', rows: 28, 'aria-describedby': 'spec-json-issues' })
   const jsonIssues = h('div', { id: 'spec-json-issues', class: 'field-error', hidden: true })
   const checkState = h('p', { class: 'check-state', id: 'check-state', role: 'status' })
   const estimates = h('dl', { class: 'estimates', hidden: true })
@@ -93,7 +93,7 @@ export function renderSubmit (main: HTMLElement, from: string | null): Dispose {
       const line = mode === 'json' ? lineOfPath(text, issue.path) : null
       return h('li', {},
         issue.path === '' ? 'The spec' : h('code', {}, issue.path),
-        line === null ? '' : ` (line ${line})`,
+        line === null ? '' : [' (', h('button', { type: 'button', class: 'link-button', onclick: () => goToLine(line) }, `line ${line}`), ')'],
         `: ${issue.message}`)
     }
     if (mode === 'json') {
@@ -196,6 +196,16 @@ export function renderSubmit (main: HTMLElement, from: string | null): Dispose {
         jsonIssues)
     }
     if (focused !== null) document.getElementById(focused)?.focus()
+  }
+
+  /** Selects a line of the JSON and scrolls it into view. */
+  const goToLine = (line: number): void => {
+    const lines = jsonArea.value.split('\n')
+    const start = lines.slice(0, line - 1).reduce((sum, l) => sum + l.length + 1, 0)
+    jsonArea.focus()
+    jsonArea.setSelectionRange(start, start + (lines[line - 1]?.length ?? 0))
+    const lineHeight = parseFloat(getComputedStyle(jsonArea).lineHeight) || 20
+    jsonArea.scrollTop = Math.max(0, (line - 4) * lineHeight)
   }
 
   jsonArea.addEventListener('input', () => {
