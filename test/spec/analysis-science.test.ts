@@ -5,7 +5,7 @@
  * 4000) is `npm run analysis:scaling`.
  */
 import { describe, expect, it } from 'vitest'
-import { rsCriticalLoad } from '../../src/engine/index.js'
+import { curieWeissOverlap, rsCriticalLoad } from '../../src/engine/index.js'
 import {
   assembleResult, makeProvenance, normaliseSpec, planChunks, runChunk, SIMULATED_CAPACITY, type SweepResult
 } from '../../src/spec/index.js'
@@ -81,12 +81,38 @@ describe('basin of attraction', () => {
   })
 })
 
+describe('temperature at which retrieval degrades', () => {
+  it('puts the time-averaged overlap 0.9 where the Curie–Weiss curve m = tanh(m/T) does: T = 0.9/artanh 0.9 = 0.6113', () => {
+    // One stored pattern (α → 0), Glauber dynamics with P(s = +1) = 1/(1 + e^{−2h/T}), so
+    // T_c = 1: m = tanh(m/T) (Amit, Gutfreund & Sompolinsky, PRA 32, 1007 (1985); CHECK_VALUES
+    // §3, m(0.6) = 0.90733). Tolerance: CHECK_VALUES allows ±0.02 in m at N ≥ 1000, T ≤ 0.8;
+    // with dm/dT ≈ −0.65 near the crossing that is ±0.03 in T.
+    const crossing = 0.9 / Math.atanh(0.9)
+    expect(curieWeissOverlap(crossing)).toBeCloseTo(0.9, 6)
+    const result = run({
+      seed: 4,
+      neurons: 1000,
+      patterns: 1,
+      cue: { kind: 'flip', fraction: 0 },
+      dynamics: { update: 'async-random', maxSweeps: 40, burnIn: 10 },
+      trials: 40,
+      analysis: { kind: 'threshold', parameter: 'dynamics.temperature', measure: 'overlap', level: 0.9, from: 0.2, to: 1, tolerance: 0.01 }
+    })
+    const search = result.searches![0]!
+    expect(search.fit!.method).toBe('local-linear-fieller')
+    expect(Math.abs(search.estimate! - crossing)).toBeLessThan(0.03)
+    expect(search.high! - search.low!).toBeLessThan(0.03)
+    // Midpoints are rounded like axis values: no 0.6000000000000001.
+    for (const step of search.steps) expect(String(step.value).length).toBeLessThan(15)
+  })
+})
+
 describe('finite-size scaling of the capacity (cheap version of npm run analysis:scaling)', () => {
   it('extrapolates the median capacity at N = 250, 500, 1000 to the RS value 0.1379 within its stated uncertainty', () => {
     // Median criterion from the stored pattern (half the trials keep m ≥ 0.9). The exponent
     // is fixed at b = 1/2 so that three sizes leave a degree of freedom: fitted over N = 250 …
-    // 4000 (npm run analysis:scaling -- --sizes 250,500,1000,2000,4000) it came out 0.51 ± 0.07
-    // [MC, our own runs, not a published number].
+    // 4000 (npm run analysis:scaling -- --sizes 250,500,1000,2000,4000) it came out
+    // 0.47 ± 0.06, with x_∞ = 0.1379 ± 0.0032 [MC, our own runs, not a published number].
     const result = run(loadSearch({ seed: 2, neurons: { values: [250, 500, 1000] } }, { scaling: { form: 'power', exponent: 0.5 } }))
     const [row] = result.scaling!
     const fit = row!.fit!

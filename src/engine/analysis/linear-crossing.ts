@@ -37,7 +37,8 @@ export const LOCAL_POINTS = { least: 3, most: 6 } as const
  *
  * A mean over trials is close to Gaussian for the trial counts a search uses (≥ ~30), so the
  * known-variance (z) form is used. A point whose trials all ended at the same value has
- * se = 0; its se is floored at 1/trials so it cannot take all the weight.
+ * se = 0; it is given the smallest positive se among the points (1/trials when there is
+ * none), so it cannot take all the weight.
  *
  * @returns null with fewer than two distinct x values, or when the fitted slope has the
  *   wrong sign for `direction` (or is zero).
@@ -50,9 +51,12 @@ export function localLinearCrossing (points: readonly MeanPoint[], level: number
   const guess = firstGuess(points, level)
   const nearest = [...points].sort((p, q) => Math.abs(p.x - guess) - Math.abs(q.x - guess) || p.x - q.x)
   const z2 = normalQuantile(1 - (1 - confidence) / 2, 0, 1) ** 2
+  const positive = points.map((p) => p.se).filter((se) => se > 0)
+  const smallest = positive.length > 0 ? Math.min(...positive) : null
+  const weighted = nearest.map((p) => ({ ...p, se: p.se > 0 ? p.se : (smallest ?? 1 / p.trials) }))
   let fit: CrossingEstimate | null = null
   for (let size = Math.min(LOCAL_POINTS.least, nearest.length); size <= Math.min(LOCAL_POINTS.most, nearest.length); size++) {
-    fit = fitWindow(nearest.slice(0, size), level, direction, z2)
+    fit = fitWindow(weighted.slice(0, size), level, direction, z2)
     if (fit !== null && fit.low !== null) return fit
   }
   return fit
@@ -60,7 +64,7 @@ export function localLinearCrossing (points: readonly MeanPoint[], level: number
 
 function fitWindow (chosen: readonly MeanPoint[], level: number, direction: Direction, z2: number): CrossingEstimate | null {
   if (new Set(chosen.map((p) => p.x)).size < 2) return null
-  const weights = chosen.map((p) => 1 / Math.max(p.se, 1 / p.trials) ** 2)
+  const weights = chosen.map((p) => 1 / (p.se * p.se))
   let sw = 0
   let swx = 0
   let swy = 0

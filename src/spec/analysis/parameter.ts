@@ -4,15 +4,20 @@
  * a whole number of neurons, so the search records (and fits) the value it really ran.
  */
 import type { PointParams } from '../../engine/index.js'
+import { roundToSignificant } from '../axis.js'
 import { patternsForLoad } from '../grid.js'
 
 // MAIN //
 
-/** The value run when the search asks for `x` at this point (non-decreasing in x). */
+/**
+ * The value run when the search asks for `x` at this point (non-decreasing in x). Other
+ * parameters are rounded to 12 significant digits, as axis values are, so bisection
+ * midpoints read 0.6 rather than 0.6000000000000001.
+ */
 export function realisedValue (parameter: string, params: PointParams, x: number): number {
   if (parameter === 'load') return patternsForLoad(x, params.neurons) / params.neurons
   if (parameter === 'cue.fraction') return Math.round(x * params.neurons) / params.neurons
-  return x
+  return roundToSignificant(x)
 }
 
 /**
