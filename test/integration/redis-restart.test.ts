@@ -92,7 +92,7 @@ describe.runIf(installed)('Redis backend: Redis restarts and settings', () => {
     await expect.poll(() => queue.ready(), { timeout: 10_000, interval: 100 }).toEqual({ ok: true })
   })
 
-  it('says loudly that Redis lost its data when it restarts without persistence', async () => {
+  it('says loudly that Redis lost its data when it restarts without persistence, and fails the lost sweep with a system error', async () => {
     const server = await privateRedis(['--appendonly', 'no'])
     const lines: Array<{ level: number, msg: string }> = []
     const queue = await createRedisQueue({ url: server.url, prefix: testPrefix(), logger: pino({ level: 'warn' }, collect(lines)) })
@@ -103,7 +103,11 @@ describe.runIf(installed)('Redis backend: Redis restarts and settings', () => {
     await server.restart()
     await expect.poll(() => queue.ready(), { timeout: 10_000, interval: 100 }).toEqual({ ok: true })
     expect(lines.some(line => line.level === 50 && /REDIS LOST MEMSWEEP DATA/.test(line.msg))).toBe(true)
-    expect(await queue.get(submitted.id)).toBeNull()
+    // Never silently: the sweep this instance knew as unfinished is now failed, kind system.
+    const after = await queue.get(submitted.id)
+    expect(after?.status).toBe('failed')
+    expect(after?.error?.kind).toBe('system')
+    expect(after?.error?.message).toMatch(/Redis lost/)
   })
 
   it('refuses a Redis that may evict keys, unless explicitly allowed', async () => {

@@ -26,7 +26,7 @@ export class EpochWatch {
     const previous = this.#epoch
     this.#epoch = await this.#join()
     this.logger.error({ previousEpoch: previous, epoch: this.#epoch },
-      'REDIS LOST MEMSWEEP DATA: the server restarted without persistence or was flushed; every sweep queued or running before is gone (their ids now answer 404). Enable appendonly on Redis.')
+      'REDIS LOST MEMSWEEP DATA: the server restarted without persistence or was flushed; every sweep queued or running before is gone (the ones an API instance knew are recorded as failed, kind system; others answer 404). Enable appendonly on Redis.')
     return true
   }
 

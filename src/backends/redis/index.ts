@@ -102,8 +102,55 @@ class RedisQueue implements SweepQueue {
     readonly logger: Logger
   ) {}
 
+  /**
+   * Sweeps this instance saw queued or running, so that a Redis that lost its data (restart
+   * without persistence, flush) turns them into failed sweeps with a system error instead
+   * of letting them vanish.
+   */
+  readonly #unfinished = new Map<string, SweepRecord>()
+
+  #remember (record: SweepRecord | null): SweepRecord | null {
+    if (record === null) return null
+    if (TERMINAL_STATUSES.has(record.status)) this.#unfinished.delete(record.id)
+    else this.#unfinished.set(record.id, record)
+    return record
+  }
+
+  /** Checks the epoch; after a data loss, records every remembered unfinished sweep as failed (system). */
+  async #noticeDataLoss (): Promise<void> {
+    if (!await this.epoch.check()) return
+    const lost = [...this.#unfinished.values()]
+    this.#unfinished.clear()
+    const now = Date.now()
+    for (const record of lost) {
+      const plan = planChunks(record.spec)
+      await this.store.create({
+        id: record.id,
+        owner: record.owner,
+        label: record.label,
+        specHash: record.specHash,
+        spec: record.spec,
+        createdMs: Date.parse(record.createdAt),
+        pointsTotal: record.progress.pointsTotal,
+        trialsTotal: record.progress.trialsTotal,
+        chunksTotal: record.progress.chunksTotal,
+        chunksPerPoint: chunksPerPoint(plan)
+      })
+      await this.store.stop(record.id, 'failed', now, {
+        kind: 'system',
+        message: 'Redis lost this sweep\'s data (it restarted without persistence or was flushed) before the sweep finished; submit it again. Operators: enable appendonly on Redis.'
+      })
+      await publishSweepEvent(this.producer, this.keys, record.id, 'state')
+      this.logger.error({ sweepId: record.id }, 'sweep lost with the Redis data recorded as failed (system)')
+    }
+  }
+
   async submit (input: SubmitInput): Promise<SweepRecord> {
     this.#assertOpen()
+    return this.#remember(await this.#submit(input))!
+  }
+
+  async #submit (input: SubmitInput): Promise<SweepRecord> {
     const spec = input.spec
     const hash = specHash(spec)
     const plan = planChunks(spec)
@@ -128,7 +175,7 @@ class RedisQueue implements SweepQueue {
       if (existing === null) {
         // The key outlived its sweep (retention shorter than the key's life): start afresh.
         await this.store.releaseIdempotencyKey(input.owner, input.idempotencyKey ?? '')
-        return await this.submit(input)
+        return await this.#submit(input)
       }
       // A retry after a submit that stored the record but died before enqueueing: finish the job.
       if (!TERMINAL_STATUSES.has(existing.status) && !await this.store.isEnqueued(existing.id)) {
@@ -150,7 +197,12 @@ class RedisQueue implements SweepQueue {
   async get (id: string): Promise<SweepRecord | null> {
     this.#assertOpen()
     if (!SWEEP_ID.test(id)) return null
-    return await this.store.get(id)
+    const record = await this.store.get(id)
+    if (record === null && this.#unfinished.has(id)) {
+      await this.#noticeDataLoss()
+      return this.#remember(await this.store.get(id))
+    }
+    return this.#remember(record)
   }
 
   async list (query: ListQuery): Promise<{ items: SweepRecord[], nextCursor: string | null }> {
@@ -201,7 +253,7 @@ class RedisQueue implements SweepQueue {
         new Promise((_resolve, reject) => { timer = setTimeout(() => reject(new Error('timeout')), READY_TIMEOUT_MS) })
       ])
       // Readiness probes run often: a cheap place to notice (and log loudly) that Redis lost its data.
-      await this.epoch.check()
+      await this.#noticeDataLoss()
       if (this.subscriber.status !== 'ready') return { ok: false, detail: 'the Redis event subscriber is reconnecting' }
       return { ok: true }
     } catch (error) {
