@@ -111,7 +111,9 @@ export function figurePanel (source: FigureSource, signal: AbortSignal): FigureP
 
   const size = (): [number, number] => {
     const width = Math.max(360, Math.min(1000, Math.round(figure.clientWidth || 760)))
-    return [width, Math.round(Math.min(width * 0.66, 620))]
+    // Narrow figures get taller, so the legend and the axes still leave room for the curves.
+    const height = Math.round(Math.max(280, Math.min(width * (width < 600 ? 0.95 : 0.66), 620)))
+    return [width, height]
   }
 
   const showSvg = (text: string): void => {
