@@ -76,6 +76,8 @@ export function makeProvenance (spec: NormalisedSpec, timing: { wallSeconds: num
  *
  * @throws {IncompleteResultError} when some trial is missing, duplicated with different
  *   content, or outside the grid.
+ * The fast paths the chunks report are recorded in the provenance unless the caller set one.
+ *
  * @throws {RangeError} when the provenance names another spec.
  */
 export function assembleResult (spec: NormalisedSpec, chunkResults: readonly ChunkResult[], provenance: Provenance): SweepResult {
@@ -83,6 +85,8 @@ export function assembleResult (spec: NormalisedSpec, chunkResults: readonly Chu
   if (provenance.specHash !== hash) {
     throw new RangeError(`invalid argument. The provenance is for spec ${provenance.specHash}, not ${hash}.`)
   }
+  const fastPaths = [...new Set(chunkResults.flatMap((r) => r.fastPath === undefined ? [] : [r.fastPath]))].sort()
+  if (provenance.fastPath === undefined && fastPaths.length > 0) provenance = { ...provenance, fastPath: fastPaths.join(', ') }
   if (spec.analysis !== undefined) {
     const analysed = assembleSearches(spec, spec.analysis, chunkResults)
     return sortKeysDeep({ specHash: hash, spec, rows: [], trials: [], ...analysed, provenance })

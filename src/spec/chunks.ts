@@ -26,6 +26,8 @@ export interface ChunkResult {
   trials: TrialRecord[]
   /** A search chunk's outcome: its steps' summaries, the estimate and its interval. Absent for grid chunks. */
   search?: SearchPayload
+  /** The engine's accelerated path for this chunk's networks (e.g. `wasm-simd128-overlap-i16`, `js`). */
+  fastPath?: string
 }
 
 export interface RunChunkOptions {
@@ -86,5 +88,7 @@ export function runChunk (spec: NormalisedSpec, chunk: Chunk, opts: RunChunkOpti
     trials.push(runner.runTrial(chunk.firstTrial + k))
     opts.onTrial?.(k + 1)
   }
-  return { chunk: chunk.index, point: chunk.point, trials }
+  return runner.fastPath === null
+    ? { chunk: chunk.index, point: chunk.point, trials }
+    : { chunk: chunk.index, point: chunk.point, trials, fastPath: runner.fastPath }
 }
