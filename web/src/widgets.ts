@@ -6,12 +6,12 @@ import type { SweepStatus, SweepStatusName } from './types.js'
 const STATUS_WORDS: Record<SweepStatusName, string> = {
   queued: 'queued',
   running: 'running',
-  succeeded: 'finished',
+  succeeded: 'succeeded',
   failed: 'failed',
   canceled: 'canceled'
 }
 
-/** What each status is called on the page (the API word is in the filter's value). */
+/** What each status is called on the page: the API's own status words, so the page and scripts agree. */
 export function statusWord (status: SweepStatusName): string {
   return STATUS_WORDS[status]
 }
