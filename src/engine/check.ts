@@ -1,5 +1,6 @@
 import type { PointParams } from './params.js'
 import { EngineInputError } from './errors.js'
+import { checkModel } from './models/check-model.js'
 
 /** Largest network the engine accepts; the service sets tighter limits from memory estimates. */
 export const MAX_NEURONS = 1_000_000
@@ -39,9 +40,7 @@ export function checkPointParams (p: PointParams): void {
   if (p.rule.kind === 'covariance' && p.rule.threshold !== null && !Number.isFinite(p.rule.threshold)) {
     throw new EngineInputError('rule.threshold', p.rule.threshold, 'the threshold must be a finite number.')
   }
-  if (p.dilution !== null && !(p.dilution.keep > 0 && p.dilution.keep <= 1)) {
-    throw new EngineInputError('dilution.keep', p.dilution.keep, 'the fraction of couplings kept must lie in (0, 1].')
-  }
+  checkModel(p)
   const cue = p.cue
   if ((cue.kind === 'flip' || cue.kind === 'erase') && !(cue.fraction >= 0 && cue.fraction <= 1)) {
     throw new EngineInputError('cue.fraction', cue.fraction, 'the cue fraction must lie in [0, 1].')

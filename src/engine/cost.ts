@@ -1,5 +1,5 @@
 import type { PointParams } from './params.js'
-import { chooseRepresentation } from './network/build.js'
+import { chooseRepresentation, type Representation } from './network/build.js'
 
 export interface PointCost {
   /** Peak bytes one runner holds for this point (network, patterns, scratch). */
@@ -33,7 +33,9 @@ export function estimatePointCost (p: PointParams): PointCost {
       opsPerVisit: count
     }
   }
-  const asymmetric = p.dilution !== null && !p.dilution.symmetric
+  const model = modelCost(p, representation, patternBytes + scratchBytes, neuronUpdatesPerTrial)
+  if (model !== null) return model
+  const asymmetric = p.dilution !== null && p.dilution.kind !== 'fixed-in-degree' && !p.dilution.symmetric
   let matrices = asymmetric ? 2 : 1
   let buildOps = n * n * count
   if (p.rule.kind === 'pseudo-inverse') buildOps += n * count * count + count * count * count
@@ -44,5 +46,27 @@ export function estimatePointCost (p: PointParams): PointCost {
     buildOpsPerNetwork: buildOps,
     // A visit reads one field; a change (a fraction of visits) adds a column of N.
     opsPerVisit: 1 + n / Math.max(1, sweeps)
+  }
+}
+
+/**
+ * The representations without a coupling matrix: dense memories and the softmax network
+ * hold the patterns twice (O(P) per visit or per state component), the fixed in-degree
+ * network four N·K arrays (O(K) per visit at most). Null for the others.
+ */
+function modelCost (p: PointParams, representation: Representation, baseBytes: number, neuronUpdatesPerTrial: number): PointCost | null {
+  const n = p.neurons
+  const count = p.patterns
+  switch (representation) {
+    case 'dense-memory':
+      return { bytes: baseBytes + n * count + 4 * count + 16 * n, neuronUpdatesPerTrial, buildOpsPerNetwork: 2 * n * count, opsPerVisit: p.rule.kind === 'dense-exponential' ? 2 * count : count }
+    case 'softmax-continuous':
+      return { bytes: baseBytes + 8 * count + 16 * n, neuronUpdatesPerTrial, buildOpsPerNetwork: n * count, opsPerVisit: 2 * count }
+    case 'sparse-in-degree': {
+      const k = p.dilution?.kind === 'fixed-in-degree' ? p.dilution.inDegree : n
+      return { bytes: baseBytes + n * count + 16 * n * k + 12 * n, neuronUpdatesPerTrial, buildOpsPerNetwork: n * k * (count + 8), opsPerVisit: k }
+    }
+    default:
+      return null
   }
 }

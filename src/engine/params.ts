@@ -38,12 +38,44 @@ export type LearningRule =
    * fields of active and silent units (see rules/covariance.ts).
    */
   | { kind: 'covariance', selfCoupling: boolean, threshold: number | null }
+  /**
+   * Clipped Hebbian synapses (Sompolinsky, PRA 34, 2571 (1986)): J_ij = (√P/N) sign(Σ_μ ξ_i^μ ξ_j^μ),
+   * sign(0) = 0, so the couplings have the Hebbian r.m.s. size (see rules/clipped.ts).
+   */
+  | { kind: 'clipped', selfCoupling: boolean }
+  /**
+   * Dense associative memory with F(x) = xⁿ (Krotov & Hopfield 2016), `degree` n ≥ 2; n = 2 is
+   * the Hebbian network with J_ii = 0 (see network/dense-memory.ts). ±1 neurons, no couplings.
+   */
+  | { kind: 'dense-polynomial', degree: number }
+  /** Dense associative memory with F(x) = eˣ (Demircigil et al. 2017); zero temperature only. */
+  | { kind: 'dense-exponential' }
+  /**
+   * Modern continuous Hopfield network (Ramsauer et al. 2021): continuous state updated by
+   * ξ ← X softmax(β Xᵀ ξ) over the unit-length patterns, `beta` = β > 0 (see models/softmax).
+   */
+  | { kind: 'modern-softmax', beta: number }
 
-export interface Dilution {
+export type Dilution = RandomDilution | InDegreeDilution
+
+/** Random dilution of a coupling matrix. `kind` is optional so specs written before other dilutions existed keep their meaning. */
+export interface RandomDilution {
+  kind?: 'random'
   /** Fraction of couplings kept, in (0, 1]. */
   keep: number
   /** Symmetric dilution keeps or cuts J_ij and J_ji together; asymmetric decides each independently. */
   symmetric: boolean
+}
+
+/**
+ * Extremely diluted asymmetric network (Derrida, Gardner & Zippelius 1987): every neuron
+ * receives exactly `inDegree` = K inputs from distinct other neurons chosen at random,
+ * independently for each neuron, with J_ij = (1/K) Σ_μ ξ_i^μ ξ_j^μ (Hebbian) or the clipped
+ * version on those connections. Stored as adjacency lists (network/sparse-in-degree.ts).
+ */
+export interface InDegreeDilution {
+  kind: 'fixed-in-degree'
+  inDegree: number
 }
 
 export type Cue =

@@ -2,17 +2,20 @@ import type { PointParams } from './params.js'
 import type { TrialRecord } from './results.js'
 import type { Network } from './network/network.js'
 import { openStream, RNG_ALGORITHM } from './random/streams.js'
-import { buildNetwork, chooseRepresentation } from './network/build.js'
+import { buildNetwork, chooseRepresentation, type Representation } from './network/build.js'
 import { createScratch } from './dynamics/scratch.js'
 import { runTrialOn } from './trial.js'
 import { measureStability } from './measures.js'
 import { checkPointParams } from './check.js'
+import { generatePatterns } from './patterns/generate.js'
+import { SoftmaxMemory } from './models/softmax/memory.js'
+import { createSoftmaxScratch, runSoftmaxTrial, softmaxStability } from './models/softmax/trial.js'
 
 export interface PointRunner {
   /** Runs trial `trial` (0-based within the point); the same (seed, point, trial) always gives the same record. */
   runTrial (trial: number): TrialRecord
   /** The representation the point runs on, for provenance. */
-  readonly representation: Network['representation']
+  readonly representation: Representation
   /** The accelerated path of the networks built so far (e.g. `wasm-simd128-overlap-i16`, `js`); null before the first trial. */
   readonly fastPath: string | null
   readonly algorithm: string
@@ -26,6 +29,7 @@ export interface PointRunner {
  */
 export function createPointRunner (p: PointParams, masterSeed: number, pointIndex: number): PointRunner {
   checkPointParams(p)
+  if (p.rule.kind === 'modern-softmax') return createSoftmaxRunner(p, p.rule.beta, masterSeed, pointIndex)
   const scratch = createScratch(p.neurons, p.patterns)
   let cachedIndex = -1
   let cached: Network | null = null
@@ -49,6 +53,34 @@ export function createPointRunner (p: PointParams, masterSeed: number, pointInde
       if (p.measures.stability && trial % p.trialsPerNetwork === 0) {
         record.stability = measureStability(net, scratch.next)
       }
+      return record
+    }
+  }
+}
+
+/**
+ * The modern softmax network's runner: the same streams, network sharing and targets as
+ * above; a "network" is the stored pattern set, drawn from the network stream.
+ */
+function createSoftmaxRunner (p: PointParams, beta: number, masterSeed: number, pointIndex: number): PointRunner {
+  const scratch = createSoftmaxScratch(p.neurons, p.patterns)
+  let cachedIndex = -1
+  let cached: SoftmaxMemory | null = null
+  const memoryFor = (index: number): SoftmaxMemory => {
+    if (cached === null || cachedIndex !== index) {
+      cached = new SoftmaxMemory(generatePatterns(p, openStream(masterSeed, 'network', pointIndex, index)), p.neurons, p.patterns, beta)
+      cachedIndex = index
+    }
+    return cached
+  }
+  return {
+    representation: 'softmax-continuous',
+    get fastPath () { return cached === null ? null : 'js' },
+    algorithm: RNG_ALGORITHM,
+    runTrial (trial: number): TrialRecord {
+      const mem = memoryFor(Math.floor(trial / p.trialsPerNetwork))
+      const record = runSoftmaxTrial(mem, p, trial, trial % p.patterns, openStream(masterSeed, 'trial', pointIndex, trial), scratch)
+      if (p.measures.stability && trial % p.trialsPerNetwork === 0) record.stability = softmaxStability(mem, scratch)
       return record
     }
   }

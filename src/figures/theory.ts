@@ -119,7 +119,7 @@ function denseApplies (key: string, rows: readonly ResultRow[], spec: SweepResul
 }
 
 function closedForm (key: string, x: VariedPath, p: PointParams): ClosedForm | null {
-  const selfCoupling = p.rule.selfCoupling
+  const selfCoupling = 'selfCoupling' in p.rule && p.rule.selfCoupling
   // Along a series N is fixed, so patterns P map to the load P/N.
   const toLoad = x === 'load' ? (v: number) => v : x === 'patterns' ? (v: number) => v / p.neurons : null
   const loadScale = x === 'patterns' ? p.neurons : 1

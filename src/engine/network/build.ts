@@ -1,4 +1,5 @@
 import type { PointParams } from '../params.js'
+import { EngineInputError } from '../errors.js'
 import type { RandomSource } from '../random/source.js'
 import { generatePatterns } from '../patterns/generate.js'
 import { hebbianCouplings } from '../rules/hebbian.js'
@@ -6,44 +7,76 @@ import { pseudoInverseCouplings } from '../rules/pseudo-inverse.js'
 import { storkeyCouplings } from '../rules/storkey.js'
 import { covarianceCouplings } from '../rules/covariance.js'
 import { diluteCouplings } from '../rules/dilution.js'
+import { clippedCouplings } from '../rules/clipped.js'
+import { inDegreeCouplings } from '../rules/in-degree-couplings.js'
 import type { Network } from './network.js'
 import { OverlapSpaceNetwork } from './overlap-space.js'
 import { DenseNetwork } from './dense.js'
+import { DenseMemoryNetwork } from './dense-memory.js'
+import { SparseInDegreeNetwork } from './sparse-in-degree.js'
 
-/** Which representation a point uses: overlap space whenever the rule allows it (Hebbian, fully connected, ±1 neurons). */
-export function chooseRepresentation (p: PointParams): Network['representation'] {
+/** How a point's model is held: a Network representation, or the continuous state of the modern softmax network (models/softmax). */
+export type Representation = Network['representation'] | 'softmax-continuous'
+
+/**
+ * Which representation a point uses: overlap space whenever the rule allows it (Hebbian, fully
+ * connected, ±1 neurons); adjacency lists for a fixed in-degree; the dense memories and the
+ * softmax network have their own; a coupling matrix otherwise.
+ */
+export function chooseRepresentation (p: PointParams): Representation {
+  if (p.rule.kind === 'modern-softmax') return 'softmax-continuous'
+  if (p.rule.kind === 'dense-polynomial' || p.rule.kind === 'dense-exponential') return 'dense-memory'
+  if (p.dilution?.kind === 'fixed-in-degree') return 'sparse-in-degree'
   return p.rule.kind === 'hebbian' && p.dilution === null && p.coding === 'pm1' ? 'overlap-space' : 'dense-incremental'
 }
 
 /**
  * Draws one network (patterns, then couplings, then dilution) from `rng`, in that order.
+ *
+ * @throws {EngineInputError} for the modern softmax rule, which has no spin network
+ * (models/softmax runs it).
  */
 export function buildNetwork (p: PointParams, rng: RandomSource): Network {
   const n = p.neurons
   const count = p.patterns
+  const rule = p.rule
+  if (rule.kind === 'modern-softmax') throw new EngineInputError('rule.kind', rule.kind, 'the modern softmax network has a continuous state, not a spin network.')
   const patterns = generatePatterns(p, rng)
-  if (chooseRepresentation(p) === 'overlap-space') {
-    return new OverlapSpaceNetwork(patterns, n, count, p.rule.selfCoupling)
+  if (rule.kind === 'dense-polynomial') return new DenseMemoryNetwork(patterns, n, count, { kind: 'polynomial', degree: rule.degree })
+  if (rule.kind === 'dense-exponential') return new DenseMemoryNetwork(patterns, n, count, { kind: 'exponential' })
+  if (p.dilution?.kind === 'fixed-in-degree') {
+    const k = p.dilution.inDegree
+    const clipped = rule.kind === 'clipped'
+    return new SparseInDegreeNetwork(patterns, n, count, inDegreeCouplings(patterns, n, count, k, clipped, rng), clipped ? Math.sqrt(count) / k : 1 / k)
+  }
+  if (rule.kind === 'hebbian' && chooseRepresentation(p) === 'overlap-space') {
+    return new OverlapSpaceNetwork(patterns, n, count, rule.selfCoupling)
   }
   let couplings: Float64Array
   let fieldScale = 1
   let theta = 0
-  switch (p.rule.kind) {
+  switch (rule.kind) {
     case 'hebbian':
-      couplings = hebbianCouplings(patterns, n, count, p.rule.selfCoupling)
+      couplings = hebbianCouplings(patterns, n, count, rule.selfCoupling)
       fieldScale = 1 / n
       break
     case 'pseudo-inverse':
-      couplings = pseudoInverseCouplings(patterns, n, count, p.rule.selfCoupling)
+      couplings = pseudoInverseCouplings(patterns, n, count, rule.selfCoupling)
       break
     case 'storkey':
-      couplings = storkeyCouplings(patterns, n, count, p.rule.selfCoupling)
+      couplings = storkeyCouplings(patterns, n, count, rule.selfCoupling)
       break
     case 'covariance': {
       const activity = p.family.kind === 'random' ? p.family.activity : 0.5
-      const built = covarianceCouplings(patterns, n, count, activity, p.rule.selfCoupling, p.rule.threshold, p.coding === 'binary')
+      const built = covarianceCouplings(patterns, n, count, activity, rule.selfCoupling, rule.threshold, p.coding === 'binary')
       couplings = built.couplings
       theta = built.theta
+      break
+    }
+    case 'clipped': {
+      const built = clippedCouplings(patterns, n, count, rule.selfCoupling)
+      couplings = built.couplings
+      fieldScale = built.fieldScale
       break
     }
   }

@@ -20,7 +20,7 @@ export interface Network {
   /** Multiply a raw field by this to get the physical field h_i. */
   readonly fieldScale: number
   /** Name of the representation, recorded in result provenance. */
-  readonly representation: 'overlap-space' | 'dense-incremental'
+  readonly representation: 'overlap-space' | 'dense-incremental' | 'dense-memory' | 'sparse-in-degree'
   /**
    * Name of the fast path the network runs on ('js' for the plain per-neuron path), recorded
    * in result provenance. Every fast path gives bit-identical results to the plain path.

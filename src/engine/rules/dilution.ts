@@ -1,4 +1,4 @@
-import type { Dilution } from '../params.js'
+import type { RandomDilution } from '../params.js'
 import type { RandomSource } from '../random/source.js'
 
 /**
@@ -6,7 +6,7 @@ import type { RandomSource } from '../random/source.js'
  * together; asymmetric: independently), then survivors are divided by `keep` so the
  * signal stays of order one. Diagonal entries are left as they are.
  */
-export function diluteCouplings (couplings: Float64Array, n: number, dilution: Dilution, rng: RandomSource): void {
+export function diluteCouplings (couplings: Float64Array, n: number, dilution: RandomDilution, rng: RandomSource): void {
   const scale = 1 / dilution.keep
   for (let i = 0; i < n; i++) {
     for (let j = dilution.symmetric ? i + 1 : 0; j < n; j++) {

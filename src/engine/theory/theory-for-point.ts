@@ -5,6 +5,7 @@ import { curieWeissOverlap } from './curie-weiss-overlap.js'
 import { firstParallelStep } from './first-parallel-step.js'
 import { firstParallelStepExact } from './first-parallel-step-exact.js'
 import { mixtureOverlap } from './mixture-overlap.js'
+import { modelTheoryForPoint } from './model-theory.js'
 import { rsCriticalLoad } from './rs-critical-load.js'
 import { rsRetrievalOverlap } from './rs-retrieval-overlap.js'
 import { spinGlassTemperature } from './spin-glass-temperature.js'
@@ -37,8 +38,13 @@ export const VANISHING_LOAD = 0.01
  *
  * 0/1 coding is left out: with 0/1 neurons the Hebbian field is not the ±1 field these
  * results describe.
+ *
+ * Clipped synapses, the fixed in-degree dilution, dense memories and the modern softmax
+ * network: see `modelTheoryForPoint`.
  */
 export function theoryForPoint (p: PointParams): Record<string, number> {
+  const model = modelTheoryForPoint(p)
+  if (model !== null) return model
   if (p.coding !== 'pm1' || !isUndiluted(p)) return {}
   const alpha = p.patterns / p.neurons
   if (p.rule.kind === 'pseudo-inverse') return { loadAlpha: alpha, criticalLoad: 1 }
@@ -72,5 +78,5 @@ export function theoryForPoint (p: PointParams): Record<string, number> {
 }
 
 function isUndiluted (p: PointParams): boolean {
-  return p.dilution === null || p.dilution.keep === 1
+  return p.dilution === null || (p.dilution.kind !== 'fixed-in-degree' && p.dilution.keep === 1)
 }
