@@ -82,12 +82,13 @@ export function pointsToCheck (spec: NormalisedSpec, index: number): CheckedPoin
   })
 }
 
-function describeMissing (path: VariedPath): string {
+function describeMissing (path: string): string {
   switch (path) {
     case 'family.activity': return 'it needs family kind random'
     case 'family.parentOverlap': return 'it needs family kind correlated'
     case 'rule.threshold': return 'it needs rule kind covariance'
-    case 'dilution.keep': return 'it needs a dilution'
+    case 'rule.beta': return 'it needs rule kind modern-softmax'
+    case 'dilution.keep': return 'it needs a random dilution with keep'
     case 'cue.fraction': return 'it needs cue kind flip or erase'
     default: return 'the model does not use it'
   }
