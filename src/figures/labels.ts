@@ -24,7 +24,10 @@ const PARAMETERS: Record<VariedPath, ParameterWords> = {
   'family.parents': { symbol: 'parents', axis: 'Parent patterns', short: 'parent patterns' },
   'family.parentOverlap': { symbol: 'b', axis: 'Overlap b of each pattern with its parent', short: 'parent overlap b' },
   'rule.threshold': { symbol: 'θ', axis: 'Firing threshold θ', short: 'threshold θ' },
+  'rule.degree': { symbol: 'n', axis: 'Interaction degree n (F(x) = xⁿ)', short: 'degree n' },
+  'rule.beta': { symbol: 'β', axis: 'Inverse temperature β of the softmax', short: 'inverse temperature β' },
   'dilution.keep': { symbol: 'c', axis: 'Fraction of couplings kept c', short: 'couplings kept c' },
+  'dilution.inDegree': { symbol: 'K', axis: 'Inputs per neuron K', short: 'inputs per neuron K' },
   'cue.fraction': { symbol: 'f', axis: 'Cue fraction f', short: 'cue fraction f' },
   'cue.components': { symbol: 'n', axis: 'Mixture components n', short: 'mixture components n' },
   'dynamics.temperature': { symbol: 'T', axis: 'Temperature T', short: 'temperature T' },
@@ -144,10 +147,24 @@ export function modelConditions (spec: NormalisedSpec, shown: ReadonlySet<string
     out.push(parts.length > 0 ? `correlated patterns (${parts.join(', ')})` : 'correlated patterns')
   } else out.push('supplied patterns')
   const r = spec.rule
-  const ruleName = { hebbian: 'Hebbian rule', 'pseudo-inverse': 'pseudo-inverse rule', storkey: 'Storkey rule', covariance: 'covariance rule' }[r.kind]
+  const ruleName = {
+    hebbian: 'Hebbian rule',
+    'pseudo-inverse': 'pseudo-inverse rule',
+    storkey: 'Storkey rule',
+    covariance: 'covariance rule',
+    clipped: 'clipped synapses',
+    'dense-polynomial': 'dense memory F = xⁿ',
+    'dense-exponential': 'dense memory F = eˣ',
+    'modern-softmax': 'softmax network'
+  }[r.kind]
   const threshold = r.kind === 'covariance' && r.threshold !== null && constant('rule.threshold', r.threshold) ? ` (θ = ${formatValue(r.threshold)})` : ''
-  out.push(`${ruleName}${threshold}${r.selfCoupling ? ', J_{ii} kept' : ''}`)
-  if (spec.dilution !== null) {
+  const option = r.kind === 'dense-polynomial' && constant('rule.degree', r.degree)
+    ? ` (n = ${formatValue(r.degree)})`
+    : r.kind === 'modern-softmax' && constant('rule.beta', r.beta) ? ` (β = ${formatValue(r.beta)})` : ''
+  out.push(`${ruleName}${threshold}${option}${'selfCoupling' in r && r.selfCoupling ? ', J_{ii} kept' : ''}`)
+  if (spec.dilution !== null && 'inDegree' in spec.dilution) {
+    out.push(constant('dilution.inDegree', spec.dilution.inDegree) ? `K = ${formatValue(spec.dilution.inDegree)} inputs per neuron (asymmetric)` : 'fixed in-degree (asymmetric)')
+  } else if (spec.dilution !== null) {
     out.push(constant('dilution.keep', spec.dilution.keep)
       ? `c = ${formatValue(spec.dilution.keep)} of couplings kept${spec.dilution.symmetric ? '' : ' (asymmetric)'}`
       : `diluted couplings${spec.dilution.symmetric ? '' : ' (asymmetric)'}`)

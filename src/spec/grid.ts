@@ -92,10 +92,7 @@ function resolveParams (spec: NormalisedSpec, values: Record<string, number>): P
     : f.kind === 'correlated'
       ? { kind: 'correlated', parents: at('family.parents', f.parents), parentOverlap: at('family.parentOverlap', f.parentOverlap) }
       : { kind: 'supplied', data: patterns < f.data.length ? f.data.slice(0, patterns) : f.data }
-  const r = spec.rule
-  const rule: PointParams['rule'] = r.kind === 'covariance'
-    ? { kind: 'covariance', selfCoupling: r.selfCoupling, threshold: r.threshold === null ? null : at('rule.threshold', r.threshold) }
-    : { kind: r.kind, selfCoupling: r.selfCoupling }
+  const rule = resolveRule(spec.rule, at)
   const c = spec.cue
   const cue: PointParams['cue'] = c.kind === 'flip'
     ? { kind: 'flip', fraction: at('cue.fraction', c.fraction) }
@@ -108,7 +105,11 @@ function resolveParams (spec: NormalisedSpec, values: Record<string, number>): P
     coding: spec.coding,
     family,
     rule,
-    dilution: spec.dilution === null ? null : { keep: at('dilution.keep', spec.dilution.keep), symmetric: spec.dilution.symmetric },
+    dilution: spec.dilution === null
+      ? null
+      : 'inDegree' in spec.dilution
+        ? { kind: 'fixed-in-degree', inDegree: at('dilution.inDegree', spec.dilution.inDegree) }
+        : { keep: at('dilution.keep', spec.dilution.keep), symmetric: spec.dilution.symmetric },
     cue,
     dynamics: {
       update: spec.dynamics.update,
@@ -119,5 +120,15 @@ function resolveParams (spec: NormalisedSpec, values: Record<string, number>): P
     measures: { ...spec.measures },
     successThreshold: at('successThreshold', spec.successThreshold),
     trialsPerNetwork: at('trialsPerNetwork', spec.trialsPerNetwork)
+  }
+}
+
+function resolveRule (r: NormalisedSpec['rule'], at: (path: VariedPath, v: Varied) => number): PointParams['rule'] {
+  switch (r.kind) {
+    case 'covariance': return { kind: 'covariance', selfCoupling: r.selfCoupling, threshold: r.threshold === null ? null : at('rule.threshold', r.threshold) }
+    case 'dense-polynomial': return { kind: r.kind, degree: at('rule.degree', r.degree) }
+    case 'dense-exponential': return { kind: r.kind }
+    case 'modern-softmax': return { kind: r.kind, beta: at('rule.beta', r.beta) }
+    default: return { kind: r.kind, selfCoupling: r.selfCoupling }
   }
 }

@@ -82,10 +82,7 @@ function buildNormalised (p: ParsedSpec): NormalisedSpec {
     : f.kind === 'correlated'
       ? { kind: 'correlated', parents: varied('family.parents', f.parents), parentOverlap: varied('family.parentOverlap', f.parentOverlap) }
       : { kind: 'supplied', data: f.data.map((row) => row.map((v) => (v === 0 ? 0 : v))) }
-  const r = p.rule
-  const rule: NormalisedRule = r.kind === 'covariance'
-    ? { kind: 'covariance', selfCoupling: r.selfCoupling, threshold: r.threshold === null ? null : varied('rule.threshold', r.threshold) }
-    : { kind: r.kind, selfCoupling: r.selfCoupling }
+  const rule = normaliseRule(p.rule)
   const c = p.cue
   const cue: NormalisedCue = c.kind === 'flip'
     ? { kind: 'flip', fraction: varied('cue.fraction', c.fraction) }
@@ -103,7 +100,11 @@ function buildNormalised (p: ParsedSpec): NormalisedSpec {
     coding: p.coding,
     family,
     rule,
-    dilution: p.dilution === null ? null : { keep: varied('dilution.keep', p.dilution.keep), symmetric: p.dilution.symmetric },
+    dilution: p.dilution === null
+      ? null
+      : p.dilution.kind === 'fixed-in-degree'
+        ? { kind: 'fixed-in-degree', inDegree: varied('dilution.inDegree', p.dilution.inDegree) }
+        : { keep: varied('dilution.keep', p.dilution.keep), symmetric: p.dilution.symmetric },
     cue,
     dynamics: {
       update: p.dynamics.update,
@@ -121,6 +122,16 @@ function buildNormalised (p: ParsedSpec): NormalisedSpec {
   else if (suppliedRows !== null) spec.patterns = suppliedRows.length
   if (p.analysis !== undefined) spec.analysis = normaliseAnalysis(p.analysis)
   return sortKeysDeep(spec)
+}
+
+function normaliseRule (r: ParsedSpec['rule']): NormalisedRule {
+  switch (r.kind) {
+    case 'covariance': return { kind: 'covariance', selfCoupling: r.selfCoupling, threshold: r.threshold === null ? null : varied('rule.threshold', r.threshold) }
+    case 'dense-polynomial': return { kind: r.kind, degree: varied('rule.degree', r.degree) }
+    case 'dense-exponential': return { kind: r.kind }
+    case 'modern-softmax': return { kind: r.kind, beta: varied('rule.beta', r.beta) }
+    default: return { kind: r.kind, selfCoupling: r.selfCoupling }
+  }
 }
 
 /** Supplied patterns: one length for every row, matching `neurons`; entries in the coding; enough rows for `patterns`. */

@@ -57,7 +57,10 @@ export const VARIED_PARAMETERS = [
   { path: 'family.parents', domain: { integer: true, min: 1, max: SPEC_CEILINGS.patterns } },
   { path: 'family.parentOverlap', domain: { integer: false, min: 0, max: 1 } },
   { path: 'rule.threshold', domain: { integer: false } },
+  { path: 'rule.degree', domain: { integer: true, min: 2, max: 30 } },
+  { path: 'rule.beta', domain: { integer: false, min: 0, minExclusive: true } },
   { path: 'dilution.keep', domain: { integer: false, min: 0, minExclusive: true, max: 1 } },
+  { path: 'dilution.inDegree', domain: { integer: true, min: 1, max: SPEC_CEILINGS.neurons } },
   { path: 'cue.fraction', domain: { integer: false, min: 0, max: 1 } },
   { path: 'cue.components', domain: { integer: true, min: 1, max: SPEC_CEILINGS.patterns } },
   { path: 'dynamics.temperature', domain: { integer: false, min: 0 } },
@@ -104,7 +107,7 @@ const family = z.discriminatedUnion('kind', [randomFamily, correlatedFamily, sup
   .prefault({ kind: 'random' })
   .describe('How the stored patterns are drawn. Default: { "kind": "random", "activity": 0.5 }.')
 
-const plainRule = (kind: 'hebbian' | 'pseudo-inverse' | 'storkey', description: string) =>
+const plainRule = (kind: 'hebbian' | 'pseudo-inverse' | 'storkey' | 'clipped', description: string) =>
   z.strictObject({ kind: z.literal(kind), selfCoupling }).describe(description)
 
 const rule = z.discriminatedUnion('kind', [
@@ -116,16 +119,36 @@ const rule = z.discriminatedUnion('kind', [
     selfCoupling,
     threshold: varied('rule.threshold', 'Uniform firing threshold θ in units of the local field; null uses the engine\'s activity-dependent default. Default: null.')
       .nullable().default(SPEC_DEFAULTS.covarianceThreshold)
-  }).describe('Covariance rule for biased (sparse) patterns (Tsodyks & Feigel\'man 1988).')
+  }).describe('Covariance rule for biased (sparse) patterns (Tsodyks & Feigel\'man 1988).'),
+  plainRule('clipped', 'Clipped Hebbian synapses J_ij = (√P/N) sign(Σ_μ ξ_i^μ ξ_j^μ), zero when the sum is 0 (Sompolinsky 1986).'),
+  z.strictObject({
+    kind: z.literal('dense-polynomial'),
+    degree: varied('rule.degree', 'Degree n of the interaction F(x) = xⁿ, an integer in [2, 30]; n = 2 runs the Hebbian network. Required.')
+  }).describe('Dense associative memory with energy −Σ_μ (ξ^μ·σ)ⁿ (Krotov & Hopfield 2016); ±1 neurons, no dilution.'),
+  z.strictObject({ kind: z.literal('dense-exponential') })
+    .describe('Dense associative memory with energy −Σ_μ exp(ξ^μ·σ) (Demircigil et al. 2017); ±1 neurons, no dilution, temperature 0.'),
+  z.strictObject({
+    kind: z.literal('modern-softmax'),
+    beta: varied('rule.beta', 'Inverse temperature β > 0 of the softmax update; the patterns have unit length. Required.')
+  }).describe('Modern continuous Hopfield network ξ ← X softmax(β Xᵀξ) (Ramsauer et al. 2021): continuous state, parallel updates (dynamics.update does not apply), temperature 0.')
 ]).prefault({ kind: 'hebbian' })
   .describe('Learning rule that turns the patterns into couplings. Default: { "kind": "hebbian", "selfCoupling": false }.')
 
-const dilution = z.strictObject({
+const randomDilution = z.strictObject({
+  kind: z.literal('random').optional()
+    .describe('Optional; random is the only dilution without a kind (the normalised form leaves it out).'),
   keep: varied('dilution.keep', 'Fraction of couplings kept, in (0, 1]. Required.'),
   symmetric: z.boolean().default(SPEC_DEFAULTS.dilutionSymmetric)
     .describe('Cut J_ij and J_ji together (true) or independently (false). Default: true.')
-}).nullable().default(null)
-  .describe('Random dilution of the couplings. Default: null (fully connected).')
+}).describe('Each coupling kept with probability keep, survivors divided by keep.')
+
+const inDegreeDilution = z.strictObject({
+  kind: z.literal('fixed-in-degree'),
+  inDegree: varied('dilution.inDegree', 'K, the inputs of every neuron (distinct other neurons, drawn independently per neuron), in [1, N − 1]; the load that matters is P/K. Required.')
+}).describe('Extremely diluted asymmetric network (Derrida, Gardner & Zippelius 1987): hebbian or clipped rule, ±1 neurons, no self-coupling; held as adjacency lists.')
+
+const dilution = z.discriminatedUnion('kind', [randomDilution, inDegreeDilution]).nullable().default(null)
+  .describe('Dilution of the couplings. Default: null (fully connected).')
 
 const cueFraction = (description: string) =>
   varied('cue.fraction', `${description} Default: ${SPEC_DEFAULTS.cueFraction}.`).default(SPEC_DEFAULTS.cueFraction)

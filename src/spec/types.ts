@@ -15,8 +15,16 @@ export type NormalisedFamily =
   | { kind: 'supplied', data: number[][] }
 
 export type NormalisedRule =
-  | { kind: 'hebbian' | 'pseudo-inverse' | 'storkey', selfCoupling: boolean }
+  | { kind: 'hebbian' | 'pseudo-inverse' | 'storkey' | 'clipped', selfCoupling: boolean }
   | { kind: 'covariance', selfCoupling: boolean, threshold: Varied | null }
+  | { kind: 'dense-polynomial', degree: Varied }
+  | { kind: 'dense-exponential' }
+  | { kind: 'modern-softmax', beta: Varied }
+
+/** Random dilution has no `kind` in the normalised form, so specs written before other dilutions existed keep their hash. */
+export type NormalisedDilution =
+  | { keep: Varied, symmetric: boolean }
+  | { kind: 'fixed-in-degree', inDegree: Varied }
 
 export type NormalisedCue =
   | { kind: 'flip', fraction: Varied }
@@ -36,7 +44,7 @@ export interface NormalisedSpec {
   coding: Coding
   family: NormalisedFamily
   rule: NormalisedRule
-  dilution: { keep: Varied, symmetric: boolean } | null
+  dilution: NormalisedDilution | null
   cue: NormalisedCue
   dynamics: { burnIn: Varied, maxSweeps: Varied, temperature: Varied, update: UpdateScheme }
   measures: { energyTrajectory: boolean, overlapTrajectory: boolean, stability: boolean }
