@@ -81,6 +81,18 @@ export function buildNetwork (p: PointParams, rng: RandomSource): Network {
     }
   }
   if (p.dilution !== null) diluteCouplings(couplings, n, p.dilution, rng)
+  return denseNetworkFrom(p, patterns, couplings, fieldScale, theta, p.dilution === null || p.dilution.symmetric)
+}
+
+/**
+ * The coupling-matrix network of a point from couplings already drawn (raw units: physical
+ * J = raw · fieldScale) and a uniform threshold θ (physical units), for the point's coding.
+ * `buildNetwork` ends here; a threshold scan may reuse one matrix for several θ, since the
+ * couplings are only read.
+ */
+export function denseNetworkFrom (p: PointParams, patterns: Int8Array, couplings: Float64Array, rawScale: number, theta: number, symmetric: boolean): DenseNetwork {
+  const n = p.neurons
+  let fieldScale = rawScale
   const bias = new Float64Array(n)
   if (p.coding === 'binary') {
     // 0/1 neurons V = (1 + s)/2: Σ_j J_ij V_j − θ = ½(Σ_j J_ij s_j + Σ_j J_ij − 2θ), so the
@@ -94,13 +106,5 @@ export function buildNetwork (p: PointParams, rng: RandomSource): Network {
   } else {
     bias.fill(-theta / fieldScale)
   }
-  return new DenseNetwork({
-    patterns,
-    neurons: n,
-    patternCount: count,
-    couplings,
-    bias,
-    fieldScale,
-    symmetric: p.dilution === null || p.dilution.symmetric
-  })
+  return new DenseNetwork({ patterns, neurons: n, patternCount: p.patterns, couplings, bias, fieldScale, symmetric })
 }
