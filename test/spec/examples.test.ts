@@ -9,7 +9,10 @@ describe('examples/', () => {
   it('holds the documented examples', () => {
     expect(files).toEqual(expect.arrayContaining([
       'room-capacity.json', 'room-cue-noise.json', 'room-temperature.json',
-      'room-capacity-search.json', 'room-basin-search.json', 'room-capacity-scaling.json'
+      'room-capacity-search.json', 'room-basin-search.json', 'room-capacity-scaling.json',
+      // One sweep per model family (src/spec/README.md, Model families).
+      'room-clipped-synapses.json', 'room-dense-polynomial.json', 'room-dense-exponential.json',
+      'room-softmax-sharpness.json', 'room-sparse-inputs.json', 'room-sparse-codes.json'
     ]))
   })
 
