@@ -36,7 +36,11 @@ export interface TrialRecord {
   /** Sweeps performed (synchronous: steps), including the last one that changed nothing. */
   sweeps: number
   ending: Ending
-  /** Energy per neuron of the final state, E/N = −(1/2N) Σ_{i≠j} J_ij s_i s_j + (1/N) Σ θ_i s_i. */
+  /**
+   * Energy per neuron of the final state, E/N = −(1/2N) Σ_{i≠j} J_ij s_i s_j + (1/N) Σ θ_i s_i.
+   * Dense memories and the softmax network report their own energies (network/dense-memory.ts,
+   * models/softmax/memory.ts; the softmax one is not divided by N).
+   */
   energy: number
   endState: EndState
   /** Present on the first trial of each network when the stability measure is on. */

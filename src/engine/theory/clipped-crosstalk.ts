@@ -47,7 +47,7 @@ export function clippedCrosstalkErrorGaussian (alpha: number): number {
  *
  * @example
  * clippedCrosstalkErrorExact(500, 51)
- * // returns { below: ~4.9e-3, tie: 0 }
+ * // returns { below: ~5.91e-3, tie: 0 }
  */
 export function clippedCrosstalkErrorExact (neurons: number, patterns: number, options: { selfCoupling?: boolean } = {}): SignProbabilities {
   checkCount('neurons', neurons, 1)

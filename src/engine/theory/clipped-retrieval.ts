@@ -42,7 +42,7 @@ export function clippedLoadEquation (y: number, staticNoise = CLIPPED_STATIC_NOI
  *
  * @example
  * clippedCriticalLoad()
- * // returns { alphaC: ~0.10184, overlapAtCritical: ~0.95, yC: ~1.4 }
+ * // returns { alphaC: ~0.101839, overlapAtCritical: ~0.94795, yC: ~1.37373 }
  */
 export function clippedCriticalLoad (staticNoise = CLIPPED_STATIC_NOISE): CriticalLoad {
   const ratio = (Math.sqrt(5) - 1) / 2

@@ -25,7 +25,7 @@ export const DILUTED_CRITICAL_LOAD = 2 / Math.PI
  *
  * @example
  * dilutedOverlapMap(0.3, 0.3)
- * // returns ~0.4163
+ * // returns ~0.41612
  */
 export function dilutedOverlapMap (m: number, alpha: number): number {
   checkOverlap('m', m)

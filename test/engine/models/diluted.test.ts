@@ -75,7 +75,7 @@ describe('extremely diluted asymmetric network (Derrida, Gardner & Zippelius 198
   it('retrieves below α_c = 2/π and loses the pattern above it', () => {
     // DGZ 1987: the retrieval fixed point m* > 0 exists only for α < 2/π ≈ 0.637 at T = 0, where
     // the slope √(2/(πα)) of the map at 0 drops below 1. Below: P = 17, K = 41 (α = 0.415,
-    // m* = 0.83); above: P = 37 (α = 0.902). From m₀ = 0.6, 30 parallel steps.
+    // m* = 0.765); above: P = 37 (α = 0.902). From m₀ = 0.6, 30 parallel steps.
     expect(DILUTED_CRITICAL_LOAD).toBeCloseTo(0.63662, 5)
     expect(dilutedRetrievalOverlap(0.7)).toBe(0)
     const final = (patterns: number): number[] => {

@@ -143,7 +143,8 @@ describe('modern continuous Hopfield network (Ramsauer et al., ICLR 2021)', () =
 
   it('runs trials through the point runner: cue, convergence, overlaps, trajectories', () => {
     // A flip cue with 6 of 64 bits wrong starts at m₀ = 1 − 12/64; at β = 32 the network lands
-    // on the pattern (Δ = 0.5 ≥ 0.461 for every pattern of this draw) within a few updates;
+    // on the pattern (random patterns at d = 64 are nearly all separated, Δ ≈ 0.5 ≥ 0.461)
+    // within a few updates;
     // at β = 8 it falls to the global average of the patterns (overlap ≈ 0), which Ramsauer et
     // al. describe as the metastable state of small β.
     const p = pointParams({ neurons: 64, patterns: 200, rule: { kind: 'modern-softmax', beta: 32 }, cue: { kind: 'flip', fraction: 0.1 }, measures: { overlapTrajectory: true, energyTrajectory: true, stability: true }, trialsPerNetwork: 10 })
