@@ -3,7 +3,9 @@ import fc from 'fast-check'
 import { buildNetwork, createPointRunner, createScratch, Xoshiro256StarStar, type PointParams } from '../../../src/engine/index.js'
 import { runDynamics } from '../../../src/engine/dynamics/run.js'
 import { DenseMemoryNetwork, type Interaction } from '../../../src/engine/network/dense-memory.js'
-import { denseCrosstalkErrorGaussian, exponentialCapacityExponent } from '../../../src/engine/theory/index.js'
+import erfc from '@stdlib/math-base-special-erfc'
+import { denseCrosstalkErrorGaussian, exponentialCapacityExponent, oddDoubleFactorial } from '../../../src/engine/theory/index.js'
+import { bisect } from '../../../src/engine/theory/bisect.js'
 import { mean, pointParams, sampleSd } from '../../helpers/point.js'
 
 const quiet = { overlapTrajectory: false, energyTrajectory: false, stability: false }
@@ -126,6 +128,23 @@ describe('dense associative memories (Krotov & Hopfield 2016; Demircigil et al. 
     expect(Math.abs(large / target - 1)).toBeLessThan(0.3)
     const linear = mean(unstableFractions(100, 200, 3, 6, 33))
     expect(linear).toBeLessThan(small / 10)
+  })
+
+  it('n = 3 vs n = 2: the load giving the same one-step error grows by N/3 (ratio test)', () => {
+    // K_max ∝ N^{n−1}/(2n − 3)!! (Krotov & Hopfield 2016, constant recalled from memory;
+    // CHECK_VALUES §6 says to test ratios): the Gaussian law makes K₃/K₂ = N/3 at equal error.
+    // Each measured error is turned into the K the Gaussian law would need for it; at N = 100
+    // the two tails deviate in opposite directions (lighter for n = 2, heavier for n = 3), and
+    // K moves only as ≈ 0.26·ln p near p ≈ 5e-3, so the effective ratio must lie within ±30 %
+    // of N/3 = 33.3. A capacity growing like N for both would give a ratio near 3.
+    const n = 100
+    const effectiveK = (rate: number, degree: number): number => {
+      const x = bisect((y) => 0.5 * erfc(y) - rate, 0.1, 6)
+      return n ** (degree - 1) / (2 * oddDoubleFactorial(degree) * x * x)
+    }
+    const k2 = effectiveK(mean(unstableFractions(n, 15, 2, 40, 41)), 2)
+    const k3 = effectiveK(mean(unstableFractions(n, 500, 3, 6, 42)), 3)
+    expect(Math.abs(k3 / k2 / (n / 3) - 1)).toBeLessThan(0.3)
   })
 
   it('eˣ stores 2000 patterns in 32 neurons and retrieves them from a 10 % cue', () => {
