@@ -81,8 +81,9 @@ describe('embedded queue: close while a chunk runs', () => {
 
     const second = await openQueue(data.dir, { threads: 1 })
     try {
+      // Kept active in storage and resumed at once: on a fast machine it may already have finished.
       const resumed = await second.get(sweep.id)
-      expect(resumed?.status).toBe('running')
+      expect(['running', 'succeeded']).toContain(resumed?.status)
       expect((await waitForTerminal(second, sweep.id)).status).toBe('succeeded')
     } finally {
       await second.close()
