@@ -32,7 +32,7 @@ describe('embedded queue: cancel', () => {
     expect((await waitForTerminal(queue, next.id)).status).toBe('succeeded')
     const after = await queue.get(long.id)
     expect(after?.status).toBe('canceled')
-    expect(after?.progress.chunksDone).toBe(0)
+    expect(after?.progress.chunksDone).toBeLessThan(after!.progress.chunksTotal)
     expect(await queue.results(long.id)).toBeNull()
   })
 

@@ -41,7 +41,8 @@ export function corridorSweepSpec (overrides: Record<string, unknown> = {}): Nor
 
 /** One chunk of several seconds: a sweep that is surely still running a moment after it starts. */
 export function longChunkSpec (overrides: Record<string, unknown> = {}): NormalisedSpec {
-  return normaliseSpec({ label: 'hippocampal archive', neurons: 500, load: 0.1, trials: 3000, seed: 99, ...overrides })
+  // Long enough that cancels and closes land while it runs, even with the engine's fast paths.
+  return normaliseSpec({ label: 'hippocampal archive', neurons: 500, load: 0.1, trials: 40000, seed: 99, ...overrides })
 }
 
 /** Resolves with the first record (current state included) that satisfies `predicate`. */
