@@ -602,6 +602,48 @@ function shuffle (): string {
 }
 
 /**
+ * The cue's choice of `count` distinct neurons out of n (n ≥ 1): idx = identity, then a partial
+ * Fisher–Yates pass, for k = 0 .. count−1, j = k + below(n − k), swap idx[k], idx[j] — the plain loop of
+ * dynamics/cue.ts, drawn from the xoshiro256** state at `state` (as "shuffle"). A cold
+ * JavaScript process spends most of a short trial's cue in the interpreter's 64-bit draws;
+ * here each draw is a few native instructions from the first call on.
+ */
+function partialShuffle (): string {
+  return `
+  (func (export "partialShuffle") (param $idx i32) (param $n i32) (param $count i32) (param $state i32)
+    (local $s0 i64) (local $s1 i64) (local $s2 i64) (local $s3 i64) (local $t i64) (local $x i64)
+    (local $k i32) (local $j i32) (local $pk i32) (local $pj i32) (local $tmp i32)
+    (loop $identity
+      (i32.store (i32.add (local.get $idx) (i32.shl (local.get $k) (i32.const 2))) (local.get $k))
+      (br_if $identity (i32.lt_u (local.tee $k (i32.add (local.get $k) (i32.const 1))) (local.get $n))))
+    (if (i32.eqz (local.get $count)) (then (return)))
+    (local.set $k (i32.const 0))
+    (local.set $s0 (i64.load (local.get $state)))
+    (local.set $s1 (i64.load offset=8 (local.get $state)))
+    (local.set $s2 (i64.load offset=16 (local.get $state)))
+    (local.set $s3 (i64.load offset=24 (local.get $state)))
+    (loop $draw
+      ${XOSHIRO_NEXT}
+      (local.set $t (i64.extend_i32_u (i32.sub (local.get $n) (local.get $k))))
+      (local.set $j (i32.add (local.get $k) (i32.wrap_i64 (i64.shr_u
+        (i64.add
+          (i64.mul (i64.shr_u (local.get $x) (i64.const 32)) (local.get $t))
+          (i64.shr_u (i64.mul (i64.and (local.get $x) (i64.const 0xffffffff)) (local.get $t)) (i64.const 32)))
+        (i64.const 32)))))
+      (local.set $pk (i32.add (local.get $idx) (i32.shl (local.get $k) (i32.const 2))))
+      (local.set $pj (i32.add (local.get $idx) (i32.shl (local.get $j) (i32.const 2))))
+      (local.set $tmp (i32.load (local.get $pj)))
+      (i32.store (local.get $pj) (i32.load (local.get $pk)))
+      (i32.store (local.get $pk) (local.get $tmp))
+      (br_if $draw (i32.lt_u (local.tee $k (i32.add (local.get $k) (i32.const 1))) (local.get $count))))
+    (i64.store (local.get $state) (local.get $s0))
+    (i64.store offset=8 (local.get $state) (local.get $s1))
+    (i64.store offset=16 (local.get $state) (local.get $s2))
+    (i64.store offset=24 (local.get $state) (local.get $s3))
+    (i64.store offset=32 (local.get $state) (local.get $x)))`
+}
+
+/**
  * `count` uniform doubles in [0, 1) from the xoshiro256** state at `state` (as "shuffle"):
  * the top 53 bits of each output times 2^−53, exactly the engine's `uniform()`.
  */
@@ -956,6 +998,7 @@ ${variant(16)}
 ${variant(32)}
 ${transpose()}
 ${shuffle()}
+${partialShuffle()}
 ${unbiasedRows()}
 ${uniforms()}
 ${runAsync16()}

@@ -29,6 +29,7 @@ export function normalisedOverlaps (net: Network, centre: number, out: Float64Ar
 
 export function targetOverlapOf (net: Network, target: number, centre: number): number {
   const n = net.neurons
+  if (centre === 0 && net.rawOverlapWith !== undefined) return net.rawOverlapWith(target) / n
   const base = target * n
   let raw = 0
   let total = 0

@@ -2,6 +2,7 @@ import type { Cue } from '../params.js'
 import type { RandomSource } from '../random/source.js'
 import { fillUnbiased } from '../patterns/generate.js'
 import { resetIdentity, type Scratch } from './scratch.js'
+import { nativePartialShuffle } from '../kernels/native-random.js'
 
 /**
  * Writes the initial state of a trial into `scratch.initial`.
@@ -17,9 +18,14 @@ export function writeCue (cue: Cue, patterns: Int8Array, n: number, p: number, t
   switch (cue.kind) {
     case 'flip':
     case 'erase': {
-      for (let i = 0; i < n; i++) s[i] = patterns[target * n + i]!
+      s.set(patterns.subarray(target * n, target * n + n))
       const count = Math.round(cue.fraction * n)
       const idx = scratch.indices
+      // Random erase fills draw between the choices, so only they need the interleaved loop.
+      if ((cue.kind === 'flip' || cue.fill === 'zero') && nativePartialShuffle(idx, count, rng)) {
+        for (let k = 0; k < count; k++) s[idx[k]!] = cue.kind === 'flip' ? -s[idx[k]!]! : 0
+        return
+      }
       resetIdentity(idx)
       for (let k = 0; k < count; k++) {
         const j = k + rng.below(n - k)

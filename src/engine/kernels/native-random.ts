@@ -4,7 +4,8 @@ import type { RandomSource } from '../random/source.js'
 
 /**
  * Bulk draws from the engine's own xoshiro256** streams run in WebAssembly on native 64-bit
- * words: the per-sweep Fisher–Yates shuffle, unbiased pattern rows and Glauber's uniforms. A JavaScript draw
+ * words: the per-sweep Fisher–Yates shuffle, the cue's choice of bits, unbiased pattern rows
+ * and Glauber's uniforms. A JavaScript draw
  * costs tens of nanoseconds (64-bit arithmetic on 32-bit halves), a native one about one.
  * The kernel continues the stream from the generator's state and writes the state and the
  * last output back, so the stream and every value drawn are exactly those of the plain
@@ -14,6 +15,7 @@ import type { RandomSource } from '../random/source.js'
 interface RandomExports {
   memory: WasmMemory
   shuffle: (order: number, n: number, state: number) => void
+  partialShuffle: (idx: number, n: number, count: number, state: number) => void
   unbiasedRows: (out: number, n: number, count: number, state: number) => void
   uniforms: (out: number, count: number, state: number) => void
 }
@@ -81,6 +83,28 @@ export function nativeShuffle (order: Int32Array, rng: RandomSource): boolean {
   dataView32.set(order)
   k.shuffle(DATA_AT, n, STATE_AT)
   order.set(dataView32.subarray(0, n))
+  leave(s, rng)
+  return true
+}
+
+/**
+ * Resets `idx` to the identity and moves `count` distinct entries to its front exactly as
+ * the plain partial Fisher–Yates loop of the cue would with `rng` (k < count:
+ * j = k + below(n − k), swap); false if it cannot.
+ */
+export function nativePartialShuffle (idx: Int32Array, count: number, rng: RandomSource): boolean {
+  const s = xoshiroState(rng)
+  if (s === null) return false
+  const n = idx.length
+  if (count === 0) {
+    // Nothing is drawn, so the generator (and its last output) must stay untouched.
+    for (let i = 0; i < n; i++) idx[i] = i
+    return true
+  }
+  const k = enter(s, 4 * n)
+  if (k === null) return false
+  k.partialShuffle(DATA_AT, n, count, STATE_AT)
+  idx.set(dataView32.subarray(0, n))
   leave(s, rng)
   return true
 }

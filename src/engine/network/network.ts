@@ -39,6 +39,11 @@ export interface Network {
   /** Raw overlaps Σ_i ξ_i^μ s_i with every stored pattern, written to out (length P). */
   rawOverlaps (out: Float64Array): void
   /**
+   * Raw overlap Σ_i ξ_i^μ s_i with one pattern, read off in O(1) by representations that
+   * keep the overlaps current; absent elsewhere (the caller sums over the neurons).
+   */
+  rawOverlapWith?: (mu: number) => number
+  /**
    * Whole sweeps run natively by a fast path, or null: the dynamics then use `field`/`set`.
    * Either way the network ends in exactly the same state.
    */

@@ -139,6 +139,8 @@ export class OverlapSpaceNetwork implements Network {
   rawOverlaps (out: Float64Array): void {
     for (let mu = 0; mu < this.patternCount; mu++) out[mu] = this.overlaps[mu]!
   }
+
+  readonly rawOverlapWith = (mu: number): number => this.overlaps[mu]!
 }
 
 function kernelSweeps (kernel: OverlapKernel, state: Int8Array, overlaps: Int32Array): NativeSweeps {

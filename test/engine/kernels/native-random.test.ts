@@ -1,6 +1,6 @@
 import { afterEach, describe, expect, it } from 'vitest'
 import { Xoshiro256StarStar } from '../../../src/engine/index.js'
-import { nativeShuffle, nativeUnbiasedRows, nativeUniforms } from '../../../src/engine/kernels/native-random.js'
+import { nativePartialShuffle, nativeShuffle, nativeUnbiasedRows, nativeUniforms } from '../../../src/engine/kernels/native-random.js'
 import { fillUnbiased } from '../../../src/engine/patterns/generate.js'
 import { setFastPathsEnabled } from '../../../src/engine/kernels/wasm.js'
 
@@ -37,6 +37,29 @@ describe('native xoshiro256** draws continue the JavaScript stream exactly', () 
         jsShuffle(y, b)
       }
       expect(x).toStrictEqual(y)
+      expect(Array.from(a.word)).toStrictEqual(Array.from(b.word))
+      expect(nextWords(a)).toStrictEqual(nextWords(b))
+    }
+  })
+
+  it('chooses cue bits like the partial Fisher–Yates loop, from any previous contents, leaving the same state', () => {
+    for (const [n, count] of [[1, 0], [1, 1], [10, 10], [1000, 100], [4097, 409], [5, 0]] as const) {
+      const a = Xoshiro256StarStar.fromSeed(BigInt(7 * n + count))
+      const b = Xoshiro256StarStar.fromSeed(BigInt(7 * n + count))
+      // Stale contents from an earlier trial: the kernel starts from the identity, as the loop does.
+      const x = Int32Array.from({ length: n }, (_, i) => n - 1 - i)
+      const y = new Int32Array(n)
+      for (let trial = 0; trial < 3; trial++) {
+        expect(nativePartialShuffle(x, count, a)).toBe(true)
+        for (let i = 0; i < n; i++) y[i] = i
+        for (let k = 0; k < count; k++) {
+          const j = k + b.below(n - k)
+          const t = y[j]!
+          y[j] = y[k]!
+          y[k] = t
+        }
+        expect(x).toStrictEqual(y)
+      }
       expect(Array.from(a.word)).toStrictEqual(Array.from(b.word))
       expect(nextWords(a)).toStrictEqual(nextWords(b))
     }
