@@ -1,4 +1,5 @@
 import { median, type Run } from './measure.js'
+import type { MemoryMeasurement } from './memory.js'
 
 /** Everything the report needs besides the runs. */
 export interface Context {
@@ -175,8 +176,9 @@ function denseSection (runs: Run[]): string[] {
 }
 
 interface ScalingSide { one: number, two: number, speedup: number, identical: boolean, runs: { one: number[], two: number[] } }
+interface PairCeiling { alone: number, together: number, ceiling: number }
 /** What bench/scaling.ts prints. */
-export interface ScalingReport { trialsPerLoad: number, reps: number, notes: string[], embedded?: ScalingSide, redis?: ScalingSide }
+export interface ScalingReport { trialsPerLoad: number, reps: number, ceilingTrialsPerLoad?: number, notes: string[], embedded?: ScalingSide, redis?: ScalingSide, ceilingC?: PairCeiling, ceilingEngine?: PairCeiling }
 
 function scalingSection (scaling: ScalingReport | null): string[] {
   const out = ['## Multi-core scaling', '']
@@ -195,12 +197,61 @@ function scalingSection (scaling: ScalingReport | null): string[] {
     row('embedded (compute threads)', scaling.embedded, '1 vs 2 threads'),
     row('Redis (worker processes, one chunk at a time each)', scaling.redis, '1 vs 2 workers, and vs embedded'),
     ...scaling.notes.map((n) => `- Note: ${n}`),
+    '',
+    ...ceilingSection(scaling),
     ''
   ]
 }
 
-export function renderReport (runs: Run[], extra: { scale: Run | null, baseline: Run[], scaling: ScalingReport | null, ctx: Context }): string {
-  const { ctx, scale, baseline, scaling } = extra
+/** What a second core adds on this machine at all: the same curve by one process, then by two at once. */
+function ceilingSection (scaling: ScalingReport): string[] {
+  const rows: string[] = []
+  const add = (name: string, c: PairCeiling | undefined): void => {
+    if (c !== undefined) rows.push(`| ${name} | ${c.alone.toFixed(3)} s | ${c.together.toFixed(3)} s | ${c.ceiling.toFixed(2)}× |`)
+  }
+  add('C reference (`ovl`, -O3 -march=native)', scaling.ceilingC)
+  add('memsweep engine without the service (bench/workload.ts W2)', scaling.ceilingEngine)
+  if (rows.length === 0) return []
+  const best = Math.max(scaling.ceilingC?.ceiling ?? 0, scaling.ceilingEngine?.ceiling ?? 0)
+  const share = (side: ScalingSide | undefined): string => side === undefined ? 'not measured' : `${side.speedup.toFixed(2)}× = ${(100 * side.speedup / best).toFixed(0)} %`
+  return [
+    '### The machine\'s two-core ceiling, measured in the same run',
+    '',
+    `The same W2 curve (${scaling.ceilingTrialsPerLoad ?? '?'} trials per load) run by one process alone, then by two processes at once (median of each`,
+    `process's own curve time over ${scaling.reps} repeats). Two processes deliver 2·t_alone / t_together times the throughput of one: no`,
+    'program can gain more from the second core of this machine on this work. A ceiling well below 2× means the two vCPUs share',
+    'the execution units or caches of one physical core.',
+    '',
+    '| program | alone | each of two at once | throughput of two ÷ one |',
+    '|---|---|---|---|',
+    ...rows,
+    '',
+    `Service speed-up as a share of the higher ceiling (${best.toFixed(2)}×): embedded ${share(scaling.embedded)}, Redis ${share(scaling.redis)}.`
+  ]
+}
+
+/** What bench/memory.ts prints per case. */
+function memoryEstimateSection (memory: MemoryMeasurement[] | null): string[] {
+  const out = ['## Memory estimate against measured peak', '']
+  if (memory === null) return [...out, 'Not run (SKIP_MEMORY set, or the run failed: see the notes above).', '']
+  const mb = (b: number): string => `${(b / 1e6).toFixed(1)} MB`
+  return [
+    ...out,
+    'Each case runs its first grid point in a compute thread of a fresh process, after a toy-sized sweep of the same model has',
+    'loaded and compiled the engine; the main thread samples the resident set every millisecond. Measured = highest sample minus',
+    'the resident set just before the point; estimate = the validator\'s `peakBytes` for the same spec (what the memory limit is',
+    'checked against). Target: within 25 %. Compute threads collect explicitly before building a network of 32 MiB or more',
+    '(src/runtime/reclaim.ts), so a point holds one network at a time.',
+    '',
+    '| case | representation | estimate | measured peak | measured ÷ estimate | point run time |',
+    '|---|---|---|---|---|---|',
+    ...memory.map((m) => `| ${m.name} | ${m.representation} | ${mb(m.estimateBytes)} | ${mb(m.measuredBytes)} | ${m.ratio.toFixed(2)} (${Math.abs(m.ratio - 1) <= 0.25 ? 'met' : 'missed'}) | ${m.seconds.toFixed(1)} s |`),
+    ''
+  ]
+}
+
+export function renderReport (runs: Run[], extra: { scale: Run | null, baseline: Run[], scaling: ScalingReport | null, memory: MemoryMeasurement[] | null, ctx: Context }): string {
+  const { ctx, scale, baseline, scaling, memory } = extra
   const baselineKb = baseline.length > 0 ? median(baseline.map((r) => r.maxrss_kb)) : Number.NaN
   const w3 = runs.filter((r) => r.workload === 'W3' && r.label === 'memsweep' && r.variant === 'fast')
   const out: string[] = [
@@ -264,6 +315,6 @@ export function renderReport (runs: Run[], extra: { scale: Run | null, baseline:
       `- Representation ${(Number(scale.representation_bytes) / 1e6).toFixed(0)} MB; peak RSS ${mib(scale.maxrss_kb)}; process wall time ${(scale.proc_wall_s).toFixed(1)} s.`
     )
   }
-  out.push('', ...scalingSection(scaling))
+  out.push('', ...memoryEstimateSection(memory), ...scalingSection(scaling))
   return out.join('\n')
 }

@@ -1,12 +1,13 @@
 /**
  * `npm run bench`: times the standard workloads W1–W4 on the engine (fresh processes, medians),
  * runs the numpy and C peers from a temporary copy of ../shared/bench in the same invocation
- * when their toolchains exist, adds the N = 100,000 scale run and the memory report, and
- * writes bench/RESULTS.md.
+ * when their toolchains exist, adds the N = 100,000 scale run, the multi-core scaling with the
+ * machine's two-process ceiling, the memory estimate check and the memory report, and writes
+ * bench/RESULTS.md.
  *
  * Environment: ENGINE_REPS (5), PLAIN_REPS (3), C_REPS (5), NP_REPS (3), WARM_REPEATS (5),
  * DENSE_REPS (3), PEERS_DIR (../shared/bench), SKIP_PEERS, SKIP_PLAIN, SKIP_DENSE, SKIP_SCALE,
- * SKIP_SCALING, TRIALS and REPS (for bench/scaling.ts), RESULTS (bench/RESULTS.md).
+ * SKIP_SCALING, SKIP_MEMORY, TRIALS, REPS and CEILING_TRIALS (for bench/scaling.ts), RESULTS (bench/RESULTS.md).
  */
 import { cpus, freemem, loadavg, totalmem } from 'node:os'
 import { readFileSync, rmSync, writeFileSync } from 'node:fs'
@@ -16,6 +17,7 @@ import { measure, median, type Run } from './measure.js'
 import { preparePeers } from './peers.js'
 import { renderReport, timeOf, type Context, type ScalingReport } from './report.js'
 import { spawnSync } from 'node:child_process'
+import type { MemoryMeasurement } from './memory.js'
 
 const here = dirname(fileURLToPath(import.meta.url))
 const root = resolve(here, '..')
@@ -73,17 +75,28 @@ if (!env.SKIP_SCALE) {
   process.stderr.write('[bench] scale run: N = 100000, P = 5000\n')
   scale = measure('memsweep', engine('SCALE', 'fast'))
 }
-if (peers?.dir) rmSync(dirname(peers.dir), { recursive: true, force: true })
-
 let scaling: ScalingReport | null = null
 if (!env.SKIP_SCALING) {
-  process.stderr.write('[bench] multi-core scaling: W2 curve through the embedded and Redis backends, 1 and 2 cores\n')
-  const out = spawnSync(process.execPath, ['--import', 'tsx', join(here, 'scaling.ts')], { cwd: root, encoding: 'utf8', env: { ...env } })
+  process.stderr.write('[bench] multi-core scaling: W2 curve through the embedded and Redis backends, 1 and 2 cores, and the two-process ceiling\n')
+  const out = spawnSync(process.execPath, ['--import', 'tsx', join(here, 'scaling.ts')], { cwd: root, encoding: 'utf8', env: { ...env, ...(peers?.cBinary ? { C_PEER: peers.cBinary } : {}) } })
   const line = out.stdout.trim().split('\n').at(-1) ?? ''
   try {
     scaling = JSON.parse(line) as ScalingReport
   } catch {
     notes.push(`multi-core scaling run failed: ${out.stderr.trim().split('\n').at(-1) ?? `exit ${String(out.status)}`}`)
+  }
+}
+
+if (peers?.dir) rmSync(dirname(peers.dir), { recursive: true, force: true })
+
+let memory: MemoryMeasurement[] | null = null
+if (!env.SKIP_MEMORY) {
+  process.stderr.write('[bench] memory: estimate against measured peak, one fresh process per case\n')
+  const out = spawnSync(process.execPath, ['--import', 'tsx', join(here, 'memory.ts')], { cwd: root, encoding: 'utf8', env: { ...env }, maxBuffer: 1 << 22 })
+  try {
+    memory = JSON.parse(out.stdout.trim().split('\n').at(-1) ?? '') as MemoryMeasurement[]
+  } catch {
+    notes.push(`memory estimate run failed: ${out.stderr.trim().split('\n').at(-1) ?? `exit ${String(out.status)}`}`)
   }
 }
 
@@ -104,7 +117,7 @@ const ctx: Context = {
   seconds: (Date.now() - started) / 1000
 }
 const target = resolve(env.RESULTS ?? join(here, 'RESULTS.md'))
-writeFileSync(target, renderReport(runs, { scale, baseline, scaling, ctx }))
+writeFileSync(target, renderReport(runs, { scale, baseline, scaling, memory, ctx }))
 process.stderr.write(`[bench] wrote ${target} in ${ctx.seconds.toFixed(0)} s\n`)
 for (const w of ['W1', 'W2', 'W3', 'W4']) {
   const ours = runs.filter((r) => r.workload === w && r.label === 'memsweep' && r.variant === 'fast')

@@ -5,12 +5,21 @@
  *   - the embedded backend with 1 and with 2 compute threads, and
  *   - the Redis backend with 1 and with 2 worker processes (one chunk at a time each),
  * timing submit → succeeded after a warm-up sweep (threads and sandboxes load the engine
- * first). Every run's result must be byte-identical. Prints one JSON line.
+ * first). Every run's result must be byte-identical.
  *
- * Environment: TRIALS (500), REPS (3, median), REDIS_URL (redis://127.0.0.1:6379; the Redis
- * part is skipped with a note when it does not answer).
+ * The machine's own ceiling is measured beside it: the same curve run by one process alone
+ * and by two processes at once, for the C reference (`ovl`, when C_PEER names its binary)
+ * and for the engine without the service (bench/workload.ts W2). Two processes at once give
+ * a throughput of 2·t_alone / t_together times one; what a second core can add on this
+ * machine is bounded by that, whatever the software. Prints one JSON line.
+ *
+ * Environment: TRIALS (2000), REPS (3, median), REDIS_URL (redis://127.0.0.1:6379; the Redis
+ * part is skipped with a note when it does not answer), C_PEER (path of the built C peer),
+ * CEILING_TRIALS (400: trials per load of the ceiling runs).
  */
+import { spawn } from 'node:child_process'
 import { mkdtempSync, rmSync } from 'node:fs'
+import { fileURLToPath } from 'node:url'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { randomUUID } from 'node:crypto'
@@ -23,7 +32,8 @@ import { createRedisQueue } from '../src/backends/redis/index.js'
 import { spawnWorker, stopWorker } from '../test/integration/worker-processes.js'
 import { median } from './measure.js'
 
-const TRIALS = Number(process.env.TRIALS ?? 500)
+const TRIALS = Number(process.env.TRIALS ?? 2000)
+const CEILING_TRIALS = Number(process.env.CEILING_TRIALS ?? 400)
 const REPS = Number(process.env.REPS ?? 3)
 const REDIS_URL = process.env.REDIS_URL ?? 'redis://127.0.0.1:6379'
 const logger = pino({ level: 'silent' })
@@ -106,7 +116,36 @@ async function redis (workers: number): Promise<{ seconds: number[], bytes: stri
   }
 }
 
-const report: Record<string, unknown> = { trialsPerLoad: TRIALS, reps: REPS, notes: [] as string[] }
+/** Runs `command` and returns the time the process reports for the whole curve (total_s). */
+async function curveSeconds (command: string[], env: NodeJS.ProcessEnv): Promise<number> {
+  const child = spawn(command[0]!, command.slice(1), { env, stdio: ['ignore', 'pipe', 'inherit'] })
+  let out = ''
+  child.stdout.on('data', (chunk: Buffer) => { out += chunk.toString() })
+  const code = await new Promise<number | null>((resolve) => child.on('close', resolve))
+  if (code !== 0) throw new Error(`${command.join(' ')} exited with ${String(code)}`)
+  return (JSON.parse(out.trim().split('\n').at(-1)!) as { total_s: number }).total_s
+}
+
+/** Throughput of two simultaneous runs relative to one: 2·median(alone) / median(together). */
+async function pairCeiling (command: string[], env: NodeJS.ProcessEnv): Promise<{ alone: number, together: number, ceiling: number }> {
+  const alone: number[] = []
+  const together: number[] = []
+  for (let rep = 0; rep < REPS; rep++) {
+    alone.push(await curveSeconds(command, env))
+    const pair = await Promise.all([curveSeconds(command, env), curveSeconds(command, env)])
+    together.push(...pair)
+  }
+  return { alone: median(alone), together: median(together), ceiling: 2 * median(alone) / median(together) }
+}
+
+const report: Record<string, unknown> = { trialsPerLoad: TRIALS, reps: REPS, ceilingTrialsPerLoad: CEILING_TRIALS, notes: [] as string[] }
+const workloadScript = fileURLToPath(new URL('./workload.ts', import.meta.url))
+report.ceilingEngine = await pairCeiling([process.execPath, '--import', 'tsx', workloadScript, 'W2', 'fast', '1', '0'], { ...process.env, TRIALS_PER_LOAD: String(CEILING_TRIALS) })
+if (process.env.C_PEER !== undefined) {
+  report.ceilingC = await pairCeiling([process.env.C_PEER, 'W2', 'ovl', '1', String(CEILING_TRIALS)], process.env)
+} else {
+  (report.notes as string[]).push('C_PEER not set: the C reference\'s two-process ceiling was not measured')
+}
 const e1 = await embedded(1)
 const e2 = await embedded(2)
 report.embedded = { one: median(e1.seconds), two: median(e2.seconds), speedup: median(e1.seconds) / median(e2.seconds), identical: e1.bytes === e2.bytes, runs: { one: e1.seconds, two: e2.seconds } }

@@ -21,7 +21,7 @@ export function estimatePointCost (p: PointParams): PointCost {
   const count = p.patterns
   const representation = chooseRepresentation(p)
   const patternBytes = n * count
-  const scratchBytes = n * (4 + 4 + 1 + 1 + 1 + 8) + 8 * count
+  const scratchBytes = n * (4 + 4 + 1 + 1 + 1 + 8) + 8 * count + generationBytes(p)
   const thermal = p.dynamics.temperature > 0
   const sweeps = thermal ? p.dynamics.maxSweeps : Math.min(p.dynamics.maxSweeps, 10)
   const neuronUpdatesPerTrial = sweeps * n
@@ -35,13 +35,11 @@ export function estimatePointCost (p: PointParams): PointCost {
   }
   const model = modelCost(p, representation, patternBytes + scratchBytes, neuronUpdatesPerTrial)
   if (model !== null) return model
-  const asymmetric = p.dilution !== null && p.dilution.kind !== 'fixed-in-degree' && !p.dilution.symmetric
-  let matrices = asymmetric ? 2 : 1
   let buildOps = n * n * count
   if (p.rule.kind === 'pseudo-inverse') buildOps += n * count * count + count * count * count
-  if (p.rule.kind === 'storkey') { matrices += 1; buildOps *= 2 }
+  if (p.rule.kind === 'storkey') buildOps *= 2
   return {
-    bytes: 8 * n * n * matrices + patternBytes + scratchBytes + (p.rule.kind === 'pseudo-inverse' ? 8 * count * (n + count) : 0),
+    bytes: denseBuildPeakBytes(p) + patternBytes + scratchBytes,
     neuronUpdatesPerTrial,
     buildOpsPerNetwork: buildOps,
     // A visit reads one field; a change (a fraction of visits) adds a column of N.
@@ -69,4 +67,28 @@ function modelCost (p: PointParams, representation: Representation, baseBytes: n
     default:
       return null
   }
+}
+
+/** Workspace of the native pattern generator: rows are drawn in blocks of at most 4 MiB. */
+function generationBytes (p: PointParams): number {
+  return Math.min(p.neurons * p.patterns, 4 * 1024 * 1024)
+}
+
+/**
+ * Peak bytes of a coupling matrix while the network is built, as measured (bench/memory.ts):
+ * the rule's float64 matrices (Storkey keeps two) and its temporaries are still resident
+ * when the fast path copies the couplings into its own memory, float64 columns or, for
+ * integer couplings, int16 columns padded to a multiple of 8. The rule's arrays become
+ * garbage after the build, but they are counted: the peak is what the limit must cover.
+ */
+function denseBuildPeakBytes (p: PointParams): number {
+  const n = p.neurons
+  const count = p.patterns
+  const matrix = 8 * n * n
+  let bytes = p.rule.kind === 'storkey' ? 2 * matrix : matrix
+  if (p.rule.kind === 'pseudo-inverse') bytes += 8 * (count * n + 2 * count * count)
+  if (p.rule.kind === 'covariance') bytes += 8 * count * n
+  const keep = p.dilution !== null && p.dilution.kind !== 'fixed-in-degree' ? p.dilution.keep : 1
+  const integer = (p.rule.kind === 'hebbian' || p.rule.kind === 'clipped') && Number.isInteger(1 / keep) && count < 32767
+  return bytes + (integer ? 2 * n * ((n + 7) & ~7) : matrix)
 }

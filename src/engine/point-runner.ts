@@ -7,6 +7,7 @@ import { createScratch } from './dynamics/scratch.js'
 import { runTrialOn } from './trial.js'
 import { measureStability } from './measures.js'
 import { checkPointParams } from './check.js'
+import { estimatePointCost } from './cost.js'
 import { generatePatterns } from './patterns/generate.js'
 import { SoftmaxMemory } from './models/softmax/memory.js'
 import { createSoftmaxScratch, runSoftmaxTrial, softmaxStability } from './models/softmax/trial.js'
@@ -21,21 +22,37 @@ export interface PointRunner {
   readonly algorithm: string
 }
 
+export interface PointRunnerOptions {
+  /**
+   * Frees unreachable memory now (a host's explicit garbage collection). Called before each
+   * network of at least RECLAIM_BYTES is built, after the runner has let go of the one
+   * before: without it, networks no longer in use wait for the collector and a point's peak
+   * holds several of them instead of the one the memory estimate counts.
+   */
+  reclaim?: () => void
+}
+
+/** Networks estimated at this size or more are built only after `reclaim` (a full collection costs milliseconds; building them costs more). */
+export const RECLAIM_BYTES = 32 * 1024 * 1024
+
 /**
  * Runs the trials of one grid point. Trial t uses network ⌊t / trialsPerNetwork⌋, built
  * from the stream (seed, 'network', point, network), and draws its cue and dynamics from
  * (seed, 'trial', point, t); its target is pattern t mod P. Nothing depends on which
  * other trials ran before, so any subset of trials re-runs identically.
  */
-export function createPointRunner (p: PointParams, masterSeed: number, pointIndex: number): PointRunner {
+export function createPointRunner (p: PointParams, masterSeed: number, pointIndex: number, options: PointRunnerOptions = {}): PointRunner {
   checkPointParams(p)
-  if (p.rule.kind === 'modern-softmax') return createSoftmaxRunner(p, p.rule.beta, masterSeed, pointIndex)
+  const reclaim = options.reclaim !== undefined && estimatePointCost(p).bytes >= RECLAIM_BYTES ? options.reclaim : () => {}
+  if (p.rule.kind === 'modern-softmax') return createSoftmaxRunner(p, p.rule.beta, masterSeed, pointIndex, reclaim)
   const scratch = createScratch(p.neurons, p.patterns)
   let cachedIndex = -1
   let cached: Network | null = null
   const networkFor = (index: number): Network => {
     if (cached === null || cachedIndex !== index) {
       const rng = openStream(masterSeed, 'network', pointIndex, index)
+      cached = null
+      reclaim()
       cached = buildNetwork(p, rng)
       cachedIndex = index
     }
@@ -62,12 +79,14 @@ export function createPointRunner (p: PointParams, masterSeed: number, pointInde
  * The modern softmax network's runner: the same streams, network sharing and targets as
  * above; a "network" is the stored pattern set, drawn from the network stream.
  */
-function createSoftmaxRunner (p: PointParams, beta: number, masterSeed: number, pointIndex: number): PointRunner {
+function createSoftmaxRunner (p: PointParams, beta: number, masterSeed: number, pointIndex: number, reclaim: () => void): PointRunner {
   const scratch = createSoftmaxScratch(p.neurons, p.patterns)
   let cachedIndex = -1
   let cached: SoftmaxMemory | null = null
   const memoryFor = (index: number): SoftmaxMemory => {
     if (cached === null || cachedIndex !== index) {
+      cached = null
+      reclaim()
       cached = new SoftmaxMemory(generatePatterns(p, openStream(masterSeed, 'network', pointIndex, index)), p.neurons, p.patterns, beta)
       cachedIndex = index
     }

@@ -35,6 +35,8 @@ export interface RunChunkOptions {
   shouldStop?: () => boolean
   /** Called after every trial with the number of the chunk's trials done so far. */
   onTrial?: (trialsDoneInChunk: number) => void
+  /** Explicit garbage collection, offered to the engine before it builds a large network (PointRunnerOptions.reclaim). */
+  reclaim?: () => void
 }
 
 // MAIN //
@@ -81,7 +83,7 @@ export function runChunk (spec: NormalisedSpec, chunk: Chunk, opts: RunChunkOpti
     throw new RangeError(`invalid argument. Chunk ${JSON.stringify(chunk)} does not fit a grid of ${points} points × ${spec.trials} trials.`)
   }
   const { params } = pointAt(spec, chunk.point)
-  const runner = createPointRunner(params, spec.seed, chunk.point)
+  const runner = createPointRunner(params, spec.seed, chunk.point, { reclaim: opts.reclaim })
   const trials: TrialRecord[] = []
   for (let k = 0; k < chunk.count; k++) {
     if (opts.shouldStop?.() === true) throw new ChunkCanceledError(chunk.index, k)

@@ -23,6 +23,10 @@ import { publishStop, publishSweepEvent } from '../backends/redis/events.js'
 import { keyLayout, type KeyLayout } from '../backends/redis/keys.js'
 import { RedisSweepStore } from '../backends/redis/store.js'
 import { StopBoardReader } from './stop-board.js'
+import { compileKernelsOptimised } from '../runtime/kernel-compilation.js'
+import { explicitCollector } from '../runtime/reclaim.js'
+
+compileKernelsOptimised()
 
 /** What the worker process hands every sandbox thread (BullMQ's `workerThreadsOptions.workerData`). */
 export interface SandboxSettings {
@@ -108,6 +112,7 @@ async function runChunkJob (context: SandboxContext, job: SandboxedJob<ChunkJobD
   try {
     const spec = loadSpec(sweepId, job.data.specHash, view.specHash, view.specJson)
     result = runChunk(spec, chunk, {
+      reclaim: explicitCollector(),
       // Called between trials while this thread's event loop is blocked: only shared memory can answer.
       shouldStop: () => board.isStopped(sweepId) || board.handBackRequested() || signal?.aborted === true,
       onTrial: (trialsDone) => {

@@ -12,6 +12,10 @@ import type { ChunkResult } from '../../spec/index.js'
 import type { AssembleTask, ChunkTask, ChunkTaskOutcome, RunChunkTask } from './chunk-task.js'
 import { classifyChunkError } from './failure.js'
 import { decodeValue, encodeValue, CODEC_NAME } from './trial-codec.js'
+import { compileKernelsOptimised } from '../../runtime/kernel-compilation.js'
+import { explicitCollector } from '../../runtime/reclaim.js'
+
+compileKernelsOptimised()
 
 export default function handleChunkTask (task: ChunkTask): ChunkTaskOutcome {
   switch (task.kind) {
@@ -28,6 +32,7 @@ function runOneChunk (task: RunChunkTask): ChunkTaskOutcome {
   try {
     if (Atomics.load(stop, 0) !== 0) return { kind: 'stopped' }
     const result = runChunk(task.spec, task.chunk, {
+      reclaim: explicitCollector(),
       shouldStop: () => Atomics.load(stop, 0) !== 0,
       onTrial: trialsDone => {
         const now = performance.now()

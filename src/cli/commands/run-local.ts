@@ -17,6 +17,8 @@ import { CliError, EXIT, say, type CliIo } from '../io.js'
 import { createProgressReporter, type ProgressReporter } from '../progress.js'
 import { outputFormat, readSpecFile } from '../spec-file.js'
 import { writeFileAtomically } from '../write-file.js'
+import { compileKernelsOptimised } from '../../runtime/kernel-compilation.js'
+import { explicitCollector } from '../../runtime/reclaim.js'
 
 export interface RunLocalOptions {
   output: string
@@ -57,6 +59,7 @@ export async function runLocal (io: CliIo, specPath: string, options: RunLocalOp
 }
 
 async function runInProcess (spec: NormalisedSpec, progress: ProgressReporter, signal: AbortSignal | undefined): Promise<SweepResult> {
+  compileKernelsOptimised()
   const chunks = planChunks(spec)
   const perPoint = new Map<number, number>()
   const pointsTotal = new Set(chunks.map((c) => c.point)).size
@@ -69,7 +72,7 @@ async function runInProcess (spec: NormalisedSpec, progress: ProgressReporter, s
   progress.update({ trialsDone, trialsTotal, pointsDone, pointsTotal })
   for (const chunk of chunks) {
     if (signal?.aborted === true) throw new CliError('Interrupted.', EXIT.sweepFailed)
-    results.push(runChunk(spec, chunk, { shouldStop: () => signal?.aborted === true }))
+    results.push(runChunk(spec, chunk, { shouldStop: () => signal?.aborted === true, reclaim: explicitCollector() }))
     trialsDone += chunk.count
     const pointTrials = (perPoint.get(chunk.point) ?? 0) + chunk.count
     perPoint.set(chunk.point, pointTrials)

@@ -44,7 +44,7 @@ export function runDynamics (net: Network, dynamics: Dynamics, rng: RandomSource
   let ending: Ending = thermal ? 'sampled' : 'max'
   let sweeps = 0
   const order = scratch.order
-  resetIdentity(order)
+  if (dynamics.update !== 'sync') resetIdentity(order)
   // Without trajectories a zero-temperature trial observes nothing between sweeps, so a fast
   // path may run it whole in one call.
   if (!thermal && overlapTrajectory === null && energyTrajectory === null && net.native !== null) {

@@ -58,7 +58,7 @@ export function runSearchChunk (spec: NormalisedSpec, analysis: NormalisedAnalys
   let done = 0
   const evaluate = (value: number, step: number): StepObservation => {
     const params = withParameter(base, analysis.parameter, value)
-    const runner = createPointRunner(params, spec.seed, searchStreamPoint(chunk.point, step))
+    const runner = createPointRunner(params, spec.seed, searchStreamPoint(chunk.point, step), { reclaim: opts.reclaim })
     const records: TrialRecord[] = []
     for (let t = 0; t < spec.trials; t++) {
       if (opts.shouldStop?.() === true) throw new ChunkCanceledError(chunk.index, done)

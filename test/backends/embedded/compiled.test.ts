@@ -15,7 +15,7 @@ import { makeDataDir } from './helpers.js'
 
 const repoRoot = fileURLToPath(new URL('../../../', import.meta.url))
 /** The backend and everything it imports; the API, CLI, server and Redis backend are not needed. */
-const SOURCES = ['src/backends/port.ts', 'src/backends/embedded', 'src/backends/shared', 'src/spec', 'src/engine']
+const SOURCES = ['src/backends/port.ts', 'src/backends/embedded', 'src/backends/shared', 'src/spec', 'src/engine', 'src/runtime']
 
 function typeScriptFiles (path: string): string[] {
   const absolute = join(repoRoot, path)
