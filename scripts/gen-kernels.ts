@@ -644,6 +644,83 @@ function partialShuffle (): string {
 }
 
 /**
+ * Initial overlaps by bit counting. For ±1 entries, ξ^μ·s = N − 2·(number of entries where
+ * they differ), and with both packed as sign bits (1 for −1) that count is popcount(ξ^μ XOR s):
+ * N/64 popcounts per pattern instead of N multiply-adds. "packSigns" packs 16 entries per
+ * i8x16.bitmask, zeroes the bits past n (so padding never differs) and reports an entry 0,
+ * an erased cue bit, for which the identity fails and the caller uses the multiply-add
+ * kernel. The patterns are packed once per network ("packRows", pattern-major, `words`
+ * 64-bit words per row); "overlapsBits" packs the state, writes m_μ for μ < p as int16 or
+ * int32 ($wide) and 0 for the padding patterns up to $pp, and returns 0 without writing
+ * anything when the state holds a 0.
+ */
+function signBits (): string {
+  const store = (value: string): string => `(if (local.get $wide)
+        (then (i32.store (i32.add (local.get $m) (i32.shl (local.get $mu) (i32.const 2))) ${value}))
+        (else (i32.store16 (i32.add (local.get $m) (i32.shl (local.get $mu) (i32.const 1))) ${value})))`
+  return `
+  (func $packSigns (export "packSigns") (param $src i32) (param $n i32) (param $dst i32) (param $words i32) (result i32)
+    (local $k i32) (local $groups i32) (local $all i32) (local $v v128) (local $zero i32) (local $valid i32)
+    (local.set $groups (i32.shr_u (i32.add (local.get $n) (i32.const 15)) (i32.const 4)))
+    (local.set $all (i32.shl (local.get $words) (i32.const 2)))
+    (block $done
+      (loop $group
+        (br_if $done (i32.ge_u (local.get $k) (local.get $all)))
+        (if (i32.lt_u (local.get $k) (local.get $groups))
+          (then
+            (local.set $v (v128.load (i32.add (local.get $src) (i32.shl (local.get $k) (i32.const 4)))))
+            (local.set $valid (select
+              (i32.const 0xffff)
+              (i32.sub (i32.shl (i32.const 1) (i32.and (local.get $n) (i32.const 15))) (i32.const 1))
+              (i32.or (i32.lt_u (i32.add (local.get $k) (i32.const 1)) (local.get $groups)) (i32.eqz (i32.and (local.get $n) (i32.const 15))))))
+            (local.set $zero (i32.or (local.get $zero) (i32.and (i8x16.bitmask (i8x16.eq (local.get $v) (v128.const i32x4 0 0 0 0))) (local.get $valid))))
+            (i32.store16 (i32.add (local.get $dst) (i32.shl (local.get $k) (i32.const 1))) (i32.and (i8x16.bitmask (local.get $v)) (local.get $valid))))
+          (else (i32.store16 (i32.add (local.get $dst) (i32.shl (local.get $k) (i32.const 1))) (i32.const 0))))
+        (local.set $k (i32.add (local.get $k) (i32.const 1)))
+        (br $group)))
+    (i32.ne (local.get $zero) (i32.const 0)))
+
+  (func (export "packRows") (param $src i32) (param $n i32) (param $rows i32) (param $dst i32) (param $words i32)
+    (local $r i32)
+    (block $done
+      (loop $row
+        (br_if $done (i32.ge_u (local.get $r) (local.get $rows)))
+        (drop (call $packSigns
+          (i32.add (local.get $src) (i32.mul (local.get $r) (local.get $n)))
+          (local.get $n)
+          (i32.add (local.get $dst) (i32.mul (local.get $r) (i32.shl (local.get $words) (i32.const 3))))
+          (local.get $words)))
+        (local.set $r (i32.add (local.get $r) (i32.const 1)))
+        (br $row))))
+
+  (func (export "overlapsBits") (param $bits i32) (param $words i32) (param $s i32) (param $sbits i32) (param $n i32) (param $p i32) (param $pp i32) (param $m i32) (param $wide i32) (result i32)
+    (local $mu i32) (local $w i32) (local $acc i64) (local $row i32)
+    (if (call $packSigns (local.get $s) (local.get $n) (local.get $sbits) (local.get $words)) (then (return (i32.const 0))))
+    (local.set $row (local.get $bits))
+    (block $done
+      (loop $pattern
+        (br_if $done (i32.ge_u (local.get $mu) (local.get $p)))
+        (local.set $acc (i64.const 0))
+        (local.set $w (i32.const 0))
+        (loop $word
+          (local.set $acc (i64.add (local.get $acc) (i64.popcnt (i64.xor
+            (i64.load (i32.add (local.get $row) (i32.shl (local.get $w) (i32.const 3))))
+            (i64.load (i32.add (local.get $sbits) (i32.shl (local.get $w) (i32.const 3))))))))
+          (br_if $word (i32.lt_u (local.tee $w (i32.add (local.get $w) (i32.const 1))) (local.get $words))))
+        ${store('(i32.sub (local.get $n) (i32.shl (i32.wrap_i64 (local.get $acc)) (i32.const 1)))')}
+        (local.set $row (i32.add (local.get $row) (i32.shl (local.get $words) (i32.const 3))))
+        (local.set $mu (i32.add (local.get $mu) (i32.const 1)))
+        (br $pattern)))
+    (block $padded
+      (loop $pad
+        (br_if $padded (i32.ge_u (local.get $mu) (local.get $pp)))
+        ${store('(i32.const 0)')}
+        (local.set $mu (i32.add (local.get $mu) (i32.const 1)))
+        (br $pad)))
+    (i32.const 1))`
+}
+
+/**
  * `count` uniform doubles in [0, 1) from the xoshiro256** state at `state` (as "shuffle"):
  * the top 53 bits of each output times 2^−53, exactly the engine's `uniform()`.
  */
@@ -997,6 +1074,7 @@ export const KERNELS_WAT = `(module
 ${variant(16)}
 ${variant(32)}
 ${transpose()}
+${signBits()}
 ${shuffle()}
 ${partialShuffle()}
 ${unbiasedRows()}

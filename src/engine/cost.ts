@@ -27,7 +27,8 @@ export function estimatePointCost (p: PointParams): PointCost {
   const neuronUpdatesPerTrial = sweeps * n
   if (representation === 'overlap-space') {
     return {
-      bytes: 2 * patternBytes + scratchBytes + 4 * count,
+      // Both pattern layouts, the overlaps and the fast path's sign bits (8·⌈N/64⌉ bytes a pattern).
+      bytes: 2 * patternBytes + 8 * Math.ceil(n / 64) * count + scratchBytes + 4 * count,
       neuronUpdatesPerTrial,
       buildOpsPerNetwork: n * count,
       opsPerVisit: count

@@ -43,6 +43,8 @@ interface OverlapExports {
   runSync16: (xi: number, m: number, s: number, next: number, prev: number, n: number, pp: number, self: number, max: number) => number
   runSync32: (xi: number, m: number, s: number, next: number, prev: number, n: number, pp: number, self: number, max: number) => number
   runAsync16: (xi: number, m: number, s: number, order: number, n: number, pp: number, self: number, state: number, max: number, shuffle: number) => number
+  packRows: (src: number, n: number, rows: number, dst: number, words: number) => void
+  overlapsBits: (bits: number, words: number, s: number, sbits: number, n: number, p: number, pp: number, m: number, wide: number) => number
 }
 
 /**
@@ -99,7 +101,7 @@ export type OverlapKernelName = 'wasm-simd128-overlap-i16' | 'wasm-simd128-overl
  */
 export function overlapKernelName (neurons: number, patterns: number): OverlapKernelName | null {
   if (patterns * (neurons + 1) >= 2 ** 31) return null
-  if (align16(neurons) * align16(patterns) + 16 * neurons + 8 * patterns > 3.5 * 2 ** 30) return null
+  if (align16(neurons) * align16(patterns) + OverlapKernel.signBitBytes(neurons, patterns) + 16 * neurons + 8 * patterns > 3.5 * 2 ** 30) return null
   return neurons <= I16_NEURONS ? 'wasm-simd128-overlap-i16' : 'wasm-simd128-overlap-i32'
 }
 
@@ -127,6 +129,13 @@ export class OverlapKernel {
   private readonly noiseAt: number
   private readonly stageAt: number
   private readonly rngAt: number
+  // Sign bits of the patterns (pattern-major, `words` 64-bit words a row) and of the state:
+  // initial overlaps by popcount (see "overlapsBits" in the generator).
+  private readonly words: number
+  private readonly bitsAt: number
+  private readonly sbitsAt: number
+  /** The packed patterns kept outside a shared workspace, copied in when this network becomes resident (private memories hold the only copy). */
+  private readonly bits: Uint8Array
   private readonly stageRows: number
   private readonly end: number
   private buffer: ArrayBuffer | null = null
@@ -173,7 +182,10 @@ export class OverlapKernel {
     this.orderAt = align16(this.prevAt + n)
     this.noiseAt = align16(this.orderAt + 4 * n)
     this.rngAt = align16(this.noiseAt + 8 * n)
-    this.stageAt = this.rngAt + 48
+    this.words = Math.ceil(n / 64)
+    this.bitsAt = align16(this.rngAt + 48)
+    this.sbitsAt = this.bitsAt + 8 * this.words * p
+    this.stageAt = align16(this.sbitsAt + 8 * this.words)
     // Pattern rows staged for the transposer in chunks of about STAGE_BYTES (multiples of 16
     // rows), so no second pattern-sized buffer stays behind in a private memory.
     this.stageRows = Math.min(pp, Math.max(16, Math.floor(STAGE_BYTES / n / 16) * 16))
@@ -181,6 +193,12 @@ export class OverlapKernel {
     this.isPrivate = ws !== sharedWorkspace
     ws.reserve(this.end)
     this.xi = this.isPrivate ? new Int8Array(ws.k.memory.buffer, 0, n * pp) : new Int8Array(n * pp)
+    this.bits = this.isPrivate ? EMPTY.u8 : new Uint8Array(8 * this.words * p)
+  }
+
+  /** Bytes of the packed sign bits of the patterns. */
+  static signBitBytes (neurons: number, patterns: number): number {
+    return 8 * Math.ceil(neurons / 64) * patterns
   }
 
   /**
@@ -199,16 +217,22 @@ export class OverlapKernel {
       u8.set(new Uint8Array(patterns.buffer, patterns.byteOffset + mu0 * n, rows * n), this.stageAt)
       u8.fill(0, this.stageAt + rows * n, this.stageAt + padded * n + 32)
       this.k.transpose(this.stageAt, n, align16(n), this.xiAt + mu0, this.stride, padded)
+      this.k.packRows(this.stageAt, n, rows, this.bitsAt + 8 * this.words * mu0, this.words)
     }
-    if (!this.isPrivate) this.xi.set(new Int8Array(u8.buffer, this.xiAt, n * this.stride))
+    if (!this.isPrivate) {
+      this.xi.set(new Int8Array(u8.buffer, this.xiAt, n * this.stride))
+      this.bits.set(new Uint8Array(u8.buffer, this.bitsAt, this.bits.length))
+    }
   }
 
-  /** m = Ξᵀ s. */
+  /** m = Ξᵀ s: by popcount for a ±1 state, by multiply-adds when the state holds erased (0) entries. */
   overlaps (state: Int8Array, m: Int32Array): void {
     this.enter()
     this.s8.set(state)
-    const fn = this.wide ? this.k.overlaps32 : this.k.overlaps16
-    fn(this.xiAt, this.mAt, this.sAt, this.n, this.stride)
+    if (this.k.overlapsBits(this.bitsAt, this.words, this.sAt, this.sbitsAt, this.n, this.p, this.stride, this.mAt, this.wide ? 1 : 0) === 0) {
+      const fn = this.wide ? this.k.overlaps32 : this.k.overlaps16
+      fn(this.xiAt, this.mAt, this.sAt, this.n, this.stride)
+    }
     this.leave(state, m, false)
   }
 
@@ -313,7 +337,10 @@ export class OverlapKernel {
       this.rng32 = new Int32Array(buffer, this.rngAt, 10)
     }
     if (ws.residentId !== this.id) {
-      if (!this.isPrivate && copyPatterns) this.u8.set(new Uint8Array(this.xi.buffer, this.xi.byteOffset, this.xi.length), this.xiAt)
+      if (!this.isPrivate && copyPatterns) {
+        this.u8.set(new Uint8Array(this.xi.buffer, this.xi.byteOffset, this.xi.length), this.xiAt)
+        this.u8.set(this.bits, this.bitsAt)
+      }
       ws.residentId = this.id
     }
   }

@@ -52,7 +52,7 @@ export class OverlapSpaceNetwork implements Network {
     }
     this.overlaps = new Int32Array(patternCount)
     this.state = new Int8Array(neurons)
-    this.bytes = patterns.byteLength + this.byNeuron.byteLength + 4 * patternCount + neurons
+    this.bytes = patterns.byteLength + this.byNeuron.byteLength + 4 * patternCount + neurons + (this.kernel === null ? 0 : OverlapKernel.signBitBytes(neurons, patternCount))
     this.native = this.kernel === null ? null : kernelSweeps(this.kernel, this.state, this.overlaps)
   }
 
