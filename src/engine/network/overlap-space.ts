@@ -130,8 +130,10 @@ export class OverlapSpaceNetwork implements Network {
     // Σ_{i≠j} J_ij s_i s_j = (1/N)(Σ_μ m_μ² − P Σ_i s_i²)
     let sumSq = 0
     for (let mu = 0; mu < this.patternCount; mu++) sumSq += this.overlaps[mu]! * this.overlaps[mu]!
-    let active = 0
-    for (let i = 0; i < this.neurons; i++) active += this.state[i]! * this.state[i]!
+    // Σ_i s_i² is N less the erased (0) entries; indexOf finds them natively, so the common
+    // all-±1 state costs no JavaScript loop over the neurons.
+    let active = this.neurons
+    for (let at = this.state.indexOf(0); at !== -1; at = this.state.indexOf(0, at + 1)) active--
     const n = this.neurons
     return -(sumSq - this.patternCount * active) / (2 * n * n)
   }
