@@ -68,6 +68,30 @@ export function planChunks (spec: NormalisedSpec): Chunk[] {
 }
 
 /**
+ * The order in which a sweep's chunks should start: costliest first (estimated work, ties by
+ * index). Chunks of the high-load end of a curve take several times longer than those of
+ * the low end; started last, one of them would run alone on one core at the end of the sweep
+ * while the others idle. Costliest first leaves only short chunks for the end (the
+ * longest-processing-time rule). Results do not depend on the order: every trial draws from
+ * its own stream and the assembly is by chunk index.
+ */
+export function dispatchOrder (spec: NormalisedSpec, chunks: readonly Chunk[]): number[] {
+  const workOfPoint = new Map<number, (trials: number) => number>()
+  const work = chunks.map((chunk) => {
+    let of = workOfPoint.get(chunk.point)
+    if (of === undefined) {
+      const { params } = pointAt(spec, chunk.point)
+      const cost = estimatePointCost(params)
+      of = (trials) => pointOps(cost, trials, params.trialsPerNetwork)
+      workOfPoint.set(chunk.point, of)
+    }
+    // A search chunk's count is its whole trial budget: comparable across searches.
+    return of(chunk.count)
+  })
+  return chunks.map((chunk) => chunk.index).sort((a, b) => (work[b]! - work[a]!) || a - b)
+}
+
+/**
  * Runs one chunk's trials on a single point runner (a search chunk: its whole search).
  *
  * @throws {ChunkCanceledError} when `shouldStop` returns true before a trial.

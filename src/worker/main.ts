@@ -306,7 +306,7 @@ async function enqueueForgotten (store: RedisSweepStore, chunkQueue: ChunkQueue,
       continue
     }
     const spec = JSON.parse(view.specJson) as NormalisedSpec
-    await chunkQueue.enqueueChunks(sweepId, view.specHash, planChunks(spec))
+    await chunkQueue.enqueueChunks(sweepId, view.specHash, spec, planChunks(spec))
     await store.markEnqueued(sweepId)
     logger.warn({ sweepId }, 'enqueued the chunks of a sweep its API instance never finished submitting')
   }

@@ -10,7 +10,7 @@ import type { SweepQueue } from '../../src/backends/port.js'
 import { createRedisQueue } from '../../src/backends/redis/index.js'
 import { CHUNK_QUEUE_NAME, chunkJobId, keyLayout } from '../../src/backends/redis/keys.js'
 import { startWorker, type WorkerProcessOptions } from '../../src/worker/main.js'
-import { normaliseSpec } from '../../src/spec/index.js'
+import { dispatchOrder, normaliseSpec, planChunks } from '../../src/spec/index.js'
 import {
   computeInProcess, corridorSpec, quietLogger, REDIS_URL, redisAvailable, removePrefix, resultBytes, roomCodesSpec,
   testPrefix, waitForTerminal
@@ -87,7 +87,8 @@ describe.runIf(available)('Redis backend: workers', () => {
     expect(done.status).toBe('failed')
     expect(done.error?.kind).toBe('user')
     expect(done.error?.message).toMatch(/successThreshold/)
-    const job = await failedChunkJob(submitted.id, 0)
+    // The first chunk a worker takes is the costliest (dispatchOrder); it is the one that failed.
+    const job = await failedChunkJob(submitted.id, dispatchOrder(spec, planChunks(spec))[0]!)
     expect(job.attemptsMade).toBe(1)
     // The sweep's other chunks never ran: they were removed or skipped once it failed.
     expect(done.progress.chunksDone).toBe(0)

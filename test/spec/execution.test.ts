@@ -1,9 +1,12 @@
 import { describe, expect, it } from 'vitest'
 import fc from 'fast-check'
 import {
-  assembleResult, ChunkCanceledError, IncompleteResultError, makeProvenance, normaliseSpec, planChunks,
+  assembleResult, ChunkCanceledError, dispatchOrder, IncompleteResultError, makeProvenance, normaliseSpec, planChunks,
   resultToCsv, resultToJson, runChunk, type Chunk, type ChunkResult, type NormalisedSpec
 } from '../../src/spec/index.js'
+import { pointAt } from '../../src/spec/grid.js'
+import { pointOps } from '../../src/spec/work.js'
+import { estimatePointCost } from '../../src/engine/index.js'
 
 // Small enough to run in well under a second, varied enough to exercise two axes and
 // networks shared by several trials.
@@ -53,6 +56,25 @@ describe('planChunks', () => {
       expect(mine.at(-1)!.firstTrial + mine.at(-1)!.count).toBe(300)
       for (const c of mine) expect(c.firstTrial % 4).toBe(0)
     }
+  })
+})
+
+describe('dispatchOrder', () => {
+  it('starts the costliest chunks first: a capacity curve from its high-load end, each chunk once', () => {
+    const curve = normaliseSpec({ neurons: 500, load: { from: 0.02, to: 0.24, step: 0.02 }, trials: 2000, seed: 1 })
+    const plan = planChunks(curve)
+    const order = dispatchOrder(curve, plan)
+    expect([...order].sort((a, b) => a - b)).toEqual(plan.map((c) => c.index))
+    // Estimated work per chunk (trials × visits × cost of a visit) never rises along the order.
+    const work = order.map((index) => {
+      const chunk = plan[index]!
+      const params = pointAt(curve, chunk.point).params
+      return pointOps(estimatePointCost(params), chunk.count, params.trialsPerNetwork)
+    })
+    expect(work).toEqual([...work].sort((a, b) => b - a))
+    // The cheapest, last, is the low-load end of the curve.
+    expect(plan[order.at(-1)!]!.point).toBe(0)
+    expect(work[0]! / work.at(-1)!).toBeGreaterThan(3)
   })
 })
 

@@ -4,7 +4,7 @@
  * Rebuilt from storage after a restart: the plan is a pure function of the spec, and the
  * finished chunks are the stored ones.
  */
-import type { Chunk, NormalisedSpec } from '../../spec/index.js'
+import { dispatchOrder, type Chunk, type NormalisedSpec } from '../../spec/index.js'
 
 export class ActiveSweep {
   readonly id: string
@@ -19,8 +19,10 @@ export class ActiveSweep {
   started: boolean
   startedMs: number | null
   assembling = false
-  /** Waiting chunk indices, ascending. */
+  /** Waiting chunk indices, in dispatch order (costliest first: spec/chunks.ts dispatchOrder). */
   readonly #pending: number[]
+  /** Position of each chunk index in the dispatch order. */
+  readonly #rank: Int32Array
   readonly #running = new Map<number, number>()
   readonly #done = new Set<number>()
   readonly #attempts = new Map<number, number>()
@@ -48,7 +50,10 @@ export class ActiveSweep {
       this.#chunksLeftPerPoint.set(chunk.point, (this.#chunksLeftPerPoint.get(chunk.point) ?? 0) + 1)
     }
     for (const index of init.doneIndices) this.#markDone(index)
-    this.#pending = init.plan.map(chunk => chunk.index).filter(index => !this.#done.has(index))
+    const order = dispatchOrder(init.spec, init.plan)
+    this.#rank = new Int32Array(init.plan.length)
+    order.forEach((index, position) => { this.#rank[index] = position })
+    this.#pending = order.filter(index => !this.#done.has(index))
   }
 
   get hasPending (): boolean {
@@ -78,7 +83,7 @@ export class ActiveSweep {
     return total
   }
 
-  /** Takes the lowest waiting chunk and counts an attempt for it. */
+  /** Takes the next waiting chunk in dispatch order and counts an attempt for it. */
   takeNext (): { chunk: Chunk, attempt: number } | undefined {
     const index = this.#pending.shift()
     if (index === undefined) return undefined
@@ -111,7 +116,7 @@ export class ActiveSweep {
   requeue (index: number): void {
     this.#running.delete(index)
     let at = 0
-    while (at < this.#pending.length && (this.#pending[at] as number) < index) at++
+    while (at < this.#pending.length && this.#rank[this.#pending[at] as number]! < this.#rank[index]!) at++
     this.#pending.splice(at, 0, index)
   }
 

@@ -6,7 +6,7 @@
  */
 import { Queue, type JobsOptions } from 'bullmq'
 import type { Redis } from 'ioredis'
-import type { Chunk } from '../../spec/index.js'
+import { dispatchOrder, type Chunk, type NormalisedSpec } from '../../spec/index.js'
 import { assembleJobId, CHUNK_QUEUE_NAME, chunkJobId, type KeyLayout } from './keys.js'
 
 export interface ChunkJobData {
@@ -67,9 +67,11 @@ export class ChunkQueue {
     }
   }
 
-  async enqueueChunks (sweepId: string, specHash: string, chunks: readonly Chunk[]): Promise<void> {
-    for (let first = 0; first < chunks.length; first += ADD_BATCH) {
-      const batch = chunks.slice(first, first + ADD_BATCH).map(chunk => ({
+  /** Adds the chunks' jobs costliest first (dispatchOrder): workers take jobs first in, first out. */
+  async enqueueChunks (sweepId: string, specHash: string, spec: NormalisedSpec, chunks: readonly Chunk[]): Promise<void> {
+    const ordered = dispatchOrder(spec, chunks).map(index => chunks[index]!)
+    for (let first = 0; first < ordered.length; first += ADD_BATCH) {
+      const batch = ordered.slice(first, first + ADD_BATCH).map(chunk => ({
         name: 'chunk' as const,
         data: { sweepId, specHash, chunk, chunksTotal: chunks.length } satisfies ChunkJobData,
         opts: this.#jobOptions(chunkJobId(sweepId, chunk.index))

@@ -7,7 +7,7 @@
 import { randomUUID } from 'node:crypto'
 import type { Redis } from 'ioredis'
 import type { Logger } from 'pino'
-import { countPoints, planChunks, specHash, type Chunk, type SweepResult } from '../../spec/index.js'
+import { countPoints, planChunks, specHash, type Chunk, type NormalisedSpec, type SweepResult } from '../../spec/index.js'
 import { IdempotencyConflictError, TERMINAL_STATUSES } from '../port.js'
 import type { ListQuery, QueueStats, SubmitInput, SweepEvent, SweepQueue, SweepRecord } from '../port.js'
 import { CODEC_NAME, decodeValue } from '../shared/trial-codec.js'
@@ -179,18 +179,18 @@ class RedisQueue implements SweepQueue {
       }
       // A retry after a submit that stored the record but died before enqueueing: finish the job.
       if (!TERMINAL_STATUSES.has(existing.status) && !await this.store.isEnqueued(existing.id)) {
-        await this.#enqueue(existing.id, existing.specHash, planChunks(existing.spec))
+        await this.#enqueue(existing.id, existing.specHash, existing.spec, planChunks(existing.spec))
       }
       return existing
     }
-    if (outcome.status === 'queued') await this.#enqueue(sweep.id, hash, plan)
+    if (outcome.status === 'queued') await this.#enqueue(sweep.id, hash, spec, plan)
     const record = await this.store.get(sweep.id)
     if (record === null) throw new Error(`Sweep ${sweep.id} vanished right after it was stored.`)
     return record
   }
 
-  async #enqueue (id: string, hash: string, plan: readonly Chunk[]): Promise<void> {
-    await this.chunks.enqueueChunks(id, hash, plan)
+  async #enqueue (id: string, hash: string, spec: NormalisedSpec, plan: readonly Chunk[]): Promise<void> {
+    await this.chunks.enqueueChunks(id, hash, spec, plan)
     await this.store.markEnqueued(id)
   }
 
