@@ -568,37 +568,19 @@ function shuffle (): string {
     (local $s0 i64) (local $s1 i64) (local $s2 i64) (local $s3 i64) (local $t i64) (local $x i64)
     (local $i i32) (local $j i32) (local $pi i32) (local $pj i32) (local $tmp i32)
     (if (i32.lt_u (local.get $n) (i32.const 2)) (then (return)))
-    (local.set $s0 (i64.load (local.get $state)))
-    (local.set $s1 (i64.load offset=8 (local.get $state)))
-    (local.set $s2 (i64.load offset=16 (local.get $state)))
-    (local.set $s3 (i64.load offset=24 (local.get $state)))
+    ${XOSHIRO_LOAD}
     (local.set $i (i32.sub (local.get $n) (i32.const 1)))
     (loop $draw
-      (local.set $x (i64.mul (i64.rotl (i64.mul (local.get $s1) (i64.const 5)) (i64.const 7)) (i64.const 9)))
-      (local.set $t (i64.shl (local.get $s1) (i64.const 17)))
-      (local.set $s2 (i64.xor (local.get $s2) (local.get $s0)))
-      (local.set $s3 (i64.xor (local.get $s3) (local.get $s1)))
-      (local.set $s1 (i64.xor (local.get $s1) (local.get $s2)))
-      (local.set $s0 (i64.xor (local.get $s0) (local.get $s3)))
-      (local.set $s2 (i64.xor (local.get $s2) (local.get $t)))
-      (local.set $s3 (i64.rotl (local.get $s3) (i64.const 45)))
+      ${XOSHIRO_NEXT}
       (local.set $t (i64.extend_i32_u (i32.add (local.get $i) (i32.const 1))))
-      (local.set $j (i32.wrap_i64 (i64.shr_u
-        (i64.add
-          (i64.mul (i64.shr_u (local.get $x) (i64.const 32)) (local.get $t))
-          (i64.shr_u (i64.mul (i64.and (local.get $x) (i64.const 0xffffffff)) (local.get $t)) (i64.const 32)))
-        (i64.const 32))))
+      (local.set $j ${BELOW_T})
       (local.set $pi (i32.add (local.get $order) (i32.shl (local.get $i) (i32.const 2))))
       (local.set $pj (i32.add (local.get $order) (i32.shl (local.get $j) (i32.const 2))))
       (local.set $tmp (i32.load (local.get $pi)))
       (i32.store (local.get $pi) (i32.load (local.get $pj)))
       (i32.store (local.get $pj) (local.get $tmp))
       (br_if $draw (local.tee $i (i32.sub (local.get $i) (i32.const 1)))))
-    (i64.store (local.get $state) (local.get $s0))
-    (i64.store offset=8 (local.get $state) (local.get $s1))
-    (i64.store offset=16 (local.get $state) (local.get $s2))
-    (i64.store offset=24 (local.get $state) (local.get $s3))
-    (i64.store offset=32 (local.get $state) (local.get $x)))`
+    ${XOSHIRO_STORE})`
 }
 
 /**
@@ -618,29 +600,18 @@ function partialShuffle (): string {
       (br_if $identity (i32.lt_u (local.tee $k (i32.add (local.get $k) (i32.const 1))) (local.get $n))))
     (if (i32.eqz (local.get $count)) (then (return)))
     (local.set $k (i32.const 0))
-    (local.set $s0 (i64.load (local.get $state)))
-    (local.set $s1 (i64.load offset=8 (local.get $state)))
-    (local.set $s2 (i64.load offset=16 (local.get $state)))
-    (local.set $s3 (i64.load offset=24 (local.get $state)))
+    ${XOSHIRO_LOAD}
     (loop $draw
       ${XOSHIRO_NEXT}
       (local.set $t (i64.extend_i32_u (i32.sub (local.get $n) (local.get $k))))
-      (local.set $j (i32.add (local.get $k) (i32.wrap_i64 (i64.shr_u
-        (i64.add
-          (i64.mul (i64.shr_u (local.get $x) (i64.const 32)) (local.get $t))
-          (i64.shr_u (i64.mul (i64.and (local.get $x) (i64.const 0xffffffff)) (local.get $t)) (i64.const 32)))
-        (i64.const 32)))))
+      (local.set $j (i32.add (local.get $k) ${BELOW_T}))
       (local.set $pk (i32.add (local.get $idx) (i32.shl (local.get $k) (i32.const 2))))
       (local.set $pj (i32.add (local.get $idx) (i32.shl (local.get $j) (i32.const 2))))
       (local.set $tmp (i32.load (local.get $pj)))
       (i32.store (local.get $pj) (i32.load (local.get $pk)))
       (i32.store (local.get $pk) (local.get $tmp))
       (br_if $draw (i32.lt_u (local.tee $k (i32.add (local.get $k) (i32.const 1))) (local.get $count))))
-    (i64.store (local.get $state) (local.get $s0))
-    (i64.store offset=8 (local.get $state) (local.get $s1))
-    (i64.store offset=16 (local.get $state) (local.get $s2))
-    (i64.store offset=24 (local.get $state) (local.get $s3))
-    (i64.store offset=32 (local.get $state) (local.get $x)))`
+    ${XOSHIRO_STORE})`
 }
 
 /**
@@ -729,21 +700,34 @@ function uniforms (): string {
   (func (export "uniforms") (param $out i32) (param $count i32) (param $state i32)
     (local $s0 i64) (local $s1 i64) (local $s2 i64) (local $s3 i64) (local $t i64) (local $x i64) (local $e i32)
     (if (i32.eqz (local.get $count)) (then (return)))
-    (local.set $s0 (i64.load (local.get $state)))
-    (local.set $s1 (i64.load offset=8 (local.get $state)))
-    (local.set $s2 (i64.load offset=16 (local.get $state)))
-    (local.set $s3 (i64.load offset=24 (local.get $state)))
+    ${XOSHIRO_LOAD}
     (local.set $e (i32.add (local.get $out) (i32.shl (local.get $count) (i32.const 3))))
     (loop $draw
       ${XOSHIRO_NEXT}
       (f64.store (local.get $out) (f64.mul (f64.convert_i64_u (i64.shr_u (local.get $x) (i64.const 11))) (f64.const 0x1p-53)))
       (br_if $draw (i32.lt_u (local.tee $out (i32.add (local.get $out) (i32.const 8))) (local.get $e))))
-    (i64.store (local.get $state) (local.get $s0))
+    ${XOSHIRO_STORE})`
+}
+
+/** The generator state at $state (four little-endian words) into locals $s0..$s3. */
+const XOSHIRO_LOAD = `(local.set $s0 (i64.load (local.get $state)))
+    (local.set $s1 (i64.load offset=8 (local.get $state)))
+    (local.set $s2 (i64.load offset=16 (local.get $state)))
+    (local.set $s3 (i64.load offset=24 (local.get $state)))`
+
+/** Locals $s0..$s3 back to $state, and the last output $x after them (the engine's `word`). */
+const XOSHIRO_STORE = `(i64.store (local.get $state) (local.get $s0))
     (i64.store offset=8 (local.get $state) (local.get $s1))
     (i64.store offset=16 (local.get $state) (local.get $s2))
     (i64.store offset=24 (local.get $state) (local.get $s3))
-    (i64.store offset=32 (local.get $state) (local.get $x)))`
-}
+    (i64.store offset=32 (local.get $state) (local.get $x))`
+
+/** below(t) = ⌊x·t / 2^64⌋ for the output $x and a bound $t < 2^32 (i64), exact from the 32-bit halves of x. */
+const BELOW_T = `(i32.wrap_i64 (i64.shr_u
+        (i64.add
+          (i64.mul (i64.shr_u (local.get $x) (i64.const 32)) (local.get $t))
+          (i64.shr_u (i64.mul (i64.and (local.get $x) (i64.const 0xffffffff)) (local.get $t)) (i64.const 32)))
+        (i64.const 32)))`
 
 /** One xoshiro256** step on locals $s0..$s3, leaving the output in $x (uses $t). */
 const XOSHIRO_NEXT = `
@@ -775,10 +759,7 @@ function unbiasedRows (): string {
     (local.set $bits (v128.const i8x16 1 2 4 8 16 32 64 128 1 2 4 8 16 32 64 128))
     (local.set $two (i8x16.splat (i32.const 2)))
     (local.set $one (i8x16.splat (i32.const 1)))
-    (local.set $s0 (i64.load (local.get $state)))
-    (local.set $s1 (i64.load offset=8 (local.get $state)))
-    (local.set $s2 (i64.load offset=16 (local.get $state)))
-    (local.set $s3 (i64.load offset=24 (local.get $state)))
+    ${XOSHIRO_LOAD}
     (local.set $row (i32.const 0))
     (loop $rows
       (local.set $p (i32.add (local.get $out) (i32.mul (local.get $row) (local.get $n))))
@@ -789,11 +770,7 @@ function unbiasedRows (): string {
         ${[0, 1, 2, 3].map(expand).join('')}
         (br_if $words (i32.lt_u (local.tee $p (i32.add (local.get $p) (i32.const 64))) (local.get $e))))
       (br_if $rows (i32.lt_u (local.tee $row (i32.add (local.get $row) (i32.const 1))) (local.get $count))))
-    (i64.store (local.get $state) (local.get $s0))
-    (i64.store offset=8 (local.get $state) (local.get $s1))
-    (i64.store offset=16 (local.get $state) (local.get $s2))
-    (i64.store offset=24 (local.get $state) (local.get $s3))
-    (i64.store offset=32 (local.get $state) (local.get $x)))`
+    ${XOSHIRO_STORE})`
 }
 
 /**
