@@ -1,4 +1,4 @@
-import { EMPTY, instantiateKernels, WASM_PAGE, type WasmMemory } from './wasm.js'
+import { EMPTY, unlessMemoryRefused, Workspaces, type Workspace, type WasmMemory } from './wasm.js'
 
 /**
  * WebAssembly SIMD128 fast path of the dense network for integer couplings (kernel text:
@@ -27,14 +27,13 @@ interface DenseIntExports {
   dense16GlauberSync: (cols: number, bias: number, s: number, s16: number, h: number, next: number, noise: number, n: number, stride: number, factor: number, rowsAreColumns: number) => void
 }
 
-let privateBytes = 1024 * 1024
+const workspaces = new Workspaces<DenseIntExports>(1024 * 1024)
 
+/** Moves the shared/private boundary (tests use it to exercise private instances on small networks). */
 export function setDenseIntPrivateBytes (bytes: number): void {
-  privateBytes = bytes
+  workspaces.privateBytes = bytes
 }
 
-interface Workspace { k: DenseIntExports, residentId: number }
-let shared: Workspace | null | undefined
 let nextId = 1
 const align16 = (x: number): number => (x + 15) & ~15
 const INT16_MAX = 32767
@@ -64,7 +63,7 @@ export class DenseIntKernel {
   readonly name = 'wasm-simd128-dense-i16'
   /** int16 columns, padded to `stride` entries: the network's own copy, or a view into a private memory. */
   readonly columns: Int16Array
-  private readonly ws: Workspace
+  private readonly ws: Workspace<DenseIntExports>
   private readonly isPrivate: boolean
   private readonly id = nextId++
   private readonly n: number
@@ -96,32 +95,16 @@ export class DenseIntKernel {
   static create (couplings: Float64Array, bias: Float64Array, n: number, symmetric: boolean): DenseIntKernel | null {
     const stride = (n + 7) & ~7
     if (2 * n * stride + 32 * stride > 3.5 * 2 ** 30) return null
-    let ws: Workspace | null
-    if (2 * n * stride >= privateBytes) {
-      const k = instantiateKernels<DenseIntExports>()
-      ws = k === null ? null : { k, residentId: 0 }
-    } else {
-      if (shared === undefined) {
-        const k = instantiateKernels<DenseIntExports>()
-        shared = k === null ? null : { k, residentId: 0 }
-      }
-      ws = shared
-    }
-    if (ws === null) return null
-    try {
-      return new DenseIntKernel(ws, couplings, bias, n, stride, symmetric)
-    } catch (error) {
-      if (error instanceof RangeError) return null
-      throw error
-    }
+    const ws = workspaces.for(2 * n * stride)
+    return ws === null ? null : unlessMemoryRefused(() => new DenseIntKernel(ws, couplings, bias, n, stride, symmetric))
   }
 
-  private constructor (ws: Workspace, couplings: Float64Array, bias: Float64Array, n: number, stride: number, symmetric: boolean) {
+  private constructor (ws: Workspace<DenseIntExports>, couplings: Float64Array, bias: Float64Array, n: number, stride: number, symmetric: boolean) {
     this.ws = ws
     this.n = n
     this.stride = stride
     this.rowsAreColumns = symmetric ? 1 : 0
-    this.isPrivate = ws !== shared
+    this.isPrivate = ws.isPrivate
     this.biasAt = align16(2 * n * stride)
     this.hAt = align16(this.biasAt + 4 * stride)
     this.s16At = align16(this.hAt + 4 * stride)
@@ -131,8 +114,7 @@ export class DenseIntKernel {
     this.orderAt = align16(this.prevAt + n)
     this.noiseAt = align16(this.orderAt + 4 * n)
     this.end = this.noiseAt + 8 * n
-    const have = ws.k.memory.buffer.byteLength
-    if (this.end > have) ws.k.memory.grow(Math.ceil((this.end - have) / WASM_PAGE))
+    ws.reserve(this.end)
     this.bias = new Int32Array(stride)
     this.bias.set(bias)
     this.columns = this.isPrivate ? new Int16Array(ws.k.memory.buffer, this.colsAt, n * stride) : new Int16Array(n * stride)
@@ -208,8 +190,7 @@ export class DenseIntKernel {
 
   private enter (): DenseIntExports {
     const ws = this.ws
-    const have = ws.k.memory.buffer.byteLength
-    if (this.end > have) ws.k.memory.grow(Math.ceil((this.end - have) / WASM_PAGE))
+    ws.reserve(this.end)
     const buffer = ws.k.memory.buffer
     if (buffer !== this.buffer) {
       this.buffer = buffer

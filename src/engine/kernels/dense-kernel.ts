@@ -1,4 +1,4 @@
-import { EMPTY, instantiateKernels, WASM_PAGE, type WasmMemory } from './wasm.js'
+import { EMPTY, unlessMemoryRefused, Workspaces, type Workspace, type WasmMemory } from './wasm.js'
 
 /**
  * WebAssembly SIMD128 fast path of the dense network (kernel text: scripts/gen-kernels.ts).
@@ -27,16 +27,13 @@ interface DenseExports {
 }
 
 /** Dense networks are built at most a few per second, so all but the smallest get a private memory. */
-let privateBytes = 1024 * 1024
+const workspaces = new Workspaces<DenseExports>(1024 * 1024)
 
+/** Moves the shared/private boundary (tests use it to exercise private instances on small networks). */
 export function setDensePrivateBytes (bytes: number): void {
-  privateBytes = bytes
+  workspaces.privateBytes = bytes
 }
 
-const instantiate = (): DenseExports | null => instantiateKernels<DenseExports>()
-
-interface Workspace { k: DenseExports, residentId: number }
-let shared: Workspace | null | undefined
 let nextId = 1
 const align16 = (x: number): number => (x + 15) & ~15
 
@@ -44,7 +41,7 @@ export class DenseKernel {
   readonly name: 'wasm-simd128-dense-f64' | 'wasm-simd128-dense-f64-rows'
   /** Columns, cols[j·n + i] = J_ij: a view into a private memory, or the network's own array. */
   readonly columns: Float64Array
-  private readonly ws: Workspace
+  private readonly ws: Workspace<DenseExports>
   private readonly isPrivate: boolean
   private readonly id = nextId++
   private readonly n: number
@@ -74,34 +71,17 @@ export class DenseKernel {
    */
   static create (couplings: Float64Array, transposed: boolean, bias: Float64Array, n: number, exactColumns: boolean): DenseKernel | null {
     if (8 * n * n + 40 * n > 3.5 * 2 ** 30) return null
-    let ws: Workspace | null
-    if (8 * n * n >= privateBytes) {
-      const k = instantiate()
-      ws = k === null ? null : { k, residentId: 0 }
-    } else {
-      if (shared === undefined) {
-        const k = instantiate()
-        shared = k === null ? null : { k, residentId: 0 }
-      }
-      ws = shared
-    }
-    if (ws === null) return null
-    try {
-      return new DenseKernel(ws, couplings, transposed, bias, n, exactColumns)
-    } catch (error) {
-      // The host refused to grow the kernel memory: keep the plain path.
-      if (error instanceof RangeError) return null
-      throw error
-    }
+    const ws = workspaces.for(8 * n * n)
+    return ws === null ? null : unlessMemoryRefused(() => new DenseKernel(ws, couplings, transposed, bias, n, exactColumns))
   }
 
-  private constructor (ws: Workspace, couplings: Float64Array, transposed: boolean, bias: Float64Array, n: number, exactColumns: boolean) {
+  private constructor (ws: Workspace<DenseExports>, couplings: Float64Array, transposed: boolean, bias: Float64Array, n: number, exactColumns: boolean) {
     this.ws = ws
     this.n = n
     this.rowwise = exactColumns ? 0 : 1
     this.name = exactColumns ? 'wasm-simd128-dense-f64' : 'wasm-simd128-dense-f64-rows'
     this.bias = bias
-    this.isPrivate = ws !== shared
+    this.isPrivate = ws.isPrivate
     this.biasAt = align16(8 * n * n)
     this.hAt = align16(this.biasAt + 8 * n)
     this.sAt = align16(this.hAt + 8 * n)
@@ -110,8 +90,7 @@ export class DenseKernel {
     this.orderAt = align16(this.prevAt + n)
     this.noiseAt = align16(this.orderAt + 4 * n)
     this.end = this.noiseAt + 8 * n
-    const have = ws.k.memory.buffer.byteLength
-    if (this.end > have) ws.k.memory.grow(Math.ceil((this.end - have) / WASM_PAGE))
+    ws.reserve(this.end)
     const buffer = ws.k.memory.buffer
     if (this.isPrivate) {
       new Float64Array(buffer, this.biasAt, n).set(bias)
@@ -174,8 +153,7 @@ export class DenseKernel {
   private enter (): DenseExports {
     const ws = this.ws
     const n = this.n
-    const have = ws.k.memory.buffer.byteLength
-    if (this.end > have) ws.k.memory.grow(Math.ceil((this.end - have) / WASM_PAGE))
+    ws.reserve(this.end)
     const buffer = ws.k.memory.buffer
     if (buffer !== this.buffer) {
       this.buffer = buffer

@@ -1,4 +1,4 @@
-import { EMPTY, instantiateKernels, WASM_PAGE, type WasmMemory } from './wasm.js'
+import { EMPTY, unlessMemoryRefused, Workspaces, type Workspace, type WasmMemory } from './wasm.js'
 import { stateFromKernel, stateToKernel, xoshiroState } from './native-random.js'
 import type { RandomSource } from '../random/source.js'
 
@@ -48,45 +48,20 @@ interface OverlapExports {
 }
 
 /**
- * Networks whose neuron-major patterns take at least this many bytes get a private instance,
- * so the shared workspace never holds more than this beyond the networks themselves.
+ * Networks whose neuron-major patterns take at least 8 MiB get a private instance, so the
+ * shared workspace never holds more than that beyond the networks themselves.
  */
-let privateBytes = 8 * 1024 * 1024
+const workspaces = new Workspaces<OverlapExports>(8 * 1024 * 1024)
 
 /** Moves the shared/private boundary (tests use it to exercise private instances on small networks). */
 export function setOverlapPrivateBytes (bytes: number): void {
-  privateBytes = bytes
+  workspaces.privateBytes = bytes
 }
 
 /** Largest N for int16 overlap lanes (|m_μ| ≤ N). */
 const I16_NEURONS = 32767
 
-const instantiate = (): OverlapExports | null => instantiateKernels<OverlapExports>()
-
-class Workspace {
-  residentId = 0
-  constructor (readonly k: OverlapExports) {}
-
-  reserve (bytes: number): void {
-    const have = this.k.memory.buffer.byteLength
-    if (bytes > have) this.k.memory.grow(Math.ceil((bytes - have) / WASM_PAGE))
-  }
-}
-
-let sharedWorkspace: Workspace | null | undefined
 let nextId = 1
-
-function workspaceFor (bytes: number): Workspace | null {
-  if (bytes >= privateBytes) {
-    const k = instantiate()
-    return k === null ? null : new Workspace(k)
-  }
-  if (sharedWorkspace === undefined) {
-    const k = instantiate()
-    sharedWorkspace = k === null ? null : new Workspace(k)
-  }
-  return sharedWorkspace
-}
 
 const align16 = (x: number): number => (x + 15) & ~15
 /** Bound on the staging area for the pattern transposition. */
@@ -111,7 +86,7 @@ export class OverlapKernel {
   readonly stride: number
   /** Neuron-major patterns, xi[i·stride + μ]; padding entries are 0. */
   readonly xi: Int8Array
-  private readonly ws: Workspace
+  private readonly ws: Workspace<OverlapExports>
   private readonly k: OverlapExports
   private readonly isPrivate: boolean
   private readonly id = nextId++
@@ -153,18 +128,11 @@ export class OverlapKernel {
     const name = overlapKernelName(neurons, patterns)
     if (name === null) return null
     const stride = align16(patterns)
-    const ws = workspaceFor(align16(neurons) * stride)
-    if (ws === null) return null
-    try {
-      return new OverlapKernel(ws, name, neurons, patterns, selfTerm)
-    } catch (error) {
-      // The host refused to grow the kernel memory: the plain path needs less, so use it.
-      if (error instanceof RangeError) return null
-      throw error
-    }
+    const ws = workspaces.for(align16(neurons) * stride)
+    return ws === null ? null : unlessMemoryRefused(() => new OverlapKernel(ws, name, neurons, patterns, selfTerm))
   }
 
-  private constructor (ws: Workspace, name: OverlapKernelName, n: number, p: number, selfTerm: number) {
+  private constructor (ws: Workspace<OverlapExports>, name: OverlapKernelName, n: number, p: number, selfTerm: number) {
     this.ws = ws
     this.k = ws.k
     this.name = name
@@ -190,7 +158,7 @@ export class OverlapKernel {
     // rows), so no second pattern-sized buffer stays behind in a private memory.
     this.stageRows = Math.min(pp, Math.max(16, Math.floor(STAGE_BYTES / n / 16) * 16))
     this.end = this.stageAt + this.stageRows * n + 32
-    this.isPrivate = ws !== sharedWorkspace
+    this.isPrivate = ws.isPrivate
     ws.reserve(this.end)
     this.xi = this.isPrivate ? new Int8Array(ws.k.memory.buffer, 0, n * pp) : new Int8Array(n * pp)
     this.bits = this.isPrivate ? EMPTY.u8 : new Uint8Array(8 * this.words * p)

@@ -66,6 +66,60 @@ export function instantiateKernels<T> (): T | null {
   return new api.Instance(mod, { host: { exp: Math.exp } }).exports as unknown as T
 }
 
+/** A kernel module instance whose linear memory holds one or more networks' data. */
+export class Workspace<T extends { memory: WasmMemory }> {
+  /** The network whose data the memory holds now (shared workspaces copy theirs in on entry). */
+  residentId = 0
+  constructor (readonly k: T, readonly isPrivate: boolean) {}
+
+  /** Grows the memory to at least `bytes`; throws RangeError when the host refuses. */
+  reserve (bytes: number): void {
+    const have = this.k.memory.buffer.byteLength
+    if (bytes > have) this.k.memory.grow(Math.ceil((bytes - have) / WASM_PAGE))
+  }
+}
+
+/**
+ * Where one kind of network keeps its kernel data. Small networks share one instance (one
+ * linear memory, grown as needed) and copy their data in when another network used it last;
+ * a network whose large array takes `privateBytes` or more gets an instance of its own that
+ * holds the only copy. (One instance per network would be simpler, but V8 reserves gigabytes
+ * of address space per memory and stalls on garbage collection when thousands of networks
+ * are built in a row.)
+ */
+export class Workspaces<T extends { memory: WasmMemory }> {
+  #shared: Workspace<T> | null | undefined
+
+  /** `privateBytes` is public so tests can exercise private instances on small networks. */
+  constructor (public privateBytes: number) {}
+
+  /** The workspace for a network whose large array takes `bytes`; null without WebAssembly SIMD. */
+  for (bytes: number): Workspace<T> | null {
+    if (bytes >= this.privateBytes) {
+      const k = instantiateKernels<T>()
+      return k === null ? null : new Workspace(k, true)
+    }
+    if (this.#shared === undefined) {
+      const k = instantiateKernels<T>()
+      this.#shared = k === null ? null : new Workspace(k, false)
+    }
+    return this.#shared
+  }
+}
+
+/**
+ * Builds a kernel, or returns null when the host refused to grow a memory for it: the plain
+ * path needs less memory, so the network falls back to it.
+ */
+export function unlessMemoryRefused<K> (build: () => K): K | null {
+  try {
+    return build()
+  } catch (error) {
+    if (error instanceof RangeError) return null
+    throw error
+  }
+}
+
 let fastPathsEnabled = true
 
 /**
