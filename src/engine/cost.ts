@@ -13,6 +13,17 @@ export interface PointCost {
 }
 
 /**
+ * The overlap-space SIMD kernel runs a visit's P multiply-adds eight int16 lanes at a time,
+ * four fields per pass: against the cost unit (one scalar operation of the plain path) a
+ * visit costs about 2 + P/16. Fitted with test/spec/measure-throughput.ts.
+ */
+const OVERLAP_VISIT_FIXED_OPS = 2
+const OVERLAP_KERNEL_LANES = 16
+
+/** A Glauber visit's uniform draw and exponential, in cost units (measure-throughput.ts). */
+const GLAUBER_OPS_PER_VISIT = 20
+
+/**
  * Memory and work estimate of one grid point, computed from the parameters alone so
  * oversized work can be refused before anything is allocated.
  */
@@ -25,13 +36,15 @@ export function estimatePointCost (p: PointParams): PointCost {
   const thermal = p.dynamics.temperature > 0
   const sweeps = thermal ? p.dynamics.maxSweeps : Math.min(p.dynamics.maxSweeps, 10)
   const neuronUpdatesPerTrial = sweeps * n
+  // A Glauber visit also draws a uniform and evaluates an exponential.
+  const noiseOps = thermal ? GLAUBER_OPS_PER_VISIT : 0
   if (representation === 'overlap-space') {
     return {
       // Both pattern layouts, the overlaps and the fast path's sign bits (8·⌈N/64⌉ bytes a pattern).
       bytes: 2 * patternBytes + 8 * Math.ceil(n / 64) * count + scratchBytes + 4 * count,
       neuronUpdatesPerTrial,
       buildOpsPerNetwork: n * count,
-      opsPerVisit: count
+      opsPerVisit: OVERLAP_VISIT_FIXED_OPS + count / OVERLAP_KERNEL_LANES + noiseOps
     }
   }
   const model = modelCost(p, representation, patternBytes + scratchBytes, neuronUpdatesPerTrial)
@@ -44,7 +57,7 @@ export function estimatePointCost (p: PointParams): PointCost {
     neuronUpdatesPerTrial,
     buildOpsPerNetwork: buildOps,
     // A visit reads one field; a change (a fraction of visits) adds a column of N.
-    opsPerVisit: 1 + n / Math.max(1, sweeps)
+    opsPerVisit: 1 + n / Math.max(1, sweeps) + noiseOps
   }
 }
 

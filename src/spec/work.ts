@@ -17,14 +17,14 @@ import type { NormalisedSpec } from './types.js'
  * one unit of the engine's cost model (estimatePointCost): a neuron visit costs
  * `opsPerVisit`, building a network `buildOpsPerNetwork`.
  *
- * Measured with `npx tsx test/spec/measure-throughput.ts`: eight workloads (Hebbian T = 0
- * async and sync, Glauber, pseudo-inverse, Storkey, covariance, diluted; N 200–1000), each
- * rate = modelled ops ÷ process CPU time after a warm-up. Medians of four runs on the
- * development machine (2 vCPU shared with other jobs, Node 20.20, engine 0.1.0 before and
- * after its WebAssembly kernels landed): 1.8e8–2.9e8. We take 1.9e8, the low end, so
- * estimates err towards more work. Single workloads run between 0.46× (Storkey) and 8×
- * (large-N overlap-space, where the SIMD kernel beats the model) of the modelled time, so
- * a 3 s chunk takes about 0.4–6.5 s. Re-measure when the engine's kernels or cost model
+ * Measured with `npx tsx test/spec/measure-throughput.ts`: eleven workloads (Hebbian T = 0
+ * async and sync in overlap space from N = 200 to 4000, a new network per trial, Glauber,
+ * pseudo-inverse, Storkey, covariance, diluted), each rate = modelled ops ÷ process CPU time
+ * after a warm-up, on the development machine (2 vCPU, Node 20.20, after the overlap-space
+ * kernel's cost was modelled as 2 + P/16 per visit): median 2.5e8; at 1.9e8 the estimate of a single
+ * workload is between 0.4× and 9× its measured CPU time. We keep 1.9e8, so estimates err towards more
+ * work; the large overlap-space networks, which settle in fewer sweeps than the model's ten,
+ * are the ones overestimated most. Re-measure when the engine's kernels or cost model
  * change; only chunk sizes and the cpuSeconds estimate depend on it, never results.
  */
 export const ENGINE_OPS_PER_CPU_SECOND = 1.9e8

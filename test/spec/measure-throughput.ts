@@ -10,6 +10,9 @@ import { normaliseSpec, planChunks, pointAt, runChunk, type SweepSpecInput } fro
 import { ENGINE_OPS_PER_CPU_SECOND, pointOps } from '../../src/spec/work.js'
 
 const WORKLOADS: Record<string, SweepSpecInput> = {
+  'hebbian N=1000 α=0.1 T=0 (W1-like)': { neurons: 1000, load: 0.1, trials: 400, trialsPerNetwork: 400, cue: { kind: 'flip', fraction: 0.1 } },
+  'hebbian N=500 α=0.12 new network per trial': { neurons: 500, load: 0.12, trials: 400 },
+  'hebbian N=4000 α=0.1 T=0 (W3-like)': { neurons: 4000, load: 0.1, trials: 20, trialsPerNetwork: 20, cue: { kind: 'flip', fraction: 0.1 } },
   'hebbian N=200 α=0.1 T=0': { neurons: 200, load: 0.1, trials: 400 },
   'hebbian N=1000 P=20 T=0': { neurons: 1000, patterns: 20, trials: 100 },
   'hebbian N=400 α=0.2 sync': { neurons: 400, load: 0.2, trials: 200, dynamics: { update: 'sync' } },
