@@ -15,7 +15,7 @@
  *
  * Environment: TRIALS (2000), REPS (3, median), REDIS_URL (redis://127.0.0.1:6379; the Redis
  * part is skipped with a note when it does not answer), C_PEER (path of the built C peer),
- * CEILING_TRIALS (400: trials per load of the ceiling runs).
+ * CEILING_TRIALS (trials per load of the ceiling runs; default TRIALS, the same curve).
  */
 import { spawn } from 'node:child_process'
 import { mkdtempSync, rmSync } from 'node:fs'
@@ -33,7 +33,7 @@ import { spawnWorker, stopWorker } from '../test/integration/worker-processes.js
 import { median } from './measure.js'
 
 const TRIALS = Number(process.env.TRIALS ?? 2000)
-const CEILING_TRIALS = Number(process.env.CEILING_TRIALS ?? 400)
+const CEILING_TRIALS = Number(process.env.CEILING_TRIALS ?? TRIALS)
 const REPS = Number(process.env.REPS ?? 3)
 const REDIS_URL = process.env.REDIS_URL ?? 'redis://127.0.0.1:6379'
 const logger = pino({ level: 'silent' })
