@@ -226,7 +226,10 @@ function ceilingSection (scaling: ScalingReport): string[] {
     '|---|---|---|---|',
     ...rows,
     '',
-    `Service speed-up as a share of the higher ceiling (${best.toFixed(2)}×): embedded ${share(scaling.embedded)}, Redis ${share(scaling.redis)}.`
+    `Service speed-up as a share of the higher ceiling (${best.toFixed(2)}×): embedded ${share(scaling.embedded)}, Redis ${share(scaling.redis)}.`,
+    ...(scaling.ceilingC !== undefined && scaling.ceilingTrialsPerLoad === scaling.trialsPerLoad
+      ? ['', `Absolute two-core throughput on this curve: the service finishes it in ${scaling.embedded?.two.toFixed(2) ?? '-'} s (embedded) and ${scaling.redis?.two.toFixed(2) ?? '-'} s (Redis) on two cores; two C processes at once deliver one curve every ${(scaling.ceilingC.together / 2).toFixed(2)} s (one alone: ${scaling.ceilingC.alone.toFixed(2)} s).`]
+      : [])
   ]
 }
 

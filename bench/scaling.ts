@@ -13,7 +13,7 @@
  * a throughput of 2·t_alone / t_together times one; what a second core can add on this
  * machine is bounded by that, whatever the software. Prints one JSON line.
  *
- * Environment: TRIALS (2000), REPS (3, median), REDIS_URL (redis://127.0.0.1:6379; the Redis
+ * Environment: TRIALS (2000), REPS (5, median), REDIS_URL (redis://127.0.0.1:6379; the Redis
  * part is skipped with a note when it does not answer), C_PEER (path of the built C peer),
  * CEILING_TRIALS (trials per load of the ceiling runs; default TRIALS, the same curve).
  */
@@ -34,7 +34,7 @@ import { median } from './measure.js'
 
 const TRIALS = Number(process.env.TRIALS ?? 2000)
 const CEILING_TRIALS = Number(process.env.CEILING_TRIALS ?? TRIALS)
-const REPS = Number(process.env.REPS ?? 3)
+const REPS = Number(process.env.REPS ?? 5)
 const REDIS_URL = process.env.REDIS_URL ?? 'redis://127.0.0.1:6379'
 const logger = pino({ level: 'silent' })
 
