@@ -137,6 +137,38 @@ describe('web page in Chromium', () => {
     await page.close()
   })
 
+  it('offers every model family in the form: dense memories, the softmax network, fixed in-degree dilution', async () => {
+    const page = await context.newPage()
+    await page.goto(`${open.url}/#/new?from=room-capacity`)
+    await page.locator('#check-state[data-state="valid"]').waitFor()
+    const specText = async (): Promise<Record<string, unknown>> => {
+      await page.check('#edit-mode-json')
+      const text = await page.locator('#spec-json').inputValue()
+      await page.check('#edit-mode-form')
+      return JSON.parse(text) as Record<string, unknown>
+    }
+    await page.selectOption('#f-rule-kind-value', 'dense-polynomial')
+    await page.fill('#f-rule-degree-value', '3')
+    await page.locator('#check-state[data-state="valid"]').waitFor()
+    expect((await specText()).rule).toEqual({ kind: 'dense-polynomial', degree: 3 })
+    // No coupling matrix, so no diagonal to keep.
+    expect(await page.locator('#f-rule-selfCoupling-value').count()).toBe(0)
+
+    await page.selectOption('#f-rule-kind-value', 'modern-softmax')
+    await page.fill('#f-rule-beta-value', '8')
+    await page.locator('#check-state[data-state="valid"]').waitFor()
+    expect((await specText()).rule).toEqual({ kind: 'modern-softmax', beta: 8 })
+
+    await page.selectOption('#f-rule-kind-value', 'hebbian')
+    await page.check('#f-dilution-on')
+    await page.selectOption('#f-dilution-kind-value', 'fixed-in-degree')
+    await page.fill('#f-dilution-inDegree-value', '25')
+    await page.locator('#check-state[data-state="valid"]').waitFor()
+    expect((await specText()).dilution).toEqual({ kind: 'fixed-in-degree', inDegree: 25 })
+    await shot(page, 'submit-model-families')
+    await page.close()
+  })
+
   it('shows each validation error at its field, in the form and in the JSON view', async () => {
     const page = await context.newPage()
     await page.goto(`${open.url}/#/new?from=room-capacity`)

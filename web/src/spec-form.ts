@@ -225,6 +225,20 @@ function kindSwitch (spec: Spec, path: string, keep: Record<string, string[]>) {
   }
 }
 
+const RULE_KINDS: Array<[string, string]> = [
+  ['hebbian', 'Hebbian'],
+  ['pseudo-inverse', 'pseudo-inverse (projection)'],
+  ['storkey', 'Storkey'],
+  ['covariance', 'covariance'],
+  ['clipped', 'clipped Hebbian synapses'],
+  ['dense-polynomial', 'dense memory, polynomial'],
+  ['dense-exponential', 'dense memory, exponential'],
+  ['modern-softmax', 'modern continuous (softmax)']
+]
+
+/** Rules that build a coupling matrix, and so have a diagonal to keep or drop. */
+const COUPLING_RULES = new Set(['hebbian', 'pseudo-inverse', 'storkey', 'covariance', 'clipped'])
+
 function section (title: string, intro: string | null, ...children: Child[]): HTMLElement {
   return h('section', { class: 'form-section' }, h('h2', {}, title), intro === null ? null : h('p', { class: 'hint' }, intro), children)
 }
@@ -255,6 +269,7 @@ export function buildSpecForm (spec: Spec, view: FormView, onEdit: EditHandler, 
   const family = String(getAt(spec, 'family.kind') ?? 'random')
   const cue = String(getAt(spec, 'cue.kind') ?? 'flip')
   const diluted = getAt(spec, 'dilution') !== undefined && getAt(spec, 'dilution') !== null
+  const fixedInDegree = diluted && getAt(spec, 'dilution.kind') === 'fixed-in-degree'
 
   const sizeId = 'f-size-mode'
   const sizeField = h('fieldset', { class: 'field size-mode' },
@@ -301,10 +316,12 @@ export function buildSpecForm (spec: Spec, view: FormView, onEdit: EditHandler, 
           ? f.axis('patterns', 'Stored patterns P', 'How many patterns are stored.', 'e.g. 40')
           : f.axis('load', 'Load α = P/N', 'Patterns per neuron; P = round(α·N).', 'e.g. 0.1'),
       f.select('coding', 'Neuron states', 'How states are written: −1/+1 or 0/1.', [['pm1', '−1 / +1'], ['binary', '0 / 1']], 'pm1'),
-      f.select('rule.kind', 'Learning rule', 'How patterns become couplings.', [['hebbian', 'Hebbian'], ['pseudo-inverse', 'pseudo-inverse (projection)'], ['storkey', 'Storkey'], ['covariance', 'covariance']], 'hebbian',
-        kindSwitch(spec, 'rule', { hebbian: ['selfCoupling'], 'pseudo-inverse': ['selfCoupling'], storkey: ['selfCoupling'], covariance: ['selfCoupling', 'threshold'] })),
+      f.select('rule.kind', 'Learning rule', 'How patterns become couplings, or which model stores them.', RULE_KINDS, 'hebbian',
+        kindSwitch(spec, 'rule', { hebbian: ['selfCoupling'], 'pseudo-inverse': ['selfCoupling'], storkey: ['selfCoupling'], covariance: ['selfCoupling', 'threshold'], clipped: ['selfCoupling'], 'dense-polynomial': ['degree'], 'dense-exponential': [], 'modern-softmax': ['beta'] })),
       rule === 'covariance' ? f.axis('rule.threshold', 'Covariance threshold', 'Leave empty for the engine default.', 'engine default') : null,
-      f.checkbox('rule.selfCoupling', 'Keep self-couplings J_ii', 'Off by default: the diagonal of the coupling matrix is zero.', false),
+      rule === 'dense-polynomial' ? f.axis('rule.degree', 'Interaction degree n', 'Energy −Σ_μ (ξ^μ·σ)ⁿ: an integer from 2 to 30; n = 2 is the Hebbian network.', 'e.g. 3') : null,
+      rule === 'modern-softmax' ? f.axis('rule.beta', 'Inverse temperature β', 'Sharpness of the softmax update, above 0; the state is continuous and updated in parallel.', 'e.g. 8') : null,
+      COUPLING_RULES.has(rule) ? f.checkbox('rule.selfCoupling', 'Keep self-couplings J_ii', 'Off by default: the diagonal of the coupling matrix is zero.', false) : null,
       h('div', { class: 'field checkbox' },
         h('input', {
           type: 'checkbox',
@@ -316,9 +333,16 @@ export function buildSpecForm (spec: Spec, view: FormView, onEdit: EditHandler, 
           }
         }),
         h('label', { for: 'f-dilution-on' }, 'Dilute the couplings'),
-        h('p', { class: 'help' }, 'Keep only a random fraction of the connections.')),
-      diluted ? f.axis('dilution.keep', 'Fraction of couplings kept', 'In (0, 1].', 'e.g. 0.5') : null,
-      diluted ? f.checkbox('dilution.symmetric', 'Symmetric dilution', 'Cut J_ij and J_ji together.', true) : null),
+        h('p', { class: 'help' }, 'Keep only some of the connections: a random fraction, or a fixed number of inputs per neuron.')),
+      diluted
+        ? f.select('dilution.kind', 'Kind of dilution', 'Fixed in-degree is the extremely diluted network: Hebbian or clipped rule, ±1 neurons.',
+          [['random', 'a random fraction of the couplings kept'], ['fixed-in-degree', 'a fixed number of inputs per neuron']], 'random',
+          // Switching starts the other kind from its defaults: the two share no parameter.
+          (kind) => setAt(spec, 'dilution', kind === 'fixed-in-degree' ? { kind: 'fixed-in-degree', inDegree: 20 } : { keep: 0.5, symmetric: true }))
+        : null,
+      diluted && !fixedInDegree ? f.axis('dilution.keep', 'Fraction of couplings kept', 'In (0, 1].', 'e.g. 0.5') : null,
+      diluted && !fixedInDegree ? f.checkbox('dilution.symmetric', 'Symmetric dilution', 'Cut J_ij and J_ji together.', true) : null,
+      diluted && fixedInDegree ? f.axis('dilution.inDegree', 'Inputs per neuron K', 'Each neuron listens to K other neurons drawn at random (asymmetric); the load that matters is P/K.', 'e.g. 20') : null),
     section('Stored patterns', null,
       f.select('family.kind', 'Pattern family', 'Where the stored patterns come from.', [['random', 'independent random'], ['correlated', 'correlated (children of parents)'], ['supplied', 'supplied in the spec']], 'random',
         kindSwitch(spec, 'family', { random: ['activity'], correlated: ['parents', 'parentOverlap'], supplied: ['data'] })),
