@@ -36,4 +36,5 @@ EXPOSE 8080
 HEALTHCHECK --interval=15s --timeout=3s --start-period=20s --retries=3 \
   CMD node -e "fetch('http://127.0.0.1:'+(process.env.PORT||8080)+'/healthz').then(r=>process.exit(r.ok?0:1),()=>process.exit(1))"
 # exec form: node is PID 1's child of nothing else, so SIGTERM reaches close-with-grace.
-CMD ["node", "dist/server.js"]
+# --single-threaded-gc: see src/runtime/node-flags.ts.
+CMD ["node", "--single-threaded-gc", "dist/server.js"]

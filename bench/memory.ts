@@ -18,6 +18,7 @@ import { isMainThread, parentPort, Worker, workerData } from 'node:worker_thread
 import { estimateWork, normaliseSpec, planChunks, runChunk } from '../src/spec/index.js'
 import { compileKernelsOptimised } from '../src/runtime/kernel-compilation.js'
 import { explicitCollector } from '../src/runtime/reclaim.js'
+import { ENGINE_PROCESS_FLAGS, threadExecArgv } from '../src/runtime/node-flags.js'
 
 export interface MemoryCase {
   name: string
@@ -80,7 +81,7 @@ if (!isMainThread) {
   const estimateBytes = estimateWork(normaliseSpec(entry.spec)).peakBytes
   // A worker thread does not inherit tsx's loader hooks: the thread registers them itself.
   const source = `import('tsx/esm/api').then((tsx) => { tsx.register(); return import(${JSON.stringify(import.meta.url)}) })`
-  const worker = new Worker(source, { eval: true, workerData: { index } })
+  const worker = new Worker(source, { eval: true, workerData: { index }, execArgv: threadExecArgv() })
   await new Promise<void>((resolve, reject) => {
     worker.once('message', () => resolve())
     worker.once('error', reject)
@@ -105,7 +106,7 @@ if (!isMainThread) {
   const here = fileURLToPath(import.meta.url)
   const results: MemoryMeasurement[] = []
   for (let index = 0; index < MEMORY_CASES.length; index++) {
-    const run = spawnSync(process.execPath, ['--import', 'tsx', here, String(index)], { encoding: 'utf8', maxBuffer: 1 << 22 })
+    const run = spawnSync(process.execPath, [...ENGINE_PROCESS_FLAGS, '--import', 'tsx', here, String(index)], { encoding: 'utf8', maxBuffer: 1 << 22 })
     const line = run.stdout.trim().split('\n').at(-1) ?? ''
     if (run.status !== 0 || !line.startsWith('{')) throw new Error(`memory case ${index} failed: ${run.stderr.trim().split('\n').slice(-3).join(' ')}`)
     results.push(JSON.parse(line) as MemoryMeasurement)

@@ -18,6 +18,7 @@ import { preparePeers } from './peers.js'
 import { renderReport, timeOf, type Context, type ScalingReport } from './report.js'
 import { spawnSync } from 'node:child_process'
 import type { MemoryMeasurement } from './memory.js'
+import { ENGINE_PROCESS_FLAGS } from '../src/runtime/node-flags.js'
 
 const here = dirname(fileURLToPath(import.meta.url))
 const root = resolve(here, '..')
@@ -34,7 +35,8 @@ const loadBefore = loadavg().map((x) => x.toFixed(2)).join(' ')
 const peers = env.SKIP_PEERS ? null : preparePeers(resolve(env.PEERS_DIR ?? join(root, '..', 'shared', 'bench')))
 const notes = peers?.notes ?? ['peers skipped (SKIP_PEERS set)']
 const warm = Number(env.WARM_REPEATS ?? 5)
-const engine = (workload: string, path: string, warmRepeats = 0): string[] => [process.execPath, '--import', 'tsx', join(here, 'workload.ts'), workload, path, '1', String(warmRepeats)]
+// Engine processes start with the flags the service's processes use (src/runtime/node-flags.ts).
+const engine = (workload: string, path: string, warmRepeats = 0): string[] => [process.execPath, ...ENGINE_PROCESS_FLAGS, '--import', 'tsx', join(here, 'workload.ts'), workload, path, '1', String(warmRepeats)]
 
 interface Job { label: string, reps: number, workload: string, command: string[], cwd?: string }
 const jobs: Job[] = []
@@ -78,7 +80,7 @@ if (!env.SKIP_SCALE) {
 let scaling: ScalingReport | null = null
 if (!env.SKIP_SCALING) {
   process.stderr.write('[bench] multi-core scaling: W2 curve through the embedded and Redis backends, 1 and 2 cores, and the two-process ceiling\n')
-  const out = spawnSync(process.execPath, ['--import', 'tsx', join(here, 'scaling.ts')], { cwd: root, encoding: 'utf8', env: { ...env, ...(peers?.cBinary ? { C_PEER: peers.cBinary } : {}) } })
+  const out = spawnSync(process.execPath, [...ENGINE_PROCESS_FLAGS, '--import', 'tsx', join(here, 'scaling.ts')], { cwd: root, encoding: 'utf8', env: { ...env, ...(peers?.cBinary ? { C_PEER: peers.cBinary } : {}) } })
   const line = out.stdout.trim().split('\n').at(-1) ?? ''
   try {
     scaling = JSON.parse(line) as ScalingReport
@@ -92,7 +94,7 @@ if (peers?.dir) rmSync(dirname(peers.dir), { recursive: true, force: true })
 let memory: MemoryMeasurement[] | null = null
 if (!env.SKIP_MEMORY) {
   process.stderr.write('[bench] memory: estimate against measured peak, one fresh process per case\n')
-  const out = spawnSync(process.execPath, ['--import', 'tsx', join(here, 'memory.ts')], { cwd: root, encoding: 'utf8', env: { ...env }, maxBuffer: 1 << 22 })
+  const out = spawnSync(process.execPath, [...ENGINE_PROCESS_FLAGS, '--import', 'tsx', join(here, 'memory.ts')], { cwd: root, encoding: 'utf8', env: { ...env }, maxBuffer: 1 << 22 })
   try {
     memory = JSON.parse(out.stdout.trim().split('\n').at(-1) ?? '') as MemoryMeasurement[]
   } catch {

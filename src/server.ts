@@ -13,6 +13,7 @@ import { buildApp } from './api/app.js'
 import type { SweepQueue } from './backends/port.js'
 import { ConfigError, loadConfig, type Config } from './config.js'
 import { createLogger, type Logger } from './logger.js'
+import { missingEngineFlags } from './runtime/node-flags.js'
 
 /** Seconds the shutdown may take before the process exits anyway (open streams, running chunks). */
 const SHUTDOWN_GRACE_MS = 10_000
@@ -56,6 +57,8 @@ export async function startServer (env: Record<string, string | undefined>, logg
     app = buildApp({ config, queue, logger: log, ...(rateLimitRedis === undefined ? {} : { rateLimitRedis }) })
     const address = await app.listen({ port: config.port, host: config.host })
     log.info({ address, backend: queue.kind, dataDir: queue.kind === 'embedded' ? config.dataDir : undefined, tokensRequired: config.tokensFile !== null }, 'memsweep listening')
+    const missing = missingEngineFlags()
+    if (queue.kind === 'embedded' && missing.length > 0) log.warn({ missing }, 'started without the recommended node flags: compute threads will share fewer cycles (see src/runtime/node-flags.ts)')
     let closing: Promise<void> | null = null
     const running = app
     return { app: running, queue, address, close: async () => { closing ??= closeAll(); return await closing } }

@@ -1,4 +1,4 @@
-#!/usr/bin/env node
+#!/usr/bin/env -S node --single-threaded-gc
 /**
  * The `memsweep` command: serve the API, run a Redis worker, run a sweep locally, or submit
  * one to a server. Commands are functions of an injected CliIo, so tests drive them exactly

@@ -21,6 +21,7 @@ import { checkRedisSettings } from '../backends/redis/settings.js'
 import { RedisSweepStore } from '../backends/redis/store.js'
 import type { ProcessorOutcome, SandboxSettings } from './processor.js'
 import { createStopBoardBuffer, StopBoardWriter } from './stop-board.js'
+import { threadExecArgv } from '../runtime/node-flags.js'
 
 export interface WorkerProcessOptions {
   url: string
@@ -142,7 +143,7 @@ export async function startWorker (options: WorkerProcessOptions): Promise<Runni
     name,
     concurrency,
     useWorkerThreads: true,
-    workerThreadsOptions: { workerData: sandbox },
+    workerThreadsOptions: { workerData: sandbox, execArgv: threadExecArgv() },
     lockDuration: options.lockDurationMs ?? 30_000,
     stalledInterval: options.stalledIntervalMs ?? 30_000,
     maxStalledCount: 1,

@@ -7,6 +7,7 @@ import { pathToFileURL } from 'node:url'
 import { loadConfig } from '../config.js'
 import { createLogger } from '../logger.js'
 import { closeOnSignals, startWorker } from './main.js'
+import { missingEngineFlags } from '../runtime/node-flags.js'
 
 export async function runWorkerFromEnvironment (env: Record<string, string | undefined>): Promise<void> {
   const config = loadConfig(env)
@@ -21,6 +22,8 @@ export async function runWorkerFromEnvironment (env: Record<string, string | und
   }
   process.on('uncaughtException', fatal)
   process.on('unhandledRejection', fatal)
+  const missing = missingEngineFlags()
+  if (missing.length > 0) logger.warn({ missing }, 'started without the recommended node flags: compute threads will share fewer cycles (see src/runtime/node-flags.ts)')
   const worker = await startWorker({ url: config.redisUrl, prefix: config.redisPrefix, concurrency: config.workerThreads, logger })
   await closeOnSignals(worker, logger)
 }

@@ -6,6 +6,7 @@ import { spawn, type ChildProcess } from 'node:child_process'
 import { createInterface } from 'node:readline'
 import { fileURLToPath } from 'node:url'
 import type { WorkerActivity, WorkerProcessOptions } from '../../src/worker/main.js'
+import { ENGINE_PROCESS_FLAGS } from '../../src/runtime/node-flags.js'
 
 const FIXTURE = fileURLToPath(new URL('./fixtures/worker-process.ts', import.meta.url))
 const REPO_ROOT = fileURLToPath(new URL('../../', import.meta.url))
@@ -23,7 +24,7 @@ export interface WorkerProcess {
 }
 
 export function spawnWorker (options: Omit<WorkerProcessOptions, 'logger' | 'observer'>): WorkerProcess {
-  const child = spawn(process.execPath, ['--import', 'tsx', FIXTURE, JSON.stringify(options)], {
+  const child = spawn(process.execPath, [...ENGINE_PROCESS_FLAGS, '--import', 'tsx', FIXTURE, JSON.stringify(options)], {
     cwd: REPO_ROOT,
     stdio: ['ignore', 'pipe', 'inherit']
   })

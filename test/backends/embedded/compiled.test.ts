@@ -2,7 +2,7 @@
  * The embedded backend as shipped: compiled JavaScript, compute threads loading
  * chunk-worker.js with no TypeScript loader. The sources it needs are transpiled here
  * (no type check: `npm run typecheck` does that) into a scratch directory, and a separate
- * plain `node` process runs a sweep from them.
+ * plain `node` process, started with the engine flags as `npm start` is, runs a sweep from them.
  */
 import { execFile } from 'node:child_process'
 import { mkdirSync, readdirSync, readFileSync, symlinkSync, writeFileSync } from 'node:fs'
@@ -12,6 +12,7 @@ import { promisify } from 'node:util'
 import ts from 'typescript'
 import { afterAll, describe, expect, it } from 'vitest'
 import { makeDataDir } from './helpers.js'
+import { ENGINE_PROCESS_FLAGS } from '../../../src/runtime/node-flags.js'
 
 const repoRoot = fileURLToPath(new URL('../../../', import.meta.url))
 /** The backend and everything it imports; the API, CLI, server and Redis backend are not needed. */
@@ -58,7 +59,7 @@ describe('embedded queue from compiled JavaScript', () => {
     transpileInto(outDir)
     writeFileSync(join(outDir, 'sweep.mjs'), SWEEP_SCRIPT)
     const input = { neurons: 100, load: { values: [0.05, 0.1] }, trials: 20, seed: 5 }
-    const { stdout } = await promisify(execFile)(process.execPath, [join(outDir, 'sweep.mjs'), join(scratch.dir, 'data'), JSON.stringify(input)], { timeout: 60_000 })
+    const { stdout } = await promisify(execFile)(process.execPath, [...ENGINE_PROCESS_FLAGS, join(outDir, 'sweep.mjs'), join(scratch.dir, 'data'), JSON.stringify(input)], { timeout: 60_000 })
     const compiled = JSON.parse(stdout) as { status: string, csv: string }
     expect(compiled.status).toBe('succeeded')
 
