@@ -10,12 +10,12 @@ import { afterAll, describe, expect, it } from 'vitest'
 import { openEventStream } from './helpers/sse-client.js'
 import { startServerProcess, type ServerProcess } from './helpers/server-process.js'
 
-/** Six loads × 400 trials on 500 neurons: six chunks, about two seconds on two threads. */
+/** Six loads × 4000 trials on 1000 neurons: one chunk per load, a few seconds of CPU, so the kill lands between chunks. */
 const spec = {
   label: 'rooms of a house, before and after a power cut',
-  neurons: 500,
+  neurons: 1000,
   load: { values: [0.04, 0.06, 0.08, 0.1, 0.12, 0.14] },
-  trials: 400,
+  trials: 4000,
   seed: 21
 }
 
@@ -74,7 +74,7 @@ describe('server restart', () => {
     const second = await start()
     const resumed = await finalState(second.url, id)
     expect(resumed.status).toBe('succeeded')
-    expect(resumed.progress).toMatchObject({ chunksDone: resumed.progress.chunksTotal, trialsDone: 6 * 400, trialsTotal: 6 * 400 })
+    expect(resumed.progress).toMatchObject({ chunksDone: resumed.progress.chunksTotal, trialsDone: 6 * 4000, trialsTotal: 6 * 4000 })
 
     const fresh = (await (await fetch(`${second.url}/v1/sweeps`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(spec) })).json()) as { id: string }
     expect((await finalState(second.url, fresh.id)).status).toBe('succeeded')

@@ -22,11 +22,11 @@ export const mediumSpec = (): Record<string, unknown> => ({
   seed: 5
 })
 
-/** Minutes of work on two threads: for tests that need a sweep to stay running until canceled. */
+/** Tens of seconds of work on two threads with the fast engine: for tests that need a sweep to stay running until canceled. */
 export const slowSpec = (): Record<string, unknown> => ({
   label: 'every room of the campus',
   neurons: 1500,
   load: { values: [0.1, 0.12, 0.14] },
-  trials: 3000,
+  trials: 40000,
   seed: 3
 })
