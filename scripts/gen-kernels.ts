@@ -305,6 +305,16 @@ function syncFields16 (): string {
 const LOCALS = `(local $row i32) (local $r i32) (local $e i32) (local $mp i32) (local $h i32) (local $delta i32)
     (local $x v128) (local $y v128) (local $a v128) (local $b v128) (local $c v128) (local $d v128) (local $dv v128)`
 
+/** When $check: $same ← 2 if the new state $next equals the state two steps back, $prev (a two-cycle). Uses $i. */
+const TWO_CYCLE_CHECK = `(if (local.get $check)
+      (then
+        (local.set $i (i32.const 0))
+        (block $differs
+          (loop $compare
+            (br_if $differs (i32.ne (i32.load8_s (i32.add (local.get $next) (local.get $i))) (i32.load8_s (i32.add (local.get $prev) (local.get $i)))))
+            (br_if $compare (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))
+          (local.set $same (i32.const 2)))))`
+
 /** The zero-temperature decision: v = +1 if h > 0, −1 if h < 0, else unchanged (the tie rule). */
 const DECIDE = '(select (i32.const 1) (select (i32.const -1) (local.get $si) (i32.lt_s (local.get $h) (i32.const 0))) (i32.gt_s (local.get $h) (i32.const 0)))'
 
@@ -355,14 +365,7 @@ function syncBody (w: Width): string {
       (if (i32.ne (local.get $v) (local.get $si)) (then (local.set $same (i32.const 0))))
       (br_if $visit (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))))
     (br_if $step (local.get $same))
-    (if (local.get $check)
-      (then
-        (local.set $i (i32.const 0))
-        (block $differs
-          (loop $compare
-            (br_if $differs (i32.ne (i32.load8_s (i32.add (local.get $next) (local.get $i))) (i32.load8_s (i32.add (local.get $prev) (local.get $i)))))
-            (br_if $compare (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))
-          (local.set $same (i32.const 2)))))
+    ${TWO_CYCLE_CHECK}
     (local.set $i (i32.const 0))
     (loop $apply
       (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
@@ -878,14 +881,7 @@ function dense (): string {
       (if (i32.ne (local.get $v) (local.get $si)) (then (local.set $same (i32.const 0))))
       (br_if $visit (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))
     (if (local.get $same) (then (return (i32.const 1))))
-    (if (local.get $check)
-      (then
-        (local.set $i (i32.const 0))
-        (block $differs
-          (loop $compare
-            (br_if $differs (i32.ne (i32.load8_s (i32.add (local.get $next) (local.get $i))) (i32.load8_s (i32.add (local.get $prev) (local.get $i)))))
-            (br_if $compare (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))
-          (local.set $same (i32.const 2)))))
+    ${TWO_CYCLE_CHECK}
     (memory.copy (local.get $prev) (local.get $s) (local.get $n))
     (memory.copy (local.get $s) (local.get $next) (local.get $n))
     ${reload}
@@ -1021,14 +1017,7 @@ function dense16 (): string {
       (if (i32.ne (local.get $v) (local.get $si)) (then (local.set $same (i32.const 0))))
       (br_if $visit (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))
     (if (local.get $same) (then (return (i32.const 1))))
-    (if (local.get $check)
-      (then
-        (local.set $i (i32.const 0))
-        (block $differs
-          (loop $compare
-            (br_if $differs (i32.ne (i32.load8_s (i32.add (local.get $next) (local.get $i))) (i32.load8_s (i32.add (local.get $prev) (local.get $i)))))
-            (br_if $compare (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))
-          (local.set $same (i32.const 2)))))
+    ${TWO_CYCLE_CHECK}
     (memory.copy (local.get $prev) (local.get $s) (local.get $n))
     (memory.copy (local.get $s) (local.get $next) (local.get $n))
     ${reload}

@@ -1,5 +1,6 @@
 import type { PointParams } from './params.js'
 import { chooseRepresentation, type Representation } from './network/build.js'
+import { OverlapKernel } from './kernels/overlap-kernel.js'
 
 export interface PointCost {
   /** Peak bytes one runner holds for this point (network, patterns, scratch). */
@@ -41,7 +42,7 @@ export function estimatePointCost (p: PointParams): PointCost {
   if (representation === 'overlap-space') {
     return {
       // Both pattern layouts, the overlaps and the fast path's sign bits (8·⌈N/64⌉ bytes a pattern).
-      bytes: 2 * patternBytes + 8 * Math.ceil(n / 64) * count + scratchBytes + 4 * count,
+      bytes: 2 * patternBytes + OverlapKernel.signBitBytes(n, count) + scratchBytes + 4 * count,
       neuronUpdatesPerTrial,
       buildOpsPerNetwork: n * count,
       opsPerVisit: OVERLAP_VISIT_FIXED_OPS + count / OVERLAP_KERNEL_LANES + noiseOps
