@@ -1,13 +1,43 @@
 import { defineConfig } from 'vitest/config'
 
+/**
+ * Two tiers. `fast`: pure computation (engine, spec, figures), files in parallel on every
+ * core; `npm run test:fast` runs only this tier. `service`: everything that starts servers,
+ * threads, worker processes, Redis or a browser; its files run one at a time after the fast
+ * tier, so they never compete with each other for the cores or the shared Redis.
+ */
+const shared = {
+  globals: false,
+  testTimeout: 60_000,
+  hookTimeout: 60_000,
+  setupFiles: ['test/setup/fast-check.ts']
+}
+
+const FAST = ['test/engine/**/*.test.ts', 'test/spec/**/*.test.ts', 'test/figures/**/*.test.ts']
+
 export default defineConfig({
   test: {
-    include: ['test/**/*.test.ts'],
-    globals: false,
-    testTimeout: 60_000,
-    hookTimeout: 60_000,
-    // Redis-backed files share one server; running files one at a time keeps them from
-    // competing for the two cores and keeps timing-sensitive tests honest.
-    fileParallelism: false
+    projects: [
+      {
+        test: {
+          ...shared,
+          name: 'fast',
+          include: FAST,
+          // Figure tests that drive the HTTP app belong with the service tier.
+          exclude: ['test/figures/route.test.ts'],
+          sequence: { groupOrder: 0 }
+        }
+      },
+      {
+        test: {
+          ...shared,
+          name: 'service',
+          include: ['test/**/*.test.ts'],
+          exclude: ['test/engine/**', 'test/spec/**', 'test/figures/!(route).test.ts'],
+          fileParallelism: false,
+          sequence: { groupOrder: 1 }
+        }
+      }
+    ]
   }
 })

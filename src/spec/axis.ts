@@ -6,8 +6,11 @@
  *   { "from": 0.02, "to": 0.24, "step": 0.02 }              from, from ± step, … up to `to` (inclusive when hit)
  *   { "from": 100, "to": 1600, "count": 5, "scale": "log" } `count` values evenly spaced, linear (default) or log
  *
- * Generated values are rounded to 12 significant digits so that decimal ranges come out as
- * the decimals a person would write (0.02 + 5·0.02 gives 0.12, not 0.12000000000000001).
+ * Generated values come out as the decimals a person would write: a `step` axis snaps each
+ * value to the decimal grid of its `from` and `step` (0.02 + 5·0.02 gives 0.12, not
+ * 0.12000000000000001; −0.3 + 3·0.1 gives 0, not 5.55e-17), and every generated value is
+ * rounded to 12 significant digits, with values within 1e-12 of the axis' span of zero
+ * set to zero.
  * For integer parameters, `count` axes round to the nearest integer and `step` axes must
  * start and move in whole numbers. Axes never hold duplicates.
  */
@@ -23,6 +26,12 @@ export const AXIS_SIGNIFICANT_DIGITS = 12
 
 /** A last step that lands within this fraction of a step of `to` counts as reaching it. */
 const STEP_TOLERANCE = 1e-9
+
+/** Generated values closer to zero than this fraction of the axis' span are zero (a crossing of zero). */
+const ZERO_SNAP = 1e-12
+
+/** `toFixed` accepts at most this many digits; finer decimal grids are left to the significant-digit rounding. */
+const MAX_FIXED_DIGITS = 100
 
 export interface NumericDomain {
   integer: boolean
@@ -50,6 +59,24 @@ export type Varied = number | { values: number[] }
 export function roundToSignificant (x: number, digits = AXIS_SIGNIFICANT_DIGITS): number {
   if (x === 0 || !Number.isFinite(x)) return x === 0 ? 0 : x
   return Number(x.toPrecision(digits))
+}
+
+/**
+ * Digits after the decimal point in the shortest decimal form of `x` (0.25 → 2, 1e-7 → 7,
+ * 3 → 0): the grid a value written by a person lives on.
+ */
+export function decimalPlaces (x: number): number {
+  if (!Number.isFinite(x)) return 0
+  const [mantissa = '', exponent = '0'] = Math.abs(x).toString().split('e')
+  const fraction = mantissa.split('.')[1]?.length ?? 0
+  return Math.max(0, fraction - Number(exponent))
+}
+
+/** Rounds a generated axis value: to the decimal grid (when given), to zero near a crossing, to 12 significant digits. */
+function tidyGenerated (raw: number, span: number, decimals: number | null): number {
+  let x = decimals !== null && decimals <= MAX_FIXED_DIGITS ? Number(raw.toFixed(decimals)) : raw
+  if (Math.abs(x) <= ZERO_SNAP * span) x = 0
+  return roundToSignificant(x)
 }
 
 /** Why `x` is outside `domain`, or null when it is inside. */
@@ -149,10 +176,12 @@ function stepAxis (from: number, to: number, step: number, domain: NumericDomain
     return { problem: `this axis would hold ${formatCount(intervals + 1)} values; at most ${MAX_AXIS_VALUES} are allowed` }
   }
   const direction = to >= from ? 1 : -1
+  const decimals = Math.max(decimalPlaces(from), decimalPlaces(step))
+  const span = Math.abs(to - from)
   const values: number[] = []
   for (let i = 0; i <= intervals; i++) {
     const raw = from + direction * i * step
-    values.push(domain.integer ? Math.round(raw) : roundToSignificant(raw))
+    values.push(domain.integer ? Math.round(raw) : tidyGenerated(raw, span, decimals))
   }
   return checkValues(values, domain, 'generated')
 }
@@ -167,7 +196,7 @@ function countAxis (from: number, to: number, count: number, scale: 'linear' | '
     else if (i === count - 1) raw = to
     else if (scale === 'log') raw = from * Math.pow(to / from, i / (count - 1))
     else raw = from + (to - from) * (i / (count - 1))
-    values.push(domain.integer ? Math.round(raw) : roundToSignificant(raw))
+    values.push(domain.integer ? Math.round(raw) : tidyGenerated(raw, Math.abs(to - from), null))
   }
   return checkValues(values, domain, 'generated')
 }

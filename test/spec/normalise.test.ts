@@ -178,10 +178,9 @@ describe('supplied patterns', () => {
 
 describe('ceilings', () => {
   it('refuses a grid over the format\'s ceiling without visiting its points', () => {
-    const started = performance.now()
-    const issues = issuesOf({ neurons: { from: 100, to: 1099, step: 1 }, load: { from: 0.001, to: 0.5, count: 1000 } })
-    expect(issues).toEqual([{ path: '', message: expect.stringMatching(/1000000 points \(neurons 1000 × load 1000\).*at most 100000/) }])
-    expect(performance.now() - started).toBeLessThan(1000)
+    // 10^8 points: visiting them would outlast the test's timeout, so passing proves they are counted, not visited.
+    const issues = issuesOf({ neurons: { from: 100, to: 10099, step: 1 }, load: { from: 0.001, to: 0.5, count: 10000 } })
+    expect(issues).toEqual([{ path: '', message: expect.stringMatching(/100000000 points \(neurons 10000 × load 10000\).*at most 100000/) }])
   })
 })
 
