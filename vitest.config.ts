@@ -13,7 +13,7 @@ const shared = {
   setupFiles: ['test/setup/fast-check.ts']
 }
 
-const FAST = ['test/engine/**/*.test.ts', 'test/spec/**/*.test.ts', 'test/figures/**/*.test.ts']
+const FAST = ['test/engine/**/*.test.ts', 'test/spec/**/*.test.ts', 'test/figures/**/*.test.ts', 'test/architecture.test.ts']
 
 export default defineConfig({
   test: {
@@ -33,7 +33,7 @@ export default defineConfig({
           ...shared,
           name: 'service',
           include: ['test/**/*.test.ts'],
-          exclude: ['test/engine/**', 'test/spec/**', 'test/figures/!(route).test.ts'],
+          exclude: ['test/engine/**', 'test/spec/**', 'test/figures/!(route).test.ts', 'test/architecture.test.ts'],
           fileParallelism: false,
           sequence: { groupOrder: 1 }
         }

@@ -15,7 +15,8 @@
 import { spawnSync } from 'node:child_process'
 import { fileURLToPath } from 'node:url'
 import { isMainThread, parentPort, Worker, workerData } from 'node:worker_threads'
-import { estimateWork, normaliseSpec, planChunks, runChunk } from '../src/spec/index.js'
+import { estimateWork, normaliseSpec } from '../src/spec/index.js'
+import { planSweep, computeChunk } from '../src/sweep/index.js'
 import { compileKernelsOptimised } from '../src/runtime/kernel-compilation.js'
 import { explicitCollector } from '../src/runtime/reclaim.js'
 import { ENGINE_PROCESS_FLAGS, threadExecArgv } from '../src/runtime/node-flags.js'
@@ -61,7 +62,7 @@ function warmUpSpec (spec: Record<string, unknown>): Record<string, unknown> {
 
 function runFirstPoint (raw: Record<string, unknown>): void {
   const spec = normaliseSpec(raw)
-  for (const chunk of planChunks(spec).filter((c) => c.point === 0)) runChunk(spec, chunk, { reclaim: process.env.NO_RECLAIM === '1' ? undefined : explicitCollector() })
+  for (const chunk of planSweep(spec).chunks.filter((c) => c.point === 0)) computeChunk(spec, chunk, { reclaim: process.env.NO_RECLAIM === '1' ? undefined : explicitCollector() })
 }
 
 if (!isMainThread) {

@@ -15,7 +15,7 @@ import { fileURLToPath } from 'node:url'
 import { Command } from 'commander'
 import { createEmbeddedQueue } from '../src/backends/embedded/index.js'
 import { TERMINAL_STATUSES, type SweepRecord } from '../src/backends/port.js'
-import { scalingRows } from '../src/spec/analysis/scaling.js'
+import { scalingRows } from '../src/sweep/analysis/scaling.js'
 import { normaliseSpec, type NormalisedScaling, type ScalingRow } from '../src/spec/index.js'
 
 const program = new Command()

@@ -17,7 +17,7 @@ import { EventStreamRegistry } from './event-stream.js'
 import { authPlugin } from './plugins/auth.js'
 import { metricsPlugin } from './plugins/metrics.js'
 import { problemsPlugin } from './plugins/problems.js'
-import { OwnerGate, type RouteContext } from './routes/context.js'
+import type { RouteContext } from './routes/context.js'
 import { eventRoutes } from './routes/events.js'
 import { figureRoutes } from './routes/figure.js'
 import { healthRoutes } from './routes/health.js'
@@ -75,8 +75,7 @@ export function buildApp (deps: AppDependencies): FastifyInstance {
     limits,
     maxActiveSweepsPerOwner: config.maxActiveSweepsPerOwner,
     heartbeatMs: config.sseHeartbeatSeconds * 1000,
-    streams,
-    gate: new OwnerGate()
+    streams
   }
 
   let shuttingDown = false

@@ -18,6 +18,7 @@ function documentOnlyQueue (): SweepQueue {
     list: refuse,
     cancel: refuse,
     results: refuse,
+    trials: refuse,
     subscribe: refuse,
     stats: refuse,
     ready: refuse,

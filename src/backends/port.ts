@@ -1,47 +1,16 @@
 /**
  * The queue port: the only way the API reaches a backend. The embedded backend (worker
  * threads + SQLite, the default) and the Redis backend (BullMQ, many machines) both
- * implement it, and the same API contract tests run against both.
+ * implement it, and the same API contract tests run against both. Sweep records, states
+ * and failures are the lifecycle's own (src/sweep).
  */
-import type { NormalisedSpec, SweepResult } from '../spec/index.js'
+import type { TrialRecord } from '../engine/index.js'
+import type { NormalisedSpec } from '../spec/index.js'
+import type { SweepResult } from '../results/index.js'
+import type { ListQuery, SweepPage, SweepRecord } from '../sweep/index.js'
 
-/** Public sweep states (never a queue library's own state names). */
-export const SWEEP_STATUSES = ['queued', 'running', 'succeeded', 'failed', 'canceled'] as const
-export type SweepStatus = typeof SWEEP_STATUSES[number]
-export const TERMINAL_STATUSES: ReadonlySet<SweepStatus> = new Set(['succeeded', 'failed', 'canceled'])
-
-export interface SweepProgress {
-  pointsDone: number
-  pointsTotal: number
-  trialsDone: number
-  trialsTotal: number
-  chunksDone: number
-  chunksTotal: number
-}
-
-/** `user`: the spec could not run (the user should change it); `system`: infrastructure failed (retrying may help). */
-export interface SweepFailure {
-  kind: 'user' | 'system'
-  message: string
-}
-
-export interface SweepRecord {
-  id: string
-  /** Token owner when tokens are on, else null. */
-  owner: string | null
-  label: string | null
-  specHash: string
-  spec: NormalisedSpec
-  status: SweepStatus
-  /** ISO 8601 timestamps. */
-  createdAt: string
-  startedAt: string | null
-  finishedAt: string | null
-  progress: SweepProgress
-  error: SweepFailure | null
-  /** Id of an earlier identical sweep whose results this one reuses, if any. */
-  reusedFrom: string | null
-}
+export { SWEEP_STATUSES, TERMINAL_STATUSES, type SweepStatus, type SweepProgress, type SweepFailure, type SweepRecord, type ListQuery } from '../sweep/index.js'
+export { IdempotencyConflictError, ActiveSweepCapError, InvalidCursorError } from './errors.js'
 
 export type SweepEvent =
   | { type: 'progress', sweep: SweepRecord }
@@ -54,14 +23,8 @@ export interface SubmitInput {
   idempotencyKey?: string
   /** Reuse the results of a finished identical spec instead of running again. */
   reuse?: boolean
-}
-
-export interface ListQuery {
-  owner: string | null
-  status?: SweepStatus
-  /** Opaque cursor from a previous page. */
-  cursor?: string
-  limit: number
+  /** Refuse with ActiveSweepCapError when the owner already has this many queued or running sweeps (checked atomically). */
+  maxActive?: number
 }
 
 export interface QueueStats {
@@ -75,23 +38,21 @@ export interface QueueStats {
   chunksActive: number
 }
 
-/** Raised by `submit` when an Idempotency-Key is reused with a different spec (→ 422). */
-export class IdempotencyConflictError extends Error {
-  constructor (readonly key: string) {
-    super(`Idempotency-Key '${key}' was already used with a different request body.`)
-    this.name = 'IdempotencyConflictError'
-  }
-}
-
 export interface SweepQueue {
   readonly kind: 'embedded' | 'redis'
+  /**
+   * @throws {IdempotencyConflictError} for a key bound to another spec.
+   * @throws {ActiveSweepCapError} when `maxActive` is reached.
+   */
   submit (input: SubmitInput): Promise<SweepRecord>
   get (id: string): Promise<SweepRecord | null>
-  list (query: ListQuery): Promise<{ items: SweepRecord[], nextCursor: string | null }>
+  list (query: ListQuery): Promise<SweepPage>
   /** Cancels a queued or running sweep; a no-op on a terminal one. Returns the record after the change. */
   cancel (id: string): Promise<SweepRecord | null>
-  /** The assembled result of a succeeded sweep, else null. */
+  /** The assembled result of a succeeded sweep (rows or searches, provenance; `trials` empty), else null. */
   results (id: string): Promise<SweepResult | null>
+  /** trials[point][trial] of a succeeded sweep, read from its stored chunks; null when it has none. */
+  trials (id: string): Promise<TrialRecord[][] | null>
   /** Listen to one sweep's progress and state changes; returns the unsubscribe function. */
   subscribe (id: string, listener: (event: SweepEvent) => void): () => void
   stats (): Promise<QueueStats>

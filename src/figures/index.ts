@@ -3,7 +3,7 @@
  * series per value of another (or per sweep when several are overlaid), error bars, theory
  * where it applies. Pure functions of their arguments; no I/O.
  */
-import type { SweepResult } from '../spec/index.js'
+import type { SweepResult } from '../results/index.js'
 import { drawFigure } from './draw.js'
 import { FigureOptionsError } from './errors.js'
 import type { FigureOptionsInput } from './options.js'

@@ -5,7 +5,7 @@
  */
 import tQuantile from '@stdlib/stats-base-dists-t-quantile'
 import { wilsonInterval, type EndState, type MeanWithError, type TrialRecord } from '../engine/index.js'
-import type { ResultRow } from '../spec/index.js'
+import type { ResultRow } from '../results/index.js'
 import type { FigureMeasure, FigureOptions } from './options.js'
 
 export interface MeasuredValue {

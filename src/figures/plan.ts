@@ -2,7 +2,7 @@
  * Everything a figure shows, decided before any pixel: the options (validated), the series
  * and their points, the theory overlays and the words. Drawing (draw.ts) only lays this out.
  */
-import type { SweepResult } from '../spec/index.js'
+import type { SweepResult } from '../results/index.js'
 import { FigureOptionsError } from './errors.js'
 import {
   anyWarm, formatValue, measureAxisTitle, measureShortName, modelConditions, parameterAxisTitle, parameterShortName, plainText

@@ -4,7 +4,8 @@
  * never joins points that differ in anything else.
  */
 import type { TrialRecord } from '../engine/index.js'
-import { gridAxes, type ResultRow, type SweepResult, type VariedPath } from '../spec/index.js'
+import { gridAxes, type VariedPath } from '../spec/index.js'
+import { type ResultRow, type SweepResult } from '../results/index.js'
 import { FigureOptionsError } from './errors.js'
 import { legendEntry } from './labels.js'
 import { measureRow } from './measures.js'

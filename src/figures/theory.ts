@@ -9,7 +9,8 @@
 import {
   crosstalkErrorGaussian, curieWeissOverlap, firstParallelStep, rsCriticalLoad, rsRetrievalOverlap, type PointParams
 } from '../engine/index.js'
-import { pointAt, type ResultRow, type SweepResult, type VariedPath } from '../spec/index.js'
+import { pointAt, type VariedPath } from '../spec/index.js'
+import { type ResultRow, type SweepResult } from '../results/index.js'
 import { formatValue } from './labels.js'
 import type { FigureMeasure, FigureOptions } from './options.js'
 import type { PlotSeries } from './series.js'

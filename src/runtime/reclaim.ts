@@ -1,6 +1,6 @@
 /**
  * The explicit garbage collector for compute threads, handed to the engine as
- * `RunChunkOptions.reclaim`. A network no longer in use (the previous one of a point, the
+ * `ChunkRunHooks.reclaim`. A network no longer in use (the previous one of a point, the
  * last one of the previous chunk or search step) is freed only when V8 next collects; with
  * networks of hundreds of MB that leaves two or three of them resident at once, and a
  * point's peak far above the estimate the validator checks against the memory limit

@@ -5,7 +5,7 @@
  */
 import { estimatePointCost } from '../engine/index.js'
 import { pointsToCheck } from './analysis/normalise.js'
-import { searchTrialBudget } from './analysis/run.js'
+import { searchTrialBudget } from './analysis/budget.js'
 import { WorkLimitError, type WorkLimitName } from './errors.js'
 import { countPoints, gridAxes, pointAt } from './grid.js'
 import type { NormalisedSpec } from './types.js'

@@ -7,7 +7,7 @@
 import { describe } from 'vitest'
 import type { SweepQueue } from '../../src/backends/port.js'
 import { createRedisQueue } from '../../src/backends/redis/index.js'
-import { startWorker } from '../../src/worker/main.js'
+import { startWorker } from '../../src/backends/redis/worker/worker.js'
 import { quietLogger, REDIS_URL, redisAvailable, removePrefix, testPrefix } from '../integration/helpers.js'
 import { defineApiContract } from './contract.js'
 
@@ -27,6 +27,7 @@ describe.runIf(available)('Redis backend', () => {
       list: (query) => queue.list(query),
       cancel: (id) => queue.cancel(id),
       results: (id) => queue.results(id),
+      trials: (id) => queue.trials(id),
       subscribe: (id, listener) => queue.subscribe(id, listener),
       stats: () => queue.stats(),
       ready: () => queue.ready(),

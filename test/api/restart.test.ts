@@ -7,28 +7,32 @@ import { mkdtemp, rm } from 'node:fs/promises'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { afterAll, describe, expect, it } from 'vitest'
+import { installChunkGate } from '../helpers/chunk-gate.js'
 import { openEventStream } from './helpers/sse-client.js'
 import { startServerProcess, type ServerProcess } from './helpers/server-process.js'
 
-/** Six loads × 4000 trials on 1000 neurons: one chunk per load, a few seconds of CPU, so the kill lands between chunks. */
+/** Six loads, one quick chunk each; the test gate holds chunks so the kill lands with the sweep half done. */
 const spec = {
   label: 'rooms of a house, before and after a power cut',
-  neurons: 1000,
+  neurons: 200,
   load: { values: [0.04, 0.06, 0.08, 0.1, 0.12, 0.14] },
-  trials: 4000,
+  trials: 60,
   seed: 21
 }
+
+const gate = installChunkGate()
 
 const running: ServerProcess[] = []
 let dataDir = ''
 
 afterAll(async () => {
+  gate.remove()
   for (const server of running) if (server.child.exitCode === null) server.child.kill('SIGKILL')
   if (dataDir !== '') await rm(dataDir, { recursive: true, force: true })
 })
 
 async function start (): Promise<ServerProcess> {
-  const server = await startServerProcess({ DATA_DIR: dataDir, WORKER_THREADS: '2' })
+  const server = await startServerProcess({ DATA_DIR: dataDir, WORKER_THREADS: '2', ...gate.env })
   running.push(server)
   return server
 }
@@ -56,25 +60,25 @@ async function download (url: string, id: string, query: string): Promise<string
 describe('server restart', () => {
   it('finishes a sweep interrupted by SIGKILL with results identical to an uninterrupted run', async () => {
     dataDir = await mkdtemp(join(tmpdir(), 'memsweep-restart-'))
+    gate.hold()
     const first = await start()
     const { id } = await submit(first.url)
 
-    // Kill once at least one chunk is stored and others are still computing.
+    // Kill once two chunks are stored and others are held in progress.
     const stream = await openEventStream(`${first.url}/v1/sweeps/${id}/events`)
-    await stream.until((item) => {
-      if (item.data === undefined) return false
-      const progress = JSON.parse(item.data).progress
-      return progress.chunksDone >= 1 && progress.chunksDone < progress.chunksTotal
-    })
+    gate.release(2)
+    await stream.until((item) => item.data !== undefined && JSON.parse(item.data).progress.chunksDone >= 2, 30_000)
+    await gate.untilWaiting()
     first.child.kill('SIGKILL')
     expect(await first.exited).toBe('SIGKILL')
     const beforeKill = JSON.parse(stream.received.filter((e) => e.data !== undefined).at(-1)!.data!)
     expect(beforeKill.status).toBe('running')
 
+    gate.open()
     const second = await start()
     const resumed = await finalState(second.url, id)
     expect(resumed.status).toBe('succeeded')
-    expect(resumed.progress).toMatchObject({ chunksDone: resumed.progress.chunksTotal, trialsDone: 6 * 4000, trialsTotal: 6 * 4000 })
+    expect(resumed.progress).toMatchObject({ chunksDone: resumed.progress.chunksTotal, trialsDone: 6 * 60, trialsTotal: 6 * 60 })
 
     const fresh = (await (await fetch(`${second.url}/v1/sweeps`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(spec) })).json()) as { id: string }
     expect((await finalState(second.url, fresh.id)).status).toBe('succeeded')

@@ -5,9 +5,11 @@ import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { createEmbeddedQueue } from '../../src/backends/embedded/index.js'
 import { createHarness, isTerminal, type Harness } from '../api/helpers/harness.js'
-import { slowSpec } from '../api/helpers/specs.js'
+import { heldSpec } from '../api/helpers/specs.js'
+import { sharedChunkGate } from '../helpers/chunk-gate.js'
 import { cli } from './helpers.js'
 
+const gate = sharedChunkGate()
 const TOKEN = 'alice-laptop-7f3a9c2e1b'
 const spec = { label: 'rooms of a museum', neurons: 100, load: { values: [0.05, 0.12] }, trials: 20, seed: 17 }
 
@@ -18,7 +20,7 @@ let dir = ''
 beforeAll(async () => {
   dir = await mkdtemp(join(tmpdir(), 'memsweep-cli-submit-'))
   await writeFile(join(dir, 'spec.json'), JSON.stringify(spec))
-  await writeFile(join(dir, 'slow.json'), JSON.stringify(slowSpec()))
+  await writeFile(join(dir, 'held.json'), JSON.stringify(heldSpec()))
   await writeFile(join(dir, 'bad.json'), JSON.stringify({ neurons: 100, load: 0.1, dynamics: { update: 'teleport' } }))
   h = await createHarness(async ({ dataDir }) => await createEmbeddedQueue({ dataDir, threads: 2 }), { tokens: [`alice:${TOKEN}`] })
   url = await h.app.listen({ port: 0, host: '127.0.0.1' })
@@ -48,14 +50,13 @@ describe('memsweep submit', () => {
   })
 
   it('exits 1 when the sweep is canceled while it waits', async () => {
-    const waiting = cli(['submit', join(dir, 'slow.json'), '--server', url, '--token', TOKEN, '--wait'])
-    let id: string | undefined
-    while (id === undefined) {
-      id = (await h.queue.list({ owner: 'alice', status: 'running', limit: 1 })).items[0]?.id
-      if (id === undefined) await new Promise((resolve) => setTimeout(resolve, 50))
-    }
-    await h.waitFor(id, (r) => r.progress.trialsDone > 0)
+    gate.hold()
+    const waiting = cli(['submit', join(dir, 'held.json'), '--server', url, '--token', TOKEN, '--wait'])
+    await gate.untilWaiting()
+    const id = (await h.queue.list({ owner: 'alice', status: 'running', limit: 1 })).items[0]?.id
+    if (id === undefined) throw new Error('the held sweep is not running')
     await h.app.inject({ method: 'DELETE', url: `/v1/sweeps/${id}`, headers: { authorization: `Bearer ${TOKEN}` } })
+    gate.open()
     const res = await waiting
     expect(res.code).toBe(1)
     expect(res.stderr).toContain('was canceled')

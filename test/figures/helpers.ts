@@ -3,13 +3,16 @@
  * was drawn. Scenario: population codes of rooms stored in a model place-cell network.
  */
 import { DOMParser, type Document, type Element } from '@xmldom/xmldom'
-import { assembleResult, makeProvenance, normaliseSpec, planChunks, runChunk, type SweepResult } from '../../src/spec/index.js'
+import { normaliseSpec } from '../../src/spec/index.js'
+import { assembleResult, makeProvenance, planSweep, computeChunk } from '../../src/sweep/index.js'
+import { type SweepResult } from '../../src/results/index.js'
+import { runtimeFacts } from '../../src/runtime/facts.js'
 
 /** Runs a spec through the same chunk → assemble path every backend uses. */
 export function runSweep (raw: Record<string, unknown>): SweepResult {
   const spec = normaliseSpec(raw)
-  const chunks = planChunks(spec).map((chunk) => runChunk(spec, chunk))
-  return assembleResult(spec, chunks, makeProvenance(spec, { wallSeconds: 0, cpuSeconds: 0 }))
+  const chunks = planSweep(spec).chunks.map((chunk) => computeChunk(spec, chunk))
+  return assembleResult(spec, chunks, makeProvenance(spec, runtimeFacts(), { wallSeconds: 0, cpuSeconds: 0 }))
 }
 
 /** Parses the SVG; any XML error (unescaped text, bad nesting) fails the test. */

@@ -4,7 +4,7 @@ import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { FigureOptionsError, FigureOptionsSchema, parseFigureOptions, renderFigure } from '../../src/figures/index.js'
-import type { SweepResult } from '../../src/spec/index.js'
+import type { SweepResult } from '../../src/results/index.js'
 import { drawnPoints, parseSvg, runSweep } from './helpers.js'
 
 function issuesOf (action: () => unknown): Array<{ path: string, message: string }> {

@@ -3,7 +3,7 @@ import tQuantile from '@stdlib/stats-base-dists-t-quantile'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { MARKER_SHAPES, renderFigure, SERIES_DASHES } from '../../src/figures/index.js'
 import { seriesStyle } from '../../src/figures/styles.js'
-import type { SweepResult } from '../../src/spec/index.js'
+import type { SweepResult } from '../../src/results/index.js'
 import { axisTicks, byClass, drawnPoints, noteText, num, parseSvg, runSweep } from './helpers.js'
 
 /** Rooms of a small flat in two network sizes, listed largest first to check the order is kept. */

@@ -5,8 +5,11 @@ import { createEmbeddedQueue } from '../../src/backends/embedded/index.js'
 import { renderFigure } from '../../src/figures/index.js'
 import { createHarness, isTerminal, type Harness } from '../api/helpers/harness.js'
 import { expectProblem } from '../api/helpers/problems.js'
-import { slowSpec } from '../api/helpers/specs.js'
+import { heldSpec } from '../api/helpers/specs.js'
+import { sharedChunkGate } from '../helpers/chunk-gate.js'
 import { byClass, drawnPoints, parseSvg } from './helpers.js'
+
+const gate = sharedChunkGate()
 
 /** Rooms along a corridor, two network sizes: a second varied parameter for the series. */
 const corridor = { label: 'rooms along a corridor', neurons: { values: [48, 64] }, load: { values: [0.05, 0.1, 0.15] }, trials: 6, seed: 17 }
@@ -82,13 +85,15 @@ describe('GET /v1/sweeps/{id}/figure.svg', () => {
   })
 
   it('answers 409 while the sweep runs and 404 for an unknown sweep', async () => {
-    const running = (await h.request({ method: 'POST', url: '/v1/sweeps', payload: slowSpec() })).json()
+    gate.hold()
+    const running = (await h.request({ method: 'POST', url: '/v1/sweeps', payload: heldSpec() })).json()
     const res = await h.request({ method: 'GET', url: `/v1/sweeps/${running.id as string}/figure.svg` })
     expect(expectProblem(res, 409, 'MEMSWEEP_RESULTS_NOT_READY').sweepId).toBe(running.id)
     expect(res.headers['retry-after']).toBe('5')
     const overlay = await h.request({ method: 'GET', url: `/v1/figures/overlay.svg?sweeps=${id},${running.id as string}` })
     expect(expectProblem(overlay, 409, 'MEMSWEEP_RESULTS_NOT_READY').sweepId).toBe(running.id)
     await h.request({ method: 'DELETE', url: `/v1/sweeps/${running.id as string}` })
+    gate.open()
     await h.waitFor(running.id, isTerminal)
     const canceled = await h.request({ method: 'GET', url: `/v1/sweeps/${running.id as string}/figure.svg` })
     expectProblem(canceled, 409, 'MEMSWEEP_RESULTS_UNAVAILABLE')

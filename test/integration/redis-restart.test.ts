@@ -10,8 +10,8 @@ import type { SweepQueue } from '../../src/backends/port.js'
 import { createRedisQueue, RedisSettingsError } from '../../src/backends/redis/index.js'
 import { inspectRedisSettings } from '../../src/backends/redis/settings.js'
 import { normaliseSpec } from '../../src/spec/index.js'
-import { startWorker } from '../../src/worker/main.js'
-import { computeInProcess, quietLogger, resultBytes, testPrefix, waitForRecord, waitForTerminal } from './helpers.js'
+import { startWorker } from '../../src/backends/redis/worker/worker.js'
+import { computeInProcess, quietLogger, fullResult, resultBytes, testPrefix, waitForRecord, waitForTerminal } from './helpers.js'
 import { redisServerInstalled, startPrivateRedis, type PrivateRedis } from './redis-server.js'
 
 const installed = redisServerInstalled()
@@ -75,7 +75,7 @@ describe.runIf(installed)('Redis backend: Redis restarts and settings', () => {
     expect(done.status).toBe('succeeded')
     expect(done.progress.chunksDone).toBe(done.progress.chunksTotal)
     expect(done.progress.trialsDone).toBe(done.progress.trialsTotal)
-    expect(resultBytes((await queue.results(submitted.id))!)).toBe(resultBytes(computeInProcess(spec)))
+    expect(resultBytes(await fullResult(queue, submitted.id))).toBe(resultBytes(computeInProcess(spec)))
     expect(await queue.ready()).toEqual({ ok: true })
   })
 

@@ -7,11 +7,12 @@ import { Redis } from 'ioredis'
 import { IdempotencyConflictError, type SweepQueue, type SweepRecord } from '../../src/backends/port.js'
 import { createRedisQueue } from '../../src/backends/redis/index.js'
 import { keyLayout } from '../../src/backends/redis/keys.js'
-import { RedisSweepStore, type NewSweep } from '../../src/backends/redis/store.js'
-import { countPoints, planChunks, specHash, type NormalisedSpec } from '../../src/spec/index.js'
-import { startWorker, type RunningWorker } from '../../src/worker/main.js'
+import { RedisSweepStore } from '../../src/backends/redis/store.js'
+import { specHash, type NormalisedSpec } from '../../src/spec/index.js'
+import { planSweep, type SweepDraft } from '../../src/sweep/index.js'
+import { startWorker, type RunningWorker } from '../../src/backends/redis/worker/worker.js'
 import {
-  computeInProcess, corridorSpec, quietLogger, REDIS_URL, redisAvailable, removePrefix, resultBytes, roomCodesSpec,
+  computeInProcess, corridorSpec, quietLogger, REDIS_URL, redisAvailable, removePrefix, fullResult, resultBytes, roomCodesSpec,
   testPrefix, waitForRecord, waitForTerminal
 } from './helpers.js'
 
@@ -60,9 +61,9 @@ describe.runIf(available)('Redis backend: sweeps through the queue port', () => 
     expect(done.progress).toEqual({ pointsDone: 6, pointsTotal: 6, trialsDone: 1200, trialsTotal: 1200, chunksDone: done.progress.chunksTotal, chunksTotal: done.progress.chunksTotal })
     expect(Date.parse(done.startedAt ?? '')).toBeGreaterThanOrEqual(Date.parse(done.createdAt))
     expect(Date.parse(done.finishedAt ?? '')).toBeGreaterThanOrEqual(Date.parse(done.startedAt ?? ''))
-    const result = await queue.results(submitted.id)
-    expect(result?.provenance.cpuSeconds).toBeGreaterThan(0)
-    expect(resultBytes(result!)).toBe(resultBytes(computeInProcess(spec)))
+    const result = await fullResult(queue, submitted.id)
+    expect(result.provenance.cpuSeconds).toBeGreaterThan(0)
+    expect(resultBytes(result)).toBe(resultBytes(computeInProcess(spec)))
 
     expect(await queue.stats()).toMatchObject({ queued: 0, running: 0, succeeded: 1, failed: 0, canceled: 0, chunksWaiting: 0 })
     // The assembly job stores the result a moment before BullMQ marks the job itself completed.
@@ -82,7 +83,7 @@ describe.runIf(available)('Redis backend: sweeps through the queue port', () => 
     const done = await waitForTerminal(second, submitted.id)
     expect(done.status).toBe('succeeded')
     expect(done.progress.chunksDone).toBe(done.progress.chunksTotal)
-    expect(resultBytes((await second.results(submitted.id))!)).toBe(resultBytes(computeInProcess(spec)))
+    expect(resultBytes(await fullResult(second, submitted.id))).toBe(resultBytes(computeInProcess(spec)))
   })
 
   it('lists sweeps newest first with an opaque cursor, filtered by owner and status', async () => {
@@ -149,20 +150,14 @@ describe.runIf(available)('Redis backend: sweeps through the queue port', () => 
     const redis = new Redis(REDIS_URL)
     const store = new RedisSweepStore(redis, keyLayout(prefix), 3600)
     const storeOnly = async (spec: NormalisedSpec, createdMs: number, idempotencyKey?: string): Promise<string> => {
-      const plan = planChunks(spec)
-      const perPoint = new Map<number, number>()
-      for (const chunk of plan) perPoint.set(chunk.point, (perPoint.get(chunk.point) ?? 0) + 1)
-      const sweep: NewSweep = {
+      const sweep: SweepDraft = {
         id: crypto.randomUUID(),
         owner: null,
         label: spec.label,
         specHash: specHash(spec),
         spec,
         createdMs,
-        pointsTotal: countPoints(spec),
-        trialsTotal: plan.reduce((sum, chunk) => sum + chunk.count, 0),
-        chunksTotal: plan.length,
-        chunksPerPoint: perPoint
+        plan: planSweep(spec)
       }
       await store.create(sweep, idempotencyKey === undefined ? {} : { idempotency: { key: idempotencyKey, ttlSeconds: 60 } })
       return sweep.id
@@ -179,7 +174,7 @@ describe.runIf(available)('Redis backend: sweeps through the queue port', () => 
       await worker()
       expect((await waitForTerminal(queue, forgotten)).status).toBe('succeeded')
       expect((await waitForTerminal(queue, retried)).status).toBe('succeeded')
-      expect(resultBytes((await queue.results(retried))!)).toBe(resultBytes(computeInProcess(retriedSpec)))
+      expect(resultBytes(await fullResult(queue, retried))).toBe(resultBytes(computeInProcess(retriedSpec)))
     } finally {
       redis.disconnect()
     }
@@ -194,7 +189,7 @@ describe.runIf(available)('Redis backend: sweeps through the queue port', () => 
     const reused = await queue.submit({ spec, owner: 'lab-a', reuse: true })
     expect(reused).toMatchObject({ status: 'succeeded', reusedFrom: original.id })
     expect(reused.progress.trialsDone).toBe(reused.progress.trialsTotal)
-    expect(resultBytes((await queue.results(reused.id))!)).toBe(resultBytes((await queue.results(original.id))!))
+    expect(resultBytes(await fullResult(queue, reused.id))).toBe(resultBytes(await fullResult(queue, original.id)))
 
     // Not asked to reuse, or another lab's results: a fresh run (the idle worker may start it at once).
     const fresh = await queue.submit({ spec, owner: 'lab-a' })

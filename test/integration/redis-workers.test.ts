@@ -9,10 +9,11 @@ import { Redis } from 'ioredis'
 import type { SweepQueue } from '../../src/backends/port.js'
 import { createRedisQueue } from '../../src/backends/redis/index.js'
 import { CHUNK_QUEUE_NAME, chunkJobId, keyLayout } from '../../src/backends/redis/keys.js'
-import { startWorker, type WorkerProcessOptions } from '../../src/worker/main.js'
-import { dispatchOrder, normaliseSpec, planChunks } from '../../src/spec/index.js'
+import { startWorker, type WorkerProcessOptions } from '../../src/backends/redis/worker/worker.js'
+import { normaliseSpec } from '../../src/spec/index.js'
+import { dispatchOrder, planSweep } from '../../src/sweep/index.js'
 import {
-  computeInProcess, corridorSpec, quietLogger, REDIS_URL, redisAvailable, removePrefix, resultBytes, roomCodesSpec,
+  computeInProcess, corridorSpec, quietLogger, REDIS_URL, redisAvailable, removePrefix, fullResult, resultBytes, roomCodesSpec,
   testPrefix, waitForTerminal
 } from './helpers.js'
 
@@ -72,8 +73,8 @@ describe.runIf(available)('Redis backend: workers', () => {
     const pair = await queue.submit({ spec, owner: null })
     expect((await waitForTerminal(queue, pair.id)).status).toBe('succeeded')
 
-    const one = resultBytes((await queue.results(single.id))!)
-    expect(resultBytes((await queue.results(pair.id))!)).toBe(one)
+    const one = resultBytes(await fullResult(queue, single.id))
+    expect(resultBytes(await fullResult(queue, pair.id))).toBe(one)
     expect(one).toBe(resultBytes(computeInProcess(spec)))
   })
 
@@ -88,7 +89,7 @@ describe.runIf(available)('Redis backend: workers', () => {
     expect(done.error?.kind).toBe('user')
     expect(done.error?.message).toMatch(/successThreshold/)
     // The first chunk a worker takes is the costliest (dispatchOrder); it is the one that failed.
-    const job = await failedChunkJob(submitted.id, dispatchOrder(spec, planChunks(spec))[0]!)
+    const job = await failedChunkJob(submitted.id, dispatchOrder(spec, planSweep(spec).chunks)[0]!)
     expect(job.attemptsMade).toBe(1)
     // The sweep's other chunks never ran: they were removed or skipped once it failed.
     expect(done.progress.chunksDone).toBe(0)

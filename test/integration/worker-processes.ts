@@ -5,7 +5,7 @@
 import { spawn, type ChildProcess } from 'node:child_process'
 import { createInterface } from 'node:readline'
 import { fileURLToPath } from 'node:url'
-import type { WorkerActivity, WorkerProcessOptions } from '../../src/worker/main.js'
+import type { WorkerActivity, WorkerProcessOptions } from '../../src/backends/redis/worker/worker.js'
 import { ENGINE_PROCESS_FLAGS } from '../../src/runtime/node-flags.js'
 
 const FIXTURE = fileURLToPath(new URL('./fixtures/worker-process.ts', import.meta.url))

@@ -6,14 +6,15 @@
  */
 import { describe, expect, it } from 'vitest'
 import { curieWeissOverlap, rsCriticalLoad } from '../../src/engine/index.js'
-import {
-  assembleResult, makeProvenance, normaliseSpec, planChunks, runChunk, SIMULATED_CAPACITY, type SweepResult
-} from '../../src/spec/index.js'
+import { normaliseSpec } from '../../src/spec/index.js'
+import { assembleResult, makeProvenance, planSweep, computeChunk, SIMULATED_CAPACITY } from '../../src/sweep/index.js'
+import { type SweepResult } from '../../src/results/index.js'
+import { runtimeFacts } from '../../src/runtime/facts.js'
 
 function run (input: unknown): SweepResult {
   const spec = normaliseSpec(input)
-  const chunks = planChunks(spec).map((chunk) => runChunk(spec, chunk))
-  return assembleResult(spec, chunks, makeProvenance(spec, { wallSeconds: 0, cpuSeconds: 0 }))
+  const chunks = planSweep(spec).chunks.map((chunk) => computeChunk(spec, chunk))
+  return assembleResult(spec, chunks, makeProvenance(spec, runtimeFacts(), { wallSeconds: 0, cpuSeconds: 0 }))
 }
 
 /** A load search on the standard Hebbian network, started from the stored pattern itself. */

@@ -1,11 +1,10 @@
 /** The analysis member of a spec: validation, normal form, chunks, assembly, output, determinism. */
 import { deserialize, serialize } from 'node:v8'
 import { describe, expect, it } from 'vitest'
-import {
-  assembleResult, canonicalJson, ChunkCanceledError, checkLimits, DEFAULT_LIMITS, estimateWork, IncompleteResultError, makeProvenance,
-  normaliseSpec, planChunks, resultToCsv, resultToJson, runChunk, searchStreamPoint, SEARCH_STREAM_OFFSET, specHash, SpecValidationError,
-  WorkLimitError, type ChunkResult, type NormalisedSpec
-} from '../../src/spec/index.js'
+import { canonicalJson, checkLimits, DEFAULT_LIMITS, estimateWork, normaliseSpec, specHash, SpecValidationError, WorkLimitError, type NormalisedSpec } from '../../src/spec/index.js'
+import { assembleResult, ChunkCanceledError, IncompleteResultError, makeProvenance, planSweep, computeChunk, searchStreamPoint, SEARCH_STREAM_OFFSET, type ChunkResult } from '../../src/sweep/index.js'
+import { resultToCsv, resultToJson } from '../../src/results/index.js'
+import { runtimeFacts } from '../../src/runtime/facts.js'
 
 /** Two quick load searches at N = 60 and 120 (the outer grid), 40 trials per step. */
 const SMALL = {
@@ -29,10 +28,10 @@ function issuesOf (input: unknown): Array<{ path: string, message: string }> {
 }
 
 function runAll (spec: NormalisedSpec): ChunkResult[] {
-  return planChunks(spec).map((chunk) => runChunk(spec, chunk))
+  return planSweep(spec).chunks.map((chunk) => computeChunk(spec, chunk))
 }
 
-const provenanceOf = (spec: NormalisedSpec) => makeProvenance(spec, { wallSeconds: 0, cpuSeconds: 0 })
+const provenanceOf = (spec: NormalisedSpec) => makeProvenance(spec, runtimeFacts(), { wallSeconds: 0, cpuSeconds: 0 })
 
 describe('analysis spec: normal form', () => {
   it('writes every default out, the tolerance as (to − from)/32, and is a fixed point', () => {
@@ -108,7 +107,7 @@ describe('analysis spec: validation names the offending field', () => {
 describe('analysis spec: work and chunks', () => {
   it('plans one chunk per search, each counting the whole budget maxSteps × trials', () => {
     const spec = normaliseSpec(SMALL)
-    expect(planChunks(spec)).toEqual([
+    expect(planSweep(spec).chunks).toEqual([
       { index: 0, point: 0, firstTrial: 0, count: 280 },
       { index: 1, point: 1, firstTrial: 0, count: 280 }
     ])
@@ -124,15 +123,15 @@ describe('analysis spec: work and chunks', () => {
 
   it('reports progress per trial, never beyond the budget, and cancels between trials', () => {
     const spec = normaliseSpec(SMALL)
-    const chunk = planChunks(spec)[0]!
+    const chunk = planSweep(spec).chunks[0]!
     const seen: number[] = []
-    const result = runChunk(spec, chunk, { onTrial: (done) => seen.push(done) })
+    const result = computeChunk(spec, chunk, { onTrial: (done) => seen.push(done) })
     expect(seen).toEqual(Array.from({ length: seen.length }, (_, i) => i + 1))
     expect(seen.length).toBe(result.search!.steps.length * spec.trials)
     expect(seen.length).toBeLessThanOrEqual(chunk.count)
     let polls = 0
-    expect(() => runChunk(spec, chunk, { shouldStop: () => ++polls > 50 })).toThrow(ChunkCanceledError)
-    expect(() => runChunk(spec, { ...chunk, count: 10 })).toThrow(RangeError)
+    expect(() => computeChunk(spec, chunk, { shouldStop: () => ++polls > 50 })).toThrow(ChunkCanceledError)
+    expect(() => computeChunk(spec, { ...chunk, count: 10 })).toThrow(RangeError)
   })
 })
 
@@ -141,7 +140,7 @@ describe('analysis spec: assembly and output', () => {
   const chunks = runAll(spec)
 
   it('gives identical payloads when a search chunk runs twice', () => {
-    expect(canonicalJson(runChunk(spec, planChunks(spec)[1]!))).toBe(canonicalJson(chunks[1]))
+    expect(canonicalJson(computeChunk(spec, planSweep(spec).chunks[1]!))).toBe(canonicalJson(chunks[1]))
   })
 
   it('is byte-identical whatever the arrival order and whether chunks travelled as JSON or V8 serialized', () => {

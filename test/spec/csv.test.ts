@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import fc from 'fast-check'
-import { csvField, toCsv } from '../../src/spec/csv.js'
+import { csvField, toCsv } from '../../src/results/csv.js'
 
 /** A small RFC 4180 reader, written independently of the writer, to read our output back. */
 function parseCsv (text: string): string[][] {

@@ -1,12 +1,12 @@
 import { describe, expect, it } from 'vitest'
 import fc from 'fast-check'
-import {
-  assembleResult, ChunkCanceledError, dispatchOrder, IncompleteResultError, makeProvenance, normaliseSpec, planChunks,
-  resultToCsv, resultToJson, runChunk, type Chunk, type ChunkResult, type NormalisedSpec
-} from '../../src/spec/index.js'
+import { normaliseSpec, type NormalisedSpec } from '../../src/spec/index.js'
+import { assembleResult, ChunkCanceledError, dispatchOrder, IncompleteResultError, makeProvenance, planSweep, computeChunk, type Chunk, type ChunkResult } from '../../src/sweep/index.js'
+import { resultToCsv, resultToJson } from '../../src/results/index.js'
 import { pointAt } from '../../src/spec/grid.js'
 import { pointOps } from '../../src/spec/work.js'
 import { estimatePointCost } from '../../src/engine/index.js'
+import { runtimeFacts } from '../../src/runtime/facts.js'
 
 // Small enough to run in well under a second, varied enough to exercise two axes and
 // networks shared by several trials.
@@ -20,10 +20,10 @@ const spec = normaliseSpec({
   trialsPerNetwork: 3,
   measures: { stability: true }
 })
-const provenance = makeProvenance(spec, { wallSeconds: 1.5, cpuSeconds: 2.5, workers: 2 })
+const provenance = makeProvenance(spec, runtimeFacts(), { wallSeconds: 1.5, cpuSeconds: 2.5, workers: 2 })
 
 function runAll (s: NormalisedSpec, chunks: Chunk[]): ChunkResult[] {
-  return chunks.map((chunk) => runChunk(s, chunk))
+  return chunks.map((chunk) => computeChunk(s, chunk))
 }
 
 /** Every trial in its own chunk: the finest possible split. */
@@ -35,18 +35,18 @@ function singleTrialChunks (s: NormalisedSpec, points: number): Chunk[] {
   return chunks
 }
 
-const planned = planChunks(spec)
+const planned = planSweep(spec).chunks
 const fullRun = runAll(spec, planned)
 const reference = assembleResult(spec, fullRun, provenance)
 
-describe('planChunks', () => {
+describe('planSweep', () => {
   it('is a deterministic function of the spec', () => {
-    expect(planChunks(normaliseSpec(JSON.parse(JSON.stringify(spec))))).toEqual(planned)
+    expect(planSweep(normaliseSpec(JSON.parse(JSON.stringify(spec)))).chunks).toEqual(planned)
   })
 
   it('covers every trial of every point once, in order, on network boundaries', () => {
     const big = normaliseSpec({ neurons: 400, load: { values: [0.05, 0.1] }, dynamics: { temperature: 0.3, maxSweeps: 2000, burnIn: 100 }, trials: 300, trialsPerNetwork: 4 })
-    const chunks = planChunks(big)
+    const chunks = planSweep(big).chunks
     expect(chunks.length).toBeGreaterThan(2)
     expect(chunks.map((c) => c.index)).toEqual(chunks.map((_, i) => i))
     for (const point of [0, 1]) {
@@ -62,7 +62,7 @@ describe('planChunks', () => {
 describe('dispatchOrder', () => {
   it('starts the costliest chunks first: a capacity curve from its high-load end, each chunk once', () => {
     const curve = normaliseSpec({ neurons: 500, load: { from: 0.02, to: 0.24, step: 0.02 }, trials: 2000, seed: 1 })
-    const plan = planChunks(curve)
+    const plan = planSweep(curve).chunks
     const order = dispatchOrder(curve, plan)
     expect([...order].sort((a, b) => a - b)).toEqual(plan.map((c) => c.index))
     // Estimated work per chunk (trials × visits × cost of a visit) never rises along the order.
@@ -78,9 +78,9 @@ describe('dispatchOrder', () => {
   })
 })
 
-describe('runChunk', () => {
+describe('computeChunk', () => {
   it('gives the same trials as the full run, whatever the chunk boundaries', () => {
-    const middle = runChunk(spec, { index: 99, point: 3, firstTrial: 4, count: 4 })
+    const middle = computeChunk(spec, { index: 99, point: 3, firstTrial: 4, count: 4 })
     expect(middle.point).toBe(3)
     expect(middle.chunk).toBe(99)
     expect(middle.trials).toEqual(reference.trials[3]!.slice(4, 8))
@@ -88,18 +88,18 @@ describe('runChunk', () => {
 
   it('reports progress after each trial and stops between trials when asked', () => {
     const progress: number[] = []
-    runChunk(spec, { index: 0, point: 0, firstTrial: 0, count: 3 }, { onTrial: (done) => progress.push(done) })
+    computeChunk(spec, { index: 0, point: 0, firstTrial: 0, count: 3 }, { onTrial: (done) => progress.push(done) })
     expect(progress).toEqual([1, 2, 3])
     let polls = 0
     const stop = () => ++polls > 2
-    expect(() => runChunk(spec, { index: 5, point: 1, firstTrial: 0, count: 9 }, { shouldStop: stop }))
+    expect(() => computeChunk(spec, { index: 5, point: 1, firstTrial: 0, count: 9 }, { shouldStop: stop }))
       .toThrow(ChunkCanceledError)
     expect(polls).toBe(3)
   })
 
   it('refuses a chunk outside the grid', () => {
-    expect(() => runChunk(spec, { index: 0, point: 4, firstTrial: 0, count: 1 })).toThrow(RangeError)
-    expect(() => runChunk(spec, { index: 0, point: 0, firstTrial: 8, count: 2 })).toThrow(RangeError)
+    expect(() => computeChunk(spec, { index: 0, point: 4, firstTrial: 0, count: 1 })).toThrow(RangeError)
+    expect(() => computeChunk(spec, { index: 0, point: 0, firstTrial: 8, count: 2 })).toThrow(RangeError)
   })
 })
 
@@ -137,7 +137,7 @@ describe('assembleResult', () => {
   })
 
   it('refuses provenance made for another spec', () => {
-    const other = makeProvenance(normaliseSpec({ neurons: 48, patterns: 2 }), { wallSeconds: 0, cpuSeconds: 0 })
+    const other = makeProvenance(normaliseSpec({ neurons: 48, patterns: 2 }), runtimeFacts(), { wallSeconds: 0, cpuSeconds: 0 })
     expect(() => assembleResult(spec, fullRun, other)).toThrow(RangeError)
   })
 })
@@ -189,7 +189,7 @@ describe('output', () => {
 
   it('does not repeat N or P when they are themselves varied', () => {
     const sizes = normaliseSpec({ neurons: { values: [20, 30] }, patterns: { values: [2, 3] }, trials: 2 })
-    const result = assembleResult(sizes, runAll(sizes, planChunks(sizes)), makeProvenance(sizes, { wallSeconds: 0, cpuSeconds: 0 }))
+    const result = assembleResult(sizes, runAll(sizes, planSweep(sizes).chunks), makeProvenance(sizes, runtimeFacts(), { wallSeconds: 0, cpuSeconds: 0 }))
     expect(resultToCsv(result, { perTrial: false }).split('\r\n')[0]!.split(',').slice(0, 5)).toEqual(['point', 'neurons', 'patterns', 'alpha', 'trials'])
     expect(resultToCsv(result, { perTrial: true }).split('\r\n')[1]!.split(',').slice(0, 5)).toEqual(['0', '20', '2', '0.1', '0'])
   })

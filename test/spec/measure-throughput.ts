@@ -6,7 +6,8 @@
  */
 import { cpuUsage } from 'node:process'
 import { estimatePointCost } from '../../src/engine/index.js'
-import { normaliseSpec, planChunks, pointAt, runChunk, type SweepSpecInput } from '../../src/spec/index.js'
+import { normaliseSpec, pointAt, type SweepSpecInput } from '../../src/spec/index.js'
+import { planSweep, computeChunk } from '../../src/sweep/index.js'
 import { ENGINE_OPS_PER_CPU_SECOND, pointOps } from '../../src/spec/work.js'
 
 const WORKLOADS: Record<string, SweepSpecInput> = {
@@ -26,9 +27,9 @@ const WORKLOADS: Record<string, SweepSpecInput> = {
 function measure (input: SweepSpecInput): { ops: number, cpuSeconds: number } {
   const spec = normaliseSpec(input)
   const { params } = pointAt(spec, 0)
-  runChunk(spec, { index: 0, point: 0, firstTrial: 0, count: Math.min(spec.trials, 5) })
+  computeChunk(spec, { index: 0, point: 0, firstTrial: 0, count: Math.min(spec.trials, 5) })
   const start = cpuUsage()
-  for (const chunk of planChunks(spec)) runChunk(spec, chunk)
+  for (const chunk of planSweep(spec).chunks) computeChunk(spec, chunk)
   const used = cpuUsage(start)
   return { ops: pointOps(estimatePointCost(params), spec.trials, params.trialsPerNetwork), cpuSeconds: (used.user + used.system) / 1e6 }
 }

@@ -1,8 +1,7 @@
 import { describe, expect, it } from 'vitest'
-import {
-  assembleResult, countPoints, estimateWork, makeProvenance, normaliseSpec, planChunks, pointAt, runChunk,
-  specHash, SpecValidationError, type SpecIssue
-} from '../../src/spec/index.js'
+import { countPoints, estimateWork, normaliseSpec, pointAt, specHash, SpecValidationError, type SpecIssue } from '../../src/spec/index.js'
+import { assembleResult, makeProvenance, planSweep, computeChunk } from '../../src/sweep/index.js'
+import { runtimeFacts } from '../../src/runtime/facts.js'
 
 function issuesOf (input: unknown): SpecIssue[] {
   try {
@@ -87,10 +86,13 @@ describe('model families in the sweep spec', () => {
     specs.forEach((input, k) => {
       const spec = normaliseSpec({ ...input, seed: 3, trials: 6, trialsPerNetwork: 2 })
       expect(estimateWork(spec).cpuSeconds).toBeLessThan(1)
-      const result = assembleResult(spec, planChunks(spec).map((chunk) => runChunk(spec, chunk)), makeProvenance(spec, { wallSeconds: 0, cpuSeconds: 0 }))
+      const result = assembleResult(spec, planSweep(spec).chunks.map((chunk) => computeChunk(spec, chunk)), makeProvenance(spec, runtimeFacts(), { wallSeconds: 0, cpuSeconds: 0 }))
       const row = result.rows[0]!
       expect(row.summary.trials).toBe(6)
-      expect(row.summary.success.rate).toBeGreaterThan(0.5)
+      // Every family recalls on average: the dense x^3 point (P = 2N) succeeds in about two
+      // thirds of its trials (measured over 7 seeds × 60 trials), so six trials test the
+      // mean final overlap (0.77-0.89 over those seeds), not the success rate.
+      expect(row.summary.overlap.mean).toBeGreaterThan(0.5)
       expect(row.theory[theoryKeys[k]!]).toEqual(expect.any(Number))
     })
   })

@@ -13,7 +13,10 @@ import type { SweepRecord } from '../../src/backends/port.js'
 import { TERMINAL_STATUSES } from '../../src/backends/port.js'
 import { ARTIFACTS, launchChromium } from './helpers/browser.js'
 import { startWebServer, type WebServer } from './helpers/server.js'
+import { sharedChunkGate } from '../helpers/chunk-gate.js'
 
+/** Installed before the servers start: their compute threads wait at it while a test holds it. */
+const gate = sharedChunkGate()
 const SHOTS = join(ARTIFACTS, 'web')
 const POLL = { timeout: 20_000, interval: 50 }
 const WIDE = { width: 1280, height: 800 }
@@ -284,8 +287,11 @@ describe('web page in Chromium', () => {
   })
 
   it('cancels a running sweep from the list, only after confirmation', async () => {
-    const id = await submit(open, { ...example('room-capacity'), label: 'Large capacity sweep to cancel', trials: 4000 })
-    await waitFor(open, id, (r) => r.status === 'running' && r.progress.trialsDone > 0)
+    gate.hold()
+    const id = await submit(open, { ...example('room-capacity'), label: 'Large capacity sweep to cancel' })
+    gate.release(3)
+    await waitFor(open, id, (r) => r.status === 'running' && r.progress.chunksDone >= 3)
+    await gate.untilWaiting()
     const page = await context.newPage()
     await page.goto(`${open.url}/`)
     // Keyboard first: the skip link comes first and lands on the content without leaving the page.
@@ -314,6 +320,7 @@ describe('web page in Chromium', () => {
     await row.locator('.status[data-status="canceled"]').waitFor()
     const record = await waitFor(open, id, (r) => TERMINAL_STATUSES.has(r.status))
     expect(record.status).toBe('canceled')
+    gate.open()
     await shot(page, 'list-after-cancel', false)
 
     // The status filter asks the server for one status only.

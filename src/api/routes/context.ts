@@ -14,7 +14,6 @@ export interface RouteContext {
   maxActiveSweepsPerOwner: number
   heartbeatMs: number
   streams: EventStreamRegistry
-  gate: OwnerGate
 }
 
 /** The record of a sweep the caller may see; anything else is a 404 (never a 403, so ids reveal nothing). */
@@ -22,26 +21,6 @@ export async function visibleSweep (queue: SweepQueue, principal: Principal, id:
   const record = await queue.get(id)
   if (record === null || !canSee(principal, record.owner)) throw new ServiceError('MEMSWEEP_SWEEP_NOT_FOUND', { id })
   return record
-}
-
-/**
- * Runs one owner's submissions one at a time in this process, so the active-sweep cap cannot
- * be overrun by a burst of parallel requests (across API processes it is a soft cap).
- */
-export class OwnerGate {
-  readonly #tails = new Map<string, Promise<unknown>>()
-
-  async run<T> (owner: string | null, task: () => Promise<T>): Promise<T> {
-    const key = owner ?? ''
-    const previous = this.#tails.get(key) ?? Promise.resolve()
-    const current = previous.catch(() => undefined).then(task)
-    this.#tails.set(key, current)
-    try {
-      return await current
-    } finally {
-      if (this.#tails.get(key) === current) this.#tails.delete(key)
-    }
-  }
 }
 
 /**

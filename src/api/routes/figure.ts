@@ -10,7 +10,7 @@ import type { FastifyReply, FastifyRequest } from 'fastify'
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod'
 import { ServiceError } from '../../errors.js'
 import { FigureOptionsError, FigureOptionsSchema, renderFigure } from '../../figures/index.js'
-import type { SweepResult } from '../../spec/index.js'
+import type { SweepResult } from '../../results/index.js'
 import { ifNoneMatchHits, sweepPath } from '../presenters.js'
 import { fieldIssue } from '../problem-reply.js'
 import { problemResponses } from '../schemas/problem.js'
@@ -63,10 +63,14 @@ async function checkSucceeded (ctx: RouteContext, request: FastifyRequest, id: s
   }
 }
 
-async function loadResult (ctx: RouteContext, id: string): Promise<SweepResult> {
+/** Stability error bars are the spread over networks, read from the per-trial records. */
+const MEASURES_FROM_TRIALS: ReadonlySet<string> = new Set(['unstableFraction', 'fixedPatternFraction'])
+
+async function loadResult (ctx: RouteContext, id: string, measure: string): Promise<SweepResult> {
   const result = await ctx.queue.results(id)
   if (result === null) throw new Error(`sweep ${id} succeeded but the backend has no result for it`)
-  return result
+  if (!MEASURES_FROM_TRIALS.has(measure)) return result
+  return { ...result, trials: await ctx.queue.trials(id) ?? [] }
 }
 
 export const figureRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx) => {
@@ -87,7 +91,7 @@ export const figureRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
     const options = request.query
     // Visibility is checked on every request; the result is only loaded when the figure is not cached.
     await checkSucceeded(ctx, request, id)
-    const rendered = await cached(`${id}\u0000${optionsKey(options)}`, async () => render([await loadResult(ctx, id)], options))
+    const rendered = await cached(`${id}\u0000${optionsKey(options)}`, async () => render([await loadResult(ctx, id, options.measure)], options))
     return sendSvg(request, reply, rendered, `memsweep-${id}-${options.measure}.svg`)
   })
 
@@ -106,7 +110,7 @@ export const figureRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
     for (const id of ids) await checkSucceeded(ctx, request, id)
     const rendered = await cached(`${ids.join(',')}\u0000${optionsKey(options)}`, async () => {
       const results: SweepResult[] = []
-      for (const id of ids) results.push(await loadResult(ctx, id))
+      for (const id of ids) results.push(await loadResult(ctx, id, options.measure))
       return render(results, options)
     })
     return sendSvg(request, reply, rendered, `memsweep-overlay-${options.measure}.svg`)

@@ -4,7 +4,7 @@ import { z } from 'zod'
 import type { FastifyReply } from 'fastify'
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod'
 import { ServiceError } from '../../errors.js'
-import { resultToCsv, resultToJson } from '../../spec/index.js'
+import { resultToCsv, resultToJson } from '../../results/index.js'
 import { negotiate } from '../negotiate.js'
 import { ifNoneMatchHits, sweepPath } from '../presenters.js'
 import { problemResponses } from '../schemas/problem.js'
@@ -116,8 +116,9 @@ export const resultRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
     const key = `${id}\u0000${format}\u0000${perTrial ? 1 : 0}\u0000${timing ? 1 : 0}`
     let rendered = cache.get(key)
     if (rendered === undefined) {
-      const result = await ctx.queue.results(id)
+      let result = await ctx.queue.results(id)
       if (result === null) throw new Error(`sweep ${id} succeeded but the backend has no result for it`)
+      if (perTrial) result = { ...result, trials: await ctx.queue.trials(id) ?? [] }
       const text = format === 'csv' ? resultToCsv(result, { perTrial }) : resultToJson(result, { perTrial, timing })
       const body = Buffer.from(text, 'utf8')
       rendered = { body, etag: `"${createHash('sha256').update(body).digest('base64url')}"` }

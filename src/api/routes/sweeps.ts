@@ -2,7 +2,7 @@
 import { z } from 'zod'
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod'
 import { ServiceError } from '../../errors.js'
-import type { SweepQueue } from '../../backends/port.js'
+import { ActiveSweepCapError } from '../../backends/port.js'
 import { SweepSpecSchema, checkLimits, estimateWork, normaliseSpec, specHash, WorkLimitError } from '../../spec/index.js'
 import { requireAction } from '../plugins/auth.js'
 import { ifNoneMatchHits, presentSweep, sweepPath, sweepStateTag } from '../presenters.js'
@@ -51,17 +51,6 @@ const validationSchema = z.object({
     .describe('The first limit this sweep exceeds (submitting it would get 422), or null.')
 }).meta({ id: 'SpecValidation' })
 
-/** Counts the owner's queued and running sweeps, stopping once the cap is reached. */
-async function activeSweeps (queue: SweepQueue, owner: string | null, cap: number): Promise<number> {
-  let active = 0
-  for (const status of ['queued', 'running'] as const) {
-    const page = await queue.list({ owner, status, limit: cap })
-    active += page.items.length
-    if (active >= cap) break
-  }
-  return active
-}
-
 function ownerLabel (principal: Principal): string {
   return principal.owner === null ? 'This server' : `Owner '${principal.owner}'`
 }
@@ -90,19 +79,20 @@ export const sweepRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx)
     const spec = normaliseSpec(request.body)
     checkLimits(spec, ctx.limits)
     const idempotencyKey = request.headers['idempotency-key']
-    const record = await ctx.gate.run(principal.owner, async () => {
-      const cap = ctx.maxActiveSweepsPerOwner
-      const active = await activeSweeps(queue, principal.owner, cap)
-      if (active >= cap) {
-        throw new ServiceError('MEMSWEEP_TOO_MANY_ACTIVE_SWEEPS', { owner: ownerLabel(principal), active, max: cap }, { headers: { 'retry-after': '30' }, extensions: { retryAfter: 30 } })
-      }
-      return await queue.submit({
+    let record
+    try {
+      // The backend checks the cap atomically with storing the sweep (across API instances too).
+      record = await queue.submit({
         spec,
         owner: principal.owner,
         reuse: request.query.reuse === 'true',
+        maxActive: ctx.maxActiveSweepsPerOwner,
         ...(idempotencyKey === undefined ? {} : { idempotencyKey })
       })
-    })
+    } catch (error) {
+      if (!(error instanceof ActiveSweepCapError)) throw error
+      throw new ServiceError('MEMSWEEP_TOO_MANY_ACTIVE_SWEEPS', { owner: ownerLabel(principal), active: error.active, max: error.max }, { headers: { 'retry-after': '30' }, extensions: { retryAfter: 30 } })
+    }
     request.log.info({ sweepId: record.id, specHash: record.specHash, reusedFrom: record.reusedFrom }, 'sweep submitted')
     return reply.code(202)
       .header('location', sweepPath(record.id))

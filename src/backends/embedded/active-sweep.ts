@@ -1,10 +1,10 @@
 /**
- * In-memory bookkeeping of one queued or running sweep: which chunks wait, run or are
- * done, how many attempts each has had, and the stop flag its running chunks watch.
- * Rebuilt from storage after a restart: the plan is a pure function of the spec, and the
- * finished chunks are the stored ones.
+ * In-memory dispatch bookkeeping of one queued or running sweep: which chunks of its stored
+ * plan wait, run or are stored, how many attempts each has had, and the stop flag its
+ * running chunks watch. Rebuilt after a restart from the stored plan and the stored chunks.
  */
-import { dispatchOrder, type Chunk, type NormalisedSpec } from '../../spec/index.js'
+import { dispatchOrder, planComplete, type Chunk, type SweepPlan } from '../../sweep/index.js'
+import type { NormalisedSpec } from '../../spec/index.js'
 
 export class ActiveSweep {
   readonly id: string
@@ -12,48 +12,35 @@ export class ActiveSweep {
   readonly ownerKey: string
   readonly seq: number
   readonly spec: NormalisedSpec
-  readonly specHash: string
   readonly plan: readonly Chunk[]
   /** Shared with every thread running one of this sweep's chunks; non-zero = stop. */
   readonly stopFlag = new SharedArrayBuffer(Int32Array.BYTES_PER_ELEMENT)
-  started: boolean
   startedMs: number | null
   assembling = false
-  /** Waiting chunk indices, in dispatch order (costliest first: spec/chunks.ts dispatchOrder). */
+  /** Waiting chunk indices, in dispatch order (costliest first: src/sweep/plan.ts dispatchOrder). */
   readonly #pending: number[]
   /** Position of each chunk index in the dispatch order. */
   readonly #rank: Int32Array
-  readonly #running = new Map<number, number>()
+  readonly #running = new Set<number>()
   readonly #done = new Set<number>()
   readonly #attempts = new Map<number, number>()
-  readonly #chunksLeftPerPoint = new Map<number, number>()
 
-  constructor (init: {
-    id: string
-    ownerKey: string
-    seq: number
-    spec: NormalisedSpec
-    specHash: string
-    plan: readonly Chunk[]
-    doneIndices: readonly number[]
-    startedMs: number | null
-  }) {
+  constructor (init: { id: string, ownerKey: string, seq: number, spec: NormalisedSpec, plan: SweepPlan, doneIndices: readonly number[], startedMs: number | null }) {
     this.id = init.id
     this.ownerKey = init.ownerKey
     this.seq = init.seq
     this.spec = init.spec
-    this.specHash = init.specHash
-    this.plan = init.plan
-    this.started = init.startedMs !== null
+    this.plan = init.plan.chunks
     this.startedMs = init.startedMs
-    for (const chunk of init.plan) {
-      this.#chunksLeftPerPoint.set(chunk.point, (this.#chunksLeftPerPoint.get(chunk.point) ?? 0) + 1)
-    }
-    for (const index of init.doneIndices) this.#markDone(index)
-    const order = dispatchOrder(init.spec, init.plan)
-    this.#rank = new Int32Array(init.plan.length)
+    for (const index of init.doneIndices) this.#done.add(index)
+    const order = dispatchOrder(init.spec, this.plan)
+    this.#rank = new Int32Array(this.plan.length)
     order.forEach((index, position) => { this.#rank[index] = position })
-    this.#pending = order.filter(index => !this.#done.has(index))
+    this.#pending = order.filter((index) => !this.#done.has(index))
+  }
+
+  get started (): boolean {
+    return this.startedMs !== null
   }
 
   get hasPending (): boolean {
@@ -68,19 +55,9 @@ export class ActiveSweep {
     return this.#running.size
   }
 
+  /** Every chunk of the plan is stored: a comparison of sets, never of counts. */
   get allDone (): boolean {
-    return this.#done.size === this.plan.length
-  }
-
-  get stopRequested (): boolean {
-    return Atomics.load(new Int32Array(this.stopFlag), 0) !== 0
-  }
-
-  /** Trials finished by chunks still running (not yet stored). */
-  get runningTrials (): number {
-    let total = 0
-    for (const trials of this.#running.values()) total += trials
-    return total
+    return planComplete(this.plan, this.#done)
   }
 
   /** Takes the next waiting chunk in dispatch order and counts an attempt for it. */
@@ -91,28 +68,17 @@ export class ActiveSweep {
     if (chunk === undefined || chunk.index !== index) throw new Error(`Chunk plan of sweep ${this.id} is not indexed 0..n-1.`)
     const attempt = (this.#attempts.get(index) ?? 0) + 1
     this.#attempts.set(index, attempt)
-    this.#running.set(index, 0)
+    this.#running.add(index)
     return { chunk, attempt }
   }
 
-  reportTrials (index: number, trialsDone: number): void {
-    if (this.#running.has(index)) this.#running.set(index, trialsDone)
-  }
-
-  /** How many grid points finishing this chunk completes (0 or 1). */
-  pointsCompletedBy (index: number): number {
-    if (this.#done.has(index)) return 0
-    const point = this.plan[index]?.point
-    return point !== undefined && this.#chunksLeftPerPoint.get(point) === 1 ? 1 : 0
-  }
-
-  /** Marks a running chunk finished. */
+  /** Marks a running chunk stored. */
   finish (index: number): void {
     this.#running.delete(index)
-    this.#markDone(index)
+    this.#done.add(index)
   }
 
-  /** Puts a running chunk back at its place in the queue (a retry, or a stop during close). */
+  /** Puts a running chunk back at its place in the queue (a retry). */
   requeue (index: number): void {
     this.#running.delete(index)
     let at = 0
@@ -128,12 +94,5 @@ export class ActiveSweep {
   requestStop (): void {
     Atomics.store(new Int32Array(this.stopFlag), 0, 1)
     this.#pending.length = 0
-  }
-
-  #markDone (index: number): void {
-    if (this.#done.has(index)) return
-    this.#done.add(index)
-    const point = this.plan[index]?.point
-    if (point !== undefined) this.#chunksLeftPerPoint.set(point, (this.#chunksLeftPerPoint.get(point) ?? 1) - 1)
   }
 }

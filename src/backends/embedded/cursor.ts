@@ -3,7 +3,7 @@
  * of a page. Keyset positions neither skip nor repeat items when sweeps are added between
  * two page reads.
  */
-import { InvalidCursorError } from '../shared/invalid-cursor.js'
+import { InvalidCursorError } from '../errors.js'
 
 export { InvalidCursorError }
 

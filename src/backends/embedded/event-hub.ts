@@ -1,5 +1,5 @@
 /**
- * Per-sweep listeners. State changes go out at once; progress is coalesced to at most one
+ * Per-sweep listeners of the embedded backend (in this process). State changes go out at once; progress is coalesced to at most one
  * event per interval per sweep, always followed by a trailing event so the last value is
  * never lost. Snapshots are built only when someone listens.
  */
@@ -8,7 +8,7 @@ import type { SweepEvent, SweepRecord } from '../port.js'
 
 type Listener = (event: SweepEvent) => void
 
-export class SweepEventHub {
+export class LocalSweepEvents {
   #listeners = new Map<string, Set<Listener>>()
   #lastProgressAt = new Map<string, number>()
   #pendingProgress = new Map<string, NodeJS.Timeout>()

@@ -7,17 +7,18 @@ import { randomUUID } from 'node:crypto'
 import { availableParallelism } from 'node:os'
 import type { Logger } from 'pino'
 import type { ResourceLimits } from 'node:worker_threads'
-import { countPoints, planChunks, specHash } from '../../spec/index.js'
-import type { NormalisedSpec, SweepResult } from '../../spec/index.js'
-import { IdempotencyConflictError } from '../port.js'
-import type { ListQuery, QueueStats, SubmitInput, SweepEvent, SweepQueue, SweepRecord } from '../port.js'
-import { decodeValue } from '../shared/trial-codec.js'
-import { defaultChunkWorkerEntry, type WorkerEntry } from '../shared/worker-entry.js'
+import type { TrialRecord } from '../../engine/index.js'
+import { specHash } from '../../spec/index.js'
+import type { SweepResult } from '../../results/index.js'
+import { checkPlan, decodeValue, planSweep, storedTrials, unresumableFailure, type ListQuery, type SweepPage, type SweepRecord } from '../../sweep/index.js'
+import { ActiveSweepCapError, IdempotencyConflictError } from '../errors.js'
+import type { QueueStats, SubmitInput, SweepEvent, SweepQueue } from '../port.js'
 import { ActiveSweep } from './active-sweep.js'
-import { SweepEventHub } from './event-hub.js'
+import { LocalSweepEvents } from './event-hub.js'
 import { ChunkScheduler } from './scheduler.js'
-import { SweepStore } from './store.js'
+import { SqliteSweepStore } from './store.js'
 import { ChunkThreadPool } from './thread-pool.js'
+import { defaultChunkWorkerEntry, type WorkerEntry } from './worker-entry.js'
 
 export interface EmbeddedQueueTuning {
   /**
@@ -31,10 +32,10 @@ export interface EmbeddedQueueTuning {
    */
   progressIntervalMs: number
   /**
-   * How long an Idempotency-Key stays bound to its sweep.
-   * @defaultValue 86_400_000 (24 h)
+   * How long an Idempotency-Key stays bound to its sweep, seconds (as on the Redis backend).
+   * @defaultValue 86400 (24 h)
    */
-  idempotencyTtlMs: number
+  idempotencyTtlSeconds: number
   /**
    * How long `close()` waits for running chunks to stop before terminating the threads.
    * @defaultValue 2000
@@ -64,7 +65,7 @@ export interface EmbeddedQueueOptions {
 const DEFAULT_TUNING: EmbeddedQueueTuning = {
   maxAttempts: 3,
   progressIntervalMs: 250,
-  idempotencyTtlMs: 24 * 60 * 60 * 1000,
+  idempotencyTtlSeconds: 24 * 60 * 60,
   closeGraceMs: 2000
 }
 
@@ -73,7 +74,7 @@ export async function createEmbeddedQueue (options: EmbeddedQueueOptions): Promi
   const threads = options.threads ?? availableParallelism()
   if (!Number.isInteger(threads) || threads < 1) throw new RangeError(`invalid argument. threads: must be a positive integer. Value: ${threads}.`)
   const logger = options.logger?.child({ component: 'embedded-queue' })
-  const store = new SweepStore(options.dataDir)
+  const store = new SqliteSweepStore(options.dataDir)
   const pool = new ChunkThreadPool({
     threads,
     entry: options.workerEntry ?? defaultChunkWorkerEntry(),
@@ -95,20 +96,20 @@ export async function createEmbeddedQueue (options: EmbeddedQueueOptions): Promi
 
 class EmbeddedQueue implements SweepQueue {
   readonly kind = 'embedded' as const
-  readonly #store: SweepStore
+  readonly #store: SqliteSweepStore
   readonly #pool: ChunkThreadPool
-  readonly #events: SweepEventHub
+  readonly #events: LocalSweepEvents
   readonly #scheduler: ChunkScheduler
   readonly #tuning: EmbeddedQueueTuning
   readonly #logger: Logger | undefined
   #closed: Promise<void> | null = null
 
-  constructor (store: SweepStore, pool: ChunkThreadPool, tuning: EmbeddedQueueTuning, logger: Logger | undefined) {
+  constructor (store: SqliteSweepStore, pool: ChunkThreadPool, tuning: EmbeddedQueueTuning, logger: Logger | undefined) {
     this.#store = store
     this.#pool = pool
     this.#tuning = tuning
     this.#logger = logger
-    this.#events = new SweepEventHub(tuning.progressIntervalMs, id => this.#snapshot(id), logger)
+    this.#events = new LocalSweepEvents(tuning.progressIntervalMs, (id) => this.#store.getNow(id), logger)
     this.#scheduler = new ChunkScheduler({
       store,
       pool,
@@ -118,106 +119,100 @@ class EmbeddedQueue implements SweepQueue {
     })
   }
 
-  /** Picks up every sweep that was queued or running when the process last stopped. */
+  /**
+   * Picks up every sweep that was queued or running when the process last stopped, with the
+   * plan stored at submission: whatever the planning constants of this release, the chunks
+   * stored before are the plan's own.
+   */
   resumeInterrupted (): void {
     for (const row of this.#store.activeSweeps()) {
       try {
-        const spec = JSON.parse(row.specJson) as NormalisedSpec
+        let plan = row.plan
+        if (plan === null) {
+          // Stored by a release that did not store plans: plan now, compute every chunk again.
+          plan = planSweep(row.spec)
+          this.#store.adoptPlan(row.id, plan)
+          this.#logger?.warn({ sweepId: row.id }, 'sweep from an earlier release: planned again, its stored chunks are recomputed')
+        }
+        checkPlan(row.spec, plan)
         this.#scheduler.add(new ActiveSweep({
           id: row.id,
           ownerKey: row.owner ?? '',
           seq: row.seq,
-          spec,
-          specHash: row.specHash,
-          plan: planChunks(spec),
-          doneIndices: this.#store.doneChunkIndices(row.id),
+          spec: row.spec,
+          plan,
+          doneIndices: this.#store.doneChunksNow(row.id),
           startedMs: row.startedMs
         }))
         this.#logger?.info({ sweepId: row.id, status: row.status }, 'resuming sweep')
       } catch (error) {
         this.#logger?.error({ err: error, sweepId: row.id }, 'cannot resume sweep')
-        this.#store.finishUnsuccessfully(row.id, 'failed', {
-          kind: 'system',
-          message: 'The sweep could not be resumed after a restart: this version of the service cannot plan its stored spec.'
-        }, Date.now())
+        this.#store.stopNow(row.id, 'failed', unresumableFailure(), Date.now())
       }
     }
   }
 
   async submit (input: SubmitInput): Promise<SweepRecord> {
     this.#assertOpen()
-    const spec = input.spec
+    // The stored text, parsed: the exact spec a resumed run would see.
+    const spec = JSON.parse(JSON.stringify(input.spec)) as SubmitInput['spec']
     const hash = specHash(spec)
-    const plan = planChunks(spec)
-    const trialsTotal = plan.reduce((sum, chunk) => sum + chunk.count, 0)
-    const ownerKey = input.owner ?? ''
-    const now = Date.now()
-    const outcome = this.#store.transaction(() => {
-      if (input.idempotencyKey !== undefined) {
-        const bound = this.#store.findIdempotencyKey(ownerKey, input.idempotencyKey, now, this.#tuning.idempotencyTtlMs)
-        if (bound !== null) {
-          if (bound.specHash !== hash) throw new IdempotencyConflictError(input.idempotencyKey)
-          return { id: bound.sweepId, run: false, seq: 0 }
-        }
+    const plan = planSweep(spec)
+    const id = randomUUID()
+    const reuseFrom = input.reuse === true ? this.#store.findReusable(input.owner, hash) : null
+    const outcome = this.#store.createNow(
+      { id, owner: input.owner, label: spec.label, specHash: hash, spec, createdMs: Date.now(), plan },
+      {
+        reuseFrom,
+        ...(input.idempotencyKey === undefined ? {} : { idempotency: { key: input.idempotencyKey, ttlSeconds: this.#tuning.idempotencyTtlSeconds } }),
+        ...(input.maxActive === undefined ? {} : { maxActive: input.maxActive })
       }
-      const id = randomUUID()
-      const reusedFrom = input.reuse === true ? this.#store.findReusable(input.owner, hash) : null
-      const seq = this.#store.insertSweep({
-        id,
-        owner: input.owner,
-        label: spec.label,
-        specHash: hash,
-        specJson: JSON.stringify(spec),
-        createdMs: now,
-        pointsTotal: countPoints(spec),
-        trialsTotal,
-        chunksTotal: plan.length,
-        reusedFrom
-      })
-      if (input.idempotencyKey !== undefined) this.#store.insertIdempotencyKey(ownerKey, input.idempotencyKey, hash, id, now)
-      return { id, run: reusedFrom === null, seq }
-    })
-    if (outcome.run) {
-      this.#scheduler.add(new ActiveSweep({
-        id: outcome.id,
-        ownerKey,
-        seq: outcome.seq,
-        // The stored text, parsed: the exact spec a resumed run would see.
-        spec: JSON.parse(JSON.stringify(spec)) as NormalisedSpec,
-        specHash: hash,
-        plan,
-        doneIndices: [],
-        startedMs: null
-      }))
+    )
+    if (outcome.kind === 'existing') {
+      if (outcome.binding.specHash !== hash) throw new IdempotencyConflictError(input.idempotencyKey ?? '')
+      return this.#required(outcome.binding.sweepId)
     }
-    const record = this.#snapshot(outcome.id)
-    if (record === null) throw new Error(`Sweep ${outcome.id} vanished right after it was stored.`)
-    return record
+    if (outcome.kind === 'over-cap') throw new ActiveSweepCapError(input.owner, outcome.active, input.maxActive ?? outcome.active)
+    if (outcome.status === 'queued') {
+      this.#scheduler.add(new ActiveSweep({ id, ownerKey: input.owner ?? '', seq: this.#store.seqOf(id) ?? 0, spec, plan, doneIndices: [], startedMs: null }))
+    }
+    return this.#required(id)
   }
 
   async get (id: string): Promise<SweepRecord | null> {
     this.#assertOpen()
-    return this.#snapshot(id)
+    return this.#store.getNow(id)
   }
 
-  async list (query: ListQuery): Promise<{ items: SweepRecord[], nextCursor: string | null }> {
+  async list (query: ListQuery): Promise<SweepPage> {
     this.#assertOpen()
-    const page = this.#store.list(query)
-    return { items: page.items.map(record => this.#withRunningTrials(record)), nextCursor: page.nextCursor }
+    return await this.#store.list(query)
   }
 
   async cancel (id: string): Promise<SweepRecord | null> {
     this.#assertOpen()
-    const record = this.#store.get(id)
+    const record = this.#store.getNow(id)
     if (record === null) return null
     if (record.status === 'queued' || record.status === 'running') this.#scheduler.cancel(id)
-    return this.#store.get(id)
+    return this.#store.getNow(id)
   }
 
   async results (id: string): Promise<SweepResult | null> {
     this.#assertOpen()
-    const stored = this.#store.resultBody(id)
-    return stored === null ? null : decodeValue<SweepResult>(stored.codec, stored.body)
+    const body = await this.#store.resultBody(id)
+    return body === null ? null : decodeValue<SweepResult>(body)
+  }
+
+  async trials (id: string): Promise<TrialRecord[][] | null> {
+    this.#assertOpen()
+    const result = await this.results(id)
+    if (result === null) return null
+    // Results stored before chunks were kept hold their trials themselves.
+    if (result.trials.length > 0 || result.spec.analysis !== undefined) return result.trials
+    const record = this.#store.getNow(id)
+    const plan = await this.#store.plan(record?.reusedFrom ?? id)
+    if (plan === null) return null
+    return storedTrials(result.spec, plan.chunks, this.#store.storedChunksNow(id).chunks)
   }
 
   subscribe (id: string, listener: (event: SweepEvent) => void): () => void {
@@ -226,7 +221,7 @@ class EmbeddedQueue implements SweepQueue {
 
   async stats (): Promise<QueueStats> {
     this.#assertOpen()
-    return { ...this.#store.countByStatus(), ...this.#scheduler.counts() }
+    return { ...this.#store.countsNow(), ...this.#scheduler.counts() }
   }
 
   async ready (): Promise<{ ok: boolean, detail?: string }> {
@@ -253,18 +248,10 @@ class EmbeddedQueue implements SweepQueue {
     this.#logger?.info('embedded queue closed')
   }
 
-  #snapshot (id: string): SweepRecord | null {
-    const record = this.#store.get(id)
-    return record === null ? null : this.#withRunningTrials(record)
-  }
-
-  /** Adds the trials of chunks still running, so progress moves between chunk commits. */
-  #withRunningTrials (record: SweepRecord): SweepRecord {
-    if (record.status !== 'running') return record
-    const running = this.#scheduler.runningTrials(record.id)
-    if (running === 0) return record
-    const trialsDone = Math.min(record.progress.trialsTotal, record.progress.trialsDone + running)
-    return { ...record, progress: { ...record.progress, trialsDone } }
+  #required (id: string): SweepRecord {
+    const record = this.#store.getNow(id)
+    if (record === null) throw new Error(`Sweep ${id} vanished right after it was stored.`)
+    return record
   }
 
   #assertOpen (): void {

@@ -1,18 +1,21 @@
 /**
- * Hands chunks of active sweeps to free compute threads, records every finished chunk,
- * retries chunks that failed for system reasons, and assembles a sweep once its last
- * chunk is stored. Runs on the main thread and does no numerical work itself.
+ * Hands chunks of active sweeps to free compute threads, stores every finished chunk,
+ * retries chunks that failed for system reasons, and assembles a sweep once every chunk of
+ * its stored plan is stored. Runs on the main thread and does no numerical work itself;
+ * what a chunk is, how it runs and how a result is assembled are the lifecycle's
+ * (src/sweep).
  */
 import type { Logger } from 'pino'
-import type { SweepFailure, SweepRecord } from '../port.js'
-import type { ChunkTaskOutcome } from '../shared/chunk-task.js'
-import { systemFailureMessage } from '../shared/failure.js'
+import {
+  systemCauseOf, systemFailure, userFailure, THREAD_CRASH_ERROR_NAME, THREAD_OUT_OF_MEMORY_ERROR_NAME,
+  type SweepFailure, type SystemCause
+} from '../../sweep/index.js'
 import { ActiveSweep } from './active-sweep.js'
-import type { SweepEventHub } from './event-hub.js'
+import type { ChunkTaskOutcome } from './chunk-task.js'
+import type { LocalSweepEvents } from './event-hub.js'
 import { FairOrder } from './fair-order.js'
-import type { SweepStore } from './store.js'
+import type { SqliteSweepStore } from './store.js'
 import type { ChunkThreadPool } from './thread-pool.js'
-import { embeddedProvenance } from './provenance.js'
 
 export interface SchedulerOptions {
   /** Tries per chunk (and per assembly) before a system failure fails the sweep. */
@@ -21,9 +24,9 @@ export interface SchedulerOptions {
 }
 
 export class ChunkScheduler {
-  readonly #store: SweepStore
+  readonly #store: SqliteSweepStore
   readonly #pool: ChunkThreadPool
-  readonly #events: SweepEventHub
+  readonly #events: LocalSweepEvents
   readonly #logger: Logger | undefined
   readonly #options: SchedulerOptions
   readonly #active = new Map<string, ActiveSweep>()
@@ -31,7 +34,7 @@ export class ChunkScheduler {
   readonly #inFlight = new Set<Promise<void>>()
   #closing = false
 
-  constructor (deps: { store: SweepStore, pool: ChunkThreadPool, events: SweepEventHub, logger?: Logger, options: SchedulerOptions }) {
+  constructor (deps: { store: SqliteSweepStore, pool: ChunkThreadPool, events: LocalSweepEvents, logger?: Logger, options: SchedulerOptions }) {
     this.#store = deps.store
     this.#pool = deps.pool
     this.#events = deps.events
@@ -44,11 +47,6 @@ export class ChunkScheduler {
     this.#pump()
   }
 
-  /** Trials of a sweep's running chunks, not yet stored. */
-  runningTrials (id: string): number {
-    return this.#active.get(id)?.runningTrials ?? 0
-  }
-
   counts (): { chunksWaiting: number, chunksActive: number } {
     let chunksWaiting = 0
     for (const sweep of this.#active.values()) chunksWaiting += sweep.pendingCount
@@ -58,7 +56,7 @@ export class ChunkScheduler {
   /** Stops an active sweep for good; its running chunks notice between two trials. */
   cancel (id: string): boolean {
     const sweep = this.#active.get(id)
-    const changed = this.#store.finishUnsuccessfully(id, 'canceled', null, Date.now())
+    const changed = this.#store.stopNow(id, 'canceled', null, Date.now()).changed
     if (sweep !== undefined) this.#retire(sweep)
     if (changed) this.#emitState(id)
     return changed
@@ -73,7 +71,7 @@ export class ChunkScheduler {
     for (const sweep of this.#active.values()) Atomics.store(new Int32Array(sweep.stopFlag), 0, 1)
     const settled = Promise.allSettled([...this.#inFlight])
     let timer: NodeJS.Timeout | undefined
-    const timeout = new Promise<void>(resolve => { timer = setTimeout(resolve, graceMs) })
+    const timeout = new Promise<void>((resolve) => { timer = setTimeout(resolve, graceMs) })
     await Promise.race([settled, timeout])
     clearTimeout(timer)
     this.#active.clear()
@@ -81,12 +79,12 @@ export class ChunkScheduler {
 
   #pump (): void {
     while (!this.#closing && this.#pool.idle > 0) {
-      const assembling = [...this.#active.values()].find(sweep => sweep.allDone && !sweep.assembling)
+      const assembling = [...this.#active.values()].find((sweep) => sweep.allDone && !sweep.assembling)
       if (assembling !== undefined) {
         this.#assemble(assembling)
         continue
       }
-      const sweep = this.#order.pick([...this.#active.values()].filter(candidate => candidate.hasPending))
+      const sweep = this.#order.pick([...this.#active.values()].filter((candidate) => candidate.hasPending))
       if (sweep === undefined) return
       this.#order.served(sweep.ownerKey)
       this.#dispatch(sweep)
@@ -100,19 +98,20 @@ export class ChunkScheduler {
     const { chunk, attempt } = next
     const task = this.#pool.runChunk(
       { kind: 'run', spec: sweep.spec, chunk, attempt, stopFlag: sweep.stopFlag, progressIntervalMs: Math.min(100, this.#options.progressIntervalMs) },
-      message => {
+      (message) => {
         if (this.#active.get(sweep.id) !== sweep) return
-        sweep.reportTrials(chunk.index, message.trialsDone)
-        this.#events.progress(sweep.id)
+        this.#store.reportProgress(sweep.id, chunk.index, message.trialsDone, Date.now())
+          .then(() => this.#events.progress(sweep.id))
+          .catch((error: unknown) => this.#logger?.warn({ err: error, sweepId: sweep.id }, 'cannot store chunk progress'))
       }
     )
     this.#track(task.then(
-      outcome => this.#onChunkOutcome(sweep, chunk.index, chunk.point, attempt, outcome),
-      (error: unknown) => this.#onChunkOutcome(sweep, chunk.index, chunk.point, attempt, threadCrash(error))
+      (outcome) => this.#onChunkOutcome(sweep, chunk.index, attempt, outcome),
+      (error: unknown) => this.#onChunkOutcome(sweep, chunk.index, attempt, threadCrash(error))
     ))
   }
 
-  #onChunkOutcome (sweep: ActiveSweep, index: number, point: number, attempt: number, outcome: ChunkTaskOutcome): void {
+  #onChunkOutcome (sweep: ActiveSweep, index: number, attempt: number, outcome: ChunkTaskOutcome): void {
     if (this.#closing) return
     if (this.#active.get(sweep.id) !== sweep) {
       sweep.drop(index)
@@ -120,10 +119,10 @@ export class ChunkScheduler {
     }
     const log = this.#logger?.child({ sweepId: sweep.id, chunk: index, attempt })
     switch (outcome.kind) {
-      case 'chunk-done':
+      case 'done':
         try {
-          const chunk = { index, point, trials: outcome.trials, computeMs: outcome.computeMs, body: outcome.body }
-          if (this.#store.commitChunk(sweep.id, chunk, sweep.pointsCompletedBy(index), Date.now())) {
+          const recorded = this.#store.recordChunkNow(sweep.id, sweep.plan[index]!, outcome.body, outcome.computeMs, Date.now())
+          if (recorded.status === 'running') {
             sweep.finish(index)
             this.#events.progress(sweep.id)
           } else {
@@ -131,7 +130,7 @@ export class ChunkScheduler {
           }
         } catch (error) {
           log?.error({ err: error }, 'storing a finished chunk failed')
-          this.#retryOrFail(sweep, index, attempt, 'the result could not be stored')
+          this.#retryOrFail(sweep, index, attempt, 'storage')
         }
         break
       case 'stopped':
@@ -141,41 +140,49 @@ export class ChunkScheduler {
       case 'failed':
         if (outcome.error.kind === 'user') {
           log?.info({ error: outcome.error }, 'chunk refused by the engine')
-          this.#fail(sweep, { kind: 'user', message: outcome.error.message })
+          this.#fail(sweep, userFailure(outcome.error.message))
         } else {
           log?.error({ error: outcome.error }, 'chunk failed')
-          this.#retryOrFail(sweep, index, attempt, publicCause(outcome.error.name))
+          this.#retryOrFail(sweep, index, attempt, systemCauseOf(outcome.error.name))
         }
         break
       default:
         log?.error({ outcome: outcome.kind }, 'unexpected answer from a compute thread')
-        this.#retryOrFail(sweep, index, attempt, 'the compute thread answered unexpectedly')
+        this.#retryOrFail(sweep, index, attempt, 'unexpected-answer')
     }
     this.#pump()
   }
 
-  #retryOrFail (sweep: ActiveSweep, index: number, attempt: number, cause: string): void {
+  #retryOrFail (sweep: ActiveSweep, index: number, attempt: number, cause: SystemCause): void {
     if (attempt < this.#options.maxAttempts) {
       sweep.requeue(index)
       return
     }
     sweep.drop(index)
-    this.#fail(sweep, { kind: 'system', message: systemFailureMessage(index, sweep.plan.length, attempt, cause) })
+    this.#fail(sweep, systemFailure({ chunkIndex: index, chunksTotal: sweep.plan.length }, attempt, cause))
   }
 
   #assemble (sweep: ActiveSweep, attempt = 1): void {
     sweep.assembling = true
     let task: Promise<ChunkTaskOutcome>
     try {
-      const stored = this.#store.chunkBodies(sweep.id)
-      const provenance = embeddedProvenance(sweep.spec, { startedMs: sweep.startedMs ?? Date.now(), finishedMs: Date.now(), computeMs: stored.computeMs, threads: this.#pool.threads })
-      task = this.#pool.assemble({ kind: 'assemble', spec: sweep.spec, chunks: stored.bodies, provenance })
+      const stored = this.#store.storedChunksNow(sweep.id)
+      const finishedMs = Date.now()
+      task = this.#pool.assemble({
+        kind: 'assemble',
+        spec: sweep.spec,
+        plan: [...sweep.plan],
+        chunks: stored.chunks,
+        // From the first dispatch to assembly, including any time the service was down; the
+        // compute threads' busy time stands for their CPU time (the work is CPU-bound).
+        timing: { wallSeconds: Math.max(0, finishedMs - (sweep.startedMs ?? finishedMs)) / 1000, cpuSeconds: stored.computeMs / 1000, workers: this.#pool.threads }
+      })
     } catch (error) {
       this.#logger?.error({ err: error, sweepId: sweep.id }, 'reading chunk results for assembly failed')
       task = Promise.resolve({ kind: 'failed', error: { kind: 'system', name: 'StorageError', message: 'storage error' } })
     }
     this.#track(task.then(
-      outcome => this.#onAssembled(sweep, attempt, outcome),
+      (outcome) => this.#onAssembled(sweep, attempt, outcome),
       (error: unknown) => this.#onAssembled(sweep, attempt, threadCrash(error))
     ))
   }
@@ -184,41 +191,38 @@ export class ChunkScheduler {
     if (this.#closing || this.#active.get(sweep.id) !== sweep) return this.#pump()
     if (outcome.kind === 'assembled') {
       try {
-        if (this.#store.completeSweep(sweep.id, outcome.body, Date.now())) this.#emitState(sweep.id)
+        if (this.#store.succeedNow(sweep.id, outcome.body, Date.now()).changed) this.#emitState(sweep.id)
         this.#retire(sweep)
       } catch (error) {
         this.#logger?.error({ err: error, sweepId: sweep.id }, 'storing the assembled result failed')
-        this.#assemblyRetryOrFail(sweep, attempt, 'the result could not be stored')
+        this.#assemblyRetryOrFail(sweep, attempt, 'storage')
       }
-    } else if (outcome.kind === 'failed' && outcome.error.kind === 'user') {
-      this.#fail(sweep, { kind: 'user', message: outcome.error.message })
     } else {
+      // Stored chunks that cannot be assembled are the system's fault, never the spec's.
       this.#logger?.error({ sweepId: sweep.id, outcome }, 'assembling a sweep failed')
-      this.#assemblyRetryOrFail(sweep, attempt, 'the result could not be assembled')
+      this.#assemblyRetryOrFail(sweep, attempt, outcome.kind === 'failed' ? systemCauseOf(outcome.error.name) : 'unexpected-answer')
     }
     this.#pump()
   }
 
-  #assemblyRetryOrFail (sweep: ActiveSweep, attempt: number, cause: string): void {
+  #assemblyRetryOrFail (sweep: ActiveSweep, attempt: number, cause: SystemCause): void {
     if (attempt < this.#options.maxAttempts) {
       this.#assemble(sweep, attempt + 1)
       return
     }
-    this.#fail(sweep, {
-      kind: 'system',
-      message: `The finished chunks could not be assembled after ${attempt} attempts (${cause}). The service log has the details.`
-    })
+    this.#fail(sweep, systemFailure({ chunkIndex: null, chunksTotal: sweep.plan.length }, attempt, cause))
   }
 
   #markStarted (sweep: ActiveSweep): void {
     const now = Date.now()
-    sweep.started = true
     sweep.startedMs = now
-    if (this.#store.markRunning(sweep.id, now)) this.#emitState(sweep.id)
+    this.#store.markRunning(sweep.id, now)
+      .then((status) => { if (status === 'running') this.#emitState(sweep.id) })
+      .catch((error: unknown) => this.#logger?.error({ err: error, sweepId: sweep.id }, 'cannot mark a sweep running'))
   }
 
   #fail (sweep: ActiveSweep, failure: SweepFailure): void {
-    const changed = this.#store.finishUnsuccessfully(sweep.id, 'failed', failure, Date.now())
+    const changed = this.#store.stopNow(sweep.id, 'failed', failure, Date.now()).changed
     this.#retire(sweep)
     if (changed) this.#emitState(sweep.id)
   }
@@ -227,11 +231,11 @@ export class ChunkScheduler {
     sweep.requestStop()
     this.#active.delete(sweep.id)
     this.#events.settle(sweep.id)
-    this.#order.retainOnly(new Set([...this.#active.values()].map(active => active.ownerKey)))
+    this.#order.retainOnly(new Set([...this.#active.values()].map((active) => active.ownerKey)))
   }
 
   #emitState (id: string): void {
-    const record: SweepRecord | null = this.#store.get(id)
+    const record = this.#store.getNow(id)
     if (record !== null) this.#events.state(record)
   }
 
@@ -243,19 +247,9 @@ export class ChunkScheduler {
   }
 }
 
-const THREAD_CRASH = 'ThreadCrash'
-const THREAD_OUT_OF_MEMORY = 'ThreadOutOfMemory'
-
 /** A rejected task: the thread died (exit, uncaught error, heap limit) instead of answering. */
 function threadCrash (error: unknown): ChunkTaskOutcome {
   const outOfMemory = (error as { code?: unknown } | null)?.code === 'ERR_WORKER_OUT_OF_MEMORY'
   const message = error instanceof Error ? (error.message.split('\n', 1)[0] ?? '') : String(error)
-  return { kind: 'failed', error: { kind: 'system', name: outOfMemory ? THREAD_OUT_OF_MEMORY : THREAD_CRASH, message } }
-}
-
-/** What a status body may say about a system failure: a category, never internals. */
-function publicCause (errorName: string): string {
-  if (errorName === THREAD_OUT_OF_MEMORY) return 'the compute thread ran out of memory'
-  if (errorName === THREAD_CRASH) return 'the compute thread stopped unexpectedly'
-  return 'an internal error'
+  return { kind: 'failed', error: { kind: 'system', name: outOfMemory ? THREAD_OUT_OF_MEMORY_ERROR_NAME : THREAD_CRASH_ERROR_NAME, message } }
 }

@@ -63,6 +63,13 @@ const MIGRATIONS: readonly string[] = [
     created_ms INTEGER NOT NULL,
     PRIMARY KEY (owner_key, key)
   ) WITHOUT ROWID;
+  `,
+  // Version 2: the plan is stored with the sweep (resume and repair read it back, never
+  // re-plan), chunk results are kept after a sweep ends (the stored result holds rows, the
+  // chunks hold the trial records), and the active cap counts through an index.
+  `
+  ALTER TABLE sweeps ADD COLUMN plan_json TEXT;
+  CREATE INDEX sweeps_active_by_owner ON sweeps (owner) WHERE status IN ('queued', 'running');
   `
 ]
 

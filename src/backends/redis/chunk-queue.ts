@@ -6,7 +6,8 @@
  */
 import { Queue, type JobsOptions } from 'bullmq'
 import type { Redis } from 'ioredis'
-import { dispatchOrder, type Chunk, type NormalisedSpec } from '../../spec/index.js'
+import { type NormalisedSpec } from '../../spec/index.js'
+import { dispatchOrder, type Chunk } from '../../sweep/index.js'
 import { assembleJobId, CHUNK_QUEUE_NAME, chunkJobId, type KeyLayout } from './keys.js'
 
 export interface ChunkJobData {

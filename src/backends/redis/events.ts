@@ -41,7 +41,7 @@ interface Subscription {
  * One API instance's listeners, multiplexed over one subscriber connection: a sweep's
  * channel is subscribed while it has at least one listener.
  */
-export class SweepEventHub {
+export class RedisSweepEvents {
   readonly #subscriptions = new Map<string, Subscription>()
   readonly #channelToId = new Map<string, string>()
   readonly #poll: NodeJS.Timeout

@@ -4,20 +4,24 @@
  * instance keeps no sweep state of its own, so any instance can answer for any sweep, and
  * an instance can die and come back without losing anything. Key layout: docs/redis.md.
  */
-import { randomUUID } from 'node:crypto'
 import type { Redis } from 'ioredis'
 import type { Logger } from 'pino'
-import { countPoints, planChunks, specHash, type Chunk, type NormalisedSpec, type SweepResult } from '../../spec/index.js'
-import { IdempotencyConflictError, TERMINAL_STATUSES } from '../port.js'
-import type { ListQuery, QueueStats, SubmitInput, SweepEvent, SweepQueue, SweepRecord } from '../port.js'
-import { CODEC_NAME, decodeValue } from '../shared/trial-codec.js'
+import type { TrialRecord } from '../../engine/index.js'
+import { specHash } from '../../spec/index.js'
+import type { SweepResult } from '../../results/index.js'
+import {
+  dataLossFailure, decodeValue, isSweepId, isTerminal, newSweepId, planSweep, storedTrials,
+  type ListQuery, type SweepDraft, type SweepPage, type SweepPlan, type SweepRecord
+} from '../../sweep/index.js'
+import { ActiveSweepCapError, IdempotencyConflictError } from '../errors.js'
+import type { QueueStats, SubmitInput, SweepEvent, SweepQueue } from '../port.js'
 import { ChunkQueue, DEFAULT_RETRY_POLICY, type ChunkRetryPolicy } from './chunk-queue.js'
 import { closeConnection, openConnection, redactUrl } from './connections.js'
-import { publishStop, publishSweepEvent, SweepEventHub } from './events.js'
+import { publishStop, publishSweepEvent, RedisSweepEvents } from './events.js'
 import { keyLayout, type KeyLayout } from './keys.js'
 import { EpochWatch } from './data-loss.js'
 import { checkRedisSettings } from './settings.js'
-import { RedisSweepStore, type NewSweep } from './store.js'
+import { RedisSweepStore } from './store.js'
 
 export { RedisSettingsError } from './settings.js'
 export type { ChunkRetryPolicy } from './chunk-queue.js'
@@ -58,8 +62,6 @@ export interface RedisQueueOptions {
 export const DEFAULT_PREFIX = 'memsweep'
 export const DEFAULT_RETENTION_SECONDS = 7 * 24 * 3600
 const DEFAULT_IDEMPOTENCY_TTL_SECONDS = 24 * 3600
-/** Sweep ids are UUIDs; anything else cannot name a sweep (and must not reach a key name). */
-const SWEEP_ID = /^[A-Za-z0-9-]{1,64}$/
 const READY_TIMEOUT_MS = 2000
 
 export async function createRedisQueue (options: RedisQueueOptions): Promise<SweepQueue> {
@@ -79,7 +81,7 @@ export async function createRedisQueue (options: RedisQueueOptions): Promise<Swe
   const keys = keyLayout(prefix)
   const store = new RedisSweepStore(producer, keys, options.retentionSeconds ?? DEFAULT_RETENTION_SECONDS)
   const chunks = new ChunkQueue(producer, keys, { ...DEFAULT_RETRY_POLICY, ...options.retry }, (err) => logger.warn({ err: err.message }, 'chunk queue error'))
-  const hub = new SweepEventHub(subscriber, keys, id => store.get(id), logger, options.eventPollMs ?? 2000)
+  const hub = new RedisSweepEvents(subscriber, keys, id => store.get(id), logger, options.eventPollMs ?? 2000)
   const epoch = new EpochWatch(producer, keys.epoch, logger)
   await epoch.start()
   logger.info({ redis: redactUrl(options.url), prefix }, 'Redis queue ready')
@@ -96,7 +98,7 @@ class RedisQueue implements SweepQueue {
     readonly keys: KeyLayout,
     readonly store: RedisSweepStore,
     readonly chunks: ChunkQueue,
-    readonly hub: SweepEventHub,
+    readonly hub: RedisSweepEvents,
     readonly epoch: EpochWatch,
     readonly idempotencyTtlSeconds: number,
     readonly logger: Logger
@@ -111,7 +113,7 @@ class RedisQueue implements SweepQueue {
 
   #remember (record: SweepRecord | null): SweepRecord | null {
     if (record === null) return null
-    if (TERMINAL_STATUSES.has(record.status)) this.#unfinished.delete(record.id)
+    if (isTerminal(record.status)) this.#unfinished.delete(record.id)
     else this.#unfinished.set(record.id, record)
     return record
   }
@@ -123,7 +125,6 @@ class RedisQueue implements SweepQueue {
     this.#unfinished.clear()
     const now = Date.now()
     for (const record of lost) {
-      const plan = planChunks(record.spec)
       await this.store.create({
         id: record.id,
         owner: record.owner,
@@ -131,15 +132,9 @@ class RedisQueue implements SweepQueue {
         specHash: record.specHash,
         spec: record.spec,
         createdMs: Date.parse(record.createdAt),
-        pointsTotal: record.progress.pointsTotal,
-        trialsTotal: record.progress.trialsTotal,
-        chunksTotal: record.progress.chunksTotal,
-        chunksPerPoint: chunksPerPoint(plan)
+        plan: planSweep(record.spec)
       })
-      await this.store.stop(record.id, 'failed', now, {
-        kind: 'system',
-        message: 'Redis lost this sweep\'s data (it restarted without persistence or was flushed) before the sweep finished; submit it again. Operators: enable appendonly on Redis.'
-      })
+      await this.store.stop(record.id, 'failed', dataLossFailure(), now)
       await publishSweepEvent(this.producer, this.keys, record.id, 'state')
       this.logger.error({ sweepId: record.id }, 'sweep lost with the Redis data recorded as failed (system)')
     }
@@ -153,22 +148,15 @@ class RedisQueue implements SweepQueue {
   async #submit (input: SubmitInput): Promise<SweepRecord> {
     const spec = input.spec
     const hash = specHash(spec)
-    const plan = planChunks(spec)
-    const sweep: NewSweep = {
-      id: randomUUID(),
-      owner: input.owner,
-      label: spec.label,
-      specHash: hash,
-      spec,
-      createdMs: Date.now(),
-      pointsTotal: countPoints(spec),
-      trialsTotal: plan.reduce((sum, chunk) => sum + chunk.count, 0),
-      chunksTotal: plan.length,
-      chunksPerPoint: chunksPerPoint(plan)
-    }
+    const draft: SweepDraft = { id: newSweepId(), owner: input.owner, label: spec.label, specHash: hash, spec, createdMs: Date.now(), plan: planSweep(spec) }
     const reuseFrom = input.reuse === true ? await this.store.findReusable(input.owner, hash) : null
     const idempotency = input.idempotencyKey === undefined ? undefined : { key: input.idempotencyKey, ttlSeconds: this.idempotencyTtlSeconds }
-    const outcome = await this.store.create(sweep, { ...(idempotency === undefined ? {} : { idempotency }), reuseFrom })
+    const outcome = await this.store.create(draft, {
+      reuseFrom,
+      ...(idempotency === undefined ? {} : { idempotency }),
+      ...(input.maxActive === undefined ? {} : { maxActive: input.maxActive })
+    })
+    if (outcome.kind === 'over-cap') throw new ActiveSweepCapError(input.owner, outcome.active, input.maxActive ?? outcome.active)
     if (outcome.kind === 'existing') {
       if (outcome.binding.specHash !== hash) throw new IdempotencyConflictError(input.idempotencyKey ?? '')
       const existing = await this.store.get(outcome.binding.sweepId)
@@ -178,25 +166,26 @@ class RedisQueue implements SweepQueue {
         return await this.#submit(input)
       }
       // A retry after a submit that stored the record but died before enqueueing: finish the job.
-      if (!TERMINAL_STATUSES.has(existing.status) && !await this.store.isEnqueued(existing.id)) {
-        await this.#enqueue(existing.id, existing.specHash, existing.spec, planChunks(existing.spec))
+      if (!isTerminal(existing.status) && !await this.store.isEnqueued(existing.id)) {
+        const plan = await this.store.plan(existing.id)
+        if (plan !== null) await this.#enqueue(existing.id, existing.specHash, existing.spec, plan)
       }
       return existing
     }
-    if (outcome.status === 'queued') await this.#enqueue(sweep.id, hash, spec, plan)
-    const record = await this.store.get(sweep.id)
-    if (record === null) throw new Error(`Sweep ${sweep.id} vanished right after it was stored.`)
+    if (outcome.status === 'queued') await this.#enqueue(draft.id, hash, spec, draft.plan)
+    const record = await this.store.get(draft.id)
+    if (record === null) throw new Error(`Sweep ${draft.id} vanished right after it was stored.`)
     return record
   }
 
-  async #enqueue (id: string, hash: string, spec: NormalisedSpec, plan: readonly Chunk[]): Promise<void> {
-    await this.chunks.enqueueChunks(id, hash, spec, plan)
+  async #enqueue (id: string, hash: string, spec: SweepDraft['spec'], plan: SweepPlan): Promise<void> {
+    await this.chunks.enqueueChunks(id, hash, spec, plan.chunks)
     await this.store.markEnqueued(id)
   }
 
   async get (id: string): Promise<SweepRecord | null> {
     this.#assertOpen()
-    if (!SWEEP_ID.test(id)) return null
+    if (!isSweepId(id)) return null
     const record = await this.store.get(id)
     if (record === null && this.#unfinished.has(id)) {
       await this.#noticeDataLoss()
@@ -205,17 +194,17 @@ class RedisQueue implements SweepQueue {
     return this.#remember(record)
   }
 
-  async list (query: ListQuery): Promise<{ items: SweepRecord[], nextCursor: string | null }> {
+  async list (query: ListQuery): Promise<SweepPage> {
     this.#assertOpen()
     return await this.store.list(query)
   }
 
   async cancel (id: string): Promise<SweepRecord | null> {
     this.#assertOpen()
-    if (!SWEEP_ID.test(id)) return null
+    if (!isSweepId(id)) return null
     const record = await this.store.get(id)
-    if (record === null || TERMINAL_STATUSES.has(record.status)) return record
-    const transition = await this.store.stop(id, 'canceled', Date.now())
+    if (record === null || isTerminal(record.status)) return record
+    const transition = await this.store.stop(id, 'canceled', null, Date.now())
     if (transition.changed) {
       // Running chunks stop on every worker; waiting ones are removed so no worker picks them up.
       await publishStop(this.producer, this.keys, id)
@@ -228,13 +217,24 @@ class RedisQueue implements SweepQueue {
 
   async results (id: string): Promise<SweepResult | null> {
     this.#assertOpen()
-    if (!SWEEP_ID.test(id)) return null
+    if (!isSweepId(id)) return null
     const body = await this.store.resultBody(id)
-    return body === null ? null : decodeValue<SweepResult>(CODEC_NAME, body)
+    return body === null ? null : decodeValue<SweepResult>(body)
+  }
+
+  async trials (id: string): Promise<TrialRecord[][] | null> {
+    this.#assertOpen()
+    const result = await this.results(id)
+    if (result === null) return null
+    // Results stored before chunks were kept hold their trials themselves.
+    if (result.trials.length > 0 || result.spec.analysis !== undefined) return result.trials
+    const plan = await this.store.plan(id)
+    if (plan === null) return null
+    return storedTrials(result.spec, plan.chunks, (await this.store.storedChunks(id)).chunks)
   }
 
   subscribe (id: string, listener: (event: SweepEvent) => void): () => void {
-    if (this.#closed !== null || !SWEEP_ID.test(id)) return () => {}
+    if (this.#closed !== null || !isSweepId(id)) return () => {}
     return this.hub.subscribe(id, listener)
   }
 
@@ -277,10 +277,4 @@ class RedisQueue implements SweepQueue {
   #assertOpen (): void {
     if (this.#closed !== null) throw new Error('The Redis queue is closed.')
   }
-}
-
-function chunksPerPoint (plan: readonly Chunk[]): Map<number, number> {
-  const counts = new Map<number, number>()
-  for (const chunk of plan) counts.set(chunk.point, (counts.get(chunk.point) ?? 0) + 1)
-  return counts
 }

@@ -3,6 +3,7 @@
  * docs/redis.md documents the layout; change both together.
  */
 import { createHash } from 'node:crypto'
+import { SWEEP_ID_PATTERN } from '../../sweep/ids.js'
 
 /** Name of the BullMQ queue that carries chunk and assembly jobs (queue names may not contain ':'). */
 export const CHUNK_QUEUE_NAME = 'chunks'
@@ -19,6 +20,8 @@ export interface SweepKeys {
   chunkTrials: string
   /** Hash: grid point index → chunks of that point not yet finished. */
   pointsLeft: string
+  /** Hash: the plan stored at submission: `version` → plan version, chunk index → `point,firstTrial,count`. */
+  plan: string
   /** String: the encoded assembled result. */
   result: string
   /** Pub/sub channel: hints that the record changed (`progress` or `state`). */
@@ -33,6 +36,8 @@ export interface KeyLayout {
   index: string
   /** Hash: sweep status → number of sweeps that entered it and have not left it. */
   counts: string
+  /** Hash: owner (as the record's JSON `owner` field) → queued and running sweeps: the atomic active cap. */
+  active: string
   /** Sorted set: id → createdAt ms of sweeps whose chunk jobs are not yet known to be enqueued. */
   unenqueued: string
   /** Pub/sub channel: ids of sweeps whose running chunks must stop (canceled or failed). */
@@ -52,6 +57,7 @@ export function keyLayout (prefix: string): KeyLayout {
     bullPrefix: `${prefix}:bull`,
     index: `${prefix}:sweeps`,
     counts: `${prefix}:counts`,
+    active: `${prefix}:active`,
     unenqueued: `${prefix}:unenqueued`,
     stopChannel: `${prefix}:stop`,
     epoch: `${prefix}:epoch`,
@@ -60,6 +66,7 @@ export function keyLayout (prefix: string): KeyLayout {
       chunks: `${prefix}:sweep:${id}:chunks`,
       chunkTrials: `${prefix}:sweep:${id}:chunk-trials`,
       pointsLeft: `${prefix}:sweep:${id}:points-left`,
+      plan: `${prefix}:sweep:${id}:plan`,
       result: `${prefix}:sweep:${id}:result`,
       events: `${prefix}:sweep:${id}:events`
     }),
@@ -76,7 +83,7 @@ export function indexMember (createdMs: number, id: string): string {
   return `${String(createdMs).padStart(CREATED_MS_DIGITS, '0')}:${id}`
 }
 
-const INDEX_MEMBER = new RegExp(`^\\d{${CREATED_MS_DIGITS}}:[A-Za-z0-9-]{1,64}$`)
+const INDEX_MEMBER = new RegExp(`^\\d{${CREATED_MS_DIGITS}}:${SWEEP_ID_PATTERN.source.slice(1, -1)}$`)
 
 export function isIndexMember (text: string): boolean {
   return INDEX_MEMBER.test(text)

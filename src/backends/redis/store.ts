@@ -1,39 +1,20 @@
 /**
- * Sweep state in Redis: the record hash, the listing index, chunk results and the
- * assembled result. Every change that touches more than one key is a Lua script
- * (scripts.ts), so concurrent workers and API instances always see a consistent sweep.
- * Used alike by API instances, worker processes and the sandboxed chunk processors.
+ * The Redis backend's implementation of the lifecycle's store contract (src/sweep/store.ts):
+ * the record hash, the listing indexes, the stored plan, chunk results and the assembled
+ * result. Every change that touches more than one key is a Lua script (scripts.ts), so
+ * concurrent workers and API instances always see a consistent sweep. Used alike by API
+ * instances, worker processes and the sandboxed chunk processors.
  */
 import type { Redis } from 'ioredis'
 import type { NormalisedSpec } from '../../spec/index.js'
-import { InvalidCursorError } from '../embedded/cursor.js'
-import { SWEEP_STATUSES } from '../port.js'
-import type { ListQuery, SweepFailure, SweepRecord, SweepStatus } from '../port.js'
+import {
+  chunksPerPoint, SWEEP_STATUSES,
+  type Chunk, type ChunkOutcome, type CreateOptions, type CreateOutcome, type IdempotencyBinding, type ListQuery, type StoredChunk,
+  type SweepDraft, type SweepFailure, type SweepPage, type SweepPlan, type SweepRecord, type SweepStatus, type SweepStore, type Transition
+} from '../../sweep/index.js'
+import { InvalidCursorError } from '../errors.js'
 import { idFromIndexMember, indexMember, isIndexMember, type KeyLayout } from './keys.js'
 import { SCRIPTS } from './scripts.js'
-
-export interface NewSweep {
-  id: string
-  owner: string | null
-  label: string | null
-  specHash: string
-  spec: NormalisedSpec
-  createdMs: number
-  pointsTotal: number
-  trialsTotal: number
-  chunksTotal: number
-  /** Grid point index → number of chunks covering it. */
-  chunksPerPoint: Map<number, number>
-}
-
-export interface IdempotencyBinding {
-  specHash: string
-  sweepId: string
-}
-
-export type CreateOutcome =
-  | { kind: 'created', status: 'queued' | 'succeeded' }
-  | { kind: 'existing', binding: IdempotencyBinding }
 
 /** What a chunk processor needs of a sweep before running one of its chunks. */
 export interface SweepWorkView {
@@ -47,72 +28,67 @@ export interface SweepWorkView {
   chunksTotal: number
 }
 
-export interface ChunkOutcome {
-  /** Status after recording; '' when the sweep no longer exists. */
-  status: SweepStatus | ''
-  chunksDone: number
-  chunksTotal: number
-}
-
-/** A change this call made, or the status it found instead. */
-export interface Transition {
-  changed: boolean
-  status: SweepStatus | ''
-}
-
 /** How many index entries one listing round trip reads. */
 const LIST_BATCH = 100
 
-export class RedisSweepStore {
+export class RedisSweepStore implements SweepStore {
   constructor (
     readonly redis: Redis,
     readonly keys: KeyLayout,
     readonly retentionSeconds: number
   ) {}
 
-  async create (sweep: NewSweep, options: { idempotency?: { key: string, ttlSeconds: number }, reuseFrom?: string | null } = {}): Promise<CreateOutcome> {
-    const keys = this.keys.sweep(sweep.id)
-    const owner = sweep.owner
+  async create (draft: SweepDraft, options: CreateOptions = {}): Promise<CreateOutcome> {
+    const keys = this.keys.sweep(draft.id)
+    const owner = draft.owner
     const idempotencyKey = options.idempotency === undefined ? this.keys.idempotency(owner, '') : this.keys.idempotency(owner, options.idempotency.key)
     const reuseFrom = options.reuseFrom ?? ''
-    const sourceResult = reuseFrom === '' ? keys.result : this.keys.sweep(reuseFrom).result
+    const source = this.keys.sweep(reuseFrom === '' ? draft.id : reuseFrom)
+    const perPoint = chunksPerPoint(draft.plan.chunks)
+    const trialsTotal = draft.plan.chunks.reduce((sum, chunk) => sum + chunk.count, 0)
     const fields: string[] = [
-      'id', sweep.id,
+      'id', draft.id,
       'owner', JSON.stringify(owner),
-      'label', JSON.stringify(sweep.label),
-      'specHash', sweep.specHash,
-      'spec', JSON.stringify(sweep.spec),
-      'createdMs', String(sweep.createdMs),
+      'label', JSON.stringify(draft.label),
+      'specHash', draft.specHash,
+      'spec', JSON.stringify(draft.spec),
+      'createdMs', String(draft.createdMs),
       'startedMs', '',
       'finishedMs', '',
-      'pointsTotal', String(sweep.pointsTotal),
+      'pointsTotal', String(perPoint.size),
       'pointsDone', '0',
-      'trialsTotal', String(sweep.trialsTotal),
+      'trialsTotal', String(trialsTotal),
       'trialsDone', '0',
-      'chunksTotal', String(sweep.chunksTotal),
+      'chunksTotal', String(draft.plan.chunks.length),
       'chunksDone', '0',
       'error', '',
       'reusedFrom', ''
     ]
     const pointsLeft: string[] = []
-    for (const [point, count] of sweep.chunksPerPoint) pointsLeft.push(String(point), String(count))
-    const member = indexMember(sweep.createdMs, sweep.id)
+    for (const [point, count] of perPoint) pointsLeft.push(String(point), String(count))
+    const plan: string[] = ['version', String(draft.plan.version)]
+    for (const chunk of draft.plan.chunks) plan.push(String(chunk.index), `${chunk.point},${chunk.firstTrial},${chunk.count}`)
     const reply = await SCRIPTS.submit.run(this.redis, [
       keys.record, this.keys.index, owner === null ? this.keys.index : this.keys.ownerIndex(owner), this.keys.counts,
-      idempotencyKey, this.keys.unenqueued, keys.pointsLeft, sourceResult, keys.result
+      idempotencyKey, this.keys.unenqueued, keys.pointsLeft, source.result, keys.result, keys.plan, this.keys.active,
+      source.chunks, keys.chunks, source.plan
     ], [
       options.idempotency === undefined ? '0' : '1',
-      JSON.stringify({ specHash: sweep.specHash, sweepId: sweep.id } satisfies IdempotencyBinding),
+      JSON.stringify({ specHash: draft.specHash, sweepId: draft.id } satisfies IdempotencyBinding),
       options.idempotency?.ttlSeconds ?? 0,
       JSON.stringify(fields),
-      member,
-      sweep.createdMs,
+      indexMember(draft.createdMs, draft.id),
+      draft.createdMs,
       JSON.stringify(pointsLeft),
       reuseFrom,
       this.retentionSeconds,
-      sweep.id
+      draft.id,
+      JSON.stringify(plan),
+      options.maxActive === undefined ? '' : String(options.maxActive),
+      JSON.stringify(owner)
     ]) as [string, string]
     if (reply[0] === 'existing') return { kind: 'existing', binding: JSON.parse(reply[1]) as IdempotencyBinding }
+    if (reply[0] === 'over-cap') return { kind: 'over-cap', active: Number(reply[1]) }
     return { kind: 'created', status: reply[0] as 'queued' | 'succeeded' }
   }
 
@@ -167,7 +143,92 @@ export class RedisSweepStore {
     return await this.redis.hget(this.keys.sweep(id).record, 'status') as SweepStatus | null
   }
 
-  async list (query: ListQuery): Promise<{ items: SweepRecord[], nextCursor: string | null }> {
+  async countActive (owner: string | null): Promise<number> {
+    return Math.max(0, Number(await this.redis.hget(this.keys.active, JSON.stringify(owner)) ?? 0))
+  }
+
+  /** The stored plan; null for an unknown sweep or one stored before plans were. */
+  async plan (id: string): Promise<SweepPlan | null> {
+    const stored = await this.redis.hgetall(this.keys.sweep(id).plan)
+    const version = stored.version
+    if (version === undefined) return null
+    const chunks: Chunk[] = []
+    for (const [field, value] of Object.entries(stored)) {
+      if (field === 'version') continue
+      const index = Number(field)
+      const [point, firstTrial, count] = value.split(',').map(Number) as [number, number, number]
+      chunks[index] = { index, point, firstTrial, count }
+    }
+    if (chunks.length !== Object.keys(stored).length - 1 || chunks.some((chunk) => chunk === undefined)) {
+      throw new Error(`The stored plan of sweep ${id} is not indexed 0 … n − 1.`)
+    }
+    return { version: Number(version), chunks }
+  }
+
+  async doneChunks (id: string): Promise<number[]> {
+    return (await this.redis.hkeys(this.keys.sweep(id).chunks)).map(Number).sort((a, b) => a - b)
+  }
+
+  async markRunning (id: string, nowMs: number): Promise<SweepStatus | null> {
+    const keys = this.keys.sweep(id)
+    return await SCRIPTS.markRunning.run(this.redis, [keys.record, this.keys.counts], [nowMs]) as SweepStatus | null
+  }
+
+  async reportProgress (id: string, chunkIndex: number, trialsDone: number, nowMs: number): Promise<SweepStatus | null> {
+    const keys = this.keys.sweep(id)
+    return await SCRIPTS.reportProgress.run(this.redis, [keys.record, keys.chunks, keys.chunkTrials, this.keys.counts, keys.plan], [chunkIndex, trialsDone, nowMs]) as SweepStatus | null
+  }
+
+  async recordChunk (id: string, chunk: Chunk, body: Uint8Array, computeMs: number, nowMs: number): Promise<ChunkOutcome> {
+    const keys = this.keys.sweep(id)
+    const [status, stored, complete] = await SCRIPTS.recordChunk.run(this.redis,
+      [keys.record, keys.chunks, keys.chunkTrials, keys.pointsLeft, this.keys.counts, keys.plan],
+      [chunk.index, asBuffer(body), chunk.count, chunk.point, nowMs, computeMs.toFixed(3), chunk.firstTrial]) as [string, number, number]
+    return { status: status as ChunkOutcome['status'], stored: stored === 1, complete: complete === 1 }
+  }
+
+  async storedChunks (id: string): Promise<{ chunks: StoredChunk[], computeMs: number }> {
+    const keys = this.keys.sweep(id)
+    const [stored, computeMs] = await Promise.all([this.redis.hgetallBuffer(keys.chunks), this.redis.hget(keys.record, 'computeMs')])
+    const chunks = Object.entries(stored)
+      .map(([index, body]) => ({ index: Number(index), body: new Uint8Array(body.buffer, body.byteOffset, body.byteLength) }))
+      .sort((a, b) => a.index - b.index)
+    return { chunks, computeMs: Number(computeMs ?? 0) }
+  }
+
+  async succeed (id: string, resultBody: Uint8Array, nowMs: number): Promise<Transition> {
+    const keys = this.keys.sweep(id)
+    const owner = await this.redis.hget(keys.record, 'owner')
+    const specHash = await this.redis.hget(keys.record, 'specHash')
+    if (owner === null || specHash === null) return { changed: false, status: '' }
+    const [changed, status] = await SCRIPTS.succeed.run(this.redis,
+      [keys.record, keys.result, this.keys.counts, this.keys.reuse(JSON.parse(owner) as string | null, specHash), keys.chunks, keys.chunkTrials, keys.pointsLeft, keys.plan, this.keys.active],
+      [asBuffer(resultBody), nowMs, this.retentionSeconds, id]) as [number, string]
+    return { changed: changed === 1, status: status as Transition['status'] }
+  }
+
+  /** Ends a queued or running sweep; a no-op (changed: false) on a finished one. */
+  async stop (id: string, to: 'canceled' | 'failed', failure: SweepFailure | null, nowMs: number): Promise<Transition> {
+    const keys = this.keys.sweep(id)
+    const [changed, status] = await SCRIPTS.stop.run(this.redis,
+      [keys.record, this.keys.counts, keys.chunks, keys.chunkTrials, keys.pointsLeft, this.keys.unenqueued, keys.plan, this.keys.active],
+      [to, nowMs, failure === null ? '' : JSON.stringify(failure), this.retentionSeconds, id]) as [number, string]
+    return { changed: changed === 1, status: status as Transition['status'] }
+  }
+
+  async resultBody (id: string): Promise<Uint8Array | null> {
+    const body = await this.redis.getBuffer(this.keys.sweep(id).result)
+    return body === null ? null : new Uint8Array(body.buffer, body.byteOffset, body.byteLength)
+  }
+
+  async counts (): Promise<Record<SweepStatus, number>> {
+    const stored = await this.redis.hgetall(this.keys.counts)
+    const counts = {} as Record<SweepStatus, number>
+    for (const status of SWEEP_STATUSES) counts[status] = Math.max(0, Number(stored[status] ?? 0))
+    return counts
+  }
+
+  async list (query: ListQuery): Promise<SweepPage> {
     const index = query.owner === null ? this.keys.index : this.keys.ownerIndex(query.owner)
     let upper = query.cursor === undefined ? '+' : `(${decodeListCursor(query.cursor)}`
     const items: SweepRecord[] = []
@@ -204,64 +265,10 @@ export class RedisSweepStore {
     }
     return { items, nextCursor: more && lastMember !== null ? encodeListCursor(lastMember) : null }
   }
+}
 
-  async markRunning (id: string, nowMs: number): Promise<SweepStatus | null> {
-    const keys = this.keys.sweep(id)
-    return await SCRIPTS.markRunning.run(this.redis, [keys.record, this.keys.counts], [nowMs]) as SweepStatus | null
-  }
-
-  async reportProgress (id: string, chunkIndex: number, trialsDone: number, nowMs: number): Promise<SweepStatus | null> {
-    const keys = this.keys.sweep(id)
-    return await SCRIPTS.reportProgress.run(this.redis, [keys.record, keys.chunks, keys.chunkTrials, this.keys.counts], [chunkIndex, trialsDone, nowMs]) as SweepStatus | null
-  }
-
-  async recordChunk (id: string, chunk: { index: number, point: number }, body: Buffer, trials: number, computeMs: number, nowMs: number): Promise<ChunkOutcome> {
-    const keys = this.keys.sweep(id)
-    const [status, chunksDone, chunksTotal] = await SCRIPTS.recordChunk.run(this.redis,
-      [keys.record, keys.chunks, keys.chunkTrials, keys.pointsLeft, this.keys.counts],
-      [chunk.index, body, trials, chunk.point, nowMs, computeMs.toFixed(3)]) as [string, number, number]
-    return { status: status as ChunkOutcome['status'], chunksDone, chunksTotal }
-  }
-
-  /** Stored chunk results in chunk-index order; throws if any chunk is missing. */
-  async chunkBodies (id: string, chunksTotal: number): Promise<Buffer[]> {
-    const stored = await this.redis.hgetallBuffer(this.keys.sweep(id).chunks)
-    const bodies: Buffer[] = []
-    for (let index = 0; index < chunksTotal; index++) {
-      const body = stored[String(index)]
-      if (body === undefined) throw new Error(`Sweep ${id}: the result of chunk ${index} is missing.`)
-      bodies.push(body)
-    }
-    return bodies
-  }
-
-  async finish (id: string, owner: string | null, specHash: string, resultBody: Buffer, nowMs: number): Promise<Transition> {
-    const keys = this.keys.sweep(id)
-    const [changed, status] = await SCRIPTS.finish.run(this.redis,
-      [keys.record, keys.result, this.keys.counts, this.keys.reuse(owner, specHash), keys.chunks, keys.chunkTrials, keys.pointsLeft],
-      [resultBody, nowMs, this.retentionSeconds, id]) as [number, string]
-    return { changed: changed === 1, status: status as Transition['status'] }
-  }
-
-  /** Ends a queued or running sweep; a no-op (changed: false) on a finished one. */
-  async stop (id: string, to: 'canceled' | 'failed', nowMs: number, failure: SweepFailure | null = null): Promise<Transition> {
-    const keys = this.keys.sweep(id)
-    const [changed, status] = await SCRIPTS.stop.run(this.redis,
-      [keys.record, this.keys.counts, keys.chunks, keys.chunkTrials, keys.pointsLeft, this.keys.unenqueued],
-      [to, nowMs, failure === null ? '' : JSON.stringify(failure), this.retentionSeconds, id]) as [number, string]
-    return { changed: changed === 1, status: status as Transition['status'] }
-  }
-
-  async resultBody (id: string): Promise<Buffer | null> {
-    return await this.redis.getBuffer(this.keys.sweep(id).result)
-  }
-
-  async counts (): Promise<Record<SweepStatus, number>> {
-    const stored = await this.redis.hgetall(this.keys.counts)
-    const counts = {} as Record<SweepStatus, number>
-    for (const status of SWEEP_STATUSES) counts[status] = Math.max(0, Number(stored[status] ?? 0))
-    return counts
-  }
+function asBuffer (bytes: Uint8Array): Buffer {
+  return Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength)
 }
 
 /** Turns a record hash into the port's SweepRecord; null for a missing or half-written hash. */

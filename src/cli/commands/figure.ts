@@ -5,7 +5,7 @@
  */
 import { readFile } from 'node:fs/promises'
 import { FigureOptionsError, renderFigure, type FigureOptionsInput } from '../../figures/index.js'
-import type { SweepResult } from '../../spec/index.js'
+import type { SweepResult } from '../../results/index.js'
 import { CliError, EXIT, say, type CliIo } from '../io.js'
 import { writeFileAtomically } from '../write-file.js'
 

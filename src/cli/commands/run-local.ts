@@ -9,10 +9,12 @@ import { availableParallelism, tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { setImmediate as yieldToEventLoop } from 'node:timers/promises'
 import { TERMINAL_STATUSES, type SweepRecord } from '../../backends/port.js'
+import { estimateWork, normaliseSpec, SpecValidationError, type NormalisedSpec } from '../../spec/index.js'
 import {
-  assembleResult, estimateWork, makeProvenance, normaliseSpec, planChunks, resultToCsv, resultToJson, runChunk,
-  SpecValidationError, type ChunkResult, type NormalisedSpec, type SweepResult
-} from '../../spec/index.js'
+  assembleStored, makeProvenance, planSweep, progressCounters, runChunk, storedTrials, systemCauseOf, systemFailure, userFailure, type StoredChunk
+} from '../../sweep/index.js'
+import { runtimeFacts } from '../../runtime/facts.js'
+import { resultToCsv, resultToJson, type SweepResult } from '../../results/index.js'
 import { CliError, EXIT, say, type CliIo } from '../io.js'
 import { createProgressReporter, type ProgressReporter } from '../progress.js'
 import { outputFormat, readSpecFile } from '../spec-file.js'
@@ -60,34 +62,43 @@ export async function runLocal (io: CliIo, specPath: string, options: RunLocalOp
 
 async function runInProcess (spec: NormalisedSpec, progress: ProgressReporter, signal: AbortSignal | undefined): Promise<SweepResult> {
   compileKernelsOptimised()
-  const chunks = planChunks(spec)
-  const perPoint = new Map<number, number>()
-  const pointsTotal = new Set(chunks.map((c) => c.point)).size
-  const trialsTotal = chunks.reduce((sum, c) => sum + c.count, 0)
-  let trialsDone = 0
-  let pointsDone = 0
+  const plan = planSweep(spec)
+  const stored: StoredChunk[] = []
+  const done = new Set<number>()
   const started = performance.now()
   const cpuStart = process.cpuUsage()
-  const results: ChunkResult[] = []
-  progress.update({ trialsDone, trialsTotal, pointsDone, pointsTotal })
-  for (const chunk of chunks) {
-    if (signal?.aborted === true) throw new CliError('Interrupted.', EXIT.sweepFailed)
-    results.push(runChunk(spec, chunk, { shouldStop: () => signal?.aborted === true, reclaim: explicitCollector() }))
-    trialsDone += chunk.count
-    const pointTrials = (perPoint.get(chunk.point) ?? 0) + chunk.count
-    perPoint.set(chunk.point, pointTrials)
-    if (pointTrials === spec.trials) pointsDone++
+  const show = (partial: ReadonlyMap<number, number> = new Map()): void => {
+    const counters = progressCounters(plan.chunks, done, partial)
     const elapsed = (performance.now() - started) / 1000
-    progress.update({ trialsDone, trialsTotal, pointsDone, pointsTotal, estimatedSecondsLeft: elapsed * (trialsTotal - trialsDone) / trialsDone })
+    const left = counters.trialsDone > 0 ? elapsed * (counters.trialsTotal - counters.trialsDone) / counters.trialsDone : null
+    progress.update({ ...counters, estimatedSecondsLeft: left })
+  }
+  show()
+  for (const chunk of plan.chunks) {
+    const outcome = runChunk(spec, chunk, {
+      shouldStop: () => signal?.aborted === true,
+      onProgress: (trialsDone) => show(new Map([[chunk.index, trialsDone]])),
+      reclaim: explicitCollector()
+    })
+    if (outcome.kind === 'stopped') throw new CliError('Interrupted.', EXIT.sweepFailed)
+    if (outcome.kind === 'failed') {
+      const failure = outcome.error.kind === 'user' ? userFailure(outcome.error.message) : systemFailure({ chunkIndex: chunk.index, chunksTotal: plan.chunks.length }, 1, systemCauseOf(outcome.error.name))
+      throw new CliError(`The sweep failed (${failure.kind} error): ${failure.message}`, EXIT.sweepFailed)
+    }
+    stored.push({ index: chunk.index, body: outcome.body })
+    done.add(chunk.index)
+    show()
     // Lets the progress bar redraw and Ctrl-C land between chunks.
     await yieldToEventLoop()
   }
   const cpu = process.cpuUsage(cpuStart)
-  return assembleResult(spec, results, makeProvenance(spec, {
+  const provenance = makeProvenance(spec, runtimeFacts(), {
     wallSeconds: (performance.now() - started) / 1000,
     cpuSeconds: (cpu.user + cpu.system) / 1e6,
     workers: 1
-  }))
+  })
+  const result = assembleStored(spec, plan.chunks, stored, provenance)
+  return { ...result, trials: spec.analysis === undefined ? storedTrials(spec, plan.chunks, stored) : [] }
 }
 
 async function runOnThreads (spec: NormalisedSpec, threads: number, progress: ProgressReporter, signal: AbortSignal | undefined): Promise<SweepResult> {
@@ -113,7 +124,7 @@ async function runOnThreads (spec: NormalisedSpec, threads: number, progress: Pr
     if (final.status === 'failed') throw new CliError(`The sweep failed (${final.error?.kind ?? 'unknown'} error): ${final.error?.message ?? ''}`, EXIT.sweepFailed)
     const result = await queue.results(submitted.id)
     if (result === null) throw new Error('The sweep succeeded but left no result.')
-    return result
+    return { ...result, trials: await queue.trials(submitted.id) ?? [] }
   } finally {
     await queue.close()
     await rm(dataDir, { recursive: true, force: true })

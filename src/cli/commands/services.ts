@@ -38,7 +38,7 @@ export interface WorkerOptions {
 
 /** Starts a worker of the Redis backend; resolves after it has shut down on SIGTERM/SIGINT. */
 export async function worker (io: CliIo, options: WorkerOptions): Promise<void> {
-  const { runWorkerFromEnvironment } = await import('../../worker/run.js')
+  const { runWorkerFromEnvironment } = await import('../../worker.js')
   await runWorkerFromEnvironment(withOverrides(io.env, {
     REDIS_URL: options.redisUrl,
     REDIS_PREFIX: options.prefix,

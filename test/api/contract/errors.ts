@@ -3,7 +3,10 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { SweepQueue } from '../../../src/backends/port.js'
 import { createHarness, isTerminal, type Harness, type QueueFactory } from '../helpers/harness.js'
 import { expectProblem } from '../helpers/problems.js'
-import { quickSpec, slowSpec } from '../helpers/specs.js'
+import { heldSpec, quickSpec } from '../helpers/specs.js'
+import { sharedChunkGate } from '../../helpers/chunk-gate.js'
+
+const gate = sharedChunkGate()
 
 /** The real backend, except that reading sweep 'kaboom' fails the way a broken disk would. */
 function withFailingRead (queue: SweepQueue): SweepQueue {
@@ -17,6 +20,7 @@ function withFailingRead (queue: SweepQueue): SweepQueue {
     list: (query) => queue.list(query),
     cancel: (id) => queue.cancel(id),
     results: (id) => queue.results(id),
+    trials: (id) => queue.trials(id),
     subscribe: (id, listener) => queue.subscribe(id, listener),
     stats: () => queue.stats(),
     ready: () => queue.ready(),
@@ -94,13 +98,15 @@ export function errorsContract (factory: QueueFactory): void {
     })
 
     it('429 when an owner already has the maximum of active sweeps', async () => {
-      const first = await h.request({ method: 'POST', url: '/v1/sweeps', payload: { ...slowSpec(), neurons: 200 } })
+      gate.hold()
+      const first = await h.request({ method: 'POST', url: '/v1/sweeps', payload: heldSpec(91) })
       expect(first.statusCode).toBe(202)
       const second = await h.request({ method: 'POST', url: '/v1/sweeps', payload: quickSpec() })
       const problem = expectProblem(second, 429, 'MEMSWEEP_TOO_MANY_ACTIVE_SWEEPS')
       expect(second.headers['retry-after']).toBeDefined()
       expect(problem.detail).toContain('limit 1')
       await h.request({ method: 'DELETE', url: `/v1/sweeps/${first.json().id as string}` })
+      gate.open()
       await h.waitFor(first.json().id, isTerminal)
       const third = await h.request({ method: 'POST', url: '/v1/sweeps', payload: quickSpec() })
       expect(third.statusCode).toBe(202)

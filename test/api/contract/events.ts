@@ -4,7 +4,10 @@ import { createHarness, isTerminal, parseEventStream, type Harness, type QueueFa
 import { assertComponent } from '../helpers/openapi.js'
 import { expectProblem } from '../helpers/problems.js'
 import { openEventStream } from '../helpers/sse-client.js'
-import { mediumSpec, quickSpec, slowSpec } from '../helpers/specs.js'
+import { heldSpec, quickSpec } from '../helpers/specs.js'
+import { sharedChunkGate } from '../../helpers/chunk-gate.js'
+
+const gate = sharedChunkGate()
 
 export function eventsContract (factory: QueueFactory): void {
   describe('events (SSE)', () => {
@@ -34,10 +37,18 @@ export function eventsContract (factory: QueueFactory): void {
     })
 
     it('streams snapshot, progress and state events of a live sweep in order, then closes', async () => {
-      const id = (await h.request({ method: 'POST', url: '/v1/sweeps', payload: mediumSpec() })).json().id
+      gate.hold()
+      const id = (await h.request({ method: 'POST', url: '/v1/sweeps', payload: heldSpec(62) })).json().id
       const stream = await openEventStream(`${base}/v1/sweeps/${id}/events`)
       expect(stream.status).toBe(200)
       expect(stream.headers.get('x-accel-buffering')).toBe('no')
+      await stream.until((item) => item.event === 'snapshot')
+      // One chunk at a time: each stored chunk is a progress event the stream must carry.
+      for (let chunks = 1; chunks < 4; chunks++) {
+        gate.release()
+        await stream.until((item) => item.event === 'progress' && JSON.parse(item.data!).progress.chunksDone >= chunks, 30_000)
+      }
+      gate.open()
       await stream.ended
       const events = stream.received.filter((e) => e.event !== undefined)
       expect(events[0]?.event).toBe('snapshot')
@@ -57,10 +68,12 @@ export function eventsContract (factory: QueueFactory): void {
     })
 
     it('sends `: ping` heartbeats and a canceled state event, then closes', async () => {
-      const id = (await h.request({ method: 'POST', url: '/v1/sweeps', payload: slowSpec() })).json().id
+      gate.hold()
+      const id = (await h.request({ method: 'POST', url: '/v1/sweeps', payload: heldSpec(63) })).json().id
       const stream = await openEventStream(`${base}/v1/sweeps/${id}/events`)
       await stream.until((item) => item.comment === 'ping', 5000)
       await h.request({ method: 'DELETE', url: `/v1/sweeps/${id}` })
+      gate.open()
       await stream.ended
       const last = stream.received.filter((e) => e.event !== undefined).at(-1)!
       expect(last.event).toBe('state')
@@ -75,13 +88,14 @@ export function eventsContract (factory: QueueFactory): void {
     it('ends open streams when the app closes, so close() never hangs', async () => {
       const other = await createHarness(factory)
       const url = await other.app.listen({ port: 0, host: '127.0.0.1' })
-      const id = (await other.request({ method: 'POST', url: '/v1/sweeps', payload: slowSpec() })).json().id
+      gate.hold()
+      const id = (await other.request({ method: 'POST', url: '/v1/sweeps', payload: heldSpec(64) })).json().id
       const stream = await openEventStream(`${url}/v1/sweeps/${id}/events`)
       await stream.until((item) => item.event === 'snapshot')
-      const started = Date.now()
+      // The sweep is held unfinished: only closing the app can end the stream (a hang fails on the test timeout).
       await other.app.close()
       await stream.ended
-      expect(Date.now() - started).toBeLessThan(5000)
+      gate.open()
       await other.close()
     })
   })

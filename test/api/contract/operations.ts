@@ -2,7 +2,10 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { createHarness, isTerminal, type Harness, type QueueFactory } from '../helpers/harness.js'
 import { openApiDocument } from '../helpers/openapi.js'
-import { quickSpec, slowSpec } from '../helpers/specs.js'
+import { heldSpec, quickSpec } from '../helpers/specs.js'
+import { sharedChunkGate } from '../../helpers/chunk-gate.js'
+
+const gate = sharedChunkGate()
 
 export function operationsContract (factory: QueueFactory): void {
   describe('operations', () => {
@@ -37,14 +40,17 @@ export function operationsContract (factory: QueueFactory): void {
     })
 
     it('/metrics shows running sweeps and active chunks while a sweep runs', async () => {
-      const id = (await h.request({ method: 'POST', url: '/v1/sweeps', payload: slowSpec() })).json().id
-      await h.waitFor(id, (r) => r.status === 'running' && r.progress.trialsDone > 0)
+      gate.hold()
+      const id = (await h.request({ method: 'POST', url: '/v1/sweeps', payload: heldSpec(41) })).json().id
+      await gate.untilWaiting()
+      await h.waitFor(id, (r) => r.status === 'running')
       // Counters may trail the record by a moment (the Redis backend updates them in its own script): scrape until they agree.
       await expect.poll(async () => {
         const text = (await h.request({ method: 'GET', url: '/metrics' })).body
         return [Number(/^memsweep_sweeps\{status="running"\} (\d+)$/m.exec(text)?.[1]), Number(/^memsweep_chunks_active (\d+)$/m.exec(text)?.[1]) >= 1]
       }, { timeout: 10_000, interval: 100 }).toEqual([1, true])
       await h.request({ method: 'DELETE', url: `/v1/sweeps/${id as string}` })
+      gate.open()
       await h.waitFor(id, isTerminal)
     })
 

@@ -2,7 +2,10 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { createHarness, isTerminal, type Harness, type QueueFactory } from '../helpers/harness.js'
 import { expectProblem } from '../helpers/problems.js'
-import { quickSpec, slowSpec } from '../helpers/specs.js'
+import { heldSpec, quickSpec } from '../helpers/specs.js'
+import { sharedChunkGate } from '../../helpers/chunk-gate.js'
+
+const gate = sharedChunkGate()
 
 export function resultsContract (factory: QueueFactory): void {
   describe('results', () => {
@@ -82,12 +85,14 @@ export function resultsContract (factory: QueueFactory): void {
     })
 
     it('answers 409 while the sweep is not finished, 406 for an unavailable media type', async () => {
-      const running = (await h.request({ method: 'POST', url: '/v1/sweeps', payload: slowSpec() })).json()
+      gate.hold()
+      const running = (await h.request({ method: 'POST', url: '/v1/sweeps', payload: heldSpec(81) })).json()
       const res = await h.request({ method: 'GET', url: `/v1/sweeps/${running.id}/results` })
       const problem = expectProblem(res, 409, 'MEMSWEEP_RESULTS_NOT_READY')
       expect(problem.sweepId).toBe(running.id)
       expect(res.headers['retry-after']).toBe('5')
       await h.request({ method: 'DELETE', url: `/v1/sweeps/${running.id}` })
+      gate.open()
       await h.waitFor(running.id, isTerminal)
 
       const xml = await h.request({ method: 'GET', url: `/v1/sweeps/${id}/results`, headers: { accept: 'application/xml' } })

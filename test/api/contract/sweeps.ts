@@ -2,7 +2,10 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { createHarness, isTerminal, type Harness, type QueueFactory } from '../helpers/harness.js'
 import { expectProblem } from '../helpers/problems.js'
-import { quickSpec, slowSpec } from '../helpers/specs.js'
+import { heldSpec, quickSpec } from '../helpers/specs.js'
+import { sharedChunkGate } from '../../helpers/chunk-gate.js'
+
+const gate = sharedChunkGate()
 
 export function sweepContract (factory: QueueFactory): void {
   describe('sweep lifecycle', () => {
@@ -36,8 +39,11 @@ export function sweepContract (factory: QueueFactory): void {
     })
 
     it('shows elapsed time and an estimate of the time left while running; cancel stops it with 202', async () => {
-      const submitted = (await h.request({ method: 'POST', url: '/v1/sweeps', payload: slowSpec() })).json()
-      await h.waitFor(submitted.id, (r) => r.status === 'running' && r.progress.trialsDone > 0)
+      gate.hold()
+      const submitted = (await h.request({ method: 'POST', url: '/v1/sweeps', payload: heldSpec(21) })).json()
+      gate.release()
+      await h.waitFor(submitted.id, (r) => r.status === 'running' && r.progress.chunksDone === 1)
+      await gate.untilWaiting()
       const running = (await h.request({ method: 'GET', url: `/v1/sweeps/${submitted.id}` })).json()
       expect(running.status).toBe('running')
       expect(running.progress.fraction).toBeGreaterThan(0)
@@ -50,14 +56,12 @@ export function sweepContract (factory: QueueFactory): void {
       expect(cancel.json().id).toBe(submitted.id)
       const final = await h.waitFor(submitted.id, isTerminal)
       expect(final.status).toBe('canceled')
-      // Running chunks stop between two trials, within about a second (bounded here at 5 s).
-      const deadline = Date.now() + 5000
-      let stats = await h.queue.stats()
-      while (stats.chunksActive + stats.chunksWaiting > 0 && Date.now() < deadline) {
-        await new Promise((resolve) => setTimeout(resolve, 50))
-        stats = await h.queue.stats()
-      }
-      expect(stats.chunksActive + stats.chunksWaiting).toBe(0)
+      // Held chunks notice the stop and leave; no chunk of the sweep runs or waits afterwards.
+      await expect.poll(async () => {
+        const stats = await h.queue.stats()
+        return stats.chunksActive + stats.chunksWaiting
+      }, { timeout: 30_000, interval: 50 }).toBe(0)
+      gate.open()
       const results = await h.request({ method: 'GET', url: `/v1/sweeps/${submitted.id}/results` })
       expectProblem(results, 409, 'MEMSWEEP_RESULTS_UNAVAILABLE')
     })

@@ -16,7 +16,7 @@ import { ENGINE_PROCESS_FLAGS } from '../../../src/runtime/node-flags.js'
 
 const repoRoot = fileURLToPath(new URL('../../../', import.meta.url))
 /** The backend and everything it imports; the API, CLI, server and Redis backend are not needed. */
-const SOURCES = ['src/backends/port.ts', 'src/backends/embedded', 'src/backends/shared', 'src/spec', 'src/engine', 'src/runtime']
+const SOURCES = ['src/backends/port.ts', 'src/backends/errors.ts', 'src/backends/embedded', 'src/spec', 'src/sweep', 'src/results', 'src/engine', 'src/runtime']
 
 function typeScriptFiles (path: string): string[] {
   const absolute = join(repoRoot, path)
@@ -40,13 +40,14 @@ function transpileInto (outDir: string): void {
 
 const SWEEP_SCRIPT = `
 import { createEmbeddedQueue } from './backends/embedded/index.js'
-import { normaliseSpec, resultToCsv } from './spec/index.js'
+import { normaliseSpec } from './spec/index.js'
+import { resultToCsv } from './results/index.js'
 const queue = await createEmbeddedQueue({ dataDir: process.argv[2], threads: 2 })
 const sweep = await queue.submit({ spec: normaliseSpec(JSON.parse(process.argv[3])), owner: null })
 const status = await new Promise(resolve => queue.subscribe(sweep.id, event => {
   if (event.type === 'state' && event.sweep.status !== 'running') resolve(event.sweep.status)
 }))
-process.stdout.write(JSON.stringify({ status, csv: resultToCsv(await queue.results(sweep.id), { perTrial: true }) }))
+process.stdout.write(JSON.stringify({ status, csv: resultToCsv({ ...await queue.results(sweep.id), trials: await queue.trials(sweep.id) }, { perTrial: true }) }))
 await queue.close()
 `
 
@@ -63,9 +64,12 @@ describe('embedded queue from compiled JavaScript', () => {
     const compiled = JSON.parse(stdout) as { status: string, csv: string }
     expect(compiled.status).toBe('succeeded')
 
-    const { normaliseSpec, planChunks, runChunk, assembleResult, makeProvenance, resultToCsv } = await import('../../../src/spec/index.js')
+    const { normaliseSpec } = await import('../../../src/spec/index.js')
+    const { planSweep, computeChunk, assembleResult, makeProvenance } = await import('../../../src/sweep/index.js')
+    const { resultToCsv } = await import('../../../src/results/index.js')
+    const { runtimeFacts } = await import('../../../src/runtime/facts.js')
     const spec = normaliseSpec(input)
-    const local = assembleResult(spec, planChunks(spec).map(chunk => runChunk(spec, chunk)), makeProvenance(spec, { wallSeconds: 0, cpuSeconds: 0 }))
+    const local = assembleResult(spec, planSweep(spec).chunks.map(chunk => computeChunk(spec, chunk)), makeProvenance(spec, runtimeFacts(), { wallSeconds: 0, cpuSeconds: 0 }))
     expect(compiled.csv).toBe(resultToCsv(local, { perTrial: true }))
   })
 })

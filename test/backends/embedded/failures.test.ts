@@ -1,9 +1,10 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { SweepQueue } from '../../../src/backends/port.js'
-import { classifyChunkError } from '../../../src/backends/shared/failure.js'
-import { workerEntryFor } from '../../../src/backends/shared/worker-entry.js'
+import { classifyChunkError } from '../../../src/sweep/failure.js'
+import { workerEntryFor } from '../../../src/backends/embedded/worker-entry.js'
 import { EngineInputError } from '../../../src/engine/index.js'
-import { ChunkCanceledError, IncompleteResultError, SpecValidationError, WorkLimitError } from '../../../src/spec/index.js'
+import { SpecValidationError, WorkLimitError } from '../../../src/spec/index.js'
+import { ChunkCanceledError, IncompleteResultError } from '../../../src/sweep/index.js'
 import { makeDataDir, openQueue, roomCodesSpec, waitForTerminal } from './helpers.js'
 
 describe('chunk error classification', () => {

@@ -8,7 +8,8 @@ import { join } from 'node:path'
 import { createEmbeddedQueue, type EmbeddedQueueOptions } from '../../../src/backends/embedded/index.js'
 import { TERMINAL_STATUSES } from '../../../src/backends/port.js'
 import type { SweepEvent, SweepQueue, SweepRecord } from '../../../src/backends/port.js'
-import { normaliseSpec, resultToCsv, resultToJson, type NormalisedSpec, type SweepResult } from '../../../src/spec/index.js'
+import { normaliseSpec, type NormalisedSpec } from '../../../src/spec/index.js'
+import { resultToCsv, resultToJson, type SweepResult } from '../../../src/results/index.js'
 
 export function makeDataDir (): { dir: string, remove: () => void } {
   const dir = mkdtempSync(join(tmpdir(), 'memsweep-embedded-'))
@@ -77,6 +78,13 @@ export async function pollUntil (check: () => Promise<boolean>, timeoutMs: numbe
     if (performance.now() > deadline) throw new Error(`condition not met within ${timeoutMs} ms`)
     await new Promise(resolve => setTimeout(resolve, everyMs))
   }
+}
+
+/** A succeeded sweep's result with its trial records attached (stores keep them in the chunks). */
+export async function fullResult (queue: SweepQueue, id: string): Promise<SweepResult> {
+  const result = await queue.results(id)
+  if (result === null) throw new Error(`sweep ${id} has no result`)
+  return { ...result, trials: await queue.trials(id) ?? [] }
 }
 
 /** The result's published bytes (JSON without run timing, both CSV forms). */

@@ -1,7 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { SweepEvent, SweepQueue } from '../../../src/backends/port.js'
-import { assembleResult, makeProvenance, planChunks, runChunk } from '../../../src/spec/index.js'
-import { corridorSweepSpec, makeDataDir, openQueue, resultBytes, roomCodesSpec, waitForTerminal } from './helpers.js'
+import { assembleResult, makeProvenance, planSweep, computeChunk } from '../../../src/sweep/index.js'
+import { corridorSweepSpec, makeDataDir, openQueue, fullResult, resultBytes, roomCodesSpec, waitForTerminal } from './helpers.js'
+import { runtimeFacts } from '../../../src/runtime/facts.js'
 
 describe('embedded queue: a sweep from submission to results', () => {
   const data = makeDataDir()
@@ -21,7 +22,7 @@ describe('embedded queue: a sweep from submission to results', () => {
     const submitted = await queue.submit({ spec, owner: null })
     expect(submitted.status === 'queued' || submitted.status === 'running').toBe(true)
     expect(submitted.label).toBe('room codes')
-    expect(submitted.progress).toMatchObject({ pointsTotal: 3, trialsTotal: 120, chunksTotal: planChunks(spec).length, chunksDone: 0 })
+    expect(submitted.progress).toMatchObject({ pointsTotal: 3, trialsTotal: 120, chunksTotal: planSweep(spec).chunks.length, chunksDone: 0 })
     expect(await queue.results(submitted.id)).toBeNull()
 
     const finished = await waitForTerminal(queue, submitted.id)
@@ -30,7 +31,7 @@ describe('embedded queue: a sweep from submission to results', () => {
     expect(finished.progress).toMatchObject({ pointsDone: 3, trialsDone: 120, chunksDone: finished.progress.chunksTotal })
     expect(Date.parse(finished.finishedAt ?? '')).toBeGreaterThanOrEqual(Date.parse(finished.startedAt ?? ''))
 
-    const result = await queue.results(submitted.id)
+    const result = await fullResult(queue, submitted.id)
     expect(result).not.toBeNull()
     expect(result?.specHash).toBe(submitted.specHash)
     expect(result?.rows.map(row => row.params.patterns)).toEqual([6, 12, 18])
@@ -38,7 +39,7 @@ describe('embedded queue: a sweep from submission to results', () => {
     expect(result?.provenance.workers).toBe(2)
 
     // The same chunks computed right here, in this thread and in index order, give the same bytes.
-    const local = assembleResult(spec, planChunks(spec).map(chunk => runChunk(spec, chunk)), makeProvenance(spec, { wallSeconds: 0, cpuSeconds: 0 }))
+    const local = assembleResult(spec, planSweep(spec).chunks.map(chunk => computeChunk(spec, chunk)), makeProvenance(spec, runtimeFacts(), { wallSeconds: 0, cpuSeconds: 0 }))
     expect(resultBytes(result!)).toEqual(resultBytes(local))
   })
 

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { InvalidCursorError } from '../../../src/backends/embedded/index.js'
 import { IdempotencyConflictError } from '../../../src/backends/port.js'
 import type { SweepQueue, SweepRecord } from '../../../src/backends/port.js'
-import { longChunkSpec, makeDataDir, openQueue, resultBytes, roomCodesSpec, waitForTerminal } from './helpers.js'
+import { longChunkSpec, makeDataDir, openQueue, fullResult, resultBytes, roomCodesSpec, waitForTerminal } from './helpers.js'
 
 async function readAllPages (queue: SweepQueue, owner: string | null, limit: number, status?: SweepRecord['status']): Promise<string[][]> {
   const pages: string[][] = []
@@ -104,10 +104,10 @@ describe('embedded queue: Idempotency-Key and reuse', () => {
 
   it('forgets a key after its time to live', async () => {
     const shortLived = makeDataDir()
-    const other = await openQueue(shortLived.dir, { threads: 1, tuning: { idempotencyTtlMs: 1 } })
+    const other = await openQueue(shortLived.dir, { threads: 1, tuning: { idempotencyTtlSeconds: 1 } })
     try {
       const first = await other.submit({ spec: roomCodesSpec({ seed: 13 }), owner: null, idempotencyKey: 'k' })
-      await new Promise(resolve => setTimeout(resolve, 5))
+      await new Promise(resolve => setTimeout(resolve, 1100))
       const second = await other.submit({ spec: roomCodesSpec({ seed: 14 }), owner: null, idempotencyKey: 'k' })
       expect(second.id).not.toBe(first.id)
     } finally {
@@ -140,6 +140,6 @@ describe('embedded queue: Idempotency-Key and reuse', () => {
     const fresh = await queue.submit({ spec: roomCodesSpec({ seed: 22 }), owner: 'ana', reuse: true })
     expect(fresh.reusedFrom).toBeNull()
     for (const sweep of [plain, otherOwner, fresh]) expect((await waitForTerminal(queue, sweep.id)).status).toBe('succeeded')
-    expect(resultBytes((await queue.results(otherOwner.id))!)).toEqual(resultBytes((await queue.results(plain.id))!))
+    expect(resultBytes(await fullResult(queue, otherOwner.id))).toEqual(resultBytes(await fullResult(queue, plain.id)))
   })
 })

@@ -1,104 +1,48 @@
+/**
+ * What only the SQLite store does (the shared behaviour is in store.contract.test.ts):
+ * its file, its migrations, sweeps stored by a release without plans, and the errors that
+ * name an unusable data directory.
+ */
 import Database from 'better-sqlite3'
+import { chmodSync, writeFileSync } from 'node:fs'
 import { join } from 'node:path'
 import { afterEach, beforeEach, describe, expect, it } from 'vitest'
-import { DATABASE_FILE, SweepStore, type NewSweep } from '../../../src/backends/embedded/store.js'
+import { DATABASE_FILE, SqliteSweepStore } from '../../../src/backends/embedded/store.js'
+import { normaliseSpec, specHash } from '../../../src/spec/index.js'
+import { planSweep } from '../../../src/sweep/index.js'
 import { makeDataDir } from './helpers.js'
 
-function newSweep (id: string, overrides: Partial<NewSweep> = {}): NewSweep {
-  return {
-    id,
-    owner: 'ana',
-    label: null,
-    specHash: `hash-${id}`,
-    specJson: '{"trials":4}',
-    createdMs: 1_790_000_000_000,
-    pointsTotal: 2,
-    trialsTotal: 8,
-    chunksTotal: 2,
-    reusedFrom: null,
-    ...overrides
-  }
-}
+const spec = normaliseSpec({ neurons: 60, load: { values: [0.05, 0.1] }, trials: 10, seed: 3 })
 
-const chunk = (index: number, trials = 4) => ({ index, point: index, trials, computeMs: 5, body: new Uint8Array([1, 2, index]) })
-
-describe('sweep store (SQLite)', () => {
+describe('sweep store (SQLite only)', () => {
   let data: ReturnType<typeof makeDataDir>
-  let store: SweepStore
+  let store: SqliteSweepStore
 
   beforeEach(() => {
     data = makeDataDir()
-    store = new SweepStore(data.dir)
+    store = new SqliteSweepStore(data.dir)
   })
   afterEach(() => {
     store.close()
     data.remove()
   })
 
-  it('replaces a chunk delivered twice instead of adding it, and counts its progress once', () => {
-    store.insertSweep(newSweep('s1'))
-    expect(store.markRunning('s1', 1)).toBe(true)
-    expect(store.commitChunk('s1', chunk(0), 1, 2)).toBe(true)
-    expect(store.commitChunk('s1', chunk(0), 0, 3)).toBe(true)
-    expect(store.doneChunkIndices('s1')).toEqual([0])
-    expect(store.get('s1')?.progress).toMatchObject({ chunksDone: 1, trialsDone: 4, pointsDone: 1 })
-  })
-
-  it('writes nothing for a sweep that is no longer running', () => {
-    store.insertSweep(newSweep('s1'))
-    expect(store.commitChunk('s1', chunk(0), 1, 2)).toBe(false)
-    store.markRunning('s1', 1)
-    expect(store.finishUnsuccessfully('s1', 'canceled', null, 5)).toBe(true)
-    expect(store.commitChunk('s1', chunk(1), 1, 6)).toBe(false)
-    expect(store.finishUnsuccessfully('s1', 'failed', { kind: 'system', message: 'late' }, 7)).toBe(false)
-    expect(store.get('s1')).toMatchObject({ status: 'canceled', error: null })
-  })
-
-  it('stores the result once, drops the chunk rows, and serves the result to reuses', () => {
-    store.insertSweep(newSweep('s1'))
-    store.markRunning('s1', 1)
-    store.commitChunk('s1', chunk(0), 1, 2)
-    store.commitChunk('s1', chunk(1), 1, 3)
-    expect(store.chunkBodies('s1')).toEqual({ bodies: [Buffer.from([1, 2, 0]), Buffer.from([1, 2, 1])], computeMs: 10 })
-    expect(store.completeSweep('s1', new Uint8Array([9]), 4)).toBe(true)
-    expect(store.completeSweep('s1', new Uint8Array([8]), 5)).toBe(false)
-    expect(store.doneChunkIndices('s1')).toEqual([])
-    expect(store.resultBody('s1')?.body).toEqual(Buffer.from([9]))
-
-    expect(store.findReusable('ana', 'hash-s1')).toBe('s1')
-    expect(store.findReusable('ben', 'hash-s1')).toBeNull()
-    store.insertSweep(newSweep('s2', { specHash: 'hash-s1', reusedFrom: 's1', createdMs: 1_790_000_000_500 }))
-    expect(store.get('s2')).toMatchObject({ status: 'succeeded', reusedFrom: 's1', progress: { trialsDone: 8, chunksDone: 2 } })
-    expect(store.resultBody('s2')?.body).toEqual(Buffer.from([9]))
-    expect(store.findReusable('ana', 'hash-s1')).toBe('s1')
-  })
-
-  it('lists the active sweeps oldest first for resumption', () => {
-    store.insertSweep(newSweep('late', { createdMs: 2000 }))
-    store.insertSweep(newSweep('early', { createdMs: 1000 }))
-    store.insertSweep(newSweep('done', { createdMs: 500, reusedFrom: null }))
-    store.markRunning('done', 1)
-    store.finishUnsuccessfully('done', 'failed', { kind: 'user', message: 'bad' }, 2)
-    expect(store.activeSweeps().map(row => row.id)).toEqual(['early', 'late'])
-    expect(store.countByStatus()).toEqual({ queued: 2, running: 0, succeeded: 0, failed: 1, canceled: 0 })
-  })
-
-  it('migrates once, keeps data across reopening, and refuses a database from a newer build', () => {
-    store.insertSweep(newSweep('kept'))
+  it('migrates once, keeps data across reopening, and refuses a database from a newer build', async () => {
+    await store.create({ id: 'kept', owner: null, label: null, specHash: specHash(spec), spec, createdMs: 1, plan: planSweep(spec) })
     store.close()
-    store = new SweepStore(data.dir)
-    expect(store.get('kept')?.id).toBe('kept')
+    store = new SqliteSweepStore(data.dir)
+    expect((await store.get('kept'))?.id).toBe('kept')
     store.close()
 
     const raw = new Database(join(data.dir, DATABASE_FILE))
     const current = raw.pragma('user_version', { simple: true })
     raw.pragma('user_version = 99')
     raw.close()
-    expect(() => new SweepStore(data.dir)).toThrow(/newer memsweep/)
+    expect(() => new SqliteSweepStore(data.dir)).toThrow(/newer memsweep/)
     const restore = new Database(join(data.dir, DATABASE_FILE))
     restore.pragma(`user_version = ${Number(current)}`)
     restore.close()
-    store = new SweepStore(data.dir)
+    store = new SqliteSweepStore(data.dir)
   })
 
   it('keeps the database in WAL mode', () => {
@@ -106,6 +50,40 @@ describe('sweep store (SQLite)', () => {
     const raw = new Database(join(data.dir, DATABASE_FILE), { readonly: true })
     expect(raw.pragma('journal_mode', { simple: true })).toBe('wal')
     raw.close()
-    store = new SweepStore(data.dir)
+    store = new SqliteSweepStore(data.dir)
+  })
+
+  it('gives a sweep stored without a plan a new one, dropping chunks cut by the unknown old plan', async () => {
+    await store.create({ id: 'old', owner: null, label: null, specHash: specHash(spec), spec, createdMs: 1, plan: planSweep(spec) })
+    const plan = planSweep(spec)
+    await store.recordChunk('old', plan.chunks[0]!, new Uint8Array([1]), 1, 2)
+    store.close()
+    // What a release before stored plans left behind: no plan, a chunk of unknown cut.
+    const raw = new Database(join(data.dir, DATABASE_FILE))
+    raw.prepare('UPDATE sweeps SET plan_json = NULL WHERE id = ?').run('old')
+    raw.close()
+    store = new SqliteSweepStore(data.dir)
+    const [row] = store.activeSweeps()
+    expect(row).toMatchObject({ id: 'old', plan: null })
+    const shownBefore = (await store.get('old'))!.progress.trialsDone
+    store.adoptPlan('old', plan)
+    expect(await store.plan('old')).toEqual(plan)
+    expect(await store.doneChunks('old')).toEqual([])
+    expect((await store.get('old'))!.progress).toMatchObject({ chunksDone: 0, pointsDone: 0, trialsDone: shownBefore })
+  })
+
+  it('names the data directory when it cannot be used', () => {
+    const file = join(data.dir, 'not-a-directory')
+    writeFileSync(file, '')
+    expect(() => new SqliteSweepStore(join(file, 'data'))).toThrow(new RegExp(`data directory ${file.replace(/[/\\]/g, '.')}.*cannot be created.*DATA_DIR`))
+    if (process.getuid?.() !== 0) {
+      const locked = join(data.dir, 'locked')
+      chmodSync(data.dir, 0o500)
+      try {
+        expect(() => new SqliteSweepStore(locked)).toThrow(/DATA_DIR/)
+      } finally {
+        chmodSync(data.dir, 0o700)
+      }
+    }
   })
 })

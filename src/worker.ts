@@ -4,10 +4,10 @@
  * Start as many as you like, on any machines that reach the same Redis.
  */
 import { pathToFileURL } from 'node:url'
-import { loadConfig } from '../config.js'
-import { createLogger } from '../logger.js'
-import { closeOnSignals, startWorker } from './main.js'
-import { missingEngineFlags } from '../runtime/node-flags.js'
+import { loadConfig } from './config.js'
+import { createLogger } from './logger.js'
+import { closeOnSignals, startWorker } from './backends/redis/worker/worker.js'
+import { missingEngineFlags } from './runtime/node-flags.js'
 
 export async function runWorkerFromEnvironment (env: Record<string, string | undefined>): Promise<void> {
   const config = loadConfig(env)

@@ -3,11 +3,11 @@
  * since a search keeps per-step summaries rather than per-trial records. Scaling fits are
  * in the JSON only: a fit is not a row of the same table.
  */
-import type { SweepResult } from '../assemble.js'
-import { toCsv, type CsvCell } from '../csv.js'
-import { gridAxes } from '../grid.js'
-import { summaryCells, summaryHeader } from '../summary-cells.js'
-import type { SearchRow } from './types.js'
+import type { SweepResult } from './types.js'
+import { toCsv, type CsvCell } from './csv.js'
+import { gridAxes } from '../spec/grid.js'
+import { summaryCells, summaryHeader } from './summary-cells.js'
+import type { SearchRow } from '../spec/analysis/types.js'
 
 // MAIN //
 

@@ -3,11 +3,11 @@
  * per trial). Both depend on the result's content only, never on how it was computed.
  */
 import type { TrialRecord } from '../engine/index.js'
-import { searchCsv } from './analysis/output.js'
-import type { ResultRow, SweepResult } from './assemble.js'
-import { canonicalJson } from './canonical.js'
+import { searchCsv } from './search-output.js'
+import type { ResultRow, SweepResult } from './types.js'
+import { canonicalJson } from '../spec/canonical.js'
 import { toCsv, type CsvCell } from './csv.js'
-import { gridAxes } from './grid.js'
+import { gridAxes } from '../spec/grid.js'
 import { summaryCells, summaryHeader } from './summary-cells.js'
 
 export interface OutputOptions {

@@ -1,83 +1,73 @@
 /**
- * Fan-in: chunk results → the sweep result. Trials are placed by their (point, trial)
- * index, never by arrival, and every point is aggregated from its trials in trial order, so
- * the result is the same whatever the chunking, worker count or completion order.
+ * Fan-in: stored chunk results → the sweep result. Trials are placed by the plan's (point,
+ * trial range) of each chunk, never by arrival, and every point is aggregated from its
+ * trials in trial order, so the result is the same whatever the chunking, worker count or
+ * completion order. Facts about the run (timing, the assembling process) come in as
+ * arguments.
  */
-import { aggregatePoint, ENGINE_VERSION, RNG_ALGORITHM, theoryForPoint, type PointSummary, type TrialRecord } from '../engine/index.js'
-import { assembleSearches } from './analysis/assemble.js'
-import type { ScalingRow, SearchRow } from './analysis/types.js'
-import { canonicalJson, sortKeysDeep, specHash } from './canonical.js'
-import type { ChunkResult } from './chunks.js'
+import { aggregatePoint, ENGINE_VERSION, RNG_ALGORITHM, theoryForPoint, type TrialRecord } from '../engine/index.js'
+import { canonicalJson, countPoints, pointAt, sortKeysDeep, specHash, type NormalisedSpec } from '../spec/index.js'
+import type { Provenance, ResultRow, SweepResult } from '../results/types.js'
+import type { RuntimeFacts } from '../runtime/facts.js'
+import { assembleSearches } from './analysis/assemble-searches.js'
+import { decodeValue } from './codec.js'
+import { POINT_KEYING, type ChunkResult } from './compute-chunk.js'
 import { IncompleteResultError } from './errors.js'
-import { countPoints, pointAt } from './grid.js'
-import type { NormalisedSpec } from './types.js'
+import type { Chunk } from './plan.js'
 
-/** Where and how a result was computed. Timing is the caller's; everything else describes the code. */
-export interface Provenance {
-  specHash: string
-  engineVersion: string
-  /** Node.js version (process.version) of the assembling process. */
-  node: string
-  /** V8 version; Math.exp and friends may change with it. */
-  v8: string
-  /** Random number algorithm and stream derivation. */
-  rng: string
-  /** Wall-clock seconds from the first chunk started to the last one finished. */
+export interface RunTiming {
   wallSeconds: number
-  /** CPU seconds summed over all chunks. */
   cpuSeconds: number
-  /** Worker threads or processes that ran chunks, when known. */
   workers?: number
-  /** Name of an accelerated code path used by the workers, when one was. */
   fastPath?: string
 }
 
-export interface ResultRow {
-  point: number
-  /** The varied parameters at this point, by path. */
-  values: Record<string, number>
-  /** N, P and the realised load α = P/N. */
-  params: { alpha: number, neurons: number, patterns: number }
-  summary: PointSummary
-  /** Theory values that apply at this point, by name. */
-  theory: Record<string, number>
-}
-
-export interface SweepResult {
-  specHash: string
-  spec: NormalisedSpec
-  /** One row per grid point (empty for an analysis: see `searches`). */
-  rows: ResultRow[]
-  /** trials[point][trial] (empty for an analysis, which keeps per-step summaries instead). */
-  trials: TrialRecord[][]
-  /** Analysis specs only: one threshold search per point of the outer grid. */
-  searches?: SearchRow[]
-  /** Analysis specs with a scaling fit only: one fit per combination of the other varied parameters. */
-  scaling?: ScalingRow[]
-  provenance: Provenance
+/** A stored chunk: its index in the plan and its encoded ChunkResult. */
+export interface StoredChunk {
+  index: number
+  body: Uint8Array
 }
 
 // MAIN //
 
-/** Provenance for results assembled in this process, given the caller's timing. */
-export function makeProvenance (spec: NormalisedSpec, timing: { wallSeconds: number, cpuSeconds: number, workers?: number, fastPath?: string }): Provenance {
+/** Provenance of a result, from the assembling process's facts and the run's timing. */
+export function makeProvenance (spec: NormalisedSpec, facts: RuntimeFacts, timing: RunTiming): Provenance {
   return {
     specHash: specHash(spec),
     engineVersion: ENGINE_VERSION,
-    node: process.version,
-    v8: process.versions.v8,
+    node: facts.node,
+    v8: facts.v8,
     rng: RNG_ALGORITHM,
+    pointKeying: POINT_KEYING,
     ...timing
   }
 }
 
 /**
- * Assembles the sweep result from chunk results in any order.
+ * The result from stored chunks, as a store keeps it: rows (or searches) and provenance,
+ * without the trial records, which stay in the chunks.
+ *
+ * @throws {IncompleteResultError} when a chunk of the plan is missing or does not hold its trials.
+ */
+export function assembleStored (spec: NormalisedSpec, plan: readonly Chunk[], stored: readonly StoredChunk[], provenance: Provenance): SweepResult {
+  const bodies = new Map(stored.map((chunk) => [chunk.index, chunk.body]))
+  const results: ChunkResult[] = []
+  const missing: number[] = []
+  for (const chunk of plan) {
+    const body = bodies.get(chunk.index)
+    if (body === undefined) missing.push(chunk.index)
+    else results.push({ ...decodeValue<ChunkResult>(body), chunk: chunk.index, point: chunk.point })
+  }
+  if (missing.length > 0) throw new IncompleteResultError([`${missing.length} of ${plan.length} chunks are not stored (first: ${missing[0]!})`])
+  return { ...assembleResult(spec, results, provenance), trials: [] }
+}
+
+/**
+ * Assembles the sweep result, trial records included, from chunk results in any order.
+ * The fast paths the chunks report are recorded in the provenance unless it names one.
  *
  * @throws {IncompleteResultError} when some trial is missing, duplicated with different
  *   content, or outside the grid.
- * The fast paths the chunks report are recorded in the provenance unless the caller set one.
- *
  * @throws {RangeError} when the provenance names another spec.
  */
 export function assembleResult (spec: NormalisedSpec, chunkResults: readonly ChunkResult[], provenance: Provenance): SweepResult {
@@ -103,6 +93,16 @@ export function assembleResult (spec: NormalisedSpec, chunkResults: readonly Chu
     }
   })
   return { specHash: hash, spec, rows, trials, provenance: sortKeysDeep(provenance) }
+}
+
+/** The trial records of stored chunks, trials[point][trial], for readers that ask for them. */
+export function storedTrials (spec: NormalisedSpec, plan: readonly Chunk[], stored: readonly StoredChunk[]): TrialRecord[][] {
+  const bodies = new Map(stored.map((chunk) => [chunk.index, chunk.body]))
+  return placeTrials(spec, plan.map((chunk) => {
+    const body = bodies.get(chunk.index)
+    if (body === undefined) throw new IncompleteResultError([`chunk ${chunk.index} is not stored`])
+    return { ...decodeValue<ChunkResult>(body), chunk: chunk.index, point: chunk.point }
+  }))
 }
 
 function placeTrials (spec: NormalisedSpec, chunkResults: readonly ChunkResult[]): TrialRecord[][] {

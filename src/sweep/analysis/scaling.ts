@@ -6,10 +6,10 @@
 import normalQuantile from '@stdlib/stats-base-dists-normal-quantile'
 import { fitFiniteSize } from '../../engine/analysis/index.js'
 import { rsCriticalLoad, type PointParams } from '../../engine/index.js'
-import { canonicalJson } from '../canonical.js'
-import { pointAt } from '../grid.js'
-import type { NormalisedSpec } from '../types.js'
-import type { NormalisedAnalysis, ScalingReference, ScalingRow, SearchRow } from './types.js'
+import { canonicalJson } from '../../spec/canonical.js'
+import { pointAt } from '../../spec/grid.js'
+import type { NormalisedSpec } from '../../spec/types.js'
+import type { NormalisedAnalysis, ScalingReference, ScalingRow, SearchRow } from '../../spec/analysis/types.js'
 
 /** Finite-size simulation estimate of the Hebbian capacity and its quoted uncertainty. */
 export const SIMULATED_CAPACITY = {

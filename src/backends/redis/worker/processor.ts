@@ -9,22 +9,25 @@
  * the assembly under a fixed job id, and the result is stored by a script that only moves
  * a running sweep to succeeded. Every step can be repeated after a crash.
  */
-import { performance } from 'node:perf_hooks'
 import { workerData } from 'node:worker_threads'
 import { UnrecoverableError, WaitingError, type SandboxedJob } from 'bullmq'
 import type { Redis } from 'ioredis'
-import { assembleResult, makeProvenance, runChunk, specHash, type ChunkResult, type NormalisedSpec } from '../spec/index.js'
-import { classifyChunkError, systemFailureMessage } from '../backends/shared/failure.js'
-import { CODEC_NAME, decodeValue, encodeValue } from '../backends/shared/trial-codec.js'
-import { TERMINAL_STATUSES, type SweepFailure } from '../backends/port.js'
-import { ChunkQueue, type AssembleJobData, type ChunkJobData, type ChunkRetryPolicy } from '../backends/redis/chunk-queue.js'
-import { openConnection } from '../backends/redis/connections.js'
-import { publishStop, publishSweepEvent } from '../backends/redis/events.js'
-import { keyLayout, type KeyLayout } from '../backends/redis/keys.js'
-import { RedisSweepStore } from '../backends/redis/store.js'
+import { specHash, type NormalisedSpec } from '../../../spec/index.js'
+import {
+  assembleResult, assembleStored, classifyChunkError, decodeValue, encodeValue, isTerminal, makeProvenance, runChunk, systemCauseOf,
+  systemFailure, userFailure, type ChunkResult, type ChunkRunOutcome
+} from '../../../sweep/index.js'
+import type { SweepResult } from '../../../results/index.js'
+import { ChunkQueue, type AssembleJobData, type ChunkJobData, type ChunkRetryPolicy } from '../chunk-queue.js'
+import { openConnection } from '../connections.js'
+import { publishSweepEvent } from '../events.js'
+import { keyLayout, type KeyLayout } from '../keys.js'
+import { RedisSweepStore } from '../store.js'
+import { failSweep } from './failures.js'
 import { StopBoardReader } from './stop-board.js'
-import { compileKernelsOptimised } from '../runtime/kernel-compilation.js'
-import { explicitCollector } from '../runtime/reclaim.js'
+import { compileKernelsOptimised } from '../../../runtime/kernel-compilation.js'
+import { runtimeFacts } from '../../../runtime/facts.js'
+import { explicitCollector } from '../../../runtime/reclaim.js'
 
 compileKernelsOptimised()
 
@@ -103,59 +106,52 @@ async function runChunkJob (context: SandboxContext, job: SandboxedJob<ChunkJobD
   const { sweepId, chunk, chunksTotal } = job.data
   const view = await store.workView(sweepId)
   if (view === null) return { outcome: 'skipped', reason: 'sweep no longer stored' }
-  if (TERMINAL_STATUSES.has(view.status)) return { outcome: 'skipped', reason: `sweep is ${view.status}` }
+  if (isTerminal(view.status)) return { outcome: 'skipped', reason: `sweep is ${view.status}` }
   await store.markRunning(sweepId, Date.now())
 
-  const started = performance.now()
-  let lastReport = started
-  let result: ChunkResult
+  let spec: NormalisedSpec | null = null
+  let outcome: ChunkRunOutcome
   try {
-    const spec = loadSpec(sweepId, job.data.specHash, view.specHash, view.specJson)
-    result = runChunk(spec, chunk, {
-      reclaim: explicitCollector(),
-      // Called between trials while this thread's event loop is blocked: only shared memory can answer.
-      shouldStop: () => board.isStopped(sweepId) || board.handBackRequested() || signal?.aborted === true,
-      onTrial: (trialsDone) => {
-        const now = performance.now()
-        if (now - lastReport < settings.progressIntervalMs) return
-        lastReport = now
-        // Posted to the worker process at once (the message does not wait for this loop); it stores the progress.
-        job.updateProgress({ chunk: chunk.index, trialsDone }).catch(() => {})
-      }
-    })
+    spec = loadSpec(sweepId, job.data.specHash, view.specHash, view.specJson)
   } catch (error) {
-    const classified = classifyChunkError(error)
-    if (classified.kind === 'canceled') {
+    outcome = { kind: 'failed', error: classifyChunkError(error) }
+  }
+  outcome ??= runChunk(spec!, chunk, {
+    // Called between trials while this thread's event loop is blocked: only shared memory can answer.
+    shouldStop: () => board.isStopped(sweepId) || board.handBackRequested() || signal?.aborted === true,
+    progressIntervalMs: settings.progressIntervalMs,
+    // Posted to the worker process at once (the message does not wait for this loop); it stores the progress.
+    onProgress: (trialsDone) => { job.updateProgress({ chunk: chunk.index, trialsDone }).catch(() => {}) },
+    reclaim: explicitCollector()
+  })
+  switch (outcome.kind) {
+    case 'stopped':
       if (!board.isStopped(sweepId) && board.handBackRequested()) {
         // The worker process is shutting down: give the chunk back without spending one of its attempts.
         await job.moveToWait(token)
         throw new WaitingError()
       }
       return { outcome: 'stopped', chunk: chunk.index }
+    case 'failed': {
+      if (outcome.error.kind === 'user') {
+        await failSweep(context, sweepId, chunksTotal, userFailure(outcome.error.message))
+        throw new UnrecoverableError(outcome.error.message)
+      }
+      const attempts = job.opts.attempts ?? 1
+      if (job.attemptsMade + 1 >= attempts) {
+        await failSweep(context, sweepId, chunksTotal, systemFailure({ chunkIndex: chunk.index, chunksTotal }, attempts, systemCauseOf(outcome.error.name)))
+      }
+      throw new Error(`${outcome.error.name}: ${outcome.error.message}`)
     }
-    if (classified.kind === 'user') {
-      await failSweep(context, sweepId, chunksTotal, { kind: 'user', message: classified.message })
-      throw new UnrecoverableError(classified.message)
+    case 'done': {
+      const stored = await store.recordChunk(sweepId, chunk, outcome.body, outcome.computeMs, Date.now())
+      if (stored.status !== 'running') return { outcome: 'skipped', reason: `sweep is ${stored.status === '' ? 'gone' : stored.status}` }
+      await publishSweepEvent(context.redis, context.keys, sweepId, 'progress')
+      // Whichever attempt sees the plan complete enqueues the assembly; its fixed id makes repeats no-ops.
+      if (stored.complete) await context.chunks.enqueueAssembly(sweepId, job.data.specHash, chunksTotal)
+      return { outcome: 'stored', chunk: chunk.index, trials: outcome.trials, computeMs: outcome.computeMs, completedSweep: stored.complete }
     }
-    const attempts = job.opts.attempts ?? 1
-    if (job.attemptsMade + 1 >= attempts) {
-      await failSweep(context, sweepId, chunksTotal, {
-        kind: 'system',
-        message: systemFailureMessage(chunk.index, chunksTotal, attempts, classified.name)
-      })
-    }
-    throw new Error(`${classified.name}: ${classified.message}`)
   }
-  const computeMs = performance.now() - started
-  const body = Buffer.from(encodeValue(result))
-  // Credit the planned count: a grid chunk ran exactly that many trials, a search chunk's count is its budget (progress reaches 100 % when it ends).
-  const stored = await store.recordChunk(sweepId, chunk, body, chunk.count, computeMs, Date.now())
-  if (stored.status !== 'running') return { outcome: 'skipped', reason: `sweep is ${stored.status === '' ? 'gone' : stored.status}` }
-  await publishSweepEvent(context.redis, context.keys, sweepId, 'progress')
-  const completedSweep = stored.chunksDone === stored.chunksTotal
-  // Whichever attempt sees the count complete enqueues the assembly; its fixed id makes repeats no-ops.
-  if (completedSweep) await context.chunks.enqueueAssembly(sweepId, job.data.specHash, chunksTotal)
-  return { outcome: 'stored', chunk: chunk.index, trials: chunk.count, computeMs, completedSweep }
 }
 
 async function assemble (context: SandboxContext, job: SandboxedJob<AssembleJobData>): Promise<ProcessorOutcome> {
@@ -163,40 +159,34 @@ async function assemble (context: SandboxContext, job: SandboxedJob<AssembleJobD
   const { sweepId, chunksTotal } = job.data
   const view = await store.workView(sweepId)
   if (view === null) return { outcome: 'skipped', reason: 'sweep no longer stored' }
-  if (TERMINAL_STATUSES.has(view.status)) return { outcome: 'skipped', reason: `sweep is ${view.status}` }
-  let body: Buffer
+  if (isTerminal(view.status)) return { outcome: 'skipped', reason: `sweep is ${view.status}` }
+  let body: Uint8Array
   try {
     const spec = loadSpec(sweepId, job.data.specHash, view.specHash, view.specJson)
-    const bodies = await store.chunkBodies(sweepId, chunksTotal)
-    const chunkResults = bodies.map(stored => decodeValue<ChunkResult>(CODEC_NAME, stored))
+    const [plan, stored] = await Promise.all([store.plan(sweepId), store.storedChunks(sweepId)])
     const finishedMs = Date.now()
-    const provenance = makeProvenance(spec, {
+    const provenance = makeProvenance(spec, runtimeFacts(), {
       wallSeconds: Math.max(0, finishedMs - (view.startedMs ?? finishedMs)) / 1000,
-      cpuSeconds: view.computeMs / 1000
+      cpuSeconds: stored.computeMs / 1000
     })
-    body = Buffer.from(encodeValue(assembleResult(spec, chunkResults, provenance)))
+    body = encodeValue(plan === null
+      // A sweep stored before plans were: its result keeps its trials, as results then did.
+      ? legacyResult(spec, stored.chunks.map((chunk) => decodeValue<ChunkResult>(chunk.body)), provenance)
+      : assembleStored(spec, plan.chunks, stored.chunks, provenance))
   } catch (error) {
     const classified = classifyChunkError(error)
     const attempts = job.opts.attempts ?? 1
     // Stored chunks that cannot be assembled are the system's fault, never the spec's.
     if (job.attemptsMade + 1 >= attempts) {
-      await failSweep(context, sweepId, chunksTotal, {
-        kind: 'system',
-        message: `The results of all ${chunksTotal} chunks were computed but could not be assembled (${classified.name}). The service log has the details.`
-      })
+      await failSweep(context, sweepId, chunksTotal, systemFailure({ chunkIndex: null, chunksTotal }, attempts, systemCauseOf(classified.name)))
     }
     throw new Error(`${classified.name}: ${classified.message}`)
   }
-  const finished = await store.finish(sweepId, view.owner, view.specHash, body, Date.now())
+  const finished = await store.succeed(sweepId, body, Date.now())
   if (finished.changed) await publishSweepEvent(context.redis, context.keys, sweepId, 'state')
   return { outcome: 'assembled', changed: finished.changed }
 }
 
-/** Fails the sweep (once), stops its other running chunks everywhere and drops its waiting ones. */
-async function failSweep (context: SandboxContext, sweepId: string, chunksTotal: number, failure: SweepFailure): Promise<void> {
-  const transition = await context.store.stop(sweepId, 'failed', Date.now(), failure)
-  if (!transition.changed) return
-  await publishStop(context.redis, context.keys, sweepId)
-  await publishSweepEvent(context.redis, context.keys, sweepId, 'state')
-  await context.chunks.removePending(sweepId, chunksTotal)
+function legacyResult (spec: NormalisedSpec, chunks: ChunkResult[], provenance: ReturnType<typeof makeProvenance>): SweepResult {
+  return assembleResult(spec, chunks, provenance)
 }

@@ -1,12 +1,13 @@
 /**
- * The messages between a backend's scheduler and the thread that computes: one chunk of
- * trials, or the final assembly of a sweep's chunks. Everything here must survive the
- * structured clone of `postMessage`; results travel as opaque encoded bytes so the
- * scheduler's thread never decodes trial records it only has to store.
+ * The messages between the embedded scheduler and its compute threads: run one chunk, or
+ * assemble a finished sweep. Everything here survives the structured clone of
+ * `postMessage`; chunk results travel as opaque encoded bytes, so the scheduler's thread
+ * never decodes trial records it only has to store.
  */
 import type { MessagePort } from 'node:worker_threads'
-import type { Chunk, NormalisedSpec, Provenance } from '../../spec/index.js'
-import type { ClassifiedError } from './failure.js'
+import type { NormalisedSpec } from '../../spec/index.js'
+import type { Provenance } from '../../results/index.js'
+import type { Chunk, ChunkRunOutcome, ClassifiedError, StoredChunk } from '../../sweep/index.js'
 
 export interface RunChunkTask {
   kind: 'run'
@@ -25,9 +26,10 @@ export interface RunChunkTask {
 export interface AssembleTask {
   kind: 'assemble'
   spec: NormalisedSpec
-  /** Encoded chunk results in chunk-index order (see trial-codec.ts). */
-  chunks: Uint8Array[]
-  provenance: Provenance
+  plan: Chunk[]
+  chunks: StoredChunk[]
+  /** The run's timing; the thread adds the facts of its own process. */
+  timing: { wallSeconds: number, cpuSeconds: number, workers: number }
 }
 
 /** A no-op answered by a freshly started thread: proves the entry module loads. */
@@ -43,8 +45,9 @@ export interface ChunkProgressMessage {
 }
 
 export type ChunkTaskOutcome =
-  | { kind: 'chunk-done', body: Uint8Array, trials: number, computeMs: number }
+  | ChunkRunOutcome
   | { kind: 'assembled', body: Uint8Array }
   | { kind: 'pong', threadId: number }
-  | { kind: 'stopped' }
   | { kind: 'failed', error: ClassifiedError }
+
+export type { Provenance }

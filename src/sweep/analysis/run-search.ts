@@ -5,12 +5,14 @@
  */
 import { aggregatePoint, createPointRunner, type TrialRecord } from '../../engine/index.js'
 import { runThresholdSearch, type StepObservation } from '../../engine/analysis/index.js'
-import type { Chunk, ChunkResult, RunChunkOptions } from '../chunks.js'
+import type { ChunkResult, ComputeChunkOptions } from '../compute-chunk.js'
 import { ChunkCanceledError } from '../errors.js'
-import { countPoints, pointAt } from '../grid.js'
-import type { NormalisedSpec } from '../types.js'
-import { realisedValue, withParameter } from './parameter.js'
-import type { NormalisedAnalysis, SearchStepRecord } from './types.js'
+import type { Chunk } from '../plan.js'
+import { countPoints, pointAt } from '../../spec/grid.js'
+import type { NormalisedSpec } from '../../spec/types.js'
+import { realisedValue, withParameter } from '../../spec/analysis/parameter.js'
+import type { NormalisedAnalysis, SearchStepRecord } from '../../spec/analysis/types.js'
+import { searchTrialBudget } from '../../spec/analysis/budget.js'
 
 /**
  * Step k of search s draws its networks and trials from grid-point index
@@ -28,17 +30,6 @@ export function searchStreamPoint (search: number, step: number): number {
   return SEARCH_STREAM_OFFSET + search * SEARCH_STEP_STRIDE + step
 }
 
-/** Trials a search may run at most: its budget, and its chunk's `count`. */
-export function searchTrialBudget (spec: NormalisedSpec, analysis: NormalisedAnalysis): number {
-  return analysis.maxSteps * spec.trials
-}
-
-/** One chunk per outer grid point, each counting the search's whole trial budget. */
-export function planSearchChunks (spec: NormalisedSpec, analysis: NormalisedAnalysis): Chunk[] {
-  const count = searchTrialBudget(spec, analysis)
-  return Array.from({ length: countPoints(spec) }, (_, point) => ({ index: point, point, firstTrial: 0, count }))
-}
-
 /**
  * Runs one search. `shouldStop` is polled before every trial, `onTrial` reports the
  * search's trials so far (at most the chunk's count). The result's `trials` is empty: a
@@ -47,7 +38,7 @@ export function planSearchChunks (spec: NormalisedSpec, analysis: NormalisedAnal
  * @throws {ChunkCanceledError} when `shouldStop` returns true before a trial.
  * @throws {RangeError} when the chunk is not one this spec plans.
  */
-export function runSearchChunk (spec: NormalisedSpec, analysis: NormalisedAnalysis, chunk: Chunk, opts: RunChunkOptions): ChunkResult {
+export function runSearchChunk (spec: NormalisedSpec, analysis: NormalisedAnalysis, chunk: Chunk, opts: ComputeChunkOptions): ChunkResult {
   const points = countPoints(spec)
   if (!(Number.isSafeInteger(chunk.point) && chunk.point >= 0 && chunk.point < points) ||
       chunk.index !== chunk.point || chunk.firstTrial !== 0 || chunk.count !== searchTrialBudget(spec, analysis)) {

@@ -15,7 +15,7 @@ export function encodeValue (value: unknown): Uint8Array {
   return new Uint8Array(buffer.buffer, buffer.byteOffset, buffer.byteLength)
 }
 
-export function decodeValue<T> (codec: string, body: Uint8Array): T {
+export function decodeValue<T> (body: Uint8Array, codec: string = CODEC_NAME): T {
   if (codec !== CODEC_NAME) throw new Error(`Unknown result codec '${codec}'.`)
   return deserialize(body) as T
 }

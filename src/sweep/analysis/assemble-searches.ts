@@ -3,13 +3,13 @@
  * arrival; the scaling fit (when asked for) is computed from the placed rows, so the
  * result does not depend on which worker finished first.
  */
-import { canonicalJson } from '../canonical.js'
-import type { ChunkResult } from '../chunks.js'
+import { canonicalJson } from '../../spec/canonical.js'
+import type { ChunkResult } from '../compute-chunk.js'
 import { IncompleteResultError } from '../errors.js'
-import { countPoints, pointAt } from '../grid.js'
-import type { NormalisedSpec } from '../types.js'
+import { countPoints, pointAt } from '../../spec/grid.js'
+import type { NormalisedSpec } from '../../spec/types.js'
 import { scalingRows } from './scaling.js'
-import type { NormalisedAnalysis, ScalingRow, SearchPayload, SearchRow } from './types.js'
+import type { NormalisedAnalysis, ScalingRow, SearchPayload, SearchRow } from '../../spec/analysis/types.js'
 
 // MAIN //
 

@@ -1,0 +1,44 @@
+/**
+ * The module a compute thread loads: runs one chunk (through the lifecycle's one runner)
+ * or assembles a finished sweep. It never throws for a failure it can explain; a throw or
+ * an exit from this thread therefore always means the thread itself broke.
+ */
+import { threadId } from 'node:worker_threads'
+import { assembleStored, classifyChunkError, encodeValue, makeProvenance, runChunk } from '../../sweep/index.js'
+import type { AssembleTask, ChunkTask, ChunkTaskOutcome, RunChunkTask } from './chunk-task.js'
+import { compileKernelsOptimised } from '../../runtime/kernel-compilation.js'
+import { runtimeFacts } from '../../runtime/facts.js'
+import { explicitCollector } from '../../runtime/reclaim.js'
+
+compileKernelsOptimised()
+
+export default function handleChunkTask (task: ChunkTask): ChunkTaskOutcome {
+  switch (task.kind) {
+    case 'ping': return { kind: 'pong', threadId }
+    case 'run': return runOneChunk(task)
+    case 'assemble': return assembleSweep(task)
+  }
+}
+
+function runOneChunk (task: RunChunkTask): ChunkTaskOutcome {
+  const stop = new Int32Array(task.stopFlag)
+  try {
+    return runChunk(task.spec, task.chunk, {
+      shouldStop: () => Atomics.load(stop, 0) !== 0,
+      progressIntervalMs: task.progressIntervalMs,
+      onProgress: (trialsDone) => task.progressPort.postMessage({ trialsDone }),
+      reclaim: explicitCollector()
+    })
+  } finally {
+    task.progressPort.close()
+  }
+}
+
+function assembleSweep (task: AssembleTask): ChunkTaskOutcome {
+  try {
+    const provenance = makeProvenance(task.spec, runtimeFacts(), task.timing)
+    return { kind: 'assembled', body: encodeValue(assembleStored(task.spec, task.plan, task.chunks, provenance)) }
+  } catch (error) {
+    return { kind: 'failed', error: classifyChunkError(error) }
+  }
+}

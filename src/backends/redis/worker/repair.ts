@@ -1,0 +1,34 @@
+/**
+ * Repair of sweeps whose submitting API instance died between storing the record and adding
+ * the chunk jobs: their jobs are added from the plan stored with them (never planned again,
+ * so a release with other planning constants adds exactly the stored chunks). Job ids are
+ * deterministic, so chunks already queued are not duplicated; chunks already stored are
+ * ignored by the store.
+ */
+import type { Logger } from 'pino'
+import type { NormalisedSpec } from '../../../spec/index.js'
+import { isTerminal, planSweep } from '../../../sweep/index.js'
+import type { ChunkQueue } from '../chunk-queue.js'
+import type { RedisSweepStore } from '../store.js'
+
+/** Sweeps created longer ago than this whose jobs were never confirmed are enqueued again. */
+export const UNENQUEUED_REPAIR_AGE_MS = 30_000
+
+export async function enqueueForgotten (store: RedisSweepStore, chunkQueue: ChunkQueue, logger: Logger, nowMs = Date.now()): Promise<number> {
+  let repaired = 0
+  for (const sweepId of await store.unenqueuedBefore(nowMs - UNENQUEUED_REPAIR_AGE_MS)) {
+    const view = await store.workView(sweepId)
+    if (view === null || isTerminal(view.status)) {
+      await store.markEnqueued(sweepId)
+      continue
+    }
+    const spec = JSON.parse(view.specJson) as NormalisedSpec
+    // A sweep stored before plans were stored has none: planning now is all that can be done.
+    const plan = await store.plan(sweepId) ?? planSweep(spec)
+    await chunkQueue.enqueueChunks(sweepId, view.specHash, spec, plan.chunks)
+    await store.markEnqueued(sweepId)
+    repaired++
+    logger.warn({ sweepId }, 'enqueued the chunks of a sweep its API instance never finished submitting')
+  }
+  return repaired
+}

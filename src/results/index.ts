@@ -1,0 +1,3 @@
+/** A sweep result's shape and its representations (canonical JSON, tidy CSV). */
+export type { Provenance, ResultRow, SweepResult } from './types.js'
+export { resultToJson, resultToCsv, type OutputOptions } from './output.js'

@@ -1,0 +1,54 @@
+/** The shape of a sweep's result: what the assembler produces and every output renders. */
+import type { PointSummary, TrialRecord } from '../engine/index.js'
+import type { NormalisedSpec, ScalingRow, SearchRow } from '../spec/index.js'
+
+/** Where and how a result was computed. Timing describes one run; everything else the code. */
+export interface Provenance {
+  specHash: string
+  engineVersion: string
+  /** Node.js version of the assembling process. */
+  node: string
+  /** V8 version; Math.exp and friends may change with it. */
+  v8: string
+  /** Random number algorithm and stream derivation. */
+  rng: string
+  /** How a grid point's streams are keyed (by its model parameters, not its position). */
+  pointKeying: string
+  /** Wall-clock seconds from the first chunk started to the last one finished. */
+  wallSeconds: number
+  /** CPU seconds summed over all chunks. */
+  cpuSeconds: number
+  /** Worker threads or processes that ran chunks, when known. */
+  workers?: number
+  /** Name of an accelerated code path used by the workers, when one was. */
+  fastPath?: string
+}
+
+export interface ResultRow {
+  point: number
+  /** The varied parameters at this point, by path. */
+  values: Record<string, number>
+  /** N, P and the realised load α = P/N. */
+  params: { alpha: number, neurons: number, patterns: number }
+  summary: PointSummary
+  /** Theory values that apply at this point, by name. */
+  theory: Record<string, number>
+}
+
+export interface SweepResult {
+  specHash: string
+  spec: NormalisedSpec
+  /** One row per grid point (empty for an analysis: see `searches`). */
+  rows: ResultRow[]
+  /**
+   * trials[point][trial]. Empty in a stored result: stores keep trial records in their chunks
+   * and attach them only when a reader asks for them (and always empty for an analysis,
+   * which keeps per-step summaries instead).
+   */
+  trials: TrialRecord[][]
+  /** Analysis specs only: one threshold search per point of the outer grid. */
+  searches?: SearchRow[]
+  /** Analysis specs with a scaling fit only: one fit per combination of the other varied parameters. */
+  scaling?: ScalingRow[]
+  provenance: Provenance
+}

@@ -1,0 +1,26 @@
+/**
+ * The sweep lifecycle, one home for both backends and the CLI: the plan stored with a
+ * sweep, the one chunk runner, the assembler, the states and counters, the failure texts
+ * and the storage contract. See README.md for the flow.
+ */
+export { PLAN_VERSION, planSweep, checkPlan, dispatchOrder, chunksPerPoint, encodePlan, decodePlan, type Chunk, type SweepPlan } from './plan.js'
+export { computeChunk, pointStreamKey, POINT_KEYING, type ChunkResult, type ComputeChunkOptions } from './compute-chunk.js'
+export { runChunk, type ChunkRunHooks, type ChunkRunOutcome } from './run-chunk.js'
+export { assembleResult, assembleStored, storedTrials, makeProvenance, type RunTiming, type StoredChunk } from './assemble.js'
+export {
+  SWEEP_STATUSES, ACTIVE_STATUSES, TERMINAL_STATUSES, FAILURE_KINDS, isTerminal, canMove, progressCounters, planComplete,
+  type SweepStatus, type FailureKind, type SweepFailure, type SweepProgress
+} from './state.js'
+export {
+  classifyChunkError, systemCauseOf, userFailure, systemFailure, dataLossFailure, unresumableFailure,
+  SYSTEM_CAUSES, CHUNK_CANCELED_ERROR_NAME, THREAD_CRASH_ERROR_NAME, THREAD_OUT_OF_MEMORY_ERROR_NAME,
+  type ClassifiedError, type SystemCause
+} from './failure.js'
+export { CODEC_NAME, encodeValue, decodeValue } from './codec.js'
+export { ChunkCanceledError, IncompleteResultError } from './errors.js'
+export { searchStreamPoint, SEARCH_STREAM_OFFSET, SEARCH_STEP_STRIDE } from './analysis/run-search.js'
+export { SIMULATED_CAPACITY, RS_CAPACITY_SOURCE } from './analysis/scaling.js'
+export type {
+  SweepStore, SweepRecord, SweepDraft, CreateOptions, CreateOutcome, IdempotencyBinding, ChunkOutcome, Transition, ListQuery, SweepPage
+} from './store.js'
+export { SWEEP_ID_MAX_LENGTH, SWEEP_ID_PATTERN, isSweepId, newSweepId } from './ids.js'

@@ -1,0 +1,141 @@
+/**
+ * A sweep's plan: the chunks it is cut into. The plan is made once, when the sweep is
+ * submitted, and stored with it; resuming, repairing or extending a sweep reads the stored
+ * plan back and never plans again, so a change of the cost model or of the chunk-size
+ * constants between two releases can neither lose nor duplicate work. Trials draw from
+ * streams keyed by what is computed (compute-chunk.ts), so how a sweep is cut into chunks,
+ * and who runs them in which order, never changes a result.
+ */
+import { estimatePointCost } from '../engine/index.js'
+import { countPoints, pointAt, pointOps, searchTrialBudget, ENGINE_OPS_PER_CPU_SECOND, TARGET_CHUNK_SECONDS } from '../spec/index.js'
+import type { NormalisedSpec } from '../spec/index.js'
+
+// VARIABLES //
+
+/**
+ * Version of the plan format. Version 1: chunks are runs of consecutive trials of one grid
+ * point; a threshold search is one chunk per point of the outer grid holding the search's
+ * whole trial budget.
+ */
+export const PLAN_VERSION = 1
+
+export interface Chunk {
+  /** Position in the plan (0 … chunks − 1). */
+  index: number
+  point: number
+  firstTrial: number
+  count: number
+}
+
+export interface SweepPlan {
+  version: number
+  chunks: Chunk[]
+}
+
+// MAIN //
+
+/**
+ * A threshold-search spec gets one chunk per outer grid point (a search is sequential).
+ * Otherwise each point's trials are split into balanced chunks of about
+ * TARGET_CHUNK_SECONDS of estimated CPU time. Chunk boundaries fall on network boundaries
+ * (multiples of trialsPerNetwork) where a chunk holds at least one network, so no network
+ * is built twice.
+ */
+export function planSweep (spec: NormalisedSpec): SweepPlan {
+  return { version: PLAN_VERSION, chunks: spec.analysis === undefined ? gridChunks(spec) : searchChunks(spec) }
+}
+
+function gridChunks (spec: NormalisedSpec): Chunk[] {
+  const chunks: Chunk[] = []
+  const points = countPoints(spec)
+  const trials = spec.trials
+  for (let point = 0; point < points; point++) {
+    const { params } = pointAt(spec, point)
+    const seconds = pointOps(estimatePointCost(params), trials, params.trialsPerNetwork) / ENGINE_OPS_PER_CPU_SECOND
+    const pieces = Math.min(trials, Math.max(1, Math.ceil(seconds / TARGET_CHUNK_SECONDS)))
+    let size = Math.ceil(trials / pieces)
+    const perNetwork = params.trialsPerNetwork
+    if (size >= perNetwork) size = Math.ceil(size / perNetwork) * perNetwork
+    for (let first = 0; first < trials; first += size) {
+      chunks.push({ index: chunks.length, point, firstTrial: first, count: Math.min(size, trials - first) })
+    }
+  }
+  return chunks
+}
+
+function searchChunks (spec: NormalisedSpec): Chunk[] {
+  const count = searchTrialBudget(spec, spec.analysis!)
+  return Array.from({ length: countPoints(spec) }, (_, point) => ({ index: point, point, firstTrial: 0, count }))
+}
+
+/**
+ * Checks that a stored plan is one this code can run for this spec: indexed 0 … n − 1,
+ * every chunk inside the grid, and every trial of every point covered exactly once.
+ *
+ * @throws {RangeError} naming the first problem.
+ */
+export function checkPlan (spec: NormalisedSpec, plan: SweepPlan): void {
+  if (plan.version !== PLAN_VERSION) throw new RangeError(`invalid argument. Plan version ${plan.version} is not supported (this code runs version ${PLAN_VERSION}).`)
+  const points = countPoints(spec)
+  const perPoint = spec.analysis === undefined ? spec.trials : searchTrialBudget(spec, spec.analysis)
+  const covered = new Float64Array(points)
+  plan.chunks.forEach((chunk, position) => {
+    if (chunk.index !== position) throw new RangeError(`invalid argument. Chunk at position ${position} has index ${chunk.index}.`)
+    if (!(Number.isSafeInteger(chunk.point) && chunk.point >= 0 && chunk.point < points) ||
+        !(Number.isSafeInteger(chunk.firstTrial) && chunk.firstTrial >= 0) ||
+        !(Number.isSafeInteger(chunk.count) && chunk.count >= 1) ||
+        chunk.firstTrial + chunk.count > perPoint) {
+      throw new RangeError(`invalid argument. Chunk ${JSON.stringify(chunk)} does not fit a grid of ${points} points × ${perPoint} trials.`)
+    }
+    covered[chunk.point]! += chunk.count
+  })
+  const short = covered.findIndex((trials) => trials !== perPoint)
+  if (short >= 0) throw new RangeError(`invalid argument. The plan covers ${covered[short]} trials of point ${short}, not ${perPoint}.`)
+}
+
+/**
+ * The order in which a sweep's chunks should start: costliest first (estimated work, ties by
+ * index). Chunks of the high-load end of a curve take several times longer than those of
+ * the low end; started last, one of them would run alone on one core at the end of the sweep
+ * while the others idle. Costliest first leaves only short chunks for the end (the
+ * longest-processing-time rule). Results do not depend on the order.
+ */
+export function dispatchOrder (spec: NormalisedSpec, chunks: readonly Chunk[]): number[] {
+  const workOfPoint = new Map<number, (trials: number) => number>()
+  const work = chunks.map((chunk) => {
+    let of = workOfPoint.get(chunk.point)
+    if (of === undefined) {
+      const { params } = pointAt(spec, chunk.point)
+      const cost = estimatePointCost(params)
+      of = (trials) => pointOps(cost, trials, params.trialsPerNetwork)
+      workOfPoint.set(chunk.point, of)
+    }
+    // A search chunk's count is its whole trial budget: comparable across searches.
+    return of(chunk.count)
+  })
+  return chunks.map((chunk) => chunk.index).sort((a, b) => (work[b]! - work[a]!) || a - b)
+}
+
+/** Grid point → number of the plan's chunks covering it. */
+export function chunksPerPoint (chunks: readonly Chunk[]): Map<number, number> {
+  const counts = new Map<number, number>()
+  for (const chunk of chunks) counts.set(chunk.point, (counts.get(chunk.point) ?? 0) + 1)
+  return counts
+}
+
+/** The plan as stored: compact JSON, one [point, firstTrial, count] triple per chunk in index order. */
+export function encodePlan (plan: SweepPlan): string {
+  return JSON.stringify({ version: plan.version, chunks: plan.chunks.map((c) => [c.point, c.firstTrial, c.count]) })
+}
+
+/** @throws {RangeError} when the text is not a stored plan. */
+export function decodePlan (text: string): SweepPlan {
+  const parsed = JSON.parse(text) as { version?: unknown, chunks?: unknown }
+  if (typeof parsed.version !== 'number' || !Array.isArray(parsed.chunks)) throw new RangeError('invalid argument. Not a stored sweep plan.')
+  const chunks = (parsed.chunks as unknown[]).map((entry, index): Chunk => {
+    if (!Array.isArray(entry) || entry.length !== 3 || !entry.every(Number.isSafeInteger)) throw new RangeError(`invalid argument. Stored plan entry ${index} is malformed.`)
+    const [point, firstTrial, count] = entry as [number, number, number]
+    return { index, point, firstTrial, count }
+  })
+  return { version: parsed.version, chunks }
+}

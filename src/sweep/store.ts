@@ -1,0 +1,122 @@
+/**
+ * The storage contract of the sweep lifecycle. The embedded backend keeps sweeps in SQLite
+ * (src/backends/embedded/store.ts), the Redis backend in Redis with Lua scripts
+ * (src/backends/redis/store.ts); both implement this interface, and one contract suite
+ * (test/sweep/store-contract.ts) runs against both: every move of state.ts, retries,
+ * cancels, crashes, idempotency, the active cap and monotone progress.
+ *
+ * What the two still do differently behind it (documented in src/backends/README.md and
+ * tested there): retention of finished sweeps (embedded: kept until deleted; Redis:
+ * SWEEP_RETENTION_DAYS), and where partial progress of running attempts lives (embedded:
+ * the scheduler's memory, folded into the record's high-water mark; Redis: a hash).
+ */
+import type { NormalisedSpec } from '../spec/index.js'
+import type { Chunk, SweepPlan } from './plan.js'
+import type { SweepFailure, SweepProgress, SweepStatus } from './state.js'
+import type { StoredChunk } from './assemble.js'
+
+export interface SweepRecord {
+  id: string
+  /** Token owner when tokens are on, else null. */
+  owner: string | null
+  label: string | null
+  specHash: string
+  spec: NormalisedSpec
+  status: SweepStatus
+  /** ISO 8601 timestamps. */
+  createdAt: string
+  startedAt: string | null
+  finishedAt: string | null
+  progress: SweepProgress
+  error: SweepFailure | null
+  /** Id of an earlier identical sweep whose results this one reuses, if any. */
+  reusedFrom: string | null
+}
+
+/** A sweep as the lifecycle stores it on submission. */
+export interface SweepDraft {
+  id: string
+  owner: string | null
+  label: string | null
+  specHash: string
+  spec: NormalisedSpec
+  createdMs: number
+  plan: SweepPlan
+}
+
+export interface CreateOptions {
+  idempotency?: { key: string, ttlSeconds: number }
+  /** Reuse the result of this finished sweep (same owner and spec hash): the new sweep is stored succeeded. */
+  reuseFrom?: string | null
+  /** Refuse (kind 'over-cap') when the owner already has this many queued or running sweeps; checked atomically with the insert. */
+  maxActive?: number
+}
+
+export interface IdempotencyBinding {
+  specHash: string
+  sweepId: string
+}
+
+export type CreateOutcome =
+  | { kind: 'created', status: 'queued' | 'succeeded' }
+  | { kind: 'existing', binding: IdempotencyBinding }
+  | { kind: 'over-cap', active: number }
+
+export interface ChunkOutcome {
+  /** Status after recording; '' when the sweep no longer exists. */
+  status: SweepStatus | ''
+  /** True when this call stored the chunk for the first time (a retry's repeat counts nothing). */
+  stored: boolean
+  /** True when every chunk of the plan is stored (set comparison). */
+  complete: boolean
+}
+
+/** A change this call made, or the status it found instead. */
+export interface Transition {
+  changed: boolean
+  status: SweepStatus | ''
+}
+
+export interface ListQuery {
+  owner: string | null
+  status?: SweepStatus
+  /** Opaque cursor from a previous page. */
+  cursor?: string
+  limit: number
+}
+
+export interface SweepPage {
+  items: SweepRecord[]
+  nextCursor: string | null
+}
+
+export interface SweepStore {
+  create (draft: SweepDraft, options?: CreateOptions): Promise<CreateOutcome>
+  get (id: string): Promise<SweepRecord | null>
+  list (query: ListQuery): Promise<SweepPage>
+  /** Queued and running sweeps of an owner (null: the anonymous owner). */
+  countActive (owner: string | null): Promise<number>
+  /** The plan stored with the sweep at submission; null for an unknown sweep. */
+  plan (id: string): Promise<SweepPlan | null>
+  /** Indices of the chunks stored so far, ascending. */
+  doneChunks (id: string): Promise<number[]>
+  /** queued → running; returns the status after the call, or null when the sweep is gone. */
+  markRunning (id: string, nowMs: number): Promise<SweepStatus | null>
+  /** Trials a running attempt of a chunk has done; raises the progress high-water mark, never lowers it. */
+  reportProgress (id: string, chunkIndex: number, trialsDone: number, nowMs: number): Promise<SweepStatus | null>
+  /**
+   * Stores a finished chunk with the progress it adds, atomically. The chunk must be the
+   * stored plan's chunk at its index (else an error). A repeat replaces the body and counts
+   * nothing; after the sweep ended it changes nothing.
+   */
+  recordChunk (id: string, chunk: Chunk, body: Uint8Array, computeMs: number, nowMs: number): Promise<ChunkOutcome>
+  /** Every stored chunk, ascending by index, and the compute time they took. */
+  storedChunks (id: string): Promise<{ chunks: StoredChunk[], computeMs: number }>
+  /** running (or queued) → succeeded with the assembled result; only when the plan is complete. */
+  succeed (id: string, resultBody: Uint8Array, nowMs: number): Promise<Transition>
+  /** queued or running → failed or canceled; a no-op on a finished sweep. */
+  stop (id: string, to: 'failed' | 'canceled', failure: SweepFailure | null, nowMs: number): Promise<Transition>
+  /** The stored result of a succeeded sweep (following a reuse to its original), else null. */
+  resultBody (id: string): Promise<Uint8Array | null>
+  counts (): Promise<Record<SweepStatus, number>>
+}
