@@ -3,7 +3,7 @@
  * index, never by arrival, and every point is aggregated from its trials in trial order, so
  * the result is the same whatever the chunking, worker count or completion order.
  */
-import { aggregatePoint, ENGINE_VERSION, RNG_ALGORITHM, theoryForPoint, type PointSummary, type TrialRecord } from '../engine/index.js'
+import { aggregatePoint, ENGINE_VERSION, RNG_ALGORITHM, theoryForPoint, type PointSummary, type TrialRecord, type UnavailableReason } from '../engine/index.js'
 import { assembleSearches } from './analysis/assemble.js'
 import type { ScalingRow, SearchRow } from './analysis/types.js'
 import { canonicalJson, sortKeysDeep, specHash } from './canonical.js'
@@ -41,6 +41,8 @@ export interface ResultRow {
   summary: PointSummary
   /** Theory values that apply at this point, by name. */
   theory: Record<string, number>
+  /** The model's other theory values, by name: why each is missing here (reason codes: docs/theory.md). */
+  theoryUnavailable: Record<string, UnavailableReason>
 }
 
 export interface SweepResult {
@@ -94,12 +96,14 @@ export function assembleResult (spec: NormalisedSpec, chunkResults: readonly Chu
   const trials = placeTrials(spec, chunkResults)
   const rows: ResultRow[] = trials.map((pointTrials, point) => {
     const { values, params } = pointAt(spec, point)
+    const theory = theoryForPoint(params)
     return {
       point,
       values,
       params: { alpha: params.patterns / params.neurons, neurons: params.neurons, patterns: params.patterns },
       summary: aggregatePoint(params, pointTrials),
-      theory: sortKeysDeep(theoryForPoint(params))
+      theory: sortKeysDeep(theory.values),
+      theoryUnavailable: sortKeysDeep(theory.unavailable)
     }
   })
   return { specHash: hash, spec, rows, trials, provenance: sortKeysDeep(provenance) }

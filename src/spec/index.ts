@@ -19,4 +19,5 @@ export { assembleResult, makeProvenance, type Provenance, type ResultRow, type S
 export { resultToJson, resultToCsv, type OutputOptions } from './output.js'
 export { searchStreamPoint, SEARCH_STREAM_OFFSET, SEARCH_STEP_STRIDE } from './analysis/run.js'
 export { SIMULATED_CAPACITY, RS_CAPACITY_SOURCE } from './analysis/scaling.js'
+export { pointsToCheck, type CheckedPoint } from './analysis/normalise.js'
 export type { NormalisedAnalysis, NormalisedScaling, SearchPayload, SearchRow, SearchStepRecord, ScalingRow, ScalingReference } from './analysis/types.js'

@@ -22,9 +22,11 @@ function point (changes: Partial<PointParams> = {}): PointParams {
   }
 }
 
+const values = (p: PointParams): Record<string, number> => theoryForPoint(p).values
+
 describe('theoryForPoint', () => {
   it('gives crosstalk, critical load and RS retrieval for Hebbian asynchronous T = 0', () => {
-    const theory = theoryForPoint(point())
+    const theory = values(point())
     expect(Object.keys(theory).sort()).toEqual([
       'criticalLoad', 'crosstalkErrorExact', 'crosstalkErrorGaussian', 'crosstalkTieExact', 'loadAlpha', 'retrievalOverlapRS'
     ])
@@ -38,7 +40,7 @@ describe('theoryForPoint', () => {
   })
 
   it('uses the kept diagonal in the crosstalk and drops the J_ii = 0 theories', () => {
-    const theory = theoryForPoint(point({ rule: { kind: 'hebbian', selfCoupling: true } }))
+    const theory = values(point({ rule: { kind: 'hebbian', selfCoupling: true } }))
     // CHECK_VALUES §1 [D]: 2.35e-4 with J_ii = P/N.
     expect(Math.abs((theory.crosstalkErrorExact as number) - 2.35e-4)).toBeLessThanOrEqual(5e-7)
     expect(theory.retrievalOverlapRS).toBeUndefined()
@@ -46,11 +48,11 @@ describe('theoryForPoint', () => {
   })
 
   it('reports 0 for RS retrieval above α_c', () => {
-    expect(theoryForPoint(point({ patterns: 150 })).retrievalOverlapRS).toBe(0)
+    expect(values(point({ patterns: 150 })).retrievalOverlapRS).toBe(0)
   })
 
   it('gives the first parallel step for synchronous T = 0 with a flip cue, ties kept as the engine does', () => {
-    const theory = theoryForPoint(point({
+    const theory = values(point({
       cue: { kind: 'flip', fraction: 0.2 },
       dynamics: { update: 'sync', temperature: 0, maxSweeps: 50, burnIn: 0 }
     }))
@@ -64,7 +66,7 @@ describe('theoryForPoint', () => {
 
   it('uses the realised number of flipped bits for m₀', () => {
     // fraction 0.1234 of N = 1000 flips round(123.4) = 123 bits: m₀ = 0.754.
-    const theory = theoryForPoint(point({
+    const theory = values(point({
       cue: { kind: 'flip', fraction: 0.1234 },
       dynamics: { update: 'sync', temperature: 0, maxSweeps: 50, burnIn: 0 }
     }))
@@ -73,34 +75,54 @@ describe('theoryForPoint', () => {
 
   it('gives Curie–Weiss and T_g at vanishing load and T > 0, only T_g at finite load', () => {
     const dynamics = { update: 'async-random' as const, temperature: 0.6, maxSweeps: 50, burnIn: 10 }
-    const low = theoryForPoint(point({ patterns: 5, dynamics }))
+    const low = values(point({ patterns: 5, dynamics }))
     expect(low.curieWeissOverlap).toBe(curieWeissOverlap(0.6))
     expect(low.spinGlassTemperature).toBe(1 + Math.sqrt(0.005))
     expect(low.retrievalOverlapRS).toBeUndefined()
-    const high = theoryForPoint(point({ dynamics }))
+    const high = values(point({ dynamics }))
     expect(high.curieWeissOverlap).toBeUndefined()
     expect(high.spinGlassTemperature).toBe(1 + Math.sqrt(0.1))
   })
 
   it('gives the symmetric mixture overlap for an odd mixture cue at vanishing load', () => {
     // AGS 1985, CHECK_VALUES §4: m₃ = ½.
-    expect(theoryForPoint(point({ patterns: 10, cue: { kind: 'mixture', components: 3 } })).mixtureOverlap).toBe(0.5)
-    expect(theoryForPoint(point({ patterns: 10, cue: { kind: 'mixture', components: 4 } })).mixtureOverlap).toBeUndefined()
-    expect(theoryForPoint(point({ cue: { kind: 'mixture', components: 3 } })).mixtureOverlap).toBeUndefined()
+    expect(values(point({ patterns: 10, cue: { kind: 'mixture', components: 3 } })).mixtureOverlap).toBe(0.5)
+    expect(values(point({ patterns: 10, cue: { kind: 'mixture', components: 4 } })).mixtureOverlap).toBeUndefined()
+    expect(values(point({ cue: { kind: 'mixture', components: 3 } })).mixtureOverlap).toBeUndefined()
   })
 
   it('gives critical load 1 for the pseudo-inverse rule', () => {
     // Kanter & Sompolinsky, PRA 35, 380 (1987) [S]: maximum capacity α = 1.
     const theory = theoryForPoint(point({ rule: { kind: 'pseudo-inverse', selfCoupling: false }, patterns: 500 }))
-    expect(theory).toEqual({ loadAlpha: 0.5, criticalLoad: 1 })
+    expect(theory).toEqual({ values: { loadAlpha: 0.5, criticalLoad: 1 }, unavailable: {} })
   })
 
-  it('returns {} where none of these theories applies', () => {
-    expect(theoryForPoint(point({ rule: { kind: 'storkey', selfCoupling: false } }))).toEqual({})
-    expect(theoryForPoint(point({ family: { kind: 'random', activity: 0.1 } }))).toEqual({})
-    expect(theoryForPoint(point({ family: { kind: 'correlated', parents: 3, parentOverlap: 0.5 } }))).toEqual({})
-    expect(theoryForPoint(point({ dilution: { keep: 0.5, symmetric: true } }))).toEqual({})
-    expect(theoryForPoint(point({ coding: 'binary' }))).toEqual({})
+  it('gives nothing for rules without a theory, and lists every Hebbian value as outside the model elsewhere', () => {
+    expect(theoryForPoint(point({ rule: { kind: 'storkey', selfCoupling: false } }))).toEqual({ values: {}, unavailable: {} })
+    const hebbianNames = Object.keys({ ...theoryForPoint(point()).values, ...theoryForPoint(point()).unavailable }).sort()
+    for (const changes of [
+      { family: { kind: 'random' as const, activity: 0.1 } },
+      { family: { kind: 'correlated' as const, parents: 3, parentOverlap: 0.5 } },
+      { dilution: { keep: 0.5, symmetric: true } },
+      { coding: 'binary' as const }
+    ]) {
+      const theory = theoryForPoint(point(changes))
+      expect(theory.values).toEqual({})
+      expect(Object.keys(theory.unavailable).sort()).toEqual(hebbianNames)
+      expect(new Set(Object.values(theory.unavailable))).toEqual(new Set(['model-outside-domain']))
+    }
+  })
+
+  it('says why each value of the model is missing', () => {
+    const theory = theoryForPoint(point())
+    expect(theory.unavailable).toMatchObject({
+      firstStepOverlap: 'dynamics-outside-domain',
+      mixtureOverlap: 'cue-outside-domain',
+      curieWeissOverlap: 'temperature-outside-domain'
+    })
+    for (const name of Object.keys(theory.values)) expect(theory.unavailable).not.toHaveProperty(name)
+    const kept = theoryForPoint(point({ rule: { kind: 'hebbian', selfCoupling: true } }))
+    expect(kept.unavailable.retrievalOverlapRS).toBe('model-outside-domain')
   })
 
   it('treats dilution that keeps every coupling as none', () => {
@@ -109,7 +131,7 @@ describe('theoryForPoint', () => {
 
   it('stays consistent with the standalone functions over a load sweep', () => {
     for (let p = 10; p <= 200; p += 10) {
-      const theory = theoryForPoint(point({ patterns: p }))
+      const theory = values(point({ patterns: p }))
       expect(theory.retrievalOverlapRS).toBe(rsRetrievalOverlap(p / 1000))
     }
   })
