@@ -25,3 +25,4 @@ export { crosstalkErrorGaussian, curieWeissOverlap, firstParallelStep, rsCritica
 export { wilsonInterval } from './stats/index.js'
 export * from './analysis/index.js'
 export { ENGINE_VERSION } from './version.js'
+export { ENGINE_TIE_RULE } from './tie-rule.js'

@@ -3,7 +3,7 @@
  * index, never by arrival, and every point is aggregated from its trials in trial order, so
  * the result is the same whatever the chunking, worker count or completion order.
  */
-import { aggregatePoint, ENGINE_VERSION, RNG_ALGORITHM, theoryForPoint, type PointSummary, type TrialRecord, type UnavailableReason } from '../engine/index.js'
+import { aggregatePoint, ENGINE_TIE_RULE, ENGINE_VERSION, RNG_ALGORITHM, theoryForPoint, type PointSummary, type TrialRecord, type UnavailableReason } from '../engine/index.js'
 import { assembleSearches } from './analysis/assemble.js'
 import type { ScalingRow, SearchRow } from './analysis/types.js'
 import { canonicalJson, sortKeysDeep, specHash } from './canonical.js'
@@ -22,6 +22,8 @@ export interface Provenance {
   v8: string
   /** Random number algorithm and stream derivation. */
   rng: string
+  /** T = 0 tie rule of the dynamics: `keep` = a zero local field leaves the neuron's state unchanged. */
+  tieRule: typeof ENGINE_TIE_RULE
   /** Wall-clock seconds from the first chunk started to the last one finished. */
   wallSeconds: number
   /** CPU seconds summed over all chunks. */
@@ -69,6 +71,7 @@ export function makeProvenance (spec: NormalisedSpec, timing: { wallSeconds: num
     node: process.version,
     v8: process.versions.v8,
     rng: RNG_ALGORITHM,
+    tieRule: ENGINE_TIE_RULE,
     ...timing
   }
 }

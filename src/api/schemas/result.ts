@@ -79,6 +79,7 @@ export const provenanceSchema = z.looseObject({
   node: z.string(),
   v8: z.string(),
   rng: z.string(),
+  tieRule: z.enum(['keep']).describe('The T = 0 tie rule of the dynamics: `keep` means a neuron whose local field is exactly zero keeps its state. Exact theory values derived under random tie-breaking say so in their names (…TiesRandom).'),
   wallSeconds: z.number().optional().describe('Only with ?timing=true: wall-clock seconds from the first chunk started to the last one finished.'),
   cpuSeconds: z.number().optional().describe('Only with ?timing=true: CPU seconds summed over all chunks.'),
   workers: z.number().int().optional(),

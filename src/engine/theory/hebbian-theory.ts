@@ -13,11 +13,21 @@ import { firstParallelStep } from './first-parallel-step.js'
 import { firstParallelStepExact } from './first-parallel-step-exact.js'
 import { mixtureOverlap } from './mixture-overlap.js'
 import { rsCriticalLoad } from './rs-critical-load.js'
+import { rsCriticalLoadAt, rsRetrievalAt, rsRetrievalTemperature, type FiniteTemperatureRetrieval } from './rs-finite-temperature.js'
 import { rsRetrievalOverlap } from './rs-retrieval-overlap.js'
 import { spinGlassTemperature } from './spin-glass-temperature.js'
 
 /** Below this load, finite-P results (mixture states) are used as the α → 0 limit. */
 export const VANISHING_LOAD = 0.01
+
+/**
+ * Curie–Weiss (α → 0) stands for the finite-load RS overlap only where the two differ by at
+ * most this much (or where P = 1, with no crosstalk at all).
+ */
+export const CURIE_WEISS_AGREEMENT = 1e-3
+
+/** Glauber dynamics in equilibrium: asynchronous updates. */
+const ASYNC = ['async-random', 'async-sequential'] as const
 
 export const loadOf = (p: PointParams): number => p.patterns / p.neurons
 const selfCoupled = (p: PointParams): boolean => 'selfCoupling' in p.rule && p.rule.selfCoupling
@@ -41,6 +51,29 @@ function exactCrosstalk (p: PointParams): SignProbabilities {
   return lastCrosstalk.value
 }
 
+/** The finite-temperature RS solution at the point's (α, T) shares one evaluation between values. */
+let lastRetrieval: { key: string, value: FiniteTemperatureRetrieval | null } | null = null
+function retrievalAt (p: PointParams): FiniteTemperatureRetrieval | null {
+  const key = `${loadOf(p)} ${p.dynamics.temperature}`
+  if (lastRetrieval?.key !== key) lastRetrieval = { key, value: rsRetrievalAt(loadOf(p), p.dynamics.temperature) }
+  return lastRetrieval.value
+}
+
+/** At T > 0 the equilibrium theory describes Glauber (asynchronous) dynamics, not parallel updates. */
+const GLAUBER_AT_POSITIVE_T: DomainCondition = {
+  holds: (p) => p.dynamics.temperature === 0 || p.dynamics.update !== 'sync',
+  reason: 'dynamics-outside-domain',
+  text: 'asynchronous updates when T > 0'
+}
+
+/** Whether the load changes the RS retrieval overlap by at most CURIE_WEISS_AGREEMENT at this T. */
+function negligibleLoad (p: PointParams): boolean {
+  if (p.patterns === 1) return true
+  const retrieval = rsRetrievalAt(loadOf(p), p.dynamics.temperature)
+  const m = retrieval === null ? 0 : retrieval.m
+  return Math.abs(m - curieWeissOverlap(p.dynamics.temperature)) <= CURIE_WEISS_AGREEMENT
+}
+
 export const VANISHING_LOAD_CONDITION: DomainCondition = { holds: (p) => loadOf(p) <= VANISHING_LOAD, reason: 'load-outside-domain', text: `α ≤ ${VANISHING_LOAD}` }
 
 export const HEBBIAN_THEORY: TheoryModel = {
@@ -50,13 +83,27 @@ export const HEBBIAN_THEORY: TheoryModel = {
   entries: [
     { name: 'loadAlpha', domain: {}, evaluate: loadOf },
     { name: 'crosstalkErrorGaussian', domain: {}, evaluate: (p) => crosstalkErrorGaussian(loadOf(p), { selfCoupling: selfCoupled(p) }) },
-    { name: 'crosstalkErrorExact', domain: {}, evaluate: (p) => exactCrosstalk(p).below },
+    { name: 'crosstalkErrorExact', ties: 'keep', domain: {}, evaluate: (p) => exactCrosstalk(p).below },
+    { name: 'crosstalkErrorExactTiesRandom', ties: 'random', domain: {}, evaluate: (p) => exactCrosstalk(p).below + exactCrosstalk(p).tie / 2 },
     { name: 'crosstalkTieExact', domain: {}, evaluate: (p) => exactCrosstalk(p).tie },
-    { name: 'criticalLoad', domain: { selfCoupling: false }, evaluate: () => rsCriticalLoad().alphaC },
+    {
+      name: 'criticalLoad',
+      domain: { selfCoupling: false, conditions: [GLAUBER_AT_POSITIVE_T] },
+      evaluate: (p) => {
+        const { alphaC } = p.dynamics.temperature === 0 ? rsCriticalLoad() : rsCriticalLoadAt(p.dynamics.temperature)
+        return alphaC > 0 ? alphaC : 'no-retrieval-solution'
+      }
+    },
     {
       name: 'retrievalOverlapRS',
-      domain: { selfCoupling: false, temperature: 'zero', updates: ['async-random', 'async-sequential'] },
-      evaluate: (p) => rsRetrievalOverlap(loadOf(p))
+      domain: { selfCoupling: false, updates: ASYNC },
+      // Past the retrieval boundary the RS states left (spin glass, paramagnet) have m = 0.
+      evaluate: (p) => p.dynamics.temperature === 0 ? rsRetrievalOverlap(loadOf(p)) : (retrievalAt(p)?.m ?? 0)
+    },
+    {
+      name: 'retrievalTemperature',
+      domain: { selfCoupling: false, temperature: 'positive', updates: ASYNC },
+      evaluate: (p) => rsRetrievalTemperature(loadOf(p)) ?? 'no-retrieval-solution'
     },
     {
       name: 'firstStepOverlap',
@@ -64,10 +111,16 @@ export const HEBBIAN_THEORY: TheoryModel = {
       evaluate: (p) => firstParallelStep(flipCueOverlap(p), loadOf(p), { selfCoupling: selfCoupled(p) })
     },
     {
-      name: 'firstStepOverlapExact',
+      name: 'firstStepOverlapExactTiesKeep',
       ties: 'keep',
       domain: { temperature: 'zero', updates: ['sync'], cues: ['flip'] },
       evaluate: (p) => firstParallelStepExact(p.neurons, p.patterns, flipCueOverlap(p), { selfCoupling: selfCoupled(p), ties: 'keep' })
+    },
+    {
+      name: 'firstStepOverlapExactTiesRandom',
+      ties: 'random',
+      domain: { temperature: 'zero', updates: ['sync'], cues: ['flip'] },
+      evaluate: (p) => firstParallelStepExact(p.neurons, p.patterns, flipCueOverlap(p), { selfCoupling: selfCoupled(p), ties: 'random' })
     },
     {
       name: 'mixtureOverlap',
@@ -81,10 +134,13 @@ export const HEBBIAN_THEORY: TheoryModel = {
       },
       evaluate: (p) => mixtureOverlap(p.cue.kind === 'mixture' ? p.cue.components : 0)
     },
-    { name: 'spinGlassTemperature', domain: { temperature: 'positive' }, evaluate: (p) => spinGlassTemperature(loadOf(p)) },
+    { name: 'spinGlassTemperature', domain: { selfCoupling: false, temperature: 'positive', updates: ASYNC }, evaluate: (p) => spinGlassTemperature(loadOf(p)) },
     {
       name: 'curieWeissOverlap',
-      domain: { temperature: 'positive', conditions: [VANISHING_LOAD_CONDITION] },
+      domain: {
+        temperature: 'positive',
+        conditions: [{ holds: negligibleLoad, reason: 'load-outside-domain', text: `P = 1, or a load that moves the RS overlap by at most ${CURIE_WEISS_AGREEMENT}` }]
+      },
       evaluate: (p) => curieWeissOverlap(p.dynamics.temperature)
     }
   ]

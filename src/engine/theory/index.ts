@@ -19,3 +19,5 @@ export { denseCapacity, denseCrosstalkErrorGaussian, exponentialCapacityExponent
 export { dilutedOverlapMap, dilutedRetrievalOverlap, DILUTED_CRITICAL_LOAD } from './diluted-overlap-map.js'
 export { softmaxErrorBound, softmaxSeparationThreshold } from './softmax-bound.js'
 export { sparseCapacityAsymptote } from './sparse-capacity.js'
+export { rsCriticalLoadAt, rsRetrievalAt, rsRetrievalTemperature, type FiniteTemperatureCriticalLoad, type FiniteTemperatureRetrieval } from './rs-finite-temperature.js'
+export { dilutedFirstStepExact, dilutedFixedPointExact, dilutedMapExact } from './diluted-exact.js'

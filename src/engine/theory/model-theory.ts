@@ -9,6 +9,7 @@ import type { SignProbabilities } from './binomial-walk.js'
 import { clippedCrosstalkErrorExact, clippedCrosstalkErrorGaussian } from './clipped-crosstalk.js'
 import { clippedCriticalLoad, clippedRetrievalOverlap } from './clipped-retrieval.js'
 import { denseCapacity, denseCrosstalkErrorGaussian, exponentialCapacityExponent } from './dense-memory.js'
+import { dilutedFirstStepExact, dilutedFixedPointExact } from './diluted-exact.js'
 import { DILUTED_CRITICAL_LOAD, dilutedOverlapMap, dilutedRetrievalOverlap } from './diluted-overlap-map.js'
 import type { TheoryModel } from './domain.js'
 import { flipCueOverlap, isUnbiasedPm1, isUndiluted, loadOf } from './hebbian-theory.js'
@@ -57,6 +58,29 @@ export const DILUTED_THEORY: TheoryModel = {
       name: 'dilutedFirstStepOverlap',
       domain: { temperature: 'zero', updates: ['sync'], cues: ['flip'] },
       evaluate: (p) => dilutedOverlapMap(flipCueOverlap(p), dilutedLoadOf(p))
+    },
+    {
+      name: 'dilutedFirstStepOverlapExactTiesKeep',
+      ties: 'keep',
+      domain: { temperature: 'zero', updates: ['sync'], cues: ['flip'] },
+      evaluate: (p) => dilutedFirstStepExact(p.neurons, inDegreeOf(p), p.patterns, flipCueOverlap(p), 'keep')
+    },
+    {
+      name: 'dilutedFirstStepOverlapExactTiesRandom',
+      ties: 'random',
+      domain: { temperature: 'zero', updates: ['sync'], cues: ['flip'] },
+      evaluate: (p) => dilutedFirstStepExact(p.neurons, inDegreeOf(p), p.patterns, flipCueOverlap(p), 'random')
+    },
+    {
+      name: 'dilutedRetrievalOverlapExactTiesRandom',
+      ties: 'random',
+      domain: {
+        temperature: 'zero',
+        updates: ['sync'],
+        cues: ['flip'],
+        conditions: [{ holds: (p) => inDegreeOf(p) * inDegreeOf(p) <= p.neurons, reason: 'size-outside-domain', text: 'K² ≤ N (tree-like inputs over the first steps)' }]
+      },
+      evaluate: (p) => dilutedFixedPointExact(inDegreeOf(p), p.patterns, flipCueOverlap(p)) ?? 'not-converged'
     }
   ]
 }

@@ -102,7 +102,7 @@ describe('theory of the model families', () => {
     expect(keys({ rule: { kind: 'dense-exponential' } })).toEqual(['exponentialCapacityExponent', 'exponentialLoad'])
     expect(keys({ rule: { kind: 'modern-softmax', beta: 4 } })).toEqual(['softmaxSeparationThreshold'])
     expect(keys({ dilution: { kind: 'fixed-in-degree', inDegree: 20 }, dynamics: { update: 'sync', temperature: 0, maxSweeps: 5, burnIn: 0 }, cue: { kind: 'flip', fraction: 0.2 } }))
-      .toEqual(['dilutedCriticalLoad', 'dilutedFirstStepOverlap', 'dilutedLoad', 'dilutedRetrievalOverlap'])
+      .toEqual(['dilutedCriticalLoad', 'dilutedFirstStepOverlap', 'dilutedFirstStepOverlapExactTiesKeep', 'dilutedFirstStepOverlapExactTiesRandom', 'dilutedLoad', 'dilutedRetrievalOverlap'])
     expect(theoryForPoint(pointParams({ dilution: { kind: 'fixed-in-degree', inDegree: 20 } })).values.dilutedLoad).toBe(10 / 20)
     expect(keys({ rule: { kind: 'dense-polynomial', degree: 3 }, family: { kind: 'random', activity: 0.3 } })).toEqual([])
     // Biased patterns are outside every value's domain: each is listed with its reason.
