@@ -45,6 +45,8 @@ describe('theory through the API (embedded backend)', () => {
     const record = await h.waitFor(submitted.json().id as string, isTerminal)
     expect(record.status, JSON.stringify(record)).toBe('succeeded')
     const result = (await h.request({ method: 'GET', url: `/v1/sweeps/${record.id}/results` })).json()
+    // The engine's T = 0 tie rule is stated with every result.
+    expect(result.provenance.tieRule).toBe('keep')
     const [row] = result.rows
     expect(row.theory.retrievalOverlapRS).toBe(1)
     expect(row.theoryUnavailable).toMatchObject({ firstStepOverlap: 'dynamics-outside-domain' })
