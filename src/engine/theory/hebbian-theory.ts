@@ -69,7 +69,7 @@ const GLAUBER_AT_POSITIVE_T: DomainCondition = {
 /** Whether the load changes the RS retrieval overlap by at most CURIE_WEISS_AGREEMENT at this T. */
 function negligibleLoad (p: PointParams): boolean {
   if (p.patterns === 1) return true
-  const retrieval = rsRetrievalAt(loadOf(p), p.dynamics.temperature)
+  const retrieval = retrievalAt(p)
   const m = retrieval === null ? 0 : retrieval.m
   return Math.abs(m - curieWeissOverlap(p.dynamics.temperature)) <= CURIE_WEISS_AGREEMENT
 }

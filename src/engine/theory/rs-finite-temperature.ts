@@ -346,6 +346,18 @@ export function rsRetrievalAt (alpha: number, temperature: number): FiniteTemper
  */
 export function rsRetrievalTemperature (alpha: number): number | null {
   checkLoad('alpha', alpha)
+  const cached = retrievalTemperatureCache.get(alpha)
+  if (cached !== undefined) return cached
+  const value = solveRetrievalTemperature(alpha)
+  if (retrievalTemperatureCache.size > 256) retrievalTemperatureCache.clear()
+  retrievalTemperatureCache.set(alpha, value)
+  return value
+}
+
+/** T_M by load: grids repeat loads across temperatures (the value depends on α alone). */
+const retrievalTemperatureCache = new Map<number, number | null>()
+
+function solveRetrievalTemperature (alpha: number): number | null {
   if (alpha === 0) return 1
   const alphaC0 = rsCriticalLoad().alphaC
   if (alpha > alphaC0) return null
