@@ -48,7 +48,8 @@ const DENSE_KEYS: Partial<Record<FigureMeasure, string[]>> = {
 }
 
 const PER_POINT_KEYS: Partial<Record<FigureMeasure, string[]>> = {
-  overlap: ['retrievalOverlapRS', 'curieWeissOverlap', 'firstStepOverlap', 'firstStepOverlapExact', 'mixtureOverlap'],
+  // firstStepOverlapExact: the name of the tie-keeping value in results made before both tie rules were given.
+  overlap: ['retrievalOverlapRS', 'curieWeissOverlap', 'firstStepOverlap', 'firstStepOverlapExactTiesKeep', 'firstStepOverlapExact', 'mixtureOverlap'],
   unstableFraction: ['crosstalkErrorGaussian', 'crosstalkErrorExact']
 }
 
@@ -56,12 +57,13 @@ const PER_POINT_KEYS: Partial<Record<FigureMeasure, string[]>> = {
 const REFERENCE_MEASURES = new Set<FigureMeasure>(['success', 'overlap', 'endState'])
 
 /** The one-step keys describe the state after the first parallel step only. */
-const FIRST_STEP_KEYS = new Set(['firstStepOverlap', 'firstStepOverlapExact'])
+const FIRST_STEP_KEYS = new Set(['firstStepOverlap', 'firstStepOverlapExactTiesKeep', 'firstStepOverlapExact'])
 
 const LABELS: Record<string, string> = {
   retrievalOverlapRS: 'Replica-symmetric theory',
   curieWeissOverlap: 'Mean field, α → 0: m = tanh(m/T)',
   firstStepOverlap: 'First parallel step (N → ∞)',
+  firstStepOverlapExactTiesKeep: 'First parallel step, exact at this N',
   firstStepOverlapExact: 'First parallel step, exact at this N',
   mixtureOverlap: 'Symmetric mixture state (α → 0)',
   crosstalkErrorGaussian: 'Crosstalk error, Gaussian (N → ∞)',

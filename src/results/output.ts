@@ -43,7 +43,8 @@ export function resultToJson (result: SweepResult, opts: OutputOptions): string 
  * The result as tidy CSV. Per point: point, the varied parameters (by path), neurons,
  * patterns and alpha (= P/N; unless already varied), trials, overlap/sweeps/maxOtherOverlap/energy mean·sd·se, success
  * count·rate·low·high (Wilson 95 %), ending and end-state counts, stability (when measured)
- * and one `theory.<name>` column per theory value (empty where it does not apply).
+ * and one `theory.<name>` column per theory value of the model (empty where the value is
+ * unavailable: the JSON says why, in `theoryUnavailable`).
  * Per trial: point, varied parameters, neurons, patterns, alpha, then the trial record
  * (trajectories are JSON-only). An analysis gives one row per search, or with perTrial one
  * per evaluated step (see analysis/output.ts).
@@ -70,7 +71,9 @@ function leadingCells (result: SweepResult, row: ResultRow): CsvCell[] {
 }
 
 function pointCsv (result: SweepResult): string {
-  const theoryNames = [...new Set(result.rows.flatMap((row) => Object.keys(row.theory)))].sort()
+  // One column per theory value of the sweep's model, available or not (a stable set of
+  // columns for a model); a value unavailable at a point is an empty cell there.
+  const theoryNames = [...new Set(result.rows.flatMap((row) => [...Object.keys(row.theory), ...Object.keys(row.theoryUnavailable ?? {})]))].sort()
   const stability = result.spec.measures.stability
   const header = [
     ...leadingHeader(result),

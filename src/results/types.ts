@@ -1,5 +1,5 @@
 /** The shape of a sweep's result: what the assembler produces and every output renders. */
-import type { PointSummary, TrialRecord } from '../engine/index.js'
+import type { ENGINE_TIE_RULE, PointSummary, TrialRecord, UnavailableReason } from '../engine/index.js'
 import type { NormalisedSpec, ScalingRow, SearchRow } from '../spec/index.js'
 
 /** Where and how a result was computed. Timing describes one run; everything else the code. */
@@ -14,6 +14,8 @@ export interface Provenance {
   rng: string
   /** How a grid point's streams are keyed (by its model parameters, not its position). */
   pointKeying: string
+  /** T = 0 tie rule of the dynamics: `keep` = a zero local field leaves the neuron's state unchanged. */
+  tieRule: typeof ENGINE_TIE_RULE
   /** Wall-clock seconds from the first chunk started to the last one finished. */
   wallSeconds: number
   /** CPU seconds summed over all chunks. */
@@ -33,6 +35,8 @@ export interface ResultRow {
   summary: PointSummary
   /** Theory values that apply at this point, by name. */
   theory: Record<string, number>
+  /** The model's other theory values, by name: why each is missing here (reason codes: docs/theory.md). */
+  theoryUnavailable: Record<string, UnavailableReason>
 }
 
 export interface SweepResult {

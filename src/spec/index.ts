@@ -15,4 +15,5 @@ export { countPoints, pointAt, gridAxes, patternsForLoad, type Axis, type GridPo
 export { estimateWork, checkLimits, DEFAULT_LIMITS, ENGINE_OPS_PER_CPU_SECOND, TARGET_CHUNK_SECONDS, pointOps } from './work.js'
 export type { WorkLimits, WorkEstimate } from './work.js'
 export { searchTrialBudget } from './analysis/budget.js'
+export { pointsToCheck, type CheckedPoint } from './analysis/normalise.js'
 export type { NormalisedAnalysis, NormalisedScaling, SearchPayload, SearchRow, SearchStepRecord, ScalingRow, ScalingReference } from './analysis/types.js'

@@ -5,7 +5,7 @@
  * completion order. Facts about the run (timing, the assembling process) come in as
  * arguments.
  */
-import { aggregatePoint, ENGINE_VERSION, RNG_ALGORITHM, theoryForPoint, type TrialRecord } from '../engine/index.js'
+import { aggregatePoint, ENGINE_TIE_RULE, ENGINE_VERSION, RNG_ALGORITHM, theoryForPoint, type TrialRecord } from '../engine/index.js'
 import { canonicalJson, countPoints, pointAt, sortKeysDeep, specHash, type NormalisedSpec } from '../spec/index.js'
 import type { Provenance, ResultRow, SweepResult } from '../results/types.js'
 import type { RuntimeFacts } from '../runtime/facts.js'
@@ -39,6 +39,7 @@ export function makeProvenance (spec: NormalisedSpec, facts: RuntimeFacts, timin
     v8: facts.v8,
     rng: RNG_ALGORITHM,
     pointKeying: POINT_KEYING,
+    tieRule: ENGINE_TIE_RULE,
     ...timing
   }
 }
@@ -84,12 +85,14 @@ export function assembleResult (spec: NormalisedSpec, chunkResults: readonly Chu
   const trials = placeTrials(spec, chunkResults)
   const rows: ResultRow[] = trials.map((pointTrials, point) => {
     const { values, params } = pointAt(spec, point)
+    const theory = theoryForPoint(params)
     return {
       point,
       values,
       params: { alpha: params.patterns / params.neurons, neurons: params.neurons, patterns: params.patterns },
       summary: aggregatePoint(params, pointTrials),
-      theory: sortKeysDeep(theoryForPoint(params))
+      theory: sortKeysDeep(theory.values),
+      theoryUnavailable: sortKeysDeep(theory.unavailable)
     }
   })
   return { specHash: hash, spec, rows, trials, provenance: sortKeysDeep(provenance) }

@@ -107,21 +107,22 @@ describe('theory overlays', () => {
     expect(points[0]).toEqual([0, 1])
     for (const [x, y] of points) expect(y).toBe(curieWeissOverlap(x))
     expect(points.some(([x, y]) => x === 1 && y === 0)).toBe(true)
-    // Not at a load where the α → 0 result does not apply.
+    // Not at a load where the α → 0 result does not apply: there the finite-load RS overlap
+    // (0 at α = 0.1 for T = 0.5 and 1, both above T_M(0.1) = 0.315) is drawn instead.
     const loaded = runSweep({ neurons: 100, patterns: 10, dynamics: { temperature: { values: [0.5, 1] }, maxSweeps: 4 }, trials: 2, seed: 7 })
-    expect(overlays(parseSvg(renderFigure(loaded, { measure: 'overlap' })))).toHaveLength(0)
+    expect(overlays(parseSvg(renderFigure(loaded, { measure: 'overlap' }))).map((g) => g.getAttribute('data-theory'))).toEqual(['retrievalOverlapRS'])
   })
 
   it('give the first parallel step only for sweeps that stop after one step', () => {
     const oneStep = { neurons: 100, patterns: 10, cue: { kind: 'flip', fraction: { values: [0.1, 0.2, 0.3] } }, dynamics: { update: 'sync', maxSweeps: 1 }, trials: 3, seed: 8 }
     const doc = parseSvg(renderFigure(runSweep(oneStep), { measure: 'overlap' }))
     const kinds = Object.fromEntries(overlays(doc).map((g) => [g.getAttribute('data-theory'), g.getAttribute('data-kind')]))
-    expect(kinds).toEqual({ firstStepOverlap: 'curve', firstStepOverlapExact: 'per-point' })
+    expect(kinds).toEqual({ firstStepOverlap: 'curve', firstStepOverlapExactTiesKeep: 'per-point' })
     const curve = overlays(doc).find((g) => g.getAttribute('data-theory') === 'firstStepOverlap')!
     for (const [f, y] of curvePoints(curve).flat()) expect(y).toBe(firstParallelStep(1 - 2 * f, 0.1))
     const longer = parseSvg(renderFigure(runSweep({ ...oneStep, dynamics: { update: 'sync', maxSweeps: 20 } }), { measure: 'overlap' }))
     expect(overlays(longer).map((g) => g.getAttribute('data-theory'))).not.toContain('firstStepOverlap')
-    expect(overlays(longer).map((g) => g.getAttribute('data-theory'))).not.toContain('firstStepOverlapExact')
+    expect(overlays(longer).map((g) => g.getAttribute('data-theory'))).not.toContain('firstStepOverlapExactTiesKeep')
   })
 
   it('follow a log x axis with samples evenly spaced in log x', () => {

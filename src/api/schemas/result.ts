@@ -4,7 +4,7 @@
  * themselves come from the spec layer unchanged, so their hash is a stable ETag.
  */
 import { z } from 'zod'
-import { END_STATES, ENDINGS } from '../../engine/index.js'
+import { END_STATES, ENDINGS, UNAVAILABLE_REASONS, UNAVAILABLE_REASON_CODES } from '../../engine/index.js'
 import { analysisResultSchemas } from './analysis-result.js'
 
 const stat = z.number().nullable()
@@ -41,12 +41,21 @@ export const pointSummarySchema = z.object({
   stability: stabilitySummary.nullable().describe('One-step stability of the stored patterns (when measured).')
 }).meta({ id: 'PointSummary' })
 
+/** Why a theory value is missing at a point: a stable code, each explained in the description. */
+export const unavailableReasonSchema = z.enum(UNAVAILABLE_REASON_CODES as [string, ...string[]])
+  .describe('Why the value is missing: ' + Object.entries(UNAVAILABLE_REASONS).map(([code, text]) => `\`${code}\`: ${text}`).join(' '))
+  .meta({ id: 'TheoryUnavailableReason' })
+
+export const theoryUnavailableSchema = z.record(z.string(), unavailableReasonSchema)
+  .describe('The other theory values of the point\'s model, by name, each with the reason it is missing here (it is then an empty cell in CSV). Every value, its domain and its source: docs/theory.md.')
+
 export const resultRowSchema = z.object({
   point: z.number().int(),
   values: z.record(z.string(), z.number()).describe('The varied parameters at this point, by path.'),
   params: z.object({ alpha: z.number(), neurons: z.number().int(), patterns: z.number().int() }),
   summary: pointSummarySchema,
-  theory: z.record(z.string(), stat).describe('Theory values that apply at this point, by name; {} when none does.')
+  theory: z.record(z.string(), stat).describe('Theory values that hold at this point, by name; {} when none does.'),
+  theoryUnavailable: theoryUnavailableSchema
 }).meta({ id: 'ResultRow' })
 
 export const trialRecordSchema = z.object({
@@ -70,6 +79,7 @@ export const provenanceSchema = z.looseObject({
   node: z.string(),
   v8: z.string(),
   rng: z.string(),
+  tieRule: z.enum(['keep']).describe('The T = 0 tie rule of the dynamics: `keep` means a neuron whose local field is exactly zero keeps its state. Exact theory values derived under random tie-breaking say so in their names (…TiesRandom).'),
   wallSeconds: z.number().optional().describe('Only with ?timing=true: wall-clock seconds from the first chunk started to the last one finished.'),
   cpuSeconds: z.number().optional().describe('Only with ?timing=true: CPU seconds summed over all chunks.'),
   workers: z.number().int().optional(),

@@ -70,6 +70,7 @@ export function clippedRetrievalOverlap (alpha: number, staticNoise = CLIPPED_ST
   const { alphaC, yC, overlapAtCritical } = clippedCriticalLoad(staticNoise)
   if (alpha > alphaC) return 0
   if (alpha === alphaC) return overlapAtCritical
-  // α(y) ≤ erf(y)²/(2y²) ≤ 1/(2y²), so it is below α at y = 1/√(2α).
-  return erf(bisect((y) => clippedLoadEquation(y, staticNoise) - alpha, yC, Math.max(yC, 1 / Math.sqrt(2 * alpha))))
+  // α(y) ≤ erf(y)²/(2y²) ≤ 1/(2y²), so it is at most α/4 at y = 2/√(2α): a sign change no
+  // rounding can erase (at y = 1/√(2α) the two agree to the last bit when staticNoise = 0).
+  return erf(bisect((y) => clippedLoadEquation(y, staticNoise) - alpha, yC, Math.max(yC, 2 / Math.sqrt(2 * alpha))))
 }

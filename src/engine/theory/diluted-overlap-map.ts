@@ -50,6 +50,10 @@ export function dilutedRetrievalOverlap (alpha: number): number {
   if (alpha === 0) return 1
   if (alpha >= DILUTED_CRITICAL_LOAD) return 0
   const width = Math.sqrt(2 * alpha)
-  // erf(m/w) − m is positive just above 0 (slope > 1) and negative at 1.
-  return bisect((m) => erf(m / width) - m, 1e-300, 1)
+  const excess = (m: number): number => erf(m / width) - m
+  // erf(m/w) − m is positive just above 0 (slope > 1) and at most 0 at 1. Within rounding of
+  // α_c the slope is 1 to the last bit and the positive root is unresolvably close to 0.
+  const lo = 1e-300
+  if (!(excess(lo) > 0)) return 0
+  return bisect(excess, lo, 1)
 }

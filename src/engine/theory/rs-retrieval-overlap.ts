@@ -17,8 +17,10 @@ import { rsLoadEquation } from './rs-load-equation.js'
  * α ≤ 0.12 and N ≥ 1000.
  *
  * ## Method
- * Bisection for y on [y_c, max(y_c, 1/√(2α))]: the right-hand side is below erf(y)/y ≤ 1/y,
- * so it is under √(2α) at the upper end and at least √(2α) at y_c whenever α ≤ α_c.
+ * Bisection for y on [y_c, max(y_c, 2/√(2α))]: the right-hand side is below erf(y)/y ≤ 1/y,
+ * so it is at most half of √(2α) at the upper end (a margin no rounding can erase; at
+ * y = 1/√(2α) the two sides agree to the last bit for small α, which made the bracket fail)
+ * and at least √(2α) at y_c whenever α ≤ α_c.
  *
  * ## Special cases
  * - α = 0 gives 1.
@@ -37,6 +39,6 @@ export function rsRetrievalOverlap (alpha: number): number {
   if (alpha > alphaC) return 0
   if (alpha === alphaC) return overlapAtCritical
   const width = Math.sqrt(2 * alpha)
-  const y = bisect(z => rsLoadEquation(z) - width, yC, Math.max(yC, 1 / width))
+  const y = bisect(z => rsLoadEquation(z) - width, yC, Math.max(yC, 2 / width))
   return erf(y)
 }

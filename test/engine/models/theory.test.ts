@@ -96,15 +96,18 @@ describe('theory of the model families', () => {
   })
 
   it('per-point theory values name the family they belong to', () => {
-    const keys = (over: Parameters<typeof pointParams>[0]) => Object.keys(theoryForPoint(pointParams(over))).sort()
+    const keys = (over: Parameters<typeof pointParams>[0]) => Object.keys(theoryForPoint(pointParams(over)).values).sort()
     expect(keys({ rule: { kind: 'clipped', selfCoupling: false } })).toEqual(['clippedCriticalLoad', 'clippedCrosstalkErrorExact', 'clippedCrosstalkErrorGaussian', 'clippedCrosstalkTieExact', 'clippedRetrievalOverlap', 'loadAlpha'])
     expect(keys({ rule: { kind: 'dense-polynomial', degree: 3 } })).toEqual(['denseCapacity', 'denseCrosstalkErrorGaussian'])
     expect(keys({ rule: { kind: 'dense-exponential' } })).toEqual(['exponentialCapacityExponent', 'exponentialLoad'])
     expect(keys({ rule: { kind: 'modern-softmax', beta: 4 } })).toEqual(['softmaxSeparationThreshold'])
     expect(keys({ dilution: { kind: 'fixed-in-degree', inDegree: 20 }, dynamics: { update: 'sync', temperature: 0, maxSweeps: 5, burnIn: 0 }, cue: { kind: 'flip', fraction: 0.2 } }))
-      .toEqual(['dilutedCriticalLoad', 'dilutedFirstStepOverlap', 'dilutedLoad', 'dilutedRetrievalOverlap'])
-    expect(theoryForPoint(pointParams({ dilution: { kind: 'fixed-in-degree', inDegree: 20 } })).dilutedLoad).toBe(10 / 20)
+      .toEqual(['dilutedCriticalLoad', 'dilutedFirstStepOverlap', 'dilutedFirstStepOverlapExactTiesKeep', 'dilutedFirstStepOverlapExactTiesRandom', 'dilutedLoad', 'dilutedRetrievalOverlap'])
+    expect(theoryForPoint(pointParams({ dilution: { kind: 'fixed-in-degree', inDegree: 20 } })).values.dilutedLoad).toBe(10 / 20)
     expect(keys({ rule: { kind: 'dense-polynomial', degree: 3 }, family: { kind: 'random', activity: 0.3 } })).toEqual([])
+    // Biased patterns are outside every value's domain: each is listed with its reason.
+    expect(theoryForPoint(pointParams({ rule: { kind: 'dense-polynomial', degree: 3 }, family: { kind: 'random', activity: 0.3 } })).unavailable)
+      .toEqual({ denseCapacity: 'model-outside-domain', denseCrosstalkErrorGaussian: 'model-outside-domain' })
   })
 
   it('cost model: the new representations hold O(N·P) or O(N·K), not N² words', () => {

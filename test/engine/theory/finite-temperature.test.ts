@@ -1,5 +1,6 @@
 import { describe, it, expect } from 'vitest'
 import { curieWeissOverlap, spinGlassTemperature } from '../../../src/engine/theory/index.js'
+import { rsCriticalLoadAt, rsRetrievalAt, rsRetrievalTemperature } from '../../../src/engine/theory/rs-finite-temperature.js'
 import reference from './fixtures/reference.json' with { type: 'json' }
 
 describe('curieWeissOverlap', () => {
@@ -47,5 +48,52 @@ describe('spinGlassTemperature', () => {
     }
     expect(spinGlassTemperature(0.04)).toBe(1.2)
     expect(() => spinGlassTemperature(-1)).toThrow(/alpha/)
+  })
+})
+
+// Finite-temperature replica-symmetric retrieval, Amit, Gutfreund & Sompolinsky, Ann. Phys.
+// 173, 30 (1987): m = ⟨tanh β(m + √(αr)z)⟩, q = ⟨tanh²⟩, r = q/(1 − β(1 − q))².
+describe('rsRetrievalAt, rsCriticalLoadAt, rsRetrievalTemperature', () => {
+  it('reproduces m(α, T) of CHECK_VALUES §3', () => {
+    // CHECK_VALUES §3 "m(α,T) (RS)" [C], printed to 4 digits: tolerance half a unit, 5e-5.
+    const rows: Array<[number, number, number]> = [
+      [0.05, 0.2, 0.9989], [0.05, 0.3, 0.9912], [0.05, 0.4, 0.9662], [0.05, 0.5, 0.9041],
+      [0.10, 0.1, 0.9968], [0.10, 0.2, 0.9891], [0.10, 0.3, 0.9530]
+    ]
+    for (const [alpha, t, m] of rows) expect(Math.abs(rsRetrievalAt(alpha, t)!.m - m)).toBeLessThanOrEqual(5e-5)
+  })
+
+  it('reproduces the retrieval line T_M(α) of the T–α phase diagram, read both ways', () => {
+    // CHECK_VALUES §3 "Retrieval existence line T_M(α)" (AGS 1987) [C], printed to 3 digits.
+    // Tolerance 1e-3: the α = 0.02 row prints 0.717 where we get 0.71648, which a direct
+    // fixed-point iteration of the RS equations (numpy, 4·10⁴-point grid, run while writing
+    // this test) confirms: retrieval at T = 0.7164, none at 0.7168.
+    const rows: Array<[number, number]> = [
+      [0.001, 0.938], [0.005, 0.860], [0.01, 0.801], [0.02, 0.717], [0.05, 0.542], [0.08, 0.405], [0.10, 0.315], [0.12, 0.215], [0.13, 0.149]
+    ]
+    for (const [alpha, t] of rows) {
+      expect(Math.abs(rsRetrievalTemperature(alpha)! - t)).toBeLessThanOrEqual(1e-3)
+      // α_c(T) at the same temperatures: the line crosses α between T ∓ 0.001.
+      expect(rsCriticalLoadAt(t - 1e-3).alphaC).toBeGreaterThan(alpha)
+      expect(rsCriticalLoadAt(t + 1e-3).alphaC).toBeLessThan(alpha)
+      expect(rsRetrievalAt(alpha, t - 1e-3)).not.toBeNull()
+      expect(rsRetrievalAt(alpha, t + 1e-3)).toBeNull()
+    }
+  })
+
+  it('approaches 1 − 1.95√α at small α, the T = 0 theory at T → 0 and Curie–Weiss at α → 0', () => {
+    // T_M ≈ 1 − 1.95√α near α = 0 (coefficient recalled from memory, CHECK_VALUES §3 [M]). At
+    // α = 5e-4 that is 0.9564; CHECK_VALUES quotes a computed 0.9552, but a direct fixed-point
+    // iteration finds retrieval at T = 0.9559 (m = 0.288): we get 0.95611. Tolerance 1e-3.
+    expect(Math.abs(rsRetrievalTemperature(5e-4)! - (1 - 1.95 * Math.sqrt(5e-4)))).toBeLessThan(1e-3)
+    expect(rsRetrievalTemperature(5e-4)!).toBeGreaterThan(0.9559)
+    // Continuity with the T = 0 equations (CHECK_VALUES §2: m(0.10) = 0.9979993, α_c = 0.137906).
+    expect(Math.abs(rsRetrievalAt(0.1, 1e-6)!.m - 0.9979993)).toBeLessThan(1e-6)
+    expect(Math.abs(rsCriticalLoadAt(1e-6).alphaC - 0.137906)).toBeLessThan(1e-6)
+    // and with m = tanh(m/T) at vanishing load (CHECK_VALUES §3: 0.90733 at T = 0.6).
+    expect(Math.abs(rsRetrievalAt(1e-9, 0.6)!.m - 0.90733)).toBeLessThan(1e-5)
+    expect(rsCriticalLoadAt(1)).toEqual({ alphaC: 0, overlapAtCritical: 0 })
+    expect(rsRetrievalTemperature(0.14)).toBeNull()
+    expect(rsRetrievalTemperature(0)).toBe(1)
   })
 })
