@@ -79,6 +79,7 @@ export const provenanceSchema = z.looseObject({
   node: z.string(),
   v8: z.string(),
   rng: z.string(),
+  pointKeying: z.string().describe('How a grid point\'s random streams are keyed: by a hash of the point\'s model parameters, not its position in the grid, so sweeps that share a point (an extension, a new grid) draw the same trials there.'),
   tieRule: z.enum(['keep']).describe('The T = 0 tie rule of the dynamics: `keep` means a neuron whose local field is exactly zero keeps its state. Exact theory values derived under random tie-breaking say so in their names (…TiesRandom).'),
   wallSeconds: z.number().optional().describe('Only with ?timing=true: wall-clock seconds from the first chunk started to the last one finished.'),
   cpuSeconds: z.number().optional().describe('Only with ?timing=true: CPU seconds summed over all chunks.'),
