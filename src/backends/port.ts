@@ -10,6 +10,14 @@ export const SWEEP_STATUSES = ['queued', 'running', 'succeeded', 'failed', 'canc
 export type SweepStatus = typeof SWEEP_STATUSES[number]
 export const TERMINAL_STATUSES: ReadonlySet<SweepStatus> = new Set(['succeeded', 'failed', 'canceled'])
 
+/**
+ * Backends issue UUIDs as sweep ids; anything outside this shape cannot name a sweep (and
+ * never reaches a key or a query). One definition for the API's routes, its OpenAPI
+ * document, its router's path-parameter limit and both backends' guards.
+ */
+export const SWEEP_ID_MAX_LENGTH = 64
+export const SWEEP_ID_PATTERN = new RegExp(`^[A-Za-z0-9_-]{1,${SWEEP_ID_MAX_LENGTH}}$`)
+
 export interface SweepProgress {
   pointsDone: number
   pointsTotal: number
@@ -56,8 +64,12 @@ export interface SubmitInput {
   reuse?: boolean
 }
 
+/** ListQuery.owner that matches every owner's sweeps (the admin's view of a shared server). */
+export const ANY_OWNER = Symbol('any owner')
+
 export interface ListQuery {
-  owner: string | null
+  /** Whose sweeps: an owner's, null for those without an owner (a server without tokens), or ANY_OWNER for all. */
+  owner: string | null | typeof ANY_OWNER
   status?: SweepStatus
   /** Opaque cursor from a previous page. */
   cursor?: string

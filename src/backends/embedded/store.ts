@@ -7,7 +7,7 @@ import { mkdirSync } from 'node:fs'
 import { join } from 'node:path'
 import Database from 'better-sqlite3'
 import type { NormalisedSpec } from '../../spec/index.js'
-import type { ListQuery, SweepFailure, SweepRecord, SweepStatus } from '../port.js'
+import { ANY_OWNER, type ListQuery, type SweepFailure, type SweepRecord, type SweepStatus } from '../port.js'
 import { CODEC_NAME } from '../shared/trial-codec.js'
 import { decodeCursor, encodeCursor } from './cursor.js'
 import { migrate } from './schema.js'
@@ -139,8 +139,10 @@ export class SweepStore {
 
   list (query: ListQuery): { items: SweepRecord[], nextCursor: string | null } {
     const after = query.cursor === undefined ? null : decodeCursor(query.cursor)
+    const anyOwner = query.owner === ANY_OWNER
     const rows = this.#statements.list.all({
-      owner: query.owner,
+      owner: anyOwner ? null : query.owner,
+      any_owner: anyOwner ? 1 : 0,
       status: query.status ?? null,
       after_created: after?.createdMs ?? null,
       after_seq: after?.seq ?? null,
@@ -290,7 +292,7 @@ function prepareStatements (db: Database.Database) {
     // Newest first; `owner IS @owner` matches NULL (tokens off) as well as a name.
     list: db.prepare(`
       SELECT * FROM sweeps
-      WHERE owner IS @owner
+      WHERE (@any_owner = 1 OR owner IS @owner)
         AND (@status IS NULL OR status = @status)
         AND (@after_created IS NULL OR created_ms < @after_created OR (created_ms = @after_created AND seq < @after_seq))
       ORDER BY created_ms DESC, seq DESC

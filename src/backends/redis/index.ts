@@ -8,7 +8,7 @@ import { randomUUID } from 'node:crypto'
 import type { Redis } from 'ioredis'
 import type { Logger } from 'pino'
 import { countPoints, planChunks, specHash, type Chunk, type NormalisedSpec, type SweepResult } from '../../spec/index.js'
-import { IdempotencyConflictError, TERMINAL_STATUSES } from '../port.js'
+import { IdempotencyConflictError, SWEEP_ID_PATTERN, TERMINAL_STATUSES } from '../port.js'
 import type { ListQuery, QueueStats, SubmitInput, SweepEvent, SweepQueue, SweepRecord } from '../port.js'
 import { CODEC_NAME, decodeValue } from '../shared/trial-codec.js'
 import { ChunkQueue, DEFAULT_RETRY_POLICY, type ChunkRetryPolicy } from './chunk-queue.js'
@@ -58,8 +58,8 @@ export interface RedisQueueOptions {
 export const DEFAULT_PREFIX = 'memsweep'
 export const DEFAULT_RETENTION_SECONDS = 7 * 24 * 3600
 const DEFAULT_IDEMPOTENCY_TTL_SECONDS = 24 * 3600
-/** Sweep ids are UUIDs; anything else cannot name a sweep (and must not reach a key name). */
-const SWEEP_ID = /^[A-Za-z0-9-]{1,64}$/
+/** Anything else cannot name a sweep (and must not reach a key name). */
+const SWEEP_ID = SWEEP_ID_PATTERN
 const READY_TIMEOUT_MS = 2000
 
 export async function createRedisQueue (options: RedisQueueOptions): Promise<SweepQueue> {

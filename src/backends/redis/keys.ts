@@ -3,6 +3,7 @@
  * docs/redis.md documents the layout; change both together.
  */
 import { createHash } from 'node:crypto'
+import { SWEEP_ID_MAX_LENGTH } from '../port.js'
 
 /** Name of the BullMQ queue that carries chunk and assembly jobs (queue names may not contain ':'). */
 export const CHUNK_QUEUE_NAME = 'chunks'
@@ -76,7 +77,7 @@ export function indexMember (createdMs: number, id: string): string {
   return `${String(createdMs).padStart(CREATED_MS_DIGITS, '0')}:${id}`
 }
 
-const INDEX_MEMBER = new RegExp(`^\\d{${CREATED_MS_DIGITS}}:[A-Za-z0-9-]{1,64}$`)
+const INDEX_MEMBER = new RegExp(`^\\d{${CREATED_MS_DIGITS}}:[A-Za-z0-9_-]{1,${SWEEP_ID_MAX_LENGTH}}$`)
 
 export function isIndexMember (text: string): boolean {
   return INDEX_MEMBER.test(text)

@@ -8,7 +8,7 @@ import type { Redis } from 'ioredis'
 import type { NormalisedSpec } from '../../spec/index.js'
 import { InvalidCursorError } from '../embedded/cursor.js'
 import { SWEEP_STATUSES } from '../port.js'
-import type { ListQuery, SweepFailure, SweepRecord, SweepStatus } from '../port.js'
+import { ANY_OWNER, type ListQuery, type SweepFailure, type SweepRecord, type SweepStatus } from '../port.js'
 import { idFromIndexMember, indexMember, isIndexMember, type KeyLayout } from './keys.js'
 import { SCRIPTS } from './scripts.js'
 
@@ -168,7 +168,9 @@ export class RedisSweepStore {
   }
 
   async list (query: ListQuery): Promise<{ items: SweepRecord[], nextCursor: string | null }> {
-    const index = query.owner === null ? this.keys.index : this.keys.ownerIndex(query.owner)
+    // Every sweep is in the global index and an owned one also in its owner's.
+    const owner = query.owner
+    const index = owner === null || owner === ANY_OWNER ? this.keys.index : this.keys.ownerIndex(owner)
     let upper = query.cursor === undefined ? '+' : `(${decodeListCursor(query.cursor)}`
     const items: SweepRecord[] = []
     let lastMember: string | null = null
@@ -190,6 +192,7 @@ export class RedisSweepStore {
           continue
         }
         if (query.status !== undefined && record.status !== query.status) continue
+        if (owner === null && record.owner !== null) continue
         if (items.length === query.limit) {
           more = true
           break
