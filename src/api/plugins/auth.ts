@@ -28,6 +28,8 @@ export interface AuthOptions {
   /** A loaded token table (tests); when undefined, `tokensFile` is read. */
   tokens?: TokenTable | null | undefined
   tokensFile: string | null
+  /** Failed authentications per client address and window before 429; counted by @fastify/rate-limit's store (Redis when shared). */
+  failureLimit: { max: number, windowSeconds: number }
 }
 
 async function auth (app: FastifyInstance, options: AuthOptions): Promise<void> {
@@ -52,19 +54,30 @@ async function auth (app: FastifyInstance, options: AuthOptions): Promise<void> 
   })
   const verify = app.verifyBearerAuth
   if (verify === undefined) throw new Error('@fastify/bearer-auth did not decorate verifyBearerAuth')
-  app.addHook('onRequest', (request, reply, done) => {
+  // Only failures are counted, and only after the token was checked: a valid token always
+  // passes, so colleagues behind one address are never locked out by someone's broken script.
+  const { max, windowSeconds } = options.failureLimit
+  const countFailure = app.createRateLimit({ max, timeWindow: windowSeconds * 1000, keyGenerator: (request) => `auth-failure:${request.ip}` })
+  app.addHook('onRequest', async (request, reply) => {
     request.principal = ANONYMOUS
-    if (request.routeOptions.config.public === true) { done(); return }
-    verify(request, reply, (error) => {
-      if (error === undefined) { done(); return }
-      done(new ServiceError('MEMSWEEP_UNAUTHENTICATED', {
-        reason: request.headers.authorization === undefined ? 'no Authorization header' : 'the token is not known'
-      }, { headers: { 'www-authenticate': 'Bearer realm="memsweep"' } }))
-    })
+    if (request.routeOptions.config.public === true) return
+    const error = await new Promise<Error | undefined>((resolve) => { verify(request, reply, resolve) })
+    if (error === undefined) return
+    const counted = await countFailure(request)
+    if (!counted.isAllowed && counted.isExceeded) {
+      const retryAfter = Math.max(1, counted.ttlInSeconds)
+      throw new ServiceError('MEMSWEEP_TOO_MANY_AUTH_FAILURES', { max, window: `${windowSeconds} s`, retryAfter }, {
+        headers: { 'retry-after': String(retryAfter) },
+        extensions: { retryAfter }
+      })
+    }
+    throw new ServiceError('MEMSWEEP_UNAUTHENTICATED', {
+      reason: request.headers.authorization === undefined ? 'no Authorization header' : 'the token is not known'
+    }, { headers: { 'www-authenticate': 'Bearer realm="memsweep"' } })
   })
 }
 
-export const authPlugin = fp(auth, { name: 'memsweep-auth', fastify: '5.x' })
+export const authPlugin = fp(auth, { name: 'memsweep-auth', fastify: '5.x', dependencies: ['@fastify/rate-limit'] })
 
 /** Actions a role may take, checked by the routes that change state. */
 const ALLOWED: Record<Role, ReadonlySet<'submit' | 'cancel'>> = {
@@ -76,6 +89,13 @@ const ALLOWED: Record<Role, ReadonlySet<'submit' | 'cancel'>> = {
 export function requireAction (principal: Principal, action: 'submit' | 'cancel'): void {
   if (!ALLOWED[principal.role].has(action)) {
     throw new ServiceError('MEMSWEEP_FORBIDDEN', { owner: principal.owner ?? 'anonymous', role: principal.role, action: `${action} sweeps` })
+  }
+}
+
+/** Refuses (403) what only the admin may do: `action` completes "may not …". */
+export function requireAdmin (principal: Principal, action: string): void {
+  if (principal.role !== 'admin') {
+    throw new ServiceError('MEMSWEEP_FORBIDDEN', { owner: principal.owner ?? 'anonymous', role: principal.role, action })
   }
 }
 
