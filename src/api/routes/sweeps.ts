@@ -194,10 +194,10 @@ export const sweepRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx)
     schema: {
       operationId: 'cancelSweep',
       summary: 'Cancel a sweep',
-      description: 'Stops a queued or running sweep (running trials stop within about a second) and answers 202 with its record. Canceling a finished sweep changes nothing.',
+      description: 'Stops a queued or running sweep (running trials stop within about a second) and answers 202 with its record. Canceling a finished sweep changes nothing. The request needs no body; one that is sent is read like any (JSON, within the body limit) and ignored.',
       tags: ['sweeps'],
       params: idParams,
-      response: { 202: sweepDetailSchema.describe('Cancel requested: the sweep\'s record after the change.'), ...problemResponses(400, 401, 403, 404, 429) }
+      response: { 202: sweepDetailSchema.describe('Cancel requested: the sweep\'s record after the change.'), ...problemResponses(400, 401, 403, 404, 413, 415, 429) }
     }
   }, async (request, reply) => {
     const principal = request.principal
