@@ -38,7 +38,8 @@ export interface AppDependencies {
   tokens?: TokenTable | null
   /**
    * A Redis connection for rate-limit counters shared by every API instance (keys under
-   * `<REDIS_PREFIX>:rate:`); without it each instance counts on its own.
+   * `<REDIS_PREFIX>:rate:` and, for failed authentications, `<REDIS_PREFIX>:auth-failures:`);
+   * without it each instance counts on its own.
    */
   rateLimitRedis?: Redis
   /** Folder of the built web page (default dist/web); null leaves the page out. */
@@ -104,6 +105,14 @@ export function buildApp (deps: AppDependencies): FastifyInstance {
 
   app.register(problemsPlugin, { bodyLimit: config.bodyLimit })
   app.register(metricsPlugin, { queue })
+  // Before the rate limiter: its own failed-authentication counter is a second limiter in a
+  // scope of its own, which must not find the first one's decorators.
+  app.register(authPlugin, {
+    tokens: deps.tokens,
+    tokensFile: config.tokensFile,
+    failureLimit: config.authFailureLimit,
+    ...(deps.rateLimitRedis === undefined ? {} : { failureStore: { redis: deps.rateLimitRedis, nameSpace: `${config.redisPrefix}:auth-failures:` } })
+  })
   app.register(fastifyRateLimit, {
     max: config.rateLimit.max,
     timeWindow: config.rateLimit.windowSeconds * 1000,
@@ -122,8 +131,6 @@ export function buildApp (deps: AppDependencies): FastifyInstance {
       retryAfter: Math.ceil(context.ttl / 1000)
     }, { extensions: { retryAfter: Math.ceil(context.ttl / 1000) } })
   })
-  // After the rate limiter, whose store also counts failed authentications per address.
-  app.register(authPlugin, { tokens: deps.tokens, tokensFile: config.tokensFile, failureLimit: config.authFailureLimit })
   app.register(fastifySwagger, {
     openapi: {
       openapi: '3.1.0',

@@ -6,8 +6,10 @@
  * @see https://github.com/fastify/fastify-bearer-auth
  */
 import fastifyBearerAuth from '@fastify/bearer-auth'
+import fastifyRateLimit from '@fastify/rate-limit'
 import type { FastifyInstance, FastifyRequest } from 'fastify'
 import fp from 'fastify-plugin'
+import type { Redis } from 'ioredis'
 import { ServiceError } from '../../errors.js'
 import { loadTokens, type Principal, type Role, type TokenTable } from '../tokens.js'
 
@@ -28,8 +30,10 @@ export interface AuthOptions {
   /** A loaded token table (tests); when undefined, `tokensFile` is read. */
   tokens?: TokenTable | null | undefined
   tokensFile: string | null
-  /** Failed authentications per client address and window before 429; counted by @fastify/rate-limit's store (Redis when shared). */
+  /** Failed authentications per client address and window before 429. */
   failureLimit: { max: number, windowSeconds: number }
+  /** Where API instances share the failure counts (keys `<nameSpace><address>`); without it each counts on its own. */
+  failureStore?: { redis: Redis, nameSpace: string }
 }
 
 async function auth (app: FastifyInstance, options: AuthOptions): Promise<void> {
@@ -56,16 +60,28 @@ async function auth (app: FastifyInstance, options: AuthOptions): Promise<void> 
   if (verify === undefined) throw new Error('@fastify/bearer-auth did not decorate verifyBearerAuth')
   // Only failures are counted, and only after the token was checked: a valid token always
   // passes, so colleagues behind one address are never locked out by someone's broken script.
+  // The counter is a rate limiter of its own, in a scope of its own, applied to no route: the
+  // hook below counts a request only when its authentication has failed.
   const { max, windowSeconds } = options.failureLimit
-  const countFailure = app.createRateLimit({ max, timeWindow: windowSeconds * 1000, keyGenerator: (request) => `auth-failure:${request.ip}` })
+  let countFailure: ((request: FastifyRequest) => Promise<{ isAllowed: boolean, isExceeded?: boolean, ttlInSeconds?: number }>) | null = null
+  await app.register(async (scope) => {
+    await scope.register(fastifyRateLimit, {
+      global: false,
+      max,
+      timeWindow: windowSeconds * 1000,
+      keyGenerator: (request) => request.ip,
+      ...(options.failureStore === undefined ? {} : { redis: options.failureStore.redis, nameSpace: options.failureStore.nameSpace, skipOnError: true })
+    })
+    countFailure = scope.createRateLimit()
+  })
   app.addHook('onRequest', async (request, reply) => {
     request.principal = ANONYMOUS
     if (request.routeOptions.config.public === true) return
     const error = await new Promise<Error | undefined>((resolve) => { verify(request, reply, resolve) })
     if (error === undefined) return
-    const counted = await countFailure(request)
-    if (!counted.isAllowed && counted.isExceeded) {
-      const retryAfter = Math.max(1, counted.ttlInSeconds)
+    const counted = countFailure === null ? { isAllowed: true } : await countFailure(request)
+    if (!counted.isAllowed && counted.isExceeded === true) {
+      const retryAfter = Math.max(1, counted.ttlInSeconds ?? windowSeconds)
       throw new ServiceError('MEMSWEEP_TOO_MANY_AUTH_FAILURES', { max, window: `${windowSeconds} s`, retryAfter }, {
         headers: { 'retry-after': String(retryAfter) },
         extensions: { retryAfter }
@@ -77,7 +93,7 @@ async function auth (app: FastifyInstance, options: AuthOptions): Promise<void> 
   })
 }
 
-export const authPlugin = fp(auth, { name: 'memsweep-auth', fastify: '5.x', dependencies: ['@fastify/rate-limit'] })
+export const authPlugin = fp(auth, { name: 'memsweep-auth', fastify: '5.x' })
 
 /** Actions a role may take, checked by the routes that change state. */
 const ALLOWED: Record<Role, ReadonlySet<'submit' | 'cancel'>> = {
