@@ -66,7 +66,8 @@ export function buildApp (deps: AppDependencies): FastifyInstance {
     routerOptions: { maxParamLength: SWEEP_ID_MAX_LENGTH },
     frameworkErrors: (error, request, reply) => {
       const problem = frameworkProblem(error, request)
-      request.log.info({ code: problem.code, status: problem.status, reason: error.code }, problem.message)
+      if (problem.status >= 500) request.log.error({ err: error, url: request.url }, 'request failed before routing')
+      else request.log.info({ code: problem.code, status: problem.status, reason: error.code }, problem.message)
       sendProblem(reply, problem)
     },
     // Keep-alive sockets would otherwise hold close() until their idle timeout.
