@@ -27,6 +27,8 @@ const envSchema = z.object({
   BODY_LIMIT: z.preprocess(emptyAsUnset, positiveInt.default(256 * 1024)),
   RATE_LIMIT_MAX: z.preprocess(emptyAsUnset, positiveInt.default(600)),
   RATE_LIMIT_WINDOW: z.preprocess(emptyAsUnset, positiveInt.default(60)),
+  AUTH_FAILURE_MAX: z.preprocess(emptyAsUnset, positiveInt.default(20)),
+  AUTH_FAILURE_WINDOW: z.preprocess(emptyAsUnset, positiveInt.default(300)),
   MAX_ACTIVE_SWEEPS_PER_OWNER: z.preprocess(emptyAsUnset, positiveInt.default(20)),
   SSE_HEARTBEAT_SECONDS: z.preprocess(emptyAsUnset, positiveInt.max(300).default(15)),
   TRUST_PROXY: z.preprocess(emptyAsUnset, flag.default(false)),
@@ -55,6 +57,8 @@ export interface Config {
   /** Largest accepted request body, bytes. */
   bodyLimit: number
   rateLimit: { max: number, windowSeconds: number }
+  /** Failed authentications one client address may make per window before it gets 429 (valid tokens still pass). */
+  authFailureLimit: { max: number, windowSeconds: number }
   maxActiveSweepsPerOwner: number
   sseHeartbeatSeconds: number
   trustProxy: boolean
@@ -93,6 +97,7 @@ export function loadConfig (env: Record<string, string | undefined>): Config {
     tokensFile: e.TOKENS_FILE ?? null,
     bodyLimit: e.BODY_LIMIT,
     rateLimit: { max: e.RATE_LIMIT_MAX, windowSeconds: e.RATE_LIMIT_WINDOW },
+    authFailureLimit: { max: e.AUTH_FAILURE_MAX, windowSeconds: e.AUTH_FAILURE_WINDOW },
     maxActiveSweepsPerOwner: e.MAX_ACTIVE_SWEEPS_PER_OWNER,
     sseHeartbeatSeconds: e.SSE_HEARTBEAT_SECONDS,
     trustProxy: e.TRUST_PROXY,

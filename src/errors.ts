@@ -91,6 +91,11 @@ export const ERRORS = {
     title: 'Too many active sweeps',
     detail: '{owner} already has {active} queued or running sweeps (limit {max}); wait for one to finish or cancel one.'
   },
+  MEMSWEEP_TOO_MANY_AUTH_FAILURES: {
+    status: 429,
+    title: 'Too many failed authentications',
+    detail: 'More than {max} requests from this address failed authentication within {window}; retry in {retryAfter} s.'
+  },
   MEMSWEEP_INTERNAL: {
     status: 500,
     title: 'Internal error',

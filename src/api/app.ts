@@ -9,7 +9,7 @@ import Fastify, { type FastifyInstance, type FastifyServerOptions } from 'fastif
 import { jsonSchemaTransform, serializerCompiler, validatorCompiler, type ZodTypeProvider } from 'fastify-type-provider-zod'
 import type { Redis } from 'ioredis'
 import type { Logger } from 'pino'
-import type { SweepQueue } from '../backends/port.js'
+import { SWEEP_ID_MAX_LENGTH, type SweepQueue } from '../backends/port.js'
 import type { Config } from '../config.js'
 import { ServiceError } from '../errors.js'
 import { DEFAULT_LIMITS, type WorkLimits } from '../spec/index.js'
@@ -17,6 +17,7 @@ import { EventStreamRegistry } from './event-stream.js'
 import { authPlugin } from './plugins/auth.js'
 import { metricsPlugin } from './plugins/metrics.js'
 import { problemsPlugin } from './plugins/problems.js'
+import { frameworkProblem, sendProblem } from './problem-reply.js'
 import type { RouteContext } from './routes/context.js'
 import { eventRoutes } from './routes/events.js'
 import { figureRoutes } from './routes/figure.js'
@@ -37,7 +38,8 @@ export interface AppDependencies {
   tokens?: TokenTable | null
   /**
    * A Redis connection for rate-limit counters shared by every API instance (keys under
-   * `<REDIS_PREFIX>:rate:`); without it each instance counts on its own.
+   * `<REDIS_PREFIX>:rate:` and, for failed authentications, `<REDIS_PREFIX>:auth-failures:`);
+   * without it each instance counts on its own.
    */
   rateLimitRedis?: Redis
   /** Folder of the built web page (default dist/web); null leaves the page out. */
@@ -59,6 +61,15 @@ export function buildApp (deps: AppDependencies): FastifyInstance {
     },
     // Fastify's own closing answer is not a problem document; the hook below sends one instead.
     return503OnClosing: false,
+    // Every path parameter is a sweep id: a longer one is refused by the router itself, and
+    // answered (like a bad percent-encoding) with the problem a malformed id gets.
+    routerOptions: { maxParamLength: SWEEP_ID_MAX_LENGTH },
+    frameworkErrors: (error, request, reply) => {
+      const problem = frameworkProblem(error, request)
+      if (problem.status >= 500) request.log.error({ err: error, url: request.url }, 'request failed before routing')
+      else request.log.info({ code: problem.code, status: problem.status, reason: error.code }, problem.message)
+      sendProblem(reply, problem)
+    },
     // Keep-alive sockets would otherwise hold close() until their idle timeout.
     forceCloseConnections: 'idle'
   }
@@ -94,7 +105,14 @@ export function buildApp (deps: AppDependencies): FastifyInstance {
 
   app.register(problemsPlugin, { bodyLimit: config.bodyLimit })
   app.register(metricsPlugin, { queue })
-  app.register(authPlugin, { tokens: deps.tokens, tokensFile: config.tokensFile })
+  // Before the rate limiter: its own failed-authentication counter is a second limiter in a
+  // scope of its own, which must not find the first one's decorators.
+  app.register(authPlugin, {
+    tokens: deps.tokens,
+    tokensFile: config.tokensFile,
+    failureLimit: config.authFailureLimit,
+    ...(deps.rateLimitRedis === undefined ? {} : { failureStore: { redis: deps.rateLimitRedis, nameSpace: `${config.redisPrefix}:auth-failures:` } })
+  })
   app.register(fastifyRateLimit, {
     max: config.rateLimit.max,
     timeWindow: config.rateLimit.windowSeconds * 1000,

@@ -7,7 +7,7 @@
  * (one per laptop, say). Roles:
  *   - `submit` (default): submit, read and cancel one's own sweeps;
  *   - `read`: read one's own sweeps only (dashboards, monitoring scripts);
- *   - `admin`: read and cancel every owner's sweeps (the lab admin).
+ *   - `admin`: read, list and cancel every owner's sweeps, and read /metrics (the lab admin).
  */
 import { createHash, timingSafeEqual } from 'node:crypto'
 import { readFile } from 'node:fs/promises'
@@ -27,7 +27,8 @@ export interface TokenTable {
   readonly size: number
 }
 
-const OWNER = /^[A-Za-z0-9._-]{1,64}$/
+/** Owner names: in the tokens file, and wherever a request names an owner. */
+export const OWNER_NAME = /^[A-Za-z0-9._-]{1,64}$/
 const TOKEN = /^[A-Za-z0-9\-._~+/=]{16,512}$/
 
 export class TokenFileError extends Error {
@@ -54,7 +55,7 @@ export function parseTokens (text: string, file = 'TOKENS_FILE'): TokenTable {
       throw new TokenFileError(file, index + 1, 'expected owner:token or owner:token:role')
     }
     const [owner = '', token = '', role = 'submit'] = fields
-    if (!OWNER.test(owner)) throw new TokenFileError(file, index + 1, `owner '${owner}' must be 1-64 letters, digits, '.', '_' or '-'`)
+    if (!OWNER_NAME.test(owner)) throw new TokenFileError(file, index + 1, `owner '${owner}' must be 1-64 letters, digits, '.', '_' or '-'`)
     if (!TOKEN.test(token)) throw new TokenFileError(file, index + 1, 'token must be 16-512 characters of letters, digits and -._~+/=')
     if (!(ROLES as readonly string[]).includes(role)) throw new TokenFileError(file, index + 1, `role '${role}' must be one of ${ROLES.join(', ')}`)
     const d = digest(token)

@@ -9,7 +9,10 @@ import type { NormalisedSpec } from '../spec/index.js'
 import type { SweepResult } from '../results/index.js'
 import type { ListQuery, SweepPage, SweepRecord } from '../sweep/index.js'
 
-export { SWEEP_STATUSES, TERMINAL_STATUSES, type SweepStatus, type SweepProgress, type SweepFailure, type SweepRecord, type ListQuery } from '../sweep/index.js'
+export {
+  SWEEP_STATUSES, TERMINAL_STATUSES, ANY_OWNER, SWEEP_ID_MAX_LENGTH, SWEEP_ID_PATTERN,
+  type SweepStatus, type SweepProgress, type SweepFailure, type SweepRecord, type ListQuery
+} from '../sweep/index.js'
 export { IdempotencyConflictError, ActiveSweepCapError, InvalidCursorError } from './errors.js'
 
 export type SweepEvent =

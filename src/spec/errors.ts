@@ -9,17 +9,23 @@ export interface SpecIssue {
   message: string
 }
 
-/** The submitted spec is malformed or describes work the engine cannot do. Lists every issue found. */
+/**
+ * The submitted spec is malformed or describes work the engine cannot do. Lists the issues
+ * found, up to a bound; `omitted` counts those found beyond it.
+ */
 export class SpecValidationError extends Error {
   readonly issues: SpecIssue[]
+  readonly omitted: number
 
-  constructor (issues: SpecIssue[]) {
+  constructor (issues: SpecIssue[], omitted = 0) {
     const first = issues[0]
     const head = first === undefined ? 'invalid sweep spec' : `${first.path === '' ? '(spec)' : first.path}: ${first.message}`
-    const more = issues.length > 1 ? ` (and ${issues.length - 1} more issue${issues.length > 2 ? 's' : ''})` : ''
+    const others = issues.length - 1 + omitted
+    const more = others > 0 ? ` (and ${others} more issue${others > 1 ? 's' : ''})` : ''
     super(`Invalid sweep spec. ${head}${more}`)
     this.name = 'SpecValidationError'
     this.issues = issues
+    this.omitted = omitted
     Object.setPrototypeOf(this, new.target.prototype)
   }
 }

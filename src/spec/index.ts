@@ -9,7 +9,7 @@ export { MAX_AXIS_VALUES, AXIS_SIGNIFICANT_DIGITS, type Varied } from './axis.js
 export type { NormalisedSpec, NormalisedFamily, NormalisedRule, NormalisedCue } from './types.js'
 export { SpecValidationError, WorkLimitError } from './errors.js'
 export type { SpecIssue, WorkLimitName } from './errors.js'
-export { normaliseSpec } from './normalise.js'
+export { MAX_SPEC_ISSUES, normaliseSpec } from './normalise.js'
 export { specHash, canonicalJson, sortKeysDeep } from './canonical.js'
 export { countPoints, pointAt, gridAxes, patternsForLoad, type Axis, type GridPoint } from './grid.js'
 export { estimateWork, checkLimits, DEFAULT_LIMITS, ENGINE_OPS_PER_CPU_SECOND, TARGET_CHUNK_SECONDS, pointOps } from './work.js'

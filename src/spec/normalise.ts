@@ -17,6 +17,12 @@ import type { NormalisedCue, NormalisedFamily, NormalisedRule, NormalisedSpec } 
 /** Most issues reported about the entries of supplied patterns; the rest are counted. */
 const MAX_DATA_ISSUES = 20
 
+/**
+ * Most issues a SpecValidationError lists; it counts the rest (`omitted`). Only supplied
+ * data can hold more bad entries than this, and screenSuppliedData keeps those from zod.
+ */
+export const MAX_SPEC_ISSUES = 100
+
 // MAIN //
 
 /**
@@ -26,6 +32,11 @@ const MAX_DATA_ISSUES = 20
  */
 export function normaliseSpec (input: unknown): NormalisedSpec {
   const presence = presenceIssues(input)
+  const screened = screenSuppliedData(input)
+  if (screened !== null) {
+    const rest = SweepSpecSchema.safeParse(screened.withoutData)
+    fail([...presence, ...(rest.success ? [] : issuesFromZod(rest.error.issues)), ...screened.issues], screened.omitted)
+  }
   const parsed = SweepSpecSchema.safeParse(input)
   if (!parsed.success) fail([...presence, ...issuesFromZod(parsed.error.issues)])
   if (presence.length > 0) fail(presence)
@@ -44,8 +55,43 @@ export function normaliseSpec (input: unknown): NormalisedSpec {
   return spec
 }
 
-function fail (issues: SpecIssue[]): never {
-  throw new SpecValidationError(uniqueIssues(issues))
+function fail (issues: SpecIssue[], omitted = 0): never {
+  const unique = uniqueIssues(issues)
+  const listed = unique.slice(0, MAX_SPEC_ISSUES)
+  throw new SpecValidationError(listed, omitted + unique.length - listed.length)
+}
+
+/**
+ * Supplied data may hold hundreds of thousands of entries, and zod builds an issue for each
+ * bad one: a body of nothing but `{}` entries costs about half a second and megabytes of
+ * issues. This pass over the raw rows only looks at types. With more bad entries or rows
+ * than a SpecValidationError lists, it reports the first ones and counts the rest, and zod
+ * checks the spec with stand-in data instead; otherwise it returns null and zod judges all.
+ */
+function screenSuppliedData (input: unknown): { issues: SpecIssue[], omitted: number, withoutData: Record<string, unknown> } | null {
+  if (!isRecord(input) || !isRecord(input.family) || input.family.kind !== 'supplied' || !Array.isArray(input.family.data)) return null
+  const issues: SpecIssue[] = []
+  let bad = 0
+  const report = (path: string, message: string) => {
+    if (++bad <= MAX_SPEC_ISSUES) issues.push({ path, message })
+  }
+  const rows: unknown[] = input.family.data
+  for (let mu = 0; mu < rows.length; mu++) {
+    const row = rows[mu]
+    if (!Array.isArray(row)) {
+      report(`family.data.${mu}`, `expected an array (one pattern), received ${typeName(row)}`)
+      continue
+    }
+    for (let i = 0; i < row.length; i++) {
+      if (typeof row[i] !== 'number') report(`family.data.${mu}.${i}`, `expected a number, received ${typeName(row[i])}`)
+    }
+  }
+  if (bad <= MAX_SPEC_ISSUES) return null
+  return { issues, omitted: bad - issues.length, withoutData: { ...input, family: { ...input.family, data: [[1]] } } }
+}
+
+function typeName (value: unknown): string {
+  return value === null ? 'null' : Array.isArray(value) ? 'array' : typeof value
 }
 
 function isRecord (value: unknown): value is Record<string, unknown> {

@@ -77,8 +77,12 @@ export interface Transition {
   status: SweepStatus | ''
 }
 
+/** ListQuery.owner that matches every owner's sweeps (the admin's view of a shared server). */
+export const ANY_OWNER = Symbol('any owner')
+
 export interface ListQuery {
-  owner: string | null
+  /** Whose sweeps: an owner's, null for those without an owner (a server without tokens), or ANY_OWNER for all. */
+  owner: string | null | typeof ANY_OWNER
   status?: SweepStatus
   /** Opaque cursor from a previous page. */
   cursor?: string

@@ -13,6 +13,7 @@ describe('loadConfig', () => {
       tokensFile: null,
       bodyLimit: 256 * 1024,
       rateLimit: { max: 600, windowSeconds: 60 },
+      authFailureLimit: { max: 20, windowSeconds: 300 },
       maxActiveSweepsPerOwner: 20,
       sseHeartbeatSeconds: 15,
       trustProxy: false,

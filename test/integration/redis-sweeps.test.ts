@@ -4,7 +4,7 @@
  */
 import { afterEach, beforeEach, describe, expect, it } from 'vitest'
 import { Redis } from 'ioredis'
-import { IdempotencyConflictError, type SweepQueue, type SweepRecord } from '../../src/backends/port.js'
+import { ANY_OWNER, IdempotencyConflictError, type SweepQueue, type SweepRecord } from '../../src/backends/port.js'
 import { createRedisQueue } from '../../src/backends/redis/index.js'
 import { keyLayout } from '../../src/backends/redis/keys.js'
 import { RedisSweepStore } from '../../src/backends/redis/store.js'
@@ -93,12 +93,12 @@ describe.runIf(available)('Redis backend: sweeps through the queue port', () => 
     }
     await queue.cancel(created[0]!.id)
 
-    const firstPage = await queue.list({ owner: null, limit: 2 })
+    const firstPage = await queue.list({ owner: ANY_OWNER, limit: 2 })
     expect(firstPage.items.map(item => item.id)).toEqual([created[4]!.id, created[3]!.id])
     expect(firstPage.nextCursor).toEqual(expect.any(String))
-    const secondPage = await queue.list({ owner: null, limit: 2, cursor: firstPage.nextCursor! })
+    const secondPage = await queue.list({ owner: ANY_OWNER, limit: 2, cursor: firstPage.nextCursor! })
     expect(secondPage.items.map(item => item.id)).toEqual([created[2]!.id, created[1]!.id])
-    const lastPage = await queue.list({ owner: null, limit: 2, cursor: secondPage.nextCursor! })
+    const lastPage = await queue.list({ owner: ANY_OWNER, limit: 2, cursor: secondPage.nextCursor! })
     expect(lastPage.items.map(item => item.id)).toEqual([created[0]!.id])
     expect(lastPage.nextCursor).toBeNull()
 
@@ -106,10 +106,12 @@ describe.runIf(available)('Redis backend: sweeps through the queue port', () => 
     expect(labA.items.map(item => item.id)).toEqual([created[4]!.id, created[2]!.id, created[0]!.id])
     const queuedOfA = await queue.list({ owner: 'lab-a', status: 'queued', limit: 10 })
     expect(queuedOfA.items.map(item => item.id)).toEqual([created[4]!.id, created[2]!.id])
-    const canceled = await queue.list({ owner: null, status: 'canceled', limit: 10 })
+    // null is the owner of sweeps submitted without tokens: none here.
+    expect((await queue.list({ owner: null, limit: 10 })).items).toEqual([])
+    const canceled = await queue.list({ owner: ANY_OWNER, status: 'canceled', limit: 10 })
     expect(canceled.items.map(item => item.id)).toEqual([created[0]!.id])
 
-    await expect(queue.list({ owner: null, limit: 2, cursor: 'not-a-cursor' })).rejects.toMatchObject({ name: 'InvalidCursorError' })
+    await expect(queue.list({ owner: ANY_OWNER, limit: 2, cursor: 'not-a-cursor' })).rejects.toMatchObject({ name: 'InvalidCursorError' })
   })
 
   it('drops index entries of sweeps whose retention expired', async () => {
@@ -118,7 +120,7 @@ describe.runIf(available)('Redis backend: sweeps through the queue port', () => 
     const redis = new Redis(REDIS_URL)
     try {
       await redis.del(keyLayout(prefix).sweep(expired.id).record)
-      const page = await queue.list({ owner: null, limit: 10 })
+      const page = await queue.list({ owner: ANY_OWNER, limit: 10 })
       expect(page.items.map(item => item.id)).toEqual([kept.id])
       expect(await redis.zcard(keyLayout(prefix).index)).toBe(1)
     } finally {
@@ -139,7 +141,7 @@ describe.runIf(available)('Redis backend: sweeps through the queue port', () => 
     const otherOwner = await queue.submit({ spec, owner: 'lab-b', idempotencyKey: 'batch-7' })
     expect(otherOwner.id).not.toBe(first.id)
 
-    const listed = await queue.list({ owner: null, limit: 10 })
+    const listed = await queue.list({ owner: ANY_OWNER, limit: 10 })
     expect(listed.items).toHaveLength(2)
     // The repeat enqueued nothing new: one job per chunk of each sweep.
     expect((await queue.stats()).chunksWaiting).toBe(2 * first.progress.chunksTotal)

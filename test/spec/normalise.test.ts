@@ -1,6 +1,6 @@
-import { describe, expect, it } from 'vitest'
+import { describe, expect, it, vi } from 'vitest'
 import fc from 'fast-check'
-import { normaliseSpec, SpecValidationError, SweepSpecSchema, type SpecIssue } from '../../src/spec/index.js'
+import { MAX_SPEC_ISSUES, normaliseSpec, SpecValidationError, SweepSpecSchema, type SpecIssue } from '../../src/spec/index.js'
 
 function issuesOf (input: unknown): SpecIssue[] {
   try {
@@ -173,6 +173,65 @@ describe('supplied patterns', () => {
     const issues = issuesOf({ family: { kind: 'supplied', data } })
     expect(issues).toHaveLength(21)
     expect(issues[20]).toEqual({ path: 'family.data', message: '80 more entries or rows are invalid (only the first 20 are listed)' })
+  })
+})
+
+describe('bounded issue lists', () => {
+  function refusal (input: unknown): SpecValidationError {
+    try {
+      normaliseSpec(input)
+    } catch (error) {
+      if (error instanceof SpecValidationError) return error
+      throw error
+    }
+    throw new Error('expected the spec to be refused')
+  }
+
+  /** Issues zod builds while judging `input` (what the work grows with), observed on the real schema. */
+  function zodIssuesBuilt (input: unknown): { error: SpecValidationError, built: number } {
+    const spy = vi.spyOn(SweepSpecSchema, 'safeParse')
+    try {
+      const error = refusal(input)
+      const built = spy.mock.results.reduce((sum, r) => sum + (r.value.success === true ? 0 : r.value.error.issues.length), 0)
+      return { error, built }
+    } finally {
+      spy.mockRestore()
+    }
+  }
+
+  it('lists the first 100 of 87 000 bad supplied entries, counts the rest, and never has zod judge them one by one', () => {
+    const row = Array.from({ length: 87_000 }, () => ({}))
+    const { error, built } = zodIssuesBuilt({ family: { kind: 'supplied', data: [row] }, trials: 'many' })
+    expect(error.issues).toHaveLength(MAX_SPEC_ISSUES)
+    // The other field's issue comes first, then the first 99 data entries; 86 901 entries are counted, not listed.
+    expect(error.issues[0]).toEqual({ path: 'trials', message: expect.any(String) })
+    expect(error.issues[1]).toEqual({ path: 'family.data.0.0', message: 'expected a number, received object' })
+    expect(error.issues.length + error.omitted).toBe(87_000 + 1)
+    expect(built).toBe(1)
+    expect(error.message).toContain('and 87000 more issues')
+  })
+
+  it('screens rows that are not arrays the same way', () => {
+    const { error, built } = zodIssuesBuilt({ family: { kind: 'supplied', data: Array.from({ length: 5000 }, () => 'room') } })
+    expect(error.issues).toHaveLength(MAX_SPEC_ISSUES)
+    expect(error.issues[0]).toEqual({ path: 'family.data.0', message: 'expected an array (one pattern), received string' })
+    expect(error.omitted).toBe(5000 - MAX_SPEC_ISSUES)
+    expect(built).toBe(0)
+  })
+
+  it('leaves a few bad entries to zod, with its messages, and lists them all', () => {
+    const error = refusal({ family: { kind: 'supplied', data: [[1, -1, 'x', 1], [1, null, 1, 1]] } })
+    expect(error.issues.map((issue) => issue.path)).toEqual(['family.data.0.2', 'family.data.1.1'])
+    expect(error.omitted).toBe(0)
+  })
+
+  it('lists at most 100 unknown fields and counts the rest', () => {
+    const spec: Record<string, unknown> = { neurons: 64, patterns: 2 }
+    for (let i = 0; i < 20_000; i++) spec[`room${i}`] = i
+    const error = refusal(spec)
+    expect(error.issues).toHaveLength(MAX_SPEC_ISSUES)
+    expect(error.issues[0]).toEqual({ path: 'room0', message: 'unknown field' })
+    expect(error.omitted).toBe(20_000 - MAX_SPEC_ISSUES)
   })
 })
 

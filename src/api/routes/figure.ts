@@ -8,13 +8,14 @@ import { createHash } from 'node:crypto'
 import { z } from 'zod'
 import type { FastifyReply, FastifyRequest } from 'fastify'
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod'
+import { SWEEP_ID_PATTERN } from '../../backends/port.js'
 import { ServiceError } from '../../errors.js'
 import { FigureOptionsError, FigureOptionsSchema, renderFigure } from '../../figures/index.js'
 import type { SweepResult } from '../../results/index.js'
 import { ifNoneMatchHits, sweepPath } from '../presenters.js'
-import { fieldIssue } from '../problem-reply.js'
+import { fieldIssue, listedIssues } from '../problem-reply.js'
 import { problemResponses } from '../schemas/problem.js'
-import { sweepIdSchema } from '../schemas/sweep.js'
+import { SWEEP_ID_RULE, sweepIdSchema } from '../schemas/sweep.js'
 import { visibleSweep, type RouteContext } from './context.js'
 
 interface Rendered { body: Buffer, etag: string }
@@ -28,8 +29,11 @@ const SVG_POLICY = "default-src 'none'; style-src 'unsafe-inline'"
 /** Most sweeps one overlay draws; more would not stay legible (and each is a full result in memory). */
 export const MAX_OVERLAID_SWEEPS = 8
 
+/** One id of the overlay's list: the sweep-id pattern without its anchors. */
+const SWEEP_ID_LIST_ITEM = SWEEP_ID_PATTERN.source.slice(1, -1)
+
 const overlayQuery = z.strictObject({
-  sweeps: z.string().regex(new RegExp(`^[A-Za-z0-9_-]{1,128}(,[A-Za-z0-9_-]{1,128}){0,${MAX_OVERLAID_SWEEPS - 1}}$`), `1 to ${MAX_OVERLAID_SWEEPS} sweep ids separated by commas`)
+  sweeps: z.string().regex(new RegExp(`^${SWEEP_ID_LIST_ITEM}(,${SWEEP_ID_LIST_ITEM}){0,${MAX_OVERLAID_SWEEPS - 1}}$`), `1 to ${MAX_OVERLAID_SWEEPS} sweep ids separated by commas (${SWEEP_ID_RULE})`)
     .describe(`Ids of the succeeded sweeps to overlay, separated by commas (at most ${MAX_OVERLAID_SWEEPS}); series are labelled by each sweep's label.`),
   ...FigureOptionsSchema.shape
 })
@@ -152,6 +156,6 @@ function render (results: readonly SweepResult[], options: FigureQuery): string 
       ...fieldIssue(issue.path === '' ? [] : [issue.path], issue.message),
       path: issue.path === '' ? 'querystring' : `querystring.${issue.path}`
     }))
-    throw new ServiceError('MEMSWEEP_MALFORMED_REQUEST', { reason: 'the figure options do not fit the sweep(s)' }, { extensions: { errors } })
+    throw new ServiceError('MEMSWEEP_MALFORMED_REQUEST', { reason: 'the figure options do not fit the sweep(s)' }, { extensions: listedIssues(errors) })
   }
 }

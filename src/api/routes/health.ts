@@ -5,6 +5,7 @@ import type { SweepQueue } from '../../backends/port.js'
 import { ServiceError } from '../../errors.js'
 import { problemResponses } from '../schemas/problem.js'
 import { sendProblem } from '../problem-reply.js'
+import { requireAdmin } from '../plugins/auth.js'
 
 export interface HealthRoutesOptions {
   queue: SweepQueue
@@ -57,13 +58,15 @@ export const healthRoutes: FastifyPluginAsyncZod<HealthRoutesOptions> = async (a
     schema: {
       operationId: 'getMetrics',
       summary: 'Prometheus metrics (text exposition format)',
+      description: 'Sweeps by status count every owner\'s sweeps, so on a server with tokens only an admin token may read them (others get 403); give the scraper an admin token.',
       tags: ['operations'],
       response: {
         200: { description: 'Metrics in the Prometheus text format 0.0.4.', content: { 'text/plain': { schema: z.string() } } },
-        ...problemResponses(401)
+        ...problemResponses(401, 403, 429)
       }
     }
-  }, async (_request, reply) => {
+  }, async (request, reply) => {
+    requireAdmin(request.principal, 'read the service metrics')
     const registry = app.metrics.registry
     const text = await registry.metrics()
     return reply.type(registry.contentType).send(text)
@@ -76,7 +79,7 @@ export const healthRoutes: FastifyPluginAsyncZod<HealthRoutesOptions> = async (a
       tags: ['operations'],
       response: {
         200: { description: 'The OpenAPI document (the same as openapi/openapi.json in the repository).', content: { 'application/json': { schema: z.record(z.string(), z.unknown()) } } },
-        ...problemResponses(401)
+        ...problemResponses(401, 429)
       }
     }
   }, async () => app.swagger() as Record<string, unknown>)

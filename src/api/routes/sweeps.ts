@@ -2,13 +2,13 @@
 import { z } from 'zod'
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod'
 import { ServiceError } from '../../errors.js'
-import { ActiveSweepCapError } from '../../backends/port.js'
+import { ActiveSweepCapError, ANY_OWNER } from '../../backends/port.js'
 import { SweepSpecSchema, checkLimits, estimateWork, normaliseSpec, specHash, WorkLimitError } from '../../spec/index.js'
-import { requireAction } from '../plugins/auth.js'
+import { requireAction, requireAdmin } from '../plugins/auth.js'
 import { ifNoneMatchHits, presentSweep, sweepPath, sweepStateTag } from '../presenters.js'
 import { problemResponses } from '../schemas/problem.js'
 import { sweepDetailSchema, sweepIdSchema, sweepListSchema, sweepStatusEnum, workEstimateSchema } from '../schemas/sweep.js'
-import type { Principal } from '../tokens.js'
+import { OWNER_NAME, type Principal } from '../tokens.js'
 import { specBodyValidator, visibleSweep, type RouteContext } from './context.js'
 
 const idParams = z.object({ id: sweepIdSchema })
@@ -27,7 +27,12 @@ const submitQuery = z.object({
     .describe('true: if you already have a succeeded sweep with the same spec hash, the new sweep reuses its results at once instead of running again. Default: false (a fresh run).')
 })
 
+/** `owner=*` in a listing: every owner's sweeps. */
+const EVERY_OWNER = '*'
+
 const listQuery = z.object({
+  owner: z.string().regex(new RegExp(`^(\\*|${OWNER_NAME.source.slice(1, -1)})$`), 'an owner name, or * for every owner').optional()
+    .describe('Whose sweeps: `*` for every owner\'s, or an owner\'s name. Default: your own. Only an admin token may name another owner or `*` (others get 403); on a server without tokens the single user is the admin.'),
   status: sweepStatusEnum.optional().describe('Only sweeps in this state.'),
   limit: z.coerce.number().int().min(1).max(100).default(20).describe('Page size, 1-100. Default: 20.'),
   cursor: z.string().min(1).max(200).optional().describe('Opaque position from a previous page (nextCursor, or the Link rel="next" URL).')
@@ -132,17 +137,21 @@ export const sweepRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx)
   app.get('/v1/sweeps', {
     schema: {
       operationId: 'listSweeps',
-      summary: 'List your sweeps, newest first',
-      description: 'Cursor pagination: follow `nextCursor` (or the Link header\'s rel="next" URL) until it is null.',
+      summary: 'List your sweeps (an admin: any owner\'s), newest first',
+      description: 'Cursor pagination: follow `nextCursor` (or the Link header\'s rel="next" URL, which keeps the filters) until it is null. An admin lists every owner\'s sweeps with `owner=*`, or one owner\'s with `owner=<name>`.',
       tags: ['sweeps'],
       querystring: listQuery,
-      response: { 200: sweepListSchema.describe('One page of sweeps, newest first.'), ...problemResponses(400, 401, 429) }
+      response: { 200: sweepListSchema.describe('One page of sweeps, newest first.'), ...problemResponses(400, 401, 403, 429) }
     }
   }, async (request, reply) => {
-    const { status, limit, cursor } = request.query
-    const page = await queue.list({ owner: request.principal.owner, limit, ...(status === undefined ? {} : { status }), ...(cursor === undefined ? {} : { cursor }) })
+    const { owner: asked, status, limit, cursor } = request.query
+    const principal = request.principal
+    if (asked !== undefined && asked !== principal.owner) requireAdmin(principal, 'list other owners\' sweeps')
+    const owner = asked === undefined ? principal.owner : asked === EVERY_OWNER ? ANY_OWNER : asked
+    const page = await queue.list({ owner, limit, ...(status === undefined ? {} : { status }), ...(cursor === undefined ? {} : { cursor }) })
     if (page.nextCursor !== null) {
       const next = new URLSearchParams({ limit: String(limit), cursor: page.nextCursor })
+      if (asked !== undefined) next.set('owner', asked)
       if (status !== undefined) next.set('status', status)
       reply.header('link', `</v1/sweeps?${next.toString()}>; rel="next"`)
     }
@@ -175,10 +184,10 @@ export const sweepRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx)
     schema: {
       operationId: 'cancelSweep',
       summary: 'Cancel a sweep',
-      description: 'Stops a queued or running sweep (running trials stop within about a second) and answers 202 with its record. Canceling a finished sweep changes nothing.',
+      description: 'Stops a queued or running sweep (running trials stop within about a second) and answers 202 with its record. Canceling a finished sweep changes nothing. The request needs no body; one that is sent is read like any (JSON, within the body limit) and ignored.',
       tags: ['sweeps'],
       params: idParams,
-      response: { 202: sweepDetailSchema.describe('Cancel requested: the sweep\'s record after the change.'), ...problemResponses(400, 401, 403, 404, 429) }
+      response: { 202: sweepDetailSchema.describe('Cancel requested: the sweep\'s record after the change.'), ...problemResponses(400, 401, 403, 404, 413, 415, 429) }
     }
   }, async (request, reply) => {
     const principal = request.principal

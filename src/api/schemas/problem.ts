@@ -2,11 +2,17 @@
 import { z } from 'zod'
 import { ERROR_CODES, ERRORS, type ErrorCode } from '../../errors.js'
 
+/** Most field issues one problem document lists; `errorsOmitted` counts the rest. */
+export const MAX_LISTED_ISSUES = 100
+
+/** Longest path, pointer or message an issue repeats back; longer ones are cut. */
+export const MAX_ISSUE_TEXT = 256
+
 export const fieldIssueSchema = z.object({
   path: z.string().describe('Dotted path of the offending field, e.g. `grid.load.to` or `patterns.data[3]`; empty for the whole body.'),
   pointer: z.string().describe('The same location as a JSON Pointer (RFC 6901), e.g. `/grid/load/to`.'),
   message: z.string()
-}).meta({ id: 'FieldIssue' })
+}).meta({ id: 'FieldIssue', description: `One offending field. A path, pointer or message longer than ${MAX_ISSUE_TEXT} characters (an unknown key that long, say) is cut and ends in …` })
 
 export const problemSchema = z.object({
   type: z.string().describe('URI naming the problem type: `urn:memsweep:problem:<code in kebab case>`.'),
@@ -16,7 +22,10 @@ export const problemSchema = z.object({
   instance: z.string().describe('The request path the problem occurred on.'),
   code: z.enum(ERROR_CODES).describe('Stable machine-readable code; see docs/errors.md.'),
   requestId: z.string().describe('Request id, also sent as the X-Request-Id header; quote it in bug reports.'),
-  errors: z.array(fieldIssueSchema).optional().describe('One entry per invalid field (validation problems only).'),
+  errors: z.array(fieldIssueSchema).max(MAX_LISTED_ISSUES).optional()
+    .describe(`One entry per invalid field (validation problems only), at most ${MAX_LISTED_ISSUES}.`),
+  errorsOmitted: z.number().int().nonnegative().optional()
+    .describe(`Present with \`errors\`: how many further issues were found but not listed (errors[] lists at most ${MAX_LISTED_ISSUES}); 0 when errors[] lists them all.`),
   limit: z.object({
     name: z.string(),
     value: z.number(),

@@ -1,14 +1,17 @@
 /** Public shapes of sweeps as the API shows them: status, progress, lists. */
 import { z } from 'zod'
-import { SWEEP_STATUSES } from '../../backends/port.js'
+import { SWEEP_ID_MAX_LENGTH, SWEEP_ID_PATTERN, SWEEP_STATUSES } from '../../backends/port.js'
 
 export const sweepStatusEnum = z.enum(SWEEP_STATUSES).meta({
   id: 'SweepStatusName',
   description: 'queued: waiting for a worker; running: trials are being computed; succeeded: results are ready; failed: stopped by an error (see `error.kind`); canceled: stopped on request.'
 })
 
-export const sweepIdSchema = z.string().min(1).max(128).regex(/^[A-Za-z0-9_-]+$/, 'sweep ids are letters, digits, - and _')
-  .describe('Sweep id, as returned by POST /v1/sweeps.')
+export const SWEEP_ID_RULE = `sweep ids are 1-${SWEEP_ID_MAX_LENGTH} letters, digits, - and _`
+
+/** The one sweep-id schema: every route's path parameter, the overlay's list and the OpenAPI document. */
+export const sweepIdSchema = z.string().min(1).max(SWEEP_ID_MAX_LENGTH).regex(SWEEP_ID_PATTERN, SWEEP_ID_RULE)
+  .describe(`Sweep id, as returned by POST /v1/sweeps (1-${SWEEP_ID_MAX_LENGTH} letters, digits, - and _; anything else is a 400).`)
 
 export const progressSchema = z.object({
   pointsDone: z.number().int().nonnegative().describe('Grid points whose every trial is done.'),

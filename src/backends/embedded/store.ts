@@ -13,7 +13,7 @@ import { join } from 'node:path'
 import Database from 'better-sqlite3'
 import type { NormalisedSpec } from '../../spec/index.js'
 import {
-  chunksPerPoint, CODEC_NAME, decodePlan, encodePlan, isTerminal, SWEEP_STATUSES,
+  ANY_OWNER, chunksPerPoint, CODEC_NAME, decodePlan, encodePlan, isTerminal, SWEEP_STATUSES,
   type Chunk, type ChunkOutcome, type CreateOptions, type CreateOutcome, type ListQuery, type StoredChunk, type SweepDraft,
   type SweepFailure, type SweepPage, type SweepPlan, type SweepRecord, type SweepStatus, type SweepStore, type Transition
 } from '../../sweep/index.js'
@@ -182,8 +182,10 @@ export class SqliteSweepStore implements SweepStore {
 
   async list (query: ListQuery): Promise<SweepPage> {
     const after = query.cursor === undefined ? null : decodeCursor(query.cursor)
+    const anyOwner = query.owner === ANY_OWNER
     const rows = this.#statements.list.all({
-      owner: query.owner,
+      owner: anyOwner ? null : query.owner,
+      any_owner: anyOwner ? 1 : 0,
       status: query.status ?? null,
       after_created: after?.createdMs ?? null,
       after_seq: after?.seq ?? null,
@@ -465,7 +467,7 @@ function prepareStatements (db: Database.Database) {
     // Newest first; `owner IS @owner` matches NULL (tokens off) as well as a name.
     list: db.prepare(`
       SELECT * FROM sweeps
-      WHERE owner IS @owner
+      WHERE (@any_owner = 1 OR owner IS @owner)
         AND (@status IS NULL OR status = @status)
         AND (@after_created IS NULL OR created_ms < @after_created OR (created_ms = @after_created AND seq < @after_seq))
       ORDER BY created_ms DESC, seq DESC

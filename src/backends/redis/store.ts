@@ -8,7 +8,7 @@
 import type { Redis } from 'ioredis'
 import type { NormalisedSpec } from '../../spec/index.js'
 import {
-  chunksPerPoint, SWEEP_STATUSES,
+  ANY_OWNER, chunksPerPoint, SWEEP_STATUSES,
   type Chunk, type ChunkOutcome, type CreateOptions, type CreateOutcome, type IdempotencyBinding, type ListQuery, type StoredChunk,
   type SweepDraft, type SweepFailure, type SweepPage, type SweepPlan, type SweepRecord, type SweepStatus, type SweepStore, type Transition
 } from '../../sweep/index.js'
@@ -229,7 +229,9 @@ export class RedisSweepStore implements SweepStore {
   }
 
   async list (query: ListQuery): Promise<SweepPage> {
-    const index = query.owner === null ? this.keys.index : this.keys.ownerIndex(query.owner)
+    // Every sweep is in the global index and an owned one also in its owner's.
+    const owner = query.owner
+    const index = owner === null || owner === ANY_OWNER ? this.keys.index : this.keys.ownerIndex(owner)
     let upper = query.cursor === undefined ? '+' : `(${decodeListCursor(query.cursor)}`
     const items: SweepRecord[] = []
     let lastMember: string | null = null
@@ -251,6 +253,7 @@ export class RedisSweepStore implements SweepStore {
           continue
         }
         if (query.status !== undefined && record.status !== query.status) continue
+        if (owner === null && record.owner !== null) continue
         if (items.length === query.limit) {
           more = true
           break

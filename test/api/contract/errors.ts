@@ -1,6 +1,7 @@
 /** Contract: every error status is an RFC 9457 problem document naming what went wrong. */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import type { SweepQueue } from '../../../src/backends/port.js'
+import { SweepSpecSchema } from '../../../src/spec/index.js'
 import { createHarness, isTerminal, type Harness, type QueueFactory } from '../helpers/harness.js'
 import { expectProblem } from '../helpers/problems.js'
 import { heldSpec, quickSpec } from '../helpers/specs.js'
@@ -51,6 +52,32 @@ export function errorsContract (factory: QueueFactory): void {
       expectProblem(badId, 400, 'MEMSWEEP_MALFORMED_REQUEST')
     })
 
+    it('400 problem naming params.id for any id that is not 1-64 letters, digits, - and _, however long; 404 for a well-formed unknown one', async () => {
+      const routes = (id: string) => [
+        ['GET', `/v1/sweeps/${id}`], ['DELETE', `/v1/sweeps/${id}`], ['GET', `/v1/sweeps/${id}/results`],
+        ['GET', `/v1/sweeps/${id}/events`], ['GET', `/v1/sweeps/${id}/figure.svg`]
+      ] as const
+      for (const length of [65, 100, 101, 128, 129, 200, 5000]) {
+        for (const [method, url] of routes('r'.repeat(length))) {
+          const problem = expectProblem(await h.request({ method, url }), 400, 'MEMSWEEP_MALFORMED_REQUEST')
+          expect(problem.errors, `${method} ${length}`).toEqual([{ path: 'params.id', pointer: '/id', message: expect.stringContaining('1-64') }])
+          expect(problem.errorsOmitted).toBe(0)
+        }
+      }
+      for (const [method, url] of routes('r'.repeat(64))) expectProblem(await h.request({ method, url }), 404, 'MEMSWEEP_SWEEP_NOT_FOUND')
+      const overlay = await h.request({ method: 'GET', url: `/v1/figures/overlay.svg?sweeps=${'r'.repeat(65)}` })
+      expect(expectProblem(overlay, 400, 'MEMSWEEP_MALFORMED_REQUEST').errors[0].path).toBe('querystring.sweeps')
+    })
+
+    it('400 problem with a request id for a path that is not valid percent-encoding', async () => {
+      for (const url of ['/v1/sweeps/%E0%A4%A', '/v1/sw%zzeeps', '/v1/sweeps/ab%C0/results']) {
+        const res = await h.request({ method: 'GET', url, headers: { 'x-request-id': 'lab-pipeline-7' } })
+        const problem = expectProblem(res, 400, 'MEMSWEEP_MALFORMED_REQUEST')
+        expect(problem.requestId).toBe('lab-pipeline-7')
+        expect(problem.detail).toContain('percent-encoded')
+      }
+    })
+
     it('404 for an unknown sweep and for an unknown route', async () => {
       const sweep = await h.request({ method: 'GET', url: '/v1/sweeps/0b7e1a52-0000-4000-8000-000000000000' })
       expect(expectProblem(sweep, 404, 'MEMSWEEP_SWEEP_NOT_FOUND').instance).toBe('/v1/sweeps/0b7e1a52-0000-4000-8000-000000000000')
@@ -83,6 +110,23 @@ export function errorsContract (factory: QueueFactory): void {
       }
       const notAnObject = await h.request({ method: 'POST', url: '/v1/sweeps', payload: [1, 2, 3] })
       expectProblem(notAnObject, 422, 'MEMSWEEP_SPEC_INVALID')
+    })
+
+    it('422 listing at most 100 issues, with the number of the rest, however many a spec has', async () => {
+      const spec: Record<string, unknown> = { neurons: 64, patterns: 2 }
+      for (let i = 0; i < 150; i++) spec[`room${i}`] = i
+      const res = await h.request({ method: 'POST', url: '/v1/sweeps/validate', payload: spec })
+      const problem = expectProblem(res, 422, 'MEMSWEEP_SPEC_INVALID')
+      expect(problem.errors).toHaveLength(100)
+      expect(problem.errorsOmitted).toBe(50)
+      expect(problem.detail).toContain('150 problem(s)')
+      const few = expectProblem(await h.request({ method: 'POST', url: '/v1/sweeps', payload: { neurons: 64, patterns: 2, colour: 'blue' } }), 422, 'MEMSWEEP_SPEC_INVALID')
+      expect(few).toMatchObject({ errors: [{ path: 'colour' }], errorsOmitted: 0 })
+      const longKey = 'k'.repeat(3000)
+      const cut = expectProblem(await h.request({ method: 'POST', url: '/v1/sweeps/validate', payload: { neurons: 64, patterns: 2, [longKey]: 1 } }), 422, 'MEMSWEEP_SPEC_INVALID')
+      expect(cut.errors[0].path).toHaveLength(256)
+      expect(cut.errors[0].path.endsWith('…')).toBe(true)
+      expect(Buffer.byteLength(JSON.stringify(cut))).toBeLessThan(2000)
     })
 
     it('422 naming the work limit a spec exceeds, before anything runs; validate reports the same limit', async () => {
@@ -129,6 +173,37 @@ export function errorsContract (factory: QueueFactory): void {
       expectProblem(notReady, 503, 'MEMSWEEP_NOT_READY')
       const live = await h.request({ method: 'GET', url: '/healthz' })
       expect(live.statusCode).toBe(200)
+    })
+  })
+
+  describe('a huge bad spec', () => {
+    let h: Harness
+    // The default BODY_LIMIT (256 KiB), which a spec of 87 000 bad entries fits.
+    beforeAll(async () => { h = await createHarness(factory) })
+    afterAll(async () => { await h.close() })
+
+    it('gets a small 422 with the count of the issues not listed, and zod never judges its entries one by one', async () => {
+      const payload = `{"family":{"kind":"supplied","data":[[${Array.from({ length: 87_000 }, () => '{}').join(',')}]]},"trials":"many"}`
+      expect(payload.length).toBeGreaterThan(260_000)
+      // The issues the validator builds are what the work grows with; observed on the real schema.
+      const built = vi.spyOn(SweepSpecSchema, 'safeParse')
+      let res
+      try {
+        res = await h.request({ method: 'POST', url: '/v1/sweeps', payload, headers: { 'content-type': 'application/json' } })
+        const issuesBuilt = built.mock.results.reduce((sum, r) => sum + (r.value.success === true ? 0 : r.value.error.issues.length), 0)
+        expect(issuesBuilt).toBe(1)
+      } finally {
+        built.mockRestore()
+      }
+      const problem = expectProblem(res, 422, 'MEMSWEEP_SPEC_INVALID')
+      expect(Buffer.byteLength(res.body)).toBeLessThan(16 * 1024)
+      expect(problem.errors).toHaveLength(100)
+      expect(problem.errors[0]).toMatchObject({ path: 'trials' })
+      expect(problem.errors[1]).toEqual({ path: 'family.data[0][0]', pointer: '/family/data/0/0', message: 'expected a number, received object' })
+      // 87 000 bad entries and the bad trials: 100 listed, 86 901 counted.
+      expect(problem.errorsOmitted).toBe(86_901)
+      expect(problem.detail).toContain('87001 problem(s)')
+      expect((await h.queue.stats()).queued).toBe(0)
     })
   })
 

@@ -72,14 +72,82 @@ export function tokensContract (factory: QueueFactory): void {
       expect(canceled.statusCode).toBe(202)
     })
 
-    it('scopes idempotency keys and the metrics route to a valid token', async () => {
-      const metrics = await h.request({ method: 'GET', url: '/metrics', headers: as(CAROL) })
-      expect(metrics.statusCode).toBe(200)
+    it('shows /metrics (sweeps by status count every owner\'s) to admin tokens only', async () => {
+      const admin = await h.request({ method: 'GET', url: '/metrics', headers: as(LAB) })
+      expect(admin.statusCode).toBe(200)
+      expect(admin.body).toMatch(/^memsweep_sweeps\{status="succeeded"\} \d+$/m)
+      for (const token of [ALICE, CAROL]) {
+        const refused = await h.request({ method: 'GET', url: '/metrics', headers: as(token) })
+        expect(expectProblem(refused, 403, 'MEMSWEEP_FORBIDDEN').detail).toContain('metrics')
+        expect(refused.body).not.toContain('memsweep_sweeps')
+      }
+    })
+
+    it('lists every owner\'s sweeps for an admin with owner=* (or one owner\'s with owner=<name>), paging across owners', async () => {
+      const bobSweep = (await h.request({ method: 'POST', url: '/v1/sweeps', payload: quickSpec(72), headers: as(BOB) })).json().id as string
+      await h.waitFor(bobSweep, isTerminal)
+      const own = (await h.request({ method: 'GET', url: '/v1/sweeps', headers: as(LAB) })).json()
+      expect(own.items).toEqual([])
+      const everyone = (await h.request({ method: 'GET', url: '/v1/sweeps?owner=*&limit=100', headers: as(LAB) })).json()
+      expect(everyone.items.map((i: { id: string }) => i.id)).toEqual(expect.arrayContaining([aliceSweep, bobSweep]))
+      expect(new Set(everyone.items.map((i: { owner: string }) => i.owner))).toEqual(new Set(['alice', 'bob']))
+      const bobs = (await h.request({ method: 'GET', url: '/v1/sweeps?owner=bob', headers: as(LAB) })).json()
+      expect(bobs.items.map((i: { id: string }) => i.id)).toEqual([bobSweep])
+
+      // Newest first across owners; the Link keeps owner=* so every page spans owners.
+      const first = await h.request({ method: 'GET', url: '/v1/sweeps?owner=*&limit=1', headers: as(LAB) })
+      expect(first.json().items.map((i: { id: string }) => i.id)).toEqual([bobSweep])
+      const next = /^<([^>]+)>; rel="next"$/.exec(String(first.headers.link))![1]!
+      expect(new URL(next, 'http://x').searchParams.get('owner')).toBe('*')
+      const second = (await h.request({ method: 'GET', url: next, headers: as(LAB) })).json()
+      expect(second.items.map((i: { owner: string }) => i.owner)).toEqual(['alice'])
+
+      for (const query of ['owner=*', 'owner=bob']) {
+        const refused = await h.request({ method: 'GET', url: `/v1/sweeps?${query}`, headers: as(ALICE) })
+        expect(expectProblem(refused, 403, 'MEMSWEEP_FORBIDDEN').detail).toContain('other owners')
+      }
+      const self = (await h.request({ method: 'GET', url: '/v1/sweeps?owner=alice', headers: as(ALICE) })).json()
+      expect(self.items.map((i: { id: string }) => i.id)).toEqual([aliceSweep])
+      expectProblem(await h.request({ method: 'GET', url: '/v1/sweeps?owner=a%20b', headers: as(LAB) }), 400, 'MEMSWEEP_MALFORMED_REQUEST')
+    })
+
+    it('scopes idempotency keys to the owner', async () => {
       const key = 'shared-key-1'
       const a = (await h.request({ method: 'POST', url: '/v1/sweeps', payload: quickSpec(81), headers: { ...as(ALICE), 'idempotency-key': key } })).json()
       const b = (await h.request({ method: 'POST', url: '/v1/sweeps', payload: quickSpec(81), headers: { ...as(BOB), 'idempotency-key': key } })).json()
       expect(b.id).not.toBe(a.id)
       expect(b.owner).toBe('bob')
+    })
+  })
+
+  describe('failed authentication', () => {
+    let h: Harness
+    beforeAll(async () => {
+      h = await createHarness(factory, {
+        tokens: [`alice:${ALICE}`, `lab:${LAB}:admin`],
+        env: { AUTH_FAILURE_MAX: '3', AUTH_FAILURE_WINDOW: '600' }
+      })
+    })
+    afterAll(async () => { await h.close() })
+
+    it('429 with Retry-After once an address has failed AUTH_FAILURE_MAX times; valid tokens from it still pass', async () => {
+      const attempts = [as('guess-number-one-000'), {}, as('guess-number-two-000')]
+      for (const headers of attempts) expectProblem(await h.request({ method: 'GET', url: '/v1/sweeps', headers }), 401, 'MEMSWEEP_UNAUTHENTICATED')
+      for (const [url, headers] of [['/v1/sweeps', as('guess-number-three-0')], ['/metrics', {}], ['/v1/sweeps/any-id', as(`${ALICE}x`)]] as const) {
+        const limited = await h.request({ method: 'GET', url, headers })
+        const problem = expectProblem(limited, 429, 'MEMSWEEP_TOO_MANY_AUTH_FAILURES')
+        expect(Number(limited.headers['retry-after'])).toBeGreaterThan(0)
+        expect(Number(limited.headers['retry-after'])).toBeLessThanOrEqual(600)
+        expect(problem.retryAfter).toBe(Number(limited.headers['retry-after']))
+        expect(problem.detail).toContain('More than 3')
+      }
+      // Colleagues behind the same address, with valid tokens, are not refused.
+      expect((await h.request({ method: 'GET', url: '/v1/sweeps', headers: as(ALICE) })).statusCode).toBe(200)
+      expect((await h.request({ method: 'GET', url: '/metrics', headers: as(LAB) })).statusCode).toBe(200)
+      expect((await h.request({ method: 'GET', url: '/healthz' })).statusCode).toBe(200)
+      // Another address has its own count.
+      const elsewhere = await h.request({ method: 'GET', url: '/v1/sweeps', headers: as('guess-number-four-00'), remoteAddress: '192.0.2.7' })
+      expectProblem(elsewhere, 401, 'MEMSWEEP_UNAUTHENTICATED')
     })
   })
 }
