@@ -37,7 +37,8 @@ const envSchema = z.object({
   MAX_GRID_POINTS: z.preprocess(emptyAsUnset, positiveInt.optional()),
   MAX_TRIALS: z.preprocess(emptyAsUnset, positiveInt.optional()),
   MAX_MEMORY_MB: z.preprocess(emptyAsUnset, positiveInt.optional()),
-  MAX_CPU_SECONDS: z.preprocess(emptyAsUnset, positiveInt.optional())
+  MAX_CPU_SECONDS: z.preprocess(emptyAsUnset, positiveInt.optional()),
+  MAX_STORED_MB: z.preprocess(emptyAsUnset, positiveInt.optional())
 })
 
 /** Work limits that override the spec layer's defaults; unset fields keep the default. */
@@ -86,6 +87,7 @@ export function loadConfig (env: Record<string, string | undefined>): Config {
   if (e.MAX_TRIALS !== undefined) limits.maxTrials = e.MAX_TRIALS
   if (e.MAX_MEMORY_MB !== undefined) limits.maxBytes = e.MAX_MEMORY_MB * 1024 * 1024
   if (e.MAX_CPU_SECONDS !== undefined) limits.maxCpuSeconds = e.MAX_CPU_SECONDS
+  if (e.MAX_STORED_MB !== undefined) limits.maxStoredBytes = e.MAX_STORED_MB * 1024 * 1024
   return deepFreeze({
     port: e.PORT,
     host: e.HOST,

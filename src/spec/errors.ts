@@ -30,7 +30,8 @@ export class SpecValidationError extends Error {
   }
 }
 
-export type WorkLimitName = 'maxNeurons' | 'maxPoints' | 'maxTrials' | 'maxBytes' | 'maxCpuSeconds'
+export const WORK_LIMIT_NAMES = ['maxNeurons', 'maxPoints', 'maxTrials', 'maxBytes', 'maxCpuSeconds', 'maxStoredBytes'] as const
+export type WorkLimitName = typeof WORK_LIMIT_NAMES[number]
 
 /** The spec is valid but asks for more than this service allows; raised before anything is allocated. */
 export class WorkLimitError extends RangeError {

@@ -3,7 +3,7 @@
  * limits on it. Everything here uses counts and estimates only: a sweep is refused
  * before any network is allocated.
  */
-import { estimatePointCost } from '../engine/index.js'
+import { estimatePointCost, type PointParams } from '../engine/index.js'
 import { pointsToCheck } from './analysis/normalise.js'
 import { searchTrialBudget } from './analysis/budget.js'
 import { WorkLimitError, type WorkLimitName } from './errors.js'
@@ -32,6 +32,33 @@ export const ENGINE_OPS_PER_CPU_SECOND = 1.9e8
 /** Chunks aim at this much CPU time each (between ~1 and ~10 s on the measured machine). */
 export const TARGET_CHUNK_SECONDS = 3
 
+/**
+ * Engine operations every trial costs besides its neuron visits: opening its streams, the
+ * cue, the record. Measured with N = 10-100, P = 1-5 and 20 000 trials (a new network per
+ * trial): 2 800-3 800 operations a trial (15-20 µs on the development machine under load);
+ * without it a tiny network's CPU time was estimated 40-45× too low.
+ */
+export const TRIAL_OVERHEAD_OPS = 3000
+
+/**
+ * Stored size of one trial record (V8-serialised, as chunks keep it): a fixed part, a
+ * stability summary where measured, and 8-byte doubles of each recorded trajectory.
+ * Measured: 152 B plain, 225 B with stability, 3.8 kB with two 200-step trajectories
+ * (test/spec/work.test.ts checks the estimate against encoded chunks).
+ */
+const RECORD_BASE_BYTES = 200
+const RECORD_STABILITY_BYTES = 100
+const TRAJECTORY_VALUE_BYTES = 10
+
+/** A record held in memory (a JS object, arrays of doubles) takes about this many times its stored size. */
+const RECORD_MEMORY_FACTOR = 2
+
+/** A result row (summary, theory values) in stored form, and in JSON or CSV, per grid point. */
+const ROW_BYTES = 4096
+
+/** A chunk's trial records are kept to about this much memory (the plan cuts longer runs of trials). */
+export const CHUNK_RECORD_BYTES = 32 * 1024 * 1024
+
 export interface WorkLimits {
   /** Largest network size N at any grid point. */
   maxNeurons: number
@@ -43,6 +70,8 @@ export interface WorkLimits {
   maxBytes: number
   /** Largest estimated total CPU time, in seconds (all workers together); omitted = no limit. */
   maxCpuSeconds?: number
+  /** Largest estimated storage of one sweep: its trial records and its result, in bytes. */
+  maxStoredBytes: number
 }
 
 /** Limits for a single shared machine; operators override them in the service config. */
@@ -51,7 +80,8 @@ export const DEFAULT_LIMITS: Readonly<Required<WorkLimits>> = Object.freeze({
   maxPoints: 10_000,
   maxTrials: 10_000_000,
   maxBytes: 1024 * 1024 * 1024,
-  maxCpuSeconds: 24 * 3600
+  maxCpuSeconds: 24 * 3600,
+  maxStoredBytes: 4 * 1024 * 1024 * 1024
 })
 
 export interface WorkEstimate {
@@ -62,10 +92,16 @@ export interface WorkEstimate {
   trials: number
   /** Expected neuron visits over the whole sweep. */
   neuronUpdates: number
-  /** Largest memory one worker holds while running any single point, in bytes. */
+  /**
+   * Largest memory one worker holds at once, in bytes: the network and scratch of the costliest
+   * point plus a chunk's trial records, or the trial records of one point while its result is
+   * assembled, whichever is more.
+   */
   peakBytes: number
   /** Estimated CPU time of the whole sweep on one core of the measured machine. */
   cpuSeconds: number
+  /** Estimated storage of the sweep: every trial record (as chunks keep them) and the result rows, in bytes. */
+  storedBytes: number
 }
 
 // MAIN //
@@ -73,7 +109,23 @@ export interface WorkEstimate {
 /** The estimated work of one point's `trials` trials, in engine operations. */
 export function pointOps (cost: ReturnType<typeof estimatePointCost>, trials: number, trialsPerNetwork: number): number {
   const networks = Math.ceil(trials / trialsPerNetwork)
-  return trials * cost.neuronUpdatesPerTrial * cost.opsPerVisit + networks * cost.buildOpsPerNetwork
+  return trials * (cost.neuronUpdatesPerTrial * cost.opsPerVisit + TRIAL_OVERHEAD_OPS) + networks * cost.buildOpsPerNetwork
+}
+
+/** Values a trajectory of one trial may hold: one per sweep (or step), plus the start. */
+function trajectoryLength (params: PointParams): number {
+  return params.dynamics.maxSweeps + 1
+}
+
+/** Estimated stored size of one trial record of a point, in bytes. */
+export function trialRecordBytes (params: PointParams): number {
+  const trajectories = (params.measures.overlapTrajectory ? 1 : 0) + (params.measures.energyTrajectory ? 1 : 0)
+  return RECORD_BASE_BYTES + (params.measures.stability ? RECORD_STABILITY_BYTES : 0) + trajectories * trajectoryLength(params) * TRAJECTORY_VALUE_BYTES
+}
+
+/** Estimated memory of one trial record of a point held as a JavaScript object, in bytes. */
+export function trialRecordMemory (params: PointParams): number {
+  return RECORD_MEMORY_FACTOR * trialRecordBytes(params)
 }
 
 /** Trials one grid point may run: `trials`, or for a search its whole budget. */
@@ -93,17 +145,24 @@ export function estimateWork (spec: NormalisedSpec): WorkEstimate {
   let neuronUpdates = 0
   let ops = 0
   let peakBytes = 0
+  let storedBytes = points * ROW_BYTES
   for (let index = 0; index < points; index++) {
     let pointUpdates = 0
     let pointWork = 0
+    let pointStored = 0
     for (const { params } of spec.analysis === undefined ? [pointAt(spec, index)] : pointsToCheck(spec, index)) {
       const cost = estimatePointCost(params)
       pointUpdates = Math.max(pointUpdates, trials * cost.neuronUpdatesPerTrial)
       pointWork = Math.max(pointWork, steps * pointOps(cost, spec.trials, params.trialsPerNetwork))
-      peakBytes = Math.max(peakBytes, cost.bytes)
+      // A search keeps step summaries, not records: one step's records live at a time.
+      const records = spec.analysis === undefined ? trials : spec.trials
+      const recordsMemory = Math.min(records, maxChunkTrials(params)) * trialRecordMemory(params)
+      peakBytes = Math.max(peakBytes, cost.bytes + recordsMemory, records * trialRecordMemory(params))
+      if (spec.analysis === undefined) pointStored = Math.max(pointStored, trials * trialRecordBytes(params))
     }
     neuronUpdates += pointUpdates
     ops += pointWork
+    storedBytes += pointStored
   }
   return {
     points,
@@ -111,8 +170,14 @@ export function estimateWork (spec: NormalisedSpec): WorkEstimate {
     trials: points * trials,
     neuronUpdates,
     peakBytes,
-    cpuSeconds: ops / ENGINE_OPS_PER_CPU_SECOND
+    cpuSeconds: ops / ENGINE_OPS_PER_CPU_SECOND,
+    storedBytes
   }
+}
+
+/** Most trials one chunk of this point may hold, so its records stay near CHUNK_RECORD_BYTES in memory. */
+export function maxChunkTrials (params: PointParams): number {
+  return Math.max(1, Math.floor(CHUNK_RECORD_BYTES / trialRecordMemory(params)))
 }
 
 /**
@@ -129,6 +194,7 @@ export function checkLimits (spec: NormalisedSpec, limits: WorkLimits): WorkEsti
   exceeds('maxTrials', points * trialsPerPoint(spec), limits.maxTrials)
   const estimate = estimateWork(spec)
   exceeds('maxBytes', estimate.peakBytes, limits.maxBytes)
+  exceeds('maxStoredBytes', estimate.storedBytes, limits.maxStoredBytes)
   if (limits.maxCpuSeconds !== undefined) exceeds('maxCpuSeconds', Math.ceil(estimate.cpuSeconds), limits.maxCpuSeconds)
   return estimate
 }

@@ -46,21 +46,36 @@ export function makeProvenance (spec: NormalisedSpec, facts: RuntimeFacts, timin
 
 /**
  * The result from stored chunks, as a store keeps it: rows (or searches) and provenance,
- * without the trial records, which stay in the chunks.
+ * without the trial records, which stay in the chunks. Points are assembled one at a time:
+ * only one point's records are decoded at once, so the memory an assembly needs is that of
+ * the largest point (what the work estimate counts), never that of the whole sweep.
  *
  * @throws {IncompleteResultError} when a chunk of the plan is missing or does not hold its trials.
  */
 export function assembleStored (spec: NormalisedSpec, plan: readonly Chunk[], stored: readonly StoredChunk[], provenance: Provenance): SweepResult {
   const bodies = new Map(stored.map((chunk) => [chunk.index, chunk.body]))
-  const results: ChunkResult[] = []
-  const missing: number[] = []
+  const missing = plan.filter((chunk) => !bodies.has(chunk.index))
+  if (missing.length > 0) throw new IncompleteResultError([`${missing.length} of ${plan.length} chunks are not stored (first: ${missing[0]!.index})`])
+  const decode = (chunk: Chunk): ChunkResult => ({ ...decodeValue<ChunkResult>(bodies.get(chunk.index)!), chunk: chunk.index, point: chunk.point })
+  if (spec.analysis !== undefined) return { ...assembleResult(spec, plan.map(decode), provenance), trials: [] }
+
+  const hash = specHash(spec)
+  if (provenance.specHash !== hash) throw new RangeError(`invalid argument. The provenance is for spec ${provenance.specHash}, not ${hash}.`)
+  const chunksOfPoint = new Map<number, Chunk[]>()
   for (const chunk of plan) {
-    const body = bodies.get(chunk.index)
-    if (body === undefined) missing.push(chunk.index)
-    else results.push({ ...decodeValue<ChunkResult>(body), chunk: chunk.index, point: chunk.point })
+    const list = chunksOfPoint.get(chunk.point)
+    if (list === undefined) chunksOfPoint.set(chunk.point, [chunk])
+    else list.push(chunk)
   }
-  if (missing.length > 0) throw new IncompleteResultError([`${missing.length} of ${plan.length} chunks are not stored (first: ${missing[0]!})`])
-  return { ...assembleResult(spec, results, provenance), trials: [] }
+  const fastPaths = new Set<string>()
+  const rows: ResultRow[] = []
+  for (let point = 0; point < countPoints(spec); point++) {
+    const results = (chunksOfPoint.get(point) ?? []).map(decode)
+    for (const result of results) if (result.fastPath !== undefined) fastPaths.add(result.fastPath)
+    rows.push(resultRow(spec, point, placePointTrials(spec, point, results)))
+  }
+  if (provenance.fastPath === undefined && fastPaths.size > 0) provenance = { ...provenance, fastPath: [...fastPaths].sort().join(', ') }
+  return { specHash: hash, spec, rows, trials: [], provenance: sortKeysDeep(provenance) }
 }
 
 /**
@@ -83,19 +98,22 @@ export function assembleResult (spec: NormalisedSpec, chunkResults: readonly Chu
     return sortKeysDeep({ specHash: hash, spec, rows: [], trials: [], ...analysed, provenance })
   }
   const trials = placeTrials(spec, chunkResults)
-  const rows: ResultRow[] = trials.map((pointTrials, point) => {
-    const { values, params } = pointAt(spec, point)
-    const theory = theoryForPoint(params)
-    return {
-      point,
-      values,
-      params: { alpha: params.patterns / params.neurons, neurons: params.neurons, patterns: params.patterns },
-      summary: aggregatePoint(params, pointTrials),
-      theory: sortKeysDeep(theory.values),
-      theoryUnavailable: sortKeysDeep(theory.unavailable)
-    }
-  })
+  const rows = trials.map((pointTrials, point) => resultRow(spec, point, pointTrials))
   return { specHash: hash, spec, rows, trials, provenance: sortKeysDeep(provenance) }
+}
+
+/** One grid point's row: its parameters, the summary of its trials in trial order, its theory values. */
+function resultRow (spec: NormalisedSpec, point: number, pointTrials: readonly TrialRecord[]): ResultRow {
+  const { values, params } = pointAt(spec, point)
+  const theory = theoryForPoint(params)
+  return {
+    point,
+    values,
+    params: { alpha: params.patterns / params.neurons, neurons: params.neurons, patterns: params.patterns },
+    summary: aggregatePoint(params, pointTrials),
+    theory: sortKeysDeep(theory.values),
+    theoryUnavailable: sortKeysDeep(theory.unavailable)
+  }
 }
 
 /** The trial records of stored chunks, trials[point][trial], for readers that ask for them. */
@@ -108,17 +126,36 @@ export function storedTrials (spec: NormalisedSpec, plan: readonly Chunk[], stor
   }))
 }
 
+/** The trials of one point from its chunks' results, in trial order (see placeTrials). */
+function placePointTrials (spec: NormalisedSpec, point: number, chunkResults: readonly ChunkResult[]): TrialRecord[] {
+  const slot = new Array<TrialRecord | undefined>(spec.trials)
+  const problems = fillSlot(spec, point, slot, chunkResults)
+  if (problems.length > 0) throw new IncompleteResultError(problems)
+  return slot as TrialRecord[]
+}
+
 function placeTrials (spec: NormalisedSpec, chunkResults: readonly ChunkResult[]): TrialRecord[][] {
   const points = countPoints(spec)
-  const slots: Array<Array<TrialRecord | undefined>> = Array.from({ length: points }, () => new Array<TrialRecord | undefined>(spec.trials))
   const problems: string[] = []
-  const ordered = [...chunkResults].sort((a, b) => a.chunk - b.chunk)
-  for (const result of ordered) {
-    if (!(Number.isSafeInteger(result.point) && result.point >= 0 && result.point < points)) {
-      problems.push(`chunk ${result.chunk} names point ${result.point}, outside the grid of ${points}`)
-      continue
-    }
-    const slot = slots[result.point]!
+  const byPoint: ChunkResult[][] = Array.from({ length: points }, () => [])
+  for (const result of chunkResults) {
+    if (Number.isSafeInteger(result.point) && result.point >= 0 && result.point < points) byPoint[result.point]!.push(result)
+    else problems.push(`chunk ${result.chunk} names point ${result.point}, outside the grid of ${points}`)
+  }
+  const slots: Array<Array<TrialRecord | undefined>> = Array.from({ length: points }, () => new Array<TrialRecord | undefined>(spec.trials))
+  for (let point = 0; point < points; point++) problems.push(...fillSlot(spec, point, slots[point]!, byPoint[point]!))
+  if (problems.length > 0) throw new IncompleteResultError(problems)
+  return slots as TrialRecord[][]
+}
+
+/**
+ * Places one point's trial records by their trial index, never by arrival, and lists what
+ * is wrong: trials outside the point, trials delivered twice with different content (a
+ * retried chunk may be delivered twice; identical records are harmless), missing trials.
+ */
+function fillSlot (spec: NormalisedSpec, point: number, slot: Array<TrialRecord | undefined>, chunkResults: readonly ChunkResult[]): string[] {
+  const problems: string[] = []
+  for (const result of [...chunkResults].sort((a, b) => a.chunk - b.chunk)) {
     let outside = 0
     let conflicting = 0
     for (const record of result.trials) {
@@ -128,19 +165,14 @@ function placeTrials (spec: NormalisedSpec, chunkResults: readonly ChunkResult[]
         continue
       }
       const earlier = slot[t]
-      // A retried chunk may be delivered twice; identical records are harmless, different ones are a bug.
       if (earlier === undefined) slot[t] = record
       else if (earlier !== record && canonicalJson(earlier) !== canonicalJson(record)) conflicting++
     }
-    if (outside > 0) problems.push(`chunk ${result.chunk} holds ${outside} trial(s) of point ${result.point} outside 0…${spec.trials - 1}`)
-    if (conflicting > 0) problems.push(`chunk ${result.chunk} delivered ${conflicting} trial(s) of point ${result.point} twice with different content`)
+    if (outside > 0) problems.push(`chunk ${result.chunk} holds ${outside} trial(s) of point ${point} outside 0…${spec.trials - 1}`)
+    if (conflicting > 0) problems.push(`chunk ${result.chunk} delivered ${conflicting} trial(s) of point ${point} twice with different content`)
   }
-  for (let point = 0; point < points; point++) {
-    const slot = slots[point]!
-    let missing = 0
-    for (let t = 0; t < spec.trials; t++) if (slot[t] === undefined) missing++
-    if (missing > 0) problems.push(`point ${point} is missing ${missing} of ${spec.trials} trials`)
-  }
-  if (problems.length > 0) throw new IncompleteResultError(problems)
-  return slots as TrialRecord[][]
+  let missing = 0
+  for (let t = 0; t < spec.trials; t++) if (slot[t] === undefined) missing++
+  if (missing > 0) problems.push(`point ${point} is missing ${missing} of ${spec.trials} trials`)
+  return problems
 }

@@ -7,7 +7,7 @@
  * and who runs them in which order, never changes a result.
  */
 import { estimatePointCost } from '../engine/index.js'
-import { countPoints, pointAt, pointOps, searchTrialBudget, ENGINE_OPS_PER_CPU_SECOND, TARGET_CHUNK_SECONDS } from '../spec/index.js'
+import { countPoints, maxChunkTrials, pointAt, pointOps, searchTrialBudget, ENGINE_OPS_PER_CPU_SECOND, TARGET_CHUNK_SECONDS } from '../spec/index.js'
 import type { NormalisedSpec } from '../spec/index.js'
 
 // VARIABLES //
@@ -37,9 +37,10 @@ export interface SweepPlan {
 /**
  * A threshold-search spec gets one chunk per outer grid point (a search is sequential).
  * Otherwise each point's trials are split into balanced chunks of about
- * TARGET_CHUNK_SECONDS of estimated CPU time. Chunk boundaries fall on network boundaries
- * (multiples of trialsPerNetwork) where a chunk holds at least one network, so no network
- * is built twice.
+ * TARGET_CHUNK_SECONDS of estimated CPU time, and of at most maxChunkTrials trials, so a
+ * chunk's records stay small in memory and in storage however cheap its trials are. Chunk
+ * boundaries fall on network boundaries (multiples of trialsPerNetwork) where a chunk holds
+ * at least one network, so no network is built twice.
  */
 export function planSweep (spec: NormalisedSpec): SweepPlan {
   return { version: PLAN_VERSION, chunks: spec.analysis === undefined ? gridChunks(spec) : searchChunks(spec) }
@@ -52,10 +53,11 @@ function gridChunks (spec: NormalisedSpec): Chunk[] {
   for (let point = 0; point < points; point++) {
     const { params } = pointAt(spec, point)
     const seconds = pointOps(estimatePointCost(params), trials, params.trialsPerNetwork) / ENGINE_OPS_PER_CPU_SECOND
-    const pieces = Math.min(trials, Math.max(1, Math.ceil(seconds / TARGET_CHUNK_SECONDS)))
+    const cap = maxChunkTrials(params)
+    const pieces = Math.min(trials, Math.max(1, Math.ceil(seconds / TARGET_CHUNK_SECONDS), Math.ceil(trials / cap)))
     let size = Math.ceil(trials / pieces)
     const perNetwork = params.trialsPerNetwork
-    if (size >= perNetwork) size = Math.ceil(size / perNetwork) * perNetwork
+    if (size >= perNetwork) size = Math.min(Math.ceil(size / perNetwork) * perNetwork, Math.max(perNetwork, Math.floor(cap / perNetwork) * perNetwork))
     for (let first = 0; first < trials; first += size) {
       chunks.push({ index: chunks.length, point, firstTrial: first, count: Math.min(size, trials - first) })
     }

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { estimatePointCost } from '../../src/engine/index.js'
-import { checkLimits, DEFAULT_LIMITS, ENGINE_OPS_PER_CPU_SECOND, estimateWork, normaliseSpec, pointAt, WorkLimitError } from '../../src/spec/index.js'
+import { checkLimits, DEFAULT_LIMITS, ENGINE_OPS_PER_CPU_SECOND, estimateWork, maxChunkTrials, normaliseSpec, pointAt, TRIAL_OVERHEAD_OPS, trialRecordBytes, trialRecordMemory, WorkLimitError } from '../../src/spec/index.js'
+import { computeChunk, encodeValue, planSweep } from '../../src/sweep/index.js'
 
 function limitError (run: () => unknown): WorkLimitError {
   try {
@@ -18,14 +19,17 @@ describe('estimateWork', () => {
     const estimate = estimateWork(spec)
     const costs = [0, 1, 2, 3].map((i) => ({ cost: estimatePointCost(pointAt(spec, i).params) }))
     const updates = costs.reduce((sum, { cost }) => sum + 30 * cost.neuronUpdatesPerTrial, 0)
-    const ops = costs.reduce((sum, { cost }) => sum + 30 * cost.neuronUpdatesPerTrial * cost.opsPerVisit + 10 * cost.buildOpsPerNetwork, 0)
+    const ops = costs.reduce((sum, { cost }) => sum + 30 * (cost.neuronUpdatesPerTrial * cost.opsPerVisit + TRIAL_OVERHEAD_OPS) + 10 * cost.buildOpsPerNetwork, 0)
+    // Each worker holds a point's network and a chunk of its trial records (here all 30).
+    const records = 30 * trialRecordMemory(pointAt(spec, 0).params)
     expect(estimate).toEqual({
       points: 4,
       trialsPerPoint: 30,
       trials: 120,
       neuronUpdates: updates,
-      peakBytes: Math.max(...costs.map(({ cost }) => cost.bytes)),
-      cpuSeconds: ops / ENGINE_OPS_PER_CPU_SECOND
+      peakBytes: Math.max(...costs.map(({ cost }) => cost.bytes)) + records,
+      cpuSeconds: ops / ENGINE_OPS_PER_CPU_SECOND,
+      storedBytes: 4 * 4096 + 120 * trialRecordBytes(pointAt(spec, 0).params)
     })
   })
 })
@@ -37,7 +41,7 @@ describe('checkLimits', () => {
   })
 
   it('names the limit, the value and the maximum', () => {
-    const limits = { maxNeurons: 500, maxPoints: 10, maxTrials: 1000, maxBytes: 1e9 }
+    const limits = { maxNeurons: 500, maxPoints: 10, maxTrials: 1000, maxBytes: 1e9, maxStoredBytes: 1e12 }
     expect(limitError(() => checkLimits(normaliseSpec({ neurons: { values: [100, 600] }, patterns: 5 }), limits)))
       .toMatchObject({ limit: 'maxNeurons', value: 600, max: 500 })
     expect(limitError(() => checkLimits(normaliseSpec({ neurons: 100, patterns: { from: 1, to: 11, step: 1 } }), limits)))
@@ -63,5 +67,54 @@ describe('checkLimits', () => {
     const spec = normaliseSpec({ neurons: { from: 100, to: 1099, step: 1 }, load: { from: 0.01, to: 0.1, count: 100 }, trials: 1 })
     // With a one-byte memory limit, any estimate made before the count check would answer maxBytes.
     expect(limitError(() => checkLimits(spec, { ...DEFAULT_LIMITS, maxBytes: 1 })).limit).toBe('maxPoints')
+  })
+})
+
+describe('stored per-trial data is counted before running', () => {
+  // Reproductions of a probe: 5 million trials of a 10-neuron network were estimated at 240 B
+  // and 1.9 CPU-s, ran 110 s, then failed to store their result; 20 trials with trajectories
+  // reached gigabytes. Every such cost is now part of the estimate and of the limits.
+  it('refuses five million trials of a tiny network: one point\'s records would not fit one worker', () => {
+    const spec = normaliseSpec({ neurons: 10, patterns: 1, trials: 5_000_000, dynamics: { maxSweeps: 3 } })
+    const work = estimateWork(spec)
+    expect(work.storedBytes).toBeGreaterThan(5_000_000 * 150)
+    expect(work.peakBytes).toBeGreaterThan(1e9)
+    expect(limitError(() => checkLimits(spec, DEFAULT_LIMITS))).toMatchObject({ limit: 'maxBytes' })
+    // Its CPU time counts every trial's own overhead: at least 10 µs a trial on the measured machine.
+    expect(work.cpuSeconds).toBeGreaterThan(5_000_000 * 10e-6)
+  })
+
+  it('refuses trajectories that would fill the store', () => {
+    const spec = normaliseSpec({
+      neurons: 200, patterns: 5, trials: 400, measures: { overlapTrajectory: true, energyTrajectory: true },
+      dynamics: { temperature: 0.5, maxSweeps: 1_000_000 }
+    })
+    const error = limitError(() => checkLimits(spec, DEFAULT_LIMITS))
+    expect(['maxBytes', 'maxStoredBytes']).toContain(error.limit)
+    expect(limitError(() => checkLimits(spec, { ...DEFAULT_LIMITS, maxBytes: Number.MAX_SAFE_INTEGER }))).toMatchObject({ limit: 'maxStoredBytes' })
+  })
+
+  it('estimates the stored size of trial records within a quarter of what chunks really hold', () => {
+    const cases = [
+      { neurons: 100, patterns: 5, trials: 200 },
+      { neurons: 100, patterns: 5, trials: 200, measures: { stability: true } },
+      { neurons: 100, patterns: 5, trials: 20, dynamics: { temperature: 0.5, maxSweeps: 200 }, measures: { overlapTrajectory: true, energyTrajectory: true } }
+    ]
+    for (const input of cases) {
+      const spec = normaliseSpec({ seed: 4, ...input })
+      const encoded = planSweep(spec).chunks.reduce((sum, chunk) => sum + encodeValue(computeChunk(spec, chunk)).byteLength, 0)
+      const estimate = spec.trials * trialRecordBytes(pointAt(spec, 0).params)
+      expect(estimate / encoded, JSON.stringify(input)).toBeGreaterThan(1)
+      expect(estimate / encoded, JSON.stringify(input)).toBeLessThan(1.5)
+    }
+  })
+
+  it('cuts a point\'s trials into chunks whose records stay small, however cheap the trials', () => {
+    const spec = normaliseSpec({ neurons: 10, patterns: 1, trials: 400_000, dynamics: { maxSweeps: 3 } })
+    const chunks = planSweep(spec).chunks
+    const cap = maxChunkTrials(pointAt(spec, 0).params)
+    expect(chunks.length).toBeGreaterThan(1)
+    expect(Math.max(...chunks.map((chunk) => chunk.count))).toBeLessThanOrEqual(cap)
+    expect(chunks.reduce((sum, chunk) => sum + chunk.count, 0)).toBe(400_000)
   })
 })

@@ -50,7 +50,8 @@ const validationSchema = z.object({
     maxPoints: z.number(),
     maxTrials: z.number(),
     maxBytes: z.number(),
-    maxCpuSeconds: z.number().nullable()
+    maxCpuSeconds: z.number().nullable(),
+    maxStoredBytes: z.number()
   }).describe('This server\'s work limits.'),
   exceeded: z.object({ name: z.string(), value: z.number(), max: z.number() }).nullable()
     .describe('The first limit this sweep exceeds (submitting it would get 422), or null.')

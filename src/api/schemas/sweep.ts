@@ -68,6 +68,7 @@ export const workEstimateSchema = z.object({
   trialsPerPoint: z.number().int(),
   trials: z.number().int().describe('points × trialsPerPoint.'),
   neuronUpdates: z.number().describe('Expected neuron visits over the whole sweep.'),
-  peakBytes: z.number().describe('Largest memory one worker holds while running any single point.'),
-  cpuSeconds: z.number().describe('Estimated CPU time of the whole sweep on one core of a reference machine.')
+  peakBytes: z.number().describe('Largest memory one worker holds at once: the costliest point\'s network with a chunk of trial records, or one point\'s trial records while its result is assembled.'),
+  cpuSeconds: z.number().describe('Estimated CPU time of the whole sweep on one core of a reference machine (per-trial overhead included; measured error: see docs/limits.md).'),
+  storedBytes: z.number().describe('Estimated storage of the sweep: every trial record as stored, plus the result rows.')
 }).meta({ id: 'WorkEstimate' })
