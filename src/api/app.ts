@@ -14,6 +14,7 @@ import type { Config } from '../config.js'
 import { ServiceError } from '../errors.js'
 import { DEFAULT_LIMITS, type WorkLimits } from '../spec/index.js'
 import { EventStreamRegistry } from './event-stream.js'
+import { RenderPool } from './render/render-pool.js'
 import { authPlugin } from './plugins/auth.js'
 import { metricsPlugin } from './plugins/metrics.js'
 import { problemsPlugin } from './plugins/problems.js'
@@ -81,12 +82,14 @@ export function buildApp (deps: AppDependencies): FastifyInstance {
 
   const limits: Required<WorkLimits> = { ...DEFAULT_LIMITS, ...config.limits }
   const streams = new EventStreamRegistry()
+  const render = new RenderPool()
   const context: RouteContext = {
     queue,
     limits,
     maxActiveSweepsPerOwner: config.maxActiveSweepsPerOwner,
     heartbeatMs: config.sseHeartbeatSeconds * 1000,
-    streams
+    streams,
+    render
   }
 
   let shuttingDown = false
@@ -98,6 +101,7 @@ export function buildApp (deps: AppDependencies): FastifyInstance {
     }
   })
   // Open event streams would keep the server from closing: end them first.
+  app.addHook('onClose', async () => { await render.close() })
   app.addHook('preClose', async () => {
     shuttingDown = true
     streams.endAll()

@@ -19,6 +19,7 @@ function documentOnlyQueue (): SweepQueue {
     cancel: refuse,
     results: refuse,
     trials: refuse,
+    encodedResult: refuse,
     subscribe: refuse,
     stats: refuse,
     ready: refuse,

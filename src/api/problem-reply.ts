@@ -5,7 +5,7 @@
 import type { FastifyError, FastifyReply, FastifyRequest } from 'fastify'
 import { hasZodFastifySchemaValidationErrors } from 'fastify-type-provider-zod'
 import { ERRORS, ServiceError, problemType, type ErrorCode } from '../errors.js'
-import { IdempotencyConflictError } from '../backends/port.js'
+import { IdempotencyConflictError, StorageUnavailableError } from '../backends/port.js'
 import { SpecValidationError, WorkLimitError } from '../spec/errors.js'
 import { MAX_ISSUE_TEXT, MAX_LISTED_ISSUES, PROBLEM_MEDIA_TYPE, type FieldIssue, type Problem } from './schemas/problem.js'
 import { SWEEP_ID_RULE } from './schemas/sweep.js'
@@ -84,6 +84,9 @@ export function toServiceError (error: unknown, request: FastifyRequest, context
   }
   if (error instanceof IdempotencyConflictError) {
     return new ServiceError('MEMSWEEP_IDEMPOTENCY_KEY_REUSED', { key: error.key })
+  }
+  if (error instanceof StorageUnavailableError) {
+    return new ServiceError('MEMSWEEP_NOT_READY', { reason: 'its storage is unavailable; the operators have been told, and the service log names the cause' }, { headers: { 'retry-after': '60' } })
   }
 
   if (hasZodFastifySchemaValidationErrors(error)) {

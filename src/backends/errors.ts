@@ -24,3 +24,15 @@ export class ActiveSweepCapError extends Error {
     this.name = 'ActiveSweepCapError'
   }
 }
+
+/**
+ * Raised by `submit` when the backend's storage cannot keep new work (the embedded data
+ * directory vanished or was replaced): answered with 503. The cause, with its path, goes to
+ * the service log only.
+ */
+export class StorageUnavailableError extends Error {
+  constructor (readonly problem: string) {
+    super('The storage of sweeps is unavailable.')
+    this.name = 'StorageUnavailableError'
+  }
+}

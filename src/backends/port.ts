@@ -7,13 +7,13 @@
 import type { TrialRecord } from '../engine/index.js'
 import type { NormalisedSpec } from '../spec/index.js'
 import type { SweepResult } from '../results/index.js'
-import type { ListQuery, SweepPage, SweepRecord } from '../sweep/index.js'
+import type { Chunk, ListQuery, StoredChunk, SweepPage, SweepRecord } from '../sweep/index.js'
 
 export {
   SWEEP_STATUSES, TERMINAL_STATUSES, ANY_OWNER, SWEEP_ID_MAX_LENGTH, SWEEP_ID_PATTERN,
   type SweepStatus, type SweepProgress, type SweepFailure, type SweepRecord, type ListQuery
 } from '../sweep/index.js'
-export { IdempotencyConflictError, ActiveSweepCapError, InvalidCursorError } from './errors.js'
+export { IdempotencyConflictError, ActiveSweepCapError, InvalidCursorError, StorageUnavailableError } from './errors.js'
 
 export type SweepEvent =
   | { type: 'progress', sweep: SweepRecord }
@@ -28,6 +28,14 @@ export interface SubmitInput {
   reuse?: boolean
   /** Refuse with ActiveSweepCapError when the owner already has this many queued or running sweeps (checked atomically). */
   maxActive?: number
+}
+
+/** A succeeded sweep's result as stored, for rendering off the event loop. */
+export interface EncodedResult {
+  /** The V8-encoded SweepResult (rows or searches and provenance; `trials` empty unless stored by an earlier release). */
+  result: Uint8Array
+  /** The plan and the stored chunks that hold the trial records, when asked for. */
+  trials: { plan: Chunk[], chunks: StoredChunk[] } | null
 }
 
 export interface QueueStats {
@@ -56,6 +64,12 @@ export interface SweepQueue {
   results (id: string): Promise<SweepResult | null>
   /** trials[point][trial] of a succeeded sweep, read from its stored chunks; null when it has none. */
   trials (id: string): Promise<TrialRecord[][] | null>
+  /**
+   * The stored bytes of a succeeded sweep's result (and, with `trials`, of its chunks), not
+   * decoded: the API renders them on a thread of their own. Large reads are done in batches
+   * that let the event loop breathe. Null unless the sweep succeeded.
+   */
+  encodedResult (id: string, options: { trials: boolean }): Promise<EncodedResult | null>
   /** Listen to one sweep's progress and state changes; returns the unsubscribe function. */
   subscribe (id: string, listener: (event: SweepEvent) => void): () => void
   stats (): Promise<QueueStats>

@@ -28,6 +28,7 @@ import { ERROR_CODES } from '../../src/errors.js'
 import { FIGURE_MEASURES } from '../../src/figures/index.js'
 import { startWorker } from '../../src/backends/redis/worker/worker.js'
 import { quietLogger, REDIS_URL, redisAvailable, removePrefix, testPrefix } from '../integration/helpers.js'
+import { withOverrides } from '../helpers/queue-overrides.js'
 import { assertMatchesDocument } from './helpers/openapi.js'
 
 /**
@@ -500,30 +501,12 @@ describe.runIf(redis)('Redis', () => {
     const prefix = testPrefix()
     const queue = await createRedisQueue({ url: REDIS_URL, prefix, logger })
     const worker = await startWorker({ url: REDIS_URL, prefix, logger, concurrency: 1 })
-    return {
-      ...bind(queue),
+    return withOverrides(queue, {
       close: async () => {
         await queue.close()
         await worker.close()
         await removePrefix(prefix)
       }
-    }
+    })
   })
 })
-
-/** The queue's methods as a plain object, so `close` can be replaced. */
-function bind (queue: SweepQueue): SweepQueue {
-  return {
-    kind: queue.kind,
-    submit: (input) => queue.submit(input),
-    get: (id) => queue.get(id),
-    list: (query) => queue.list(query),
-    cancel: (id) => queue.cancel(id),
-    results: (id) => queue.results(id),
-    trials: (id) => queue.trials(id),
-    subscribe: (id, listener) => queue.subscribe(id, listener),
-    stats: () => queue.stats(),
-    ready: () => queue.ready(),
-    close: () => queue.close()
-  }
-}

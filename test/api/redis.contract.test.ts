@@ -5,10 +5,10 @@
  * server fails the file instead of skipping it.
  */
 import { describe } from 'vitest'
-import type { SweepQueue } from '../../src/backends/port.js'
 import { createRedisQueue } from '../../src/backends/redis/index.js'
 import { startWorker } from '../../src/backends/redis/worker/worker.js'
 import { quietLogger, REDIS_URL, redisAvailable, removePrefix, testPrefix } from '../integration/helpers.js'
+import { withOverrides } from '../helpers/queue-overrides.js'
 import { defineApiContract } from './contract.js'
 
 const available = await redisAvailable()
@@ -20,17 +20,7 @@ describe.runIf(available)('Redis backend', () => {
     const queue = await createRedisQueue({ url: REDIS_URL, prefix, logger })
     const worker = await startWorker({ url: REDIS_URL, prefix, logger, concurrency: 2 })
     let closed: Promise<void> | null = null
-    const withWorker: SweepQueue = {
-      kind: queue.kind,
-      submit: (input) => queue.submit(input),
-      get: (id) => queue.get(id),
-      list: (query) => queue.list(query),
-      cancel: (id) => queue.cancel(id),
-      results: (id) => queue.results(id),
-      trials: (id) => queue.trials(id),
-      subscribe: (id, listener) => queue.subscribe(id, listener),
-      stats: () => queue.stats(),
-      ready: () => queue.ready(),
+    const withWorker = withOverrides(queue, {
       close: () => {
         closed ??= (async () => {
           await queue.close()
@@ -39,7 +29,7 @@ describe.runIf(available)('Redis backend', () => {
         })()
         return closed
       }
-    }
+    })
     return withWorker
   })
 })

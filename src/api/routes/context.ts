@@ -5,6 +5,7 @@ import type { SweepQueue, SweepRecord } from '../../backends/port.js'
 import { ServiceError } from '../../errors.js'
 import type { WorkLimits } from '../../spec/index.js'
 import type { EventStreamRegistry } from '../event-stream.js'
+import type { RenderPool } from '../render/render-pool.js'
 import { canSee } from '../plugins/auth.js'
 import type { Principal } from '../tokens.js'
 
@@ -14,6 +15,8 @@ export interface RouteContext {
   maxActiveSweepsPerOwner: number
   heartbeatMs: number
   streams: EventStreamRegistry
+  /** Renders results and figures on a thread of its own. */
+  render: RenderPool
 }
 
 /** The record of a sweep the caller may see; anything else is a 404 (never a 403, so ids reveal nothing). */

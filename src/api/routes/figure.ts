@@ -4,14 +4,14 @@
  * OpenAPI document lists every option; options that do not fit the sweeps (an x one of them
  * does not vary, …) are 400s naming the field.
  */
-import { createHash } from 'node:crypto'
 import { z } from 'zod'
 import type { FastifyReply, FastifyRequest } from 'fastify'
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod'
 import { SWEEP_ID_PATTERN } from '../../backends/port.js'
 import { ServiceError } from '../../errors.js'
-import { FigureOptionsError, FigureOptionsSchema, renderFigure } from '../../figures/index.js'
-import type { SweepResult } from '../../results/index.js'
+import { FigureOptionsSchema, type FigureIssue } from '../../figures/index.js'
+import { gridAxes, type NormalisedSpec } from '../../spec/index.js'
+import type { EncodedResult, SweepRecord } from '../../backends/port.js'
 import { ifNoneMatchHits, sweepPath } from '../presenters.js'
 import { fieldIssue, listedIssues } from '../problem-reply.js'
 import { problemResponses } from '../schemas/problem.js'
@@ -20,8 +20,8 @@ import { visibleSweep, type RouteContext } from './context.js'
 
 interface Rendered { body: Buffer, etag: string }
 
-/** Rendered figures kept, newest last: a page that redraws on every control change asks for the same few often. */
-const CACHED_FIGURES = 128
+/** Rendered figures kept, newest last, up to this many bytes: a page that redraws on every control change asks for the same few often. */
+const CACHED_FIGURE_BYTES = 16 * 1024 * 1024
 
 /** A figure is a document of its own: nothing in it may run or load anything. */
 const SVG_POLICY = "default-src 'none'; style-src 'unsafe-inline'"
@@ -54,7 +54,7 @@ function sendBytes (reply: FastifyReply, body: Buffer): FastifyReply {
 }
 
 /** Refuses, with the problem that explains why, a sweep the caller may not see or that has no result (yet). */
-async function checkSucceeded (ctx: RouteContext, request: FastifyRequest, id: string): Promise<void> {
+async function checkSucceeded (ctx: RouteContext, request: FastifyRequest, id: string): Promise<SweepRecord> {
   const record = await visibleSweep(ctx.queue, request.principal, id)
   if (record.status === 'queued' || record.status === 'running') {
     throw new ServiceError('MEMSWEEP_RESULTS_NOT_READY', { id, status: record.status }, {
@@ -65,20 +65,21 @@ async function checkSucceeded (ctx: RouteContext, request: FastifyRequest, id: s
   if (record.status !== 'succeeded') {
     throw new ServiceError('MEMSWEEP_RESULTS_UNAVAILABLE', { id, status: record.status }, { extensions: { sweepId: id } })
   }
+  return record
 }
 
 /** Stability error bars are the spread over networks, read from the per-trial records. */
 const MEASURES_FROM_TRIALS: ReadonlySet<string> = new Set(['unstableFraction', 'fixedPatternFraction'])
 
-async function loadResult (ctx: RouteContext, id: string, measure: string): Promise<SweepResult> {
-  const result = await ctx.queue.results(id)
-  if (result === null) throw new Error(`sweep ${id} succeeded but the backend has no result for it`)
-  if (!MEASURES_FROM_TRIALS.has(measure)) return result
-  return { ...result, trials: await ctx.queue.trials(id) ?? [] }
+async function loadResult (ctx: RouteContext, id: string, measure: string): Promise<EncodedResult> {
+  const stored = await ctx.queue.encodedResult(id, { trials: MEASURES_FROM_TRIALS.has(measure) })
+  if (stored === null) throw new Error(`sweep ${id} succeeded but the backend has no result for it`)
+  return stored
 }
 
 export const figureRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx) => {
   const cache = new Map<string, Rendered>()
+  let cachedBytes = 0
 
   app.get('/v1/sweeps/:id/figure.svg', {
     schema: {
@@ -94,8 +95,9 @@ export const figureRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
     const { id } = request.params
     const options = request.query
     // Visibility is checked on every request; the result is only loaded when the figure is not cached.
-    await checkSucceeded(ctx, request, id)
-    const rendered = await cached(`${id}\u0000${optionsKey(options)}`, async () => render([await loadResult(ctx, id, options.measure)], options))
+    const record = await checkSucceeded(ctx, request, id)
+    refuseMisfit([record.spec], options)
+    const rendered = await cached(`${id}\u0000${optionsKey(options)}`, async () => await render(ctx, [await loadResult(ctx, id, options.measure)], options))
     return sendSvg(request, reply, rendered, `memsweep-${id}-${options.measure}.svg`)
   })
 
@@ -111,22 +113,31 @@ export const figureRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
   }, async (request, reply) => {
     const { sweeps, ...options } = request.query
     const ids = sweeps.split(',')
-    for (const id of ids) await checkSucceeded(ctx, request, id)
+    const specs: NormalisedSpec[] = []
+    for (const id of ids) specs.push((await checkSucceeded(ctx, request, id)).spec)
+    refuseMisfit(specs, options)
     const rendered = await cached(`${ids.join(',')}\u0000${optionsKey(options)}`, async () => {
-      const results: SweepResult[] = []
-      for (const id of ids) results.push(await loadResult(ctx, id, options.measure))
-      return render(results, options)
+      const stored: EncodedResult[] = []
+      for (const id of ids) stored.push(await loadResult(ctx, id, options.measure))
+      return await render(ctx, stored, options)
     })
     return sendSvg(request, reply, rendered, `memsweep-overlay-${options.measure}.svg`)
   })
 
-  async function cached (key: string, draw: () => Promise<string>): Promise<Rendered> {
+  async function cached (key: string, draw: () => Promise<Rendered>): Promise<Rendered> {
     let rendered = cache.get(key)
     if (rendered === undefined) {
-      const body = Buffer.from(await draw(), 'utf8')
-      rendered = { body, etag: `"${createHash('sha256').update(body).digest('base64url')}"` }
+      rendered = await draw()
       cache.set(key, rendered)
-      if (cache.size > CACHED_FIGURES) cache.delete(cache.keys().next().value!)
+      cachedBytes += rendered.body.length
+      for (const [oldKey, old] of cache) {
+        if (cachedBytes <= CACHED_FIGURE_BYTES) break
+        cache.delete(oldKey)
+        cachedBytes -= old.body.length
+      }
+    } else {
+      cache.delete(key)
+      cache.set(key, rendered)
     }
     return rendered
   }
@@ -147,15 +158,27 @@ function sendSvg (request: FastifyRequest, reply: FastifyReply, rendered: Render
   return sendBytes(reply.type('image/svg+xml; charset=utf-8'), rendered.body)
 }
 
-function render (results: readonly SweepResult[], options: FigureQuery): string {
-  try {
-    return renderFigure(results, options)
-  } catch (error) {
-    if (!(error instanceof FigureOptionsError)) throw error
-    const errors = error.issues.map((issue) => ({
-      ...fieldIssue(issue.path === '' ? [] : [issue.path], issue.message),
-      path: issue.path === '' ? 'querystring' : `querystring.${issue.path}`
-    }))
-    throw new ServiceError('MEMSWEEP_MALFORMED_REQUEST', { reason: 'the figure options do not fit the sweep(s)' }, { extensions: listedIssues(errors) })
-  }
+/** Draws the figure on the rendering thread; options that do not fit the sweeps are a 4xx naming each. */
+async function render (ctx: RouteContext, stored: EncodedResult[], options: FigureQuery): Promise<Rendered> {
+  const outcome = await ctx.render.render({ kind: 'figure', stored, options })
+  if (outcome.kind === 'figure-misfit') misfit(outcome.issues)
+  return { body: Buffer.from(outcome.body.buffer, outcome.body.byteOffset, outcome.body.byteLength), etag: outcome.etag }
+}
+
+/**
+ * Refuses, before any result is loaded, options that cannot fit what the specs say: an x
+ * that some sweep does not vary. (Everything else is checked where the figure is drawn.)
+ */
+function refuseMisfit (specs: readonly NormalisedSpec[], options: FigureQuery): void {
+  if (options.x === undefined) return
+  const missing = specs.filter((spec) => !gridAxes(spec).some((axis) => axis.path === options.x))
+  if (missing.length > 0) misfit([{ path: 'x', message: `${specs.length === 1 ? 'this sweep' : `${missing.length} of the ${specs.length} sweeps`} does not vary '${options.x}'` }])
+}
+
+function misfit (issues: readonly FigureIssue[]): never {
+  const errors = issues.map((issue) => ({
+    ...fieldIssue(issue.path === '' ? [] : [issue.path], issue.message),
+    path: issue.path === '' ? 'querystring' : `querystring.${issue.path}`
+  }))
+  throw new ServiceError('MEMSWEEP_MALFORMED_REQUEST', { reason: 'the figure options do not fit the sweep(s)' }, { extensions: listedIssues(errors) })
 }

@@ -1,10 +1,8 @@
 /** Results of a succeeded sweep as JSON or CSV, with strong ETags (a result never changes). */
-import { createHash } from 'node:crypto'
 import { z } from 'zod'
 import type { FastifyReply } from 'fastify'
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod'
 import { ServiceError } from '../../errors.js'
-import { resultToCsv, resultToJson } from '../../results/index.js'
 import { negotiate } from '../negotiate.js'
 import { ifNoneMatchHits, sweepPath } from '../presenters.js'
 import { problemResponses } from '../schemas/problem.js'
@@ -116,12 +114,12 @@ export const resultRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
     const key = `${id}\u0000${format}\u0000${perTrial ? 1 : 0}\u0000${timing ? 1 : 0}`
     let rendered = cache.get(key)
     if (rendered === undefined) {
-      let result = await ctx.queue.results(id)
-      if (result === null) throw new Error(`sweep ${id} succeeded but the backend has no result for it`)
-      if (perTrial) result = { ...result, trials: await ctx.queue.trials(id) ?? [] }
-      const text = format === 'csv' ? resultToCsv(result, { perTrial }) : resultToJson(result, { perTrial, timing })
-      const body = Buffer.from(text, 'utf8')
-      rendered = { body, etag: `"${createHash('sha256').update(body).digest('base64url')}"` }
+      const stored = await ctx.queue.encodedResult(id, { trials: perTrial })
+      if (stored === null) throw new Error(`sweep ${id} succeeded but the backend has no result for it`)
+      // Decoding, rendering and hashing happen on the rendering thread: other requests go on meanwhile.
+      const outcome = await ctx.render.render({ kind: 'result', stored, format, perTrial, timing })
+      if (outcome.kind !== 'rendered') throw new Error(`rendering sweep ${id} answered ${outcome.kind}`)
+      rendered = { body: Buffer.from(outcome.body.buffer, outcome.body.byteOffset, outcome.body.byteLength), etag: outcome.etag }
       cache.set(key, rendered)
     }
     reply

@@ -4,21 +4,22 @@
  * process. Interrupted sweeps resume on the next start, keeping the chunks already stored.
  */
 import { randomUUID } from 'node:crypto'
+import { setImmediate as yieldToEventLoop } from 'node:timers/promises'
 import { availableParallelism } from 'node:os'
 import type { Logger } from 'pino'
 import type { ResourceLimits } from 'node:worker_threads'
 import type { TrialRecord } from '../../engine/index.js'
 import { specHash } from '../../spec/index.js'
 import type { SweepResult } from '../../results/index.js'
-import { checkPlan, decodeValue, planSweep, storedTrials, unresumableFailure, type ListQuery, type SweepPage, type SweepRecord } from '../../sweep/index.js'
-import { ActiveSweepCapError, IdempotencyConflictError } from '../errors.js'
-import type { QueueStats, SubmitInput, SweepEvent, SweepQueue } from '../port.js'
+import { checkPlan, decodeValue, planSweep, storedTrials, unresumableFailure, type ListQuery, type StoredChunk, type SweepPage, type SweepRecord } from '../../sweep/index.js'
+import { ActiveSweepCapError, IdempotencyConflictError, StorageUnavailableError } from '../errors.js'
+import type { EncodedResult, QueueStats, SubmitInput, SweepEvent, SweepQueue } from '../port.js'
 import { ActiveSweep } from './active-sweep.js'
 import { LocalSweepEvents } from './event-hub.js'
 import { ChunkScheduler } from './scheduler.js'
 import { SqliteSweepStore } from './store.js'
 import { ChunkThreadPool } from './thread-pool.js'
-import { defaultChunkWorkerEntry, type WorkerEntry } from './worker-entry.js'
+import { siblingWorkerEntry, type WorkerEntry } from '../../runtime/worker-entry.js'
 
 export interface EmbeddedQueueTuning {
   /**
@@ -41,6 +42,11 @@ export interface EmbeddedQueueTuning {
    * @defaultValue 2000
    */
   closeGraceMs: number
+  /**
+   * How often the data directory is checked (it may be deleted or replaced under a running service).
+   * @defaultValue 5000
+   */
+  storageCheckMs: number
 }
 
 export interface EmbeddedQueueOptions {
@@ -62,11 +68,15 @@ export interface EmbeddedQueueOptions {
   workerEntry?: WorkerEntry
 }
 
+/** Stored chunks read from SQLite per event-loop turn when a result's trials are read. */
+const READ_BATCH_CHUNKS = 16
+
 const DEFAULT_TUNING: EmbeddedQueueTuning = {
   maxAttempts: 3,
   progressIntervalMs: 250,
   idempotencyTtlSeconds: 24 * 60 * 60,
-  closeGraceMs: 2000
+  closeGraceMs: 2000,
+  storageCheckMs: 5000
 }
 
 export async function createEmbeddedQueue (options: EmbeddedQueueOptions): Promise<SweepQueue> {
@@ -77,7 +87,7 @@ export async function createEmbeddedQueue (options: EmbeddedQueueOptions): Promi
   const store = new SqliteSweepStore(options.dataDir)
   const pool = new ChunkThreadPool({
     threads,
-    entry: options.workerEntry ?? defaultChunkWorkerEntry(),
+    entry: options.workerEntry ?? siblingWorkerEntry(import.meta.url, 'chunk-worker'),
     onIdleThreadError: error => logger?.error({ err: error }, 'an idle compute thread failed'),
     ...(options.resourceLimits ? { resourceLimits: options.resourceLimits } : {})
   })
@@ -102,6 +112,9 @@ class EmbeddedQueue implements SweepQueue {
   readonly #scheduler: ChunkScheduler
   readonly #tuning: EmbeddedQueueTuning
   readonly #logger: Logger | undefined
+  readonly #storageCheck: NodeJS.Timeout
+  /** What is wrong with the data directory, once noticed; the service needs a restart then. */
+  #storageProblem: string | null = null
   #closed: Promise<void> | null = null
 
   constructor (store: SqliteSweepStore, pool: ChunkThreadPool, tuning: EmbeddedQueueTuning, logger: Logger | undefined) {
@@ -117,6 +130,28 @@ class EmbeddedQueue implements SweepQueue {
       options: { maxAttempts: tuning.maxAttempts, progressIntervalMs: tuning.progressIntervalMs },
       ...(logger ? { logger } : {})
     })
+    this.#storageCheck = setInterval(() => { this.#checkStorage() }, tuning.storageCheckMs)
+    this.#storageCheck.unref()
+  }
+
+  /**
+   * Notices a data directory deleted, replaced or made read-only under the running service:
+   * SQLite would go on writing to a file nobody can open again. From then on readiness fails,
+   * submissions are refused with 503, no new chunk starts, and a copy of everything stored so
+   * far is written back to the data directory, so a restart resumes from it.
+   */
+  #checkStorage (): string | null {
+    if (this.#storageProblem !== null || this.#closed !== null) return this.#storageProblem
+    const problem = this.#store.health()
+    if (problem === null) return null
+    this.#storageProblem = problem
+    this.#scheduler.pause()
+    this.#logger?.error({ dataDir: this.#store.dataDir, problem }, `STORAGE LOST: ${problem}. New sweeps are refused and no chunk starts; restart the service (with DATA_DIR on a kept, writable directory) to resume`)
+    this.#store.rescue().then(
+      () => this.#logger?.error({ path: this.#store.path }, 'a copy of the sweep database as it was when the loss was noticed was written back; a restart resumes from it'),
+      (error: unknown) => this.#logger?.error({ err: error, path: this.#store.path }, 'the sweep database could not be written back: sweeps stored since the service started may be lost')
+    )
+    return problem
   }
 
   /**
@@ -154,6 +189,8 @@ class EmbeddedQueue implements SweepQueue {
 
   async submit (input: SubmitInput): Promise<SweepRecord> {
     this.#assertOpen()
+    const problem = this.#checkStorage()
+    if (problem !== null) throw new StorageUnavailableError(problem)
     // The stored text, parsed: the exact spec a resumed run would see.
     const spec = JSON.parse(JSON.stringify(input.spec)) as SubmitInput['spec']
     const hash = specHash(spec)
@@ -205,14 +242,31 @@ class EmbeddedQueue implements SweepQueue {
 
   async trials (id: string): Promise<TrialRecord[][] | null> {
     this.#assertOpen()
-    const result = await this.results(id)
-    if (result === null) return null
+    const encoded = await this.encodedResult(id, { trials: true })
+    if (encoded === null) return null
+    const result = decodeValue<SweepResult>(encoded.result)
     // Results stored before chunks were kept hold their trials themselves.
-    if (result.trials.length > 0 || result.spec.analysis !== undefined) return result.trials
-    const record = this.#store.getNow(id)
-    const plan = await this.#store.plan(record?.reusedFrom ?? id)
-    if (plan === null) return null
-    return storedTrials(result.spec, plan.chunks, this.#store.storedChunksNow(id).chunks)
+    if (result.trials.length > 0 || result.spec.analysis !== undefined || encoded.trials === null) return result.trials
+    return storedTrials(result.spec, encoded.trials.plan, encoded.trials.chunks)
+  }
+
+  async encodedResult (id: string, options: { trials: boolean }): Promise<EncodedResult | null> {
+    this.#assertOpen()
+    const result = await this.#store.resultBody(id)
+    if (result === null) return null
+    if (!options.trials) return { result, trials: null }
+    const plan = await this.#store.trialsPlan(id)
+    if (plan === null) return { result, trials: null }
+    const chunks: StoredChunk[] = []
+    for (let from = 0; ;) {
+      const batch = this.#store.storedChunksFrom(id, from, READ_BATCH_CHUNKS)
+      chunks.push(...batch)
+      if (batch.length < READ_BATCH_CHUNKS) break
+      from = batch[batch.length - 1]!.index + 1
+      // A long read in slices: requests keep being answered in between.
+      await yieldToEventLoop()
+    }
+    return { result, trials: { plan: plan.chunks, chunks } }
   }
 
   subscribe (id: string, listener: (event: SweepEvent) => void): () => void {
@@ -226,6 +280,7 @@ class EmbeddedQueue implements SweepQueue {
 
   async ready (): Promise<{ ok: boolean, detail?: string }> {
     if (this.#closed !== null) return { ok: false, detail: 'the embedded queue is closed' }
+    if (this.#checkStorage() !== null) return { ok: false, detail: 'the sweep storage is unavailable (the service log names the cause)' }
     try {
       this.#store.ping()
       return { ok: true }
@@ -241,6 +296,7 @@ class EmbeddedQueue implements SweepQueue {
   }
 
   async #shutDown (): Promise<void> {
+    clearInterval(this.#storageCheck)
     await this.#scheduler.close(this.#tuning.closeGraceMs)
     this.#events.close()
     await this.#pool.destroy()

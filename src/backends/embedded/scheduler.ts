@@ -33,6 +33,7 @@ export class ChunkScheduler {
   readonly #order = new FairOrder()
   readonly #inFlight = new Set<Promise<void>>()
   #closing = false
+  #paused = false
 
   constructor (deps: { store: SqliteSweepStore, pool: ChunkThreadPool, events: LocalSweepEvents, logger?: Logger, options: SchedulerOptions }) {
     this.#store = deps.store
@@ -51,6 +52,11 @@ export class ChunkScheduler {
     let chunksWaiting = 0
     for (const sweep of this.#active.values()) chunksWaiting += sweep.pendingCount
     return { chunksWaiting, chunksActive: this.#pool.busy }
+  }
+
+  /** Starts no more chunks or assemblies (storage lost); running ones finish. Until the process restarts. */
+  pause (): void {
+    this.#paused = true
   }
 
   /** Stops an active sweep for good; its running chunks notice between two trials. */
@@ -78,7 +84,7 @@ export class ChunkScheduler {
   }
 
   #pump (): void {
-    while (!this.#closing && this.#pool.idle > 0) {
+    while (!this.#closing && !this.#paused && this.#pool.idle > 0) {
       const assembling = [...this.#active.values()].find((sweep) => sweep.allDone && !sweep.assembling)
       if (assembling !== undefined) {
         this.#assemble(assembling)

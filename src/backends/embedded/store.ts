@@ -8,7 +8,7 @@
  * record keeps its high-water mark (trials_done only ever grows), so a restart never shows
  * less progress than was shown before it.
  */
-import { mkdirSync } from 'node:fs'
+import { accessSync, constants, existsSync, mkdirSync, statSync } from 'node:fs'
 import { join } from 'node:path'
 import Database from 'better-sqlite3'
 import type { NormalisedSpec } from '../../spec/index.js'
@@ -66,7 +66,10 @@ interface PlanView {
 
 export class SqliteSweepStore implements SweepStore {
   readonly path: string
+  readonly dataDir: string
   readonly #db: Database.Database
+  /** The database file as opened: if the path later names another file (or none), writes go nowhere lasting. */
+  readonly #identity: { dev: number, ino: number }
   readonly #statements: ReturnType<typeof prepareStatements>
   /** sweep id → chunk index → most trials any running attempt reported (until the chunk is stored). */
   readonly #partials = new Map<string, Map<number, number>>()
@@ -82,6 +85,7 @@ export class SqliteSweepStore implements SweepStore {
     } catch (error) {
       throw new Error(`The data directory ${dataDir} cannot be created (${(error as NodeJS.ErrnoException).code ?? 'error'}); set DATA_DIR to a writable directory.`, { cause: error })
     }
+    this.dataDir = dataDir
     this.path = join(dataDir, DATABASE_FILE)
     let db: Database.Database
     try {
@@ -109,6 +113,39 @@ export class SqliteSweepStore implements SweepStore {
       throw error
     }
     this.#statements = prepareStatements(db)
+    const opened = statSync(this.path)
+    this.#identity = { dev: opened.dev, ino: opened.ino }
+  }
+
+  /**
+   * Null while the data directory and the database file are the ones opened and the
+   * directory is writable; otherwise what is wrong, naming the path. (SQLite keeps writing
+   * to a deleted file without an error: only this check notices that nothing would last.)
+   */
+  health (): string | null {
+    if (!existsSync(this.dataDir)) return `the data directory ${this.dataDir} no longer exists`
+    let current
+    try {
+      current = statSync(this.path)
+    } catch {
+      return `the sweep database ${this.path} was deleted while the service ran`
+    }
+    if (current.dev !== this.#identity.dev || current.ino !== this.#identity.ino) return `the sweep database ${this.path} was replaced by another file while the service ran`
+    try {
+      accessSync(this.dataDir, constants.W_OK)
+    } catch {
+      return `the data directory ${this.dataDir} is no longer writable`
+    }
+    return null
+  }
+
+  /**
+   * Writes a copy of the open database to its own path (re-creating the directory if
+   * needed), so that a restart resumes from everything stored until now.
+   */
+  async rescue (): Promise<void> {
+    mkdirSync(this.dataDir, { recursive: true })
+    await this.#db.backup(this.path)
   }
 
   ping (): void {
@@ -322,6 +359,18 @@ export class SqliteSweepStore implements SweepStore {
     return this.storedChunksNow(id)
   }
 
+  /** Up to `limit` stored chunks from index `fromIndex` on (following a reuse to its original), ascending. */
+  storedChunksFrom (id: string, fromIndex: number, limit: number): StoredChunk[] {
+    const rows = this.#statements.chunkBodiesFrom.all(this.#resultOwner(id), fromIndex, limit) as Array<{ chunk_index: number, codec: string, body: Uint8Array }>
+    for (const row of rows) if (row.codec !== CODEC_NAME) throw new Error(`Unknown chunk codec '${row.codec}'.`)
+    return rows.map((row) => ({ index: row.chunk_index, body: row.body }))
+  }
+
+  /** The plan of the sweep whose chunks hold this sweep's trials (itself, or the original it reuses). */
+  async trialsPlan (id: string): Promise<SweepPlan | null> {
+    return await this.plan(this.#resultOwner(id))
+  }
+
   storedChunksNow (id: string): { chunks: StoredChunk[], computeMs: number } {
     const rows = this.#statements.chunkBodies.all(this.#resultOwner(id)) as Array<{ chunk_index: number, codec: string, body: Uint8Array, compute_ms: number }>
     let computeMs = 0
@@ -501,6 +550,7 @@ function prepareStatements (db: Database.Database) {
       INSERT OR REPLACE INTO chunk_results (sweep_id, chunk_index, point, trials, compute_ms, codec, body, finished_ms)
       VALUES (@sweep_id, @chunk_index, @point, @trials, @compute_ms, @codec, @body, @finished_ms)`),
     chunkBodies: db.prepare('SELECT chunk_index, codec, body, compute_ms FROM chunk_results WHERE sweep_id = ? ORDER BY chunk_index'),
+    chunkBodiesFrom: db.prepare('SELECT chunk_index, codec, body FROM chunk_results WHERE sweep_id = ? AND chunk_index >= ? ORDER BY chunk_index LIMIT ?'),
     deleteChunks: db.prepare('DELETE FROM chunk_results WHERE sweep_id = ?'),
     markSucceeded: db.prepare(`
       UPDATE sweeps SET status = 'succeeded', finished_ms = ?, started_ms = COALESCE(started_ms, ?)

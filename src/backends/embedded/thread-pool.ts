@@ -7,7 +7,7 @@ import { MessageChannel } from 'node:worker_threads'
 import { Piscina } from 'piscina'
 import type { ResourceLimits } from 'node:worker_threads'
 import type { AssembleTask, ChunkProgressMessage, ChunkTask, ChunkTaskOutcome, RunChunkTask } from './chunk-task.js'
-import type { WorkerEntry } from './worker-entry.js'
+import type { WorkerEntry } from '../../runtime/worker-entry.js'
 
 export interface ThreadPoolOptions {
   threads: number

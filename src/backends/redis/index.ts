@@ -14,7 +14,7 @@ import {
   type ListQuery, type SweepDraft, type SweepPage, type SweepPlan, type SweepRecord
 } from '../../sweep/index.js'
 import { ActiveSweepCapError, IdempotencyConflictError } from '../errors.js'
-import type { QueueStats, SubmitInput, SweepEvent, SweepQueue } from '../port.js'
+import type { EncodedResult, QueueStats, SubmitInput, SweepEvent, SweepQueue } from '../port.js'
 import { ChunkQueue, DEFAULT_RETRY_POLICY, type ChunkRetryPolicy } from './chunk-queue.js'
 import { closeConnection, openConnection, redactUrl } from './connections.js'
 import { publishStop, publishSweepEvent, RedisSweepEvents } from './events.js'
@@ -224,13 +224,23 @@ class RedisQueue implements SweepQueue {
 
   async trials (id: string): Promise<TrialRecord[][] | null> {
     this.#assertOpen()
-    const result = await this.results(id)
-    if (result === null) return null
+    const encoded = await this.encodedResult(id, { trials: true })
+    if (encoded === null) return null
+    const result = decodeValue<SweepResult>(encoded.result)
     // Results stored before chunks were kept hold their trials themselves.
-    if (result.trials.length > 0 || result.spec.analysis !== undefined) return result.trials
+    if (result.trials.length > 0 || result.spec.analysis !== undefined || encoded.trials === null) return result.trials
+    return storedTrials(result.spec, encoded.trials.plan, encoded.trials.chunks)
+  }
+
+  async encodedResult (id: string, options: { trials: boolean }): Promise<EncodedResult | null> {
+    this.#assertOpen()
+    if (!isSweepId(id)) return null
+    const result = await this.store.resultBody(id)
+    if (result === null) return null
+    if (!options.trials) return { result, trials: null }
     const plan = await this.store.plan(id)
-    if (plan === null) return null
-    return storedTrials(result.spec, plan.chunks, (await this.store.storedChunks(id)).chunks)
+    if (plan === null) return { result, trials: null }
+    return { result, trials: { plan: plan.chunks, chunks: await this.store.chunksInBatches(id, plan.chunks.length) } }
   }
 
   subscribe (id: string, listener: (event: SweepEvent) => void): () => void {

@@ -196,6 +196,20 @@ export class RedisSweepStore implements SweepStore {
     return { chunks, computeMs: Number(computeMs ?? 0) }
   }
 
+  /** The stored chunks of a plan of `count` chunks, read a batch of fields at a time (no single reply of the whole hash). */
+  async chunksInBatches (id: string, count: number, batch = 64): Promise<StoredChunk[]> {
+    const key = this.keys.sweep(id).chunks
+    const chunks: StoredChunk[] = []
+    for (let first = 0; first < count; first += batch) {
+      const fields = Array.from({ length: Math.min(batch, count - first) }, (_, offset) => String(first + offset))
+      const bodies = await this.redis.hmgetBuffer(key, ...fields)
+      bodies.forEach((body, offset) => {
+        if (body !== null) chunks.push({ index: first + offset, body: new Uint8Array(body.buffer, body.byteOffset, body.byteLength) })
+      })
+    }
+    return chunks
+  }
+
   async succeed (id: string, resultBody: Uint8Array, nowMs: number): Promise<Transition> {
     const keys = this.keys.sweep(id)
     const owner = await this.redis.hget(keys.record, 'owner')

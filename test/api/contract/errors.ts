@@ -6,27 +6,18 @@ import { createHarness, isTerminal, type Harness, type QueueFactory } from '../h
 import { expectProblem } from '../helpers/problems.js'
 import { heldSpec, quickSpec } from '../helpers/specs.js'
 import { sharedChunkGate } from '../../helpers/chunk-gate.js'
+import { withOverrides } from '../../helpers/queue-overrides.js'
 
 const gate = sharedChunkGate()
 
 /** The real backend, except that reading sweep 'kaboom' fails the way a broken disk would. */
 function withFailingRead (queue: SweepQueue): SweepQueue {
-  return {
-    kind: queue.kind,
-    submit: (input) => queue.submit(input),
+  return withOverrides(queue, {
     get: async (id) => {
       if (id === 'kaboom') throw new Error('SQLITE_IOERR: disk I/O error at /srv/secret/memsweep.db')
       return await queue.get(id)
-    },
-    list: (query) => queue.list(query),
-    cancel: (id) => queue.cancel(id),
-    results: (id) => queue.results(id),
-    trials: (id) => queue.trials(id),
-    subscribe: (id, listener) => queue.subscribe(id, listener),
-    stats: () => queue.stats(),
-    ready: () => queue.ready(),
-    close: () => queue.close()
-  }
+    }
+  })
 }
 
 export function errorsContract (factory: QueueFactory): void {

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { SweepQueue } from '../../../src/backends/port.js'
 import { classifyChunkError } from '../../../src/sweep/failure.js'
-import { workerEntryFor } from '../../../src/backends/embedded/worker-entry.js'
+import { workerEntryFor } from '../../../src/runtime/worker-entry.js'
 import { EngineInputError } from '../../../src/engine/index.js'
 import { SpecValidationError, WorkLimitError } from '../../../src/spec/index.js'
 import { ChunkCanceledError, IncompleteResultError } from '../../../src/sweep/index.js'

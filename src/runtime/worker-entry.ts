@@ -1,6 +1,6 @@
 /**
- * Where a compute thread's module lives and how to start it. Compiled (dist/), the entry
- * is plain JavaScript beside this file. From source (vitest, tsx, `npm run dev`) it is the
+ * Where a thread's module lives and how to start it. Compiled (dist/), the entry is plain
+ * JavaScript beside its caller. From source (vitest, tsx, `npm run dev`) it is the
  * TypeScript file, and the thread needs tsx's loader: a worker thread does not inherit the
  * loader hooks of the thread that started it.
  */
@@ -14,11 +14,10 @@ export interface WorkerEntry {
   execArgv: string[]
 }
 
-/** The chunk worker that ships with memsweep. */
-export function defaultChunkWorkerEntry (): WorkerEntry {
-  const fromSource = import.meta.url.endsWith('.ts')
-  const url = new URL(fromSource ? './chunk-worker.ts' : './chunk-worker.js', import.meta.url)
-  return workerEntryFor(url)
+/** A module beside the calling module (pass its `import.meta.url`), in the form the caller runs in: `.ts` from source, `.js` compiled. */
+export function siblingWorkerEntry (callerUrl: string, basename: string): WorkerEntry {
+  const fromSource = callerUrl.endsWith('.ts')
+  return workerEntryFor(new URL(`./${basename}${fromSource ? '.ts' : '.js'}`, callerUrl))
 }
 
 /** Any worker module (tests use fixtures that wrap the real one). */

@@ -1,0 +1,30 @@
+/**
+ * The messages between the API and its rendering thread: stored results go in as bytes, the
+ * representation comes back as bytes with its strong ETag, so the API's event loop never
+ * decodes trial records or builds a large string.
+ */
+import type { EncodedResult } from '../../backends/port.js'
+import type { FigureIssue, FigureOptions } from '../../figures/index.js'
+
+export type ResultFormat = 'json' | 'csv'
+
+export interface RenderResultTask {
+  kind: 'result'
+  stored: EncodedResult
+  format: ResultFormat
+  perTrial: boolean
+  timing: boolean
+}
+
+export interface RenderFigureTask {
+  kind: 'figure'
+  stored: EncodedResult[]
+  options: FigureOptions
+}
+
+export type RenderTask = RenderResultTask | RenderFigureTask
+
+export type RenderOutcome =
+  | { kind: 'rendered', body: Uint8Array, etag: string }
+  /** The figure options do not fit the sweep(s): the API answers 422 naming each option. */
+  | { kind: 'figure-misfit', issues: readonly FigureIssue[] }

@@ -1,0 +1,39 @@
+/**
+ * The module the API's rendering thread loads: turns a stored result (and its stored
+ * chunks, for per-trial rows) into JSON, CSV or an SVG figure, and hashes the bytes for the
+ * strong ETag. Everything heavy of a download happens here, so requests keep being answered
+ * while a large result is rendered.
+ */
+import { createHash } from 'node:crypto'
+import { FigureOptionsError, renderFigure } from '../../figures/index.js'
+import { resultToCsv, resultToJson, type SweepResult } from '../../results/index.js'
+import { decodeValue, storedTrials } from '../../sweep/index.js'
+import type { EncodedResult } from '../../backends/port.js'
+import type { RenderOutcome, RenderTask } from './render-task.js'
+
+export default function render (task: RenderTask): RenderOutcome {
+  if (task.kind === 'result') {
+    const result = decode(task.stored)
+    const text = task.format === 'csv'
+      ? resultToCsv(result, { perTrial: task.perTrial })
+      : resultToJson(result, { perTrial: task.perTrial, timing: task.timing })
+    return rendered(Buffer.from(text, 'utf8'))
+  }
+  try {
+    return rendered(Buffer.from(renderFigure(task.stored.map(decode), task.options), 'utf8'))
+  } catch (error) {
+    if (error instanceof FigureOptionsError) return { kind: 'figure-misfit', issues: error.issues }
+    throw error
+  }
+}
+
+/** The result with its trial records attached when they were sent (results stored by earlier releases hold them already). */
+function decode (stored: EncodedResult): SweepResult {
+  const result = decodeValue<SweepResult>(stored.result)
+  if (stored.trials === null || result.trials.length > 0 || result.spec.analysis !== undefined) return result
+  return { ...result, trials: storedTrials(result.spec, stored.trials.plan, stored.trials.chunks) }
+}
+
+function rendered (body: Buffer): RenderOutcome {
+  return { kind: 'rendered', body: new Uint8Array(body.buffer, body.byteOffset, body.byteLength), etag: `"${createHash('sha256').update(body).digest('base64url')}"` }
+}
