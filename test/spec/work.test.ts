@@ -86,7 +86,10 @@ describe('stored per-trial data is counted before running', () => {
 
   it('refuses trajectories that would fill the store', () => {
     const spec = normaliseSpec({
-      neurons: 200, patterns: 5, trials: 400, measures: { overlapTrajectory: true, energyTrajectory: true },
+      neurons: 200,
+      patterns: 5,
+      trials: 400,
+      measures: { overlapTrajectory: true, energyTrajectory: true },
       dynamics: { temperature: 0.5, maxSweeps: 1_000_000 }
     })
     const error = limitError(() => checkLimits(spec, DEFAULT_LIMITS))
