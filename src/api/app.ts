@@ -17,6 +17,7 @@ import { EventStreamRegistry } from './event-stream.js'
 import { authPlugin } from './plugins/auth.js'
 import { metricsPlugin } from './plugins/metrics.js'
 import { problemsPlugin } from './plugins/problems.js'
+import { RequestLogController } from './request-log.js'
 import { OwnerGate, type RouteContext } from './routes/context.js'
 import { eventRoutes } from './routes/events.js'
 import { figureRoutes } from './routes/figure.js'
@@ -49,8 +50,10 @@ const REQUEST_ID = /^[A-Za-z0-9._:-]{1,128}$/
 
 export function buildApp (deps: AppDependencies): FastifyInstance {
   const { config, queue, logger } = deps
+  const requestLogLevel = config.logRequests ? 'info' : 'debug'
   const options: FastifyServerOptions = {
     loggerInstance: logger,
+    logController: new RequestLogController(requestLogLevel),
     bodyLimit: config.bodyLimit,
     trustProxy: config.trustProxy,
     genReqId: (req) => {
@@ -93,7 +96,7 @@ export function buildApp (deps: AppDependencies): FastifyInstance {
     streams.endAll()
   })
 
-  app.register(problemsPlugin, { bodyLimit: config.bodyLimit })
+  app.register(problemsPlugin, { bodyLimit: config.bodyLimit, clientErrorLevel: requestLogLevel })
   app.register(metricsPlugin, { queue })
   app.register(authPlugin, { tokens: deps.tokens, tokensFile: config.tokensFile })
   app.register(fastifyRateLimit, {
