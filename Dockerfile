@@ -15,7 +15,7 @@ COPY tsconfig.json tsconfig.build.json ./
 COPY src ./src
 # The web page: its sources, its build script and the examples it offers.
 COPY web ./web
-COPY scripts/build-web.mjs ./scripts/
+COPY scripts/build-web.mjs scripts/build-if-changed.mjs ./scripts/
 COPY examples ./examples
 RUN npm run build && npm prune --omit=dev
 
