@@ -43,6 +43,9 @@ const envSchema = z.object({
   MAX_CPU_SECONDS: z.preprocess(emptyAsUnset, positiveInt.optional())
 })
 
+/** Every variable the service reads (each is listed, with its default, in .env.example). */
+export const CONFIG_VARIABLES = Object.keys(envSchema.shape)
+
 /** Work limits that override the spec layer's defaults; unset fields keep the default. */
 export type WorkLimitOverrides = Partial<Record<WorkLimitName, number>>
 

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { availableParallelism } from 'node:os'
-import { ConfigError, decideAccess, isLoopbackHost, loadConfig } from '../../src/config.js'
+import { readFileSync } from 'node:fs'
+import { CONFIG_VARIABLES, ConfigError, decideAccess, isLoopbackHost, loadConfig } from '../../src/config.js'
 
 describe('loadConfig', () => {
   it('fills documented defaults from an empty environment', () => {
@@ -33,6 +34,13 @@ describe('loadConfig', () => {
     expect(config.redisUrl).toBe('redis://127.0.0.1:6379')
     expect(config.trustProxy).toBe(true)
     expect(config.limits).toEqual({ maxNeurons: 5000, maxPoints: 100, maxTrials: 1000, maxBytes: 64 * 1024 * 1024, maxCpuSeconds: 600 })
+  })
+
+  it('lists every variable it reads in .env.example', () => {
+    const example = readFileSync(new URL('../../.env.example', import.meta.url), 'utf8')
+    const listed = new Set([...example.matchAll(/^#? ?([A-Z_]+)=/gm)].map((m) => m[1]))
+    expect(CONFIG_VARIABLES.filter((name) => !listed.has(name))).toEqual([])
+    expect(CONFIG_VARIABLES).toEqual(expect.arrayContaining(['HOST', 'ALLOW_ANONYMOUS', 'LOG_FORMAT', 'LOG_REQUESTS']))
   })
 
   it('reports every bad variable at once', () => {
