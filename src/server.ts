@@ -37,7 +37,6 @@ export interface RunningServer {
   close: () => Promise<void>
 }
 
-/** Starts the service with the given environment; resolves once it listens. */
 /** What the start-up line reports. */
 export interface ListeningReport {
   address: string
@@ -77,6 +76,7 @@ async function listeningReport (config: Config, address: string, queue: SweepQue
   }
 }
 
+/** Starts the service with the given environment; resolves once it listens. */
 export async function startServer (env: Record<string, string | undefined>, logger?: Logger): Promise<RunningServer> {
   const config = loadConfig(env)
   // Before anything is opened: a server that would be open to the network does not start at all.

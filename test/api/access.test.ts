@@ -12,6 +12,9 @@ import { afterEach, beforeEach, describe, expect, it } from 'vitest'
 import { ConfigError } from '../../src/config.js'
 import { createLogger } from '../../src/logger.js'
 import { startServer, type ListeningReport } from '../../src/server.js'
+import { REDIS_URL, redisAvailable, removePrefix, testPrefix } from '../integration/helpers.js'
+
+const redis = await redisAvailable()
 
 interface LogLine { level: number, msg: string, listening?: ListeningReport }
 
@@ -84,5 +87,18 @@ describe('secure by default', () => {
     expect(line.msg).toContain(`authentication on: tokens from ${tokens})`)
     expect(line.listening).toMatchObject({ backend: 'embedded', authentication: true, redis: null })
     expect(anonymous).toBe(401)
+  })
+
+  it.runIf(redis)('names the Redis backend by its URL, never its password, instead of a data folder', async () => {
+    const prefix = testPrefix()
+    try {
+      const { line } = await startAndProbe({ REDIS_URL, REDIS_PREFIX: prefix })
+      const shown = new URL(REDIS_URL)
+      if (shown.password !== '') shown.password = '***'
+      expect(line.msg).toBe(`memsweep listening on ${line.listening!.address} (Redis backend at ${shown.toString()}, authentication off: only this machine can connect)`)
+      expect(line.listening).toMatchObject({ backend: 'redis', dataDir: null })
+    } finally {
+      await removePrefix(prefix)
+    }
   })
 })
