@@ -4,6 +4,7 @@
  * Lines are JSON (one object per line, for log shippers) unless a person is watching: on a
  * terminal they are printed by pino-pretty, one readable line each.
  */
+import { isatty } from 'node:tty'
 import { pino, type DestinationStream, type Logger, type LevelWithSilent } from 'pino'
 import pinoPretty from 'pino-pretty'
 
@@ -47,20 +48,35 @@ export function wantsPretty (format: LogFormat, toTerminal: boolean): boolean {
   return format === 'pretty' || (format === 'auto' && toTerminal)
 }
 
+/**
+ * Standard output for log lines, written synchronously (a crash loses no line). When it is gone
+ * (the terminal closed, or whoever read the pipe exited) lines are dropped: an error per line
+ * would keep a server that is shutting down, because its terminal went away, from finishing.
+ */
+function standardOutput (): DestinationStream {
+  const out = pino.destination({ dest: 1, sync: true })
+  let gone = false
+  out.on('error', () => { gone = true })
+  return { write: (line: string) => { if (!gone) out.write(line) } }
+}
+
+/** Each JSON line rewritten as one readable line (pino-pretty's formatter, run in this thread). */
+function prettyLines (sink: DestinationStream, colorize: boolean): DestinationStream {
+  const prettify = pinoPretty.prettyFactory({
+    colorize,
+    singleLine: true,
+    translateTime: 'SYS:HH:MM:ss',
+    ignore: PRETTY_IGNORED
+  })
+  return { write: (line: string) => { sink.write(prettify(line)) } }
+}
+
 export function createLogger (options: LoggerOptions): Logger {
-  const toTerminal = options.destination === undefined && process.stdout.isTTY === true
-  const pretty = wantsPretty(options.format ?? 'auto', toTerminal)
-  const destination = pretty
-    ? pinoPretty({
-      destination: options.destination ?? 1,
-      sync: true,
-      // colorette's check: a terminal, and neither NO_COLOR nor TERM=dumb.
-      colorize: toTerminal && pinoPretty.isColorSupported,
-      singleLine: true,
-      translateTime: 'SYS:HH:MM:ss',
-      ignore: PRETTY_IGNORED
-    })
-    : options.destination ?? pino.destination(1)
+  // Asked of the descriptor itself: process.stdout would open a stream on it just to answer.
+  const toTerminal = options.destination === undefined && isatty(1)
+  const sink = options.destination ?? standardOutput()
+  // colorette's check: a terminal, and neither NO_COLOR nor TERM=dumb.
+  const destination = wantsPretty(options.format ?? 'auto', toTerminal) ? prettyLines(sink, toTerminal && pinoPretty.isColorSupported) : sink
   return pino({
     level: options.level,
     name: options.name,

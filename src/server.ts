@@ -5,6 +5,7 @@
  */
 import { existsSync, readFileSync, realpathSync } from 'node:fs'
 import { isIPv6, type AddressInfo } from 'node:net'
+import { isatty } from 'node:tty'
 import { parseEnv } from 'node:util'
 import { pathToFileURL } from 'node:url'
 import closeWithGrace from 'close-with-grace'
@@ -138,6 +139,19 @@ export function withDotEnv (env: Record<string, string | undefined>, file = '.en
   return { ...parseEnv(readFileSync(file, 'utf8')), ...env }
 }
 
+/** Standard descriptors that were terminals when the process started. */
+const terminalsAtStart = [0, 1, 2].filter((fd) => isatty(fd))
+
+/**
+ * Node 20 restores the terminal's settings as it exits, and when the terminal has hung up (the
+ * SSH session that started the server dropped) that fails an internal check whose report then
+ * crashes in a loop at full CPU (nodejs/node#51519, fixed in later Node releases). So a server
+ * whose terminal went away ends, once it has closed everything, with SIGKILL instead of exit.
+ */
+function endIfTerminalHungUp (): void {
+  if (terminalsAtStart.some((fd) => !isatty(fd))) process.kill(process.pid, 'SIGKILL')
+}
+
 /** Runs the service until SIGTERM/SIGINT; used by `npm start` and `memsweep serve`. */
 export async function main (env: Record<string, string | undefined> = process.env): Promise<void> {
   let server: RunningServer
@@ -155,6 +169,7 @@ export async function main (env: Record<string, string | undefined> = process.en
     if (err !== undefined) log.fatal({ err }, 'shutting down after an uncaught error')
     else log.info({ signal }, 'shutting down')
     await server.close()
+    endIfTerminalHungUp()
   })
 }
 

@@ -75,4 +75,38 @@ describe('memsweep executable', () => {
       await rm(dataDir, { recursive: true, force: true })
     }
   })
+
+  // `script` gives the server a terminal of its own; killing `script` hangs that terminal up, as
+  // a dropped SSH session does. The server must shut down and exit, not spin (see server.ts).
+  // Without the fix the server spins at full CPU here, and the test fails after 30 s.
+  const hasScript = spawnSync('script', ['--version'], { encoding: 'utf8' }).status === 0
+  it.runIf(hasScript)('`serve` shuts down and exits when its terminal hangs up', async () => {
+    const dataDir = await mkdtemp(join(tmpdir(), 'memsweep-serve-'))
+    const command = [process.execPath, '--import', 'tsx', MAIN, 'serve', '--port', '0', '--data-dir', dataDir, '--threads', '1'].map((w) => `'${w}'`).join(' ')
+    const terminal = spawn('script', ['-qfc', command, '/dev/null'], {
+      env: { ...process.env, LOG_LEVEL: 'info', LOG_FORMAT: 'json', HOST: '', TOKENS_FILE: '', ALLOW_ANONYMOUS: '' },
+      stdio: ['ignore', 'pipe', 'pipe'],
+      detached: true
+    })
+    let serverPid: number | undefined
+    const alive = (pid: number): boolean => { try { process.kill(pid, 0); return true } catch { return false } }
+    try {
+      serverPid = await new Promise<number>((resolve, reject) => {
+        const timer = setTimeout(() => reject(new Error('serve did not start')), 30_000)
+        createInterface({ input: terminal.stdout }).on('line', (line) => {
+          const match = /^\{.*"listening":/.test(line) ? JSON.parse(line.trim()) as { pid: number } : null
+          if (match !== null) { clearTimeout(timer); resolve(match.pid) }
+        })
+      })
+      expect(alive(serverPid)).toBe(true)
+      terminal.kill('SIGKILL')
+      // Closing takes a moment (the compute threads, the database); a spinning process never goes.
+      for (let waited = 0; alive(serverPid) && waited < 30_000; waited += 100) await new Promise((resolve) => setTimeout(resolve, 100))
+      expect(alive(serverPid)).toBe(false)
+    } finally {
+      if (terminal.exitCode === null) terminal.kill('SIGKILL')
+      if (serverPid !== undefined && alive(serverPid)) process.kill(serverPid, 'SIGKILL')
+      await rm(dataDir, { recursive: true, force: true })
+    }
+  })
 })
