@@ -1,6 +1,8 @@
 # memsweep service image: build with the dev toolchain, run on a slim image as a non-root user.
 #   docker build -t memsweep .
-#   docker run -p 8080:8080 -v memsweep-data:/data memsweep
+#   docker run -p 127.0.0.1:8080:8080 -e ALLOW_ANONYMOUS=true -v memsweep-data:/data memsweep
+# The API listens on 0.0.0.0 inside the container, so it starts only with TOKENS_FILE (a mounted
+# tokens file) or with ALLOW_ANONYMOUS=true, as above where the port is published on loopback only.
 # The same image runs a Redis worker: docker run -e REDIS_URL=redis://redis:6379 memsweep node dist/cli/main.js worker
 
 FROM node:20-bookworm-slim AS build
@@ -13,7 +15,7 @@ COPY tsconfig.json tsconfig.build.json ./
 COPY src ./src
 # The web page: its sources, its build script and the examples it offers.
 COPY web ./web
-COPY scripts/build-web.mjs ./scripts/
+COPY scripts/build-web.mjs scripts/build-if-changed.mjs ./scripts/
 COPY examples ./examples
 RUN npm run build && npm prune --omit=dev
 

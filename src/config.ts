@@ -3,8 +3,10 @@
  * reads `process.env`; everything else receives the frozen `Config` as an argument.
  * Every variable is listed with its default in .env.example.
  */
+import { BlockList, isIPv4, isIPv6 } from 'node:net'
 import { availableParallelism } from 'node:os'
 import { z } from 'zod'
+import { LOG_FORMATS, type LogFormat } from './logger.js'
 import type { WorkLimitName } from './spec/errors.js'
 
 const LOG_LEVELS = ['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent'] as const
@@ -17,13 +19,14 @@ const emptyAsUnset = (value: unknown): unknown => (value === '' ? undefined : va
 
 const envSchema = z.object({
   PORT: z.preprocess(emptyAsUnset, port.default(8080)),
-  HOST: z.preprocess(emptyAsUnset, z.string().min(1).default('0.0.0.0')),
+  HOST: z.preprocess(emptyAsUnset, z.string().min(1).default('127.0.0.1')),
   DATA_DIR: z.preprocess(emptyAsUnset, z.string().min(1).default('./data')),
   REDIS_URL: z.preprocess(emptyAsUnset, z.url({ protocol: /^rediss?$/ }).optional()),
   REDIS_PREFIX: z.preprocess(emptyAsUnset, z.string().regex(/^[A-Za-z0-9_-]+$/).default('memsweep')),
   SWEEP_RETENTION_DAYS: z.preprocess(emptyAsUnset, positiveInt.max(3650).default(7)),
   WORKER_THREADS: z.preprocess(emptyAsUnset, positiveInt.max(1024).optional()),
   TOKENS_FILE: z.preprocess(emptyAsUnset, z.string().min(1).optional()),
+  ALLOW_ANONYMOUS: z.preprocess(emptyAsUnset, flag.default(false)),
   BODY_LIMIT: z.preprocess(emptyAsUnset, positiveInt.default(256 * 1024)),
   RATE_LIMIT_MAX: z.preprocess(emptyAsUnset, positiveInt.default(600)),
   RATE_LIMIT_WINDOW: z.preprocess(emptyAsUnset, positiveInt.default(60)),
@@ -33,6 +36,8 @@ const envSchema = z.object({
   SSE_HEARTBEAT_SECONDS: z.preprocess(emptyAsUnset, positiveInt.max(300).default(15)),
   TRUST_PROXY: z.preprocess(emptyAsUnset, flag.default(false)),
   LOG_LEVEL: z.preprocess(emptyAsUnset, z.enum(LOG_LEVELS).default('info')),
+  LOG_FORMAT: z.preprocess(emptyAsUnset, z.enum(LOG_FORMATS).default('auto')),
+  LOG_REQUESTS: z.preprocess(emptyAsUnset, flag.default(false)),
   MAX_NEURONS: z.preprocess(emptyAsUnset, positiveInt.optional()),
   MAX_GRID_POINTS: z.preprocess(emptyAsUnset, positiveInt.optional()),
   MAX_TRIALS: z.preprocess(emptyAsUnset, positiveInt.optional()),
@@ -40,6 +45,9 @@ const envSchema = z.object({
   MAX_CPU_SECONDS: z.preprocess(emptyAsUnset, positiveInt.optional()),
   MAX_STORED_MB: z.preprocess(emptyAsUnset, positiveInt.optional())
 })
+
+/** Every variable the service reads (each is listed, with its default, in .env.example). */
+export const CONFIG_VARIABLES = Object.keys(envSchema.shape)
 
 /** Work limits that override the spec layer's defaults; unset fields keep the default. */
 export type WorkLimitOverrides = Partial<Record<WorkLimitName, number>>
@@ -55,6 +63,8 @@ export interface Config {
   /** Worker threads of the embedded backend (and the default worker concurrency). */
   workerThreads: number
   tokensFile: string | null
+  /** Serve without tokens although others can reach the server (a non-loopback HOST, or TRUST_PROXY). */
+  allowAnonymous: boolean
   /** Largest accepted request body, bytes. */
   bodyLimit: number
   rateLimit: { max: number, windowSeconds: number }
@@ -64,6 +74,9 @@ export interface Config {
   sseHeartbeatSeconds: number
   trustProxy: boolean
   logLevel: typeof LOG_LEVELS[number]
+  logFormat: LogFormat
+  /** Log every request at info (an access log); by default request lines are debug. */
+  logRequests: boolean
   limits: WorkLimitOverrides
 }
 
@@ -97,6 +110,7 @@ export function loadConfig (env: Record<string, string | undefined>): Config {
     retentionSeconds: e.SWEEP_RETENTION_DAYS * 86400,
     workerThreads: e.WORKER_THREADS ?? availableParallelism(),
     tokensFile: e.TOKENS_FILE ?? null,
+    allowAnonymous: e.ALLOW_ANONYMOUS,
     bodyLimit: e.BODY_LIMIT,
     rateLimit: { max: e.RATE_LIMIT_MAX, windowSeconds: e.RATE_LIMIT_WINDOW },
     authFailureLimit: { max: e.AUTH_FAILURE_MAX, windowSeconds: e.AUTH_FAILURE_WINDOW },
@@ -104,8 +118,54 @@ export function loadConfig (env: Record<string, string | undefined>): Config {
     sseHeartbeatSeconds: e.SSE_HEARTBEAT_SECONDS,
     trustProxy: e.TRUST_PROXY,
     logLevel: e.LOG_LEVEL,
+    logFormat: e.LOG_FORMAT,
+    logRequests: e.LOG_REQUESTS,
     limits
   })
+}
+
+/**
+ * Whether a listen address only admits connections from this machine: the IPv4 loopback
+ * network 127.0.0.0/8 (also IPv4-mapped), the IPv6 loopback ::1, or `localhost`. Any other
+ * name may resolve to an outside interface, and 0.0.0.0 / :: are every interface.
+ */
+export function isLoopbackHost (host: string): boolean {
+  const bare = host.startsWith('[') && host.endsWith(']') ? host.slice(1, -1) : host
+  if (bare.toLowerCase() === 'localhost') return true
+  if (isIPv4(bare)) return LOOPBACK.check(bare, 'ipv4')
+  if (isIPv6(bare)) return LOOPBACK.check(bare, 'ipv6')
+  return false
+}
+
+const LOOPBACK = new BlockList()
+LOOPBACK.addSubnet('127.0.0.0', 8, 'ipv4')
+LOOPBACK.addAddress('::1', 'ipv6')
+
+/** How the server decided about authentication, for the start-up line. */
+export interface AccessDecision {
+  authentication: boolean
+  /** Why, in words: which tokens file, or why serving without tokens is safe or allowed. */
+  reason: string
+}
+
+/**
+ * Secure by default: without TOKENS_FILE the server only serves this machine (a loopback HOST
+ * and no reverse proxy in front). Serving others anonymously takes ALLOW_ANONYMOUS=true.
+ * Throws ConfigError otherwise, so the server refuses to start rather than serve the network open.
+ */
+export function decideAccess (config: Config): AccessDecision {
+  if (config.tokensFile !== null) return { authentication: true, reason: `tokens from ${config.tokensFile}` }
+  const loopback = isLoopbackHost(config.host)
+  if (loopback && !config.trustProxy) return { authentication: false, reason: 'only this machine can connect' }
+  if (config.allowAnonymous) return { authentication: false, reason: 'anonymous access allowed by ALLOW_ANONYMOUS' }
+  const exposure = loopback
+    ? `TRUST_PROXY=true says a reverse proxy forwards other machines' requests to ${config.host}`
+    : `HOST=${config.host} is reachable from other machines`
+  throw new ConfigError([
+    `refusing to serve without authentication: ${exposure} and TOKENS_FILE is not set. ` +
+    'Set TOKENS_FILE to require bearer tokens (see .env.example), set HOST=127.0.0.1 to serve this machine only, ' +
+    'or set ALLOW_ANONYMOUS=true to let anyone who can reach the server use it.'
+  ])
 }
 
 function deepFreeze<T extends object> (value: T): Readonly<T> {

@@ -56,6 +56,11 @@ export const ERRORS = {
     title: 'Results will never exist',
     detail: "Sweep '{id}' ended as {status}, so it has no results."
   },
+  MEMSWEEP_SWEEP_FINISHED: {
+    status: 409,
+    title: 'Sweep already finished',
+    detail: "Sweep '{id}' already ended as {status}; a finished sweep cannot be canceled."
+  },
   MEMSWEEP_BODY_TOO_LARGE: {
     status: 413,
     title: 'Request body too large',
@@ -80,6 +85,11 @@ export const ERRORS = {
     status: 422,
     title: 'Idempotency-Key reused with a different body',
     detail: "Idempotency-Key '{key}' was first used with a different sweep spec."
+  },
+  MEMSWEEP_FIGURE_OPTIONS_UNFIT: {
+    status: 422,
+    title: 'Figure options do not fit the sweep',
+    detail: 'The figure cannot be drawn as asked: {issues}. See errors[] for each option.'
   },
   MEMSWEEP_RATE_LIMITED: {
     status: 429,

@@ -11,7 +11,7 @@ import { missingEngineFlags } from './runtime/node-flags.js'
 
 export async function runWorkerFromEnvironment (env: Record<string, string | undefined>): Promise<void> {
   const config = loadConfig(env)
-  const logger = createLogger({ level: config.logLevel, name: 'worker' })
+  const logger = createLogger({ level: config.logLevel, format: config.logFormat, name: 'worker' })
   if (config.redisUrl === null) {
     throw new Error('REDIS_URL is not set: workers serve the Redis backend (the embedded backend runs its own threads inside the API).')
   }

@@ -19,6 +19,7 @@ import { authPlugin } from './plugins/auth.js'
 import { metricsPlugin } from './plugins/metrics.js'
 import { problemsPlugin } from './plugins/problems.js'
 import { frameworkProblem, sendProblem } from './problem-reply.js'
+import { RequestLogController } from './request-log.js'
 import type { RouteContext } from './routes/context.js'
 import { eventRoutes } from './routes/events.js'
 import { figureRoutes } from './routes/figure.js'
@@ -52,8 +53,10 @@ const REQUEST_ID = /^[A-Za-z0-9._:-]{1,128}$/
 
 export function buildApp (deps: AppDependencies): FastifyInstance {
   const { config, queue, logger } = deps
+  const requestLogLevel = config.logRequests ? 'info' : 'debug'
   const options: FastifyServerOptions = {
     loggerInstance: logger,
+    logController: new RequestLogController(requestLogLevel),
     bodyLimit: config.bodyLimit,
     trustProxy: config.trustProxy,
     genReqId: (req) => {
@@ -107,7 +110,7 @@ export function buildApp (deps: AppDependencies): FastifyInstance {
     streams.endAll()
   })
 
-  app.register(problemsPlugin, { bodyLimit: config.bodyLimit })
+  app.register(problemsPlugin, { bodyLimit: config.bodyLimit, clientErrorLevel: requestLogLevel })
   app.register(metricsPlugin, { queue })
   // Before the rate limiter: its own failed-authentication counter is a second limiter in a
   // scope of its own, which must not find the first one's decorators.

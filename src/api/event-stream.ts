@@ -1,6 +1,7 @@
 /**
  * Server-Sent Events for one sweep: a `snapshot` event first, then `progress` and `state`
- * events, `: ping` comments as heartbeats, and the stream closes after a terminal state.
+ * events, `: ping` comments as heartbeats, and the stream closes after the terminal `state`
+ * event (sent at once after the snapshot when the sweep has already ended).
  * Every open stream is registered so the app can end them on shutdown (an open response
  * would otherwise keep `close()` waiting forever).
  */
@@ -137,7 +138,9 @@ export async function streamSweepEvents (options: StreamOptions): Promise<void> 
   if (record === null) { end(); return }
   snapshot = record
   send('snapshot', record)
-  if (TERMINAL_STATUSES.has(record.status)) { end(); return }
+  // Every stream ends with the state event of how the sweep ended, including the stream of a
+  // sweep that had already ended when it was opened: clients wait for that one event.
+  if (TERMINAL_STATUSES.has(record.status)) { send('state', record); end(); return }
   for (const event of early) {
     if (isNewer(event.sweep, record) || (event.type === 'state' && TERMINAL_STATUSES.has(event.sweep.status))) deliver(event)
   }

@@ -55,7 +55,13 @@ const FIGURE_HEADERS: Record<string, Record<string, HeaderObject>> = {
 
 /** Response headers clients rely on, which route schemas cannot express. */
 const OPERATION_HEADERS: Record<string, Record<string, Record<string, HeaderObject>>> = {
-  submitSweep: { 202: { Location: text('Path of the new sweep\'s status.'), 'Retry-After': seconds('Suggested seconds before the first status poll.') } },
+  submitSweep: {
+    200: {
+      Location: text('Path of the sweep\'s status.'),
+      'Content-Location': text('The same path: the body is that sweep\'s (final) status.')
+    },
+    202: { Location: text('Path of the new sweep\'s status.'), 'Retry-After': seconds('Suggested seconds before the first status poll.') }
+  },
   getSweep: { 200: { ETag: text('Weak validator of the sweep\'s state; send it in If-None-Match to get 304 until the sweep changes.') }, 304: { ETag: text('The current validator.') } },
   listSweeps: { 200: { Link: text('`<…>; rel="next"` URL of the next page; absent on the last page.') } },
   getSweepResults: {

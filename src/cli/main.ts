@@ -41,10 +41,11 @@ export async function runCli (argv: readonly string[], io: CliIo): Promise<numbe
   program.command('serve')
     .description('start the HTTP API (embedded backend, or Redis when --redis-url / REDIS_URL is set)')
     .option('--port <port>', 'port to listen on (PORT, default 8080)')
-    .option('--host <host>', 'address to bind (HOST, default 0.0.0.0)')
+    .option('--host <host>', 'address to bind (HOST, default 127.0.0.1: this machine only)')
     .option('--data-dir <dir>', 'where the embedded backend keeps sweeps and results (DATA_DIR, default ./data)')
     .option('--threads <n>', 'compute threads of the embedded backend (WORKER_THREADS, default: cores)')
     .option('--tokens-file <file>', 'bearer tokens, one owner:token[:role] per line (TOKENS_FILE)')
+    .option('--allow-anonymous', 'serve without tokens on an address other machines reach (ALLOW_ANONYMOUS)')
     .option('--redis-url <url>', 'use the Redis backend (REDIS_URL)')
     .action(async (options) => { await serve(io, options) })
 

@@ -1,16 +1,18 @@
 import { describe, expect, it } from 'vitest'
 import { availableParallelism } from 'node:os'
-import { ConfigError, loadConfig } from '../../src/config.js'
+import { readFileSync } from 'node:fs'
+import { CONFIG_VARIABLES, ConfigError, decideAccess, isLoopbackHost, loadConfig } from '../../src/config.js'
 
 describe('loadConfig', () => {
   it('fills documented defaults from an empty environment', () => {
     const config = loadConfig({})
     expect(config).toMatchObject({
       port: 8080,
-      host: '0.0.0.0',
+      host: '127.0.0.1',
       dataDir: './data',
       redisUrl: null,
       tokensFile: null,
+      allowAnonymous: false,
       bodyLimit: 256 * 1024,
       rateLimit: { max: 600, windowSeconds: 60 },
       authFailureLimit: { max: 20, windowSeconds: 300 },
@@ -18,6 +20,8 @@ describe('loadConfig', () => {
       sseHeartbeatSeconds: 15,
       trustProxy: false,
       logLevel: 'info',
+      logFormat: 'auto',
+      logRequests: false,
       limits: {}
     })
     expect(config.workerThreads).toBe(availableParallelism())
@@ -33,6 +37,13 @@ describe('loadConfig', () => {
     expect(config.limits).toEqual({ maxNeurons: 5000, maxPoints: 100, maxTrials: 1000, maxBytes: 64 * 1024 * 1024, maxCpuSeconds: 600 })
   })
 
+  it('lists every variable it reads in .env.example', () => {
+    const example = readFileSync(new URL('../../.env.example', import.meta.url), 'utf8')
+    const listed = new Set([...example.matchAll(/^#? ?([A-Z_]+)=/gm)].map((m) => m[1]))
+    expect(CONFIG_VARIABLES.filter((name) => !listed.has(name))).toEqual([])
+    expect(CONFIG_VARIABLES).toEqual(expect.arrayContaining(['HOST', 'ALLOW_ANONYMOUS', 'LOG_FORMAT', 'LOG_REQUESTS']))
+  })
+
   it('reports every bad variable at once', () => {
     let caught: unknown
     try {
@@ -43,6 +54,34 @@ describe('loadConfig', () => {
     expect(caught).toBeInstanceOf(ConfigError)
     const issues = (caught as ConfigError).issues.join('\n')
     for (const name of ['PORT', 'LOG_LEVEL', 'REDIS_URL', 'WORKER_THREADS']) expect(issues).toContain(name)
+  })
+})
+
+describe('who may connect (secure by default)', () => {
+  it.each([
+    ['127.0.0.1', true], ['127.8.9.10', true], ['localhost', true], ['::1', true], ['[::1]', true],
+    ['0:0:0:0:0:0:0:1', true], ['::ffff:127.0.0.1', true],
+    ['0.0.0.0', false], ['::', false], ['192.168.4.20', false], ['::ffff:10.1.2.3', false], ['lab-server.example', false]
+  ])('%s is loopback: %s', (host, loopback) => {
+    expect(isLoopbackHost(host)).toBe(loopback)
+  })
+
+  it('serves loopback without tokens, says so, and turns authentication on whenever tokens are set', () => {
+    expect(decideAccess(loadConfig({}))).toEqual({ authentication: false, reason: 'only this machine can connect' })
+    expect(decideAccess(loadConfig({ HOST: '::1' })).authentication).toBe(false)
+    expect(decideAccess(loadConfig({ HOST: '0.0.0.0', TOKENS_FILE: '/srv/tokens.txt' }))).toEqual({ authentication: true, reason: 'tokens from /srv/tokens.txt' })
+    expect(decideAccess(loadConfig({ HOST: '0.0.0.0', ALLOW_ANONYMOUS: 'true' }))).toEqual({ authentication: false, reason: 'anonymous access allowed by ALLOW_ANONYMOUS' })
+  })
+
+  it('refuses a non-loopback address, or a reverse proxy, without tokens unless ALLOW_ANONYMOUS says otherwise', () => {
+    for (const env of [{ HOST: '0.0.0.0' }, { HOST: '::' }, { HOST: '10.0.0.5', ALLOW_ANONYMOUS: 'false' }, { TRUST_PROXY: 'true' }]) {
+      let caught: unknown
+      try { decideAccess(loadConfig(env)) } catch (error) { caught = error }
+      expect(caught, JSON.stringify(env)).toBeInstanceOf(ConfigError)
+      const message = (caught as ConfigError).message
+      for (const remedy of ['TOKENS_FILE', 'HOST=127.0.0.1', 'ALLOW_ANONYMOUS=true']) expect(message).toContain(remedy)
+    }
+    expect(() => loadConfig({ ALLOW_ANONYMOUS: 'yes' })).toThrow(/ALLOW_ANONYMOUS/)
   })
 })
 

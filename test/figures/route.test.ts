@@ -56,13 +56,14 @@ describe('GET /v1/sweeps/{id}/figure.svg', () => {
     expect(again.headers.etag).toBe(first.headers.etag)
   })
 
-  it('answers 400 naming the option: invalid values, unknown options, options that do not fit the sweep', async () => {
+  it('answers 400 naming a malformed or unknown option, 422 naming an option that does not fit the sweep', async () => {
     const bad = expectProblem(await h.request({ method: 'GET', url: `/v1/sweeps/${id}/figure.svg?measure=speed` }), 400, 'MEMSWEEP_MALFORMED_REQUEST')
     expect(bad.errors[0].path).toBe('querystring.measure')
     const unknown = expectProblem(await h.request({ method: 'GET', url: `/v1/sweeps/${id}/figure.svg?colour=red` }), 400, 'MEMSWEEP_MALFORMED_REQUEST')
     expect(JSON.stringify(unknown.errors)).toContain('colour')
-    const misfit = expectProblem(await h.request({ method: 'GET', url: `/v1/sweeps/${id}/figure.svg?x=dynamics.temperature` }), 400, 'MEMSWEEP_MALFORMED_REQUEST')
-    expect(misfit.errors).toEqual([expect.objectContaining({ path: 'querystring.x', message: expect.stringContaining("does not vary 'dynamics.temperature'") })])
+    const misfit = expectProblem(await h.request({ method: 'GET', url: `/v1/sweeps/${id}/figure.svg?x=dynamics.temperature` }), 422, 'MEMSWEEP_FIGURE_OPTIONS_UNFIT')
+    expect(misfit.errors).toEqual([expect.objectContaining({ path: 'querystring.x', pointer: '/x', message: expect.stringContaining("does not vary 'dynamics.temperature'") })])
+    expect(misfit.detail).toMatch(/^The figure cannot be drawn as asked: x: .*does not vary 'dynamics\.temperature'/)
   })
 
   it('overlays several sweeps, one series per sweep, labelled by sweep label', async () => {
@@ -82,6 +83,8 @@ describe('GET /v1/sweeps/{id}/figure.svg', () => {
     const malformed = expectProblem(await h.request({ method: 'GET', url: '/v1/figures/overlay.svg?sweeps=a;b' }), 400, 'MEMSWEEP_MALFORMED_REQUEST')
     expect(malformed.errors[0].path).toBe('querystring.sweeps')
     expectProblem(await h.request({ method: 'GET', url: `/v1/figures/overlay.svg?sweeps=${id},no-such-sweep` }), 404, 'MEMSWEEP_SWEEP_NOT_FOUND')
+    const unfit = expectProblem(await h.request({ method: 'GET', url: `/v1/figures/overlay.svg?sweeps=${id},${other.id as string}&x=neurons` }), 422, 'MEMSWEEP_FIGURE_OPTIONS_UNFIT')
+    expect(unfit.errors[0].path).toBe('querystring.x')
   })
 
   it('answers 409 while the sweep runs and 404 for an unknown sweep', async () => {

@@ -10,6 +10,8 @@ import { sendProblem, toServiceError } from '../problem-reply.js'
 
 export interface ProblemsOptions {
   bodyLimit: number
+  /** Level of the line about a 4xx answer: the client's mistake, not the server's (see request-log.ts). */
+  clientErrorLevel: 'info' | 'debug'
 }
 
 async function problems (app: FastifyInstance, options: ProblemsOptions): Promise<void> {
@@ -18,7 +20,7 @@ async function problems (app: FastifyInstance, options: ProblemsOptions): Promis
     if (problem.status >= 500) {
       request.log.error({ err: error, method: request.method, url: request.url }, 'request failed')
     } else {
-      request.log.info({ code: problem.code, status: problem.status }, problem.message)
+      request.log[options.clientErrorLevel]({ code: problem.code, status: problem.status }, problem.message)
     }
     return sendProblem(reply, problem)
   })

@@ -12,6 +12,7 @@ const EVENT_STREAM_DESCRIPTION = [
   '- `snapshot` (first): the SweepStatus as GET /v1/sweeps/{id} returns it (without the spec);',
   '- `progress`: the SweepStatus after more trials finished (at most about 4 per second);',
   '- `state`: the SweepStatus after a change of status; after a terminal one (succeeded, failed, canceled) the server closes the stream.',
+  'Every stream ends with that terminal `state` event: for a sweep that had already ended, the stream is its `snapshot`, then its `state`, then the close.',
   'Lines starting with `:` are heartbeats (`: ping`). A reconnecting client gets a fresh snapshot.'
 ].join('\n')
 

@@ -1,8 +1,9 @@
 /**
  * Figures of succeeded sweeps, drawn by src/figures as standalone SVG: one sweep, or several
  * overlaid (one series per sweep). The query is the figure options schema itself, so the
- * OpenAPI document lists every option; options that do not fit the sweeps (an x one of them
- * does not vary, …) are 400s naming the field.
+ * OpenAPI document lists every option. An option that is malformed on its own is a 400; one
+ * that is well formed but does not fit the sweeps (an x one of them does not vary, …) is a 422;
+ * both name the option.
  */
 import { z } from 'zod'
 import type { FastifyReply, FastifyRequest } from 'fastify'
@@ -46,7 +47,7 @@ const svgResponses = {
     content: { 'image/svg+xml': { schema: z.string().describe('A standalone SVG document (UTF-8) with <title> and <desc>.') } }
   },
   304: z.undefined().describe('Not modified: the ETag in If-None-Match is current.'),
-  ...problemResponses(400, 401, 404, 409, 429)
+  ...problemResponses(400, 401, 404, 409, 422, 429)
 }
 
 function sendBytes (reply: FastifyReply, body: Buffer): FastifyReply {
@@ -85,7 +86,7 @@ export const figureRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
     schema: {
       operationId: 'getSweepFigure',
       summary: 'A figure of a succeeded sweep (SVG)',
-      description: 'A measure against one varied parameter, one series per value of the others, 95 % error bars, theory overlaid where it applies, legend; readable in black and white. Every point carries its numbers as data-x, data-y, data-low, data-high attributes. A strong ETag (sha256 of the bytes) supports If-None-Match → 304. 409 while the sweep has not succeeded; 400 naming the option when the options do not fit this sweep (for example an x it does not vary).',
+      description: 'A measure against one varied parameter, one series per value of the others, 95 % error bars, theory overlaid where it applies, legend; readable in black and white. Every point carries its numbers as data-x, data-y, data-low, data-high attributes. A strong ETag (sha256 of the bytes) supports If-None-Match → 304. 409 while the sweep has not succeeded; 400 naming the option when an option is malformed, 422 naming it when the options do not fit this sweep (for example an x it does not vary).',
       tags: ['sweeps'],
       params: z.object({ id: sweepIdSchema }),
       querystring: FigureOptionsSchema,
@@ -105,7 +106,7 @@ export const figureRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
     schema: {
       operationId: 'getOverlayFigure',
       summary: 'Several succeeded sweeps overlaid in one figure (SVG)',
-      description: `The figure of /v1/sweeps/{id}/figure.svg for up to ${MAX_OVERLAID_SWEEPS} sweeps at once, one series per sweep (and per value of its other varied parameters), labelled by sweep label; x must be varied by every sweep. For comparing, for example, two learning rules' capacity curves. 404 if any sweep is unknown, 409 if any has not succeeded.`,
+      description: `The figure of /v1/sweeps/{id}/figure.svg for up to ${MAX_OVERLAID_SWEEPS} sweeps at once, one series per sweep (and per value of its other varied parameters), labelled by sweep label; x must be varied by every sweep. For comparing, for example, two learning rules' capacity curves. 404 if any sweep is unknown, 409 if any has not succeeded, 422 naming the option if the options do not fit them.`,
       tags: ['sweeps'],
       querystring: overlayQuery,
       response: svgResponses
@@ -180,5 +181,6 @@ function misfit (issues: readonly FigureIssue[]): never {
     ...fieldIssue(issue.path === '' ? [] : [issue.path], issue.message),
     path: issue.path === '' ? 'querystring' : `querystring.${issue.path}`
   }))
-  throw new ServiceError('MEMSWEEP_MALFORMED_REQUEST', { reason: 'the figure options do not fit the sweep(s)' }, { extensions: listedIssues(errors) })
+  const words = issues.map((issue) => (issue.path === '' ? issue.message : `${issue.path}: ${issue.message}`)).join('; ')
+  throw new ServiceError('MEMSWEEP_FIGURE_OPTIONS_UNFIT', { issues: words }, { extensions: listedIssues(errors) })
 }

@@ -2,7 +2,7 @@
 import { z } from 'zod'
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod'
 import { ServiceError } from '../../errors.js'
-import { ActiveSweepCapError, ANY_OWNER } from '../../backends/port.js'
+import { ActiveSweepCapError, ANY_OWNER, TERMINAL_STATUSES } from '../../backends/port.js'
 import { SweepSpecSchema, checkLimits, estimateWork, normaliseSpec, specHash, WorkLimitError } from '../../spec/index.js'
 import { requireAction, requireAdmin } from '../plugins/auth.js'
 import { ifNoneMatchHits, presentSweep, sweepPath, sweepStateTag } from '../presenters.js'
@@ -69,13 +69,14 @@ export const sweepRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx)
     schema: {
       operationId: 'submitSweep',
       summary: 'Submit a sweep',
-      description: 'Validates the spec, checks it against the work limits before anything is allocated, and queues it. Answers 202 with the status and a Location header; follow progress at /events or by polling the status.',
+      description: 'Validates the spec, checks it against the work limits before anything is allocated, and queues it. Answers 202 with the status, a Location header and Retry-After; follow progress at /events or by polling the status. When the answer is a sweep that has already finished (a repeated Idempotency-Key of a finished sweep, or ?reuse=true finding identical results), it is 200 with that sweep\'s final status instead: no waiting needed.',
       tags: ['sweeps'],
       body: SweepSpecSchema,
       querystring: submitQuery,
       headers: idempotencyHeaders,
       response: {
-        202: sweepDetailSchema.describe('Accepted: the sweep\'s status (Location names it).'),
+        200: sweepDetailSchema.describe('The sweep has already finished (an Idempotency-Key repeated after it ended, or reused results): its final status. Location names it; no Retry-After.'),
+        202: sweepDetailSchema.describe('Accepted, not finished yet: the sweep\'s status (Location names it; Retry-After suggests when to look again).'),
         ...problemResponses(400, 401, 403, 413, 415, 422, 429)
       }
     }
@@ -99,11 +100,15 @@ export const sweepRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx)
       if (!(error instanceof ActiveSweepCapError)) throw error
       throw new ServiceError('MEMSWEEP_TOO_MANY_ACTIVE_SWEEPS', { owner: ownerLabel(principal), active: error.active, max: error.max }, { headers: { 'retry-after': '30' }, extensions: { retryAfter: 30 } })
     }
-    request.log.info({ sweepId: record.id, specHash: record.specHash, reusedFrom: record.reusedFrom }, 'sweep submitted')
-    return reply.code(202)
-      .header('location', sweepPath(record.id))
-      .header('retry-after', '2')
-      .send({ ...presentSweep(record), spec: record.spec as unknown as Record<string, unknown> })
+    request.log.info({ sweepId: record.id, specHash: record.specHash, reusedFrom: record.reusedFrom, status: record.status }, 'sweep submitted')
+    reply.header('location', sweepPath(record.id))
+    if (TERMINAL_STATUSES.has(record.status)) {
+      // Nothing to wait for: the answer is the sweep's final state.
+      reply.code(200).header('content-location', sweepPath(record.id))
+    } else {
+      reply.code(202).header('retry-after', '2')
+    }
+    return reply.send({ ...presentSweep(record), spec: record.spec as unknown as Record<string, unknown> })
   })
 
   app.post('/v1/sweeps/validate', {
@@ -185,17 +190,22 @@ export const sweepRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx)
     schema: {
       operationId: 'cancelSweep',
       summary: 'Cancel a sweep',
-      description: 'Stops a queued or running sweep (running trials stop within about a second) and answers 202 with its record. Canceling a finished sweep changes nothing. The request needs no body; one that is sent is read like any (JSON, within the body limit) and ignored.',
+      description: 'Stops a queued or running sweep (running trials stop within about a second) and answers 202 with its record. A sweep that has already ended (succeeded, failed or canceled) cannot be canceled: 409 MEMSWEEP_SWEEP_FINISHED, and nothing changes. The request needs no body; one that is sent is read like any (JSON, within the body limit) and ignored.',
       tags: ['sweeps'],
       params: idParams,
-      response: { 202: sweepDetailSchema.describe('Cancel requested: the sweep\'s record after the change.'), ...problemResponses(400, 401, 403, 404, 413, 415, 429) }
+      response: { 202: sweepDetailSchema.describe('Cancel requested: the sweep\'s record after the change.'), ...problemResponses(400, 401, 403, 404, 409, 413, 415, 429) }
     }
   }, async (request, reply) => {
     const principal = request.principal
-    await visibleSweep(queue, principal, request.params.id)
+    const { id } = request.params
+    const before = await visibleSweep(queue, principal, id)
     requireAction(principal, 'cancel')
-    const record = await queue.cancel(request.params.id)
-    if (record === null) throw new ServiceError('MEMSWEEP_SWEEP_NOT_FOUND', { id: request.params.id })
+    const finished = (status: string): ServiceError => new ServiceError('MEMSWEEP_SWEEP_FINISHED', { id, status }, { extensions: { sweepId: id } })
+    if (TERMINAL_STATUSES.has(before.status)) throw finished(before.status)
+    const record = await queue.cancel(id)
+    if (record === null) throw new ServiceError('MEMSWEEP_SWEEP_NOT_FOUND', { id })
+    // It may have ended on its own between the read and the cancel.
+    if (record.status === 'succeeded' || record.status === 'failed') throw finished(record.status)
     request.log.info({ sweepId: record.id, status: record.status }, 'sweep cancel requested')
     return reply.code(202).send({ ...presentSweep(record), spec: record.spec as unknown as Record<string, unknown> })
   })

@@ -7,6 +7,7 @@ export interface ServeOptions {
   dataDir?: string
   threads?: string
   tokensFile?: string
+  allowAnonymous?: boolean
   redisUrl?: string
 }
 
@@ -26,6 +27,7 @@ export async function serve (io: CliIo, options: ServeOptions): Promise<void> {
     DATA_DIR: options.dataDir,
     WORKER_THREADS: options.threads,
     TOKENS_FILE: options.tokensFile,
+    ALLOW_ANONYMOUS: options.allowAnonymous === true ? 'true' : undefined,
     REDIS_URL: options.redisUrl
   }))
 }

@@ -19,7 +19,7 @@ export function eventsContract (factory: QueueFactory): void {
     })
     afterAll(async () => { await h.close() })
 
-    it('sends a snapshot of a finished sweep and closes', async () => {
+    it('sends the snapshot of a finished sweep, then its final state, and closes', async () => {
       const id = (await h.request({ method: 'POST', url: '/v1/sweeps', payload: quickSpec(61) })).json().id
       await h.waitFor(id, isTerminal)
       const res = await h.request({ method: 'GET', url: `/v1/sweeps/${id}/events` })
@@ -29,11 +29,12 @@ export function eventsContract (factory: QueueFactory): void {
       expect(res.headers['cache-control']).toContain('no-cache')
       expect(res.headers['x-request-id']).toBeDefined()
       const events = parseEventStream(res.body).filter((e) => e.event !== undefined)
-      expect(events).toHaveLength(1)
-      expect(events[0]).toMatchObject({ id: '1', event: 'snapshot' })
-      const snapshot = JSON.parse(events[0]!.data!)
+      expect(events.map((e) => [e.id, e.event])).toEqual([['1', 'snapshot'], ['2', 'state']])
+      const [snapshot, state] = events.map((e) => JSON.parse(e.data!))
       assertComponent('SweepStatus', snapshot)
+      assertComponent('SweepStatus', state)
       expect(snapshot.status).toBe('succeeded')
+      expect(state).toEqual(snapshot)
     })
 
     it('streams snapshot, progress and state events of a live sweep in order, then closes', async () => {

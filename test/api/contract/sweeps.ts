@@ -66,12 +66,17 @@ export function sweepContract (factory: QueueFactory): void {
       expectProblem(results, 409, 'MEMSWEEP_RESULTS_UNAVAILABLE')
     })
 
-    it('canceling a finished sweep changes nothing', async () => {
+    it('canceling a finished sweep is a 409 that changes nothing', async () => {
       const id = (await h.request({ method: 'POST', url: '/v1/sweeps', payload: quickSpec(12) })).json().id
       await h.waitFor(id, isTerminal)
+      const before = (await h.request({ method: 'GET', url: `/v1/sweeps/${id}` })).json()
       const res = await h.request({ method: 'DELETE', url: `/v1/sweeps/${id}` })
-      expect(res.statusCode).toBe(202)
-      expect(res.json().status).toBe('succeeded')
+      const problem = expectProblem(res, 409, 'MEMSWEEP_SWEEP_FINISHED')
+      expect(problem.detail).toBe(`Sweep '${id}' already ended as succeeded; a finished sweep cannot be canceled.`)
+      expect(problem.sweepId).toBe(id)
+      const after = (await h.request({ method: 'GET', url: `/v1/sweeps/${id}` })).json()
+      expect(after).toEqual(before)
+      expect((await h.request({ method: 'GET', url: `/v1/sweeps/${id}/results?format=csv` })).statusCode).toBe(200)
     })
 
     it('gives the status a weak ETag, so pollers get 304 until the sweep changes', async () => {
@@ -134,8 +139,16 @@ export function sweepContract (factory: QueueFactory): void {
       const first = await h.request({ method: 'POST', url: '/v1/sweeps', payload: quickSpec(21), headers: { 'idempotency-key': key } })
       const again = await h.request({ method: 'POST', url: '/v1/sweeps', payload: quickSpec(21), headers: { 'idempotency-key': `"${key}"` } })
       expect(first.statusCode).toBe(202)
-      expect(again.statusCode).toBe(202)
+      expect(first.headers['retry-after']).toBe('2')
       expect(again.json().id).toBe(first.json().id)
+      // 202 while it runs, 200 once it has finished (a small sweep may already have).
+      expect(again.statusCode).toBe(isTerminal(again.json()) ? 200 : 202)
+      await h.waitFor(first.json().id, isTerminal)
+      const afterwards = await h.request({ method: 'POST', url: '/v1/sweeps', payload: quickSpec(21), headers: { 'idempotency-key': key } })
+      expect(afterwards.statusCode).toBe(200)
+      expect(afterwards.json()).toMatchObject({ id: first.json().id, status: 'succeeded' })
+      expect(afterwards.headers.location).toBe(`/v1/sweeps/${first.json().id as string}`)
+      expect(afterwards.headers['retry-after']).toBeUndefined()
       const different = await h.request({ method: 'POST', url: '/v1/sweeps', payload: quickSpec(22), headers: { 'idempotency-key': key } })
       const problem = expectProblem(different, 422, 'MEMSWEEP_IDEMPOTENCY_KEY_REUSED')
       expect(problem.detail).toContain(key)
@@ -147,7 +160,10 @@ export function sweepContract (factory: QueueFactory): void {
       const original = (await h.request({ method: 'POST', url: '/v1/sweeps', payload: quickSpec(31) })).json()
       await h.waitFor(original.id, isTerminal)
       const reused = await h.request({ method: 'POST', url: '/v1/sweeps?reuse=true', payload: quickSpec(31) })
-      expect(reused.statusCode).toBe(202)
+      // Finished on arrival: 200 with its final status, nothing to wait for.
+      expect(reused.statusCode).toBe(200)
+      expect(reused.headers['retry-after']).toBeUndefined()
+      expect(reused.headers.location).toBe(`/v1/sweeps/${reused.json().id as string}`)
       expect(reused.json()).toMatchObject({ status: 'succeeded', reusedFrom: original.id, specHash: original.specHash })
       const fresh = (await h.request({ method: 'POST', url: '/v1/sweeps', payload: quickSpec(31) })).json()
       expect(fresh.reusedFrom).toBeNull()

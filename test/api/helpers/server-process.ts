@@ -30,7 +30,8 @@ export async function startServerProcess (env: Record<string, string>, timeoutMs
       let parsed: Record<string, unknown>
       try { parsed = JSON.parse(line) } catch { return }
       logLines.push(parsed)
-      if (parsed.msg === 'memsweep listening') { clearTimeout(timer); resolve(String(parsed.address)) }
+      const listening = parsed.listening as { address?: string } | undefined
+      if (listening?.address !== undefined) { clearTimeout(timer); resolve(listening.address) }
     })
     exited.then((code) => { clearTimeout(timer); reject(new Error(`server exited with ${code} before listening\n${stderr}`)) }, reject)
   })
