@@ -1,14 +1,14 @@
 /** Sweep records as the API shows them. */
 import { createHash } from 'node:crypto'
 import type { SweepRecord } from '../backends/port.js'
-import type { SweepStatusBody } from './schemas/sweep.js'
+import type { SweepBody } from './schemas/sweep.js'
 
 export function sweepPath (id: string): string {
   return `/v1/sweeps/${encodeURIComponent(id)}`
 }
 
 /** Public status body; `now` is injectable so elapsed times are testable. */
-export function presentSweep (record: SweepRecord, now: number = Date.now()): SweepStatusBody {
+export function presentSweep (record: SweepRecord, now: number = Date.now()): SweepBody {
   const p = record.progress
   const started = record.startedAt === null ? null : Date.parse(record.startedAt)
   const finished = record.finishedAt === null ? null : Date.parse(record.finishedAt)

@@ -3,7 +3,7 @@ import { z } from 'zod'
 import { SWEEP_ID_MAX_LENGTH, SWEEP_ID_PATTERN, SWEEP_STATUSES } from '../../backends/port.js'
 
 export const sweepStatusEnum = z.enum(SWEEP_STATUSES).meta({
-  id: 'SweepStatusName',
+  id: 'SweepStatus',
   description: 'queued: waiting for a worker; running: trials are being computed; succeeded: results are ready; failed: stopped by an error (see `error.kind`); canceled: stopped on request.'
 })
 
@@ -36,7 +36,7 @@ export const sweepLinksSchema = z.object({
   results: z.string()
 })
 
-export const sweepStatusSchema = z.object({
+export const sweepSchema = z.object({
   id: z.string(),
   status: sweepStatusEnum,
   label: z.string().nullable(),
@@ -49,16 +49,16 @@ export const sweepStatusSchema = z.object({
   error: failureSchema.nullable().describe('Why the sweep failed; null unless status is failed.'),
   reusedFrom: z.string().nullable().describe('Id of the earlier identical sweep whose results this one reuses, if any.'),
   links: sweepLinksSchema
-}).meta({ id: 'SweepStatus' })
+}).meta({ id: 'Sweep' })
 
 export const sweepListSchema = z.object({
-  items: z.array(sweepStatusSchema),
+  items: z.array(sweepSchema),
   nextCursor: z.string().nullable().describe('Pass as `cursor` for the next page; null on the last page. The same URL is in the Link header (rel="next").')
 }).meta({ id: 'SweepList' })
 
-export type SweepStatusBody = z.infer<typeof sweepStatusSchema>
+export type SweepBody = z.infer<typeof sweepSchema>
 
-export const sweepDetailSchema = sweepStatusSchema.extend({
+export const sweepDetailSchema = sweepSchema.extend({
   spec: z.record(z.string(), z.unknown())
     .describe('The normalised spec: every default filled in, every axis expanded to { values }. It is itself a valid spec, so it can be resubmitted as is.')
 }).meta({ id: 'SweepDetail' })

@@ -31,8 +31,8 @@ export function eventsContract (factory: QueueFactory): void {
       const events = parseEventStream(res.body).filter((e) => e.event !== undefined)
       expect(events.map((e) => [e.id, e.event])).toEqual([['1', 'snapshot'], ['2', 'state']])
       const [snapshot, state] = events.map((e) => JSON.parse(e.data!))
-      assertComponent('SweepStatus', snapshot)
-      assertComponent('SweepStatus', state)
+      assertComponent('Sweep', snapshot)
+      assertComponent('Sweep', state)
       expect(snapshot.status).toBe('succeeded')
       expect(state).toEqual(snapshot)
     })
@@ -62,7 +62,7 @@ export function eventsContract (factory: QueueFactory): void {
       let previous = -1
       for (const e of events) {
         const body = JSON.parse(e.data!)
-        assertComponent('SweepStatus', body)
+        assertComponent('Sweep', body)
         expect(body.progress.trialsDone).toBeGreaterThanOrEqual(previous)
         previous = body.progress.trialsDone
       }
