@@ -11,20 +11,9 @@ import { buildApp } from './app.js'
 /** A queue that refuses every call: building the document must never reach a backend. */
 function documentOnlyQueue (): SweepQueue {
   const refuse = (): never => { throw new Error('the OpenAPI build has no queue backend') }
-  return {
-    kind: 'embedded',
-    submit: refuse,
-    get: refuse,
-    list: refuse,
-    cancel: refuse,
-    results: refuse,
-    trials: refuse,
-    encodedResult: refuse,
-    subscribe: refuse,
-    stats: refuse,
-    ready: refuse,
-    close: async () => {}
-  }
+  return new Proxy({ kind: 'embedded', close: async () => {} } as unknown as SweepQueue, {
+    get: (target, property) => Reflect.get(target, property) ?? refuse
+  })
 }
 
 export async function buildOpenApiDocument (): Promise<Record<string, unknown>> {

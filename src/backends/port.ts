@@ -7,11 +7,11 @@
 import type { TrialRecord } from '../engine/index.js'
 import type { NormalisedSpec } from '../spec/index.js'
 import type { SweepResult } from '../results/index.js'
-import type { Chunk, ListQuery, StoredChunk, SweepPage, SweepRecord } from '../sweep/index.js'
+import type { Annotation, Chunk, ListQuery, StoredChunk, SweepPage, SweepRecord } from '../sweep/index.js'
 
 export {
   SWEEP_STATUSES, TERMINAL_STATUSES, ANY_OWNER, SWEEP_ID_MAX_LENGTH, SWEEP_ID_PATTERN,
-  type SweepStatus, type SweepProgress, type SweepFailure, type SweepRecord, type ListQuery
+  type SweepStatus, type SweepProgress, type SweepFailure, type SweepRecord, type ListQuery, type Annotation
 } from '../sweep/index.js'
 export { IdempotencyConflictError, ActiveSweepCapError, InvalidCursorError, StorageUnavailableError } from './errors.js'
 
@@ -26,8 +26,23 @@ export interface SubmitInput {
   idempotencyKey?: string
   /** Reuse the results of a finished identical spec instead of running again. */
   reuse?: boolean
+  /** Take stored trials of the owner's earlier sweeps point by point (same parameters, seed and trial range). @defaultValue true */
+  reusePoints?: boolean
   /** Refuse with ActiveSweepCapError when the owner already has this many queued or running sweeps (checked atomically). */
   maxActive?: number
+  /** The sweep this one extends. */
+  extends?: string
+  tags?: string[]
+  notes?: string | null
+}
+
+/** What is stored of a sweep so far, whatever its state: for partial results. */
+export interface StoredProgress {
+  spec: NormalisedSpec
+  plan: Chunk[]
+  chunks: StoredChunk[]
+  /** Points still taking trial blocks (precision targets): their rows are not final. */
+  openPoints: number[]
 }
 
 /** A succeeded sweep's result as stored, for rendering off the event loop. */
@@ -60,6 +75,17 @@ export interface SweepQueue {
   list (query: ListQuery): Promise<SweepPage>
   /** Cancels a queued or running sweep; a no-op on a terminal one. Returns the record after the change. */
   cancel (id: string): Promise<SweepRecord | null>
+  /**
+   * Lets a canceled or failed sweep run on from what it stored (nothing finished is computed
+   * again). Returns the record after the change; a no-op on any other state.
+   */
+  resume (id: string): Promise<SweepRecord | null>
+  /** Changes a sweep's label, tags or notes. */
+  annotate (id: string, patch: Annotation): Promise<SweepRecord | null>
+  /** Removes a finished sweep with everything stored for it; false for an active or unknown one. */
+  purge (id: string): Promise<boolean>
+  /** The stored chunks of a sweep in any state (null for an unknown one), read in batches. */
+  storedProgress (id: string): Promise<StoredProgress | null>
   /** The assembled result of a succeeded sweep (rows or searches, provenance; `trials` empty), else null. */
   results (id: string): Promise<SweepResult | null>
   /** trials[point][trial] of a succeeded sweep, read from its stored chunks; null when it has none. */

@@ -37,6 +37,8 @@ export interface ResultRow {
   theory: Record<string, number>
   /** The model's other theory values, by name: why each is missing here (reason codes: docs/theory.md). */
   theoryUnavailable: Record<string, UnavailableReason>
+  /** With precision targets: the 95 % half-width this point reached with its trials, and whether it met the target. */
+  precision?: { measure: 'success' | 'overlap', target: number, halfWidth: number, met: boolean }
 }
 
 export interface SweepResult {

@@ -35,3 +35,12 @@ export function specHash (spec: NormalisedSpec): string {
   const { label: _label, ...work } = spec
   return createHash('sha256').update(canonicalJson(work)).digest('hex')
 }
+
+/**
+ * SHA-256 (hex) of the canonical JSON of a normalised spec without its label and seed: sweeps
+ * with the same key differ only in their random draws, so they are replicates of each other.
+ */
+export function replicateKey (spec: NormalisedSpec): string {
+  const { label: _label, seed: _seed, ...work } = spec
+  return createHash('sha256').update(canonicalJson(work)).digest('hex')
+}

@@ -42,7 +42,7 @@ export function normaliseSpec (input: unknown): NormalisedSpec {
   if (presence.length > 0) fail(presence)
 
   const spec = buildNormalised(parsed.data)
-  const supplied = [...suppliedIssues(spec, parsed.data), ...analysisIssues(spec)]
+  const supplied = [...suppliedIssues(spec, parsed.data), ...analysisIssues(spec), ...precisionIssues(spec)]
   if (supplied.length > 0) fail(supplied)
 
   const points = countPoints(spec)
@@ -167,6 +167,7 @@ function buildNormalised (p: ParsedSpec): NormalisedSpec {
   else if (p.load !== undefined) spec.load = varied('load', p.load)
   else if (suppliedRows !== null) spec.patterns = suppliedRows.length
   if (p.analysis !== undefined) spec.analysis = normaliseAnalysis(p.analysis)
+  if (p.precision !== undefined) spec.precision = { ...p.precision }
   return sortKeysDeep(spec)
 }
 
@@ -178,6 +179,14 @@ function normaliseRule (r: ParsedSpec['rule']): NormalisedRule {
     case 'modern-softmax': return { kind: r.kind, beta: varied('rule.beta', r.beta) }
     default: return { kind: r.kind, selfCoupling: r.selfCoupling }
   }
+}
+
+/** Precision targets run blocks of a grid point's trials: not with a threshold search, and a block fits within the ceiling. */
+function precisionIssues (spec: NormalisedSpec): SpecIssue[] {
+  if (spec.precision === undefined) return []
+  if (spec.analysis !== undefined) return [{ path: 'precision', message: 'a threshold search sets its own trials per step: precision targets apply to grid sweeps only' }]
+  if (spec.precision.block > spec.trials) return [{ path: 'precision.block', message: `a block of ${spec.precision.block} trials does not fit the ceiling of ${spec.trials} trials per point (trials)` }]
+  return []
 }
 
 /** Supplied patterns: one length for every row, matching `neurons`; entries in the coding; enough rows for `patterns`. */

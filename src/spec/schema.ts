@@ -212,7 +212,16 @@ export const SweepSpecSchema = z.strictObject({
     .describe(`Trials (recall attempts) per grid point; with an analysis, per evaluated value of the searched parameter. Default: ${SPEC_DEFAULTS.trials}.`),
   trialsPerNetwork: varied('trialsPerNetwork', 'Consecutive trials that share one network (pattern set and couplings); 1 draws a new network for every trial. Default: 1.')
     .default(SPEC_DEFAULTS.trialsPerNetwork),
-  analysis: analysisSchema(VARIED_PARAMETERS).optional()
+  analysis: analysisSchema(VARIED_PARAMETERS).optional(),
+  precision: z.strictObject({
+    measure: z.enum(['success', 'overlap'])
+      .describe('The measure whose 95 % interval must be narrow enough: success (the recall success rate, Wilson interval) or overlap (the mean final overlap, mean ± 1.96·se).'),
+    halfWidth: z.number().gt(0).lt(1)
+      .describe('Target half-width of that 95 % interval: a point stops taking trial blocks once its interval is this narrow.'),
+    block: z.int().min(10).max(SPEC_CEILINGS.trials)
+      .describe('Trials per block: every point runs this many, then more blocks of the same size until it meets the target or reaches `trials` (the ceiling).')
+  }).optional()
+    .describe('Precision targets: instead of a fixed number of trials per point, blocks of trials until each point\'s 95 % interval is narrow enough, at most `trials`. Results say per point how many trials it took and whether it met the target. Absent: every point runs `trials` trials.')
 }).meta({
   id: 'SweepSpec',
   title: 'Sweep spec',

@@ -53,4 +53,12 @@ export interface NormalisedSpec {
   trialsPerNetwork: Varied
   /** Present only for an analysis (threshold search); absent for a grid sweep, so grid specs and their hashes are unchanged. */
   analysis?: NormalisedAnalysis
+  /** Present only with precision targets: points take blocks of trials until their interval is narrow enough (`trials` is the ceiling). */
+  precision?: NormalisedPrecision
+}
+
+export interface NormalisedPrecision {
+  measure: 'success' | 'overlap'
+  halfWidth: number
+  block: number
 }

@@ -13,6 +13,7 @@ import { assembleSearches } from './analysis/assemble-searches.js'
 import { decodeValue } from './codec.js'
 import { POINT_KEYING, type ChunkResult } from './compute-chunk.js'
 import { IncompleteResultError } from './errors.js'
+import { precisionOutcome } from './precision.js'
 import type { Chunk } from './plan.js'
 
 export interface RunTiming {
@@ -70,9 +71,10 @@ export function assembleStored (spec: NormalisedSpec, plan: readonly Chunk[], st
   const fastPaths = new Set<string>()
   const rows: ResultRow[] = []
   for (let point = 0; point < countPoints(spec); point++) {
-    const results = (chunksOfPoint.get(point) ?? []).map(decode)
+    const planned = chunksOfPoint.get(point) ?? []
+    const results = planned.map(decode)
     for (const result of results) if (result.fastPath !== undefined) fastPaths.add(result.fastPath)
-    rows.push(resultRow(spec, point, placePointTrials(spec, point, results)))
+    rows.push(resultRow(spec, point, placePointTrials(spec, point, results, trialsOf(planned))))
   }
   if (provenance.fastPath === undefined && fastPaths.size > 0) provenance = { ...provenance, fastPath: [...fastPaths].sort().join(', ') }
   return { specHash: hash, spec, rows, trials: [], provenance: sortKeysDeep(provenance) }
@@ -106,14 +108,39 @@ export function assembleResult (spec: NormalisedSpec, chunkResults: readonly Chu
 function resultRow (spec: NormalisedSpec, point: number, pointTrials: readonly TrialRecord[]): ResultRow {
   const { values, params } = pointAt(spec, point)
   const theory = theoryForPoint(params)
+  const summary = aggregatePoint(params, pointTrials)
+  const precision = precisionOutcome(spec, summary)
   return {
     point,
     values,
     params: { alpha: params.patterns / params.neurons, neurons: params.neurons, patterns: params.patterns },
-    summary: aggregatePoint(params, pointTrials),
+    summary,
     theory: sortKeysDeep(theory.values),
-    theoryUnavailable: sortKeysDeep(theory.unavailable)
+    theoryUnavailable: sortKeysDeep(theory.unavailable),
+    ...(precision === undefined ? {} : { precision })
   }
+}
+
+/** Trials a point's planned chunks hold. */
+function trialsOf (chunks: readonly Chunk[]): number {
+  return chunks.reduce((sum, chunk) => sum + chunk.count, 0)
+}
+
+/**
+ * The records of one point's stored chunks, in trial order: what a precision decision or a
+ * partial result reads.
+ *
+ * @throws {IncompleteResultError} when a chunk of the point is not stored.
+ */
+export function pointRecords (spec: NormalisedSpec, plan: readonly Chunk[], stored: readonly StoredChunk[], point: number): TrialRecord[] {
+  const bodies = new Map(stored.map((chunk) => [chunk.index, chunk.body]))
+  const planned = plan.filter((chunk) => chunk.point === point)
+  const results = planned.map((chunk) => {
+    const body = bodies.get(chunk.index)
+    if (body === undefined) throw new IncompleteResultError([`chunk ${chunk.index} of point ${point} is not stored`])
+    return { ...decodeValue<ChunkResult>(body), chunk: chunk.index, point }
+  })
+  return placePointTrials(spec, point, results, trialsOf(planned))
 }
 
 /** The trial records of stored chunks, trials[point][trial], for readers that ask for them. */
@@ -127,9 +154,9 @@ export function storedTrials (spec: NormalisedSpec, plan: readonly Chunk[], stor
 }
 
 /** The trials of one point from its chunks' results, in trial order (see placeTrials). */
-function placePointTrials (spec: NormalisedSpec, point: number, chunkResults: readonly ChunkResult[]): TrialRecord[] {
-  const slot = new Array<TrialRecord | undefined>(spec.trials)
-  const problems = fillSlot(spec, point, slot, chunkResults)
+function placePointTrials (spec: NormalisedSpec, point: number, chunkResults: readonly ChunkResult[], trials: number): TrialRecord[] {
+  const slot = new Array<TrialRecord | undefined>(trials)
+  const problems = fillSlot(point, slot, chunkResults)
   if (problems.length > 0) throw new IncompleteResultError(problems)
   return slot as TrialRecord[]
 }
@@ -142,8 +169,10 @@ function placeTrials (spec: NormalisedSpec, chunkResults: readonly ChunkResult[]
     if (Number.isSafeInteger(result.point) && result.point >= 0 && result.point < points) byPoint[result.point]!.push(result)
     else problems.push(`chunk ${result.chunk} names point ${result.point}, outside the grid of ${points}`)
   }
-  const slots: Array<Array<TrialRecord | undefined>> = Array.from({ length: points }, () => new Array<TrialRecord | undefined>(spec.trials))
-  for (let point = 0; point < points; point++) problems.push(...fillSlot(spec, point, slots[point]!, byPoint[point]!))
+  // With precision targets a point holds the trials its blocks ran; otherwise `trials` each.
+  const countOf = (point: number): number => spec.precision === undefined ? spec.trials : byPoint[point]!.reduce((sum, result) => sum + result.trials.length, 0)
+  const slots: Array<Array<TrialRecord | undefined>> = Array.from({ length: points }, (_, point) => new Array<TrialRecord | undefined>(countOf(point)))
+  for (let point = 0; point < points; point++) problems.push(...fillSlot(point, slots[point]!, byPoint[point]!))
   if (problems.length > 0) throw new IncompleteResultError(problems)
   return slots as TrialRecord[][]
 }
@@ -153,14 +182,15 @@ function placeTrials (spec: NormalisedSpec, chunkResults: readonly ChunkResult[]
  * is wrong: trials outside the point, trials delivered twice with different content (a
  * retried chunk may be delivered twice; identical records are harmless), missing trials.
  */
-function fillSlot (spec: NormalisedSpec, point: number, slot: Array<TrialRecord | undefined>, chunkResults: readonly ChunkResult[]): string[] {
+function fillSlot (point: number, slot: Array<TrialRecord | undefined>, chunkResults: readonly ChunkResult[]): string[] {
+  const trials = slot.length
   const problems: string[] = []
   for (const result of [...chunkResults].sort((a, b) => a.chunk - b.chunk)) {
     let outside = 0
     let conflicting = 0
     for (const record of result.trials) {
       const t = record.trial
-      if (!(Number.isSafeInteger(t) && t >= 0 && t < spec.trials)) {
+      if (!(Number.isSafeInteger(t) && t >= 0 && t < trials)) {
         outside++
         continue
       }
@@ -168,11 +198,11 @@ function fillSlot (spec: NormalisedSpec, point: number, slot: Array<TrialRecord 
       if (earlier === undefined) slot[t] = record
       else if (earlier !== record && canonicalJson(earlier) !== canonicalJson(record)) conflicting++
     }
-    if (outside > 0) problems.push(`chunk ${result.chunk} holds ${outside} trial(s) of point ${point} outside 0…${spec.trials - 1}`)
+    if (outside > 0) problems.push(`chunk ${result.chunk} holds ${outside} trial(s) of point ${point} outside 0…${trials - 1}`)
     if (conflicting > 0) problems.push(`chunk ${result.chunk} delivered ${conflicting} trial(s) of point ${point} twice with different content`)
   }
   let missing = 0
-  for (let t = 0; t < spec.trials; t++) if (slot[t] === undefined) missing++
-  if (missing > 0) problems.push(`point ${point} is missing ${missing} of ${spec.trials} trials`)
+  for (let t = 0; t < trials; t++) if (slot[t] === undefined) missing++
+  if (missing > 0) problems.push(`point ${point} is missing ${missing} of ${trials} trials`)
   return problems
 }

@@ -25,3 +25,9 @@ export type {
   SweepStore, SweepRecord, SweepDraft, CreateOptions, CreateOutcome, IdempotencyBinding, ChunkOutcome, Transition, ListQuery, SweepPage
 } from './store.js'
 export { SWEEP_ID_MAX_LENGTH, SWEEP_ID_PATTERN, isSweepId, newSweepId } from './ids.js'
+export { planWithReuse, pointPieces, initialTrials, type ReusableRange, type PlanWithReuse } from './plan.js'
+export { reuseKeysOf } from './reuse.js'
+export { decidePoint, precisionHalfWidth, precisionOutcome, type PointDecision } from './precision.js'
+export { pointRecords } from './assemble.js'
+export { submitToStore, type SubmitRequest, type SubmitOutcome } from './submit.js'
+export type { Annotation, StoredRange } from './store.js'

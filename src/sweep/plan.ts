@@ -46,23 +46,84 @@ export function planSweep (spec: NormalisedSpec): SweepPlan {
   return { version: PLAN_VERSION, chunks: spec.analysis === undefined ? gridChunks(spec) : searchChunks(spec) }
 }
 
+/** Trials a grid point is planned for at submission: all of them, or with precision targets its first block. */
+export function initialTrials (spec: NormalisedSpec): number {
+  return spec.precision === undefined ? spec.trials : Math.min(spec.precision.block, spec.trials)
+}
+
 function gridChunks (spec: NormalisedSpec): Chunk[] {
   const chunks: Chunk[] = []
   const points = countPoints(spec)
-  const trials = spec.trials
+  const trials = initialTrials(spec)
   for (let point = 0; point < points; point++) {
-    const { params } = pointAt(spec, point)
-    const seconds = pointOps(estimatePointCost(params), trials, params.trialsPerNetwork) / ENGINE_OPS_PER_CPU_SECOND
-    const cap = maxChunkTrials(params)
-    const pieces = Math.min(trials, Math.max(1, Math.ceil(seconds / TARGET_CHUNK_SECONDS), Math.ceil(trials / cap)))
-    let size = Math.ceil(trials / pieces)
-    const perNetwork = params.trialsPerNetwork
-    if (size >= perNetwork) size = Math.min(Math.ceil(size / perNetwork) * perNetwork, Math.max(perNetwork, Math.floor(cap / perNetwork) * perNetwork))
-    for (let first = 0; first < trials; first += size) {
-      chunks.push({ index: chunks.length, point, firstTrial: first, count: Math.min(size, trials - first) })
-    }
+    for (const piece of pointPieces(spec, point, 0, trials)) chunks.push({ index: chunks.length, point, ...piece })
   }
   return chunks
+}
+
+/**
+ * Trials [from, to) of a grid point cut into runs of about TARGET_CHUNK_SECONDS of estimated
+ * CPU time and at most maxChunkTrials trials, sizes rounded to whole networks where a run
+ * holds at least one.
+ */
+export function pointPieces (spec: NormalisedSpec, point: number, from: number, to: number): Array<{ firstTrial: number, count: number }> {
+  const trials = to - from
+  if (trials <= 0) return []
+  const { params } = pointAt(spec, point)
+  const seconds = pointOps(estimatePointCost(params), trials, params.trialsPerNetwork) / ENGINE_OPS_PER_CPU_SECOND
+  const cap = maxChunkTrials(params)
+  const count = Math.min(trials, Math.max(1, Math.ceil(seconds / TARGET_CHUNK_SECONDS), Math.ceil(trials / cap)))
+  let size = Math.ceil(trials / count)
+  const perNetwork = params.trialsPerNetwork
+  if (size >= perNetwork) size = Math.min(Math.ceil(size / perNetwork) * perNetwork, Math.max(perNetwork, Math.floor(cap / perNetwork) * perNetwork))
+  const pieces: Array<{ firstTrial: number, count: number }> = []
+  for (let first = from; first < to; first += size) pieces.push({ firstTrial: first, count: Math.min(size, to - first) })
+  return pieces
+}
+
+/** A stored chunk of an earlier sweep that holds trials [firstTrial, firstTrial + count) of a point with the same parameters and seed. */
+export interface ReusableRange {
+  sweepId: string
+  chunkIndex: number
+  firstTrial: number
+  count: number
+}
+
+export interface PlanWithReuse {
+  plan: SweepPlan
+  /** Chunks of the plan whose trials an earlier sweep holds already: copy, do not compute. */
+  inherit: Array<{ chunk: Chunk, from: { sweepId: string, chunkIndex: number } }>
+}
+
+/**
+ * The plan of a grid sweep that takes every trial it can from earlier sweeps: for each point,
+ * walking from trial 0, a stored range that starts exactly there (the longest that fits) is
+ * inherited as one chunk; trials no stored range starts at are planned as usual up to the
+ * next stored range. Every trial is covered exactly once, so the result is that of a fresh run.
+ */
+export function planWithReuse (spec: NormalisedSpec, available: (point: number) => readonly ReusableRange[]): PlanWithReuse {
+  if (spec.analysis !== undefined) return { plan: planSweep(spec), inherit: [] }
+  const chunks: Chunk[] = []
+  const inherit: PlanWithReuse['inherit'] = []
+  const trials = initialTrials(spec)
+  for (let point = 0; point < countPoints(spec); point++) {
+    const ranges = available(point).filter((range) => range.count >= 1 && range.firstTrial >= 0 && range.firstTrial + range.count <= trials)
+    let at = 0
+    while (at < trials) {
+      const here = ranges.filter((range) => range.firstTrial === at).sort((a, b) => b.count - a.count || a.sweepId.localeCompare(b.sweepId) || a.chunkIndex - b.chunkIndex)[0]
+      if (here !== undefined) {
+        const chunk = { index: chunks.length, point, firstTrial: at, count: here.count }
+        chunks.push(chunk)
+        inherit.push({ chunk, from: { sweepId: here.sweepId, chunkIndex: here.chunkIndex } })
+        at += here.count
+        continue
+      }
+      const next = Math.min(trials, ...ranges.filter((range) => range.firstTrial > at).map((range) => range.firstTrial))
+      for (const piece of pointPieces(spec, point, at, next)) chunks.push({ index: chunks.length, point, ...piece })
+      at = next
+    }
+  }
+  return { plan: { version: PLAN_VERSION, chunks }, inherit }
 }
 
 function searchChunks (spec: NormalisedSpec): Chunk[] {
@@ -72,26 +133,28 @@ function searchChunks (spec: NormalisedSpec): Chunk[] {
 
 /**
  * Checks that a stored plan is one this code can run for this spec: indexed 0 … n − 1,
- * every chunk inside the grid, and every trial of every point covered exactly once.
+ * every chunk inside the grid, and every trial of every point covered exactly once (with
+ * precision targets: at least the first block, in whole runs from trial 0).
  *
  * @throws {RangeError} naming the first problem.
  */
 export function checkPlan (spec: NormalisedSpec, plan: SweepPlan): void {
   if (plan.version !== PLAN_VERSION) throw new RangeError(`invalid argument. Plan version ${plan.version} is not supported (this code runs version ${PLAN_VERSION}).`)
   const points = countPoints(spec)
-  const perPoint = spec.analysis === undefined ? spec.trials : searchTrialBudget(spec, spec.analysis)
+  const perPoint = spec.analysis === undefined ? initialTrials(spec) : searchTrialBudget(spec, spec.analysis)
   const covered = new Float64Array(points)
   plan.chunks.forEach((chunk, position) => {
     if (chunk.index !== position) throw new RangeError(`invalid argument. Chunk at position ${position} has index ${chunk.index}.`)
     if (!(Number.isSafeInteger(chunk.point) && chunk.point >= 0 && chunk.point < points) ||
         !(Number.isSafeInteger(chunk.firstTrial) && chunk.firstTrial >= 0) ||
         !(Number.isSafeInteger(chunk.count) && chunk.count >= 1) ||
-        chunk.firstTrial + chunk.count > perPoint) {
+        chunk.firstTrial + chunk.count > (spec.precision === undefined ? perPoint : spec.trials)) {
       throw new RangeError(`invalid argument. Chunk ${JSON.stringify(chunk)} does not fit a grid of ${points} points × ${perPoint} trials.`)
     }
     covered[chunk.point]! += chunk.count
   })
-  const short = covered.findIndex((trials) => trials !== perPoint)
+  const ceiling = spec.precision === undefined ? perPoint : spec.trials
+  const short = covered.findIndex((trials) => trials < perPoint || trials > ceiling)
   if (short >= 0) throw new RangeError(`invalid argument. The plan covers ${covered[short]} trials of point ${short}, not ${perPoint}.`)
 }
 
@@ -104,7 +167,8 @@ export function checkPlan (spec: NormalisedSpec, plan: SweepPlan): void {
  */
 export function dispatchOrder (spec: NormalisedSpec, chunks: readonly Chunk[]): number[] {
   const workOfPoint = new Map<number, (trials: number) => number>()
-  const work = chunks.map((chunk) => {
+  const work = new Map<number, number>()
+  for (const chunk of chunks) {
     let of = workOfPoint.get(chunk.point)
     if (of === undefined) {
       const { params } = pointAt(spec, chunk.point)
@@ -113,9 +177,9 @@ export function dispatchOrder (spec: NormalisedSpec, chunks: readonly Chunk[]): 
       workOfPoint.set(chunk.point, of)
     }
     // A search chunk's count is its whole trial budget: comparable across searches.
-    return of(chunk.count)
-  })
-  return chunks.map((chunk) => chunk.index).sort((a, b) => (work[b]! - work[a]!) || a - b)
+    work.set(chunk.index, of(chunk.count))
+  }
+  return chunks.map((chunk) => chunk.index).sort((a, b) => (work.get(b)! - work.get(a)!) || a - b)
 }
 
 /** Grid point → number of the plan's chunks covering it. */

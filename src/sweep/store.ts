@@ -31,6 +31,14 @@ export interface SweepRecord {
   error: SweepFailure | null
   /** Id of an earlier identical sweep whose results this one reuses, if any. */
   reusedFrom: string | null
+  /** Id of the sweep this one extends (more trials, more axis values), if any. */
+  extends: string | null
+  /** Points and trials taken from earlier sweeps of the owner instead of computed (a point counts when all its trials were taken). */
+  reused: { points: number, trials: number }
+  tags: string[]
+  notes: string | null
+  /** Hash of the spec without its seed and label: sweeps that differ only in those are replicates of each other. */
+  replicateKey: string
 }
 
 /** A sweep as the lifecycle stores it on submission. */
@@ -42,6 +50,36 @@ export interface SweepDraft {
   spec: NormalisedSpec
   createdMs: number
   plan: SweepPlan
+  /** Hash of the spec without its seed and label. */
+  replicateKey: string
+  /**
+   * Per grid point, the key under which its stored trials can serve another sweep of the same
+   * owner (engine version, seed and the point's stream key); empty for a threshold search.
+   */
+  reuseKeys: string[]
+  extends?: string | null
+  tags?: string[]
+  notes?: string | null
+  /**
+   * Points whose trial blocks are decided as results come in (precision targets): the sweep
+   * is complete only when every one of them is closed. Absent: every point is closed.
+   */
+  openPoints?: number[]
+}
+
+/** What a caller may change of a stored sweep's description. */
+export interface Annotation {
+  label?: string | null
+  tags?: string[]
+  notes?: string | null
+}
+
+/** A stored chunk of some sweep of the owner that holds the trials [firstTrial, firstTrial + count) of a point. */
+export interface StoredRange {
+  sweepId: string
+  chunkIndex: number
+  firstTrial: number
+  count: number
 }
 
 export interface CreateOptions {
@@ -67,8 +105,10 @@ export interface ChunkOutcome {
   status: SweepStatus | ''
   /** True when this call stored the chunk for the first time (a retry's repeat counts nothing). */
   stored: boolean
-  /** True when every chunk of the plan is stored (set comparison). */
+  /** True when every chunk of the plan is stored (set comparison) and no point is open. */
   complete: boolean
+  /** True when the chunk's point is open and its planned chunks are all stored: a decision on it is due (asked again on a repeat). */
+  pointDue: boolean
 }
 
 /** A change this call made, or the status it found instead. */
@@ -84,6 +124,12 @@ export interface ListQuery {
   /** Whose sweeps: an owner's, null for those without an owner (a server without tokens), or ANY_OWNER for all. */
   owner: string | null | typeof ANY_OWNER
   status?: SweepStatus
+  /** Only sweeps with this tag. */
+  tag?: string
+  /** Only sweeps whose label or notes contain this text (case-insensitive). */
+  text?: string
+  /** Only replicates of each other: sweeps with this replicate key. */
+  replicateKey?: string
   /** Opaque cursor from a previous page. */
   cursor?: string
   limit: number
@@ -120,7 +166,33 @@ export interface SweepStore {
   succeed (id: string, resultBody: Uint8Array, nowMs: number): Promise<Transition>
   /** queued or running → failed or canceled; a no-op on a finished sweep. */
   stop (id: string, to: 'failed' | 'canceled', failure: SweepFailure | null, nowMs: number): Promise<Transition>
-  /** The stored result of a succeeded sweep (following a reuse to its original), else null. */
+  /** The stored result of a succeeded sweep, else null. */
   resultBody (id: string): Promise<Uint8Array | null>
   counts (): Promise<Record<SweepStatus, number>>
+
+  /** Changes the label, tags or notes; returns the record after the change (null: unknown sweep). */
+  annotate (id: string, patch: Annotation): Promise<SweepRecord | null>
+  /** Records what submission took from earlier sweeps (after its chunks were inherited). */
+  recordReuse (id: string, reused: { points: number, trials: number }): Promise<void>
+  /** Removes a finished sweep and everything stored for it; false (and nothing removed) for an active or unknown one. */
+  purge (id: string): Promise<boolean>
+  /** canceled or failed → queued, keeping its stored chunks and counters, so it can run on. */
+  reopen (id: string, nowMs: number): Promise<Transition>
+  /** Stored chunks of the owner's sweeps under these reuse keys (see SweepDraft.reuseKeys), by key. */
+  storedRanges (owner: string | null, reuseKeys: readonly string[]): Promise<Map<string, StoredRange[]>>
+  /**
+   * Stores, as this sweep's chunk, a copy of another sweep's stored chunk holding the same
+   * trials (counted like recordChunk). `stored` is false when the source is gone.
+   */
+  inheritChunk (id: string, chunk: Chunk, from: { sweepId: string, chunkIndex: number }, nowMs: number): Promise<ChunkOutcome>
+  /**
+   * Appends pieces (runs of trials) to an open point's plan as new chunks, indexed after the
+   * plan's last, only if the point's planned trials still end at `fromTrial` (a repeated
+   * decision appends nothing). Returns the chunks appended, or null.
+   */
+  extendPoint (id: string, point: number, fromTrial: number, pieces: ReadonlyArray<{ firstTrial: number, count: number }>): Promise<Chunk[] | null>
+  /** Closes an open point (it takes no more trials); the outcome says whether the sweep is now complete. */
+  closePoint (id: string, point: number): Promise<{ closed: boolean, complete: boolean }>
+  /** Points still open. */
+  openPoints (id: string): Promise<number[]>
 }

@@ -8,7 +8,7 @@ import { ANY_OWNER, IdempotencyConflictError, type SweepQueue, type SweepRecord 
 import { createRedisQueue } from '../../src/backends/redis/index.js'
 import { keyLayout } from '../../src/backends/redis/keys.js'
 import { RedisSweepStore } from '../../src/backends/redis/store.js'
-import { specHash, type NormalisedSpec } from '../../src/spec/index.js'
+import { replicateKey, specHash, type NormalisedSpec } from '../../src/spec/index.js'
 import { planSweep, type SweepDraft } from '../../src/sweep/index.js'
 import { startWorker, type RunningWorker } from '../../src/backends/redis/worker/worker.js'
 import {
@@ -159,7 +159,9 @@ describe.runIf(available)('Redis backend: sweeps through the queue port', () => 
         specHash: specHash(spec),
         spec,
         createdMs,
-        plan: planSweep(spec)
+        plan: planSweep(spec),
+        replicateKey: replicateKey(spec),
+        reuseKeys: []
       }
       await store.create(sweep, idempotencyKey === undefined ? {} : { idempotency: { key: idempotencyKey, ttlSeconds: 60 } })
       return sweep.id

@@ -10,7 +10,7 @@
 import fc from 'fast-check'
 import { afterEach, beforeEach, describe, expect, it } from 'vitest'
 import { InvalidCursorError } from '../../src/backends/errors.js'
-import { normaliseSpec, specHash } from '../../src/spec/index.js'
+import { normaliseSpec, replicateKey, specHash } from '../../src/spec/index.js'
 import {
   planSweep, progressCounters, type Chunk, type SweepDraft, type SweepPlan, type SweepStatus, type SweepStore
 } from '../../src/sweep/index.js'
@@ -40,8 +40,11 @@ const PLAN: SweepPlan = {
 let clock = 1_800_000_000_000
 const now = (): number => ++clock
 
+/** Reuse keys of the two points: opaque to a store, equal across sweeps that may share trials. */
+const REUSE_KEYS = ['engine:3:point-a', 'engine:3:point-b']
+
 function draft (id: string, overrides: Partial<SweepDraft> = {}): SweepDraft {
-  return { id, owner: 'ana', label: 'room codes', specHash: specHash(SPEC), spec: SPEC, createdMs: now(), plan: PLAN, ...overrides }
+  return { id, owner: 'ana', label: 'room codes', specHash: specHash(SPEC), spec: SPEC, createdMs: now(), plan: PLAN, replicateKey: replicateKey(SPEC), reuseKeys: REUSE_KEYS, ...overrides }
 }
 
 const body = (tag: number): Uint8Array => new Uint8Array([7, 7, tag])
@@ -98,9 +101,9 @@ export function storeContract (name: string, factory: StoreFactory): void {
     it('stores a chunk once: a repeat replaces its body and counts nothing', async () => {
       await store.create(draft('s1'))
       const first = await store.recordChunk('s1', PLAN.chunks[0]!, body(1), 3, now())
-      expect(first).toEqual({ status: 'running', stored: true, complete: false })
+      expect(first).toEqual({ status: 'running', stored: true, complete: false, pointDue: false })
       const repeat = await store.recordChunk('s1', PLAN.chunks[0]!, body(2), 3, now())
-      expect(repeat).toEqual({ status: 'running', stored: false, complete: false })
+      expect(repeat).toEqual({ status: 'running', stored: false, complete: false, pointDue: false })
       expect((await store.get('s1'))?.progress).toMatchObject({ chunksDone: 1, trialsDone: 4, pointsDone: 0 })
       const stored = await store.storedChunks('s1')
       expect(stored.chunks.map((chunk) => [chunk.index, [...chunk.body]])).toEqual([[0, [7, 7, 2]]])
@@ -122,7 +125,7 @@ export function storeContract (name: string, factory: StoreFactory): void {
       }
       expect((await store.get('s1'))?.progress).toMatchObject({ chunksDone: 4, pointsDone: 1, trialsDone: 17 })
       const last = await store.recordChunk('s1', PLAN.chunks[2]!, body(2), 2, now())
-      expect(last).toEqual({ status: 'running', stored: true, complete: true })
+      expect(last).toEqual({ status: 'running', stored: true, complete: true, pointDue: false })
       expect(await store.doneChunks('s1')).toEqual([0, 1, 2, 3, 4])
       expect((await store.get('s1'))?.progress).toEqual({ pointsDone: 2, pointsTotal: 2, trialsDone: 20, trialsTotal: 20, chunksDone: 5, chunksTotal: 5 })
     })
@@ -147,7 +150,7 @@ export function storeContract (name: string, factory: StoreFactory): void {
       await store.create(draft('s1'))
       await store.recordChunk('s1', PLAN.chunks[0]!, body(0), 2, now())
       expect(await store.stop('s1', 'canceled', null, now())).toEqual({ changed: true, status: 'canceled' })
-      expect(await store.recordChunk('s1', PLAN.chunks[1]!, body(1), 2, now())).toEqual({ status: 'canceled', stored: false, complete: false })
+      expect(await store.recordChunk('s1', PLAN.chunks[1]!, body(1), 2, now())).toEqual({ status: 'canceled', stored: false, complete: false, pointDue: false })
       expect(await store.stop('s1', 'failed', { kind: 'system', message: 'late' }, now())).toEqual({ changed: false, status: 'canceled' })
       expect(await store.succeed('s1', new Uint8Array([1]), now())).toEqual({ changed: false, status: 'canceled' })
       expect(await store.markRunning('s1', now())).toBe('canceled')
@@ -289,6 +292,107 @@ export function storeContract (name: string, factory: StoreFactory): void {
       const canceled = await store.list({ owner: 'dora', status: 'canceled' as SweepStatus, limit: 10 })
       expect(canceled.items.map((record) => record.id)).toEqual(['l1'])
       await expect(store.list({ owner: 'dora', limit: 2, cursor: 'not-a-cursor' })).rejects.toBeInstanceOf(InvalidCursorError)
+    })
+
+    it('keeps a description: label, tags and notes, changed later; lists by tag, text and replicate key', async () => {
+      await store.create(draft('d1', { owner: 'fay', tags: ['coarse'], notes: 'first look at the corridor' }))
+      await store.create(draft('d2', { owner: 'fay', replicateKey: 'other-model' }))
+      expect(await store.get('d1')).toMatchObject({ tags: ['coarse'], notes: 'first look at the corridor', extends: null, reused: { points: 0, trials: 0 } })
+      const changed = await store.annotate('d2', { label: 'Hippocampal Maze', tags: ['fine', 'paper'], notes: 'for figure 3' })
+      expect(changed).toMatchObject({ label: 'Hippocampal Maze', tags: ['fine', 'paper'], notes: 'for figure 3' })
+      expect(await store.annotate('d2', { notes: null })).toMatchObject({ label: 'Hippocampal Maze', tags: ['fine', 'paper'], notes: null })
+      expect(await store.annotate('missing', { label: 'x' })).toBeNull()
+      const ids = async (query: Partial<Parameters<SweepStore['list']>[0]>): Promise<string[]> =>
+        (await store.list({ owner: 'fay', limit: 10, ...query })).items.map((record) => record.id)
+      expect(await ids({ tag: 'paper' })).toEqual(['d2'])
+      expect(await ids({ text: 'CORRIDOR' })).toEqual(['d1'])
+      expect(await ids({ text: 'maze' })).toEqual(['d2'])
+      expect(await ids({ text: '%' })).toEqual([])
+      expect(await ids({ replicateKey: replicateKey(SPEC) })).toEqual(['d1'])
+    })
+
+    it('removes a finished sweep with everything stored for it, never an active one', async () => {
+      await store.create(draft('p1'))
+      expect(await store.purge('p1')).toBe(false)
+      await recordAll(store, 'p1')
+      await store.succeed('p1', new Uint8Array([1]), now())
+      const before = (await store.counts()).succeeded
+      expect(await store.purge('p1')).toBe(true)
+      expect(await store.get('p1')).toBeNull()
+      expect(await store.resultBody('p1')).toBeNull()
+      expect((await store.storedChunks('p1')).chunks).toEqual([])
+      expect(await store.plan('p1')).toBeNull()
+      expect((await store.counts()).succeeded).toBe(before - 1)
+      expect((await store.list({ owner: 'ana', limit: 10 })).items.map((record) => record.id)).not.toContain('p1')
+      expect(await store.purge('p1')).toBe(false)
+      // Its trials no longer serve anyone.
+      expect((await store.storedRanges('ana', REUSE_KEYS)).size).toBe(0)
+    })
+
+    it('lets a canceled sweep run on: back to queued with its stored chunks and progress', async () => {
+      await store.create(draft('r1'))
+      await store.recordChunk('r1', PLAN.chunks[0]!, body(0), 2, now())
+      await store.stop('r1', 'canceled', null, now())
+      expect(await store.reopen('r1', now())).toEqual({ changed: true, status: 'queued' })
+      expect(await store.reopen('r1', now())).toEqual({ changed: false, status: 'queued' })
+      const record = await store.get('r1')
+      expect(record).toMatchObject({ status: 'queued', finishedAt: null, error: null, progress: { chunksDone: 1, trialsDone: 4 } })
+      expect(await store.countActive('ana')).toBe(1)
+      await recordAll(store, 'r1', PLAN.chunks.slice(1))
+      expect((await store.succeed('r1', new Uint8Array([2]), now())).changed).toBe(true)
+      expect(await store.reopen('r1', now())).toEqual({ changed: false, status: 'succeeded' })
+    })
+
+    it('finds an owner\'s stored trials by reuse key and copies them into a new sweep as its own chunks', async () => {
+      await store.create(draft('src'))
+      await store.recordChunk('src', PLAN.chunks[0]!, body(40), 2, now())
+      await store.recordChunk('src', PLAN.chunks[2]!, body(42), 2, now())
+      await store.stop('src', 'canceled', null, now())
+      const found = await store.storedRanges('ana', [...REUSE_KEYS, 'no-such-key'])
+      expect(found.get(REUSE_KEYS[0]!)).toEqual([{ sweepId: 'src', chunkIndex: 0, firstTrial: 0, count: 4 }])
+      expect(found.get(REUSE_KEYS[1]!)).toEqual([{ sweepId: 'src', chunkIndex: 2, firstTrial: 0, count: 3 }])
+      expect(found.has('no-such-key')).toBe(false)
+      // Another owner's trials are not offered.
+      expect((await store.storedRanges('ben', REUSE_KEYS)).size).toBe(0)
+
+      await store.create(draft('dst'))
+      const copied = await store.inheritChunk('dst', PLAN.chunks[0]!, { sweepId: 'src', chunkIndex: 0 }, now())
+      expect(copied).toMatchObject({ status: 'running', stored: true, complete: false, pointDue: false })
+      expect(await store.inheritChunk('dst', PLAN.chunks[0]!, { sweepId: 'src', chunkIndex: 0 }, now())).toMatchObject({ stored: false })
+      // A source that does not hold exactly the chunk's trials is not copied.
+      expect(await store.inheritChunk('dst', PLAN.chunks[1]!, { sweepId: 'src', chunkIndex: 2 }, now())).toMatchObject({ stored: false })
+      expect(await store.inheritChunk('dst', PLAN.chunks[3]!, { sweepId: 'gone', chunkIndex: 3 }, now())).toMatchObject({ stored: false })
+      const stored = await store.storedChunks('dst')
+      expect(stored.chunks.map((chunk) => [chunk.index, [...chunk.body]])).toEqual([[0, [7, 7, 40]]])
+      expect((await store.get('dst'))!.progress).toMatchObject({ chunksDone: 1, trialsDone: 4 })
+      await store.recordReuse('dst', { points: 0, trials: 4 })
+      expect((await store.get('dst'))!.reused).toEqual({ points: 0, trials: 4 })
+    })
+
+    it('grows an open point\'s plan block by block and completes only when every point is closed', async () => {
+      const firstBlock: SweepPlan = { version: 1, chunks: [{ index: 0, point: 0, firstTrial: 0, count: 4 }, { index: 1, point: 1, firstTrial: 0, count: 4 }] }
+      await store.create(draft('g1', { plan: firstBlock, openPoints: [0, 1] }))
+      expect(await store.openPoints('g1')).toEqual([0, 1])
+      expect(await store.recordChunk('g1', firstBlock.chunks[0]!, body(0), 1, now())).toMatchObject({ stored: true, complete: false, pointDue: true })
+      // A repeat asks again (a decision lost in a crash is not lost for good).
+      expect(await store.recordChunk('g1', firstBlock.chunks[0]!, body(0), 1, now())).toMatchObject({ stored: false, pointDue: true })
+      expect((await store.get('g1'))!.progress.pointsDone).toBe(0)
+      const appended = await store.extendPoint('g1', 0, 4, [{ firstTrial: 4, count: 4 }])
+      expect(appended).toEqual([{ index: 2, point: 0, firstTrial: 4, count: 4 }])
+      // Decided once only: a repeated decision at the old extent appends nothing.
+      expect(await store.extendPoint('g1', 0, 4, [{ firstTrial: 4, count: 4 }])).toBeNull()
+      expect((await store.plan('g1'))!.chunks).toHaveLength(3)
+      expect((await store.get('g1'))!.progress).toMatchObject({ trialsTotal: 12, chunksTotal: 3 })
+      expect(await store.recordChunk('g1', appended![0]!, body(2), 1, now())).toMatchObject({ pointDue: true })
+      expect(await store.closePoint('g1', 0)).toEqual({ closed: true, complete: false })
+      expect(await store.closePoint('g1', 0)).toEqual({ closed: false, complete: false })
+      expect(await store.extendPoint('g1', 0, 8, [{ firstTrial: 8, count: 4 }])).toBeNull()
+      expect((await store.get('g1'))!.progress.pointsDone).toBe(1)
+      // Point 1: closed before its block is stored; the sweep completes with that chunk.
+      expect(await store.closePoint('g1', 1)).toEqual({ closed: true, complete: false })
+      expect(await store.recordChunk('g1', firstBlock.chunks[1]!, body(1), 1, now())).toMatchObject({ complete: true, pointDue: false })
+      expect((await store.get('g1'))!.progress).toMatchObject({ pointsDone: 2, chunksDone: 3, trialsDone: 12 })
+      expect((await store.succeed('g1', new Uint8Array([3]), now())).changed).toBe(true)
     })
 
     it('takes a plan made by the planner as it is', async () => {

@@ -19,7 +19,9 @@ import { buildWebOnce } from './helpers/server.js'
 /** The page's routes never reach the backend: any call would be a bug. */
 function untouchableQueue (): SweepQueue {
   const refuse = (): never => { throw new Error('the web routes must not use the queue') }
-  return { kind: 'embedded', submit: refuse, get: refuse, list: refuse, cancel: refuse, results: refuse, trials: refuse, encodedResult: refuse, subscribe: refuse, stats: refuse, ready: refuse, close: async () => {} }
+  return new Proxy({ kind: 'embedded', close: async () => {} } as unknown as SweepQueue, {
+    get: (target, property) => Reflect.get(target, property) ?? refuse
+  })
 }
 
 const TOKEN = 'web-route-test-token-0123456789'

@@ -1,9 +1,10 @@
 /**
  * In-memory dispatch bookkeeping of one queued or running sweep: which chunks of its stored
- * plan wait, run or are stored, how many attempts each has had, and the stop flag its
- * running chunks watch. Rebuilt after a restart from the stored plan and the stored chunks.
+ * plan wait, run or are stored, how many attempts each has had, which points still take
+ * trial blocks (precision targets), and the stop flag its running chunks watch. Rebuilt after
+ * a restart from the stored plan, the stored chunks and the open points.
  */
-import { dispatchOrder, planComplete, type Chunk, type SweepPlan } from '../../sweep/index.js'
+import { dispatchOrder, type Chunk, type SweepPlan } from '../../sweep/index.js'
 import type { NormalisedSpec } from '../../spec/index.js'
 
 export class ActiveSweep {
@@ -12,31 +13,32 @@ export class ActiveSweep {
   readonly ownerKey: string
   readonly seq: number
   readonly spec: NormalisedSpec
-  readonly plan: readonly Chunk[]
+  /** The stored plan, growing when an open point is given another block. */
+  readonly plan: Chunk[]
   /** Shared with every thread running one of this sweep's chunks; non-zero = stop. */
   readonly stopFlag = new SharedArrayBuffer(Int32Array.BYTES_PER_ELEMENT)
   startedMs: number | null
   assembling = false
-  /** Waiting chunk indices, in dispatch order (costliest first: src/sweep/plan.ts dispatchOrder). */
+  /** Waiting chunk indices, costliest first (src/sweep/plan.ts dispatchOrder); appended blocks go last. */
   readonly #pending: number[]
-  /** Position of each chunk index in the dispatch order. */
-  readonly #rank: Int32Array
   readonly #running = new Set<number>()
   readonly #done = new Set<number>()
   readonly #attempts = new Map<number, number>()
+  /** Points whose trial blocks are still being decided. */
+  readonly #open: Set<number>
+  /** Open points with a decision asked for (and not yet applied). */
+  readonly #deciding = new Set<number>()
 
-  constructor (init: { id: string, ownerKey: string, seq: number, spec: NormalisedSpec, plan: SweepPlan, doneIndices: readonly number[], startedMs: number | null }) {
+  constructor (init: { id: string, ownerKey: string, seq: number, spec: NormalisedSpec, plan: SweepPlan, doneIndices: readonly number[], openPoints?: readonly number[], startedMs: number | null }) {
     this.id = init.id
     this.ownerKey = init.ownerKey
     this.seq = init.seq
     this.spec = init.spec
-    this.plan = init.plan.chunks
+    this.plan = [...init.plan.chunks]
     this.startedMs = init.startedMs
+    this.#open = new Set(init.openPoints ?? [])
     for (const index of init.doneIndices) this.#done.add(index)
-    const order = dispatchOrder(init.spec, this.plan)
-    this.#rank = new Int32Array(this.plan.length)
-    order.forEach((index, position) => { this.#rank[index] = position })
-    this.#pending = order.filter((index) => !this.#done.has(index))
+    this.#pending = dispatchOrder(init.spec, this.plan).filter((index) => !this.#done.has(index))
   }
 
   get started (): boolean {
@@ -55,9 +57,36 @@ export class ActiveSweep {
     return this.#running.size
   }
 
-  /** Every chunk of the plan is stored: a comparison of sets, never of counts. */
+  /** Every chunk of the plan is stored (a comparison of sets, never of counts) and no point is open. */
   get allDone (): boolean {
-    return planComplete(this.plan, this.#done)
+    return this.#open.size === 0 && this.plan.every((chunk) => this.#done.has(chunk.index))
+  }
+
+  /** Open points whose planned chunks are all stored and that wait for a decision nobody has asked for yet. */
+  takeDuePoints (): number[] {
+    const due: number[] = []
+    for (const point of this.#open) {
+      if (this.#deciding.has(point)) continue
+      if (this.plan.every((chunk) => chunk.point !== point || this.#done.has(chunk.index))) {
+        this.#deciding.add(point)
+        due.push(point)
+      }
+    }
+    return due
+  }
+
+  /** The decision on a point was applied (or failed and may be asked again). */
+  decided (point: number, closed: boolean): void {
+    this.#deciding.delete(point)
+    if (closed) this.#open.delete(point)
+  }
+
+  /** Chunks appended to the stored plan for an open point: they wait after everything planned before. */
+  append (chunks: readonly Chunk[]): void {
+    for (const chunk of chunks) {
+      this.plan[chunk.index] = chunk
+      this.#pending.push(chunk.index)
+    }
   }
 
   /** Takes the next waiting chunk in dispatch order and counts an attempt for it. */
@@ -78,12 +107,10 @@ export class ActiveSweep {
     this.#done.add(index)
   }
 
-  /** Puts a running chunk back at its place in the queue (a retry). */
+  /** Puts a running chunk back at the front of the queue (a retry). */
   requeue (index: number): void {
     this.#running.delete(index)
-    let at = 0
-    while (at < this.#pending.length && this.#rank[this.#pending[at] as number]! < this.#rank[index]!) at++
-    this.#pending.splice(at, 0, index)
+    this.#pending.unshift(index)
   }
 
   /** Forgets a running chunk that stopped on request; it will not run again. */

@@ -7,7 +7,7 @@
 import type { MessagePort } from 'node:worker_threads'
 import type { NormalisedSpec } from '../../spec/index.js'
 import type { Provenance } from '../../results/index.js'
-import type { Chunk, ChunkRunOutcome, ClassifiedError, StoredChunk } from '../../sweep/index.js'
+import type { Chunk, ChunkRunOutcome, ClassifiedError, PointDecision, StoredChunk } from '../../sweep/index.js'
 
 export interface RunChunkTask {
   kind: 'run'
@@ -32,12 +32,22 @@ export interface AssembleTask {
   timing: { wallSeconds: number, cpuSeconds: number, workers: number }
 }
 
+/** Precision targets: after an open point's planned chunks are all stored, close it or give it another block. */
+export interface DecideTask {
+  kind: 'decide'
+  spec: NormalisedSpec
+  point: number
+  /** The point's planned chunks and their stored bodies. */
+  plan: Chunk[]
+  chunks: StoredChunk[]
+}
+
 /** A no-op answered by a freshly started thread: proves the entry module loads. */
 export interface PingTask {
   kind: 'ping'
 }
 
-export type ChunkTask = RunChunkTask | AssembleTask | PingTask
+export type ChunkTask = RunChunkTask | AssembleTask | DecideTask | PingTask
 
 export interface ChunkProgressMessage {
   /** Trials of this chunk finished so far. */
@@ -47,6 +57,7 @@ export interface ChunkProgressMessage {
 export type ChunkTaskOutcome =
   | ChunkRunOutcome
   | { kind: 'assembled', body: Uint8Array }
+  | { kind: 'decided', decision: PointDecision }
   | { kind: 'pong', threadId: number }
   | { kind: 'failed', error: ClassifiedError }
 

@@ -4,8 +4,8 @@
  * an exit from this thread therefore always means the thread itself broke.
  */
 import { threadId } from 'node:worker_threads'
-import { assembleStored, classifyChunkError, encodeValue, makeProvenance, runChunk } from '../../sweep/index.js'
-import type { AssembleTask, ChunkTask, ChunkTaskOutcome, RunChunkTask } from './chunk-task.js'
+import { assembleStored, classifyChunkError, decidePoint, encodeValue, makeProvenance, pointRecords, runChunk } from '../../sweep/index.js'
+import type { AssembleTask, ChunkTask, ChunkTaskOutcome, DecideTask, RunChunkTask } from './chunk-task.js'
 import { compileKernelsOptimised } from '../../runtime/kernel-compilation.js'
 import { runtimeFacts } from '../../runtime/facts.js'
 import { explicitCollector } from '../../runtime/reclaim.js'
@@ -17,6 +17,15 @@ export default function handleChunkTask (task: ChunkTask): ChunkTaskOutcome {
     case 'ping': return { kind: 'pong', threadId }
     case 'run': return runOneChunk(task)
     case 'assemble': return assembleSweep(task)
+    case 'decide': return decide(task)
+  }
+}
+
+function decide (task: DecideTask): ChunkTaskOutcome {
+  try {
+    return { kind: 'decided', decision: decidePoint(task.spec, task.point, pointRecords(task.spec, task.plan, task.chunks, task.point)) }
+  } catch (error) {
+    return { kind: 'failed', error: classifyChunkError(error) }
   }
 }
 

@@ -11,9 +11,9 @@ import type { ResourceLimits } from 'node:worker_threads'
 import type { TrialRecord } from '../../engine/index.js'
 import { specHash } from '../../spec/index.js'
 import type { SweepResult } from '../../results/index.js'
-import { checkPlan, decodeValue, planSweep, storedTrials, unresumableFailure, type ListQuery, type StoredChunk, type SweepPage, type SweepRecord } from '../../sweep/index.js'
+import { checkPlan, decodeValue, planSweep, storedTrials, submitToStore, unresumableFailure, type Annotation, type ListQuery, type StoredChunk, type SweepPage, type SweepRecord } from '../../sweep/index.js'
 import { ActiveSweepCapError, IdempotencyConflictError, StorageUnavailableError } from '../errors.js'
-import type { EncodedResult, QueueStats, SubmitInput, SweepEvent, SweepQueue } from '../port.js'
+import type { EncodedResult, QueueStats, StoredProgress, SubmitInput, SweepEvent, SweepQueue } from '../port.js'
 import { ActiveSweep } from './active-sweep.js'
 import { LocalSweepEvents } from './event-hub.js'
 import { ChunkScheduler } from './scheduler.js'
@@ -170,15 +170,7 @@ class EmbeddedQueue implements SweepQueue {
           this.#logger?.warn({ sweepId: row.id }, 'sweep from an earlier release: planned again, its stored chunks are recomputed')
         }
         checkPlan(row.spec, plan)
-        this.#scheduler.add(new ActiveSweep({
-          id: row.id,
-          ownerKey: row.owner ?? '',
-          seq: row.seq,
-          spec: row.spec,
-          plan,
-          doneIndices: this.#store.doneChunksNow(row.id),
-          startedMs: row.startedMs
-        }))
+        this.#activate(row.id)
         this.#logger?.info({ sweepId: row.id, status: row.status }, 'resuming sweep')
       } catch (error) {
         this.#logger?.error({ err: error, sweepId: row.id }, 'cannot resume sweep')
@@ -194,26 +186,87 @@ class EmbeddedQueue implements SweepQueue {
     // The stored text, parsed: the exact spec a resumed run would see.
     const spec = JSON.parse(JSON.stringify(input.spec)) as SubmitInput['spec']
     const hash = specHash(spec)
-    const plan = planSweep(spec)
     const id = randomUUID()
-    const reuseFrom = input.reuse === true ? this.#store.findReusable(input.owner, hash) : null
-    const outcome = this.#store.createNow(
-      { id, owner: input.owner, label: spec.label, specHash: hash, spec, createdMs: Date.now(), plan },
-      {
-        reuseFrom,
-        ...(input.idempotencyKey === undefined ? {} : { idempotency: { key: input.idempotencyKey, ttlSeconds: this.#tuning.idempotencyTtlSeconds } }),
-        ...(input.maxActive === undefined ? {} : { maxActive: input.maxActive })
-      }
-    )
+    const outcome = await submitToStore(this.#store, {
+      id,
+      spec,
+      owner: input.owner,
+      createdMs: Date.now(),
+      reuseFrom: input.reuse === true ? this.#store.findReusable(input.owner, hash) : null,
+      ...(input.reusePoints === undefined ? {} : { reusePoints: input.reusePoints }),
+      ...(input.idempotencyKey === undefined ? {} : { idempotency: { key: input.idempotencyKey, ttlSeconds: this.#tuning.idempotencyTtlSeconds } }),
+      ...(input.maxActive === undefined ? {} : { maxActive: input.maxActive }),
+      ...(input.extends === undefined ? {} : { extends: input.extends }),
+      ...(input.tags === undefined ? {} : { tags: input.tags }),
+      ...(input.notes === undefined ? {} : { notes: input.notes })
+    })
     if (outcome.kind === 'existing') {
       if (outcome.binding.specHash !== hash) throw new IdempotencyConflictError(input.idempotencyKey ?? '')
       return this.#required(outcome.binding.sweepId)
     }
     if (outcome.kind === 'over-cap') throw new ActiveSweepCapError(input.owner, outcome.active, input.maxActive ?? outcome.active)
-    if (outcome.status === 'queued') {
-      this.#scheduler.add(new ActiveSweep({ id, ownerKey: input.owner ?? '', seq: this.#store.seqOf(id) ?? 0, spec, plan, doneIndices: [], startedMs: null }))
-    }
+    if (outcome.status === 'queued') this.#activate(id)
     return this.#required(id)
+  }
+
+  async resume (id: string): Promise<SweepRecord | null> {
+    this.#assertOpen()
+    const problem = this.#checkStorage()
+    if (problem !== null) throw new StorageUnavailableError(problem)
+    if ((await this.#store.reopen(id, Date.now())).changed) {
+      this.#activate(id)
+      this.#logger?.info({ sweepId: id }, 'sweep resumed')
+    }
+    return this.#store.getNow(id)
+  }
+
+  async annotate (id: string, patch: Annotation): Promise<SweepRecord | null> {
+    this.#assertOpen()
+    return await this.#store.annotate(id, patch)
+  }
+
+  async purge (id: string): Promise<boolean> {
+    this.#assertOpen()
+    return await this.#store.purge(id)
+  }
+
+  async storedProgress (id: string): Promise<StoredProgress | null> {
+    this.#assertOpen()
+    const record = this.#store.getNow(id)
+    const plan = await this.#store.trialsPlan(id)
+    if (record === null || plan === null) return null
+    return { spec: record.spec, plan: plan.chunks, chunks: await this.#readChunks(id), openPoints: await this.#store.openPoints(id) }
+  }
+
+  /** Hands a stored queued sweep to the scheduler, with its stored plan, chunks and open points. */
+  #activate (id: string): void {
+    const record = this.#store.getNow(id)
+    const plan = this.#store.planNow(id)
+    if (record === null || plan === null) throw new Error(`Sweep ${id} has no stored plan to run.`)
+    this.#scheduler.add(new ActiveSweep({
+      id,
+      ownerKey: record.owner ?? '',
+      seq: this.#store.seqOf(id) ?? 0,
+      spec: record.spec,
+      plan,
+      doneIndices: this.#store.doneChunksNow(id),
+      openPoints: this.#store.openPointsNow(id),
+      startedMs: record.startedAt === null ? null : Date.parse(record.startedAt)
+    }))
+  }
+
+  /** Every stored chunk of a sweep, read a batch per event-loop turn. */
+  async #readChunks (id: string): Promise<StoredChunk[]> {
+    const chunks: StoredChunk[] = []
+    for (let from = 0; ;) {
+      const batch = this.#store.storedChunksFrom(id, from, READ_BATCH_CHUNKS)
+      chunks.push(...batch)
+      if (batch.length < READ_BATCH_CHUNKS) break
+      from = batch[batch.length - 1]!.index + 1
+      // A long read in slices: requests keep being answered in between.
+      await yieldToEventLoop()
+    }
+    return chunks
   }
 
   async get (id: string): Promise<SweepRecord | null> {
@@ -257,16 +310,7 @@ class EmbeddedQueue implements SweepQueue {
     if (!options.trials) return { result, trials: null }
     const plan = await this.#store.trialsPlan(id)
     if (plan === null) return { result, trials: null }
-    const chunks: StoredChunk[] = []
-    for (let from = 0; ;) {
-      const batch = this.#store.storedChunksFrom(id, from, READ_BATCH_CHUNKS)
-      chunks.push(...batch)
-      if (batch.length < READ_BATCH_CHUNKS) break
-      from = batch[batch.length - 1]!.index + 1
-      // A long read in slices: requests keep being answered in between.
-      await yieldToEventLoop()
-    }
-    return { result, trials: { plan: plan.chunks, chunks } }
+    return { result, trials: { plan: plan.chunks, chunks: await this.#readChunks(id) } }
   }
 
   subscribe (id: string, listener: (event: SweepEvent) => void): () => void {

@@ -90,6 +90,12 @@ export class ChunkScheduler {
         this.#assemble(assembling)
         continue
       }
+      // Decisions on points first: they unblock the next blocks of trials.
+      const deciding = this.#nextDecision()
+      if (deciding !== undefined) {
+        this.#decide(deciding.sweep, deciding.point)
+        continue
+      }
       const sweep = this.#order.pick([...this.#active.values()].filter((candidate) => candidate.hasPending))
       if (sweep === undefined) return
       this.#order.served(sweep.ownerKey)
@@ -156,6 +162,58 @@ export class ChunkScheduler {
         log?.error({ outcome: outcome.kind }, 'unexpected answer from a compute thread')
         this.#retryOrFail(sweep, index, attempt, 'unexpected-answer')
     }
+    this.#pump()
+  }
+
+  /** One due decision of any active sweep (precision targets), marked as asked for. */
+  #nextDecision (): { sweep: ActiveSweep, point: number } | undefined {
+    for (const sweep of this.#active.values()) {
+      const [point] = sweep.takeDuePoints().slice(0, 1)
+      if (point !== undefined) return { sweep, point }
+    }
+    return undefined
+  }
+
+  /**
+   * Precision targets: reads an open point's stored chunks and, on a compute thread, decides to
+   * close it or give it another block; applies the decision to the store and the plan.
+   */
+  #decide (sweep: ActiveSweep, point: number, attempt = 1): void {
+    let task: Promise<ChunkTaskOutcome>
+    try {
+      const plan = sweep.plan.filter((chunk) => chunk.point === point)
+      const wanted = new Set(plan.map((chunk) => chunk.index))
+      const chunks = this.#store.storedChunksNow(sweep.id).chunks.filter((chunk) => wanted.has(chunk.index))
+      task = this.#pool.decide({ kind: 'decide', spec: sweep.spec, point, plan, chunks })
+    } catch (error) {
+      this.#logger?.error({ err: error, sweepId: sweep.id }, 'reading a point\'s chunks for a decision failed')
+      task = Promise.resolve({ kind: 'failed', error: { kind: 'system', name: 'StorageError', message: 'storage error' } })
+    }
+    this.#track(task.then(
+      (outcome) => this.#onDecided(sweep, point, attempt, outcome),
+      (error: unknown) => this.#onDecided(sweep, point, attempt, threadCrash(error))
+    ))
+  }
+
+  async #onDecided (sweep: ActiveSweep, point: number, attempt: number, outcome: ChunkTaskOutcome): Promise<void> {
+    if (this.#closing || this.#active.get(sweep.id) !== sweep) return this.#pump()
+    if (outcome.kind !== 'decided') {
+      this.#logger?.error({ sweepId: sweep.id, point, outcome }, 'deciding on a point failed')
+      if (attempt < this.#options.maxAttempts) this.#decide(sweep, point, attempt + 1)
+      else this.#fail(sweep, systemFailure({ chunkIndex: null, chunksTotal: sweep.plan.length }, attempt, outcome.kind === 'failed' ? systemCauseOf(outcome.error.name) : 'unexpected-answer'))
+      return this.#pump()
+    }
+    const decision = outcome.decision
+    if (decision.kind === 'close') {
+      this.#store.closePointNow(sweep.id, point)
+      sweep.decided(point, true)
+    } else {
+      const appended = await this.#store.extendPoint(sweep.id, point, decision.fromTrial, decision.pieces)
+      if (appended !== null) sweep.append(appended)
+      // Nothing appended: the point was closed meanwhile (or its plan moved on); never ask again for it then.
+      sweep.decided(point, appended === null && !(await this.#store.openPoints(sweep.id)).includes(point))
+    }
+    this.#events.progress(sweep.id)
     this.#pump()
   }
 

@@ -70,6 +70,30 @@ const MIGRATIONS: readonly string[] = [
   `
   ALTER TABLE sweeps ADD COLUMN plan_json TEXT;
   CREATE INDEX sweeps_active_by_owner ON sweeps (owner) WHERE status IN ('queued', 'running');
+  `,
+  // Version 3: the research workflow. A sweep's description (tags, notes), what it extends and
+  // took from earlier sweeps, its replicate key, the points whose trial blocks are still being
+  // decided (precision targets), and an index from each point's reuse key (engine, seed, the
+  // point's parameters) to the sweeps that hold its trials.
+  `
+  ALTER TABLE sweeps ADD COLUMN extends TEXT;
+  ALTER TABLE sweeps ADD COLUMN tags_json TEXT NOT NULL DEFAULT '[]';
+  ALTER TABLE sweeps ADD COLUMN notes TEXT;
+  ALTER TABLE sweeps ADD COLUMN replicate_key TEXT NOT NULL DEFAULT '';
+  ALTER TABLE sweeps ADD COLUMN reused_points INTEGER NOT NULL DEFAULT 0;
+  ALTER TABLE sweeps ADD COLUMN reused_trials INTEGER NOT NULL DEFAULT 0;
+  ALTER TABLE sweeps ADD COLUMN open_points_json TEXT NOT NULL DEFAULT '[]';
+  ALTER TABLE chunk_results ADD COLUMN first_trial INTEGER;
+  CREATE INDEX sweeps_by_replicate ON sweeps (replicate_key, created_ms, seq);
+
+  CREATE TABLE point_keys (
+    sweep_id  TEXT NOT NULL REFERENCES sweeps (id),
+    point     INTEGER NOT NULL,
+    owner     TEXT,
+    reuse_key TEXT NOT NULL,
+    PRIMARY KEY (sweep_id, point)
+  ) WITHOUT ROWID;
+  CREATE INDEX point_keys_by_key ON point_keys (reuse_key, owner);
   `
 ]
 

@@ -14,13 +14,16 @@ import Database from 'better-sqlite3'
 import type { NormalisedSpec } from '../../spec/index.js'
 import {
   ANY_OWNER, chunksPerPoint, CODEC_NAME, decodePlan, encodePlan, isTerminal, SWEEP_STATUSES,
-  type Chunk, type ChunkOutcome, type CreateOptions, type CreateOutcome, type ListQuery, type StoredChunk, type SweepDraft,
-  type SweepFailure, type SweepPage, type SweepPlan, type SweepRecord, type SweepStatus, type SweepStore, type Transition
+  type Annotation, type Chunk, type ChunkOutcome, type CreateOptions, type CreateOutcome, type ListQuery, type StoredChunk, type StoredRange,
+  type SweepDraft, type SweepFailure, type SweepPage, type SweepPlan, type SweepRecord, type SweepStatus, type SweepStore, type Transition
 } from '../../sweep/index.js'
 import { decodeCursor, encodeCursor } from './cursor.js'
 import { migrate } from './schema.js'
 
 export const DATABASE_FILE = 'memsweep.sqlite'
+
+/** Reuse keys looked up per query: SQLite limits the number of bound parameters. */
+const KEYS_PER_QUERY = 400
 
 interface SweepRow {
   seq: number
@@ -43,6 +46,13 @@ interface SweepRow {
   error_kind: SweepFailure['kind'] | null
   error_message: string | null
   reused_from: string | null
+  extends: string | null
+  tags_json: string
+  notes: string | null
+  replicate_key: string
+  reused_points: number
+  reused_trials: number
+  open_points_json: string
 }
 
 /** An active sweep as stored: what the scheduler needs to pick it up after a restart. */
@@ -175,26 +185,42 @@ export class SqliteSweepStore implements SweepStore {
         if (active >= options.maxActive) return { kind: 'over-cap', active }
       }
       const done = reusedFrom !== null
-      const trialsTotal = draft.plan.chunks.reduce((sum, chunk) => sum + chunk.count, 0)
+      // A reuse takes the original's plan with its data, so the two always match.
+      const plan = done ? (this.#planView(reusedFrom)?.plan ?? draft.plan) : draft.plan
+      const trialsTotal = plan.chunks.reduce((sum, chunk) => sum + chunk.count, 0)
+      const points = chunksPerPoint(plan.chunks).size
       this.#statements.insertSweep.run({
         id: draft.id,
         owner: draft.owner,
         label: draft.label,
         spec_hash: draft.specHash,
         spec_json: JSON.stringify(draft.spec),
-        plan_json: encodePlan(draft.plan),
+        plan_json: encodePlan(plan),
         status: done ? 'succeeded' : 'queued',
         created_ms: draft.createdMs,
         started_ms: done ? draft.createdMs : null,
         finished_ms: done ? draft.createdMs : null,
-        points_total: chunksPerPoint(draft.plan.chunks).size,
+        points_total: points,
         trials_total: trialsTotal,
-        chunks_total: draft.plan.chunks.length,
-        points_done: done ? chunksPerPoint(draft.plan.chunks).size : 0,
+        chunks_total: plan.chunks.length,
+        points_done: done ? points : 0,
         trials_done: done ? trialsTotal : 0,
-        chunks_done: done ? draft.plan.chunks.length : 0,
-        reused_from: reusedFrom
+        chunks_done: done ? plan.chunks.length : 0,
+        reused_from: reusedFrom,
+        extends: draft.extends ?? null,
+        tags_json: JSON.stringify(draft.tags ?? []),
+        notes: draft.notes ?? null,
+        replicate_key: draft.replicateKey,
+        reused_points: done ? points : 0,
+        reused_trials: done ? trialsTotal : 0,
+        open_points_json: JSON.stringify(done ? [] : draft.openPoints ?? [])
       })
+      if (done) {
+        // Its own copy of the data: either sweep can be removed without the other losing anything.
+        this.#statements.copyResult.run(draft.id, draft.createdMs, reusedFrom)
+        this.#statements.copyChunks.run(draft.id, draft.createdMs, reusedFrom)
+      }
+      draft.reuseKeys.forEach((key, point) => this.#statements.insertPointKey.run(draft.id, point, draft.owner, key))
       if (options.idempotency !== undefined) {
         this.#statements.insertIdempotency.run(ownerKey, options.idempotency.key, draft.specHash, draft.id, draft.createdMs)
       }
@@ -224,6 +250,9 @@ export class SqliteSweepStore implements SweepStore {
       owner: anyOwner ? null : query.owner,
       any_owner: anyOwner ? 1 : 0,
       status: query.status ?? null,
+      tag: query.tag ?? null,
+      text: query.text === undefined ? null : `%${query.text.toLowerCase().replace(/[\\%_]/g, (c) => `\\${c}`)}%`,
+      replicate_key: query.replicateKey ?? null,
       after_created: after?.createdMs ?? null,
       after_seq: after?.seq ?? null,
       limit: query.limit + 1
@@ -242,12 +271,20 @@ export class SqliteSweepStore implements SweepStore {
 
   /** The original (never itself a reuse) of the newest succeeded sweep of this owner with this hash. */
   findReusable (owner: string | null, specHash: string): string | null {
-    const row = this.#statements.findReusable.get(owner, specHash) as { id: string, reused_from: string | null } | undefined
-    return row === undefined ? null : (row.reused_from ?? row.id)
+    const row = this.#statements.findReusable.get(owner, specHash) as { id: string } | undefined
+    return row?.id ?? null
   }
 
   async plan (id: string): Promise<SweepPlan | null> {
+    return this.planNow(id)
+  }
+
+  planNow (id: string): SweepPlan | null {
     return this.#planView(id)?.plan ?? null
+  }
+
+  openPointsNow (id: string): number[] {
+    return this.#openPoints(id)
   }
 
   activeSweeps (): ActiveSweepRow[] {
@@ -323,10 +360,47 @@ export class SqliteSweepStore implements SweepStore {
    * @throws {RangeError} when the chunk is not the stored plan's chunk at its index.
    */
   recordChunkNow (id: string, chunk: Chunk, body: Uint8Array, computeMs: number, nowMs: number): ChunkOutcome {
+    return this.#storeChunk(id, chunk, nowMs, () => {
+      this.#statements.upsertChunk.run({
+        sweep_id: id,
+        chunk_index: chunk.index,
+        point: chunk.point,
+        first_trial: chunk.firstTrial,
+        trials: chunk.count,
+        compute_ms: computeMs,
+        codec: CODEC_NAME,
+        body,
+        finished_ms: nowMs
+      })
+      return true
+    })
+  }
+
+  async inheritChunk (id: string, chunk: Chunk, from: { sweepId: string, chunkIndex: number }, nowMs: number): Promise<ChunkOutcome> {
+    return this.#storeChunk(id, chunk, nowMs, () => {
+      if (this.#statements.chunkExists.get(id, chunk.index) !== undefined) return true
+      return this.#statements.inheritChunk.run({
+        sweep_id: id,
+        chunk_index: chunk.index,
+        point: chunk.point,
+        first_trial: chunk.firstTrial,
+        trials: chunk.count,
+        finished_ms: nowMs,
+        from_sweep: from.sweepId,
+        from_chunk: from.chunkIndex
+      }).changes === 1
+    })
+  }
+
+  /**
+   * Stores a chunk of the plan (its row written by `write`, which answers whether a row is
+   * there now) and adds what it completes, in one transaction.
+   */
+  #storeChunk (id: string, chunk: Chunk, nowMs: number, write: () => boolean): ChunkOutcome {
     return this.#db.transaction((): ChunkOutcome => {
       const status = this.#status(id)
-      if (status === null) return { status: '', stored: false, complete: false }
-      if (isTerminal(status)) return { status, stored: false, complete: false }
+      if (status === null) return { status: '', stored: false, complete: false, pointDue: false }
+      if (isTerminal(status)) return { status, stored: false, complete: false, pointDue: false }
       const view = this.#planView(id)
       const planned = view?.plan.chunks[chunk.index]
       if (view === undefined || planned === undefined || planned.point !== chunk.point || planned.firstTrial !== chunk.firstTrial || planned.count !== chunk.count) {
@@ -334,24 +408,17 @@ export class SqliteSweepStore implements SweepStore {
       }
       if (status === 'queued') this.#statements.markRunning.run(nowMs, id)
       const isNew = this.#statements.chunkExists.get(id, chunk.index) === undefined
-      this.#statements.upsertChunk.run({
-        sweep_id: id,
-        chunk_index: chunk.index,
-        point: chunk.point,
-        trials: chunk.count,
-        compute_ms: computeMs,
-        codec: CODEC_NAME,
-        body,
-        finished_ms: nowMs
-      })
+      if (!write()) return { status: 'running', stored: false, complete: false, pointDue: false }
+      const storedOfPoint = (this.#statements.chunksOfPoint.get(id, chunk.point) as { n: number }).n
+      const pointStored = storedOfPoint === view.perPoint.get(chunk.point)
+      const open = this.#openPoints(id).includes(chunk.point)
       if (isNew) {
-        const storedOfPoint = (this.#statements.chunksOfPoint.get(id, chunk.point) as { n: number }).n
-        this.#statements.addChunk.run({ id, points: storedOfPoint === view.perPoint.get(chunk.point) ? 1 : 0, trials: chunk.count })
+        this.#statements.addChunk.run({ id, points: pointStored && !open ? 1 : 0 })
         this.#partials.get(id)?.delete(chunk.index)
       }
       this.#raiseHighWater(id)
-      const counters = this.#statements.counters.get(id) as { chunks_done: number, chunks_total: number }
-      return { status: 'running', stored: isNew, complete: counters.chunks_done === counters.chunks_total }
+      // Due whenever the open point's planned chunks are all stored, a repeat included: a decision lost in a crash is asked again.
+      return { status: 'running', stored: isNew, complete: this.#complete(id), pointDue: pointStored && open }
     })()
   }
 
@@ -359,20 +426,20 @@ export class SqliteSweepStore implements SweepStore {
     return this.storedChunksNow(id)
   }
 
-  /** Up to `limit` stored chunks from index `fromIndex` on (following a reuse to its original), ascending. */
+  /** Up to `limit` stored chunks from index `fromIndex` on, ascending. */
   storedChunksFrom (id: string, fromIndex: number, limit: number): StoredChunk[] {
-    const rows = this.#statements.chunkBodiesFrom.all(this.#resultOwner(id), fromIndex, limit) as Array<{ chunk_index: number, codec: string, body: Uint8Array }>
+    const rows = this.#statements.chunkBodiesFrom.all(this.#dataOwner(id), fromIndex, limit) as Array<{ chunk_index: number, codec: string, body: Uint8Array }>
     for (const row of rows) if (row.codec !== CODEC_NAME) throw new Error(`Unknown chunk codec '${row.codec}'.`)
     return rows.map((row) => ({ index: row.chunk_index, body: row.body }))
   }
 
-  /** The plan of the sweep whose chunks hold this sweep's trials (itself, or the original it reuses). */
+  /** The plan of the sweep whose chunks hold this sweep's trials (itself, or for a reuse stored by an earlier release, its original). */
   async trialsPlan (id: string): Promise<SweepPlan | null> {
-    return await this.plan(this.#resultOwner(id))
+    return await this.plan(this.#dataOwner(id))
   }
 
   storedChunksNow (id: string): { chunks: StoredChunk[], computeMs: number } {
-    const rows = this.#statements.chunkBodies.all(this.#resultOwner(id)) as Array<{ chunk_index: number, codec: string, body: Uint8Array, compute_ms: number }>
+    const rows = this.#statements.chunkBodies.all(this.#dataOwner(id)) as Array<{ chunk_index: number, codec: string, body: Uint8Array, compute_ms: number }>
     let computeMs = 0
     for (const row of rows) {
       if (row.codec !== CODEC_NAME) throw new Error(`Unknown chunk codec '${row.codec}'.`)
@@ -385,14 +452,13 @@ export class SqliteSweepStore implements SweepStore {
     return this.succeedNow(id, resultBody, nowMs)
   }
 
-  /** @throws {Error} when some chunk of the plan is not stored. */
+  /** @throws {Error} when some chunk of the plan is not stored or some point is open. */
   succeedNow (id: string, resultBody: Uint8Array, nowMs: number): Transition {
     return this.#db.transaction((): Transition => {
       const status = this.#status(id)
       if (status === null) return { changed: false, status: '' }
       if (isTerminal(status)) return { changed: false, status }
-      const counters = this.#statements.counters.get(id) as { chunks_done: number, chunks_total: number }
-      if (counters.chunks_done !== counters.chunks_total) throw new Error(`Sweep ${id} is not complete: cannot store its result.`)
+      if (!this.#complete(id)) throw new Error(`Sweep ${id} is not complete: cannot store its result.`)
       this.#statements.markSucceeded.run(nowMs, nowMs, id)
       this.#statements.insertResult.run(id, CODEC_NAME, resultBody, nowMs)
       this.#forget(id)
@@ -420,8 +486,17 @@ export class SqliteSweepStore implements SweepStore {
     return { changed: false, status: this.#status(id) ?? '' }
   }
 
+  async reopen (id: string, nowMs: number): Promise<Transition> {
+    return this.reopenNow(id, nowMs)
+  }
+
+  reopenNow (id: string, _nowMs: number): Transition {
+    if (this.#statements.reopen.run(id).changes === 1) return { changed: true, status: 'queued' }
+    return { changed: false, status: this.#status(id) ?? '' }
+  }
+
   async resultBody (id: string): Promise<Uint8Array | null> {
-    const row = this.#statements.resultFor.get(id) as { codec: string, body: Uint8Array } | undefined
+    const row = this.#statements.resultFor.get(id, id) as { codec: string, body: Uint8Array } | undefined
     if (row === undefined) return null
     if (row.codec !== CODEC_NAME) throw new Error(`Unknown result codec '${row.codec}'.`)
     return row.body
@@ -437,6 +512,114 @@ export class SqliteSweepStore implements SweepStore {
     return counts
   }
 
+  async annotate (id: string, patch: Annotation): Promise<SweepRecord | null> {
+    this.#statements.annotate.run({
+      id,
+      set_label: patch.label === undefined ? 0 : 1,
+      label: patch.label ?? null,
+      set_tags: patch.tags === undefined ? 0 : 1,
+      tags_json: JSON.stringify(patch.tags ?? []),
+      set_notes: patch.notes === undefined ? 0 : 1,
+      notes: patch.notes ?? null
+    })
+    return this.getNow(id)
+  }
+
+  async recordReuse (id: string, reused: { points: number, trials: number }): Promise<void> {
+    this.#statements.recordReuse.run(reused.points, reused.trials, id)
+  }
+
+  async purge (id: string): Promise<boolean> {
+    return this.#db.transaction((): boolean => {
+      const status = this.#status(id)
+      if (status === null || !isTerminal(status)) return false
+      // Sweeps stored by an earlier release that read this one's data get their own copy first.
+      for (const { id: reuser } of this.#statements.reusersOf.all(id) as Array<{ id: string }>) {
+        if (this.#statements.resultOwn.get(reuser) === undefined) {
+          this.#statements.copyResult.run(reuser, Date.now(), id)
+          this.#statements.copyChunks.run(reuser, Date.now(), id)
+        }
+      }
+      this.#statements.unlinkReusers.run(id)
+      for (const statement of [this.#statements.deleteChunks, this.#statements.deleteResult, this.#statements.deletePointKeys, this.#statements.deleteIdempotency, this.#statements.deleteSweep]) {
+        statement.run(id)
+      }
+      this.#forget(id)
+      return true
+    })()
+  }
+
+  async storedRanges (owner: string | null, reuseKeys: readonly string[]): Promise<Map<string, StoredRange[]>> {
+    const ranges = new Map<string, StoredRange[]>()
+    const unique = [...new Set(reuseKeys)]
+    for (let first = 0; first < unique.length; first += KEYS_PER_QUERY) {
+      const keys = unique.slice(first, first + KEYS_PER_QUERY)
+      const rows = this.#db.prepare(`
+        SELECT k.reuse_key, c.sweep_id, c.chunk_index, c.first_trial, c.trials FROM point_keys k
+        JOIN chunk_results c ON c.sweep_id = k.sweep_id AND c.point = k.point
+        WHERE k.owner IS ? AND c.first_trial IS NOT NULL AND k.reuse_key IN (${keys.map(() => '?').join(', ')})
+        ORDER BY c.sweep_id, c.chunk_index`).all(owner, ...keys) as Array<{ reuse_key: string, sweep_id: string, chunk_index: number, first_trial: number, trials: number }>
+      for (const row of rows) {
+        let list = ranges.get(row.reuse_key)
+        if (list === undefined) ranges.set(row.reuse_key, list = [])
+        list.push({ sweepId: row.sweep_id, chunkIndex: row.chunk_index, firstTrial: row.first_trial, count: row.trials })
+      }
+    }
+    return ranges
+  }
+
+  async extendPoint (id: string, point: number, fromTrial: number, pieces: ReadonlyArray<{ firstTrial: number, count: number }>): Promise<Chunk[] | null> {
+    return this.#db.transaction((): Chunk[] | null => {
+      const status = this.#status(id)
+      if (status === null || isTerminal(status) || !this.#openPoints(id).includes(point)) return null
+      const view = this.#planView(id)
+      if (view === undefined) return null
+      const extent = view.plan.chunks.filter((chunk) => chunk.point === point).reduce((end, chunk) => Math.max(end, chunk.firstTrial + chunk.count), 0)
+      if (extent !== fromTrial || pieces.length === 0) return null
+      const appended = pieces.map((piece, k): Chunk => ({ index: view.plan.chunks.length + k, point, firstTrial: piece.firstTrial, count: piece.count }))
+      const plan: SweepPlan = { version: view.plan.version, chunks: [...view.plan.chunks, ...appended] }
+      this.#statements.replacePlan.run({
+        id,
+        plan_json: encodePlan(plan),
+        trials: appended.reduce((sum, chunk) => sum + chunk.count, 0),
+        chunks: appended.length
+      })
+      this.#plans.delete(id)
+      return appended
+    })()
+  }
+
+  async closePoint (id: string, point: number): Promise<{ closed: boolean, complete: boolean }> {
+    return this.closePointNow(id, point)
+  }
+
+  closePointNow (id: string, point: number): { closed: boolean, complete: boolean } {
+    return this.#db.transaction(() => {
+      const open = this.#openPoints(id)
+      const status = this.#status(id)
+      if (status === null || isTerminal(status) || !open.includes(point)) return { closed: false, complete: false }
+      this.#statements.setOpenPoints.run(JSON.stringify(open.filter((p) => p !== point)), id)
+      const view = this.#planView(id)
+      const storedOfPoint = (this.#statements.chunksOfPoint.get(id, point) as { n: number }).n
+      if (view !== undefined && storedOfPoint === view.perPoint.get(point)) this.#statements.addPoint.run(id)
+      return { closed: true, complete: this.#complete(id) }
+    })()
+  }
+
+  async openPoints (id: string): Promise<number[]> {
+    return this.#openPoints(id)
+  }
+
+  #openPoints (id: string): number[] {
+    const row = this.#statements.openPoints.get(id) as { open_points_json: string } | undefined
+    return row === undefined ? [] : JSON.parse(row.open_points_json) as number[]
+  }
+
+  #complete (id: string): boolean {
+    const counters = this.#statements.counters.get(id) as { chunks_done: number, chunks_total: number, open_points_json: string } | undefined
+    return counters !== undefined && counters.chunks_done === counters.chunks_total && counters.open_points_json === '[]'
+  }
+
   #countActive (owner: string | null): number {
     return (this.#statements.countActive.get(owner) as { n: number }).n
   }
@@ -446,10 +629,11 @@ export class SqliteSweepStore implements SweepStore {
     return row?.status ?? null
   }
 
-  /** The sweep whose chunks hold this sweep's trials: itself, or the original it reuses. */
-  #resultOwner (id: string): string {
+  /** The sweep whose rows hold this sweep's data: itself, or for a reuse stored by an earlier release (no copy of its own), its original. */
+  #dataOwner (id: string): string {
     const row = this.#statements.reusedFrom.get(id) as { reused_from: string | null } | undefined
-    return row?.reused_from ?? id
+    if (row?.reused_from == null || this.#statements.resultOwn.get(id) !== undefined) return id
+    return row.reused_from
   }
 
   #planView (id: string): PlanView | undefined {
@@ -497,7 +681,12 @@ export class SqliteSweepStore implements SweepStore {
         chunksTotal: row.chunks_total
       },
       error: row.error_kind === null ? null : { kind: row.error_kind, message: row.error_message ?? '' },
-      reusedFrom: row.reused_from
+      reusedFrom: row.reused_from,
+      extends: row.extends,
+      reused: { points: row.reused_points, trials: row.reused_trials },
+      tags: JSON.parse(row.tags_json) as string[],
+      notes: row.notes,
+      replicateKey: row.replicate_key
     }
   }
 }
@@ -506,18 +695,25 @@ function prepareStatements (db: Database.Database) {
   return {
     insertSweep: db.prepare(`
       INSERT INTO sweeps (id, owner, label, spec_hash, spec_json, plan_json, status, created_ms, started_ms, finished_ms,
-        points_total, trials_total, chunks_total, points_done, trials_done, chunks_done, reused_from)
+        points_total, trials_total, chunks_total, points_done, trials_done, chunks_done, reused_from,
+        extends, tags_json, notes, replicate_key, reused_points, reused_trials, open_points_json)
       VALUES (@id, @owner, @label, @spec_hash, @spec_json, @plan_json, @status, @created_ms, @started_ms, @finished_ms,
-        @points_total, @trials_total, @chunks_total, @points_done, @trials_done, @chunks_done, @reused_from)`),
+        @points_total, @trials_total, @chunks_total, @points_done, @trials_done, @chunks_done, @reused_from,
+        @extends, @tags_json, @notes, @replicate_key, @reused_points, @reused_trials, @open_points_json)`),
     getSweep: db.prepare('SELECT * FROM sweeps WHERE id = ?'),
     status: db.prepare('SELECT status FROM sweeps WHERE id = ?'),
     planOf: db.prepare('SELECT plan_json, status FROM sweeps WHERE id = ?'),
+    openPoints: db.prepare('SELECT open_points_json FROM sweeps WHERE id = ?'),
+    setOpenPoints: db.prepare('UPDATE sweeps SET open_points_json = ? WHERE id = ?'),
     reusedFrom: db.prepare('SELECT reused_from FROM sweeps WHERE id = ?'),
     // Newest first; `owner IS @owner` matches NULL (tokens off) as well as a name.
     list: db.prepare(`
       SELECT * FROM sweeps
       WHERE (@any_owner = 1 OR owner IS @owner)
         AND (@status IS NULL OR status = @status)
+        AND (@tag IS NULL OR EXISTS (SELECT 1 FROM json_each(tags_json) WHERE value = @tag))
+        AND (@text IS NULL OR lower(COALESCE(label, '')) LIKE @text ESCAPE '\\' OR lower(COALESCE(notes, '')) LIKE @text ESCAPE '\\')
+        AND (@replicate_key IS NULL OR replicate_key = @replicate_key)
         AND (@after_created IS NULL OR created_ms < @after_created OR (created_ms = @after_created AND seq < @after_seq))
       ORDER BY created_ms DESC, seq DESC
       LIMIT @limit`),
@@ -526,13 +722,18 @@ function prepareStatements (db: Database.Database) {
     getIdempotency: db.prepare('SELECT spec_hash, sweep_id FROM idempotency_keys WHERE owner_key = ? AND key = ?'),
     insertIdempotency: db.prepare('INSERT INTO idempotency_keys (owner_key, key, spec_hash, sweep_id, created_ms) VALUES (?, ?, ?, ?, ?)'),
     findReusable: db.prepare(`
-      SELECT id, reused_from FROM sweeps
-      WHERE owner IS ? AND spec_hash = ? AND status = 'succeeded'
-      ORDER BY created_ms DESC, seq DESC LIMIT 1`),
+      SELECT s.id FROM sweeps s
+      WHERE s.owner IS ? AND s.spec_hash = ? AND s.status = 'succeeded' AND s.reused_from IS NULL
+        AND EXISTS (SELECT 1 FROM sweep_results r WHERE r.sweep_id = s.id)
+      ORDER BY s.created_ms DESC, s.seq DESC LIMIT 1`),
+    insertPointKey: db.prepare('INSERT INTO point_keys (sweep_id, point, owner, reuse_key) VALUES (?, ?, ?, ?)'),
     active: db.prepare("SELECT * FROM sweeps WHERE status IN ('queued', 'running') ORDER BY created_ms, seq"),
     adoptPlan: db.prepare(`
       UPDATE sweeps SET plan_json = @plan_json, points_total = @points_total, trials_total = @trials_total,
         chunks_total = @chunks_total, points_done = 0, chunks_done = 0
+      WHERE id = @id`),
+    replacePlan: db.prepare(`
+      UPDATE sweeps SET plan_json = @plan_json, trials_total = trials_total + @trials, chunks_total = chunks_total + @chunks
       WHERE id = @id`),
     doneChunks: db.prepare('SELECT chunk_index FROM chunk_results WHERE sweep_id = ? ORDER BY chunk_index'),
     chunkExists: db.prepare('SELECT 1 FROM chunk_results WHERE sweep_id = ? AND chunk_index = ?'),
@@ -541,17 +742,34 @@ function prepareStatements (db: Database.Database) {
     addChunk: db.prepare(`
       UPDATE sweeps SET points_done = points_done + @points, chunks_done = chunks_done + 1
       WHERE id = @id AND status = 'running'`),
+    addPoint: db.prepare('UPDATE sweeps SET points_done = points_done + 1 WHERE id = ?'),
     raiseTrials: db.prepare(`
       UPDATE sweeps SET trials_done = MAX(trials_done, MIN(trials_total,
         COALESCE((SELECT SUM(trials) FROM chunk_results WHERE sweep_id = @id), 0) + @partial))
       WHERE id = @id`),
-    counters: db.prepare('SELECT chunks_done, chunks_total FROM sweeps WHERE id = ?'),
+    counters: db.prepare('SELECT chunks_done, chunks_total, open_points_json FROM sweeps WHERE id = ?'),
     upsertChunk: db.prepare(`
-      INSERT OR REPLACE INTO chunk_results (sweep_id, chunk_index, point, trials, compute_ms, codec, body, finished_ms)
-      VALUES (@sweep_id, @chunk_index, @point, @trials, @compute_ms, @codec, @body, @finished_ms)`),
+      INSERT OR REPLACE INTO chunk_results (sweep_id, chunk_index, point, first_trial, trials, compute_ms, codec, body, finished_ms)
+      VALUES (@sweep_id, @chunk_index, @point, @first_trial, @trials, @compute_ms, @codec, @body, @finished_ms)`),
+    // A copy of another sweep's stored chunk holding exactly the same trials: no compute time of this sweep's own.
+    inheritChunk: db.prepare(`
+      INSERT INTO chunk_results (sweep_id, chunk_index, point, first_trial, trials, compute_ms, codec, body, finished_ms)
+      SELECT @sweep_id, @chunk_index, @point, first_trial, trials, 0, codec, body, @finished_ms FROM chunk_results
+      WHERE sweep_id = @from_sweep AND chunk_index = @from_chunk AND first_trial = @first_trial AND trials = @trials`),
     chunkBodies: db.prepare('SELECT chunk_index, codec, body, compute_ms FROM chunk_results WHERE sweep_id = ? ORDER BY chunk_index'),
     chunkBodiesFrom: db.prepare('SELECT chunk_index, codec, body FROM chunk_results WHERE sweep_id = ? AND chunk_index >= ? ORDER BY chunk_index LIMIT ?'),
+    copyChunks: db.prepare(`
+      INSERT INTO chunk_results (sweep_id, chunk_index, point, first_trial, trials, compute_ms, codec, body, finished_ms)
+      SELECT ?, chunk_index, point, first_trial, trials, 0, codec, body, ? FROM chunk_results WHERE sweep_id = ?`),
+    copyResult: db.prepare('INSERT INTO sweep_results (sweep_id, codec, body, created_ms) SELECT ?, codec, body, ? FROM sweep_results WHERE sweep_id = ?'),
+    resultOwn: db.prepare('SELECT 1 FROM sweep_results WHERE sweep_id = ?'),
     deleteChunks: db.prepare('DELETE FROM chunk_results WHERE sweep_id = ?'),
+    deleteResult: db.prepare('DELETE FROM sweep_results WHERE sweep_id = ?'),
+    deletePointKeys: db.prepare('DELETE FROM point_keys WHERE sweep_id = ?'),
+    deleteIdempotency: db.prepare('DELETE FROM idempotency_keys WHERE sweep_id = ?'),
+    deleteSweep: db.prepare('DELETE FROM sweeps WHERE id = ?'),
+    reusersOf: db.prepare('SELECT id FROM sweeps WHERE reused_from = ?'),
+    unlinkReusers: db.prepare('UPDATE sweeps SET reused_from = NULL WHERE reused_from = ?'),
     markSucceeded: db.prepare(`
       UPDATE sweeps SET status = 'succeeded', finished_ms = ?, started_ms = COALESCE(started_ms, ?)
       WHERE id = ? AND status IN ('queued', 'running')`),
@@ -559,10 +777,24 @@ function prepareStatements (db: Database.Database) {
     markStopped: db.prepare(`
       UPDATE sweeps SET status = @status, finished_ms = @finished_ms, error_kind = @error_kind, error_message = @error_message
       WHERE id = @id AND status IN ('queued', 'running')`),
+    reopen: db.prepare(`
+      UPDATE sweeps SET status = 'queued', finished_ms = NULL, error_kind = NULL, error_message = NULL
+      WHERE id = ? AND status IN ('canceled', 'failed')`),
+    annotate: db.prepare(`
+      UPDATE sweeps SET
+        label = CASE WHEN @set_label = 1 THEN @label ELSE label END,
+        tags_json = CASE WHEN @set_tags = 1 THEN @tags_json ELSE tags_json END,
+        notes = CASE WHEN @set_notes = 1 THEN @notes ELSE notes END
+      WHERE id = @id`),
+    recordReuse: db.prepare('UPDATE sweeps SET reused_points = ?, reused_trials = ? WHERE id = ?'),
+    // Its own result first; a reuse stored by an earlier release has none and reads its original's.
     resultFor: db.prepare(`
-      SELECT r.codec, r.body FROM sweeps s
-      JOIN sweep_results r ON r.sweep_id = COALESCE(s.reused_from, s.id)
-      WHERE s.id = ? AND s.status = 'succeeded'`),
+      SELECT r.codec, r.body FROM sweep_results r JOIN sweeps s ON s.id = r.sweep_id
+      WHERE r.sweep_id = ? AND s.status = 'succeeded'
+      UNION ALL
+      SELECT r.codec, r.body FROM sweeps s JOIN sweep_results r ON r.sweep_id = s.reused_from
+      WHERE s.id = ? AND s.status = 'succeeded'
+      LIMIT 1`),
     countByStatus: db.prepare('SELECT status, COUNT(*) AS n FROM sweeps GROUP BY status')
   }
 }

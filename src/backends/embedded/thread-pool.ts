@@ -6,7 +6,7 @@
 import { MessageChannel } from 'node:worker_threads'
 import { Piscina } from 'piscina'
 import type { ResourceLimits } from 'node:worker_threads'
-import type { AssembleTask, ChunkProgressMessage, ChunkTask, ChunkTaskOutcome, RunChunkTask } from './chunk-task.js'
+import type { AssembleTask, ChunkProgressMessage, ChunkTask, ChunkTaskOutcome, DecideTask, RunChunkTask } from './chunk-task.js'
 import type { WorkerEntry } from '../../runtime/worker-entry.js'
 
 export interface ThreadPoolOptions {
@@ -59,6 +59,10 @@ export class ChunkThreadPool {
   }
 
   assemble (task: AssembleTask): Promise<ChunkTaskOutcome> {
+    return this.#run(task)
+  }
+
+  decide (task: DecideTask): Promise<ChunkTaskOutcome> {
     return this.#run(task)
   }
 

@@ -8,7 +8,7 @@ import { Queue, type JobsOptions } from 'bullmq'
 import type { Redis } from 'ioredis'
 import { type NormalisedSpec } from '../../spec/index.js'
 import { dispatchOrder, type Chunk } from '../../sweep/index.js'
-import { assembleJobId, CHUNK_QUEUE_NAME, chunkJobId, type KeyLayout } from './keys.js'
+import { assembleJobId, CHUNK_QUEUE_NAME, chunkJobId, decideJobId, type KeyLayout } from './keys.js'
 
 export interface ChunkJobData {
   sweepId: string
@@ -23,7 +23,18 @@ export interface AssembleJobData {
   chunksTotal: number
 }
 
-export type SweepJobName = 'chunk' | 'assemble'
+/** Precision targets: decide whether an open point whose planned trials end at `extent` takes another block. */
+export interface DecideJobData {
+  sweepId: string
+  specHash: string
+  point: number
+  extent: number
+  chunksTotal: number
+}
+
+export type SweepJobData = ChunkJobData | AssembleJobData | DecideJobData
+
+export type SweepJobName = 'chunk' | 'assemble' | 'decide'
 
 export interface ChunkRetryPolicy {
   /**
@@ -68,17 +79,26 @@ export class ChunkQueue {
     }
   }
 
-  /** Adds the chunks' jobs costliest first (dispatchOrder): workers take jobs first in, first out. */
-  async enqueueChunks (sweepId: string, specHash: string, spec: NormalisedSpec, chunks: readonly Chunk[]): Promise<void> {
-    const ordered = dispatchOrder(spec, chunks).map(index => chunks[index]!)
+  /**
+   * Adds the chunks' jobs costliest first (dispatchOrder): workers take jobs first in, first out.
+   * `chunks` may be part of a plan (what is left to compute) of `chunksTotal` chunks in all.
+   */
+  async enqueueChunks (sweepId: string, specHash: string, spec: NormalisedSpec, chunks: readonly Chunk[], chunksTotal = chunks.length): Promise<void> {
+    const byIndex = new Map(chunks.map((chunk) => [chunk.index, chunk]))
+    const ordered = dispatchOrder(spec, chunks).map((index) => byIndex.get(index)!)
     for (let first = 0; first < ordered.length; first += ADD_BATCH) {
       const batch = ordered.slice(first, first + ADD_BATCH).map(chunk => ({
         name: 'chunk' as const,
-        data: { sweepId, specHash, chunk, chunksTotal: chunks.length } satisfies ChunkJobData,
+        data: { sweepId, specHash, chunk, chunksTotal } satisfies ChunkJobData,
         opts: this.#jobOptions(chunkJobId(sweepId, chunk.index))
       }))
       await this.queue.addBulk(batch)
     }
+  }
+
+  /** The decision on an open point at a given extent: its fixed id makes a repeat a no-op. */
+  async enqueueDecision (sweepId: string, specHash: string, point: number, extent: number, chunksTotal: number): Promise<void> {
+    await this.queue.add('decide', { sweepId, specHash, point, extent, chunksTotal } satisfies DecideJobData, this.#jobOptions(decideJobId(sweepId, point, extent)))
   }
 
   async enqueueAssembly (sweepId: string, specHash: string, chunksTotal: number): Promise<void> {

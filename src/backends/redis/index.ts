@@ -10,11 +10,12 @@ import type { TrialRecord } from '../../engine/index.js'
 import { specHash } from '../../spec/index.js'
 import type { SweepResult } from '../../results/index.js'
 import {
-  dataLossFailure, decodeValue, isSweepId, isTerminal, newSweepId, planSweep, storedTrials,
-  type ListQuery, type SweepDraft, type SweepPage, type SweepPlan, type SweepRecord
+  dataLossFailure, decodeValue, isSweepId, isTerminal, newSweepId, planSweep, storedTrials, submitToStore,
+  type Annotation, type ListQuery, type SweepPage, type SweepRecord
 } from '../../sweep/index.js'
 import { ActiveSweepCapError, IdempotencyConflictError } from '../errors.js'
-import type { EncodedResult, QueueStats, SubmitInput, SweepEvent, SweepQueue } from '../port.js'
+import type { EncodedResult, QueueStats, StoredProgress, SubmitInput, SweepEvent, SweepQueue } from '../port.js'
+import { enqueueRemaining } from './dispatch.js'
 import { ChunkQueue, DEFAULT_RETRY_POLICY, type ChunkRetryPolicy } from './chunk-queue.js'
 import { closeConnection, openConnection, redactUrl } from './connections.js'
 import { publishStop, publishSweepEvent, RedisSweepEvents } from './events.js'
@@ -132,7 +133,9 @@ class RedisQueue implements SweepQueue {
         specHash: record.specHash,
         spec: record.spec,
         createdMs: Date.parse(record.createdAt),
-        plan: planSweep(record.spec)
+        plan: planSweep(record.spec),
+        replicateKey: record.replicateKey,
+        reuseKeys: []
       })
       await this.store.stop(record.id, 'failed', dataLossFailure(), now)
       await publishSweepEvent(this.producer, this.keys, record.id, 'state')
@@ -148,13 +151,19 @@ class RedisQueue implements SweepQueue {
   async #submit (input: SubmitInput): Promise<SweepRecord> {
     const spec = input.spec
     const hash = specHash(spec)
-    const draft: SweepDraft = { id: newSweepId(), owner: input.owner, label: spec.label, specHash: hash, spec, createdMs: Date.now(), plan: planSweep(spec) }
-    const reuseFrom = input.reuse === true ? await this.store.findReusable(input.owner, hash) : null
-    const idempotency = input.idempotencyKey === undefined ? undefined : { key: input.idempotencyKey, ttlSeconds: this.idempotencyTtlSeconds }
-    const outcome = await this.store.create(draft, {
-      reuseFrom,
-      ...(idempotency === undefined ? {} : { idempotency }),
-      ...(input.maxActive === undefined ? {} : { maxActive: input.maxActive })
+    const id = newSweepId()
+    const outcome = await submitToStore(this.store, {
+      id,
+      spec,
+      owner: input.owner,
+      createdMs: Date.now(),
+      reuseFrom: input.reuse === true ? await this.store.findReusable(input.owner, hash) : null,
+      ...(input.reusePoints === undefined ? {} : { reusePoints: input.reusePoints }),
+      ...(input.idempotencyKey === undefined ? {} : { idempotency: { key: input.idempotencyKey, ttlSeconds: this.idempotencyTtlSeconds } }),
+      ...(input.maxActive === undefined ? {} : { maxActive: input.maxActive }),
+      ...(input.extends === undefined ? {} : { extends: input.extends }),
+      ...(input.tags === undefined ? {} : { tags: input.tags }),
+      ...(input.notes === undefined ? {} : { notes: input.notes })
     })
     if (outcome.kind === 'over-cap') throw new ActiveSweepCapError(input.owner, outcome.active, input.maxActive ?? outcome.active)
     if (outcome.kind === 'existing') {
@@ -167,20 +176,47 @@ class RedisQueue implements SweepQueue {
       }
       // A retry after a submit that stored the record but died before enqueueing: finish the job.
       if (!isTerminal(existing.status) && !await this.store.isEnqueued(existing.id)) {
-        const plan = await this.store.plan(existing.id)
-        if (plan !== null) await this.#enqueue(existing.id, existing.specHash, existing.spec, plan)
+        await enqueueRemaining(this.store, this.chunks, existing.id, existing.specHash, existing.spec)
       }
       return existing
     }
-    if (outcome.status === 'queued') await this.#enqueue(draft.id, hash, spec, draft.plan)
-    const record = await this.store.get(draft.id)
-    if (record === null) throw new Error(`Sweep ${draft.id} vanished right after it was stored.`)
+    if (outcome.status === 'queued') await enqueueRemaining(this.store, this.chunks, id, hash, spec)
+    const record = await this.store.get(id)
+    if (record === null) throw new Error(`Sweep ${id} vanished right after it was stored.`)
     return record
   }
 
-  async #enqueue (id: string, hash: string, spec: SweepDraft['spec'], plan: SweepPlan): Promise<void> {
-    await this.chunks.enqueueChunks(id, hash, spec, plan.chunks)
-    await this.store.markEnqueued(id)
+  async resume (id: string): Promise<SweepRecord | null> {
+    this.#assertOpen()
+    if (!isSweepId(id)) return null
+    const transition = await this.store.reopen(id, Date.now())
+    const record = await this.store.get(id)
+    if (transition.changed && record !== null) {
+      await enqueueRemaining(this.store, this.chunks, id, record.specHash, record.spec)
+      await publishSweepEvent(this.producer, this.keys, id, 'state')
+      this.logger.info({ sweepId: id }, 'sweep resumed')
+    }
+    return this.#remember(record)
+  }
+
+  async annotate (id: string, patch: Annotation): Promise<SweepRecord | null> {
+    this.#assertOpen()
+    if (!isSweepId(id)) return null
+    return await this.store.annotate(id, patch)
+  }
+
+  async purge (id: string): Promise<boolean> {
+    this.#assertOpen()
+    if (!isSweepId(id)) return false
+    return await this.store.purge(id)
+  }
+
+  async storedProgress (id: string): Promise<StoredProgress | null> {
+    this.#assertOpen()
+    if (!isSweepId(id)) return null
+    const [record, plan] = await Promise.all([this.store.get(id), this.store.plan(id)])
+    if (record === null || plan === null) return null
+    return { spec: record.spec, plan: plan.chunks, chunks: await this.store.chunksInBatches(id, plan.chunks.length), openPoints: await this.store.openPoints(id) }
   }
 
   async get (id: string): Promise<SweepRecord | null> {

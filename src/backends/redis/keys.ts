@@ -22,6 +22,10 @@ export interface SweepKeys {
   pointsLeft: string
   /** Hash: the plan stored at submission: `version` → plan version, chunk index → `point,firstTrial,count`. */
   plan: string
+  /** Hash: open point (precision targets: its trial blocks are still being decided) → the trial its plan ends at. */
+  open: string
+  /** Hash: grid point → its reuse key (engine, seed, the point's parameters). */
+  reuseKeys: string
   /** String: the encoded assembled result. */
   result: string
   /** Pub/sub channel: hints that the record changed (`progress` or `state`). */
@@ -49,6 +53,8 @@ export interface KeyLayout {
   idempotency: (owner: string | null, key: string) => string
   /** String: id of the latest succeeded sweep of an owner with this spec hash (reuse is per owner). */
   reuse: (owner: string | null, specHash: string) => string
+  /** Set: `<sweep id>:<chunk index>:<first trial>:<count>` of the owner's planned chunks whose point has this reuse key. */
+  pointChunks: (owner: string | null, reuseKey: string) => string
 }
 
 export function keyLayout (prefix: string): KeyLayout {
@@ -67,6 +73,8 @@ export function keyLayout (prefix: string): KeyLayout {
       chunkTrials: `${prefix}:sweep:${id}:chunk-trials`,
       pointsLeft: `${prefix}:sweep:${id}:points-left`,
       plan: `${prefix}:sweep:${id}:plan`,
+      open: `${prefix}:sweep:${id}:open`,
+      reuseKeys: `${prefix}:sweep:${id}:reuse-keys`,
       result: `${prefix}:sweep:${id}:result`,
       events: `${prefix}:sweep:${id}:events`
     }),
@@ -74,7 +82,8 @@ export function keyLayout (prefix: string): KeyLayout {
     ownerIndex: (owner) => `${prefix}:sweeps:owner:${encodeURIComponent(owner)}`,
     // Clients choose idempotency keys; hashing bounds the key length whatever they send.
     idempotency: (owner, key) => `${prefix}:idempotency:${sha256(`${owner ?? ''}\n${key}`)}`,
-    reuse: (owner, specHash) => `${prefix}:reuse:${sha256(owner ?? '').slice(0, 16)}:${specHash}`
+    reuse: (owner, specHash) => `${prefix}:reuse:${sha256(owner ?? '').slice(0, 16)}:${specHash}`,
+    pointChunks: (owner, reuseKey) => `${prefix}:points:${sha256(owner ?? '').slice(0, 16)}:${sha256(reuseKey).slice(0, 32)}`
   }
 }
 
@@ -96,6 +105,10 @@ export function idFromIndexMember (member: string): string {
 /** Job ids: deterministic, so enqueueing the same chunk twice is a no-op, and never integer-like. */
 export function chunkJobId (sweepId: string, chunkIndex: number): string {
   return `sw-${sweepId}-c${chunkIndex}`
+}
+
+export function decideJobId (sweepId: string, point: number, extent: number): string {
+  return `sw-${sweepId}-p${point}-t${extent}`
 }
 
 export function assembleJobId (sweepId: string): string {

@@ -51,10 +51,11 @@ end
  * Creates a sweep record with its stored plan, or answers with the sweep an idempotency key
  * already names, or refuses when the owner is at the active cap (checked here, atomically).
  * KEYS: record, index, owner index, counts, idempotency, unenqueued, points-left, reuse source
- *       result, result, plan, active, reuse source chunks, chunks, reuse source plan
+ *       result, result, plan, active, reuse source chunks, chunks, reuse source plan, open points
  * ARGV: use idempotency ('1'/'0'), idempotency value, idempotency ttl s, record fields (JSON flat
  *       list), index member, createdAt ms, points-left (JSON flat list), reuse source id ('' =
- *       none), retention s, id, plan (JSON flat list), max active ('' = no cap), owner JSON
+ *       none), retention s, id, plan (JSON flat list), max active ('' = no cap), owner JSON,
+ *       open points (JSON flat list point → planned extent)
  * Returns {'existing', idempotency value} | {'over-cap', active} | {'queued', ''} | {'succeeded', ''} (reused).
  */
 export const SUBMIT = SET_FIELDS + `
@@ -78,11 +79,15 @@ if reusing then
   redis.call('HSET', KEYS[1], 'status', status, 'reusedFrom', ARGV[8], 'startedMs', ARGV[6], 'finishedMs', ARGV[6],
     'pointsDone', redis.call('HGET', KEYS[1], 'pointsTotal'),
     'trialsDone', redis.call('HGET', KEYS[1], 'trialsTotal'),
-    'chunksDone', redis.call('HGET', KEYS[1], 'chunksTotal'))
+    'chunksDone', redis.call('HGET', KEYS[1], 'chunksTotal'),
+    'reusedPoints', redis.call('HGET', KEYS[1], 'pointsTotal'),
+    'reusedTrials', redis.call('HGET', KEYS[1], 'trialsTotal'))
   for _, key in ipairs({KEYS[1], KEYS[9], KEYS[10], KEYS[13]}) do redis.call('EXPIRE', key, ARGV[9]) end
 else
   redis.call('HSET', KEYS[1], 'status', status, 'enqueued', '0')
   set_fields(KEYS[7], cjson.decode(ARGV[7]))
+  local open = cjson.decode(ARGV[14])
+  if #open > 0 then set_fields(KEYS[15], open) end
   redis.call('ZADD', KEYS[6], ARGV[6], ARGV[10])
   redis.call('HINCRBY', KEYS[11], ARGV[13], 1)
 end
@@ -131,56 +136,133 @@ end
 return 'running'
 `
 
+/** Whether every chunk of the plan is stored and no point is open. */
+const IS_COMPLETE = `
+local function is_complete(record, open)
+  return redis.call('HGET', record, 'chunksDone') == redis.call('HGET', record, 'chunksTotal') and redis.call('HLEN', open) == 0
+end
+`
+
 /**
- * Stores a finished chunk of the stored plan. Its first result advances the counters; a
- * retried chunk's result replaces the stored one and counts nothing, so the counters equal
- * the distinct chunks stored however often chunks were retried. A chunk that is not the
- * plan's chunk at its index is refused.
- * KEYS: record, chunks, chunk-trials, points-left, counts, plan.
- * ARGV: chunk index, encoded result, trials in the chunk, grid point, now ms, compute ms, first trial.
- * Returns {status, stored (1/0), complete (1/0)}; status '' when the sweep is gone.
+ * Stores a chunk of the stored plan (the body given, or nil to copy it from another sweep's
+ * chunks) and adds what it completes. Its first result advances the counters; a repeated
+ * chunk's result replaces the stored one and counts nothing, so the counters equal the
+ * distinct chunks stored however often chunks were retried. A chunk that is not the plan's
+ * chunk at its index is refused.
+ * keys: record, chunks, chunk-trials, points-left, counts, plan, open points.
+ * Returns {status, stored (1/0), complete (1/0), point due (1/0)}; status '' when the sweep is gone.
  */
-export const RECORD_CHUNK = START + `
-local status = redis.call('HGET', KEYS[1], 'status')
-if not status then return {'', 0, 0} end
-if status ~= 'queued' and status ~= 'running' then return {status, 0, 0} end
-local planned = redis.call('HGET', KEYS[6], ARGV[1])
-local expected = ARGV[4] .. ',' .. ARGV[7] .. ',' .. ARGV[3]
-if planned and planned ~= expected then
-  return redis.error_reply('chunk ' .. ARGV[1] .. ' (' .. expected .. ') is not in the stored plan (' .. planned .. ')')
-end
-if status == 'queued' then start_sweep(KEYS[1], KEYS[5], ARGV[5]) end
-local stored = 0
-if redis.call('HSET', KEYS[2], ARGV[1], ARGV[2]) == 1 then
-  stored = 1
-  local before = tonumber(redis.call('HGET', KEYS[3], ARGV[1]) or '0')
-  redis.call('HDEL', KEYS[3], ARGV[1])
-  redis.call('HINCRBY', KEYS[1], 'trialsDone', tonumber(ARGV[3]) - before)
-  redis.call('HINCRBY', KEYS[1], 'chunksDone', 1)
-  redis.call('HINCRBYFLOAT', KEYS[1], 'computeMs', ARGV[6])
-  if redis.call('HINCRBY', KEYS[4], ARGV[4], -1) <= 0 then
-    redis.call('HDEL', KEYS[4], ARGV[4])
-    redis.call('HINCRBY', KEYS[1], 'pointsDone', 1)
+const STORE_CHUNK = START + IS_COMPLETE + `
+local function store_chunk(k, index, point, first, count, now_ms, compute_ms, body)
+  local status = redis.call('HGET', k.record, 'status')
+  if not status then return {'', 0, 0, 0} end
+  if status ~= 'queued' and status ~= 'running' then return {status, 0, 0, 0} end
+  local planned = redis.call('HGET', k.plan, index)
+  local expected = point .. ',' .. first .. ',' .. count
+  if planned and planned ~= expected then
+    return redis.error_reply('chunk ' .. index .. ' (' .. expected .. ') is not in the stored plan (' .. planned .. ')')
   end
+  if status == 'queued' then start_sweep(k.record, k.counts, now_ms) end
+  local stored = 0
+  if redis.call('HSET', k.chunks, index, body) == 1 then
+    stored = 1
+    local before = tonumber(redis.call('HGET', k.trials, index) or '0')
+    redis.call('HDEL', k.trials, index)
+    redis.call('HINCRBY', k.record, 'trialsDone', tonumber(count) - before)
+    redis.call('HINCRBY', k.record, 'chunksDone', 1)
+    redis.call('HINCRBYFLOAT', k.record, 'computeMs', compute_ms)
+    if redis.call('HINCRBY', k.left, point, -1) <= 0 then
+      redis.call('HDEL', k.left, point)
+      if redis.call('HEXISTS', k.open, point) == 0 then redis.call('HINCRBY', k.record, 'pointsDone', 1) end
+    end
+  end
+  -- Due whenever the open point's planned chunks are all stored, a repeat included: a decision lost in a crash is asked again.
+  local due = (redis.call('HEXISTS', k.left, point) == 0 and redis.call('HEXISTS', k.open, point) == 1) and 1 or 0
+  return {'running', stored, is_complete(k.record, k.open) and 1 or 0, due}
 end
-local done = tonumber(redis.call('HGET', KEYS[1], 'chunksDone'))
-local total = tonumber(redis.call('HGET', KEYS[1], 'chunksTotal'))
-return {'running', stored, done == total and 1 or 0}
+`
+
+/**
+ * Stores a finished chunk of the stored plan (see store_chunk).
+ * KEYS: record, chunks, chunk-trials, points-left, counts, plan, open points.
+ * ARGV: chunk index, encoded result, trials in the chunk, grid point, now ms, compute ms, first trial.
+ */
+export const RECORD_CHUNK = STORE_CHUNK + `
+local k = { record = KEYS[1], chunks = KEYS[2], trials = KEYS[3], left = KEYS[4], counts = KEYS[5], plan = KEYS[6], open = KEYS[7] }
+return store_chunk(k, ARGV[1], ARGV[4], ARGV[7], ARGV[3], ARGV[5], ARGV[6], ARGV[2])
+`
+
+/**
+ * Stores, as this sweep's chunk, a copy of another sweep's stored chunk with the same trials
+ * (see store_chunk); stored 0 when the source chunk is gone.
+ * KEYS: record, chunks, chunk-trials, points-left, counts, plan, open points, source chunks, source plan.
+ * ARGV: chunk index, grid point, first trial, trials, now ms, source chunk index.
+ */
+export const INHERIT_CHUNK = STORE_CHUNK + `
+local k = { record = KEYS[1], chunks = KEYS[2], trials = KEYS[3], left = KEYS[4], counts = KEYS[5], plan = KEYS[6], open = KEYS[7] }
+local source_plan = redis.call('HGET', KEYS[9], ARGV[6])
+if source_plan then
+  local _, source_first, source_count = string.match(source_plan, '^(%d+),(%d+),(%d+)$')
+  if source_first ~= ARGV[3] or source_count ~= ARGV[4] then return {redis.call('HGET', KEYS[1], 'status') or '', 0, 0, 0} end
+end
+local body = redis.call('HGET', KEYS[8], ARGV[6])
+if not body or not source_plan then return {redis.call('HGET', KEYS[1], 'status') or '', 0, 0, 0} end
+if redis.call('HEXISTS', KEYS[2], ARGV[1]) == 1 then return {redis.call('HGET', KEYS[1], 'status') or '', 0, is_complete(KEYS[1], KEYS[7]) and 1 or 0, 0} end
+return store_chunk(k, ARGV[1], ARGV[2], ARGV[3], ARGV[4], ARGV[5], '0', body)
+`
+
+/**
+ * Appends runs of trials to an open point's plan, only if its planned trials end at the given
+ * trial (a repeated decision appends nothing).
+ * KEYS: record, plan, open points, points-left. ARGV: point, from trial, pieces (JSON [[first, count], …]).
+ * Returns the index of the first appended chunk, or -1.
+ */
+export const EXTEND_POINT = `
+local status = redis.call('HGET', KEYS[1], 'status')
+if status ~= 'queued' and status ~= 'running' then return -1 end
+local extent = redis.call('HGET', KEYS[3], ARGV[1])
+if not extent or extent ~= ARGV[2] then return -1 end
+local pieces = cjson.decode(ARGV[3])
+if #pieces == 0 then return -1 end
+local first_index = tonumber(redis.call('HGET', KEYS[1], 'chunksTotal'))
+local trials = 0
+local last = tonumber(extent)
+for i, piece in ipairs(pieces) do
+  redis.call('HSET', KEYS[2], first_index + i - 1, ARGV[1] .. ',' .. piece[1] .. ',' .. piece[2])
+  trials = trials + piece[2]
+  last = piece[1] + piece[2]
+end
+redis.call('HINCRBY', KEYS[1], 'chunksTotal', #pieces)
+redis.call('HINCRBY', KEYS[1], 'trialsTotal', trials)
+redis.call('HINCRBY', KEYS[4], ARGV[1], #pieces)
+redis.call('HSET', KEYS[3], ARGV[1], last)
+return first_index
+`
+
+/**
+ * Closes an open point. KEYS: record, open points, points-left. ARGV: point.
+ * Returns {closed (1/0), complete (1/0)}.
+ */
+export const CLOSE_POINT = IS_COMPLETE + `
+local status = redis.call('HGET', KEYS[1], 'status')
+if (status ~= 'queued' and status ~= 'running') or redis.call('HDEL', KEYS[2], ARGV[1]) == 0 then return {0, 0} end
+if tonumber(redis.call('HGET', KEYS[3], ARGV[1]) or '0') <= 0 then redis.call('HINCRBY', KEYS[1], 'pointsDone', 1) end
+return {1, is_complete(KEYS[1], KEYS[2]) and 1 or 0}
 `
 
 /**
  * Stores the assembled result and marks the sweep succeeded: only once, only from an active
  * sweep whose every chunk is stored. The chunks stay (they hold the trial records) and
  * start their retention countdown with the record.
- * KEYS: record, result, counts, reuse, chunks, chunk-trials, points-left, plan, active.
+ * KEYS: record, result, counts, reuse, chunks, chunk-trials, points-left, plan, active, open points.
  * ARGV: encoded result, now ms, retention s, id.
  * Returns {1, 'succeeded'} when this call made the change, else {0, status} ('' if gone).
  */
-export const SUCCEED = RELEASE_ACTIVE + `
+export const SUCCEED = RELEASE_ACTIVE + IS_COMPLETE + `
 local status = redis.call('HGET', KEYS[1], 'status')
 if not status then return {0, ''} end
 if status ~= 'queued' and status ~= 'running' then return {0, status} end
-if redis.call('HGET', KEYS[1], 'chunksDone') ~= redis.call('HGET', KEYS[1], 'chunksTotal') then
+if not is_complete(KEYS[1], KEYS[10]) then
   return redis.error_reply('sweep ' .. ARGV[4] .. ' is not complete: cannot store its result')
 end
 redis.call('SET', KEYS[2], ARGV[1], 'EX', ARGV[3])
@@ -198,7 +280,7 @@ return {1, 'succeeded'}
 /**
  * Ends a queued or running sweep as canceled or failed; a no-op on a finished one. Its
  * keys, stored chunks included, start their retention countdown.
- * KEYS: record, counts, chunks, chunk-trials, points-left, unenqueued, plan, active.
+ * KEYS: record, counts, chunks, chunk-trials, points-left, unenqueued, plan, active, open points.
  * ARGV: new status, now ms, error JSON ('' = none), retention s, id.
  * Returns {1, new status} when this call made the change, else {0, status} ('' if gone).
  */
@@ -211,9 +293,44 @@ if ARGV[3] ~= '' then redis.call('HSET', KEYS[1], 'error', ARGV[3]) end
 redis.call('HINCRBY', KEYS[2], status, -1)
 redis.call('HINCRBY', KEYS[2], ARGV[1], 1)
 redis.call('ZREM', KEYS[6], ARGV[5])
-for _, key in ipairs({KEYS[1], KEYS[3], KEYS[4], KEYS[5], KEYS[7]}) do redis.call('EXPIRE', key, ARGV[4]) end
+for _, key in ipairs({KEYS[1], KEYS[3], KEYS[4], KEYS[5], KEYS[7], KEYS[9]}) do redis.call('EXPIRE', key, ARGV[4]) end
 release_active(KEYS[1], KEYS[8])
 return {1, ARGV[1]}
+`
+
+/**
+ * canceled or failed → queued, keeping its stored chunks and counters; its keys stop expiring.
+ * KEYS: record, counts, chunks, chunk-trials, points-left, plan, active, open points, unenqueued.
+ * ARGV: now ms, id.
+ * Returns {1, 'queued'} when this call made the change, else {0, status} ('' if gone).
+ */
+export const REOPEN = `
+local status = redis.call('HGET', KEYS[1], 'status')
+if not status then return {0, ''} end
+if status ~= 'canceled' and status ~= 'failed' then return {0, status} end
+redis.call('HSET', KEYS[1], 'status', 'queued', 'finishedMs', '', 'error', '', 'enqueued', '0')
+redis.call('HINCRBY', KEYS[2], status, -1)
+redis.call('HINCRBY', KEYS[2], 'queued', 1)
+for i = 1, 8 do if i ~= 2 and i ~= 7 then redis.call('PERSIST', KEYS[i]) end end
+redis.call('HINCRBY', KEYS[7], redis.call('HGET', KEYS[1], 'owner') or 'null', 1)
+redis.call('ZADD', KEYS[9], ARGV[1], ARGV[2])
+return {1, 'queued'}
+`
+
+/**
+ * Removes a finished sweep and everything stored for it.
+ * KEYS: record, counts, index, owner index, then the sweep's other keys. ARGV: index member.
+ * Returns 1 when removed, 0 for an active or unknown sweep.
+ */
+export const PURGE = `
+local status = redis.call('HGET', KEYS[1], 'status')
+if status ~= 'succeeded' and status ~= 'failed' and status ~= 'canceled' then return 0 end
+redis.call('HINCRBY', KEYS[2], status, -1)
+redis.call('ZREM', KEYS[3], ARGV[1])
+if KEYS[4] ~= KEYS[3] then redis.call('ZREM', KEYS[4], ARGV[1]) end
+redis.call('DEL', KEYS[1])
+for i = 5, #KEYS do redis.call('DEL', KEYS[i]) end
+return 1
 `
 
 /**
@@ -244,6 +361,11 @@ export const SCRIPTS = {
   markRunning: new LuaScript('markRunning', MARK_RUNNING),
   reportProgress: new LuaScript('reportProgress', REPORT_PROGRESS),
   recordChunk: new LuaScript('recordChunk', RECORD_CHUNK),
+  inheritChunk: new LuaScript('inheritChunk', INHERIT_CHUNK),
+  extendPoint: new LuaScript('extendPoint', EXTEND_POINT),
+  closePoint: new LuaScript('closePoint', CLOSE_POINT),
+  reopen: new LuaScript('reopen', REOPEN),
+  purge: new LuaScript('purge', PURGE),
   succeed: new LuaScript('succeed', SUCCEED),
   stop: new LuaScript('stop', STOP)
 }

@@ -9,8 +9,8 @@ import type { Redis } from 'ioredis'
 import type { NormalisedSpec } from '../../spec/index.js'
 import {
   ANY_OWNER, chunksPerPoint, SWEEP_STATUSES,
-  type Chunk, type ChunkOutcome, type CreateOptions, type CreateOutcome, type IdempotencyBinding, type ListQuery, type StoredChunk,
-  type SweepDraft, type SweepFailure, type SweepPage, type SweepPlan, type SweepRecord, type SweepStatus, type SweepStore, type Transition
+  type Annotation, type Chunk, type ChunkOutcome, type CreateOptions, type CreateOutcome, type IdempotencyBinding, type ListQuery, type StoredChunk,
+  type StoredRange, type SweepDraft, type SweepFailure, type SweepPage, type SweepPlan, type SweepRecord, type SweepStatus, type SweepStore, type Transition
 } from '../../sweep/index.js'
 import { InvalidCursorError } from '../errors.js'
 import { idFromIndexMember, indexMember, isIndexMember, type KeyLayout } from './keys.js'
@@ -62,16 +62,25 @@ export class RedisSweepStore implements SweepStore {
       'chunksTotal', String(draft.plan.chunks.length),
       'chunksDone', '0',
       'error', '',
-      'reusedFrom', ''
+      'reusedFrom', '',
+      'extends', draft.extends ?? '',
+      'tags', JSON.stringify(draft.tags ?? []),
+      'notes', JSON.stringify(draft.notes ?? null),
+      'replicateKey', draft.replicateKey,
+      'reusedPoints', '0',
+      'reusedTrials', '0'
     ]
     const pointsLeft: string[] = []
     for (const [point, count] of perPoint) pointsLeft.push(String(point), String(count))
     const plan: string[] = ['version', String(draft.plan.version)]
     for (const chunk of draft.plan.chunks) plan.push(String(chunk.index), `${chunk.point},${chunk.firstTrial},${chunk.count}`)
+    const extents = new Map<number, number>()
+    for (const chunk of draft.plan.chunks) extents.set(chunk.point, Math.max(extents.get(chunk.point) ?? 0, chunk.firstTrial + chunk.count))
+    const open: string[] = (draft.openPoints ?? []).flatMap((point) => [String(point), String(extents.get(point) ?? 0)])
     const reply = await SCRIPTS.submit.run(this.redis, [
       keys.record, this.keys.index, owner === null ? this.keys.index : this.keys.ownerIndex(owner), this.keys.counts,
       idempotencyKey, this.keys.unenqueued, keys.pointsLeft, source.result, keys.result, keys.plan, this.keys.active,
-      source.chunks, keys.chunks, source.plan
+      source.chunks, keys.chunks, source.plan, keys.open
     ], [
       options.idempotency === undefined ? '0' : '1',
       JSON.stringify({ specHash: draft.specHash, sweepId: draft.id } satisfies IdempotencyBinding),
@@ -85,10 +94,12 @@ export class RedisSweepStore implements SweepStore {
       draft.id,
       JSON.stringify(plan),
       options.maxActive === undefined ? '' : String(options.maxActive),
-      JSON.stringify(owner)
+      JSON.stringify(owner),
+      JSON.stringify(open)
     ]) as [string, string]
     if (reply[0] === 'existing') return { kind: 'existing', binding: JSON.parse(reply[1]) as IdempotencyBinding }
     if (reply[0] === 'over-cap') return { kind: 'over-cap', active: Number(reply[1]) }
+    if (reply[0] === 'queued') await this.#indexPointChunks(draft.id, owner, draft.reuseKeys, draft.plan.chunks)
     return { kind: 'created', status: reply[0] as 'queued' | 'succeeded' }
   }
 
@@ -181,10 +192,10 @@ export class RedisSweepStore implements SweepStore {
 
   async recordChunk (id: string, chunk: Chunk, body: Uint8Array, computeMs: number, nowMs: number): Promise<ChunkOutcome> {
     const keys = this.keys.sweep(id)
-    const [status, stored, complete] = await SCRIPTS.recordChunk.run(this.redis,
-      [keys.record, keys.chunks, keys.chunkTrials, keys.pointsLeft, this.keys.counts, keys.plan],
-      [chunk.index, asBuffer(body), chunk.count, chunk.point, nowMs, computeMs.toFixed(3), chunk.firstTrial]) as [string, number, number]
-    return { status: status as ChunkOutcome['status'], stored: stored === 1, complete: complete === 1 }
+    const reply = await SCRIPTS.recordChunk.run(this.redis,
+      [keys.record, keys.chunks, keys.chunkTrials, keys.pointsLeft, this.keys.counts, keys.plan, keys.open],
+      [chunk.index, asBuffer(body), chunk.count, chunk.point, nowMs, computeMs.toFixed(3), chunk.firstTrial]) as [string, number, number, number]
+    return chunkOutcome(reply)
   }
 
   async storedChunks (id: string): Promise<{ chunks: StoredChunk[], computeMs: number }> {
@@ -210,13 +221,20 @@ export class RedisSweepStore implements SweepStore {
     return chunks
   }
 
+  /** The stored chunks among these indices (missing ones left out). */
+  async chunksOf (id: string, indices: readonly number[]): Promise<StoredChunk[]> {
+    if (indices.length === 0) return []
+    const bodies = await this.redis.hmgetBuffer(this.keys.sweep(id).chunks, ...indices.map(String))
+    return bodies.flatMap((body, k) => body === null ? [] : [{ index: indices[k]!, body: new Uint8Array(body.buffer, body.byteOffset, body.byteLength) }])
+  }
+
   async succeed (id: string, resultBody: Uint8Array, nowMs: number): Promise<Transition> {
     const keys = this.keys.sweep(id)
     const owner = await this.redis.hget(keys.record, 'owner')
     const specHash = await this.redis.hget(keys.record, 'specHash')
     if (owner === null || specHash === null) return { changed: false, status: '' }
     const [changed, status] = await SCRIPTS.succeed.run(this.redis,
-      [keys.record, keys.result, this.keys.counts, this.keys.reuse(JSON.parse(owner) as string | null, specHash), keys.chunks, keys.chunkTrials, keys.pointsLeft, keys.plan, this.keys.active],
+      [keys.record, keys.result, this.keys.counts, this.keys.reuse(JSON.parse(owner) as string | null, specHash), keys.chunks, keys.chunkTrials, keys.pointsLeft, keys.plan, this.keys.active, keys.open],
       [asBuffer(resultBody), nowMs, this.retentionSeconds, id]) as [number, string]
     return { changed: changed === 1, status: status as Transition['status'] }
   }
@@ -225,7 +243,7 @@ export class RedisSweepStore implements SweepStore {
   async stop (id: string, to: 'canceled' | 'failed', failure: SweepFailure | null, nowMs: number): Promise<Transition> {
     const keys = this.keys.sweep(id)
     const [changed, status] = await SCRIPTS.stop.run(this.redis,
-      [keys.record, this.keys.counts, keys.chunks, keys.chunkTrials, keys.pointsLeft, this.keys.unenqueued, keys.plan, this.keys.active],
+      [keys.record, this.keys.counts, keys.chunks, keys.chunkTrials, keys.pointsLeft, this.keys.unenqueued, keys.plan, this.keys.active, keys.open],
       [to, nowMs, failure === null ? '' : JSON.stringify(failure), this.retentionSeconds, id]) as [number, string]
     return { changed: changed === 1, status: status as Transition['status'] }
   }
@@ -240,6 +258,122 @@ export class RedisSweepStore implements SweepStore {
     const counts = {} as Record<SweepStatus, number>
     for (const status of SWEEP_STATUSES) counts[status] = Math.max(0, Number(stored[status] ?? 0))
     return counts
+  }
+
+  async annotate (id: string, patch: Annotation): Promise<SweepRecord | null> {
+    const record = this.keys.sweep(id).record
+    const fields: string[] = []
+    if (patch.label !== undefined) fields.push('label', JSON.stringify(patch.label))
+    if (patch.tags !== undefined) fields.push('tags', JSON.stringify(patch.tags))
+    if (patch.notes !== undefined) fields.push('notes', JSON.stringify(patch.notes))
+    // Only an existing record: HSET on a gone one would leave a half record behind.
+    if (fields.length > 0 && await this.redis.exists(record) === 1) await this.redis.hset(record, ...fields)
+    return await this.get(id)
+  }
+
+  async recordReuse (id: string, reused: { points: number, trials: number }): Promise<void> {
+    const record = this.keys.sweep(id).record
+    if (await this.redis.exists(record) === 1) await this.redis.hset(record, 'reusedPoints', String(reused.points), 'reusedTrials', String(reused.trials))
+  }
+
+  async purge (id: string): Promise<boolean> {
+    const record = await this.get(id)
+    if (record === null) return false
+    const keys = this.keys.sweep(id)
+    const removed = await SCRIPTS.purge.run(this.redis, [
+      keys.record, this.keys.counts, this.keys.index, record.owner === null ? this.keys.index : this.keys.ownerIndex(record.owner),
+      keys.chunks, keys.chunkTrials, keys.pointsLeft, keys.plan, keys.result, keys.open, keys.reuseKeys
+    ], [indexMember(Date.parse(record.createdAt), id)]) as number
+    if (removed === 1 && await this.redis.get(this.keys.reuse(record.owner, record.specHash)) === id) await this.redis.del(this.keys.reuse(record.owner, record.specHash))
+    return removed === 1
+  }
+
+  async reopen (id: string, nowMs: number): Promise<Transition> {
+    const keys = this.keys.sweep(id)
+    const [changed, status] = await SCRIPTS.reopen.run(this.redis,
+      [keys.record, this.keys.counts, keys.chunks, keys.chunkTrials, keys.pointsLeft, keys.plan, this.keys.active, keys.open, this.keys.unenqueued],
+      [nowMs, id]) as [number, string]
+    return { changed: changed === 1, status: status as Transition['status'] }
+  }
+
+  async storedRanges (owner: string | null, reuseKeys: readonly string[]): Promise<Map<string, StoredRange[]>> {
+    const ranges = new Map<string, StoredRange[]>()
+    for (const reuseKey of new Set(reuseKeys)) {
+      const set = this.keys.pointChunks(owner, reuseKey)
+      const members = await this.redis.smembers(set)
+      if (members.length === 0) continue
+      const parsed = members.map((member) => {
+        const [sweepId, chunkIndex, firstTrial, count] = member.split(':') as [string, string, string, string]
+        return { member, range: { sweepId, chunkIndex: Number(chunkIndex), firstTrial: Number(firstTrial), count: Number(count) } }
+      })
+      const pipeline = this.redis.pipeline()
+      for (const { range } of parsed) pipeline.hexists(this.keys.sweep(range.sweepId).chunks, String(range.chunkIndex))
+      const stored = await pipeline.exec() ?? []
+      const found: StoredRange[] = []
+      const gone: string[] = []
+      parsed.forEach(({ member, range }, i) => {
+        if (stored[i]?.[1] === 1) found.push(range)
+        else if (this.#sweepGone(range.sweepId, stored[i]?.[1])) gone.push(member)
+      })
+      if (found.length > 0) ranges.set(reuseKey, found)
+      if (gone.length > 0) await this.redis.srem(set, ...gone)
+    }
+    return ranges
+  }
+
+  async inheritChunk (id: string, chunk: Chunk, from: { sweepId: string, chunkIndex: number }, nowMs: number): Promise<ChunkOutcome> {
+    const keys = this.keys.sweep(id)
+    const source = this.keys.sweep(from.sweepId)
+    const reply = await SCRIPTS.inheritChunk.run(this.redis,
+      [keys.record, keys.chunks, keys.chunkTrials, keys.pointsLeft, this.keys.counts, keys.plan, keys.open, source.chunks, source.plan],
+      [chunk.index, chunk.point, chunk.firstTrial, chunk.count, nowMs, from.chunkIndex]) as [string, number, number, number]
+    return chunkOutcome(reply)
+  }
+
+  async extendPoint (id: string, point: number, fromTrial: number, pieces: ReadonlyArray<{ firstTrial: number, count: number }>): Promise<Chunk[] | null> {
+    const keys = this.keys.sweep(id)
+    const first = await SCRIPTS.extendPoint.run(this.redis, [keys.record, keys.plan, keys.open, keys.pointsLeft],
+      [point, fromTrial, JSON.stringify(pieces.map((piece) => [piece.firstTrial, piece.count]))]) as number
+    if (first < 0) return null
+    const chunks = pieces.map((piece, k): Chunk => ({ index: first + k, point, firstTrial: piece.firstTrial, count: piece.count }))
+    const [owner, reuseKey] = await Promise.all([this.redis.hget(keys.record, 'owner'), this.redis.hget(keys.reuseKeys, String(point))])
+    if (owner !== null && reuseKey !== null) await this.#indexPointChunks(id, JSON.parse(owner) as string | null, { [point]: reuseKey }, chunks)
+    return chunks
+  }
+
+  async closePoint (id: string, point: number): Promise<{ closed: boolean, complete: boolean }> {
+    const keys = this.keys.sweep(id)
+    const [closed, complete] = await SCRIPTS.closePoint.run(this.redis, [keys.record, keys.open, keys.pointsLeft], [point]) as [number, number]
+    return { closed: closed === 1, complete: complete === 1 }
+  }
+
+  async openPoints (id: string): Promise<number[]> {
+    return (await this.redis.hkeys(this.keys.sweep(id).open)).map(Number).sort((a, b) => a - b)
+  }
+
+  /**
+   * Records, for each planned chunk, under its point's reuse key, that this sweep may hold those
+   * trials (the chunk counts once it is stored). Written after the record: a crash in between
+   * only loses the chance to reuse these trials later.
+   */
+  async #indexPointChunks (id: string, owner: string | null, reuseKeys: Readonly<Record<number, string>> | readonly string[], chunks: readonly Chunk[]): Promise<void> {
+    const keyOf = (point: number): string | undefined => (reuseKeys as Record<number, string>)[point]
+    const pipeline = this.redis.pipeline()
+    const perPoint = new Map<number, string>()
+    for (const chunk of chunks) {
+      const reuseKey = keyOf(chunk.point)
+      if (reuseKey === undefined || reuseKey === '') continue
+      perPoint.set(chunk.point, reuseKey)
+      pipeline.sadd(this.keys.pointChunks(owner, reuseKey), `${id}:${chunk.index}:${chunk.firstTrial}:${chunk.count}`)
+    }
+    if (perPoint.size === 0) return
+    pipeline.hset(this.keys.sweep(id).reuseKeys, ...[...perPoint].flatMap(([point, key]) => [String(point), key]))
+    await pipeline.exec()
+  }
+
+  /** A sweep whose chunks hash is gone altogether (expired or purged) will never hold the chunk. */
+  #sweepGone (_sweepId: string, exists: unknown): boolean {
+    return exists === 0
   }
 
   async list (query: ListQuery): Promise<SweepPage> {
@@ -268,6 +402,9 @@ export class RedisSweepStore implements SweepStore {
         }
         if (query.status !== undefined && record.status !== query.status) continue
         if (owner === null && record.owner !== null) continue
+        if (query.tag !== undefined && !record.tags.includes(query.tag)) continue
+        if (query.text !== undefined && !`${record.label ?? ''}\n${record.notes ?? ''}`.toLowerCase().includes(query.text.toLowerCase())) continue
+        if (query.replicateKey !== undefined && record.replicateKey !== query.replicateKey) continue
         if (items.length === query.limit) {
           more = true
           break
@@ -282,6 +419,10 @@ export class RedisSweepStore implements SweepStore {
     }
     return { items, nextCursor: more && lastMember !== null ? encodeListCursor(lastMember) : null }
   }
+}
+
+function chunkOutcome ([status, stored, complete, due]: [string, number, number, number]): ChunkOutcome {
+  return { status: status as ChunkOutcome['status'], stored: stored === 1, complete: complete === 1, pointDue: due === 1 }
 }
 
 function asBuffer (bytes: Uint8Array): Buffer {
@@ -310,7 +451,12 @@ export function parseRecord (fields: Record<string, string> | null | undefined):
       chunksTotal: Number(fields.chunksTotal ?? 0)
     },
     error: fields.error === undefined || fields.error === '' ? null : JSON.parse(fields.error) as SweepFailure,
-    reusedFrom: fields.reusedFrom === undefined || fields.reusedFrom === '' ? null : fields.reusedFrom
+    reusedFrom: fields.reusedFrom === undefined || fields.reusedFrom === '' ? null : fields.reusedFrom,
+    extends: fields.extends === undefined || fields.extends === '' ? null : fields.extends,
+    reused: { points: Number(fields.reusedPoints ?? 0), trials: Number(fields.reusedTrials ?? 0) },
+    tags: JSON.parse(fields.tags ?? '[]') as string[],
+    notes: JSON.parse(fields.notes ?? 'null') as string | null,
+    replicateKey: fields.replicateKey ?? ''
   }
 }
 

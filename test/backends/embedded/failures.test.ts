@@ -27,6 +27,7 @@ describe('chunk error classification', () => {
   })
 })
 
+// Each fault gets its own seed: a sweep with another's parameters and seed would take its trials instead of computing them.
 describe('embedded queue: failures inside chunks', () => {
   const data = makeDataDir()
   let queue: SweepQueue
@@ -44,7 +45,7 @@ describe('embedded queue: failures inside chunks', () => {
   })
 
   it('fails the sweep as the user\'s error, with the engine\'s message, without retrying', async () => {
-    const sweep = await queue.submit({ spec: roomCodesSpec({ label: 'fault:user' }), owner: null })
+    const sweep = await queue.submit({ spec: roomCodesSpec({ label: 'fault:user', seed: 41 }), owner: null })
     const failed = await waitForTerminal(queue, sweep.id)
     expect(failed.status).toBe('failed')
     expect(failed.error?.kind).toBe('user')
@@ -53,14 +54,14 @@ describe('embedded queue: failures inside chunks', () => {
   })
 
   it('retries a chunk whose thread died once, and succeeds', async () => {
-    const sweep = await queue.submit({ spec: roomCodesSpec({ label: 'fault:crash-once' }), owner: null })
+    const sweep = await queue.submit({ spec: roomCodesSpec({ label: 'fault:crash-once', seed: 42 }), owner: null })
     const finished = await waitForTerminal(queue, sweep.id)
     expect(finished.status).toBe('succeeded')
     expect(finished.progress.trialsDone).toBe(finished.progress.trialsTotal)
   })
 
   it('fails as the system\'s error after three thread deaths, saying so without internals', async () => {
-    const sweep = await queue.submit({ spec: roomCodesSpec({ label: 'fault:crash-always' }), owner: null })
+    const sweep = await queue.submit({ spec: roomCodesSpec({ label: 'fault:crash-always', seed: 43 }), owner: null })
     const failed = await waitForTerminal(queue, sweep.id)
     expect(failed.status).toBe('failed')
     expect(failed.error?.kind).toBe('system')
@@ -69,7 +70,7 @@ describe('embedded queue: failures inside chunks', () => {
   })
 
   it('treats a programming error as the system\'s, and hides its text and stack', async () => {
-    const sweep = await queue.submit({ spec: roomCodesSpec({ label: 'fault:internal' }), owner: null })
+    const sweep = await queue.submit({ spec: roomCodesSpec({ label: 'fault:internal', seed: 44 }), owner: null })
     const failed = await waitForTerminal(queue, sweep.id)
     expect(failed.error?.kind).toBe('system')
     expect(failed.error?.message).toMatch(/an internal error/)

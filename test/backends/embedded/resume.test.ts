@@ -4,7 +4,7 @@ import { createInterface } from 'node:readline'
 import { fileURLToPath, pathToFileURL } from 'node:url'
 import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest'
 import { SqliteSweepStore } from '../../../src/backends/embedded/store.js'
-import { specHash } from '../../../src/spec/index.js'
+import { replicateKey, specHash } from '../../../src/spec/index.js'
 import { planSweep, runChunk, type Chunk, type SweepPlan } from '../../../src/sweep/index.js'
 import { installChunkGate, type ChunkGate } from '../../helpers/chunk-gate.js'
 import { corridorSweepSpec, fullResult, makeDataDir, openQueue, resultBytes, waitForRecord, waitForTerminal } from './helpers.js'
@@ -138,7 +138,7 @@ describe('embedded queue: resume after an interruption', () => {
     const plan = planCutInto(sizes)
     expect(plan.chunks).not.toEqual(planSweep(spec).chunks)
     const store = new SqliteSweepStore(data.dir)
-    await store.create({ id: 'stored-earlier', owner: null, label: spec.label, specHash: specHash(spec), spec, createdMs: Date.now(), plan })
+    await store.create({ id: 'stored-earlier', owner: null, label: spec.label, specHash: specHash(spec), spec, createdMs: Date.now(), plan, replicateKey: replicateKey(spec), reuseKeys: [] })
     // Stopped after a third of its chunks, as a restart would find it.
     for (const chunk of plan.chunks.slice(0, Math.ceil(plan.chunks.length / 3))) {
       const outcome = runChunk(spec, chunk, { shouldStop: () => false })

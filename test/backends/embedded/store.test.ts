@@ -8,7 +8,7 @@ import { chmodSync, writeFileSync } from 'node:fs'
 import { join } from 'node:path'
 import { afterEach, beforeEach, describe, expect, it } from 'vitest'
 import { DATABASE_FILE, SqliteSweepStore } from '../../../src/backends/embedded/store.js'
-import { normaliseSpec, specHash } from '../../../src/spec/index.js'
+import { normaliseSpec, replicateKey, specHash } from '../../../src/spec/index.js'
 import { planSweep } from '../../../src/sweep/index.js'
 import { makeDataDir } from './helpers.js'
 
@@ -28,7 +28,7 @@ describe('sweep store (SQLite only)', () => {
   })
 
   it('migrates once, keeps data across reopening, and refuses a database from a newer build', async () => {
-    await store.create({ id: 'kept', owner: null, label: null, specHash: specHash(spec), spec, createdMs: 1, plan: planSweep(spec) })
+    await store.create({ id: 'kept', owner: null, label: null, specHash: specHash(spec), spec, createdMs: 1, plan: planSweep(spec), replicateKey: replicateKey(spec), reuseKeys: [] })
     store.close()
     store = new SqliteSweepStore(data.dir)
     expect((await store.get('kept'))?.id).toBe('kept')
@@ -54,7 +54,7 @@ describe('sweep store (SQLite only)', () => {
   })
 
   it('gives a sweep stored without a plan a new one, dropping chunks cut by the unknown old plan', async () => {
-    await store.create({ id: 'old', owner: null, label: null, specHash: specHash(spec), spec, createdMs: 1, plan: planSweep(spec) })
+    await store.create({ id: 'old', owner: null, label: null, specHash: specHash(spec), spec, createdMs: 1, plan: planSweep(spec), replicateKey: replicateKey(spec), reuseKeys: [] })
     const plan = planSweep(spec)
     await store.recordChunk('old', plan.chunks[0]!, new Uint8Array([1]), 1, 2)
     store.close()

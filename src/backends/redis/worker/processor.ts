@@ -14,11 +14,11 @@ import { UnrecoverableError, WaitingError, type SandboxedJob } from 'bullmq'
 import type { Redis } from 'ioredis'
 import { specHash, type NormalisedSpec } from '../../../spec/index.js'
 import {
-  assembleResult, assembleStored, classifyChunkError, decodeValue, encodeValue, isTerminal, makeProvenance, runChunk, systemCauseOf,
+  assembleResult, assembleStored, classifyChunkError, decidePoint, decodeValue, encodeValue, isTerminal, makeProvenance, pointRecords, runChunk, systemCauseOf,
   systemFailure, userFailure, type ChunkResult, type ChunkRunOutcome
 } from '../../../sweep/index.js'
 import type { SweepResult } from '../../../results/index.js'
-import { ChunkQueue, type AssembleJobData, type ChunkJobData, type ChunkRetryPolicy } from '../chunk-queue.js'
+import { ChunkQueue, type AssembleJobData, type ChunkJobData, type ChunkRetryPolicy, type DecideJobData, type SweepJobData } from '../chunk-queue.js'
 import { openConnection } from '../connections.js'
 import { publishSweepEvent } from '../events.js'
 import { keyLayout, type KeyLayout } from '../keys.js'
@@ -45,6 +45,7 @@ export interface SandboxSettings {
 }
 
 export type ProcessorOutcome =
+  | { outcome: 'decided', point: number, close: boolean }
   | { outcome: 'stored', chunk: number, trials: number, computeMs: number, completedSweep: boolean }
   | { outcome: 'assembled', changed: boolean }
   | { outcome: 'skipped', reason: string }
@@ -95,10 +96,39 @@ function loadSpec (sweepId: string, jobSpecHash: string, storedHash: string, spe
   return spec
 }
 
-export default async function processSweepJob (job: SandboxedJob<ChunkJobData | AssembleJobData>, token?: string, signal?: AbortSignal): Promise<ProcessorOutcome> {
+export default async function processSweepJob (job: SandboxedJob<SweepJobData>, token?: string, signal?: AbortSignal): Promise<ProcessorOutcome> {
   const context = await sandboxContext()
   if (job.name === 'assemble') return await assemble(context, job as SandboxedJob<AssembleJobData>)
+  if (job.name === 'decide') return await decide(context, job as SandboxedJob<DecideJobData>)
   return await runChunkJob(context, job as SandboxedJob<ChunkJobData>, token, signal)
+}
+
+/**
+ * Precision targets: reads an open point's stored chunks and closes it or gives it another
+ * block. Safe to repeat: the store appends only at the extent decided on, and closes once.
+ */
+async function decide (context: SandboxContext, job: SandboxedJob<DecideJobData>): Promise<ProcessorOutcome> {
+  const { store, chunks } = context
+  const { sweepId, point, extent } = job.data
+  const view = await store.workView(sweepId)
+  if (view === null) return { outcome: 'skipped', reason: 'sweep no longer stored' }
+  if (isTerminal(view.status)) return { outcome: 'skipped', reason: `sweep is ${view.status}` }
+  const spec = loadSpec(sweepId, job.data.specHash, view.specHash, view.specJson)
+  const plan = await store.plan(sweepId)
+  if (plan === null) throw new Error(`sweep ${sweepId} has no stored plan`)
+  const planned = plan.chunks.filter((chunk) => chunk.point === point)
+  if (planned.reduce((end, chunk) => Math.max(end, chunk.firstTrial + chunk.count), 0) !== extent) return { outcome: 'skipped', reason: 'the point was decided on already' }
+  const stored = await store.chunksOf(sweepId, planned.map((chunk) => chunk.index))
+  const decision = decidePoint(spec, point, pointRecords(spec, planned, stored, point))
+  if (decision.kind === 'close') {
+    const closed = await store.closePoint(sweepId, point)
+    if (closed.complete) await chunks.enqueueAssembly(sweepId, job.data.specHash, plan.chunks.length)
+  } else {
+    const appended = await store.extendPoint(sweepId, point, decision.fromTrial, decision.pieces)
+    if (appended !== null) await chunks.enqueueChunks(sweepId, job.data.specHash, spec, appended, plan.chunks.length + appended.length)
+  }
+  await publishSweepEvent(context.redis, context.keys, sweepId, 'progress')
+  return { outcome: 'decided', point, close: decision.kind === 'close' }
 }
 
 async function runChunkJob (context: SandboxContext, job: SandboxedJob<ChunkJobData>, token: string | undefined, signal: AbortSignal | undefined): Promise<ProcessorOutcome> {
@@ -147,8 +177,9 @@ async function runChunkJob (context: SandboxContext, job: SandboxedJob<ChunkJobD
       const stored = await store.recordChunk(sweepId, chunk, outcome.body, outcome.computeMs, Date.now())
       if (stored.status !== 'running') return { outcome: 'skipped', reason: `sweep is ${stored.status === '' ? 'gone' : stored.status}` }
       await publishSweepEvent(context.redis, context.keys, sweepId, 'progress')
-      // Whichever attempt sees the plan complete enqueues the assembly; its fixed id makes repeats no-ops.
+      // Whichever attempt sees the plan complete enqueues the assembly (or a due decision); fixed ids make repeats no-ops.
       if (stored.complete) await context.chunks.enqueueAssembly(sweepId, job.data.specHash, chunksTotal)
+      if (stored.pointDue) await context.chunks.enqueueDecision(sweepId, job.data.specHash, chunk.point, chunk.firstTrial + chunk.count, chunksTotal)
       return { outcome: 'stored', chunk: chunk.index, trials: outcome.trials, computeMs: outcome.computeMs, completedSweep: stored.complete }
     }
   }

@@ -1,15 +1,16 @@
 /**
  * Repair of sweeps whose submitting API instance died between storing the record and adding
- * the chunk jobs: their jobs are added from the plan stored with them (never planned again,
- * so a release with other planning constants adds exactly the stored chunks). Job ids are
- * deterministic, so chunks already queued are not duplicated; chunks already stored are
- * ignored by the store.
+ * the chunk jobs: their remaining work is added from what is stored with them (the plan is
+ * never made again, so a release with other planning constants adds exactly the stored
+ * chunks; chunks already stored are not added). Job ids are deterministic, so work already
+ * queued is not duplicated.
  */
 import type { Logger } from 'pino'
 import type { NormalisedSpec } from '../../../spec/index.js'
 import { isTerminal, planSweep } from '../../../sweep/index.js'
 import type { ChunkQueue } from '../chunk-queue.js'
 import type { RedisSweepStore } from '../store.js'
+import { enqueueRemaining } from '../dispatch.js'
 
 /** Sweeps created longer ago than this whose jobs were never confirmed are enqueued again. */
 export const UNENQUEUED_REPAIR_AGE_MS = 30_000
@@ -23,10 +24,13 @@ export async function enqueueForgotten (store: RedisSweepStore, chunkQueue: Chun
       continue
     }
     const spec = JSON.parse(view.specJson) as NormalisedSpec
-    // A sweep stored before plans were stored has none: planning now is all that can be done.
-    const plan = await store.plan(sweepId) ?? planSweep(spec)
-    await chunkQueue.enqueueChunks(sweepId, view.specHash, spec, plan.chunks)
-    await store.markEnqueued(sweepId)
+    if (await store.plan(sweepId) === null) {
+      // A sweep stored before plans were stored has none: planning now is all that can be done.
+      await chunkQueue.enqueueChunks(sweepId, view.specHash, spec, planSweep(spec).chunks)
+      await store.markEnqueued(sweepId)
+    } else {
+      await enqueueRemaining(store, chunkQueue, sweepId, view.specHash, spec)
+    }
     repaired++
     logger.warn({ sweepId }, 'enqueued the chunks of a sweep its API instance never finished submitting')
   }

@@ -13,7 +13,7 @@ import type { Redis } from 'ioredis'
 import type { Logger } from 'pino'
 import { systemFailure } from '../../../sweep/index.js'
 import { threadExecArgv } from '../../../runtime/node-flags.js'
-import { ChunkQueue, DEFAULT_RETRY_POLICY, type AssembleJobData, type ChunkJobData, type ChunkRetryPolicy, type SweepJobName } from '../chunk-queue.js'
+import { ChunkQueue, DEFAULT_RETRY_POLICY, type ChunkRetryPolicy, type SweepJobData, type SweepJobName } from '../chunk-queue.js'
 import { closeConnection, openConnection, redactUrl, workerConnectionOptions } from '../connections.js'
 import { EpochWatch } from '../data-loss.js'
 import { CHUNK_QUEUE_NAME, keyLayout } from '../keys.js'
@@ -102,7 +102,7 @@ export interface RunningWorker {
 
 const DEFAULT_RETENTION_SECONDS = 7 * 24 * 3600
 
-type SweepJob = Job<ChunkJobData | AssembleJobData, unknown, SweepJobName>
+type SweepJob = Job<SweepJobData, unknown, SweepJobName>
 
 /** The processor module: compiled JavaScript beside this file, or a loader that runs the TypeScript source through tsx. */
 function processorFile (): URL {
@@ -143,7 +143,7 @@ export async function startWorker (options: WorkerProcessOptions): Promise<Runni
     workerName: name
   }
 
-  const worker = new Worker<ChunkJobData | AssembleJobData, unknown, SweepJobName>(CHUNK_QUEUE_NAME, processorFile(), {
+  const worker = new Worker<SweepJobData, unknown, SweepJobName>(CHUNK_QUEUE_NAME, processorFile(), {
     connection: workerConnectionOptions(options.url, `${name}:bullmq`),
     prefix: keys.bullPrefix,
     name,
@@ -175,7 +175,7 @@ export async function startWorker (options: WorkerProcessOptions): Promise<Runni
 
   /** A job failed for good without the processor failing its sweep (a crash, a stall, a lost thread). */
   const failFromJob = async (jobId: string): Promise<void> => {
-    const job = await Job.fromId<ChunkJobData | AssembleJobData>(chunkQueue.queue, jobId)
+    const job = await Job.fromId<SweepJobData>(chunkQueue.queue, jobId)
     if (job === undefined || await job.getState() !== 'failed') return
     const { sweepId, chunksTotal } = job.data
     const chunkIndex = 'chunk' in job.data ? job.data.chunk.index : null
