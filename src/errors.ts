@@ -31,6 +31,11 @@ export const ERRORS = {
     title: 'Not allowed for this token',
     detail: "The token of '{owner}' has the role '{role}', which may not {action}."
   },
+  MEMSWEEP_OWNER_ONLY: {
+    status: 403,
+    title: 'Only the owner may do this',
+    detail: "Only the owner of sweep '{id}' may {action}."
+  },
   MEMSWEEP_ROUTE_NOT_FOUND: {
     status: 404,
     title: 'No such route',
@@ -59,7 +64,17 @@ export const ERRORS = {
   MEMSWEEP_SWEEP_FINISHED: {
     status: 409,
     title: 'Sweep already finished',
-    detail: "Sweep '{id}' already ended as {status}; a finished sweep cannot be canceled."
+    detail: "Sweep '{id}' already ended as {status}; a finished sweep cannot be canceled. To remove it with everything stored for it, send DELETE with ?purge=true (its owner only; irreversible)."
+  },
+  MEMSWEEP_SWEEP_ACTIVE: {
+    status: 409,
+    title: 'Sweep still active',
+    detail: "Sweep '{id}' is {status}: cancel it (DELETE without purge) before removing it."
+  },
+  MEMSWEEP_NOT_RESUMABLE: {
+    status: 409,
+    title: 'Sweep cannot be resumed',
+    detail: "Sweep '{id}' is {status}; only a canceled or failed sweep can be resumed."
   },
   MEMSWEEP_BODY_TOO_LARGE: {
     status: 413,

@@ -36,6 +36,11 @@ export function presentSweep (record: SweepRecord, now: number = Date.now()): Sw
     },
     error: record.error,
     reusedFrom: record.reusedFrom,
+    extends: record.extends,
+    reused: record.reused,
+    tags: record.tags,
+    notes: record.notes,
+    replicateKey: record.replicateKey,
     links: { self, events: `${self}/events`, results: `${self}/results` }
   }
 }

@@ -78,8 +78,9 @@ export interface SweepQueue {
   /**
    * Lets a canceled or failed sweep run on from what it stored (nothing finished is computed
    * again). Returns the record after the change; a no-op on any other state.
+   * @throws {ActiveSweepCapError} when `maxActive` is reached (checked atomically).
    */
-  resume (id: string): Promise<SweepRecord | null>
+  resume (id: string, options?: { maxActive?: number }): Promise<SweepRecord | null>
   /** Changes a sweep's label, tags or notes. */
   annotate (id: string, patch: Annotation): Promise<SweepRecord | null>
   /** Removes a finished sweep with everything stored for it; false for an active or unknown one. */

@@ -57,4 +57,6 @@ export interface SweepResult {
   /** Analysis specs with a scaling fit only: one fit per combination of the other varied parameters. */
   scaling?: ScalingRow[]
   provenance: Provenance
+  /** Present only on partial results (a sweep not finished, canceled or failed): the rows are those of the points finished so far. */
+  partial?: { pointsDone: number, pointsTotal: number }
 }

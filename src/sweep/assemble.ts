@@ -81,6 +81,42 @@ export function assembleStored (spec: NormalisedSpec, plan: readonly Chunk[], st
 }
 
 /**
+ * The rows of the points finished so far, from whatever is stored (a sweep running, canceled
+ * or failed): a point counts when its planned chunks are all stored and, with precision
+ * targets, it is closed. Rows are those the finished result will hold for these points.
+ */
+export function assemblePartial (spec: NormalisedSpec, plan: readonly Chunk[], stored: readonly StoredChunk[], openPoints: readonly number[], provenance: Provenance): SweepResult {
+  const hash = specHash(spec)
+  const bodies = new Map(stored.map((chunk) => [chunk.index, chunk.body]))
+  const open = new Set(openPoints)
+  const chunksOfPoint = new Map<number, Chunk[]>()
+  for (const chunk of plan) {
+    const list = chunksOfPoint.get(chunk.point)
+    if (list === undefined) chunksOfPoint.set(chunk.point, [chunk])
+    else list.push(chunk)
+  }
+  const points = countPoints(spec)
+  const rows: ResultRow[] = []
+  if (spec.analysis === undefined) {
+    for (let point = 0; point < points; point++) {
+      const planned = chunksOfPoint.get(point) ?? []
+      if (open.has(point) || planned.length === 0 || !planned.every((chunk) => bodies.has(chunk.index))) continue
+      const results = planned.map((chunk) => ({ ...decodeValue<ChunkResult>(bodies.get(chunk.index)!), chunk: chunk.index, point }))
+      rows.push(resultRow(spec, point, placePointTrials(spec, point, results, trialsOf(planned))))
+    }
+    return { specHash: hash, spec, rows, trials: [], provenance: sortKeysDeep(provenance), partial: { pointsDone: rows.length, pointsTotal: points } }
+  }
+  // A search is finished when its one chunk is stored.
+  const done = plan.filter((chunk) => bodies.has(chunk.index)).map((chunk) => ({ ...decodeValue<ChunkResult>(bodies.get(chunk.index)!), chunk: chunk.index, point: chunk.point }))
+  const searches = done.map((result) => {
+    const { values, params } = pointAt(spec, result.point)
+    const payload = result.search!
+    return { search: result.point, values, neurons: params.neurons, stepsUsed: payload.steps.length, trialsUsed: payload.steps.reduce((n, step) => n + step.summary.trials, 0), ...payload }
+  }).sort((a, b) => a.search - b.search)
+  return sortKeysDeep({ specHash: hash, spec, rows: [], trials: [], searches, provenance, partial: { pointsDone: searches.length, pointsTotal: points } })
+}
+
+/**
  * Assembles the sweep result, trial records included, from chunk results in any order.
  * The fast paths the chunks report are recorded in the provenance unless it names one.
  *

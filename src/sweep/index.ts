@@ -6,7 +6,7 @@
 export { PLAN_VERSION, planSweep, checkPlan, dispatchOrder, chunksPerPoint, encodePlan, decodePlan, type Chunk, type SweepPlan } from './plan.js'
 export { computeChunk, pointStreamKey, POINT_KEYING, type ChunkResult, type ComputeChunkOptions } from './compute-chunk.js'
 export { runChunk, type ChunkRunHooks, type ChunkRunOutcome } from './run-chunk.js'
-export { assembleResult, assembleStored, storedTrials, makeProvenance, type RunTiming, type StoredChunk } from './assemble.js'
+export { assembleResult, assembleStored, assemblePartial, storedTrials, makeProvenance, type RunTiming, type StoredChunk } from './assemble.js'
 export {
   SWEEP_STATUSES, ACTIVE_STATUSES, TERMINAL_STATUSES, FAILURE_KINDS, isTerminal, canMove, progressCounters, planComplete,
   type SweepStatus, type FailureKind, type SweepFailure, type SweepProgress

@@ -176,8 +176,12 @@ export interface SweepStore {
   recordReuse (id: string, reused: { points: number, trials: number }): Promise<void>
   /** Removes a finished sweep and everything stored for it; false (and nothing removed) for an active or unknown one. */
   purge (id: string): Promise<boolean>
-  /** canceled or failed → queued, keeping its stored chunks and counters, so it can run on. */
-  reopen (id: string, nowMs: number): Promise<Transition>
+  /**
+   * canceled or failed → queued, keeping its stored chunks and counters, so it can run on;
+   * refused (changed false, `overCap` the owner's active count) when the owner already has
+   * `maxActive` queued or running sweeps, checked atomically.
+   */
+  reopen (id: string, nowMs: number, maxActive?: number): Promise<Transition & { overCap?: number }>
   /** Stored chunks of the owner's sweeps under these reuse keys (see SweepDraft.reuseKeys), by key. */
   storedRanges (owner: string | null, reuseKeys: readonly string[]): Promise<Map<string, StoredRange[]>>
   /**

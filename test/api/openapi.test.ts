@@ -51,8 +51,11 @@ describe('OpenAPI document', () => {
       'GET /v1/sweeps/{id}/events',
       'GET /v1/sweeps/{id}/figure.svg',
       'GET /v1/sweeps/{id}/results',
+      'PATCH /v1/sweeps/{id}',
       'POST /v1/sweeps',
       'POST /v1/sweeps/validate',
+      'POST /v1/sweeps/{id}/extend',
+      'POST /v1/sweeps/{id}/resume',
       'POST /v1/theory'
     ])
   })

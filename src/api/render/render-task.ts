@@ -3,14 +3,19 @@
  * representation comes back as bytes with its strong ETag, so the API's event loop never
  * decodes trial records or builds a large string.
  */
-import type { EncodedResult } from '../../backends/port.js'
+import type { EncodedResult, StoredProgress } from '../../backends/port.js'
 import type { FigureIssue, FigureOptions } from '../../figures/index.js'
 
 export type ResultFormat = 'json' | 'csv'
 
+/** What a rendering reads: a finished result, or what an unfinished sweep has stored so far (its finished points). */
+export type RenderSource =
+  | { kind: 'result', stored: EncodedResult }
+  | { kind: 'partial', progress: StoredProgress }
+
 export interface RenderResultTask {
   kind: 'result'
-  stored: EncodedResult
+  source: RenderSource
   format: ResultFormat
   perTrial: boolean
   timing: boolean
@@ -18,7 +23,7 @@ export interface RenderResultTask {
 
 export interface RenderFigureTask {
   kind: 'figure'
-  stored: EncodedResult[]
+  sources: RenderSource[]
   options: FigureOptions
 }
 

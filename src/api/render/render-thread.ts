@@ -7,24 +7,31 @@
 import { createHash } from 'node:crypto'
 import { FigureOptionsError, renderFigure } from '../../figures/index.js'
 import { resultToCsv, resultToJson, type SweepResult } from '../../results/index.js'
-import { decodeValue, storedTrials } from '../../sweep/index.js'
+import { assemblePartial, decodeValue, makeProvenance, storedTrials } from '../../sweep/index.js'
+import { runtimeFacts } from '../../runtime/facts.js'
 import type { EncodedResult } from '../../backends/port.js'
-import type { RenderOutcome, RenderTask } from './render-task.js'
+import type { RenderOutcome, RenderSource, RenderTask } from './render-task.js'
 
 export default function render (task: RenderTask): RenderOutcome {
   if (task.kind === 'result') {
-    const result = decode(task.stored)
+    const result = read(task.source)
     const text = task.format === 'csv'
       ? resultToCsv(result, { perTrial: task.perTrial })
       : resultToJson(result, { perTrial: task.perTrial, timing: task.timing })
     return rendered(Buffer.from(text, 'utf8'))
   }
   try {
-    return rendered(Buffer.from(renderFigure(task.stored.map(decode), task.options), 'utf8'))
+    return rendered(Buffer.from(renderFigure(task.sources.map(read), task.options), 'utf8'))
   } catch (error) {
     if (error instanceof FigureOptionsError) return { kind: 'figure-misfit', issues: error.issues }
     throw error
   }
+}
+
+function read (source: RenderSource): SweepResult {
+  if (source.kind === 'result') return decode(source.stored)
+  const { spec, plan, chunks, openPoints } = source.progress
+  return assemblePartial(spec, plan, chunks, openPoints, makeProvenance(spec, runtimeFacts(), { wallSeconds: 0, cpuSeconds: 0 }))
 }
 
 /** The result with its trial records attached when they were sent (results stored by earlier releases hold them already). */

@@ -12,7 +12,8 @@ import { SWEEP_ID_PATTERN } from '../../backends/port.js'
 import { ServiceError } from '../../errors.js'
 import { FigureOptionsSchema, type FigureIssue } from '../../figures/index.js'
 import { gridAxes, type NormalisedSpec } from '../../spec/index.js'
-import type { EncodedResult, SweepRecord } from '../../backends/port.js'
+import type { SweepRecord } from '../../backends/port.js'
+import type { RenderSource } from '../render/render-task.js'
 import { ifNoneMatchHits, sweepPath } from '../presenters.js'
 import { fieldIssue, listedIssues } from '../problem-reply.js'
 import { problemResponses } from '../schemas/problem.js'
@@ -72,10 +73,17 @@ async function checkSucceeded (ctx: RouteContext, request: FastifyRequest, id: s
 /** Stability error bars are the spread over networks, read from the per-trial records. */
 const MEASURES_FROM_TRIALS: ReadonlySet<string> = new Set(['unstableFraction', 'fixedPatternFraction'])
 
-async function loadResult (ctx: RouteContext, id: string, measure: string): Promise<EncodedResult> {
+async function loadResult (ctx: RouteContext, id: string, measure: string): Promise<RenderSource> {
   const stored = await ctx.queue.encodedResult(id, { trials: MEASURES_FROM_TRIALS.has(measure) })
   if (stored === null) throw new Error(`sweep ${id} succeeded but the backend has no result for it`)
-  return stored
+  return { kind: 'result', stored }
+}
+
+/** What an unfinished sweep stored so far: its figure shows the finished points. */
+async function loadProgress (ctx: RouteContext, id: string): Promise<RenderSource> {
+  const progress = await ctx.queue.storedProgress(id)
+  if (progress === null) throw new ServiceError('MEMSWEEP_SWEEP_NOT_FOUND', { id })
+  return { kind: 'partial', progress }
 }
 
 export const figureRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx) => {
@@ -89,12 +97,23 @@ export const figureRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
       description: 'A measure against one varied parameter, one series per value of the others, 95 % error bars, theory overlaid where it applies, legend; readable in black and white. Every point carries its numbers as data-x, data-y, data-low, data-high attributes. A strong ETag (sha256 of the bytes) supports If-None-Match → 304. 409 while the sweep has not succeeded; 400 naming the option when an option is malformed, 422 naming it when the options do not fit this sweep (for example an x it does not vary).',
       tags: ['sweeps'],
       params: z.object({ id: sweepIdSchema }),
-      querystring: FigureOptionsSchema,
+      querystring: FigureOptionsSchema.extend({
+        partial: z.enum(['true', 'false']).optional().describe('true: for a sweep that has not succeeded, the figure of the points finished so far (drawn afresh each time, never cached). A succeeded sweep answers its full figure.')
+      }),
       response: svgResponses
     }
   }, async (request, reply) => {
     const { id } = request.params
-    const options = request.query
+    const { partial, ...options } = request.query
+    if (partial === 'true') {
+      const record = await visibleSweep(ctx.queue, request.principal, id)
+      if (record.status !== 'succeeded') {
+        refuseMisfit([record.spec], options)
+        const rendered = await render(ctx, [await loadProgress(ctx, id)], options)
+        reply.header('cache-control', 'no-store')
+        return sendSvg(request, reply, rendered, `memsweep-${id}-${options.measure}-partial.svg`, false)
+      }
+    }
     // Visibility is checked on every request; the result is only loaded when the figure is not cached.
     const record = await checkSucceeded(ctx, request, id)
     refuseMisfit([record.spec], options)
@@ -118,9 +137,9 @@ export const figureRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
     for (const id of ids) specs.push((await checkSucceeded(ctx, request, id)).spec)
     refuseMisfit(specs, options)
     const rendered = await cached(`${ids.join(',')}\u0000${optionsKey(options)}`, async () => {
-      const stored: EncodedResult[] = []
-      for (const id of ids) stored.push(await loadResult(ctx, id, options.measure))
-      return await render(ctx, stored, options)
+      const sources: RenderSource[] = []
+      for (const id of ids) sources.push(await loadResult(ctx, id, options.measure))
+      return await render(ctx, sources, options)
     })
     return sendSvg(request, reply, rendered, `memsweep-overlay-${options.measure}.svg`)
   })
@@ -148,10 +167,10 @@ function optionsKey (options: FigureQuery): string {
   return JSON.stringify(Object.entries(options).sort(([a], [b]) => a.localeCompare(b)))
 }
 
-function sendSvg (request: FastifyRequest, reply: FastifyReply, rendered: Rendered, filename: string): FastifyReply {
+function sendSvg (request: FastifyRequest, reply: FastifyReply, rendered: Rendered, filename: string, immutable = true): FastifyReply {
+  reply.header('etag', rendered.etag)
+  if (immutable) reply.header('cache-control', 'private, max-age=86400, immutable')
   reply
-    .header('etag', rendered.etag)
-    .header('cache-control', 'private, max-age=86400, immutable')
     .header('content-security-policy', SVG_POLICY)
     .header('x-content-type-options', 'nosniff')
   if (ifNoneMatchHits(request.headers['if-none-match'], rendered.etag)) return reply.code(304).send()
@@ -160,8 +179,8 @@ function sendSvg (request: FastifyRequest, reply: FastifyReply, rendered: Render
 }
 
 /** Draws the figure on the rendering thread; options that do not fit the sweeps are a 4xx naming each. */
-async function render (ctx: RouteContext, stored: EncodedResult[], options: FigureQuery): Promise<Rendered> {
-  const outcome = await ctx.render.render({ kind: 'figure', stored, options })
+async function render (ctx: RouteContext, sources: RenderSource[], options: FigureQuery): Promise<Rendered> {
+  const outcome = await ctx.render.render({ kind: 'figure', sources, options })
   if (outcome.kind === 'figure-misfit') misfit(outcome.issues)
   return { body: Buffer.from(outcome.body.buffer, outcome.body.byteOffset, outcome.body.byteLength), etag: outcome.etag }
 }

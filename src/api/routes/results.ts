@@ -22,7 +22,8 @@ type Format = keyof typeof MEDIA
 const resultsQuery = z.object({
   format: z.enum(['json', 'csv']).optional().describe('Overrides the Accept header.'),
   trials: z.enum(['true', 'false']).optional().describe('true: one record per trial (JSON: a `trials` member; CSV: one row per trial). Default: false (one row per grid point).'),
-  timing: z.enum(['true', 'false']).optional().describe('JSON only. true: include the run timing (wallSeconds, cpuSeconds, workers) in the provenance. Default false, so the bytes depend on the spec and the code only.')
+  timing: z.enum(['true', 'false']).optional().describe('JSON only. true: include the run timing (wallSeconds, cpuSeconds, workers) in the provenance. Default false, so the bytes depend on the spec and the code only.'),
+  partial: z.enum(['true', 'false']).optional().describe('true: for a sweep that has not succeeded (running, canceled, failed), the rows of the points finished so far, marked as partial (JSON: a `partial` member; CSV: the header `Memsweep-Partial: <points done>/<points>` and a file name ending in -partial). A succeeded sweep answers its full result. Not with trials=true.')
 })
 
 interface Rendered { body: Buffer, etag: string }
@@ -101,6 +102,11 @@ export const resultRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
         extensions: { limit: { name: 'maxTrialRows', value: record.progress.trialsTotal, max: MAX_TRIAL_ROWS } }
       })
     }
+    const partial = request.query.partial === 'true' && record.status !== 'succeeded'
+    if (partial) {
+      if (perTrial) throw new ServiceError('MEMSWEEP_MALFORMED_REQUEST', { reason: 'partial results hold rows only: leave out trials=true' }, { extensions: { errors: [{ path: 'querystring.trials', message: 'not with partial=true' }] } })
+      return await sendPartial(id, format)
+    }
     if (record.status === 'queued' || record.status === 'running') {
       throw new ServiceError('MEMSWEEP_RESULTS_NOT_READY', { id, status: record.status }, {
         headers: { 'retry-after': '5', link: `<${sweepPath(id)}>; rel="monitor"` },
@@ -117,7 +123,7 @@ export const resultRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
       const stored = await ctx.queue.encodedResult(id, { trials: perTrial })
       if (stored === null) throw new Error(`sweep ${id} succeeded but the backend has no result for it`)
       // Decoding, rendering and hashing happen on the rendering thread: other requests go on meanwhile.
-      const outcome = await ctx.render.render({ kind: 'result', stored, format, perTrial, timing })
+      const outcome = await ctx.render.render({ kind: 'result', source: { kind: 'result', stored }, format, perTrial, timing })
       if (outcome.kind !== 'rendered') throw new Error(`rendering sweep ${id} answered ${outcome.kind}`)
       rendered = { body: Buffer.from(outcome.body.buffer, outcome.body.byteOffset, outcome.body.byteLength), etag: outcome.etag }
       cache.set(key, rendered)
@@ -133,5 +139,24 @@ export const resultRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
       return sendBytes(reply.type('text/csv; charset=utf-8; header=present'), rendered.body)
     }
     return sendBytes(reply.type('application/json; charset=utf-8'), rendered.body)
+
+    /** The finished points of an unfinished sweep: rendered afresh each time (they change), never cached. */
+    async function sendPartial (sweepId: string, as: Format): Promise<FastifyReply> {
+      const progress = await ctx.queue.storedProgress(sweepId)
+      if (progress === null) throw new ServiceError('MEMSWEEP_SWEEP_NOT_FOUND', { id: sweepId })
+      const outcome = await ctx.render.render({ kind: 'result', source: { kind: 'partial', progress }, format: as, perTrial: false, timing: false })
+      if (outcome.kind !== 'rendered') throw new Error(`rendering sweep ${sweepId} answered ${outcome.kind}`)
+      const body = Buffer.from(outcome.body.buffer, outcome.body.byteOffset, outcome.body.byteLength)
+      const done = new Set(progress.chunks.map((chunk) => chunk.index))
+      const points = new Set(progress.plan.map((chunk) => chunk.point))
+      const open = new Set(progress.openPoints)
+      const finished = [...points].filter((point) => !open.has(point) && progress.plan.every((chunk) => chunk.point !== point || done.has(chunk.index))).length
+      reply.header('cache-control', 'no-store').header('memsweep-partial', `${finished}/${points.size}`)
+      if (as === 'csv') {
+        reply.header('content-disposition', `attachment; filename="memsweep-${sweepId}-partial.csv"`)
+        return sendBytes(reply.type('text/csv; charset=utf-8; header=present'), body)
+      }
+      return sendBytes(reply.type('application/json; charset=utf-8'), body)
+    }
   })
 }

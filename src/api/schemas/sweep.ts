@@ -48,6 +48,14 @@ export const sweepSchema = z.object({
   progress: progressSchema,
   error: failureSchema.nullable().describe('Why the sweep failed; null unless status is failed.'),
   reusedFrom: z.string().nullable().describe('Id of the earlier identical sweep whose results this one reuses, if any.'),
+  extends: z.string().nullable().describe('Id of the sweep this one extends (POST /v1/sweeps/{id}/extend), if any.'),
+  reused: z.object({
+    points: z.number().int().nonnegative().describe('Grid points whose every trial was taken from earlier sweeps of the owner instead of computed.'),
+    trials: z.number().int().nonnegative().describe('Trials taken from earlier sweeps of the owner (same model parameters, seed and trial index: exactly the records a fresh run computes).')
+  }).describe('What this sweep took from the owner\'s earlier sweeps (its parent, for an extension) instead of computing.'),
+  tags: z.array(z.string()).describe('Tags to find the sweep by (PATCH to change; list with ?tag=).'),
+  notes: z.string().nullable().describe('Free notes (PATCH to change; searched by ?q=).'),
+  replicateKey: z.string().describe('sha256 of the spec without its seed and label: sweeps with the same key are replicates (list them with ?replicatesOf=<id>).'),
   links: sweepLinksSchema
 }).meta({ id: 'Sweep' })
 
@@ -62,6 +70,8 @@ export const sweepDetailSchema = sweepSchema.extend({
   spec: z.record(z.string(), z.unknown())
     .describe('The normalised spec: every default filled in, every axis expanded to { values }. It is itself a valid spec, so it can be resubmitted as is.')
 }).meta({ id: 'SweepDetail' })
+
+export type SweepDetailBody = z.infer<typeof sweepDetailSchema>
 
 export const workEstimateSchema = z.object({
   points: z.number().int().describe('Grid points.'),

@@ -209,11 +209,13 @@ class EmbeddedQueue implements SweepQueue {
     return this.#required(id)
   }
 
-  async resume (id: string): Promise<SweepRecord | null> {
+  async resume (id: string, options: { maxActive?: number } = {}): Promise<SweepRecord | null> {
     this.#assertOpen()
     const problem = this.#checkStorage()
     if (problem !== null) throw new StorageUnavailableError(problem)
-    if ((await this.#store.reopen(id, Date.now())).changed) {
+    const reopened = await this.#store.reopen(id, Date.now(), options.maxActive)
+    if (reopened.overCap !== undefined) throw new ActiveSweepCapError((this.#store.getNow(id))?.owner ?? null, reopened.overCap, options.maxActive ?? reopened.overCap)
+    if (reopened.changed) {
       this.#activate(id)
       this.#logger?.info({ sweepId: id }, 'sweep resumed')
     }

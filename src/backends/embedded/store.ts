@@ -486,13 +486,18 @@ export class SqliteSweepStore implements SweepStore {
     return { changed: false, status: this.#status(id) ?? '' }
   }
 
-  async reopen (id: string, nowMs: number): Promise<Transition> {
-    return this.reopenNow(id, nowMs)
-  }
-
-  reopenNow (id: string, _nowMs: number): Transition {
-    if (this.#statements.reopen.run(id).changes === 1) return { changed: true, status: 'queued' }
-    return { changed: false, status: this.#status(id) ?? '' }
+  async reopen (id: string, _nowMs: number, maxActive?: number): Promise<Transition & { overCap?: number }> {
+    return this.#db.transaction((): Transition & { overCap?: number } => {
+      const row = this.#statements.getSweep.get(id) as SweepRow | undefined
+      if (row === undefined) return { changed: false, status: '' }
+      if (row.status !== 'canceled' && row.status !== 'failed') return { changed: false, status: row.status }
+      if (maxActive !== undefined) {
+        const active = this.#countActive(row.owner)
+        if (active >= maxActive) return { changed: false, status: row.status, overCap: active }
+      }
+      this.#statements.reopen.run(id)
+      return { changed: true, status: 'queued' }
+    })()
   }
 
   async resultBody (id: string): Promise<Uint8Array | null> {

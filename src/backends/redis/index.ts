@@ -186,11 +186,12 @@ class RedisQueue implements SweepQueue {
     return record
   }
 
-  async resume (id: string): Promise<SweepRecord | null> {
+  async resume (id: string, options: { maxActive?: number } = {}): Promise<SweepRecord | null> {
     this.#assertOpen()
     if (!isSweepId(id)) return null
-    const transition = await this.store.reopen(id, Date.now())
+    const transition = await this.store.reopen(id, Date.now(), options.maxActive)
     const record = await this.store.get(id)
+    if (transition.overCap !== undefined) throw new ActiveSweepCapError(record?.owner ?? null, transition.overCap, options.maxActive ?? transition.overCap)
     if (transition.changed && record !== null) {
       await enqueueRemaining(this.store, this.chunks, id, record.specHash, record.spec)
       await publishSweepEvent(this.producer, this.keys, id, 'state')

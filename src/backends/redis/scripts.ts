@@ -301,13 +301,18 @@ return {1, ARGV[1]}
 /**
  * canceled or failed → queued, keeping its stored chunks and counters; its keys stop expiring.
  * KEYS: record, counts, chunks, chunk-trials, points-left, plan, active, open points, unenqueued.
- * ARGV: now ms, id.
- * Returns {1, 'queued'} when this call made the change, else {0, status} ('' if gone).
+ * ARGV: now ms, id, max active ('' = no cap).
+ * Returns {1, 'queued'} when this call made the change, {0, status, active} when the owner is at
+ * the cap, else {0, status} ('' if gone).
  */
 export const REOPEN = `
 local status = redis.call('HGET', KEYS[1], 'status')
 if not status then return {0, ''} end
 if status ~= 'canceled' and status ~= 'failed' then return {0, status} end
+if ARGV[3] ~= '' then
+  local active = tonumber(redis.call('HGET', KEYS[7], redis.call('HGET', KEYS[1], 'owner') or 'null') or '0')
+  if active >= tonumber(ARGV[3]) then return {0, status, active} end
+end
 redis.call('HSET', KEYS[1], 'status', 'queued', 'finishedMs', '', 'error', '', 'enqueued', '0')
 redis.call('HINCRBY', KEYS[2], status, -1)
 redis.call('HINCRBY', KEYS[2], 'queued', 1)

@@ -288,12 +288,12 @@ export class RedisSweepStore implements SweepStore {
     return removed === 1
   }
 
-  async reopen (id: string, nowMs: number): Promise<Transition> {
+  async reopen (id: string, nowMs: number, maxActive?: number): Promise<Transition & { overCap?: number }> {
     const keys = this.keys.sweep(id)
-    const [changed, status] = await SCRIPTS.reopen.run(this.redis,
+    const [changed, status, active] = await SCRIPTS.reopen.run(this.redis,
       [keys.record, this.keys.counts, keys.chunks, keys.chunkTrials, keys.pointsLeft, keys.plan, this.keys.active, keys.open, this.keys.unenqueued],
-      [nowMs, id]) as [number, string]
-    return { changed: changed === 1, status: status as Transition['status'] }
+      [nowMs, id, maxActive === undefined ? '' : String(maxActive)]) as [number, string, number | undefined]
+    return { changed: changed === 1, status: status as Transition['status'], ...(active === undefined ? {} : { overCap: active }) }
   }
 
   async storedRanges (owner: string | null, reuseKeys: readonly string[]): Promise<Map<string, StoredRange[]>> {

@@ -72,7 +72,7 @@ export function sweepContract (factory: QueueFactory): void {
       const before = (await h.request({ method: 'GET', url: `/v1/sweeps/${id}` })).json()
       const res = await h.request({ method: 'DELETE', url: `/v1/sweeps/${id}` })
       const problem = expectProblem(res, 409, 'MEMSWEEP_SWEEP_FINISHED')
-      expect(problem.detail).toBe(`Sweep '${id}' already ended as succeeded; a finished sweep cannot be canceled.`)
+      expect(problem.detail).toBe(`Sweep '${id}' already ended as succeeded; a finished sweep cannot be canceled. To remove it with everything stored for it, send DELETE with ?purge=true (its owner only; irreversible).`)
       expect(problem.sweepId).toBe(id)
       const after = (await h.request({ method: 'GET', url: `/v1/sweeps/${id}` })).json()
       expect(after).toEqual(before)
