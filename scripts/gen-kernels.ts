@@ -1,8 +1,11 @@
 /**
  * Generates src/engine/kernels/kernels.generated.ts: the WebAssembly (SIMD128) module behind
  * the engine's fast paths (overlap-space and dense sweeps, native xoshiro256** draws),
- * embedded as base64 so the engine reads no file at run time. The WebAssembly text below is the source of truth; `npm run kernels:generate`
- * assembles it with wabt (a dev dependency used only here) and rewrites the generated file.
+ * embedded as base64 so the engine reads no file at run time. The WebAssembly text below is the
+ * source of truth for the bodies; every function header comes from the signature table
+ * (src/engine/kernels/signatures.ts), which also types the exports for the engine.
+ * `npm run kernels:generate` assembles the text with wabt (a dev dependency used only here) and
+ * rewrites the generated file; test/engine/kernels/generated.test.ts fails on any drift.
  *
  * Layout the kernels expect (all offsets are byte addresses in the module's memory, 16-aligned):
  *   xi     neuron-major patterns, int8 ±1: xi[i·pp + μ] = ξ_i^μ, rows padded with zeros to
@@ -16,8 +19,28 @@
 import { writeFileSync } from 'node:fs'
 import { fileURLToPath } from 'node:url'
 import wabtFactory from 'wabt'
+import { KERNEL_SIGNATURES, parseParam, type KernelName } from '../src/engine/kernels/signatures.js'
 
 type Width = 16 | 32
+
+/** Exports whose header has been written, so a table entry without a body (or one used twice) is caught. */
+const emitted = new Set<string>()
+
+/**
+ * The header of an exported function, from its entry in KERNEL_SIGNATURES (the one table of
+ * names, parameter order and types, and results): `(func [internal] (export "name") (param $p t)… [(result t)]`.
+ */
+function header (name: string, internal?: string): string {
+  if (!Object.hasOwn(KERNEL_SIGNATURES, name)) throw new Error(`kernel ${name} is not in KERNEL_SIGNATURES (src/engine/kernels/signatures.ts)`)
+  if (emitted.has(name)) throw new Error(`kernel ${name} is written twice`)
+  emitted.add(name)
+  const signature: { params: readonly string[], result?: string } = KERNEL_SIGNATURES[name as KernelName]
+  const params = signature.params.map((p) => {
+    const { name: param, type } = parseParam(p)
+    return ` (param $${param} ${type})`
+  }).join('')
+  return `(func ${internal !== undefined ? `${internal} ` : ''}(export "${name}")${params}${signature.result !== undefined ? ` (result ${signature.result})` : ''}`
+}
 
 /** Body that leaves Σ_μ ξ_row^μ m_μ in local $h; uses locals $r $e $mp $x $a $b $c $d. */
 function dot (w: Width): string {
@@ -219,7 +242,7 @@ function sweep16Locals (): string {
 
 function sweep16Grouped (): string {
   return `
-  (func (export "sweep16") (param $xi i32) (param $m i32) (param $s i32) (param $order i32) (param $n i32) (param $pp i32) (param $self i32) (result i32)
+  ${header('sweep16')}
     ${sweep16Locals()}
     ${sweep16Body()}
     (local.get $changed))`
@@ -234,7 +257,7 @@ function sweep16Grouped (): string {
  */
 function runAsync16 (): string {
   return `
-  (func (export "runAsync16") (param $xi i32) (param $m i32) (param $s i32) (param $order i32) (param $n i32) (param $pp i32) (param $self i32) (param $state i32) (param $max i32) (param $shuffle i32) (result i32)
+  ${header('runAsync16')}
     ${sweep16Locals()}
     (local $w0 i64) (local $w1 i64) (local $w2 i64) (local $w3 i64) (local $wt i64) (local $wx i64) (local $drew i32)
     (local $fi i32) (local $fj i32) (local $fpi i32) (local $fpj i32) (local $ftmp i32) (local $sweeps i32)
@@ -321,7 +344,7 @@ const DECIDE = '(select (i32.const 1) (select (i32.const -1) (local.get $si) (i3
 /** The one-visit-at-a-time asynchronous sweep (int32 overlaps). */
 function sweepOne (w: Width): string {
   return `
-  (func (export "sweep${w}") (param $xi i32) (param $m i32) (param $s i32) (param $order i32) (param $n i32) (param $pp i32) (param $self i32) (result i32)
+  ${header(`sweep${w}`)}
     ${LOCALS}
     (local $k i32) (local $ke i32) (local $i i32) (local $si i32) (local $v i32) (local $changed i32)
     (local.set $k (local.get $order))
@@ -387,7 +410,7 @@ function syncBody (w: Width): string {
  */
 function runSync (w: Width): string {
   return `
-  (func (export "runSync${w}") (param $xi i32) (param $m i32) (param $s i32) (param $next i32) (param $prev i32) (param $n i32) (param $pp i32) (param $self i32) (param $max i32) (result i32)
+  ${header(`runSync${w}`)}
     ${LOCALS}
     (local $i i32) (local $si i32) (local $v i32) (local $same i32) (local $check i32) (local $steps i32) ${w === 16 ? LOCALS4 : ''}
     (loop $trial
@@ -402,14 +425,14 @@ function variant (w: Width): string {
   const lane = w === 16 ? 2 : 4
   return `
   ;; Raw field without the self term: Σ_μ ξ_i^μ m_μ.
-  (func (export "dot${w}") (param $xi i32) (param $m i32) (param $pp i32) (param $i i32) (result i32)
+  ${header(`dot${w}`)}
     ${LOCALS}
     (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
     ${dot(w)}
     (local.get $h))
 
   ;; m += delta·ξ_i (a change of s_i by delta).
-  (func (export "flip${w}") (param $xi i32) (param $m i32) (param $pp i32) (param $i i32) (param $d0 i32)
+  ${header(`flip${w}`)}
     ${LOCALS}
     (local.set $delta (local.get $d0))
     (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
@@ -417,7 +440,7 @@ function variant (w: Width): string {
 
   ;; m = Σ_i s_i ξ_i from scratch. ${w === 16 ? 'Groups of 64 patterns (one cache line of a row) then single blocks of 16' : 'One block of 16 patterns at a time'},
   ;; so the accumulators stay in registers and every cache line fetched is used whole.
-  (func (export "overlaps${w}") (param $xi i32) (param $m i32) (param $s i32) (param $n i32) (param $pp i32)
+  ${header(`overlaps${w}`)}
     (local $blk i32) (local $r i32) (local $sp i32) (local $se i32) (local $x v128) (local $y v128) (local $sv v128)
     (local $a v128) (local $b v128) (local $c v128) (local $d v128)
     (local $a4 v128) (local $a5 v128) (local $a6 v128) (local $a7 v128)
@@ -459,7 +482,7 @@ function variant (w: Width): string {
   ;; One synchronous zero-temperature step s(t) = sign(h(s(t−1))), ties keep s_i.
   ;; Returns 1 if s(t) = s(t−1) (state left as is), 2 if s(t) = prev (checked when $check), else 0;
   ;; unless 1, prev ← s(t−1) and s, m ← s(t), m updated from the changed neurons only.
-  (func (export "sync${w}") (param $xi i32) (param $m i32) (param $s i32) (param $next i32) (param $prev i32) (param $n i32) (param $pp i32) (param $self i32) (param $check i32) (result i32)
+  ${header(`sync${w}`)}
     ${LOCALS}
     (local $i i32) (local $si i32) (local $v i32) (local $same i32) ${w === 16 ? LOCALS4 : ''}
     ${syncBody(w)}
@@ -467,7 +490,7 @@ function variant (w: Width): string {
 
   ;; One asynchronous Glauber sweep: s_i ← +1 iff u_k·(1 + exp(factor·h_i)) < 1, u_k = noise[k].
   ;; The same IEEE operations, in the same order, as the plain path; exp is the host's Math.exp.
-  (func (export "glauber${w}") (param $xi i32) (param $m i32) (param $s i32) (param $order i32) (param $noise i32) (param $n i32) (param $pp i32) (param $self i32) (param $factor f64)
+  ${header(`glauber${w}`)}
     ${LOCALS}
     (local $k i32) (local $i i32) (local $si i32) (local $v i32)
     (local.set $k (i32.const 0))
@@ -490,7 +513,7 @@ function variant (w: Width): string {
       (br_if $visit (i32.lt_u (local.tee $k (i32.add (local.get $k) (i32.const 1))) (local.get $n)))))
 
   ;; Synchronous Glauber step: next_i from the current state for every i, then s, m ← next.
-  (func (export "glauberSync${w}") (param $xi i32) (param $m i32) (param $s i32) (param $next i32) (param $noise i32) (param $n i32) (param $pp i32) (param $self i32) (param $factor f64)
+  ${header(`glauberSync${w}`)}
     ${LOCALS}
     (local $i i32) (local $si i32) (local $v i32)
     (local.set $i (i32.const 0))
@@ -542,7 +565,7 @@ function transpose (): string {
   for (let c = 0; c < 16; c++) stores.push(`(v128.store (i32.add (local.get $out) (i32.mul (i32.const ${c}) (local.get $stride))) (local.get $v${c}))`)
   return `
   ;; dst[i·stride + μ] = src[μ·srcStride + i] for i < cols, μ < rows (cols, rows multiples of 16).
-  (func (export "transpose") (param $src i32) (param $srcStride i32) (param $cols i32) (param $dst i32) (param $stride i32) (param $rows i32)
+  ${header('transpose')}
     (local $ti i32) (local $tm i32) (local $in i32) (local $out i32)
     ${decl.join(' ')}
     (local.set $ti (i32.const 0))
@@ -567,7 +590,7 @@ function transpose (): string {
  */
 function shuffle (): string {
   return `
-  (func (export "shuffle") (param $order i32) (param $n i32) (param $state i32)
+  ${header('shuffle')}
     (local $s0 i64) (local $s1 i64) (local $s2 i64) (local $s3 i64) (local $t i64) (local $x i64)
     (local $i i32) (local $j i32) (local $pi i32) (local $pj i32) (local $tmp i32)
     (if (i32.lt_u (local.get $n) (i32.const 2)) (then (return)))
@@ -595,7 +618,7 @@ function shuffle (): string {
  */
 function partialShuffle (): string {
   return `
-  (func (export "partialShuffle") (param $idx i32) (param $n i32) (param $count i32) (param $state i32)
+  ${header('partialShuffle')}
     (local $s0 i64) (local $s1 i64) (local $s2 i64) (local $s3 i64) (local $t i64) (local $x i64)
     (local $k i32) (local $j i32) (local $pk i32) (local $pj i32) (local $tmp i32)
     (loop $identity
@@ -633,7 +656,7 @@ function signBits (): string {
         (then (i32.store (i32.add (local.get $m) (i32.shl (local.get $mu) (i32.const 2))) ${value}))
         (else (i32.store16 (i32.add (local.get $m) (i32.shl (local.get $mu) (i32.const 1))) ${value})))`
   return `
-  (func $packSigns (export "packSigns") (param $src i32) (param $n i32) (param $dst i32) (param $words i32) (result i32)
+  ${header('packSigns', '$packSigns')}
     (local $k i32) (local $groups i32) (local $all i32) (local $v v128) (local $zero i32) (local $valid i32)
     (local.set $groups (i32.shr_u (i32.add (local.get $n) (i32.const 15)) (i32.const 4)))
     (local.set $all (i32.shl (local.get $words) (i32.const 2)))
@@ -654,7 +677,7 @@ function signBits (): string {
         (br $group)))
     (i32.ne (local.get $zero) (i32.const 0)))
 
-  (func (export "packRows") (param $src i32) (param $n i32) (param $rows i32) (param $dst i32) (param $words i32)
+  ${header('packRows')}
     (local $r i32)
     (block $done
       (loop $row
@@ -667,7 +690,7 @@ function signBits (): string {
         (local.set $r (i32.add (local.get $r) (i32.const 1)))
         (br $row))))
 
-  (func (export "overlapsBits") (param $bits i32) (param $words i32) (param $s i32) (param $sbits i32) (param $n i32) (param $p i32) (param $pp i32) (param $m i32) (param $wide i32) (result i32)
+  ${header('overlapsBits')}
     (local $mu i32) (local $w i32) (local $acc i64) (local $row i32)
     (if (call $packSigns (local.get $s) (local.get $n) (local.get $sbits) (local.get $words)) (then (return (i32.const 0))))
     (local.set $row (local.get $bits))
@@ -700,7 +723,7 @@ function signBits (): string {
  */
 function uniforms (): string {
   return `
-  (func (export "uniforms") (param $out i32) (param $count i32) (param $state i32)
+  ${header('uniforms')}
     (local $s0 i64) (local $s1 i64) (local $s2 i64) (local $s3 i64) (local $t i64) (local $x i64) (local $e i32)
     (if (i32.eqz (local.get $count)) (then (return)))
     ${XOSHIRO_LOAD}
@@ -755,7 +778,7 @@ function unbiasedRows (): string {
         (local.set $v (v128.and (i8x16.swizzle (local.get $w) (v128.const i8x16 ${2 * q} ${2 * q} ${2 * q} ${2 * q} ${2 * q} ${2 * q} ${2 * q} ${2 * q} ${2 * q + 1} ${2 * q + 1} ${2 * q + 1} ${2 * q + 1} ${2 * q + 1} ${2 * q + 1} ${2 * q + 1} ${2 * q + 1})) (local.get $bits)))
         (v128.store offset=${16 * q} (local.get $p) (i8x16.sub (v128.and (i8x16.eq (local.get $v) (local.get $bits)) (local.get $two)) (local.get $one)))`
   return `
-  (func (export "unbiasedRows") (param $out i32) (param $n i32) (param $count i32) (param $state i32)
+  ${header('unbiasedRows')}
     (local $s0 i64) (local $s1 i64) (local $s2 i64) (local $s3 i64) (local $t i64) (local $x i64)
     (local $row i32) (local $p i32) (local $e i32) (local $w v128) (local $v v128) (local $bits v128) (local $two v128) (local $one v128)
     (if (i32.eqz (i32.mul (local.get $n) (local.get $count))) (then (return)))
@@ -838,12 +861,12 @@ function dense (): string {
             (f64.const 1)))`
   return `
   ;; Dense: h = bias + J s from scratch (cols[j·n + i] = J_ij).
-  (func (export "denseLoad") (param $cols i32) (param $bias i32) (param $s i32) (param $h i32) (param $n i32) (param $rowwise i32)
+  ${header('denseLoad')}
     ${DENSE_LOCALS}
     ${reload})
 
   ;; Dense zero-temperature asynchronous sweep; returns 1 if any neuron changed.
-  (func (export "denseSweep") (param $cols i32) (param $s i32) (param $h i32) (param $order i32) (param $n i32) (result i32)
+  ${header('denseSweep')}
     ${DENSE_LOCALS} (local $changed i32) (local $fh f64)
     (local.set $k (i32.const 0))
     (loop $visit
@@ -858,7 +881,7 @@ function dense (): string {
     (local.get $changed))
 
   ;; Dense asynchronous Glauber sweep, noise[k] the uniform of the k-th visit.
-  (func (export "denseGlauber") (param $cols i32) (param $s i32) (param $h i32) (param $order i32) (param $noise i32) (param $n i32) (param $factor f64)
+  ${header('denseGlauber')}
     ${DENSE_LOCALS}
     (local.set $k (i32.const 0))
     (loop $visit
@@ -869,7 +892,7 @@ function dense (): string {
       (br_if $visit (i32.lt_u (local.tee $k (i32.add (local.get $k) (i32.const 1))) (local.get $n)))))
 
   ;; Dense synchronous zero-temperature step (same contract as sync16), then h reloaded from scratch.
-  (func (export "denseSync") (param $cols i32) (param $bias i32) (param $s i32) (param $h i32) (param $next i32) (param $prev i32) (param $n i32) (param $check i32) (param $rowwise i32) (result i32)
+  ${header('denseSync')}
     ${DENSE_LOCALS} (local $same i32) (local $fh f64)
     (local.set $same (i32.const 1))
     (local.set $i (i32.const 0))
@@ -888,7 +911,7 @@ function dense (): string {
     (local.get $same))
 
   ;; Dense synchronous Glauber step: next_i from h_i and noise[i], then s ← next and h reloaded.
-  (func (export "denseGlauberSync") (param $cols i32) (param $bias i32) (param $s i32) (param $h i32) (param $next i32) (param $noise i32) (param $n i32) (param $factor f64) (param $rowwise i32)
+  ${header('denseGlauberSync')}
     ${DENSE_LOCALS}
     (local.set $i (i32.const 0))
     (loop $visit
@@ -969,17 +992,17 @@ function dense16 (): string {
             (f64.const 1)))`
   return `
   ;; Dense int16: h = bias + J s from scratch.
-  (func (export "dense16Load") (param $cols i32) (param $bias i32) (param $s i32) (param $s16 i32) (param $h i32) (param $n i32) (param $stride i32) (param $rowsAreColumns i32)
+  ${header('dense16Load')}
     ${DENSE16_LOCALS}
     ${reload})
 
   ;; Dense int16: s_j changes by delta (the per-neuron set of the JavaScript API).
-  (func (export "dense16Set") (param $cols i32) (param $h i32) (param $stride i32) (param $j i32) (param $delta i32)
+  ${header('dense16Set')}
     ${DENSE16_LOCALS}
     ${axpy16(COLUMN16('(local.get $j)'), '(local.get $delta)')})
 
   ;; Dense int16 zero-temperature asynchronous sweep; returns 1 if any neuron changed.
-  (func (export "dense16Sweep") (param $cols i32) (param $s i32) (param $h i32) (param $order i32) (param $n i32) (param $stride i32) (result i32)
+  ${header('dense16Sweep')}
     ${DENSE16_LOCALS} (local $changed i32)
     (local.set $k (i32.const 0))
     (loop $visit
@@ -994,7 +1017,7 @@ function dense16 (): string {
     (local.get $changed))
 
   ;; Dense int16 asynchronous Glauber sweep, noise[k] the uniform of the k-th visit.
-  (func (export "dense16Glauber") (param $cols i32) (param $s i32) (param $h i32) (param $order i32) (param $noise i32) (param $n i32) (param $stride i32) (param $factor f64)
+  ${header('dense16Glauber')}
     ${DENSE16_LOCALS}
     (local.set $k (i32.const 0))
     (loop $visit
@@ -1005,7 +1028,7 @@ function dense16 (): string {
       (br_if $visit (i32.lt_u (local.tee $k (i32.add (local.get $k) (i32.const 1))) (local.get $n)))))
 
   ;; Dense int16 synchronous zero-temperature step (contract of sync16), then h rebuilt.
-  (func (export "dense16Sync") (param $cols i32) (param $bias i32) (param $s i32) (param $s16 i32) (param $h i32) (param $next i32) (param $prev i32) (param $n i32) (param $stride i32) (param $check i32) (param $rowsAreColumns i32) (result i32)
+  ${header('dense16Sync')}
     ${DENSE16_LOCALS} (local $same i32)
     (local.set $same (i32.const 1))
     (local.set $i (i32.const 0))
@@ -1024,7 +1047,7 @@ function dense16 (): string {
     (local.get $same))
 
   ;; Dense int16 synchronous Glauber step: next_i from h_i and noise[i], then s ← next and h rebuilt.
-  (func (export "dense16GlauberSync") (param $cols i32) (param $bias i32) (param $s i32) (param $s16 i32) (param $h i32) (param $next i32) (param $noise i32) (param $n i32) (param $stride i32) (param $factor f64) (param $rowsAreColumns i32)
+  ${header('dense16GlauberSync')}
     ${DENSE16_LOCALS}
     (local.set $i (i32.const 0))
     (loop $visit
@@ -1034,7 +1057,10 @@ function dense16 (): string {
     ${reload})`
 }
 
-export const KERNELS_WAT = `(module
+/** The module's WebAssembly text: every function, in the order the binary lists them. */
+export function kernelsWat (): string {
+  emitted.clear()
+  const text = `(module
   (import "host" "exp" (func $exp (param f64) (result f64)))
   (memory (export "memory") 1)
 ${variant(16)}
@@ -1052,17 +1078,23 @@ ${dense()}
 ${dense16()}
 )
 `
+  const missing = Object.keys(KERNEL_SIGNATURES).filter((name) => !emitted.has(name))
+  if (missing.length > 0) throw new Error(`KERNEL_SIGNATURES lists kernels with no body: ${missing.join(', ')}`)
+  return text
+}
 
-async function main (): Promise<void> {
+/** Assembles the module with wabt: its bytes and the text of kernels.generated.ts that embeds them. */
+export async function assembleKernels (): Promise<{ wasm: Uint8Array, generated: string }> {
   const wabt = await wabtFactory()
-  const mod = wabt.parseWat('kernels.wat', KERNELS_WAT, { simd: true, bulk_memory: true })
-  mod.validate()
-  const { buffer } = mod.toBinary({})
-  mod.destroy()
-  const base64 = Buffer.from(buffer).toString('base64')
-  const lines: string[] = []
-  for (let k = 0; k < base64.length; k += 120) lines.push(`  '${base64.slice(k, k + 120)}'`)
-  const out = `// Generated by scripts/gen-kernels.ts (npm run kernels:generate). Do not edit by hand.
+  const mod = wabt.parseWat('kernels.wat', kernelsWat(), { simd: true, bulk_memory: true })
+  try {
+    mod.validate()
+    const { buffer } = mod.toBinary({})
+    const wasm = Uint8Array.from(buffer)
+    const base64 = Buffer.from(wasm).toString('base64')
+    const lines: string[] = []
+    for (let k = 0; k < base64.length; k += 120) lines.push(`  '${base64.slice(k, k + 120)}'`)
+    const generated = `// Generated by scripts/gen-kernels.ts (npm run kernels:generate). Do not edit by hand.
 // The WebAssembly SIMD128 module of the engine's fast paths; its text source, layout notes
 // and the reasons for each kernel's shape live in the generator.
 
@@ -1070,9 +1102,20 @@ async function main (): Promise<void> {
 export const KERNELS_WASM_BASE64 =
 ${lines.join(' +\n')}
 `
-  const target = process.env.KERNEL_OUT ?? fileURLToPath(new URL('../src/engine/kernels/kernels.generated.ts', import.meta.url))
-  writeFileSync(target, out)
-  console.log(`wrote ${target} (${buffer.length} bytes of wasm)`)
+    return { wasm, generated }
+  } finally {
+    mod.destroy()
+  }
+}
+
+/** Where the generated module lives in the repository. */
+export const GENERATED_PATH = fileURLToPath(new URL('../src/engine/kernels/kernels.generated.ts', import.meta.url))
+
+async function main (): Promise<void> {
+  const { wasm, generated } = await assembleKernels()
+  const target = process.env.KERNEL_OUT ?? GENERATED_PATH
+  writeFileSync(target, generated)
+  console.log(`wrote ${target} (${wasm.length} bytes of wasm)`)
 }
 
 if (process.argv[1] === fileURLToPath(import.meta.url)) await main()

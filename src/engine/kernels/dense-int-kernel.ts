@@ -1,4 +1,5 @@
-import { EMPTY, unlessMemoryRefused, Workspaces, type Workspace, type WasmMemory } from './wasm.js'
+import { EMPTY, unlessMemoryRefused, Workspaces, type Workspace } from './wasm.js'
+import type { KernelsUsing } from './signatures.js'
 
 /**
  * WebAssembly SIMD128 fast path of the dense network for integer couplings (kernel text:
@@ -17,15 +18,7 @@ import { EMPTY, unlessMemoryRefused, Workspaces, type Workspace, type WasmMemory
  * Memory as in the other kernels: matrices under 1 MiB share an instance and are copied in
  * when another network used it last; larger ones own an instance holding the only copy.
  */
-interface DenseIntExports {
-  memory: WasmMemory
-  dense16Load: (cols: number, bias: number, s: number, s16: number, h: number, n: number, stride: number, rowsAreColumns: number) => void
-  dense16Set: (cols: number, h: number, stride: number, j: number, delta: number) => void
-  dense16Sweep: (cols: number, s: number, h: number, order: number, n: number, stride: number) => number
-  dense16Glauber: (cols: number, s: number, h: number, order: number, noise: number, n: number, stride: number, factor: number) => void
-  dense16Sync: (cols: number, bias: number, s: number, s16: number, h: number, next: number, prev: number, n: number, stride: number, check: number, rowsAreColumns: number) => number
-  dense16GlauberSync: (cols: number, bias: number, s: number, s16: number, h: number, next: number, noise: number, n: number, stride: number, factor: number, rowsAreColumns: number) => void
-}
+type DenseIntExports = KernelsUsing<'dense16Load' | 'dense16Set' | 'dense16Sweep' | 'dense16Glauber' | 'dense16Sync' | 'dense16GlauberSync'>
 
 const workspaces = new Workspaces<DenseIntExports>(1024 * 1024)
 

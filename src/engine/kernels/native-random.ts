@@ -1,4 +1,5 @@
-import { areFastPathsEnabled, instantiateKernels, WASM_PAGE, type WasmMemory } from './wasm.js'
+import { areFastPathsEnabled, instantiateKernels, WASM_PAGE } from './wasm.js'
+import type { KernelsUsing } from './signatures.js'
 import { Xoshiro256StarStar } from '../random/xoshiro256.js'
 import type { RandomSource } from '../random/source.js'
 
@@ -12,13 +13,7 @@ import type { RandomSource } from '../random/source.js'
  * loops. For any other RandomSource the functions return false and the caller draws in
  * JavaScript.
  */
-interface RandomExports {
-  memory: WasmMemory
-  shuffle: (order: number, n: number, state: number) => void
-  partialShuffle: (idx: number, n: number, count: number, state: number) => void
-  unbiasedRows: (out: number, n: number, count: number, state: number) => void
-  uniforms: (out: number, count: number, state: number) => void
-}
+type RandomExports = KernelsUsing<'shuffle' | 'partialShuffle' | 'unbiasedRows' | 'uniforms'>
 
 let kernel: RandomExports | null | undefined
 

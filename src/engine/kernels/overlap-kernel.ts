@@ -1,4 +1,5 @@
-import { EMPTY, unlessMemoryRefused, Workspaces, type Workspace, type WasmMemory } from './wasm.js'
+import { EMPTY, unlessMemoryRefused, Workspaces, type Workspace } from './wasm.js'
+import type { KernelsUsing } from './signatures.js'
 import { stateFromKernel, stateToKernel, xoshiroState } from './native-random.js'
 import type { RandomSource } from '../random/source.js'
 
@@ -27,25 +28,7 @@ import type { RandomSource } from '../random/source.js'
  * network would be simpler, but V8 reserves gigabytes of address space per memory and stalls
  * on garbage collection when thousands of networks are built in a row.)
  */
-interface OverlapExports {
-  memory: WasmMemory
-  overlaps16: (xi: number, m: number, s: number, n: number, pp: number) => void
-  overlaps32: (xi: number, m: number, s: number, n: number, pp: number) => void
-  sweep16: (xi: number, m: number, s: number, order: number, n: number, pp: number, self: number) => number
-  sweep32: (xi: number, m: number, s: number, order: number, n: number, pp: number, self: number) => number
-  sync16: (xi: number, m: number, s: number, next: number, prev: number, n: number, pp: number, self: number, check: number) => number
-  sync32: (xi: number, m: number, s: number, next: number, prev: number, n: number, pp: number, self: number, check: number) => number
-  glauber16: (xi: number, m: number, s: number, order: number, noise: number, n: number, pp: number, self: number, factor: number) => void
-  glauber32: (xi: number, m: number, s: number, order: number, noise: number, n: number, pp: number, self: number, factor: number) => void
-  glauberSync16: (xi: number, m: number, s: number, next: number, noise: number, n: number, pp: number, self: number, factor: number) => void
-  glauberSync32: (xi: number, m: number, s: number, next: number, noise: number, n: number, pp: number, self: number, factor: number) => void
-  transpose: (src: number, srcStride: number, cols: number, dst: number, stride: number, rows: number) => void
-  runSync16: (xi: number, m: number, s: number, next: number, prev: number, n: number, pp: number, self: number, max: number) => number
-  runSync32: (xi: number, m: number, s: number, next: number, prev: number, n: number, pp: number, self: number, max: number) => number
-  runAsync16: (xi: number, m: number, s: number, order: number, n: number, pp: number, self: number, state: number, max: number, shuffle: number) => number
-  packRows: (src: number, n: number, rows: number, dst: number, words: number) => void
-  overlapsBits: (bits: number, words: number, s: number, sbits: number, n: number, p: number, pp: number, m: number, wide: number) => number
-}
+type OverlapExports = KernelsUsing<'overlaps16' | 'overlaps32' | 'sweep16' | 'sweep32' | 'sync16' | 'sync32' | 'glauber16' | 'glauber32' | 'glauberSync16' | 'glauberSync32' | 'transpose' | 'runSync16' | 'runSync32' | 'runAsync16' | 'packRows' | 'overlapsBits'>
 
 /**
  * Networks whose neuron-major patterns take at least 8 MiB get a private instance, so the
