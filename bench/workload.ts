@@ -23,16 +23,17 @@ const impl = 'memsweep'
 const variant = path
 const selfRssKb = (): number => process.resourceUsage().maxRSS
 
-/** Dense-representation workloads (no peer): the engine's plain and fast paths only. */
-const DENSE: Record<string, (p: PointParams) => PointParams> = {
+/** Workloads that change the standard Hebbian point (bench/README.md defines them). */
+const VARIANTS: Record<string, (p: PointParams) => PointParams> = {
   D1: (p) => ({ ...p, coding: 'binary' }),
   D2: (p) => ({ ...p, rule: { kind: 'pseudo-inverse', selfCoupling: false } }),
-  D3: (p) => ({ ...p, dilution: { keep: 0.3, symmetric: true } })
+  D3: (p) => ({ ...p, dilution: { keep: 0.3, symmetric: true } }),
+  G1: (p) => ({ ...p, dynamics: { ...p.dynamics, temperature: 0.4, maxSweeps: 20, burnIn: 10 } })
 }
 
 function shared (name: string, neurons: number, patterns: number, flips: number, update: 'async-random' | 'sync', trials: number): Record<string, unknown> {
   const base = workloadParams(neurons, patterns, flips, update)
-  const run = runSharedNetworkWorkload(name, DENSE[name]?.(base) ?? base, trials, seed)
+  const run = runSharedNetworkWorkload(name, VARIANTS[name]?.(base) ?? base, trials, seed)
   const s = summarize(run.trials)
   const sweeps = run.trials.reduce((a, r) => a + r.sweeps, 0)
   const updates = sweeps * neurons
@@ -82,6 +83,7 @@ function once (): Record<string, unknown> {
     case 'D1': return shared('D1', 1000, 50, 100, 'async-random', 100)
     case 'D2': return shared('D2', 500, 100, 50, 'async-random', 50)
     case 'D3': return shared('D3', 1000, 50, 100, 'sync', 100)
+    case 'G1': return shared('G1', 1000, 50, 100, 'async-random', 100)
     case 'W2': {
       const r = runCapacityWorkload(seed, trialsPerLoad)
       return {

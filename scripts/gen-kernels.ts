@@ -189,13 +189,13 @@ const LOCALS4 = `(local $o i32) (local $ml v128) (local $mh v128)
  * changes a neuron, so the group is cut short there and the next group starts right after
  * it. Every decision therefore sees exactly the field the one-at-a-time sweep would.
  */
-function sweep16Body (): string {
+function sweep16Body (decide = `(local.set $v ${DECIDE})`): string {
   const visit = (j: number): string => `
           (local.set $i (local.get $i${j}))
           (local.set $row (local.get $r${j}))
           (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
           (local.set $h (i32.sub (local.get $h${j}) (i32.mul (local.get $self) (local.get $si))))
-          (local.set $v ${DECIDE})
+          ${decide}
           (if (i32.ne (local.get $v) (local.get $si))
             (then
               (i32.store8 (i32.add (local.get $s) (local.get $i)) (local.get $v))
@@ -224,7 +224,7 @@ function sweep16Body (): string {
         (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
         ${dot(16)}
         (local.set $h (i32.sub (local.get $h) (i32.mul (local.get $self) (local.get $si))))
-        (local.set $v ${DECIDE})
+        ${decide}
         (if (i32.ne (local.get $v) (local.get $si))
           (then
             (i32.store8 (i32.add (local.get $s) (local.get $i)) (local.get $v))
@@ -303,6 +303,58 @@ function runAsync16 (): string {
     (i32.add (i32.shl (local.get $sweeps) (i32.const 1)) (local.get $changed)))`
 }
 
+/**
+ * A whole asynchronous Glauber trial in one call (int16 overlaps): $max sweeps, each preceded
+ * by the Fisher–Yates reshuffle of the order (unless $shuffle is 0) and drawing one uniform
+ * per visit, in visiting order, from the xoshiro256** state at $state: the stream the plain
+ * loop consumes (it draws the sweep's uniforms after its shuffle, nothing in between).
+ * Visits are grouped by four as in "sweep16" (a group is cut at the first visit that changes
+ * a neuron), and 1 + exp(factor·h) comes from the table (onePlusExp). After every sweep the
+ * host's sweepDone(sweep) runs, so the caller can read the state and observe, as the plain
+ * loop does between sweeps. The generator state and last output are written back at the end.
+ */
+function runGlauber16 (): string {
+  // The generator's output is $wx here: $x is a v128 of the sweep body.
+  const next = XOSHIRO_NEXT.replaceAll('$x', '$wx')
+  const decide = `${next}
+          (local.set $drew (i32.const 1))
+          ${onePlusExp('(local.get $h)')}
+          (local.set $v (select (i32.const 1) (i32.const -1)
+            (f64.lt (f64.mul (f64.mul (f64.convert_i64_u (i64.shr_u (local.get $wx) (i64.const 11))) (f64.const 0x1p-53)) (local.get $g)) (f64.const 1))))`
+  return `
+  ${header('runGlauber16')}
+    ${sweep16Locals()} ${TABLE_LOCALS}
+    (local $s0 i64) (local $s1 i64) (local $s2 i64) (local $s3 i64) (local $t i64) (local $wx i64) (local $drew i32)
+    (local $fi i32) (local $fj i32) (local $fpi i32) (local $fpj i32) (local $ftmp i32) (local $sweeps i32)
+    ${XOSHIRO_LOAD}
+    (block $end
+      (loop $trial
+        (br_if $end (i32.ge_u (local.get $sweeps) (local.get $max)))
+        (local.set $sweeps (i32.add (local.get $sweeps) (i32.const 1)))
+        (if (i32.and (local.get $shuffle) (i32.ge_u (local.get $n) (i32.const 2)))
+          (then
+            (local.set $drew (i32.const 1))
+            (local.set $fi (i32.sub (local.get $n) (i32.const 1)))
+            (loop $draw
+              ${next}
+              (local.set $t (i64.extend_i32_u (i32.add (local.get $fi) (i32.const 1))))
+              (local.set $fj ${BELOW_T.replaceAll('$x', '$wx')})
+              (local.set $fpi (i32.add (local.get $order) (i32.shl (local.get $fi) (i32.const 2))))
+              (local.set $fpj (i32.add (local.get $order) (i32.shl (local.get $fj) (i32.const 2))))
+              (local.set $ftmp (i32.load (local.get $fpi)))
+              (i32.store (local.get $fpi) (i32.load (local.get $fpj)))
+              (i32.store (local.get $fpj) (local.get $ftmp))
+              (br_if $draw (local.tee $fi (i32.sub (local.get $fi) (i32.const 1)))))))
+        ${sweep16Body(decide)}
+        (call $sweepDone (local.get $sweeps))
+        (br $trial)))
+    (i64.store (local.get $state) (local.get $s0))
+    (i64.store offset=8 (local.get $state) (local.get $s1))
+    (i64.store offset=16 (local.get $state) (local.get $s2))
+    (i64.store offset=24 (local.get $state) (local.get $s3))
+    (if (local.get $drew) (then (i64.store offset=32 (local.get $state) (local.get $wx)))))`
+}
+
 /** The decision pass of the int16 synchronous step, four neurons per field computation. */
 function syncFields16 (): string {
   const decide = (j: number): string => `
@@ -337,6 +389,30 @@ const TWO_CYCLE_CHECK = `(if (local.get $check)
             (br_if $differs (i32.ne (i32.load8_s (i32.add (local.get $next) (local.get $i))) (i32.load8_s (i32.add (local.get $prev) (local.get $i)))))
             (br_if $compare (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))
           (local.set $same (i32.const 2)))))`
+
+/**
+ * Glauber's 1 + exp(factor·h) for an integer field h, left in $g: read from the table at
+ * $table, which holds it for h in [−$half, $half] (entry h + $half, 0 until first needed, since
+ * 1 + exp(·) ≥ 1 is never 0), or computed with the host's exp outside the window. An entry is the
+ * double f64.add(1, exp(f64.mul(factor, h))) computed the first time h occurs, so every read
+ * gives the very value the plain path computes for that field; the caller zeroes the table
+ * whenever the factor changes. Uses locals $gi $ga $g (TABLE_LOCALS).
+ */
+function onePlusExp (h: string): string {
+  const direct = `(f64.add (f64.const 1) (call $exp (f64.mul (local.get $factor) (f64.convert_i32_s ${h}))))`
+  return `(local.set $gi (i32.add ${h} (local.get $half)))
+      (if (i32.le_u (local.get $gi) (i32.shl (local.get $half) (i32.const 1)))
+        (then
+          (local.set $ga (i32.add (local.get $table) (i32.shl (local.get $gi) (i32.const 3))))
+          (local.set $g (f64.load (local.get $ga)))
+          (if (f64.eq (local.get $g) (f64.const 0))
+            (then
+              (local.set $g ${direct})
+              (f64.store (local.get $ga) (local.get $g)))))
+        (else (local.set $g ${direct})))`
+}
+
+const TABLE_LOCALS = '(local $gi i32) (local $ga i32) (local $g f64)'
 
 /** The zero-temperature decision: v = +1 if h > 0, −1 if h < 0, else unchanged (the tie rule). */
 const DECIDE = '(select (i32.const 1) (select (i32.const -1) (local.get $si) (i32.lt_s (local.get $h) (i32.const 0))) (i32.gt_s (local.get $h) (i32.const 0)))'
@@ -489,9 +565,10 @@ function variant (w: Width): string {
     (local.get $same))
 
   ;; One asynchronous Glauber sweep: s_i ← +1 iff u_k·(1 + exp(factor·h_i)) < 1, u_k = noise[k].
-  ;; The same IEEE operations, in the same order, as the plain path; exp is the host's Math.exp.
+  ;; The same IEEE operations, in the same order, as the plain path; exp is the host's Math.exp,
+  ;; its values kept in the table over the integer field (see onePlusExp).
   ${header(`glauber${w}`)}
-    ${LOCALS}
+    ${LOCALS} ${TABLE_LOCALS}
     (local $k i32) (local $i i32) (local $si i32) (local $v i32)
     (local.set $k (i32.const 0))
     (loop $visit
@@ -500,11 +577,9 @@ function variant (w: Width): string {
       (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
       ${dot(w)}
       (local.set $h (i32.sub (local.get $h) (i32.mul (local.get $self) (local.get $si))))
+      ${onePlusExp('(local.get $h)')}
       (local.set $v (select (i32.const 1) (i32.const -1)
-        (f64.lt
-          (f64.mul (f64.load (i32.add (local.get $noise) (i32.shl (local.get $k) (i32.const 3))))
-            (f64.add (f64.const 1) (call $exp (f64.mul (local.get $factor) (f64.convert_i32_s (local.get $h))))))
-          (f64.const 1))))
+        (f64.lt (f64.mul (f64.load (i32.add (local.get $noise) (i32.shl (local.get $k) (i32.const 3)))) (local.get $g)) (f64.const 1))))
       (if (i32.ne (local.get $v) (local.get $si))
         (then
           (i32.store8 (i32.add (local.get $s) (local.get $i)) (local.get $v))
@@ -514,7 +589,7 @@ function variant (w: Width): string {
 
   ;; Synchronous Glauber step: next_i from the current state for every i, then s, m ← next.
   ${header(`glauberSync${w}`)}
-    ${LOCALS}
+    ${LOCALS} ${TABLE_LOCALS}
     (local $i i32) (local $si i32) (local $v i32)
     (local.set $i (i32.const 0))
     (loop $visit
@@ -522,11 +597,9 @@ function variant (w: Width): string {
       (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
       ${dot(w)}
       (local.set $h (i32.sub (local.get $h) (i32.mul (local.get $self) (local.get $si))))
+      ${onePlusExp('(local.get $h)')}
       (i32.store8 (i32.add (local.get $next) (local.get $i)) (select (i32.const 1) (i32.const -1)
-        (f64.lt
-          (f64.mul (f64.load (i32.add (local.get $noise) (i32.shl (local.get $i) (i32.const 3))))
-            (f64.add (f64.const 1) (call $exp (f64.mul (local.get $factor) (f64.convert_i32_s (local.get $h))))))
-          (f64.const 1))))
+        (f64.lt (f64.mul (f64.load (i32.add (local.get $noise) (i32.shl (local.get $i) (i32.const 3)))) (local.get $g)) (f64.const 1))))
       (br_if $visit (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))
     (local.set $i (i32.const 0))
     (loop $apply
@@ -985,11 +1058,12 @@ function dense16 (): string {
         ${axpy16(COLUMN16('(local.get $i)'), '(i32.sub (local.get $v) (local.get $si))')}`
   const field = '(i32.load (i32.add (local.get $h) (i32.shl (local.get $i) (i32.const 2))))'
   const decide = '(select (i32.const 1) (select (i32.const -1) (local.get $si) (i32.lt_s (local.get $fh) (i32.const 0))) (i32.gt_s (local.get $fh) (i32.const 0)))'
-  const glauberUp = (noiseIndex: string): string => `(select (i32.const 1) (i32.const -1)
-          (f64.lt
-            (f64.mul (f64.load (i32.add (local.get $noise) (i32.shl ${noiseIndex} (i32.const 3))))
-              (f64.add (f64.const 1) (call $exp (f64.mul (local.get $factor) (f64.convert_i32_s ${field})))))
-            (f64.const 1)))`
+  // Leaves 1 + exp(factor·h_i) in $g (tabulated over the integer field), then decides.
+  const glauberUp = (noiseIndex: string): string => `(block (result i32)
+          (local.set $fh ${field})
+          ${onePlusExp('(local.get $fh)')}
+          (select (i32.const 1) (i32.const -1)
+            (f64.lt (f64.mul (f64.load (i32.add (local.get $noise) (i32.shl ${noiseIndex} (i32.const 3)))) (local.get $g)) (f64.const 1))))`
   return `
   ;; Dense int16: h = bias + J s from scratch.
   ${header('dense16Load')}
@@ -1018,7 +1092,7 @@ function dense16 (): string {
 
   ;; Dense int16 asynchronous Glauber sweep, noise[k] the uniform of the k-th visit.
   ${header('dense16Glauber')}
-    ${DENSE16_LOCALS}
+    ${DENSE16_LOCALS} ${TABLE_LOCALS}
     (local.set $k (i32.const 0))
     (loop $visit
       (local.set $i (i32.load (i32.add (local.get $order) (i32.shl (local.get $k) (i32.const 2)))))
@@ -1048,7 +1122,7 @@ function dense16 (): string {
 
   ;; Dense int16 synchronous Glauber step: next_i from h_i and noise[i], then s ← next and h rebuilt.
   ${header('dense16GlauberSync')}
-    ${DENSE16_LOCALS}
+    ${DENSE16_LOCALS} ${TABLE_LOCALS}
     (local.set $i (i32.const 0))
     (loop $visit
       (i32.store8 (i32.add (local.get $next) (local.get $i)) ${glauberUp('(local.get $i)')})
@@ -1062,6 +1136,7 @@ export function kernelsWat (): string {
   emitted.clear()
   const text = `(module
   (import "host" "exp" (func $exp (param f64) (result f64)))
+  (import "host" "sweepDone" (func $sweepDone (param i32)))
   (memory (export "memory") 1)
 ${variant(16)}
 ${variant(32)}
@@ -1072,6 +1147,7 @@ ${partialShuffle()}
 ${unbiasedRows()}
 ${uniforms()}
 ${runAsync16()}
+${runGlauber16()}
 ${runSync(16)}
 ${runSync(32)}
 ${dense()}

@@ -1,6 +1,7 @@
 import type { PointParams } from './params.js'
 import { chooseRepresentation, type Representation } from './network/build.js'
 import { OverlapKernel } from './kernels/overlap-kernel.js'
+import { glauberTableBytes } from './kernels/glauber-table.js'
 
 export interface PointCost {
   /** Peak bytes one runner holds for this point (network, patterns, scratch). */
@@ -41,8 +42,9 @@ export function estimatePointCost (p: PointParams): PointCost {
   const noiseOps = thermal ? GLAUBER_OPS_PER_VISIT : 0
   if (representation === 'overlap-space') {
     return {
-      // Both pattern layouts, the overlaps and the fast path's sign bits (8·⌈N/64⌉ bytes a pattern).
-      bytes: 2 * patternBytes + OverlapKernel.signBitBytes(n, count) + scratchBytes + 4 * count,
+      // Both pattern layouts, the overlaps and the fast path's sign bits (8·⌈N/64⌉ bytes a
+      // pattern); at T > 0 the table of Glauber's 1 + exp(factor·h) over the integer fields.
+      bytes: 2 * patternBytes + OverlapKernel.signBitBytes(n, count) + scratchBytes + 4 * count + (thermal ? glauberTableBytes(count * (n + 1)) : 0),
       neuronUpdatesPerTrial,
       buildOpsPerNetwork: n * count,
       opsPerVisit: OVERLAP_VISIT_FIXED_OPS + count / OVERLAP_KERNEL_LANES + noiseOps
@@ -54,7 +56,8 @@ export function estimatePointCost (p: PointParams): PointCost {
   if (p.rule.kind === 'pseudo-inverse') buildOps += n * count * count + count * count * count
   if (p.rule.kind === 'storkey') buildOps *= 2
   return {
-    bytes: denseBuildPeakBytes(p) + patternBytes + scratchBytes,
+    // At T > 0 integer couplings also tabulate Glauber's 1 + exp(factor·h) (counted at its largest).
+    bytes: denseBuildPeakBytes(p) + patternBytes + scratchBytes + (thermal ? glauberTableBytes(Number.MAX_SAFE_INTEGER) : 0),
     neuronUpdatesPerTrial,
     buildOpsPerNetwork: buildOps,
     // A visit reads one field; a change (a fraction of visits) adds a column of N.

@@ -1,6 +1,7 @@
-import { EMPTY, unlessMemoryRefused, Workspaces, type Workspace } from './wasm.js'
+import { EMPTY, unlessMemoryRefused, withSweepObserver, Workspaces, type Workspace } from './wasm.js'
 import type { KernelsUsing } from './signatures.js'
 import { stateFromKernel, stateToKernel, xoshiroState } from './native-random.js'
+import { GlauberTable } from './glauber-table.js'
 import type { RandomSource } from '../random/source.js'
 
 /**
@@ -28,7 +29,7 @@ import type { RandomSource } from '../random/source.js'
  * network would be simpler, but V8 reserves gigabytes of address space per memory and stalls
  * on garbage collection when thousands of networks are built in a row.)
  */
-type OverlapExports = KernelsUsing<'overlaps16' | 'overlaps32' | 'sweep16' | 'sweep32' | 'sync16' | 'sync32' | 'glauber16' | 'glauber32' | 'glauberSync16' | 'glauberSync32' | 'transpose' | 'runSync16' | 'runSync32' | 'runAsync16' | 'packRows' | 'overlapsBits'>
+type OverlapExports = KernelsUsing<'runGlauber16' | 'overlaps16' | 'overlaps32' | 'sweep16' | 'sweep32' | 'sync16' | 'sync32' | 'glauber16' | 'glauber32' | 'glauberSync16' | 'glauberSync32' | 'transpose' | 'runSync16' | 'runSync32' | 'runAsync16' | 'packRows' | 'overlapsBits'>
 
 /**
  * Networks whose neuron-major patterns take at least 8 MiB get a private instance, so the
@@ -96,6 +97,8 @@ export class OverlapKernel {
   private readonly bits: Uint8Array
   private readonly stageRows: number
   private readonly end: number
+  /** Glauber's 1 + exp(factor·h) over the integer fields, after the layout (memory reserved on first use). */
+  private readonly table: GlauberTable
   private buffer: ArrayBuffer | null = null
   private u8: Uint8Array = EMPTY.u8
   private s8: Int8Array = EMPTY.i8
@@ -141,6 +144,7 @@ export class OverlapKernel {
     // rows), so no second pattern-sized buffer stays behind in a private memory.
     this.stageRows = Math.min(pp, Math.max(16, Math.floor(STAGE_BYTES / n / 16) * 16))
     this.end = this.stageAt + this.stageRows * n + 32
+    this.table = new GlauberTable(align16(this.end), p * (n + 1))
     this.isPrivate = ws.isPrivate
     ws.reserve(this.end)
     this.xi = this.isPrivate ? new Int8Array(ws.k.memory.buffer, 0, n * pp) : new Int8Array(n * pp)
@@ -252,23 +256,61 @@ export class OverlapKernel {
 
   /** One asynchronous Glauber sweep with noise[k] the uniform of the k-th visit. */
   glauber (state: Int8Array, m: Int32Array, order: Int32Array, noise: Float64Array, factor: number): void {
-    this.enter()
+    const half = this.enterThermal(factor)
     this.pass(state, m)
     this.order32.set(order)
     this.noise64.set(noise.subarray(0, this.n))
     const fn = this.wide ? this.k.glauber32 : this.k.glauber16
-    fn(this.xiAt, this.mAt, this.sAt, this.orderAt, this.noiseAt, this.n, this.stride, this.self, factor)
+    fn(this.xiAt, this.mAt, this.sAt, this.orderAt, this.noiseAt, this.n, this.stride, this.self, factor, this.table.at, half)
     this.leave(state, m, true)
   }
 
   /** One synchronous Glauber step with noise[i] the uniform of neuron i. */
   glauberSync (state: Int8Array, m: Int32Array, noise: Float64Array, factor: number): void {
-    this.enter()
+    const half = this.enterThermal(factor)
     this.pass(state, m)
     this.noise64.set(noise.subarray(0, this.n))
     const fn = this.wide ? this.k.glauberSync32 : this.k.glauberSync16
-    fn(this.xiAt, this.mAt, this.sAt, this.nextAt, this.noiseAt, this.n, this.stride, this.self, factor)
+    fn(this.xiAt, this.mAt, this.sAt, this.nextAt, this.noiseAt, this.n, this.stride, this.self, factor, this.table.at, half)
     this.leave(state, m, true)
+  }
+
+  /**
+   * A whole asynchronous Glauber run from the loaded state: `sweeps` sweeps, each after the
+   * reshuffle of `order` (when `shuffle`) and drawing its uniforms, all from `rng` as the plain
+   * loop does. After each sweep, `state` and `m` hold the network's state and `afterSweep(sweep)`
+   * runs. False when this kernel cannot (int32 overlaps, or a random source other than the
+   * engine's xoshiro256**), with nothing drawn or changed.
+   */
+  runGlauber (state: Int8Array, m: Int32Array, order: Int32Array, sweeps: number, shuffle: boolean, factor: number, rng: RandomSource, afterSweep: (sweep: number) => void): boolean {
+    if (this.wide || sweeps < 1) return false
+    const words = xoshiroState(rng)
+    if (words === null) return false
+    const half = this.enterThermal(factor)
+    this.pass(state, m)
+    this.order32.set(order)
+    stateToKernel(words, rng, this.rng32)
+    withSweepObserver((sweep) => {
+      this.leave(state, m, true)
+      afterSweep(sweep)
+    }, () => this.k.runGlauber16(this.xiAt, this.mAt, this.sAt, this.orderAt, this.n, this.stride, this.self, this.rngAt, sweeps, shuffle ? 1 : 0, factor, this.table.at, half))
+    order.set(this.order32)
+    stateFromKernel(this.rng32, words, rng)
+    return true
+  }
+
+  /** For tests: a copy of the Glauber table as the last sweep left it (entry k is field k − half; 0 = never needed). */
+  glauberTableSnapshot (): { half: number, values: Float64Array } {
+    const half = this.table.halfWidth
+    const values = half < 0 ? new Float64Array(0) : new Float64Array(this.ws.k.memory.buffer, this.table.at, 2 * half + 1).slice()
+    return { half, values }
+  }
+
+  /** Enters with room for the Glauber table, ready for `factor`; returns its half-width. */
+  private enterThermal (factor: number): number {
+    this.ws.reserve(this.table.at + this.table.bytes)
+    this.enter()
+    return this.table.prepare(this.ws.k.memory.buffer, factor)
   }
 
   /** Makes this network's layout current: memory large enough, views fresh, patterns resident. */
@@ -288,6 +330,7 @@ export class OverlapKernel {
       this.rng32 = new Int32Array(buffer, this.rngAt, 10)
     }
     if (ws.residentId !== this.id) {
+      this.table.invalidate()
       if (!this.isPrivate && copyPatterns) {
         this.u8.set(new Uint8Array(this.xi.buffer, this.xi.byteOffset, this.xi.length), this.xiAt)
         this.u8.set(this.bits, this.bitsAt)

@@ -15,16 +15,16 @@ export const KERNEL_SIGNATURES = {
   overlaps16: { params: ['xi', 'm', 's', 'n', 'pp'] },
   sweep16: { params: ['xi', 'm', 's', 'order', 'n', 'pp', 'self'], result: 'i32' },
   sync16: { params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'self', 'check'], result: 'i32' },
-  glauber16: { params: ['xi', 'm', 's', 'order', 'noise', 'n', 'pp', 'self', 'factor:f64'] },
-  glauberSync16: { params: ['xi', 'm', 's', 'next', 'noise', 'n', 'pp', 'self', 'factor:f64'] },
+  glauber16: { params: ['xi', 'm', 's', 'order', 'noise', 'n', 'pp', 'self', 'factor:f64', 'table', 'half'] },
+  glauberSync16: { params: ['xi', 'm', 's', 'next', 'noise', 'n', 'pp', 'self', 'factor:f64', 'table', 'half'] },
   // Overlap space, int32 overlaps (any N).
   dot32: { params: ['xi', 'm', 'pp', 'i'], result: 'i32' },
   flip32: { params: ['xi', 'm', 'pp', 'i', 'd0'] },
   overlaps32: { params: ['xi', 'm', 's', 'n', 'pp'] },
   sweep32: { params: ['xi', 'm', 's', 'order', 'n', 'pp', 'self'], result: 'i32' },
   sync32: { params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'self', 'check'], result: 'i32' },
-  glauber32: { params: ['xi', 'm', 's', 'order', 'noise', 'n', 'pp', 'self', 'factor:f64'] },
-  glauberSync32: { params: ['xi', 'm', 's', 'next', 'noise', 'n', 'pp', 'self', 'factor:f64'] },
+  glauber32: { params: ['xi', 'm', 's', 'order', 'noise', 'n', 'pp', 'self', 'factor:f64', 'table', 'half'] },
+  glauberSync32: { params: ['xi', 'm', 's', 'next', 'noise', 'n', 'pp', 'self', 'factor:f64', 'table', 'half'] },
   // Pattern layouts and sign bits.
   transpose: { params: ['src', 'srcStride', 'cols', 'dst', 'stride', 'rows'] },
   packSigns: { params: ['src', 'n', 'dst', 'words'], result: 'i32' },
@@ -37,6 +37,7 @@ export const KERNEL_SIGNATURES = {
   uniforms: { params: ['out', 'count', 'state'] },
   // Whole overlap-space trials.
   runAsync16: { params: ['xi', 'm', 's', 'order', 'n', 'pp', 'self', 'state', 'max', 'shuffle'], result: 'i32' },
+  runGlauber16: { params: ['xi', 'm', 's', 'order', 'n', 'pp', 'self', 'state', 'max', 'shuffle', 'factor:f64', 'table', 'half'] },
   runSync16: { params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'self', 'max'], result: 'i32' },
   runSync32: { params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'self', 'max'], result: 'i32' },
   // Dense float64 couplings.
@@ -49,9 +50,9 @@ export const KERNEL_SIGNATURES = {
   dense16Load: { params: ['cols', 'bias', 's', 's16', 'h', 'n', 'stride', 'rowsAreColumns'] },
   dense16Set: { params: ['cols', 'h', 'stride', 'j', 'delta'] },
   dense16Sweep: { params: ['cols', 's', 'h', 'order', 'n', 'stride'], result: 'i32' },
-  dense16Glauber: { params: ['cols', 's', 'h', 'order', 'noise', 'n', 'stride', 'factor:f64'] },
+  dense16Glauber: { params: ['cols', 's', 'h', 'order', 'noise', 'n', 'stride', 'factor:f64', 'table', 'half'] },
   dense16Sync: { params: ['cols', 'bias', 's', 's16', 'h', 'next', 'prev', 'n', 'stride', 'check', 'rowsAreColumns'], result: 'i32' },
-  dense16GlauberSync: { params: ['cols', 'bias', 's', 's16', 'h', 'next', 'noise', 'n', 'stride', 'factor:f64', 'rowsAreColumns'] }
+  dense16GlauberSync: { params: ['cols', 'bias', 's', 's16', 'h', 'next', 'noise', 'n', 'stride', 'factor:f64', 'rowsAreColumns', 'table', 'half'] }
 } as const satisfies Record<string, KernelSignature>
 
 /** A parameter: `name` (i32) or `name:f64`. */

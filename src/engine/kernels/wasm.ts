@@ -58,12 +58,35 @@ function kernelModule (): object | null {
   return compiled
 }
 
+let sweepObserver: ((sweep: number) => void) | null = null
+
+/**
+ * Runs `body` (a call into a kernel that runs several sweeps) with `observer` called after
+ * each of its sweeps: the kernels call the host's sweepDone(sweep), which lands here.
+ */
+export function withSweepObserver<R> (observer: (sweep: number) => void, body: () => R): R {
+  sweepObserver = observer
+  try {
+    return body()
+  } finally {
+    sweepObserver = null
+  }
+}
+
+/** The module's imports: the host's exponential (the plain path's Math.exp) and the sweep hook. */
+const HOST = {
+  host: {
+    exp: Math.exp,
+    sweepDone: (sweep: number): void => { sweepObserver?.(sweep) }
+  }
+}
+
 /** A fresh instance of the kernel module (its own linear memory), or null without WebAssembly SIMD. */
 export function instantiateKernels<T> (): T | null {
   const api = wasmApi()
   const mod = kernelModule()
   if (api === null || mod === null) return null
-  return new api.Instance(mod, { host: { exp: Math.exp } }).exports as unknown as T
+  return new api.Instance(mod, HOST).exports as unknown as T
 }
 
 /** A kernel module instance whose linear memory holds one or more networks' data. */

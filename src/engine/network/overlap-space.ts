@@ -160,6 +160,7 @@ function kernelSweeps (kernel: OverlapKernel, state: Int8Array, overlaps: Int32A
       const outcome = kernel.sync(state, overlaps, previous, checkPrevious)
       return outcome === 1 ? 'fixed' : outcome === 2 ? 'cycle2' : 'changed'
     },
+    runGlauber: (order, sweeps, shuffle, factor, rng, afterSweep) => kernel.runGlauber(state, overlaps, order, sweeps, shuffle, factor, rng, afterSweep),
     sweepGlauber: (order, noise, factor) => kernel.glauber(state, overlaps, order, noise, factor),
     stepGlauber: (noise, factor) => kernel.glauberSync(state, overlaps, noise, factor)
   }
