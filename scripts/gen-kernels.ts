@@ -1131,6 +1131,562 @@ function dense16 (): string {
     ${reload})`
 }
 
+/**
+ * Dense associative memories (network/dense-memory.ts), ±1 neurons, raw field
+ * h_i = Σ_μ ξ_i^μ D(r_μ), r_μ = m_μ − ξ_i^μ s_i, read there from a table over the integers.
+ *
+ * ## Why this shape
+ * The plain visit gathers P table entries and adds them in order: P dependent additions. For
+ * s_i = ±1, write t_μ = ξ_i^μ s_i; then ξ_i^μ D(r_μ) is s_i·A_μ where t_μ = 1 and −s_i·B_μ where
+ * t_μ = −1, with A_μ = D(m_μ − 1), B_μ = D(m_μ + 1), so
+ *   h_i = ½ [ s_i Σ_μ (A_μ − B_μ) + Σ_μ ξ_i^μ C_μ ],   C_μ = A_μ + B_μ:
+ * the vector C depends on the overlaps only (rebuilt after a change, which rewrites every m_μ
+ * anyway), and a visit is a masked sum Σ_μ ξ_i^μ C_μ = ΣC − 2 Σ_{ξ_i^μ = −1} C_μ, two float64
+ * lanes per SIMD operation, the masks expanded from the int8 pattern row by byte swizzles.
+ * - Polynomial: D(r) = (r+1)ⁿ − (r−1)ⁿ is an integer. The network runs this kernel only when
+ *   every sum involved is an integer below 2⁵³ (4·P·max|D| < 2⁵³), where float64 addition is
+ *   exact in any order: the field is the plain path's integer, bit for bit, at any temperature.
+ * - Exponential: D(r) ∝ eʳ, and the plain field Σ_μ ξ e^{r_μ − R} (R = max r) is a rounded
+ *   sequential sum. With E_μ = e^{m_μ − M'} (M' = max m + 1, table values) and S = ΣE, the same
+ *   algebra gives h ∝ G = (S − 2 Σ_{ξ=−1} E) − s_i·S·tanh 1 with a positive factor, so the sign
+ *   of G is the sign of the exact field. Both G and the plain sum are within a few P ulps of S
+ *   of their exact values, so where |G| > τ = (16P + 64)·2⁻⁵³·S + P·2⁻¹⁰⁶⁰ (over twice the two
+ *   error bounds together) G's sign is the plain field's sign, and the decision is the plain
+ *   decision. Where |G| ≤ τ (ties, near-ties) the kernel computes the plain field itself, in the
+ *   plain order with the plain table. Zero temperature only (the model allows no other).
+ * Where s_i = 0 (erased cue bits) the polynomial visit also computes the plain field directly.
+ *
+ * Layout: xi neuron-major int8 rows of pp (P rounded up to 16, zero padded; the overlap-space
+ * layout, so overlaps32 and the flip32 update serve here too), m int32 (pp lanes), c float64
+ * (pp), sums float64 ×2 (polynomial: Σ(A−B), ΣC; exponential: S, τ), table float64:
+ * polynomial D(r) at r + off (off = N + 1, r ∈ [−N−1, N+1]), exponential e^{−d} at d ∈ [0, 2N+1].
+ */
+type MemoryKind = 'Poly' | 'Exp'
+
+const MEM_LOCALS = `(local $row i32) (local $r i32) (local $e i32) (local $mp i32) (local $delta i32) (local $x v128) (local $y v128) (local $dv v128)
+    (local $vp i32) (local $nm v128) (local $q0 v128) (local $q1 v128) (local $q2 v128) (local $q3 v128) (local $neg f64) (local $f f64)
+    (local $mu i32) (local $xv i32) (local $top i32) (local $rr i32) (local $k0 f64) (local $k1 f64) (local $k i32) (local $i i32) (local $si i32) (local $v i32)`
+
+/** Σ_{μ: ξ_row^μ = −1} vec_μ into $neg: the row's sign bytes widened to 64-bit lane masks by swizzles. */
+function maskedSum (): string {
+  const lanes: string[] = []
+  for (let q = 0; q < 8; q++) {
+    const index = `${Array(8).fill(2 * q).join(' ')} ${Array(8).fill(2 * q + 1).join(' ')}`
+    lanes.push(`(local.set $q${q % 4} (f64x2.add (local.get $q${q % 4}) (v128.and (i8x16.swizzle (local.get $nm) (v128.const i8x16 ${index})) (v128.load offset=${16 * q} (local.get $vp)))))`)
+  }
+  return `
+      (local.set $r (local.get $row))
+      (local.set $e (i32.add (local.get $row) (local.get $pp)))
+      (local.set $vp (local.get $vec))
+      (local.set $q0 (v128.const i32x4 0 0 0 0))
+      (local.set $q1 (v128.const i32x4 0 0 0 0))
+      (local.set $q2 (v128.const i32x4 0 0 0 0))
+      (local.set $q3 (v128.const i32x4 0 0 0 0))
+      (loop $masked
+        (local.set $nm (i8x16.lt_s (v128.load (local.get $r)) (v128.const i32x4 0 0 0 0)))
+        ${lanes.join('\n        ')}
+        (local.set $vp (i32.add (local.get $vp) (i32.const 128)))
+        (br_if $masked (i32.lt_u (local.tee $r (i32.add (local.get $r) (i32.const 16))) (local.get $e))))
+      (local.set $q0 (f64x2.add (f64x2.add (local.get $q0) (local.get $q1)) (f64x2.add (local.get $q2) (local.get $q3))))
+      (local.set $neg (f64.add (f64x2.extract_lane 0 (local.get $q0)) (f64x2.extract_lane 1 (local.get $q0))))`
+}
+
+const M_AT = (mu: string): string => `(i32.load (i32.add (local.get $m) (i32.shl ${mu} (i32.const 2))))`
+const ROW_AT = (mu: string): string => `(i32.load8_s (i32.add (local.get $row) ${mu}))`
+
+/** The plain path's field, in its order, into $f: Σ_μ ξ·D(m_μ − ξ s_i) (polynomial table at r + off). */
+const EXACT_POLY = `
+      (local.set $f (f64.const 0))
+      (local.set $mu (i32.const 0))
+      (block $exactDone
+        (loop $exact
+          (br_if $exactDone (i32.ge_u (local.get $mu) (local.get $p)))
+          (local.set $xv ${ROW_AT('(local.get $mu)')})
+          (local.set $f (f64.add (local.get $f) (f64.mul (f64.convert_i32_s (local.get $xv))
+            (f64.load (i32.add (local.get $table) (i32.shl (i32.add (i32.sub ${M_AT('(local.get $mu)')} (i32.mul (local.get $xv) (local.get $si))) (local.get $off)) (i32.const 3)))))))
+          (local.set $mu (i32.add (local.get $mu) (i32.const 1)))
+          (br $exact)))`
+
+/** The plain path's exponential field into $f: R = max_μ r_μ, then Σ_μ ξ·e^{−(R − r_μ)} in order. */
+const EXACT_EXP = `
+      (local.set $top (i32.const 0x80000000))
+      (local.set $mu (i32.const 0))
+      (block $topDone
+        (loop $topLoop
+          (br_if $topDone (i32.ge_u (local.get $mu) (local.get $p)))
+          (local.set $rr (i32.sub ${M_AT('(local.get $mu)')} (i32.mul ${ROW_AT('(local.get $mu)')} (local.get $si))))
+          (local.set $top (select (local.get $rr) (local.get $top) (i32.gt_s (local.get $rr) (local.get $top))))
+          (local.set $mu (i32.add (local.get $mu) (i32.const 1)))
+          (br $topLoop)))
+      (local.set $f (f64.const 0))
+      (local.set $mu (i32.const 0))
+      (block $exactDone
+        (loop $exact
+          (br_if $exactDone (i32.ge_u (local.get $mu) (local.get $p)))
+          (local.set $xv ${ROW_AT('(local.get $mu)')})
+          (local.set $f (f64.add (local.get $f) (f64.mul (f64.convert_i32_s (local.get $xv))
+            (f64.load (i32.add (local.get $table) (i32.shl (i32.sub (local.get $top) (i32.sub ${M_AT('(local.get $mu)')} (i32.mul (local.get $xv) (local.get $si)))) (i32.const 3)))))))
+          (local.set $mu (i32.add (local.get $mu) (i32.const 1)))
+          (br $exact)))`
+
+const DECIDE_F = '(select (i32.const 1) (select (i32.const -1) (local.get $si) (f64.lt (local.get $f) (f64.const 0))) (f64.gt (local.get $f) (f64.const 0)))'
+
+/** Leaves the raw field of neuron $i (row $row, state $si) in $f: exact, from the vector C unless s_i = 0. */
+const POLY_FIELD = `
+      (if (local.get $si)
+        (then
+          ${maskedSum()}
+          (local.set $f (f64.mul (f64.add (f64.mul (f64.convert_i32_s (local.get $si)) (local.get $k0)) (f64.sub (local.get $k1) (f64.add (local.get $neg) (local.get $neg)))) (f64.const 0.5))))
+        (else ${EXACT_POLY}))`
+
+/** Leaves the zero-temperature decision for neuron $i in $v: the sign of G where certain, else of the plain field. */
+const EXP_DECIDE = `
+      ${maskedSum()}
+      (local.set $f (f64.sub (f64.sub (local.get $k0) (f64.add (local.get $neg) (local.get $neg)))
+        (f64.mul (f64.mul (f64.convert_i32_s (local.get $si)) (local.get $k0)) (f64.const ${Math.tanh(1)}))))
+      (if (f64.gt (local.get $f) (local.get $k1))
+        (then (local.set $v (i32.const 1)))
+        (else
+          (if (f64.lt (local.get $f) (f64.neg (local.get $k1)))
+            (then (local.set $v (i32.const -1)))
+            (else
+              ${EXACT_EXP}
+              (local.set $v ${DECIDE_F})))))`
+
+function memDecide (kind: MemoryKind): string {
+  return kind === 'Poly' ? `${POLY_FIELD}\n      (local.set $v ${DECIDE_F})` : EXP_DECIDE
+}
+
+/** Makes the vector and its sums current for m, and loads the sums into $k0, $k1. */
+function memRefresh (kind: MemoryKind): string {
+  const args = kind === 'Poly' ? '(local.get $m) (local.get $vec) (local.get $table) (local.get $p) (local.get $off) (local.get $sums)' : '(local.get $m) (local.get $vec) (local.get $table) (local.get $p) (local.get $sums)'
+  return `(call $memVector${kind} ${args})
+      (local.set $k0 (f64.load (local.get $sums)))
+      (local.set $k1 (f64.load offset=8 (local.get $sums)))`
+}
+
+/** s_i ← $v, m += (v − s_i)·ξ_i, vector rebuilt. */
+function memChange (kind: MemoryKind): string {
+  return `(i32.store8 (i32.add (local.get $s) (local.get $i)) (local.get $v))
+          (local.set $delta (i32.sub (local.get $v) (local.get $si)))
+          ${flip(32)}
+          ${memRefresh(kind)}`
+}
+
+function denseMemory (kind: MemoryKind): string {
+  const vector = kind === 'Poly'
+    ? `
+  ;; C_μ = D(m_μ − 1) + D(m_μ + 1), and Σ(A − B), ΣC into sums (exact integers: see the eligibility).
+  ${header('memVectorPoly', '$memVectorPoly')}
+    (local $mu i32) (local $ix i32) (local $a f64) (local $b f64) (local $sab f64) (local $sc f64)
+    (block $done
+      (loop $each
+        (br_if $done (i32.ge_u (local.get $mu) (local.get $p)))
+        (local.set $ix (i32.add (local.get $table) (i32.shl (i32.add ${M_AT('(local.get $mu)')} (local.get $off)) (i32.const 3))))
+        (local.set $a (f64.load (i32.sub (local.get $ix) (i32.const 8))))
+        (local.set $b (f64.load offset=8 (local.get $ix)))
+        (f64.store (i32.add (local.get $vec) (i32.shl (local.get $mu) (i32.const 3))) (f64.add (local.get $a) (local.get $b)))
+        (local.set $sab (f64.add (local.get $sab) (f64.sub (local.get $a) (local.get $b))))
+        (local.set $sc (f64.add (local.get $sc) (f64.add (local.get $a) (local.get $b))))
+        (local.set $mu (i32.add (local.get $mu) (i32.const 1)))
+        (br $each)))
+    (f64.store (local.get $sums) (local.get $sab))
+    (f64.store offset=8 (local.get $sums) (local.get $sc)))`
+    : `
+  ;; E_μ = e^{−(M' − m_μ)}, M' = max m + 1, then S = ΣE and the certainty margin τ into sums.
+  ${header('memVectorExp', '$memVectorExp')}
+    (local $mu i32) (local $top i32) (local $mm i32) (local $ev f64) (local $sum f64)
+    (local.set $top (i32.const 0x80000000))
+    (block $done
+      (loop $each
+        (br_if $done (i32.ge_u (local.get $mu) (local.get $p)))
+        (local.set $mm ${M_AT('(local.get $mu)')})
+        (local.set $top (select (local.get $mm) (local.get $top) (i32.gt_s (local.get $mm) (local.get $top))))
+        (local.set $mu (i32.add (local.get $mu) (i32.const 1)))
+        (br $each)))
+    (local.set $top (i32.add (local.get $top) (i32.const 1)))
+    (local.set $mu (i32.const 0))
+    (block $done2
+      (loop $each2
+        (br_if $done2 (i32.ge_u (local.get $mu) (local.get $p)))
+        (local.set $ev (f64.load (i32.add (local.get $table) (i32.shl (i32.sub (local.get $top) ${M_AT('(local.get $mu)')}) (i32.const 3)))))
+        (f64.store (i32.add (local.get $vec) (i32.shl (local.get $mu) (i32.const 3))) (local.get $ev))
+        (local.set $sum (f64.add (local.get $sum) (local.get $ev)))
+        (local.set $mu (i32.add (local.get $mu) (i32.const 1)))
+        (br $each2)))
+    (f64.store (local.get $sums) (local.get $sum))
+    (f64.store offset=8 (local.get $sums) (f64.add
+      (f64.mul (local.get $sum) (f64.mul (f64.convert_i32_u (i32.add (i32.shl (local.get $p) (i32.const 4)) (i32.const 64))) (f64.const 0x1p-53)))
+      (f64.mul (f64.convert_i32_u (local.get $p)) (f64.const 0x1p-1060)))))`
+  const glauber = kind === 'Exp'
+    ? ''
+    : `
+  ;; Asynchronous Glauber sweep (polynomial): s_i ← +1 iff noise[k]·(1 + exp(factor·h_i)) < 1.
+  ${header('memGlauberPoly')}
+    ${MEM_LOCALS}
+    ${memRefresh(kind)}
+    (local.set $k (i32.const 0))
+    (loop $visit
+      (local.set $i (i32.load (i32.add (local.get $order) (i32.shl (local.get $k) (i32.const 2)))))
+      (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+      (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+      ${POLY_FIELD}
+      (local.set $v (select (i32.const 1) (i32.const -1)
+        (f64.lt (f64.mul (f64.load (i32.add (local.get $noise) (i32.shl (local.get $k) (i32.const 3))))
+          (f64.add (f64.const 1) (call $exp (f64.mul (local.get $factor) (local.get $f))))) (f64.const 1))))
+      (if (i32.ne (local.get $v) (local.get $si)) (then ${memChange(kind)}))
+      (br_if $visit (i32.lt_u (local.tee $k (i32.add (local.get $k) (i32.const 1))) (local.get $n)))))
+
+  ;; Synchronous Glauber step (polynomial): next_i from the current state, then s, m ← next.
+  ${header('memGlauberSyncPoly')}
+    ${MEM_LOCALS}
+    ${memRefresh(kind)}
+    (local.set $i (i32.const 0))
+    (loop $visit
+      (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+      (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+      ${POLY_FIELD}
+      (i32.store8 (i32.add (local.get $next) (local.get $i)) (select (i32.const 1) (i32.const -1)
+        (f64.lt (f64.mul (f64.load (i32.add (local.get $noise) (i32.shl (local.get $i) (i32.const 3))))
+          (f64.add (f64.const 1) (call $exp (f64.mul (local.get $factor) (local.get $f))))) (f64.const 1))))
+      (br_if $visit (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))
+    ${memApply()})`
+  return `${vector}
+
+  ;; Zero-temperature asynchronous sweep in the given order; returns 1 if any neuron changed.
+  ${header(`memSweep${kind}`)}
+    ${MEM_LOCALS} (local $changed i32)
+    ${memRefresh(kind)}
+    (local.set $k (i32.const 0))
+    (loop $visit
+      (local.set $i (i32.load (i32.add (local.get $order) (i32.shl (local.get $k) (i32.const 2)))))
+      (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+      (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+      ${memDecide(kind)}
+      (if (i32.ne (local.get $v) (local.get $si))
+        (then
+          ${memChange(kind)}
+          (local.set $changed (i32.const 1))))
+      (br_if $visit (i32.lt_u (local.tee $k (i32.add (local.get $k) (i32.const 1))) (local.get $n))))
+    (local.get $changed))
+
+  ;; Zero-temperature synchronous step (the contract of sync16): 1 fixed point (nothing written),
+  ;; 2 two-cycle (compared when $check), else 0; unless 1, prev ← s(t−1) and s, m ← s(t).
+  ${header(`memSync${kind}`)}
+    ${MEM_LOCALS} (local $same i32)
+    ${memRefresh(kind)}
+    (local.set $same (i32.const 1))
+    (local.set $i (i32.const 0))
+    (loop $visit
+      (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+      (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+      ${memDecide(kind)}
+      (i32.store8 (i32.add (local.get $next) (local.get $i)) (local.get $v))
+      (if (i32.ne (local.get $v) (local.get $si)) (then (local.set $same (i32.const 0))))
+      (br_if $visit (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))
+    (if (local.get $same) (then (return (i32.const 1))))
+    ${TWO_CYCLE_CHECK}
+    ${memApply(true)}
+    (local.get $same))
+${glauber}`
+}
+
+/** s, m ← next, m updated from the changed neurons only; with `keepPrevious`, prev ← s first. */
+function memApply (keepPrevious = false): string {
+  return `(local.set $i (i32.const 0))
+    (loop $apply
+      (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+      (local.set $v (i32.load8_s (i32.add (local.get $next) (local.get $i))))
+      ${keepPrevious ? '(i32.store8 (i32.add (local.get $prev) (local.get $i)) (local.get $si))' : ''}
+      (if (i32.ne (local.get $v) (local.get $si))
+        (then
+          (i32.store8 (i32.add (local.get $s) (local.get $i)) (local.get $v))
+          (local.set $delta (i32.sub (local.get $v) (local.get $si)))
+          (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+          ${flip(32)}))
+      (br_if $apply (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))`
+}
+
+/**
+ * The modern softmax network (models/softmax/memory.ts): ±1 patterns x^μ (int8, pattern-major,
+ * rows of d entries, the JavaScript layout itself) against a float64 state.
+ *
+ * ## Why this shape
+ * The plain overlap x^μ·ξ is a sequential sum over i, one dependent addition per entry. Here
+ * eight patterns run side by side, two per f64x2 lane pair, so eight such sums advance at
+ * once, each lane adding exactly the plain terms in the plain order: the product of a ±1 entry
+ * and a double is that double with its sign flipped or not, an exact operation done here by
+ * XOR with the entry's sign bit (moved into place by a byte shuffle). The accumulation
+ * out = Σ_μ c_μ x^μ runs sixteen entries of out at a time, each adding c_μ·x_i^μ in μ order, as
+ * the plain loop does. Patterns left over from the blocks of eight run one at a time.
+ * Rows are read sixteen bytes at a time past their end (up to 15 bytes of the next row, or of
+ * the slack after the last): in the overlap pass those bytes meet state entries padded with
+ * +0, whose sign flip adds ±0 and changes no sum; in the accumulation they only touch padding
+ * entries of out, which the caller never reads.
+ */
+const SIGN64 = '(v128.const i64x2 0x8000000000000000 0x8000000000000000)'
+
+function softmax (): string {
+  const pairMask = (a: string, b: string, t: number): string =>
+    `(v128.and (i8x16.shuffle ${Array(8).fill(t).join(' ')} ${Array(8).fill(16 + t).join(' ')} (local.get ${a}) (local.get ${b})) ${SIGN64})`
+  const overlapStep: string[] = []
+  for (let t = 0; t < 16; t++) {
+    overlapStep.push(`(local.set $sv (f64x2.splat (f64.load offset=${8 * t} (local.get $sp))))`)
+    for (let q = 0; q < 4; q++) {
+      overlapStep.push(`(local.set $a${q} (f64x2.add (local.get $a${q}) (v128.xor (local.get $sv) ${pairMask(`$v${2 * q}`, `$v${2 * q + 1}`, t)})))`)
+    }
+  }
+  const loads = [0, 1, 2, 3, 4, 5, 6, 7].map((j) => `(local.set $v${j} (v128.load (i32.add (local.get $r${j}) (local.get $i))))`).join('\n          ')
+  const rows = [1, 2, 3, 4, 5, 6, 7].map((j) => `(local.set $r${j} (i32.add (local.get $r${j - 1}) (local.get $d)))`).join('\n        ')
+  const stores: string[] = []
+  for (let q = 0; q < 4; q++) {
+    stores.push(`(f64.store offset=${16 * q} (local.get $op) (f64.mul (f64x2.extract_lane 0 (local.get $a${q})) (local.get $scale)))`)
+    stores.push(`(f64.store offset=${16 * q + 8} (local.get $op) (f64.mul (f64x2.extract_lane 1 (local.get $a${q})) (local.get $scale)))`)
+  }
+  const accumulate: string[] = []
+  for (let q = 0; q < 8; q++) {
+    accumulate.push(`(local.set $a${q} (f64x2.add (local.get $a${q}) (v128.xor (local.get $cv) (v128.and (i8x16.shuffle ${Array(8).fill(2 * q).join(' ')} ${Array(8).fill(2 * q + 1).join(' ')} (local.get $v0) (local.get $v0)) ${SIGN64}))))`)
+  }
+  return `
+  ;; out[μ] = (Σ_i x_i^μ·st[i]) · scale for μ < p, each sum in the plain order (st padded with +0 to a multiple of 16).
+  ${header('softmaxOverlaps')}
+    (local $mu i32) (local $i i32) (local $sp i32) (local $op i32) (local $sv v128) (local $dot f64) (local $rr i32)
+    (local $a0 v128) (local $a1 v128) (local $a2 v128) (local $a3 v128)
+    (local $v0 v128) (local $v1 v128) (local $v2 v128) (local $v3 v128) (local $v4 v128) (local $v5 v128) (local $v6 v128) (local $v7 v128)
+    (local $r0 i32) (local $r1 i32) (local $r2 i32) (local $r3 i32) (local $r4 i32) (local $r5 i32) (local $r6 i32) (local $r7 i32)
+    (block $blocksDone
+      (loop $block
+        (br_if $blocksDone (i32.gt_u (i32.add (local.get $mu) (i32.const 8)) (local.get $p)))
+        (local.set $r0 (i32.add (local.get $pat) (i32.mul (local.get $mu) (local.get $d))))
+        ${rows}
+        (local.set $a0 (v128.const i32x4 0 0 0 0))
+        (local.set $a1 (v128.const i32x4 0 0 0 0))
+        (local.set $a2 (v128.const i32x4 0 0 0 0))
+        (local.set $a3 (v128.const i32x4 0 0 0 0))
+        (local.set $i (i32.const 0))
+        (local.set $sp (local.get $st))
+        (loop $chunk
+          ${loads}
+          ${overlapStep.join('\n          ')}
+          (local.set $sp (i32.add (local.get $sp) (i32.const 128)))
+          (br_if $chunk (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 16))) (local.get $d))))
+        (local.set $op (i32.add (local.get $out) (i32.shl (local.get $mu) (i32.const 3))))
+        ${stores.join('\n        ')}
+        (local.set $mu (i32.add (local.get $mu) (i32.const 8)))
+        (br $block)))
+    (block $tailDone
+      (loop $tail
+        (br_if $tailDone (i32.ge_u (local.get $mu) (local.get $p)))
+        (local.set $rr (i32.add (local.get $pat) (i32.mul (local.get $mu) (local.get $d))))
+        (local.set $dot (f64.const 0))
+        (local.set $i (i32.const 0))
+        (loop $entry
+          (local.set $dot (f64.add (local.get $dot) (f64.mul (f64.convert_i32_s (i32.load8_s (i32.add (local.get $rr) (local.get $i)))) (f64.load (i32.add (local.get $st) (i32.shl (local.get $i) (i32.const 3)))))))
+          (br_if $entry (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $d))))
+        (f64.store (i32.add (local.get $out) (i32.shl (local.get $mu) (i32.const 3))) (f64.mul (local.get $dot) (local.get $scale)))
+        (local.set $mu (i32.add (local.get $mu) (i32.const 1)))
+        (br $tail))))
+
+  ;; out[i] = Σ_μ coef[μ]·x_i^μ for i < d (rounded up to 16), each starting from +0 and adding in μ order.
+  ${header('softmaxAccumulate')}
+    (local $mu i32) (local $i i32) (local $rp i32) (local $op i32) (local $cv v128)
+    (local $a0 v128) (local $a1 v128) (local $a2 v128) (local $a3 v128) (local $a4 v128) (local $a5 v128) (local $a6 v128) (local $a7 v128) (local $v0 v128)
+    (loop $chunk
+      ${[0, 1, 2, 3, 4, 5, 6, 7].map((q) => `(local.set $a${q} (v128.const i32x4 0 0 0 0))`).join(' ')}
+      (local.set $rp (i32.add (local.get $pat) (local.get $i)))
+      (local.set $mu (i32.const 0))
+      (block $patternsDone
+        (loop $pattern
+          (br_if $patternsDone (i32.ge_u (local.get $mu) (local.get $p)))
+          (local.set $cv (f64x2.splat (f64.load (i32.add (local.get $coef) (i32.shl (local.get $mu) (i32.const 3))))))
+          (local.set $v0 (v128.load (local.get $rp)))
+          ${accumulate.join('\n          ')}
+          (local.set $rp (i32.add (local.get $rp) (local.get $d)))
+          (local.set $mu (i32.add (local.get $mu) (i32.const 1)))
+          (br $pattern)))
+      (local.set $op (i32.add (local.get $out) (i32.shl (local.get $i) (i32.const 3))))
+      ${[0, 1, 2, 3, 4, 5, 6, 7].map((q) => `(v128.store offset=${16 * q} (local.get $op) (local.get $a${q}))`).join(' ')}
+      (br_if $chunk (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 16))) (local.get $d)))))`
+}
+
+/**
+ * The fixed in-degree network (network/sparse-in-degree.ts): integer couplings in adjacency
+ * lists, exact int32 fields h (the network checks K·max|T| < 2³¹). A change of s_j by Δ adds
+ * Δ·T_ij to the fields of the neurons j projects to (out-lists: outStart, targets, tw).
+ *
+ * ## Why this shape
+ * The plain path pays a JavaScript call and bounds checks per visit and per edge; here a
+ * whole sweep (or a whole zero-temperature trial, shuffles included) is one call, and the
+ * field build h = T s runs along the out-lists too, so the kernel keeps those alone (8·N·K
+ * bytes, where the plain path also keeps the rows). Integer sums are exact in any order, so
+ * every field, and every decision (ties keep s_i), is the plain one.
+ */
+const SPARSE_DECIDE = '(select (i32.const 1) (select (i32.const -1) (local.get $si) (i32.lt_s (local.get $hi) (i32.const 0))) (i32.gt_s (local.get $hi) (i32.const 0)))'
+
+/** s_j changed by $delta: the fields of j's targets follow. Uses $j $e $ee. */
+const SPARSE_SCATTER = `
+          (local.set $e (i32.load (i32.add (local.get $outStart) (i32.shl (local.get $j) (i32.const 2)))))
+          (local.set $ee (i32.load offset=4 (i32.add (local.get $outStart) (i32.shl (local.get $j) (i32.const 2)))))
+          (block $scattered
+            (loop $scatter
+              (br_if $scattered (i32.ge_u (local.get $e) (local.get $ee)))
+              (local.set $ta (i32.add (local.get $h) (i32.shl (i32.load (i32.add (local.get $targets) (i32.shl (local.get $e) (i32.const 2)))) (i32.const 2))))
+              (i32.store (local.get $ta) (i32.add (i32.load (local.get $ta)) (i32.mul (local.get $delta) (i32.load (i32.add (local.get $tw) (i32.shl (local.get $e) (i32.const 2)))))))
+              (local.set $e (i32.add (local.get $e) (i32.const 1)))
+              (br $scatter)))`
+
+const SPARSE_LOCALS = '(local $kk i32) (local $j i32) (local $si i32) (local $v i32) (local $hi i32) (local $delta i32) (local $e i32) (local $ee i32) (local $ta i32)'
+
+/** One zero-temperature asynchronous sweep over $order; sets $changed. */
+const SPARSE_SWEEP = `
+    (local.set $kk (i32.const 0))
+    (block $swept
+      (loop $visit
+        (br_if $swept (i32.ge_u (local.get $kk) (local.get $n)))
+        (local.set $j (i32.load (i32.add (local.get $order) (i32.shl (local.get $kk) (i32.const 2)))))
+        (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $j))))
+        (local.set $hi (i32.load (i32.add (local.get $h) (i32.shl (local.get $j) (i32.const 2)))))
+        (local.set $v ${SPARSE_DECIDE})
+        (if (i32.ne (local.get $v) (local.get $si))
+          (then
+            (i32.store8 (i32.add (local.get $s) (local.get $j)) (local.get $v))
+            (local.set $delta (i32.sub (local.get $v) (local.get $si)))
+            ${SPARSE_SCATTER}
+            (local.set $changed (i32.const 1))))
+        (local.set $kk (i32.add (local.get $kk) (i32.const 1)))
+        (br $visit)))`
+
+/** s ← next with the fields following every change; with `keepPrevious`, prev ← s first. */
+function sparseApply (keepPrevious: boolean): string {
+  return `(local.set $j (i32.const 0))
+    (block $applied
+      (loop $apply
+        (br_if $applied (i32.ge_u (local.get $j) (local.get $n)))
+        (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $j))))
+        (local.set $v (i32.load8_s (i32.add (local.get $next) (local.get $j))))
+        ${keepPrevious ? '(i32.store8 (i32.add (local.get $prev) (local.get $j)) (local.get $si))' : ''}
+        (if (i32.ne (local.get $v) (local.get $si))
+          (then
+            (i32.store8 (i32.add (local.get $s) (local.get $j)) (local.get $v))
+            (local.set $delta (i32.sub (local.get $v) (local.get $si)))
+            ${SPARSE_SCATTER}))
+        (local.set $j (i32.add (local.get $j) (i32.const 1)))
+        (br $apply)))`
+}
+
+function sparse (): string {
+  const glauberUp = (noiseIndex: string): string => `
+        ${onePlusExp('(local.get $hi)')}
+        (local.set $v (select (i32.const 1) (i32.const -1)
+          (f64.lt (f64.mul (f64.load (i32.add (local.get $noise) (i32.shl ${noiseIndex} (i32.const 3)))) (local.get $g)) (f64.const 1))))`
+  return `
+  ;; h = T s from scratch, column by column: h ← 0, then every neuron j with s_j ≠ 0 adds s_j·T_·j
+  ;; along its out-list (the rows themselves are not kept; integer sums are exact in any order).
+  ${header('sparseLoad')}
+    ${SPARSE_LOCALS}
+    (memory.fill (local.get $h) (i32.const 0) (i32.shl (local.get $n) (i32.const 2)))
+    (local.set $j (i32.const 0))
+    (block $loaded
+      (loop $column
+        (br_if $loaded (i32.ge_u (local.get $j) (local.get $n)))
+        (local.set $delta (i32.load8_s (i32.add (local.get $s) (local.get $j))))
+        (if (local.get $delta) (then ${SPARSE_SCATTER}))
+        (local.set $j (i32.add (local.get $j) (i32.const 1)))
+        (br $column)))
+    )
+
+  ;; One zero-temperature asynchronous sweep in the given order; returns 1 if any neuron changed.
+  ${header('sparseSweep')}
+    ${SPARSE_LOCALS} (local $changed i32)
+    ${SPARSE_SWEEP}
+    (local.get $changed))
+
+  ;; A whole zero-temperature asynchronous trial (the contract of runAsync16): returns 2·sweeps + (1 if the last sweep changed a neuron).
+  ${header('sparseRunAsync')}
+    ${SPARSE_LOCALS} (local $changed i32) (local $sweeps i32) (local $drew i32)
+    (local $s0 i64) (local $s1 i64) (local $s2 i64) (local $s3 i64) (local $t i64) (local $x i64)
+    (local $fi i32) (local $fj i32) (local $fpi i32) (local $fpj i32) (local $ftmp i32)
+    ${XOSHIRO_LOAD}
+    (loop $trial
+      (local.set $sweeps (i32.add (local.get $sweeps) (i32.const 1)))
+      (if (i32.and (local.get $shuffle) (i32.ge_u (local.get $n) (i32.const 2)))
+        (then
+          (local.set $drew (i32.const 1))
+          (local.set $fi (i32.sub (local.get $n) (i32.const 1)))
+          (loop $draw
+            ${XOSHIRO_NEXT}
+            (local.set $t (i64.extend_i32_u (i32.add (local.get $fi) (i32.const 1))))
+            (local.set $fj ${BELOW_T})
+            (local.set $fpi (i32.add (local.get $order) (i32.shl (local.get $fi) (i32.const 2))))
+            (local.set $fpj (i32.add (local.get $order) (i32.shl (local.get $fj) (i32.const 2))))
+            (local.set $ftmp (i32.load (local.get $fpi)))
+            (i32.store (local.get $fpi) (i32.load (local.get $fpj)))
+            (i32.store (local.get $fpj) (local.get $ftmp))
+            (br_if $draw (local.tee $fi (i32.sub (local.get $fi) (i32.const 1)))))))
+      (local.set $changed (i32.const 0))
+      ${SPARSE_SWEEP}
+      (br_if $trial (i32.and (local.get $changed) (i32.lt_u (local.get $sweeps) (local.get $max)))))
+    (i64.store (local.get $state) (local.get $s0))
+    (i64.store offset=8 (local.get $state) (local.get $s1))
+    (i64.store offset=16 (local.get $state) (local.get $s2))
+    (i64.store offset=24 (local.get $state) (local.get $s3))
+    (if (local.get $drew) (then (i64.store offset=32 (local.get $state) (local.get $x))))
+    (i32.add (i32.shl (local.get $sweeps) (i32.const 1)) (local.get $changed)))
+
+  ;; Zero-temperature synchronous step (the contract of sync16); the fields follow the changes.
+  ${header('sparseSync')}
+    ${SPARSE_LOCALS} (local $same i32) (local $i i32)
+    (local.set $same (i32.const 1))
+    (local.set $j (i32.const 0))
+    (block $decided
+      (loop $decide
+        (br_if $decided (i32.ge_u (local.get $j) (local.get $n)))
+        (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $j))))
+        (local.set $hi (i32.load (i32.add (local.get $h) (i32.shl (local.get $j) (i32.const 2)))))
+        (local.set $v ${SPARSE_DECIDE})
+        (i32.store8 (i32.add (local.get $next) (local.get $j)) (local.get $v))
+        (if (i32.ne (local.get $v) (local.get $si)) (then (local.set $same (i32.const 0))))
+        (local.set $j (i32.add (local.get $j) (i32.const 1)))
+        (br $decide)))
+    (if (local.get $same) (then (return (i32.const 1))))
+    ${TWO_CYCLE_CHECK}
+    ${sparseApply(true)}
+    (local.get $same))
+
+  ;; Asynchronous Glauber sweep, noise[k] the uniform of the k-th visit (1 + exp(factor·h) tabulated).
+  ${header('sparseGlauber')}
+    ${SPARSE_LOCALS} ${TABLE_LOCALS}
+    (local.set $kk (i32.const 0))
+    (block $swept
+      (loop $visit
+        (br_if $swept (i32.ge_u (local.get $kk) (local.get $n)))
+        (local.set $j (i32.load (i32.add (local.get $order) (i32.shl (local.get $kk) (i32.const 2)))))
+        (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $j))))
+        (local.set $hi (i32.load (i32.add (local.get $h) (i32.shl (local.get $j) (i32.const 2)))))
+        ${glauberUp('(local.get $kk)')}
+        (if (i32.ne (local.get $v) (local.get $si))
+          (then
+            (i32.store8 (i32.add (local.get $s) (local.get $j)) (local.get $v))
+            (local.set $delta (i32.sub (local.get $v) (local.get $si)))
+            ${SPARSE_SCATTER}))
+        (local.set $kk (i32.add (local.get $kk) (i32.const 1)))
+        (br $visit))))
+
+  ;; Synchronous Glauber step: next_j from h_j and noise[j], then s ← next with the fields following.
+  ${header('sparseGlauberSync')}
+    ${SPARSE_LOCALS} ${TABLE_LOCALS}
+    (local.set $j (i32.const 0))
+    (block $decided
+      (loop $decide
+        (br_if $decided (i32.ge_u (local.get $j) (local.get $n)))
+        (local.set $hi (i32.load (i32.add (local.get $h) (i32.shl (local.get $j) (i32.const 2)))))
+        ${glauberUp('(local.get $j)')}
+        (i32.store8 (i32.add (local.get $next) (local.get $j)) (local.get $v))
+        (local.set $j (i32.add (local.get $j) (i32.const 1)))
+        (br $decide)))
+    ${sparseApply(false)})`
+}
+
 /** The module's WebAssembly text: every function, in the order the binary lists them. */
 export function kernelsWat (): string {
   emitted.clear()
@@ -1152,6 +1708,10 @@ ${runSync(16)}
 ${runSync(32)}
 ${dense()}
 ${dense16()}
+${denseMemory('Poly')}
+${denseMemory('Exp')}
+${softmax()}
+${sparse()}
 )
 `
   const missing = Object.keys(KERNEL_SIGNATURES).filter((name) => !emitted.has(name))

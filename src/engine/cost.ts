@@ -2,6 +2,9 @@ import type { PointParams } from './params.js'
 import { chooseRepresentation, type Representation } from './network/build.js'
 import { OverlapKernel } from './kernels/overlap-kernel.js'
 import { glauberTableBytes } from './kernels/glauber-table.js'
+import { denseMemoryKernelExtraBytes, polynomialKernelFits } from './kernels/dense-memory-kernel.js'
+import { softmaxKernelExtraBytes } from './kernels/softmax-kernel.js'
+import { sparseKernelExtraBytes } from './kernels/sparse-kernel.js'
 
 export interface PointCost {
   /** Peak bytes one runner holds for this point (network, patterns, scratch). */
@@ -65,22 +68,35 @@ export function estimatePointCost (p: PointParams): PointCost {
   }
 }
 
+/** Below this many bytes a kernel's large array lives in a shared instance as a second copy. */
+const KERNEL_PRIVATE_BYTES = 8 * 1024 * 1024
+const align16 = (x: number): number => (x + 15) & ~15
+/** The copy a shared kernel instance keeps of a small network's large array (counted while it is resident). */
+const sharedCopy = (bytes: number): number => bytes < KERNEL_PRIVATE_BYTES ? bytes : 0
+
 /**
  * The representations without a coupling matrix: dense memories and the softmax network
  * hold the patterns twice (O(P) per visit or per state component), the fixed in-degree
- * network four N·K arrays (O(K) per visit at most). Null for the others.
+ * network its N·K lists (O(K) per visit at most). Their WebAssembly kernels add their layouts
+ * (kernels/*-kernel.ts). Null for the others.
  */
 function modelCost (p: PointParams, representation: Representation, baseBytes: number, neuronUpdatesPerTrial: number): PointCost | null {
   const n = p.neurons
   const count = p.patterns
   switch (representation) {
-    case 'dense-memory':
-      return { bytes: baseBytes + n * count + 4 * count + 16 * n, neuronUpdatesPerTrial, buildOpsPerNetwork: 2 * n * count, opsPerVisit: p.rule.kind === 'dense-exponential' ? 2 * count : count }
+    case 'dense-memory': {
+      const kernel = p.rule.kind === 'dense-exponential' || (p.rule.kind === 'dense-polynomial' && polynomialKernelFits(n, count, p.rule.degree))
+      // The neuron-major copy (rows padded to 16 in the kernel), the plain table, the overlaps.
+      const byNeuron = kernel ? n * align16(count) : n * count
+      const kernelBytes = kernel ? denseMemoryKernelExtraBytes(n, count) + sharedCopy(byNeuron) : 0
+      return { bytes: baseBytes + byNeuron + 4 * count + 16 * n + kernelBytes, neuronUpdatesPerTrial, buildOpsPerNetwork: 2 * n * count, opsPerVisit: p.rule.kind === 'dense-exponential' ? 2 * count : count }
+    }
     case 'softmax-continuous':
-      return { bytes: baseBytes + 8 * count + 16 * n, neuronUpdatesPerTrial, buildOpsPerNetwork: n * count, opsPerVisit: 2 * count }
+      return { bytes: baseBytes + 8 * count + 16 * n + softmaxKernelExtraBytes(n, count) + sharedCopy(n * count), neuronUpdatesPerTrial, buildOpsPerNetwork: n * count, opsPerVisit: 2 * count }
     case 'sparse-in-degree': {
       const k = p.dilution?.kind === 'fixed-in-degree' ? p.dilution.inDegree : n
-      return { bytes: baseBytes + n * count + 16 * n * k + 12 * n, neuronUpdatesPerTrial, buildOpsPerNetwork: n * k * (count + 8), opsPerVisit: k }
+      // While the network is built, the rule's rows (8·N·K) and the out-lists (8·N·K) are both alive.
+      return { bytes: baseBytes + n * count + 16 * n * k + 12 * n + sparseKernelExtraBytes(n) + sharedCopy(8 * n * k), neuronUpdatesPerTrial, buildOpsPerNetwork: n * k * (count + 8), opsPerVisit: k }
     }
     default:
       return null

@@ -94,7 +94,7 @@ function createSoftmaxRunner (p: PointParams, beta: number, masterSeed: number, 
   }
   return {
     representation: 'softmax-continuous',
-    get fastPath () { return cached === null ? null : 'js' },
+    get fastPath () { return cached === null ? null : cached.fastPath },
     algorithm: RNG_ALGORITHM,
     runTrial (trial: number): TrialRecord {
       const mem = memoryFor(Math.floor(trial / p.trialsPerNetwork))

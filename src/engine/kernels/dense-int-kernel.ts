@@ -115,7 +115,9 @@ export class DenseIntKernel {
     this.noiseAt = align16(this.orderAt + 4 * n)
     this.end = this.noiseAt + 8 * n
     this.table = new GlauberTable(align16(this.end), fieldBound)
-    ws.reserve(this.end)
+    // A private memory never grows after this (`columns` is a view into it): the Glauber
+    // table's room is reserved now; a shared one grows on first thermal use.
+    ws.reserve(this.isPrivate ? this.table.at + this.table.bytes : this.end)
     this.bias = new Int32Array(stride)
     this.bias.set(bias)
     this.columns = this.isPrivate ? new Int16Array(ws.k.memory.buffer, this.colsAt, n * stride) : new Int16Array(n * stride)

@@ -146,7 +146,9 @@ export class OverlapKernel {
     this.end = this.stageAt + this.stageRows * n + 32
     this.table = new GlauberTable(align16(this.end), p * (n + 1))
     this.isPrivate = ws.isPrivate
-    ws.reserve(this.end)
+    // A private memory never grows after this (`xi` is a view into it): the Glauber table's
+    // room is reserved now; a shared one grows on first thermal use.
+    ws.reserve(this.isPrivate ? this.table.at + this.table.bytes : this.end)
     this.xi = this.isPrivate ? new Int8Array(ws.k.memory.buffer, 0, n * pp) : new Int8Array(n * pp)
     this.bits = this.isPrivate ? EMPTY.u8 : new Uint8Array(8 * this.words * p)
   }

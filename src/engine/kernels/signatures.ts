@@ -52,7 +52,26 @@ export const KERNEL_SIGNATURES = {
   dense16Sweep: { params: ['cols', 's', 'h', 'order', 'n', 'stride'], result: 'i32' },
   dense16Glauber: { params: ['cols', 's', 'h', 'order', 'noise', 'n', 'stride', 'factor:f64', 'table', 'half'] },
   dense16Sync: { params: ['cols', 'bias', 's', 's16', 'h', 'next', 'prev', 'n', 'stride', 'check', 'rowsAreColumns'], result: 'i32' },
-  dense16GlauberSync: { params: ['cols', 'bias', 's', 's16', 'h', 'next', 'noise', 'n', 'stride', 'factor:f64', 'rowsAreColumns', 'table', 'half'] }
+  dense16GlauberSync: { params: ['cols', 'bias', 's', 's16', 'h', 'next', 'noise', 'n', 'stride', 'factor:f64', 'rowsAreColumns', 'table', 'half'] },
+  // Dense associative memories: polynomial (exact integer fields) and exponential (certified signs).
+  memVectorPoly: { params: ['m', 'vec', 'table', 'p', 'off', 'sums'] },
+  memSweepPoly: { params: ['xi', 'm', 's', 'order', 'n', 'pp', 'p', 'vec', 'table', 'off', 'sums'], result: 'i32' },
+  memSyncPoly: { params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'p', 'vec', 'table', 'off', 'sums', 'check'], result: 'i32' },
+  memGlauberPoly: { params: ['xi', 'm', 's', 'order', 'noise', 'n', 'pp', 'p', 'vec', 'table', 'off', 'sums', 'factor:f64'] },
+  memGlauberSyncPoly: { params: ['xi', 'm', 's', 'next', 'noise', 'n', 'pp', 'p', 'vec', 'table', 'off', 'sums', 'factor:f64'] },
+  memVectorExp: { params: ['m', 'vec', 'table', 'p', 'sums'] },
+  memSweepExp: { params: ['xi', 'm', 's', 'order', 'n', 'pp', 'p', 'vec', 'table', 'sums'], result: 'i32' },
+  memSyncExp: { params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'p', 'vec', 'table', 'sums', 'check'], result: 'i32' },
+  // The modern softmax network.
+  softmaxOverlaps: { params: ['pat', 'd', 'st', 'out', 'p', 'scale:f64'] },
+  softmaxAccumulate: { params: ['pat', 'd', 'coef', 'out', 'p'] },
+  // The fixed in-degree network (adjacency lists, int32 fields).
+  sparseLoad: { params: ['outStart', 'targets', 'tw', 's', 'h', 'n'] },
+  sparseSweep: { params: ['outStart', 'targets', 'tw', 's', 'h', 'order', 'n'], result: 'i32' },
+  sparseRunAsync: { params: ['outStart', 'targets', 'tw', 's', 'h', 'order', 'n', 'state', 'max', 'shuffle'], result: 'i32' },
+  sparseSync: { params: ['outStart', 'targets', 'tw', 's', 'h', 'next', 'prev', 'n', 'check'], result: 'i32' },
+  sparseGlauber: { params: ['outStart', 'targets', 'tw', 's', 'h', 'order', 'noise', 'n', 'factor:f64', 'table', 'half'] },
+  sparseGlauberSync: { params: ['outStart', 'targets', 'tw', 's', 'h', 'next', 'noise', 'n', 'factor:f64', 'table', 'half'] }
 } as const satisfies Record<string, KernelSignature>
 
 /** A parameter: `name` (i32) or `name:f64`. */

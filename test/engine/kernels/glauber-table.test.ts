@@ -1,7 +1,8 @@
 import { afterEach, describe, expect, it } from 'vitest'
 import { buildNetwork, createPointRunner, createScratch, runTrialOn, SeedrandomSource, Xoshiro256StarStar, type PointParams, type TrialRecord } from '../../../src/engine/index.js'
 import { setFastPathsEnabled } from '../../../src/engine/kernels/wasm.js'
-import { OverlapKernel } from '../../../src/engine/kernels/overlap-kernel.js'
+import { OverlapKernel, setOverlapPrivateBytes } from '../../../src/engine/kernels/overlap-kernel.js'
+import { setDenseIntPrivateBytes } from '../../../src/engine/kernels/dense-int-kernel.js'
 import { glauberTableHalf, setGlauberTableHalfMax } from '../../../src/engine/kernels/glauber-table.js'
 import { generatePatterns } from '../../../src/engine/patterns/generate.js'
 
@@ -106,6 +107,19 @@ describe('tabulated Glauber probabilities', () => {
       return [0, 1, 2].map((t) => runTrialOn(net, p, t, t, rng, scratch))
     }
     expect(run(true)).toStrictEqual(run(false))
+  })
+
+  it('private kernel memories keep their patterns readable after the table is placed (stability measure at T > 0)', () => {
+    setOverlapPrivateBytes(0)
+    setDenseIntPrivateBytes(0)
+    try {
+      const stability = { overlapTrajectory: false, energyTrajectory: true, stability: true }
+      expectSame(params({ measures: stability }), 'wasm-simd128-overlap-i16', 3)
+      expectSame(params({ coding: 'binary', patterns: 10, measures: stability }), 'wasm-simd128-dense-i16', 3)
+    } finally {
+      setOverlapPrivateBytes(8 * 1024 * 1024)
+      setDenseIntPrivateBytes(1024 * 1024)
+    }
   })
 
   it('fields outside a narrow window take the direct exponential and still match', () => {

@@ -1,3 +1,6 @@
+import { SoftmaxKernel } from '../../kernels/softmax-kernel.js'
+import { areFastPathsEnabled } from '../../kernels/wasm.js'
+
 /**
  * Modern continuous Hopfield network (Ramsauer et al., "Hopfield Networks is All You Need",
  * ICLR 2021, arXiv:2008.02217): continuous state ξ ∈ ℝ^d, stored patterns x^μ as the columns
@@ -18,6 +21,9 @@
  * Scores a_μ = β x^μᵀξ, then softmax with the largest score subtracted (exp(a_μ − max) ≤ 1,
  * so nothing overflows for any β), then the weighted sum of patterns. O(P·d) per update,
  * no allocation. The ±1 entries are kept as int8 and scaled by 1/√d on the fly.
+ *
+ * The two O(P·d) passes run in a WebAssembly SIMD kernel (`fastPath`, kernels/softmax-kernel.ts)
+ * when the host supports it; it computes the loops below bit for bit.
  */
 export class SoftmaxMemory {
   readonly dimension: number
@@ -25,20 +31,33 @@ export class SoftmaxMemory {
   /** Stored ±1 patterns, pattern-major: patterns[μ·d + i]. */
   readonly patterns: Int8Array
   readonly beta: number
+  /** Name of the fast path ('js' for the plain loops), recorded in provenance. */
+  readonly fastPath: string
   private readonly scale: number
   private readonly weights: Float64Array
+  private readonly kernel: SoftmaxKernel | null
+  /** The kernel's coefficients c_μ of the weighted sum. */
+  private readonly coefficients: Float64Array
 
   constructor (patterns: Int8Array, dimension: number, patternCount: number, beta: number) {
     this.dimension = dimension
     this.patternCount = patternCount
-    this.patterns = patterns
     this.beta = beta
     this.scale = 1 / Math.sqrt(dimension)
     this.weights = new Float64Array(patternCount)
+    this.kernel = areFastPathsEnabled() ? SoftmaxKernel.create(patterns, dimension, patternCount) : null
+    // A private kernel memory holds the only copy of large pattern sets.
+    this.patterns = this.kernel?.patterns ?? patterns
+    this.fastPath = this.kernel?.name ?? 'js'
+    this.coefficients = new Float64Array(this.kernel === null ? 0 : patternCount)
   }
 
   /** x^μᵀ state for every stored pattern, into out (length P). */
   overlaps (state: Float64Array, out: Float64Array): void {
+    if (this.kernel !== null) {
+      this.kernel.overlaps(state, out, this.scale)
+      return
+    }
     const d = this.dimension
     for (let mu = 0; mu < this.patternCount; mu++) {
       let dot = 0
@@ -57,6 +76,11 @@ export class SoftmaxMemory {
     for (let mu = 0; mu < this.patternCount; mu++) {
       w[mu] = Math.exp(w[mu]! - top)
       total += w[mu]!
+    }
+    if (this.kernel !== null) {
+      for (let mu = 0; mu < this.patternCount; mu++) this.coefficients[mu] = w[mu]! * this.scale / total
+      this.kernel.accumulate(this.coefficients, out)
+      return
     }
     out.fill(0, 0, d)
     for (let mu = 0; mu < this.patternCount; mu++) {
@@ -90,6 +114,6 @@ export class SoftmaxMemory {
 
   /** Approximate bytes held. */
   get bytes (): number {
-    return this.patterns.byteLength + this.weights.byteLength
+    return this.patterns.byteLength + this.weights.byteLength + this.coefficients.byteLength
   }
 }
