@@ -1416,7 +1416,7 @@ function memApply (keepPrevious = false): string {
  * eight patterns run side by side, two per f64x2 lane pair, so eight such sums advance at
  * once, each lane adding exactly the plain terms in the plain order: the product of a ±1 entry
  * and a double is that double with its sign flipped or not, an exact operation done here by
- * XOR with the entry's sign bit (moved into place by a byte shuffle). The accumulation
+ * XOR with the entry's sign bit (moved into place by two shifts). The accumulation
  * out = Σ_μ c_μ x^μ runs sixteen entries of out at a time, each adding c_μ·x_i^μ in μ order, as
  * the plain loop does. Patterns left over from the blocks of eight run one at a time.
  * Rows are read sixteen bytes at a time past their end (up to 15 bytes of the next row, or of
@@ -1424,35 +1424,41 @@ function memApply (keepPrevious = false): string {
  * +0, whose sign flip adds ±0 and changes no sum; in the accumulation they only touch padding
  * entries of out, which the caller never reads.
  */
-const SIGN64 = '(v128.const i64x2 0x8000000000000000 0x8000000000000000)'
-
 function softmax (): string {
-  const pairMask = (a: string, b: string, t: number): string =>
-    `(v128.and (i8x16.shuffle ${Array(8).fill(t).join(' ')} ${Array(8).fill(16 + t).join(' ')} (local.get ${a}) (local.get ${b})) ${SIGN64})`
-  const overlapStep: string[] = []
-  for (let t = 0; t < 16; t++) {
-    overlapStep.push(`(local.set $sv (f64x2.splat (f64.load offset=${8 * t} (local.get $sp))))`)
+  // The sign bit of byte t of each 64-bit lane, alone at the top of the lane: shifting right by
+  // 8t + 7 brings it to bit 0, shifting left by 63 takes it to bit 63 and drops every other bit.
+  const signOf = (v: string, t: number): string => `(i64x2.shl (i64x2.shr_u ${v} (i32.const ${8 * t + 7})) (i32.const 63))`
+  const overlapHalf = (half: number): string => {
+    const lines: string[] = []
+    // Lane 0: pattern 2q at entries i + 8·half …, lane 1: pattern 2q + 1 at the same entries.
+    const halves = half === 0 ? '0 1 2 3 4 5 6 7 16 17 18 19 20 21 22 23' : '8 9 10 11 12 13 14 15 24 25 26 27 28 29 30 31'
     for (let q = 0; q < 4; q++) {
-      overlapStep.push(`(local.set $a${q} (f64x2.add (local.get $a${q}) (v128.xor (local.get $sv) ${pairMask(`$v${2 * q}`, `$v${2 * q + 1}`, t)})))`)
+      lines.push(`(local.set $w${q} (i8x16.shuffle ${halves} (v128.load (i32.add (local.get $r${2 * q}) (local.get $i))) (v128.load (i32.add (local.get $r${2 * q + 1}) (local.get $i)))))`)
     }
+    for (let t = 0; t < 8; t++) {
+      lines.push(`(local.set $sv (f64x2.splat (f64.load offset=${8 * (8 * half + t)} (local.get $sp))))`)
+      for (let q = 0; q < 4; q++) lines.push(`(local.set $a${q} (f64x2.add (local.get $a${q}) (v128.xor (local.get $sv) ${signOf(`(local.get $w${q})`, t)})))`)
+    }
+    return lines.join('\n          ')
   }
-  const loads = [0, 1, 2, 3, 4, 5, 6, 7].map((j) => `(local.set $v${j} (v128.load (i32.add (local.get $r${j}) (local.get $i))))`).join('\n          ')
   const rows = [1, 2, 3, 4, 5, 6, 7].map((j) => `(local.set $r${j} (i32.add (local.get $r${j - 1}) (local.get $d)))`).join('\n        ')
   const stores: string[] = []
   for (let q = 0; q < 4; q++) {
     stores.push(`(f64.store offset=${16 * q} (local.get $op) (f64.mul (f64x2.extract_lane 0 (local.get $a${q})) (local.get $scale)))`)
     stores.push(`(f64.store offset=${16 * q + 8} (local.get $op) (f64.mul (f64x2.extract_lane 1 (local.get $a${q})) (local.get $scale)))`)
   }
-  const accumulate: string[] = []
-  for (let q = 0; q < 8; q++) {
-    accumulate.push(`(local.set $a${q} (f64x2.add (local.get $a${q}) (v128.xor (local.get $cv) (v128.and (i8x16.shuffle ${Array(8).fill(2 * q).join(' ')} ${Array(8).fill(2 * q + 1).join(' ')} (local.get $v0) (local.get $v0)) ${SIGN64}))))`)
-  }
+  // Accumulator k holds entries i + k (lane 0) and i + 8 + k (lane 1), the lanes signOf(·, k) serves.
+  const accumulate = [0, 1, 2, 3, 4, 5, 6, 7].map((k) => `(local.set $a${k} (f64x2.add (local.get $a${k}) (v128.xor (local.get $cv) ${signOf('(local.get $v0)', k)})))`)
+  const loadSums = [0, 1, 2, 3, 4, 5, 6, 7].map((k) => `(local.set $a${k} (f64x2.replace_lane 1 (f64x2.splat (f64.load offset=${8 * k} (local.get $op))) (f64.load offset=${8 * (8 + k)} (local.get $op))))`)
+  const storeSums = [0, 1, 2, 3, 4, 5, 6, 7].map((k) => `(f64.store offset=${8 * k} (local.get $op) (f64x2.extract_lane 0 (local.get $a${k}))) (f64.store offset=${8 * (8 + k)} (local.get $op) (f64x2.extract_lane 1 (local.get $a${k})))`)
   return `
-  ;; out[μ] = (Σ_i x_i^μ·st[i]) · scale for μ < p, each sum in the plain order (st padded with +0 to a multiple of 16).
+  ;; out[μ] = (Σ_i x_i^μ·st[i]) · scale for μ < p, each sum in the plain order (st padded with +0 to a
+  ;; multiple of 16). Eight patterns at a time, two per f64x2: the halves of two rows are paired
+  ;; so that shifts put the sign of each one's entry i into its lane's sign bit.
   ${header('softmaxOverlaps')}
     (local $mu i32) (local $i i32) (local $sp i32) (local $op i32) (local $sv v128) (local $dot f64) (local $rr i32)
     (local $a0 v128) (local $a1 v128) (local $a2 v128) (local $a3 v128)
-    (local $v0 v128) (local $v1 v128) (local $v2 v128) (local $v3 v128) (local $v4 v128) (local $v5 v128) (local $v6 v128) (local $v7 v128)
+    (local $w0 v128) (local $w1 v128) (local $w2 v128) (local $w3 v128)
     (local $r0 i32) (local $r1 i32) (local $r2 i32) (local $r3 i32) (local $r4 i32) (local $r5 i32) (local $r6 i32) (local $r7 i32)
     (block $blocksDone
       (loop $block
@@ -1466,8 +1472,8 @@ function softmax (): string {
         (local.set $i (i32.const 0))
         (local.set $sp (local.get $st))
         (loop $chunk
-          ${loads}
-          ${overlapStep.join('\n          ')}
+          ${overlapHalf(0)}
+          ${overlapHalf(1)}
           (local.set $sp (i32.add (local.get $sp) (i32.const 128)))
           (br_if $chunk (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 16))) (local.get $d))))
         (local.set $op (i32.add (local.get $out) (i32.shl (local.get $mu) (i32.const 3))))
@@ -1487,38 +1493,47 @@ function softmax (): string {
         (local.set $mu (i32.add (local.get $mu) (i32.const 1)))
         (br $tail))))
 
-  ;; out[i] = Σ_μ coef[μ]·x_i^μ for i < d (rounded up to 16), each starting from +0 and adding in μ order.
+  ;; out[i] = Σ_μ coef[μ]·x_i^μ for i < d (rounded up to 16), each starting from +0 and adding in μ
+  ;; order. Blocks of 64 patterns (their rows stay in the first-level cache) run over all the
+  ;; entries before the next block, the sums kept in out in between: each sum still adds in μ order.
   ${header('softmaxAccumulate')}
-    (local $mu i32) (local $i i32) (local $rp i32) (local $op i32) (local $cv v128)
+    (local $mu i32) (local $mb i32) (local $me i32) (local $i i32) (local $rp i32) (local $op i32) (local $cv v128)
     (local $a0 v128) (local $a1 v128) (local $a2 v128) (local $a3 v128) (local $a4 v128) (local $a5 v128) (local $a6 v128) (local $a7 v128) (local $v0 v128)
-    (loop $chunk
-      ${[0, 1, 2, 3, 4, 5, 6, 7].map((q) => `(local.set $a${q} (v128.const i32x4 0 0 0 0))`).join(' ')}
-      (local.set $rp (i32.add (local.get $pat) (local.get $i)))
-      (local.set $mu (i32.const 0))
-      (block $patternsDone
-        (loop $pattern
-          (br_if $patternsDone (i32.ge_u (local.get $mu) (local.get $p)))
-          (local.set $cv (f64x2.splat (f64.load (i32.add (local.get $coef) (i32.shl (local.get $mu) (i32.const 3))))))
-          (local.set $v0 (v128.load (local.get $rp)))
-          ${accumulate.join('\n          ')}
-          (local.set $rp (i32.add (local.get $rp) (local.get $d)))
-          (local.set $mu (i32.add (local.get $mu) (i32.const 1)))
-          (br $pattern)))
-      (local.set $op (i32.add (local.get $out) (i32.shl (local.get $i) (i32.const 3))))
-      ${[0, 1, 2, 3, 4, 5, 6, 7].map((q) => `(v128.store offset=${16 * q} (local.get $op) (local.get $a${q}))`).join(' ')}
-      (br_if $chunk (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 16))) (local.get $d)))))`
+    (memory.fill (local.get $out) (i32.const 0) (i32.shl (i32.and (i32.add (local.get $d) (i32.const 15)) (i32.const -16)) (i32.const 3)))
+    (block $blocksDone
+      (loop $block
+        (br_if $blocksDone (i32.ge_u (local.get $mb) (local.get $p)))
+        (local.set $me (select (local.get $p) (i32.add (local.get $mb) (i32.const 64)) (i32.lt_u (i32.sub (local.get $p) (local.get $mb)) (i32.const 64))))
+        (local.set $i (i32.const 0))
+        (loop $chunk
+          (local.set $op (i32.add (local.get $out) (i32.shl (local.get $i) (i32.const 3))))
+          ${loadSums.join('\n          ')}
+          (local.set $rp (i32.add (i32.add (local.get $pat) (i32.mul (local.get $mb) (local.get $d))) (local.get $i)))
+          (local.set $mu (local.get $mb))
+          (loop $pattern
+            (local.set $cv (f64x2.splat (f64.load (i32.add (local.get $coef) (i32.shl (local.get $mu) (i32.const 3))))))
+            (local.set $v0 (v128.load (local.get $rp)))
+            ${accumulate.join('\n            ')}
+            (local.set $rp (i32.add (local.get $rp) (local.get $d)))
+            (br_if $pattern (i32.lt_u (local.tee $mu (i32.add (local.get $mu) (i32.const 1))) (local.get $me))))
+          ${storeSums.join('\n          ')}
+          (br_if $chunk (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 16))) (local.get $d))))
+        (local.set $mb (local.get $me))
+        (br $block))))`
 }
 
 /**
  * The fixed in-degree network (network/sparse-in-degree.ts): integer couplings in adjacency
- * lists, exact int32 fields h (the network checks K·max|T| < 2³¹). A change of s_j by Δ adds
- * Δ·T_ij to the fields of the neurons j projects to (out-lists: outStart, targets, tw).
+ * lists, exact int32 fields h (the network checks K·max|T| < 2³¹). Rows (inputs, weights) and
+ * out-lists (targets, tw; offsets outStart, int32) hold neurons as uint16 and couplings as
+ * int16 (the network runs the kernel only for N ≤ 65536 and |T| ≤ 32767): 8 bytes an edge in
+ * all, half the plain path's, and half the memory traffic of a field build. A change of s_j by
+ * Δ adds Δ·T_ij to the fields of the neurons j projects to.
  *
  * ## Why this shape
  * The plain path pays a JavaScript call and bounds checks per visit and per edge; here a
  * whole sweep (or a whole zero-temperature trial, shuffles included) is one call, and the
- * field build h = T s runs along the out-lists too, so the kernel keeps those alone (8·N·K
- * bytes, where the plain path also keeps the rows). Integer sums are exact in any order, so
+ * field build h = T s is a tight gather over the rows. Integer sums are exact in any order, so
  * every field, and every decision (ties keep s_i), is the plain one.
  */
 const SPARSE_DECIDE = '(select (i32.const 1) (select (i32.const -1) (local.get $si) (i32.lt_s (local.get $hi) (i32.const 0))) (i32.gt_s (local.get $hi) (i32.const 0)))'
@@ -1530,8 +1545,8 @@ const SPARSE_SCATTER = `
           (block $scattered
             (loop $scatter
               (br_if $scattered (i32.ge_u (local.get $e) (local.get $ee)))
-              (local.set $ta (i32.add (local.get $h) (i32.shl (i32.load (i32.add (local.get $targets) (i32.shl (local.get $e) (i32.const 2)))) (i32.const 2))))
-              (i32.store (local.get $ta) (i32.add (i32.load (local.get $ta)) (i32.mul (local.get $delta) (i32.load (i32.add (local.get $tw) (i32.shl (local.get $e) (i32.const 2)))))))
+              (local.set $ta (i32.add (local.get $h) (i32.shl (i32.load16_u (i32.add (local.get $targets) (i32.shl (local.get $e) (i32.const 1)))) (i32.const 2))))
+              (i32.store (local.get $ta) (i32.add (i32.load (local.get $ta)) (i32.mul (local.get $delta) (i32.load16_s (i32.add (local.get $tw) (i32.shl (local.get $e) (i32.const 1)))))))
               (local.set $e (i32.add (local.get $e) (i32.const 1)))
               (br $scatter)))`
 
@@ -1580,20 +1595,41 @@ function sparse (): string {
         (local.set $v (select (i32.const 1) (i32.const -1)
           (f64.lt (f64.mul (f64.load (i32.add (local.get $noise) (i32.shl ${noiseIndex} (i32.const 3)))) (local.get $g)) (f64.const 1))))`
   return `
-  ;; h = T s from scratch, column by column: h ← 0, then every neuron j with s_j ≠ 0 adds s_j·T_·j
-  ;; along its out-list (the rows themselves are not kept; integer sums are exact in any order).
+  ;; h_i = Σ_{e in row i} w_e·s[in_e], rows of k edges: gathers from the state (N bytes, in the
+  ;; first-level cache), four edges per step into two sums.
   ${header('sparseLoad')}
-    ${SPARSE_LOCALS}
-    (memory.fill (local.get $h) (i32.const 0) (i32.shl (local.get $n) (i32.const 2)))
-    (local.set $j (i32.const 0))
-    (block $loaded
-      (loop $column
-        (br_if $loaded (i32.ge_u (local.get $j) (local.get $n)))
-        (local.set $delta (i32.load8_s (i32.add (local.get $s) (local.get $j))))
-        (if (local.get $delta) (then ${SPARSE_SCATTER}))
-        (local.set $j (i32.add (local.get $j) (i32.const 1)))
-        (br $column)))
-    )
+    (local $i i32) (local $e i32) (local $ee i32) (local $e4 i32) (local $acc i32) (local $acc2 i32) (local $ip i32) (local $wp i32)
+    (block $done
+      (loop $row
+        (br_if $done (i32.ge_u (local.get $i) (local.get $n)))
+        (local.set $acc (i32.const 0))
+        (local.set $acc2 (i32.const 0))
+        (local.set $ee (i32.add (local.get $e) (local.get $k)))
+        (local.set $e4 (i32.sub (local.get $ee) (i32.const 3)))
+        (block $quadsDone
+          (loop $quad
+            (br_if $quadsDone (i32.ge_s (local.get $e) (local.get $e4)))
+            (local.set $ip (i32.add (local.get $inputs) (i32.shl (local.get $e) (i32.const 1))))
+            (local.set $wp (i32.add (local.get $weights) (i32.shl (local.get $e) (i32.const 1))))
+            (local.set $acc (i32.add (local.get $acc) (i32.add
+              (i32.mul (i32.load16_s (local.get $wp)) (i32.load8_s (i32.add (local.get $s) (i32.load16_u (local.get $ip)))))
+              (i32.mul (i32.load16_s offset=2 (local.get $wp)) (i32.load8_s (i32.add (local.get $s) (i32.load16_u offset=2 (local.get $ip))))))))
+            (local.set $acc2 (i32.add (local.get $acc2) (i32.add
+              (i32.mul (i32.load16_s offset=4 (local.get $wp)) (i32.load8_s (i32.add (local.get $s) (i32.load16_u offset=4 (local.get $ip)))))
+              (i32.mul (i32.load16_s offset=6 (local.get $wp)) (i32.load8_s (i32.add (local.get $s) (i32.load16_u offset=6 (local.get $ip))))))))
+            (local.set $e (i32.add (local.get $e) (i32.const 4)))
+            (br $quad)))
+        (block $rowDone
+          (loop $edge
+            (br_if $rowDone (i32.ge_u (local.get $e) (local.get $ee)))
+            (local.set $acc (i32.add (local.get $acc) (i32.mul
+              (i32.load16_s (i32.add (local.get $weights) (i32.shl (local.get $e) (i32.const 1))))
+              (i32.load8_s (i32.add (local.get $s) (i32.load16_u (i32.add (local.get $inputs) (i32.shl (local.get $e) (i32.const 1)))))))))
+            (local.set $e (i32.add (local.get $e) (i32.const 1)))
+            (br $edge)))
+        (i32.store (i32.add (local.get $h) (i32.shl (local.get $i) (i32.const 2))) (i32.add (local.get $acc) (local.get $acc2)))
+        (local.set $i (i32.add (local.get $i) (i32.const 1)))
+        (br $row))))
 
   ;; One zero-temperature asynchronous sweep in the given order; returns 1 if any neuron changed.
   ${header('sparseSweep')}

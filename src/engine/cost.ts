@@ -4,7 +4,7 @@ import { OverlapKernel } from './kernels/overlap-kernel.js'
 import { glauberTableBytes } from './kernels/glauber-table.js'
 import { denseMemoryKernelExtraBytes, polynomialKernelFits } from './kernels/dense-memory-kernel.js'
 import { softmaxKernelExtraBytes } from './kernels/softmax-kernel.js'
-import { sparseKernelExtraBytes } from './kernels/sparse-kernel.js'
+import { sparseKernelExtraBytes, sparseKernelFits } from './kernels/sparse-kernel.js'
 
 export interface PointCost {
   /** Peak bytes one runner holds for this point (network, patterns, scratch). */
@@ -95,8 +95,12 @@ function modelCost (p: PointParams, representation: Representation, baseBytes: n
       return { bytes: baseBytes + 8 * count + 16 * n + softmaxKernelExtraBytes(n, count) + sharedCopy(n * count), neuronUpdatesPerTrial, buildOpsPerNetwork: n * count, opsPerVisit: 2 * count }
     case 'sparse-in-degree': {
       const k = p.dilution?.kind === 'fixed-in-degree' ? p.dilution.inDegree : n
-      // While the network is built, the rule's rows (8·N·K) and the out-lists (8·N·K) are both alive.
-      return { bytes: baseBytes + n * count + 16 * n * k + 12 * n + sparseKernelExtraBytes(n) + sharedCopy(8 * n * k), neuronUpdatesPerTrial, buildOpsPerNetwork: n * k * (count + 8), opsPerVisit: k }
+      // While the network is built, the rule's int32 rows (8·N·K) and the out-lists (8·N·K, or the
+      // kernel's compact rows and out-lists, 8·N·K in all) are both alive. Hebbian couplings are at
+      // most P in magnitude, clipped ones 1.
+      const kernel = sparseKernelFits(n, p.rule.kind === 'clipped' ? 1 : count)
+      const kernelBytes = kernel ? sparseKernelExtraBytes(n, count) + sharedCopy(8 * n * k) : 0
+      return { bytes: baseBytes + n * count + 16 * n * k + 12 * n + kernelBytes, neuronUpdatesPerTrial, buildOpsPerNetwork: n * k * (count + 8), opsPerVisit: k }
     }
     default:
       return null

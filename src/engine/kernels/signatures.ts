@@ -66,7 +66,7 @@ export const KERNEL_SIGNATURES = {
   softmaxOverlaps: { params: ['pat', 'd', 'st', 'out', 'p', 'scale:f64'] },
   softmaxAccumulate: { params: ['pat', 'd', 'coef', 'out', 'p'] },
   // The fixed in-degree network (adjacency lists, int32 fields).
-  sparseLoad: { params: ['outStart', 'targets', 'tw', 's', 'h', 'n'] },
+  sparseLoad: { params: ['inputs', 'weights', 's', 'h', 'n', 'k'] },
   sparseSweep: { params: ['outStart', 'targets', 'tw', 's', 'h', 'order', 'n'], result: 'i32' },
   sparseRunAsync: { params: ['outStart', 'targets', 'tw', 's', 'h', 'order', 'n', 'state', 'max', 'shuffle'], result: 'i32' },
   sparseSync: { params: ['outStart', 'targets', 'tw', 's', 'h', 'next', 'prev', 'n', 'check'], result: 'i32' },

@@ -12,14 +12,16 @@ import type { RandomSource } from '../random/source.js'
  * A visit reads one field and a change adds Δ·T_ij along an out-list, so the plain path spends
  * most of its time in per-visit JavaScript overhead and in the O(N·K) field build of every
  * trial. Here whole sweeps, steps and zero-temperature trials (shuffles included) run in one
- * call on exact int32 fields, and the field build runs along the out-lists, so the kernel keeps
- * only those (targets and weights, 8·N·K bytes): the network then drops its rows. Integer sums
- * are exact in any order, so every field and every decision is the plain one.
+ * call on exact int32 fields, and the field build is a gather loop over the rows. Rows and
+ * out-lists hold neurons as uint16 and couplings as int16 (N ≤ 65536, |T| ≤ 32767; larger
+ * networks keep the plain path): 8 bytes an edge for both, where the plain path keeps 16, and
+ * half the memory traffic of a field build. Integer sums are exact in any order, so every field
+ * and every decision is the plain one.
  *
- * Memory as in the other kernels: out-lists under 8 MiB share an instance (copied in when
- * another network used it last); larger ones live in a private instance, as the only copy.
+ * Memory as in the other kernels: lists under 8 MiB share an instance (copied in when another
+ * network used it last); larger ones live in a private instance, as the only copy.
  */
-type SparseExports = KernelsUsing<'sparseLoad' | 'sparseSweep' | 'sparseRunAsync' | 'sparseSync' | 'sparseGlauber' | 'sparseGlauberSync'>
+type SparseExports = KernelsUsing<'packRows' | 'overlapsBits' | 'sparseLoad' | 'sparseSweep' | 'sparseRunAsync' | 'sparseSync' | 'sparseGlauber' | 'sparseGlauberSync'>
 
 const workspaces = new Workspaces<SparseExports>(8 * 1024 * 1024)
 
@@ -31,26 +33,46 @@ export function setSparsePrivateBytes (bytes: number): void {
 let nextId = 1
 const align16 = (x: number): number => (x + 15) & ~15
 
-/** Bytes of the kernel's memory besides the out-lists (memory estimates). */
-export function sparseKernelExtraBytes (neurons: number): number {
-  return 4 * (neurons + 1) + 4 * neurons + 3 * neurons + 4 * neurons + 8 * neurons + 256
+/** Largest neuron count and coupling the kernel's uint16 / int16 lists hold. */
+const MAX_NEURONS = 65536
+const MAX_COUPLING = 32767
+
+/** Whether a network of this size and largest |T| runs on the kernel. */
+export function sparseKernelFits (neurons: number, maxCoupling: number): boolean {
+  return neurons <= MAX_NEURONS && maxCoupling <= MAX_COUPLING
+}
+
+const STAGE_BYTES = 256 * 1024
+
+/** Rows of patterns staged at a time for packing their sign bits. */
+const stageRows = (neurons: number, patterns: number): number => Math.max(1, Math.min(patterns, Math.floor(STAGE_BYTES / neurons)))
+
+/** Bytes of the kernel's memory besides its lists of 8 bytes an edge (memory estimates): state, fields, the patterns' sign bits, staging. */
+export function sparseKernelExtraBytes (neurons: number, patterns: number): number {
+  const words = Math.ceil(neurons / 64)
+  return 4 * (neurons + 1) + 4 * neurons + 3 * neurons + 4 * neurons + 8 * neurons + 8 * words * (patterns + 1) + 4 * patterns + stageRows(neurons, patterns) * neurons + 512
 }
 
 export class SparseKernel {
   readonly name = 'wasm-simd128-sparse-in-degree'
-  /** Out-list targets and weights (N·K each), filled by the caller: arrays of the network's own, or views into a private memory. */
-  readonly targets: Int32Array
-  readonly weights: Int32Array
+  /** Rows (inputs, couplings; K per neuron) and out-lists (targets, couplings), filled by the caller: arrays of the kernel's own, or views into a private memory. */
+  readonly inputs: Uint16Array
+  readonly weights: Int16Array
+  readonly targets: Uint16Array
+  readonly targetWeights: Int16Array
   private readonly ws: Workspace<SparseExports>
   private readonly k: SparseExports
   private readonly isPrivate: boolean
   private readonly id = nextId++
   private readonly n: number
+  private readonly inDegree: number
   private readonly edges: number
   private readonly outStart: Int32Array
-  private readonly outStartAt: number
-  private readonly targetsAt = 0
+  private readonly inputsAt = 0
   private readonly weightsAt: number
+  private readonly targetsAt: number
+  private readonly targetWeightsAt: number
+  private readonly outStartAt: number
   private readonly hAt: number
   private readonly sAt: number
   private readonly nextAt: number
@@ -58,6 +80,17 @@ export class SparseKernel {
   private readonly orderAt: number
   private readonly noiseAt: number
   private readonly rngAt: number
+  // Sign bits of the patterns (pattern-major, `words` 64-bit words a row) and of the state, for
+  // overlaps by popcount ("overlapsBits"), and the staging rows that pack them.
+  private readonly p: number
+  private readonly words: number
+  private readonly bitsAt: number
+  private readonly sbitsAt: number
+  private readonly mAt: number
+  private readonly stageAt: number
+  private readonly stageRows: number
+  /** The packed patterns kept outside a shared memory, copied in when this network becomes resident. */
+  private readonly bits: Uint8Array
   private readonly end: number
   private readonly table: GlauberTable
   private buffer: ArrayBuffer | null = null
@@ -67,27 +100,34 @@ export class SparseKernel {
   private order32: Int32Array = EMPTY.i32
   private noise64: Float64Array = EMPTY.f64
   private rng32: Int32Array = EMPTY.i32
+  private m32: Int32Array = EMPTY.i32
 
   /**
-   * `outStart` (N + 1 offsets into the out-lists) as the network built it; `fieldBound` bounds
-   * every |h_i| (K·max|T|), which must stay below 2³¹. Null without WebAssembly, or when the
-   * fields could overflow int32 or the layout does not fit a 32-bit memory.
+   * `outStart` (N + 1 offsets into the out-lists) as the network built it; K inputs per neuron;
+   * P patterns; `maxCoupling` the largest |T_ij|. Null without WebAssembly, when the lists cannot hold the
+   * network (`sparseKernelFits`), when the fields could overflow int32, or when the layout does
+   * not fit a 32-bit memory.
    */
-  static create (outStart: Int32Array, neurons: number, edges: number, fieldBound: number): SparseKernel | null {
-    if (fieldBound >= 2 ** 31) return null
-    if (8 * edges + sparseKernelExtraBytes(neurons) > 3.5 * 2 ** 30) return null
+  static create (outStart: Int32Array, neurons: number, inDegree: number, patterns: number, maxCoupling: number): SparseKernel | null {
+    const edges = neurons * inDegree
+    if (!sparseKernelFits(neurons, maxCoupling) || inDegree * maxCoupling >= 2 ** 31) return null
+    if (8 * edges + sparseKernelExtraBytes(neurons, patterns) > 3.5 * 2 ** 30) return null
     const ws = workspaces.for(8 * edges)
-    return ws === null ? null : unlessMemoryRefused(() => new SparseKernel(ws, outStart, neurons, edges, fieldBound))
+    return ws === null ? null : unlessMemoryRefused(() => new SparseKernel(ws, outStart, neurons, inDegree, patterns, inDegree * maxCoupling))
   }
 
-  private constructor (ws: Workspace<SparseExports>, outStart: Int32Array, n: number, edges: number, fieldBound: number) {
+  private constructor (ws: Workspace<SparseExports>, outStart: Int32Array, n: number, inDegree: number, p: number, fieldBound: number) {
     this.ws = ws
     this.k = ws.k
     this.n = n
+    this.inDegree = inDegree
+    const edges = n * inDegree
     this.edges = edges
     this.outStart = outStart
-    this.weightsAt = align16(4 * edges)
-    this.outStartAt = align16(this.weightsAt + 4 * edges)
+    this.weightsAt = align16(2 * edges)
+    this.targetsAt = align16(this.weightsAt + 2 * edges)
+    this.targetWeightsAt = align16(this.targetsAt + 2 * edges)
+    this.outStartAt = align16(this.targetWeightsAt + 2 * edges)
     this.hAt = align16(this.outStartAt + 4 * (n + 1))
     this.sAt = align16(this.hAt + 4 * n)
     this.nextAt = align16(this.sAt + n)
@@ -95,22 +135,57 @@ export class SparseKernel {
     this.orderAt = align16(this.prevAt + n)
     this.noiseAt = align16(this.orderAt + 4 * n)
     this.rngAt = align16(this.noiseAt + 8 * n)
-    this.end = this.rngAt + 48
+    this.p = p
+    this.words = Math.ceil(n / 64)
+    this.bitsAt = align16(this.rngAt + 48)
+    this.sbitsAt = this.bitsAt + 8 * this.words * p
+    this.mAt = align16(this.sbitsAt + 8 * this.words)
+    this.stageAt = align16(this.mAt + 4 * p)
+    this.stageRows = stageRows(n, p)
+    this.end = this.stageAt + this.stageRows * n + 16
     this.table = new GlauberTable(align16(this.end), fieldBound)
     this.isPrivate = ws.isPrivate
     // A private memory never grows after this (views into it would be detached): the Glauber
     // table's room is reserved now.
     ws.reserve(this.isPrivate ? this.table.at + this.table.bytes : this.end)
     const buffer = ws.k.memory.buffer
-    this.targets = this.isPrivate ? new Int32Array(buffer, this.targetsAt, edges) : new Int32Array(edges)
-    this.weights = this.isPrivate ? new Int32Array(buffer, this.weightsAt, edges) : new Int32Array(edges)
+    this.inputs = this.isPrivate ? new Uint16Array(buffer, this.inputsAt, edges) : new Uint16Array(edges)
+    this.weights = this.isPrivate ? new Int16Array(buffer, this.weightsAt, edges) : new Int16Array(edges)
+    this.targets = this.isPrivate ? new Uint16Array(buffer, this.targetsAt, edges) : new Uint16Array(edges)
+    this.targetWeights = this.isPrivate ? new Int16Array(buffer, this.targetWeightsAt, edges) : new Int16Array(edges)
+    this.bits = this.isPrivate ? EMPTY.u8 : new Uint8Array(8 * this.words * p)
+  }
+
+  /** Packs the sign bits of the pattern-major ±1 patterns (patterns[μ·N + i]), staged a few rows at a time. */
+  loadPatterns (patterns: Int8Array): void {
+    const { n, p } = this
+    this.enter()
+    const u8 = new Uint8Array(this.ws.k.memory.buffer)
+    for (let mu0 = 0; mu0 < p; mu0 += this.stageRows) {
+      const rows = Math.min(this.stageRows, p - mu0)
+      u8.set(new Uint8Array(patterns.buffer, patterns.byteOffset + mu0 * n, rows * n), this.stageAt)
+      this.k.packRows(this.stageAt, n, rows, this.bitsAt + 8 * this.words * mu0, this.words)
+    }
+    if (!this.isPrivate) this.bits.set(new Uint8Array(u8.buffer, this.bitsAt, this.bits.length))
+  }
+
+  /**
+   * Raw overlaps Σ_i ξ_i^μ s_i with patterns first … first + count − 1 into out, by popcount of
+   * the sign bits; false (nothing written) when the state holds a 0, where the identity fails.
+   */
+  overlaps (state: Int8Array, first: number, count: number, out: Float64Array): boolean {
+    this.enter()
+    this.s8.set(state)
+    if (this.k.overlapsBits(this.bitsAt + 8 * this.words * first, this.words, this.sAt, this.sbitsAt, this.n, count, count, this.mAt, 1) === 0) return false
+    for (let mu = 0; mu < count; mu++) out[mu] = this.m32[mu]!
+    return true
   }
 
   /** h = T s. */
   load (state: Int8Array, h: Float64Array): void {
     this.enter()
     this.s8.set(state)
-    this.k.sparseLoad(this.outStartAt, this.targetsAt, this.weightsAt, this.sAt, this.hAt, this.n)
+    this.k.sparseLoad(this.inputsAt, this.weightsAt, this.sAt, this.hAt, this.n, this.inDegree)
     h.set(this.h32)
   }
 
@@ -118,7 +193,7 @@ export class SparseKernel {
     this.enter()
     this.pass(state, h)
     this.order32.set(order)
-    const changed = this.k.sparseSweep(this.outStartAt, this.targetsAt, this.weightsAt, this.sAt, this.hAt, this.orderAt, this.n)
+    const changed = this.k.sparseSweep(this.outStartAt, this.targetsAt, this.targetWeightsAt, this.sAt, this.hAt, this.orderAt, this.n)
     this.leave(state, h)
     return changed !== 0
   }
@@ -135,7 +210,7 @@ export class SparseKernel {
     this.pass(state, h)
     this.order32.set(order)
     if (words !== null) stateToKernel(words, rng, this.rng32)
-    const r = this.k.sparseRunAsync(this.outStartAt, this.targetsAt, this.weightsAt, this.sAt, this.hAt, this.orderAt, this.n, this.rngAt, maxSweeps, shuffle ? 1 : 0)
+    const r = this.k.sparseRunAsync(this.outStartAt, this.targetsAt, this.targetWeightsAt, this.sAt, this.hAt, this.orderAt, this.n, this.rngAt, maxSweeps, shuffle ? 1 : 0)
     this.leave(state, h)
     order.set(this.order32)
     if (words !== null) stateFromKernel(this.rng32, words, rng)
@@ -147,7 +222,7 @@ export class SparseKernel {
     this.enter()
     this.pass(state, h)
     this.prev8.set(previous)
-    const outcome = this.k.sparseSync(this.outStartAt, this.targetsAt, this.weightsAt, this.sAt, this.hAt, this.nextAt, this.prevAt, this.n, check ? 1 : 0)
+    const outcome = this.k.sparseSync(this.outStartAt, this.targetsAt, this.targetWeightsAt, this.sAt, this.hAt, this.nextAt, this.prevAt, this.n, check ? 1 : 0)
     if (outcome !== 1) {
       previous.set(this.prev8)
       this.leave(state, h)
@@ -160,7 +235,7 @@ export class SparseKernel {
     this.pass(state, h)
     this.order32.set(order)
     this.noise64.set(noise.subarray(0, this.n))
-    this.k.sparseGlauber(this.outStartAt, this.targetsAt, this.weightsAt, this.sAt, this.hAt, this.orderAt, this.noiseAt, this.n, factor, this.table.at, half)
+    this.k.sparseGlauber(this.outStartAt, this.targetsAt, this.targetWeightsAt, this.sAt, this.hAt, this.orderAt, this.noiseAt, this.n, factor, this.table.at, half)
     this.leave(state, h)
   }
 
@@ -168,7 +243,7 @@ export class SparseKernel {
     const half = this.enterThermal(factor)
     this.pass(state, h)
     this.noise64.set(noise.subarray(0, this.n))
-    this.k.sparseGlauberSync(this.outStartAt, this.targetsAt, this.weightsAt, this.sAt, this.hAt, this.nextAt, this.noiseAt, this.n, factor, this.table.at, half)
+    this.k.sparseGlauberSync(this.outStartAt, this.targetsAt, this.targetWeightsAt, this.sAt, this.hAt, this.nextAt, this.noiseAt, this.n, factor, this.table.at, half)
     this.leave(state, h)
   }
 
@@ -190,13 +265,17 @@ export class SparseKernel {
       this.order32 = new Int32Array(buffer, this.orderAt, this.n)
       this.noise64 = new Float64Array(buffer, this.noiseAt, this.n)
       this.rng32 = new Int32Array(buffer, this.rngAt, 10)
+      this.m32 = new Int32Array(buffer, this.mAt, this.p)
     }
     if (ws.residentId !== this.id) {
       this.table.invalidate()
       new Int32Array(buffer, this.outStartAt, this.n + 1).set(this.outStart)
       if (!this.isPrivate) {
-        new Int32Array(buffer, this.targetsAt, this.edges).set(this.targets)
-        new Int32Array(buffer, this.weightsAt, this.edges).set(this.weights)
+        new Uint16Array(buffer, this.inputsAt, this.edges).set(this.inputs)
+        new Int16Array(buffer, this.weightsAt, this.edges).set(this.weights)
+        new Uint16Array(buffer, this.targetsAt, this.edges).set(this.targets)
+        new Int16Array(buffer, this.targetWeightsAt, this.edges).set(this.targetWeights)
+        new Uint8Array(buffer, this.bitsAt, this.bits.length).set(this.bits)
       }
       ws.residentId = this.id
     }

@@ -30,14 +30,14 @@ export class SparseInDegreeNetwork implements Network {
   readonly state: Int8Array
   readonly bytes: number
   private readonly inDegree: number
-  /** Rows (inputs and couplings of each neuron), for the plain field build; null when the kernel builds the fields. */
-  private readonly inputs: Int32Array | null
-  private readonly weights: Int32Array | null
+  /** Rows: the inputs and couplings of each neuron (the kernel's compact copies when it runs). */
+  private readonly inputs: Int32Array | Uint16Array
+  private readonly weights: Int32Array | Int16Array
   private readonly kernel: SparseKernel | null
   /** out(j) = targets[outStart[j] … outStart[j + 1] − 1], with the coupling T_ij of each. */
   private readonly outStart: Int32Array
-  private readonly targets: Int32Array
-  private readonly targetWeights: Int32Array
+  private readonly targets: Int32Array | Uint16Array
+  private readonly targetWeights: Int32Array | Int16Array
   private readonly h: Float64Array
 
   constructor (patterns: Int8Array, neurons: number, patternCount: number, couplings: InDegreeCouplings, fieldScale: number) {
@@ -54,9 +54,9 @@ export class SparseInDegreeNetwork implements Network {
     for (let j = 0; j < n; j++) this.outStart[j + 1] = this.outStart[j + 1]! + this.outStart[j]!
     let maxWeight = 0
     for (let e = 0; e < n * k; e++) maxWeight = Math.max(maxWeight, Math.abs(weights[e]!))
-    this.kernel = areFastPathsEnabled() ? SparseKernel.create(this.outStart, n, n * k, k * maxWeight) : null
+    this.kernel = areFastPathsEnabled() ? SparseKernel.create(this.outStart, n, k, patternCount, maxWeight) : null
     this.targets = this.kernel?.targets ?? new Int32Array(n * k)
-    this.targetWeights = this.kernel?.weights ?? new Int32Array(n * k)
+    this.targetWeights = this.kernel?.targetWeights ?? new Int32Array(n * k)
     const fill = this.outStart.slice(0, n)
     for (let i = 0; i < n; i++) {
       for (let s = 0; s < k; s++) {
@@ -66,8 +66,14 @@ export class SparseInDegreeNetwork implements Network {
         this.targetWeights[at] = weights[i * k + s]!
       }
     }
-    this.inputs = this.kernel === null ? inputs : null
-    this.weights = this.kernel === null ? weights : null
+    if (this.kernel !== null) {
+      this.kernel.inputs.set(inputs)
+      this.kernel.weights.set(weights)
+      this.kernel.loadPatterns(patterns)
+    }
+    // The rule's int32 rows become garbage once the kernel holds its compact copy.
+    this.inputs = this.kernel?.inputs ?? inputs
+    this.weights = this.kernel?.weights ?? weights
     this.fastPath = this.kernel?.name ?? 'js'
     this.state = new Int8Array(n)
     this.h = new Float64Array(n)
@@ -82,8 +88,8 @@ export class SparseInDegreeNetwork implements Network {
       return
     }
     const k = this.inDegree
-    const inputs = this.inputs!
-    const weights = this.weights!
+    const inputs = this.inputs
+    const weights = this.weights
     for (let i = 0; i < this.neurons; i++) {
       let sum = 0
       for (let e = i * k; e < i * k + k; e++) sum += weights[e]! * state[inputs[e]!]!
@@ -112,6 +118,7 @@ export class SparseInDegreeNetwork implements Network {
   }
 
   rawOverlaps (out: Float64Array): void {
+    if (this.kernel?.overlaps(this.state, 0, this.patternCount, out) === true) return
     const n = this.neurons
     for (let mu = 0; mu < this.patternCount; mu++) {
       let sum = 0
@@ -119,6 +126,20 @@ export class SparseInDegreeNetwork implements Network {
       out[mu] = sum
     }
   }
+
+  /**
+   * One raw overlap: by popcount in the kernel (O(N/64)) when it runs and the state has no 0,
+   * else the plain sum. Same integer either way.
+   */
+  readonly rawOverlapWith = (mu: number): number => {
+    if (this.kernel?.overlaps(this.state, mu, 1, this.single) === true) return this.single[0]!
+    const n = this.neurons
+    let sum = 0
+    for (let i = 0; i < n; i++) sum += this.patterns[mu * n + i]! * this.state[i]!
+    return sum
+  }
+
+  private readonly single = new Float64Array(1)
 }
 
 function kernelSweeps (kernel: SparseKernel, state: Int8Array, h: Float64Array): NativeSweeps {

@@ -90,9 +90,12 @@ export class SoftmaxMemory {
     }
   }
 
-  /** E(state) as above, with the log-sum-exp taken around its largest term. */
-  energy (state: Float64Array): number {
-    const top = this.scores(state)
+  /**
+   * E(state) as above, with the log-sum-exp taken around its largest term. `overlaps`, when
+   * given, must be `overlaps(state)` already computed (it saves the O(P·d) pass).
+   */
+  energy (state: Float64Array, overlaps?: Float64Array): number {
+    const top = overlaps === undefined ? this.scores(state) : this.scoresFrom(overlaps)
     let total = 0
     for (let mu = 0; mu < this.patternCount; mu++) total += Math.exp(this.weights[mu]! - top)
     let norm = 0
@@ -103,9 +106,14 @@ export class SoftmaxMemory {
   /** Scores a_μ = β x^μᵀ state into the weights buffer; returns their maximum. */
   private scores (state: Float64Array): number {
     this.overlaps(state, this.weights)
+    return this.scoresFrom(this.weights)
+  }
+
+  /** Scores β·overlaps[μ] into the weights buffer (overlaps may be that buffer); returns their maximum. */
+  private scoresFrom (overlaps: Float64Array): number {
     let top = -Infinity
     for (let mu = 0; mu < this.patternCount; mu++) {
-      const a = this.beta * this.weights[mu]!
+      const a = this.beta * overlaps[mu]!
       this.weights[mu] = a
       if (a > top) top = a
     }
