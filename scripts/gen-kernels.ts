@@ -19,22 +19,24 @@
 import { writeFileSync } from 'node:fs'
 import { fileURLToPath } from 'node:url'
 import wabtFactory from 'wabt'
-import { KERNEL_SIGNATURES, parseParam, type KernelName } from '../src/engine/kernels/signatures.js'
+import { KERNEL_MODULES, KERNEL_SIGNATURES, parseParam, type KernelModule, type KernelName, type KernelSignature } from '../src/engine/kernels/signatures.js'
 
 type Width = 16 | 32
 
-/** Exports whose header has been written, so a table entry without a body (or one used twice) is caught. */
+/** The module being written and the exports whose header it has, so a table entry without a body (or one written twice) is caught. */
+let writing: KernelModule = 'overlap'
 const emitted = new Set<string>()
 
 /**
  * The header of an exported function, from its entry in KERNEL_SIGNATURES (the one table of
- * names, parameter order and types, and results): `(func [internal] (export "name") (param $p t)… [(result t)]`.
+ * names, modules, parameter order and types, and results): `(func [internal] (export "name") (param $p t)… [(result t)]`.
  */
 function header (name: string, internal?: string): string {
   if (!Object.hasOwn(KERNEL_SIGNATURES, name)) throw new Error(`kernel ${name} is not in KERNEL_SIGNATURES (src/engine/kernels/signatures.ts)`)
-  if (emitted.has(name)) throw new Error(`kernel ${name} is written twice`)
+  const signature: KernelSignature = KERNEL_SIGNATURES[name as KernelName]
+  if (!signature.modules.includes(writing)) throw new Error(`kernel ${name} is written into module ${writing}, which its table entry does not list`)
+  if (emitted.has(name)) throw new Error(`kernel ${name} is written twice into module ${writing}`)
   emitted.add(name)
-  const signature: { params: readonly string[], result?: string } = KERNEL_SIGNATURES[name as KernelName]
   const params = signature.params.map((p) => {
     const { name: param, type } = parseParam(p)
     return ` (param $${param} ${type})`
@@ -497,23 +499,10 @@ function runSync (w: Width): string {
     (i32.add (i32.shl (local.get $steps) (i32.const 2)) (local.get $same)))`
 }
 
-function variant (w: Width): string {
+/** m = Σ_i s_i ξ_i from scratch, int16 or int32 overlaps (xi neuron-major, rows of pp). */
+function overlapsFunction (w: Width): string {
   const lane = w === 16 ? 2 : 4
   return `
-  ;; Raw field without the self term: Σ_μ ξ_i^μ m_μ.
-  ${header(`dot${w}`)}
-    ${LOCALS}
-    (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
-    ${dot(w)}
-    (local.get $h))
-
-  ;; m += delta·ξ_i (a change of s_i by delta).
-  ${header(`flip${w}`)}
-    ${LOCALS}
-    (local.set $delta (local.get $d0))
-    (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
-    ${flip(w)})
-
   ;; m = Σ_i s_i ξ_i from scratch. ${w === 16 ? 'Groups of 64 patterns (one cache line of a row) then single blocks of 16' : 'One block of 16 patterns at a time'},
   ;; so the accumulators stay in registers and every cache line fetched is used whole.
   ${header(`overlaps${w}`)}
@@ -550,7 +539,26 @@ function variant (w: Width): string {
       (v128.store (local.get $r) (local.get $a))
       (v128.store offset=16 (local.get $r) (local.get $b))
       ${w === 32 ? '(v128.store offset=32 (local.get $r) (local.get $c)) (v128.store offset=48 (local.get $r) (local.get $d))' : ''}
-      (br_if $block (i32.lt_u (local.tee $blk (i32.add (local.get $blk) (i32.const 16))) (local.get $pp)))))))
+      (br_if $block (i32.lt_u (local.tee $blk (i32.add (local.get $blk) (i32.const 16))) (local.get $pp)))))))`
+}
+
+function variant (w: Width): string {
+  return `
+  ;; Raw field without the self term: Σ_μ ξ_i^μ m_μ.
+  ${header(`dot${w}`)}
+    ${LOCALS}
+    (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+    ${dot(w)}
+    (local.get $h))
+
+  ;; m += delta·ξ_i (a change of s_i by delta).
+  ${header(`flip${w}`)}
+    ${LOCALS}
+    (local.set $delta (local.get $d0))
+    (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+    ${flip(w)})
+
+  ${overlapsFunction(w)}
 
   ;; One asynchronous zero-temperature sweep in the given order; returns 1 if any neuron changed.
   ${w === 16 ? sweep16Grouped() : sweepOne(w)}
@@ -1723,61 +1731,60 @@ function sparse (): string {
     ${sparseApply(false)})`
 }
 
-/** The module's WebAssembly text: every function, in the order the binary lists them. */
-export function kernelsWat (): string {
+/** What each module holds, in the order its binary lists the functions. */
+const MODULE_PARTS: Record<KernelModule, () => string[]> = {
+  random: () => [shuffle(), partialShuffle(), unbiasedRows(), uniforms()],
+  overlap: () => [variant(16), variant(32), transpose(), signBits(), runAsync16(), runGlauber16(), runSync(16), runSync(32)],
+  dense: () => [dense(), dense16()],
+  memory: () => [overlapsFunction(32), transpose(), denseMemory('Poly'), denseMemory('Exp')],
+  softmax: () => [softmax()],
+  sparse: () => [signBits(), sparse()]
+}
+
+/** One module's WebAssembly text. */
+export function kernelsWat (module: KernelModule): string {
+  writing = module
   emitted.clear()
   const text = `(module
   (import "host" "exp" (func $exp (param f64) (result f64)))
   (import "host" "sweepDone" (func $sweepDone (param i32)))
   (memory (export "memory") 1)
-${variant(16)}
-${variant(32)}
-${transpose()}
-${signBits()}
-${shuffle()}
-${partialShuffle()}
-${unbiasedRows()}
-${uniforms()}
-${runAsync16()}
-${runGlauber16()}
-${runSync(16)}
-${runSync(32)}
-${dense()}
-${dense16()}
-${denseMemory('Poly')}
-${denseMemory('Exp')}
-${softmax()}
-${sparse()}
+${MODULE_PARTS[module]().join('\n')}
 )
 `
-  const missing = Object.keys(KERNEL_SIGNATURES).filter((name) => !emitted.has(name))
-  if (missing.length > 0) throw new Error(`KERNEL_SIGNATURES lists kernels with no body: ${missing.join(', ')}`)
+  const missing = Object.entries(KERNEL_SIGNATURES).filter(([name, sig]) => (sig.modules as readonly string[]).includes(module) && !emitted.has(name)).map(([name]) => name)
+  if (missing.length > 0) throw new Error(`KERNEL_SIGNATURES lists kernels of module ${module} with no body: ${missing.join(', ')}`)
   return text
 }
 
-/** Assembles the module with wabt: its bytes and the text of kernels.generated.ts that embeds them. */
-export async function assembleKernels (): Promise<{ wasm: Uint8Array, generated: string }> {
+/** Assembles every module with wabt: their bytes and the text of kernels.generated.ts that embeds them. */
+export async function assembleKernels (): Promise<{ wasm: Record<KernelModule, Uint8Array>, generated: string }> {
   const wabt = await wabtFactory()
-  const mod = wabt.parseWat('kernels.wat', kernelsWat(), { simd: true, bulk_memory: true })
-  try {
-    mod.validate()
-    const { buffer } = mod.toBinary({})
-    const wasm = Uint8Array.from(buffer)
-    const base64 = Buffer.from(wasm).toString('base64')
+  const wasm = {} as Record<KernelModule, Uint8Array>
+  const entries: string[] = []
+  for (const module of KERNEL_MODULES) {
+    const mod = wabt.parseWat(`${module}.wat`, kernelsWat(module), { simd: true, bulk_memory: true })
+    try {
+      mod.validate()
+      wasm[module] = Uint8Array.from(mod.toBinary({}).buffer)
+    } finally {
+      mod.destroy()
+    }
+    const base64 = Buffer.from(wasm[module]).toString('base64')
     const lines: string[] = []
-    for (let k = 0; k < base64.length; k += 120) lines.push(`  '${base64.slice(k, k + 120)}'`)
-    const generated = `// Generated by scripts/gen-kernels.ts (npm run kernels:generate). Do not edit by hand.
-// The WebAssembly SIMD128 module of the engine's fast paths; its text source, layout notes
+    for (let k = 0; k < base64.length; k += 120) lines.push(`    '${base64.slice(k, k + 120)}'`)
+    entries.push(`  ${module}:\n${lines.join(' +\n')}`)
+  }
+  const generated = `// Generated by scripts/gen-kernels.ts (npm run kernels:generate). Do not edit by hand.
+// The WebAssembly SIMD128 modules of the engine's fast paths; their text source, layout notes
 // and the reasons for each kernel's shape live in the generator.
 
-/** The module's bytes, base64-encoded. */
-export const KERNELS_WASM_BASE64 =
-${lines.join(' +\n')}
+/** Each module's bytes, base64-encoded. */
+export const KERNEL_MODULES_BASE64 = {
+${entries.join(',\n')}
+} as const
 `
-    return { wasm, generated }
-  } finally {
-    mod.destroy()
-  }
+  return { wasm, generated }
 }
 
 /** Where the generated module lives in the repository. */
@@ -1787,7 +1794,7 @@ async function main (): Promise<void> {
   const { wasm, generated } = await assembleKernels()
   const target = process.env.KERNEL_OUT ?? GENERATED_PATH
   writeFileSync(target, generated)
-  console.log(`wrote ${target} (${wasm.length} bytes of wasm)`)
+  console.log(`wrote ${target} (${Object.entries(wasm).map(([module, bytes]) => `${module} ${bytes.length}`).join(', ')} bytes of wasm)`)
 }
 
 if (process.argv[1] === fileURLToPath(import.meta.url)) await main()

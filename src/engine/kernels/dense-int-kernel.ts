@@ -21,7 +21,7 @@ import { GlauberTable } from './glauber-table.js'
  */
 type DenseIntExports = KernelsUsing<'dense16Load' | 'dense16Set' | 'dense16Sweep' | 'dense16Glauber' | 'dense16Sync' | 'dense16GlauberSync'>
 
-const workspaces = new Workspaces<DenseIntExports>(1024 * 1024)
+const workspaces = new Workspaces<DenseIntExports>('dense', 1024 * 1024)
 
 /** Moves the shared/private boundary (tests use it to exercise private instances on small networks). */
 export function setDenseIntPrivateBytes (bytes: number): void {

@@ -21,7 +21,7 @@ import type { KernelsUsing } from './signatures.js'
 type DenseExports = KernelsUsing<'denseLoad' | 'denseSweep' | 'denseGlauber' | 'denseSync' | 'denseGlauberSync'>
 
 /** Dense networks are built at most a few per second, so all but the smallest get a private memory. */
-const workspaces = new Workspaces<DenseExports>(1024 * 1024)
+const workspaces = new Workspaces<DenseExports>('dense', 1024 * 1024)
 
 /** Moves the shared/private boundary (tests use it to exercise private instances on small networks). */
 export function setDensePrivateBytes (bytes: number): void {

@@ -23,7 +23,7 @@ import type { KernelsUsing } from './signatures.js'
  */
 type MemoryExports = KernelsUsing<'overlaps32' | 'transpose' | 'memVectorPoly' | 'memSweepPoly' | 'memSyncPoly' | 'memGlauberPoly' | 'memGlauberSyncPoly' | 'memSweepExp' | 'memSyncExp'>
 
-const workspaces = new Workspaces<MemoryExports>(8 * 1024 * 1024)
+const workspaces = new Workspaces<MemoryExports>('memory', 8 * 1024 * 1024)
 
 /** Moves the shared/private boundary (tests use it to exercise private instances on small networks). */
 export function setDenseMemoryPrivateBytes (bytes: number): void {

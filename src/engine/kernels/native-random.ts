@@ -19,7 +19,7 @@ let kernel: RandomExports | null | undefined
 
 function randomKernel (): RandomExports | null {
   if (kernel === undefined) {
-    kernel = instantiateKernels<RandomExports>()
+    kernel = instantiateKernels<RandomExports>('random')
   }
   return kernel
 }

@@ -35,7 +35,7 @@ type OverlapExports = KernelsUsing<'runGlauber16' | 'overlaps16' | 'overlaps32' 
  * Networks whose neuron-major patterns take at least 8 MiB get a private instance, so the
  * shared workspace never holds more than that beyond the networks themselves.
  */
-const workspaces = new Workspaces<OverlapExports>(8 * 1024 * 1024)
+const workspaces = new Workspaces<OverlapExports>('overlap', 8 * 1024 * 1024)
 
 /** Moves the shared/private boundary (tests use it to exercise private instances on small networks). */
 export function setOverlapPrivateBytes (bytes: number): void {

@@ -1,82 +1,93 @@
 import type { WasmMemory } from './wasm.js'
 
 /**
- * The one table of the kernel module's exported functions: for each, its parameters in order
- * (`name` is an i32, `name:f64` a float64) and its result, if any. scripts/gen-kernels.ts writes
- * every function header of the WebAssembly text from this table (the names become the
- * parameters' `$` names the bodies use), and the TypeScript types the kernel classes call
- * through (`KernelExports`) are derived from it below, so the two cannot disagree.
- * test/engine/kernels/generated.test.ts checks the compiled module against it.
+ * The kernels come as several WebAssembly modules, one per kind of network (plus the native
+ * draws), each compiled when first used: a process pays the optimising compiler only for the
+ * kernels it runs, and adding a kernel for one model costs the others nothing.
+ */
+export const KERNEL_MODULES = ['random', 'overlap', 'dense', 'memory', 'softmax', 'sparse'] as const
+export type KernelModule = (typeof KERNEL_MODULES)[number]
+
+/**
+ * The one table of the kernel modules' exported functions: for each, the modules that carry
+ * it, its parameters in order (`name` is an i32, `name:f64` a float64) and its result, if any.
+ * scripts/gen-kernels.ts writes every function header of the WebAssembly text from this table
+ * (the names become the parameters' `$` names the bodies use), and the TypeScript types the
+ * kernel classes call through (`KernelExports`) are derived from it below, so the two cannot
+ * disagree. test/engine/kernels/generated.test.ts checks the compiled modules against it.
+ * Every module imports the host's `exp` (Math.exp, the plain path's exponential) and
+ * `sweepDone(sweep)` (the hook a whole-trial kernel calls after each sweep).
  */
 export const KERNEL_SIGNATURES = {
   // Overlap space, int16 overlaps (N ≤ 32767).
-  dot16: { params: ['xi', 'm', 'pp', 'i'], result: 'i32' },
-  flip16: { params: ['xi', 'm', 'pp', 'i', 'd0'] },
-  overlaps16: { params: ['xi', 'm', 's', 'n', 'pp'] },
-  sweep16: { params: ['xi', 'm', 's', 'order', 'n', 'pp', 'self'], result: 'i32' },
-  sync16: { params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'self', 'check'], result: 'i32' },
-  glauber16: { params: ['xi', 'm', 's', 'order', 'noise', 'n', 'pp', 'self', 'factor:f64', 'table', 'half'] },
-  glauberSync16: { params: ['xi', 'm', 's', 'next', 'noise', 'n', 'pp', 'self', 'factor:f64', 'table', 'half'] },
+  dot16: { modules: ['overlap'], params: ['xi', 'm', 'pp', 'i'], result: 'i32' },
+  flip16: { modules: ['overlap'], params: ['xi', 'm', 'pp', 'i', 'd0'] },
+  overlaps16: { modules: ['overlap'], params: ['xi', 'm', 's', 'n', 'pp'] },
+  sweep16: { modules: ['overlap'], params: ['xi', 'm', 's', 'order', 'n', 'pp', 'self'], result: 'i32' },
+  sync16: { modules: ['overlap'], params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'self', 'check'], result: 'i32' },
+  glauber16: { modules: ['overlap'], params: ['xi', 'm', 's', 'order', 'noise', 'n', 'pp', 'self', 'factor:f64', 'table', 'half'] },
+  glauberSync16: { modules: ['overlap'], params: ['xi', 'm', 's', 'next', 'noise', 'n', 'pp', 'self', 'factor:f64', 'table', 'half'] },
   // Overlap space, int32 overlaps (any N).
-  dot32: { params: ['xi', 'm', 'pp', 'i'], result: 'i32' },
-  flip32: { params: ['xi', 'm', 'pp', 'i', 'd0'] },
-  overlaps32: { params: ['xi', 'm', 's', 'n', 'pp'] },
-  sweep32: { params: ['xi', 'm', 's', 'order', 'n', 'pp', 'self'], result: 'i32' },
-  sync32: { params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'self', 'check'], result: 'i32' },
-  glauber32: { params: ['xi', 'm', 's', 'order', 'noise', 'n', 'pp', 'self', 'factor:f64', 'table', 'half'] },
-  glauberSync32: { params: ['xi', 'm', 's', 'next', 'noise', 'n', 'pp', 'self', 'factor:f64', 'table', 'half'] },
+  dot32: { modules: ['overlap'], params: ['xi', 'm', 'pp', 'i'], result: 'i32' },
+  flip32: { modules: ['overlap'], params: ['xi', 'm', 'pp', 'i', 'd0'] },
+  overlaps32: { modules: ['overlap', 'memory'], params: ['xi', 'm', 's', 'n', 'pp'] },
+  sweep32: { modules: ['overlap'], params: ['xi', 'm', 's', 'order', 'n', 'pp', 'self'], result: 'i32' },
+  sync32: { modules: ['overlap'], params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'self', 'check'], result: 'i32' },
+  glauber32: { modules: ['overlap'], params: ['xi', 'm', 's', 'order', 'noise', 'n', 'pp', 'self', 'factor:f64', 'table', 'half'] },
+  glauberSync32: { modules: ['overlap'], params: ['xi', 'm', 's', 'next', 'noise', 'n', 'pp', 'self', 'factor:f64', 'table', 'half'] },
   // Pattern layouts and sign bits.
-  transpose: { params: ['src', 'srcStride', 'cols', 'dst', 'stride', 'rows'] },
-  packSigns: { params: ['src', 'n', 'dst', 'words'], result: 'i32' },
-  packRows: { params: ['src', 'n', 'rows', 'dst', 'words'] },
-  overlapsBits: { params: ['bits', 'words', 's', 'sbits', 'n', 'p', 'pp', 'm', 'wide'], result: 'i32' },
+  transpose: { modules: ['overlap', 'memory'], params: ['src', 'srcStride', 'cols', 'dst', 'stride', 'rows'] },
+  packSigns: { modules: ['overlap', 'sparse'], params: ['src', 'n', 'dst', 'words'], result: 'i32' },
+  packRows: { modules: ['overlap', 'sparse'], params: ['src', 'n', 'rows', 'dst', 'words'] },
+  overlapsBits: { modules: ['overlap', 'sparse'], params: ['bits', 'words', 's', 'sbits', 'n', 'p', 'pp', 'm', 'wide'], result: 'i32' },
   // Native xoshiro256** draws.
-  shuffle: { params: ['order', 'n', 'state'] },
-  partialShuffle: { params: ['idx', 'n', 'count', 'state'] },
-  unbiasedRows: { params: ['out', 'n', 'count', 'state'] },
-  uniforms: { params: ['out', 'count', 'state'] },
+  shuffle: { modules: ['random'], params: ['order', 'n', 'state'] },
+  partialShuffle: { modules: ['random'], params: ['idx', 'n', 'count', 'state'] },
+  unbiasedRows: { modules: ['random'], params: ['out', 'n', 'count', 'state'] },
+  uniforms: { modules: ['random'], params: ['out', 'count', 'state'] },
   // Whole overlap-space trials.
-  runAsync16: { params: ['xi', 'm', 's', 'order', 'n', 'pp', 'self', 'state', 'max', 'shuffle'], result: 'i32' },
-  runGlauber16: { params: ['xi', 'm', 's', 'order', 'n', 'pp', 'self', 'state', 'max', 'shuffle', 'factor:f64', 'table', 'half'] },
-  runSync16: { params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'self', 'max'], result: 'i32' },
-  runSync32: { params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'self', 'max'], result: 'i32' },
+  runAsync16: { modules: ['overlap'], params: ['xi', 'm', 's', 'order', 'n', 'pp', 'self', 'state', 'max', 'shuffle'], result: 'i32' },
+  runGlauber16: { modules: ['overlap'], params: ['xi', 'm', 's', 'order', 'n', 'pp', 'self', 'state', 'max', 'shuffle', 'factor:f64', 'table', 'half'] },
+  runSync16: { modules: ['overlap'], params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'self', 'max'], result: 'i32' },
+  runSync32: { modules: ['overlap'], params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'self', 'max'], result: 'i32' },
   // Dense float64 couplings.
-  denseLoad: { params: ['cols', 'bias', 's', 'h', 'n', 'rowwise'] },
-  denseSweep: { params: ['cols', 's', 'h', 'order', 'n'], result: 'i32' },
-  denseGlauber: { params: ['cols', 's', 'h', 'order', 'noise', 'n', 'factor:f64'] },
-  denseSync: { params: ['cols', 'bias', 's', 'h', 'next', 'prev', 'n', 'check', 'rowwise'], result: 'i32' },
-  denseGlauberSync: { params: ['cols', 'bias', 's', 'h', 'next', 'noise', 'n', 'factor:f64', 'rowwise'] },
+  denseLoad: { modules: ['dense'], params: ['cols', 'bias', 's', 'h', 'n', 'rowwise'] },
+  denseSweep: { modules: ['dense'], params: ['cols', 's', 'h', 'order', 'n'], result: 'i32' },
+  denseGlauber: { modules: ['dense'], params: ['cols', 's', 'h', 'order', 'noise', 'n', 'factor:f64'] },
+  denseSync: { modules: ['dense'], params: ['cols', 'bias', 's', 'h', 'next', 'prev', 'n', 'check', 'rowwise'], result: 'i32' },
+  denseGlauberSync: { modules: ['dense'], params: ['cols', 'bias', 's', 'h', 'next', 'noise', 'n', 'factor:f64', 'rowwise'] },
   // Dense int16 couplings.
-  dense16Load: { params: ['cols', 'bias', 's', 's16', 'h', 'n', 'stride', 'rowsAreColumns'] },
-  dense16Set: { params: ['cols', 'h', 'stride', 'j', 'delta'] },
-  dense16Sweep: { params: ['cols', 's', 'h', 'order', 'n', 'stride'], result: 'i32' },
-  dense16Glauber: { params: ['cols', 's', 'h', 'order', 'noise', 'n', 'stride', 'factor:f64', 'table', 'half'] },
-  dense16Sync: { params: ['cols', 'bias', 's', 's16', 'h', 'next', 'prev', 'n', 'stride', 'check', 'rowsAreColumns'], result: 'i32' },
-  dense16GlauberSync: { params: ['cols', 'bias', 's', 's16', 'h', 'next', 'noise', 'n', 'stride', 'factor:f64', 'rowsAreColumns', 'table', 'half'] },
+  dense16Load: { modules: ['dense'], params: ['cols', 'bias', 's', 's16', 'h', 'n', 'stride', 'rowsAreColumns'] },
+  dense16Set: { modules: ['dense'], params: ['cols', 'h', 'stride', 'j', 'delta'] },
+  dense16Sweep: { modules: ['dense'], params: ['cols', 's', 'h', 'order', 'n', 'stride'], result: 'i32' },
+  dense16Glauber: { modules: ['dense'], params: ['cols', 's', 'h', 'order', 'noise', 'n', 'stride', 'factor:f64', 'table', 'half'] },
+  dense16Sync: { modules: ['dense'], params: ['cols', 'bias', 's', 's16', 'h', 'next', 'prev', 'n', 'stride', 'check', 'rowsAreColumns'], result: 'i32' },
+  dense16GlauberSync: { modules: ['dense'], params: ['cols', 'bias', 's', 's16', 'h', 'next', 'noise', 'n', 'stride', 'factor:f64', 'rowsAreColumns', 'table', 'half'] },
   // Dense associative memories: polynomial (exact integer fields) and exponential (certified signs).
-  memVectorPoly: { params: ['m', 'vec', 'table', 'p', 'off', 'sums'] },
-  memSweepPoly: { params: ['xi', 'm', 's', 'order', 'n', 'pp', 'p', 'vec', 'table', 'off', 'sums'], result: 'i32' },
-  memSyncPoly: { params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'p', 'vec', 'table', 'off', 'sums', 'check'], result: 'i32' },
-  memGlauberPoly: { params: ['xi', 'm', 's', 'order', 'noise', 'n', 'pp', 'p', 'vec', 'table', 'off', 'sums', 'factor:f64'] },
-  memGlauberSyncPoly: { params: ['xi', 'm', 's', 'next', 'noise', 'n', 'pp', 'p', 'vec', 'table', 'off', 'sums', 'factor:f64'] },
-  memVectorExp: { params: ['m', 'vec', 'table', 'p', 'sums'] },
-  memSweepExp: { params: ['xi', 'm', 's', 'order', 'n', 'pp', 'p', 'vec', 'table', 'sums'], result: 'i32' },
-  memSyncExp: { params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'p', 'vec', 'table', 'sums', 'check'], result: 'i32' },
+  memVectorPoly: { modules: ['memory'], params: ['m', 'vec', 'table', 'p', 'off', 'sums'] },
+  memSweepPoly: { modules: ['memory'], params: ['xi', 'm', 's', 'order', 'n', 'pp', 'p', 'vec', 'table', 'off', 'sums'], result: 'i32' },
+  memSyncPoly: { modules: ['memory'], params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'p', 'vec', 'table', 'off', 'sums', 'check'], result: 'i32' },
+  memGlauberPoly: { modules: ['memory'], params: ['xi', 'm', 's', 'order', 'noise', 'n', 'pp', 'p', 'vec', 'table', 'off', 'sums', 'factor:f64'] },
+  memGlauberSyncPoly: { modules: ['memory'], params: ['xi', 'm', 's', 'next', 'noise', 'n', 'pp', 'p', 'vec', 'table', 'off', 'sums', 'factor:f64'] },
+  memVectorExp: { modules: ['memory'], params: ['m', 'vec', 'table', 'p', 'sums'] },
+  memSweepExp: { modules: ['memory'], params: ['xi', 'm', 's', 'order', 'n', 'pp', 'p', 'vec', 'table', 'sums'], result: 'i32' },
+  memSyncExp: { modules: ['memory'], params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'p', 'vec', 'table', 'sums', 'check'], result: 'i32' },
   // The modern softmax network.
-  softmaxOverlaps: { params: ['pat', 'd', 'st', 'out', 'p', 'scale:f64'] },
-  softmaxAccumulate: { params: ['pat', 'd', 'coef', 'out', 'p'] },
+  softmaxOverlaps: { modules: ['softmax'], params: ['pat', 'd', 'st', 'out', 'p', 'scale:f64'] },
+  softmaxAccumulate: { modules: ['softmax'], params: ['pat', 'd', 'coef', 'out', 'p'] },
   // The fixed in-degree network (adjacency lists, int32 fields).
-  sparseLoad: { params: ['inputs', 'weights', 's', 'h', 'n', 'k'] },
-  sparseSweep: { params: ['outStart', 'targets', 'tw', 's', 'h', 'order', 'n'], result: 'i32' },
-  sparseRunAsync: { params: ['outStart', 'targets', 'tw', 's', 'h', 'order', 'n', 'state', 'max', 'shuffle'], result: 'i32' },
-  sparseSync: { params: ['outStart', 'targets', 'tw', 's', 'h', 'next', 'prev', 'n', 'check'], result: 'i32' },
-  sparseGlauber: { params: ['outStart', 'targets', 'tw', 's', 'h', 'order', 'noise', 'n', 'factor:f64', 'table', 'half'] },
-  sparseGlauberSync: { params: ['outStart', 'targets', 'tw', 's', 'h', 'next', 'noise', 'n', 'factor:f64', 'table', 'half'] }
+  sparseLoad: { modules: ['sparse'], params: ['inputs', 'weights', 's', 'h', 'n', 'k'] },
+  sparseSweep: { modules: ['sparse'], params: ['outStart', 'targets', 'tw', 's', 'h', 'order', 'n'], result: 'i32' },
+  sparseRunAsync: { modules: ['sparse'], params: ['outStart', 'targets', 'tw', 's', 'h', 'order', 'n', 'state', 'max', 'shuffle'], result: 'i32' },
+  sparseSync: { modules: ['sparse'], params: ['outStart', 'targets', 'tw', 's', 'h', 'next', 'prev', 'n', 'check'], result: 'i32' },
+  sparseGlauber: { modules: ['sparse'], params: ['outStart', 'targets', 'tw', 's', 'h', 'order', 'noise', 'n', 'factor:f64', 'table', 'half'] },
+  sparseGlauberSync: { modules: ['sparse'], params: ['outStart', 'targets', 'tw', 's', 'h', 'next', 'noise', 'n', 'factor:f64', 'table', 'half'] }
 } as const satisfies Record<string, KernelSignature>
 
 /** A parameter: `name` (i32) or `name:f64`. */
 export type KernelParam = string
 export interface KernelSignature {
+  readonly modules: readonly KernelModule[]
   readonly params: readonly KernelParam[]
   readonly result?: 'i32' | 'f64'
 }
@@ -85,7 +96,7 @@ export type KernelName = keyof typeof KERNEL_SIGNATURES
 
 /** Every JavaScript value crossing the boundary is a number (no i64 parameters). */
 type Args<P extends readonly string[]> = { -readonly [K in keyof P]: number }
-type KernelFunction<S extends KernelSignature> = (...args: Args<S['params']>) => S extends { result: string } ? number : void
+type KernelFunction<S extends Pick<KernelSignature, 'params' | 'result'>> = (...args: Args<S['params']>) => S extends { result: string } ? number : void
 
 /** The module's exports as the engine calls them, typed from the table. */
 export type KernelExports = { readonly [K in KernelName]: KernelFunction<(typeof KERNEL_SIGNATURES)[K]> } & { memory: WasmMemory }

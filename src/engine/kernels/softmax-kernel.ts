@@ -21,7 +21,7 @@ import type { KernelsUsing } from './signatures.js'
  */
 type SoftmaxExports = KernelsUsing<'softmaxOverlaps' | 'softmaxAccumulate'>
 
-const workspaces = new Workspaces<SoftmaxExports>(8 * 1024 * 1024)
+const workspaces = new Workspaces<SoftmaxExports>('softmax', 8 * 1024 * 1024)
 
 /** Moves the shared/private boundary (tests use it to exercise private instances on small networks). */
 export function setSoftmaxPrivateBytes (bytes: number): void {

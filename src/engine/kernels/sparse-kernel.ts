@@ -23,7 +23,7 @@ import type { RandomSource } from '../random/source.js'
  */
 type SparseExports = KernelsUsing<'packRows' | 'overlapsBits' | 'sparseLoad' | 'sparseSweep' | 'sparseRunAsync' | 'sparseSync' | 'sparseGlauber' | 'sparseGlauberSync'>
 
-const workspaces = new Workspaces<SparseExports>(8 * 1024 * 1024)
+const workspaces = new Workspaces<SparseExports>('sparse', 8 * 1024 * 1024)
 
 /** Moves the shared/private boundary (tests use it to exercise private instances on small networks). */
 export function setSparsePrivateBytes (bytes: number): void {

@@ -3,7 +3,8 @@
  * TypeScript libraries carry no WebAssembly declarations, plus the switch that lets tests
  * run the plain JavaScript path on purpose.
  */
-import { KERNELS_WASM_BASE64 } from './kernels.generated.js'
+import { KERNEL_MODULES_BASE64 } from './kernels.generated.js'
+import type { KernelModule } from './signatures.js'
 
 export interface WasmMemory {
   readonly buffer: ArrayBuffer
@@ -43,19 +44,22 @@ function base64ToBytes (text: string): Uint8Array {
   return out
 }
 
-let compiled: object | null | undefined
+const compiled = new Map<KernelModule, object | null>()
 
 /**
- * The engine's kernel module, compiled once per process on first use; null when the host
- * lacks WebAssembly or a feature the module uses (SIMD128, bulk memory).
+ * One of the engine's kernel modules, compiled once per process on first use (so a process
+ * compiles only the kernels it runs); null when the host lacks WebAssembly or a feature the
+ * module uses (SIMD128, bulk memory).
  */
-function kernelModule (): object | null {
-  if (compiled === undefined) {
+function kernelModule (name: KernelModule): object | null {
+  let mod = compiled.get(name)
+  if (mod === undefined) {
     const api = wasmApi()
-    const bytes = base64ToBytes(KERNELS_WASM_BASE64)
-    compiled = api !== null && api.validate(bytes) ? new api.Module(bytes) : null
+    const bytes = base64ToBytes(KERNEL_MODULES_BASE64[name])
+    mod = api !== null && api.validate(bytes) ? new api.Module(bytes) : null
+    compiled.set(name, mod)
   }
-  return compiled
+  return mod
 }
 
 let sweepObserver: ((sweep: number) => void) | null = null
@@ -81,10 +85,10 @@ const HOST = {
   }
 }
 
-/** A fresh instance of the kernel module (its own linear memory), or null without WebAssembly SIMD. */
-export function instantiateKernels<T> (): T | null {
+/** A fresh instance of a kernel module (its own linear memory), or null without WebAssembly SIMD. */
+export function instantiateKernels<T> (module: KernelModule): T | null {
   const api = wasmApi()
-  const mod = kernelModule()
+  const mod = kernelModule(module)
   if (api === null || mod === null) return null
   return new api.Instance(mod, HOST).exports as unknown as T
 }
@@ -114,16 +118,16 @@ export class Workspaces<T extends { memory: WasmMemory }> {
   #shared: Workspace<T> | null | undefined
 
   /** `privateBytes` is public so tests can exercise private instances on small networks. */
-  constructor (public privateBytes: number) {}
+  constructor (private readonly module: KernelModule, public privateBytes: number) {}
 
   /** The workspace for a network whose large array takes `bytes`; null without WebAssembly SIMD. */
   for (bytes: number): Workspace<T> | null {
     if (bytes >= this.privateBytes) {
-      const k = instantiateKernels<T>()
+      const k = instantiateKernels<T>(this.module)
       return k === null ? null : new Workspace(k, true)
     }
     if (this.#shared === undefined) {
-      const k = instantiateKernels<T>()
+      const k = instantiateKernels<T>(this.module)
       this.#shared = k === null ? null : new Workspace(k, false)
     }
     return this.#shared

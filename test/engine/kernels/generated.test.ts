@@ -1,41 +1,51 @@
 /**
- * The committed kernel module (src/engine/kernels/kernels.generated.ts) must be exactly what
- * the generator assembles from its WebAssembly text now, and its exports exactly the table of
+ * The committed kernel modules (src/engine/kernels/kernels.generated.ts) must be exactly what
+ * the generator assembles from its WebAssembly text now, and their exports exactly the table of
  * signatures the engine's TypeScript types come from. After changing a kernel or the table,
  * run `npm run kernels:generate` and commit both.
  */
 import { readFileSync } from 'node:fs'
 import { describe, expect, it } from 'vitest'
 import { assembleKernels, GENERATED_PATH } from '../../../scripts/gen-kernels.js'
-import { KERNELS_WASM_BASE64 } from '../../../src/engine/kernels/kernels.generated.js'
-import { KERNEL_SIGNATURES, parseParam } from '../../../src/engine/kernels/signatures.js'
+import { KERNEL_MODULES_BASE64 } from '../../../src/engine/kernels/kernels.generated.js'
+import { KERNEL_MODULES, KERNEL_SIGNATURES, parseParam } from '../../../src/engine/kernels/signatures.js'
 
 interface WasmReflection {
   Module: (new (bytes: Uint8Array) => object) & { exports: (module: object) => Array<{ name: string, kind: string }> }
   Instance: new (module: object, imports: Record<string, Record<string, unknown>>) => { exports: Record<string, unknown> }
 }
 const wasm = (globalThis as unknown as { WebAssembly: WasmReflection }).WebAssembly
-const committed = Uint8Array.from(Buffer.from(KERNELS_WASM_BASE64, 'base64'))
+const committed = (module: keyof typeof KERNEL_MODULES_BASE64): Uint8Array => Uint8Array.from(Buffer.from(KERNEL_MODULES_BASE64[module], 'base64'))
 
-describe('generated kernel module', () => {
-  it('has the bytes the generator assembles now (run `npm run kernels:generate` after changing scripts/gen-kernels.ts or the signature table)', async () => {
+describe('generated kernel modules', () => {
+  it('have the bytes the generator assembles now (run `npm run kernels:generate` after changing scripts/gen-kernels.ts or the signature table)', async () => {
     const { wasm: fresh, generated } = await assembleKernels()
-    expect(fresh.length).toBeGreaterThan(0)
-    // Byte for byte: first the module, then the whole generated file around it.
-    expect(Buffer.from(committed).equals(Buffer.from(fresh)), `module bytes differ (${committed.length} committed, ${fresh.length} generated)`).toBe(true)
+    expect(Object.keys(KERNEL_MODULES_BASE64).sort()).toStrictEqual([...KERNEL_MODULES].sort())
+    // Byte for byte: first each module, then the whole generated file around them.
+    for (const module of KERNEL_MODULES) {
+      const bytes = committed(module)
+      expect(fresh[module].length, module).toBeGreaterThan(0)
+      expect(Buffer.from(bytes).equals(Buffer.from(fresh[module])), `module ${module}: bytes differ (${bytes.length} committed, ${fresh[module].length} generated)`).toBe(true)
+    }
     expect(readFileSync(GENERATED_PATH, 'utf8')).toBe(generated)
   })
 
-  it('exports exactly the functions of the signature table, each taking the parameters the table lists', () => {
-    const mod = new wasm.Module(committed)
-    const functions = wasm.Module.exports(mod).filter((e) => e.kind === 'function').map((e) => e.name)
-    expect([...functions].sort()).toStrictEqual(Object.keys(KERNEL_SIGNATURES).sort())
-    const instance = new wasm.Instance(mod, { host: { exp: Math.exp, sweepDone: () => {} } })
-    for (const [name, signature] of Object.entries(KERNEL_SIGNATURES)) {
-      const fn = instance.exports[name] as (...args: number[]) => unknown
-      // An exported WebAssembly function's length is its parameter count.
-      expect(fn.length, name).toBe(signature.params.length)
-      for (const param of signature.params) expect(['i32', 'f64'], `${name}(${param})`).toContain(parseParam(param).type)
+  it('export exactly the functions of the signature table, each taking the parameters the table lists', () => {
+    for (const module of KERNEL_MODULES) {
+      const mod = new wasm.Module(committed(module))
+      const functions = wasm.Module.exports(mod).filter((e) => e.kind === 'function').map((e) => e.name)
+      const listed = Object.entries(KERNEL_SIGNATURES).filter(([, sig]) => (sig.modules as readonly string[]).includes(module)).map(([name]) => name)
+      expect([...functions].sort(), module).toStrictEqual(listed.sort())
+      const instance = new wasm.Instance(mod, { host: { exp: Math.exp, sweepDone: () => {} } })
+      for (const name of listed) {
+        const signature = KERNEL_SIGNATURES[name as keyof typeof KERNEL_SIGNATURES]
+        const fn = instance.exports[name] as (...args: number[]) => unknown
+        // An exported WebAssembly function's length is its parameter count.
+        expect(fn.length, `${module}.${name}`).toBe(signature.params.length)
+        for (const param of signature.params) expect(['i32', 'f64'], `${name}(${param})`).toContain(parseParam(param).type)
+      }
     }
+    // Every table entry lives in at least one module.
+    for (const [name, signature] of Object.entries(KERNEL_SIGNATURES)) expect(signature.modules.length, name).toBeGreaterThan(0)
   })
 })
