@@ -3,7 +3,7 @@
  * xoshiro256** stream seeded directly with the workload seed, drawing in the documented
  * order, so the outputs can be compared bit for bit with the C reference's integer variants.
  */
-import { buildNetwork, createScratch, generatePatterns, runTrialOn, Xoshiro256StarStar, type PointParams, type TrialRecord } from '../src/engine/index.js'
+import { buildNetwork, createScratch, runTrialOn, Xoshiro256StarStar, type PointParams, type TrialRecord } from '../src/engine/index.js'
 import { SoftmaxMemory } from '../src/engine/models/softmax/memory.js'
 import { createSoftmaxScratch, runSoftmaxTrial } from '../src/engine/models/softmax/trial.js'
 
@@ -56,7 +56,7 @@ export function runSoftmaxWorkload (workload: string, p: PointParams, trials: nu
   if (p.rule.kind !== 'modern-softmax') throw new Error('runSoftmaxWorkload needs the modern-softmax rule')
   const rng = Xoshiro256StarStar.fromSeed(BigInt(seed))
   const t0 = performance.now()
-  const mem = new SoftmaxMemory(generatePatterns(p, rng), p.neurons, p.patterns, p.rule.beta)
+  const mem = SoftmaxMemory.draw(p, p.rule.beta, rng)
   const t1 = performance.now()
   const scratch = createSoftmaxScratch(p.neurons, p.patterns)
   const records: TrialRecord[] = []

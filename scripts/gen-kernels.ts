@@ -718,7 +718,18 @@ function partialShuffle (): string {
       (i32.store (local.get $pj) (i32.load (local.get $pk)))
       (i32.store (local.get $pk) (local.get $tmp))
       (br_if $draw (i32.lt_u (local.tee $k (i32.add (local.get $k) (i32.const 1))) (local.get $count))))
-    ${XOSHIRO_STORE})`
+    ${XOSHIRO_STORE})
+
+  ;; The cue's bits once chosen ("partialShuffle"): s[idx[k]] for k < count negated, or set to 0 when $zero.
+  ${header('markChosen')}
+    (local $k i32) (local $p i32)
+    (block $done
+      (loop $mark
+        (br_if $done (i32.ge_u (local.get $k) (local.get $count)))
+        (local.set $p (i32.add (local.get $s) (i32.load (i32.add (local.get $idx) (i32.shl (local.get $k) (i32.const 2))))))
+        (i32.store8 (local.get $p) (select (i32.const 0) (i32.sub (i32.const 0) (i32.load8_s (local.get $p))) (local.get $zero)))
+        (local.set $k (i32.add (local.get $k) (i32.const 1)))
+        (br $mark))))`
 }
 
 /**

@@ -32,27 +32,27 @@ export interface Observation {
  * the target overlap over those after `burnIn` (`sampled`).
  */
 export function runDynamics (net: Network, dynamics: Dynamics, rng: RandomSource, scratch: Scratch, observe: Observation): DynamicsOutcome {
+  const thermal = dynamics.temperature > 0
+  const order = scratch.order
+  if (dynamics.update !== 'sync') resetIdentity(order)
+  // Without trajectories a zero-temperature trial observes nothing between sweeps, so a fast
+  // path may run it whole in one call.
+  if (!thermal && !observe.recordOverlap && !observe.recordEnergy && net.native !== null) {
+    const run = dynamics.update === 'sync'
+      ? net.native.runSynchronous?.(scratch.previous, dynamics.maxSweeps)
+      : net.native.runZeroTemperature?.(order, dynamics.maxSweeps, dynamics.update === 'async-random', rng)
+    if (run !== undefined && run !== null) return { sweeps: run.sweeps, ending: run.ending, timeAveragedOverlap: Number.NaN, overlapTrajectory: null, energyTrajectory: null }
+  }
   const overlapTrajectory = observe.recordOverlap ? [] as number[] : null
   const energyTrajectory = observe.recordEnergy ? [] as number[] : null
   const record = (): void => {
     overlapTrajectory?.push(observe.targetOverlap())
     energyTrajectory?.push(net.energyPerNeuron())
   }
-  const thermal = dynamics.temperature > 0
   let sampledSum = 0
   let sampledCount = 0
   let ending: Ending = thermal ? 'sampled' : 'max'
   let sweeps = 0
-  const order = scratch.order
-  if (dynamics.update !== 'sync') resetIdentity(order)
-  // Without trajectories a zero-temperature trial observes nothing between sweeps, so a fast
-  // path may run it whole in one call.
-  if (!thermal && overlapTrajectory === null && energyTrajectory === null && net.native !== null) {
-    const run = dynamics.update === 'sync'
-      ? net.native.runSynchronous?.(scratch.previous, dynamics.maxSweeps)
-      : net.native.runZeroTemperature?.(order, dynamics.maxSweeps, dynamics.update === 'async-random', rng)
-    if (run !== undefined && run !== null) return { sweeps: run.sweeps, ending: run.ending, timeAveragedOverlap: Number.NaN, overlapTrajectory: null, energyTrajectory: null }
-  }
   /** What happens between thermal sweeps: record, then sample after the burn-in. */
   const observeThermal = (sweep: number): void => {
     sweeps = sweep

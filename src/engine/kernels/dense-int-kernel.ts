@@ -120,7 +120,7 @@ export class DenseIntKernel {
     ws.reserve(this.isPrivate ? this.table.at + this.table.bytes : this.end)
     this.bias = new Int32Array(stride)
     this.bias.set(bias)
-    this.columns = this.isPrivate ? new Int16Array(ws.k.memory.buffer, this.colsAt, n * stride) : new Int16Array(n * stride)
+    this.columns = this.isPrivate ? new Int16Array(ws.buffer, this.colsAt, n * stride) : new Int16Array(n * stride)
     const cols = this.columns
     if (symmetric) {
       for (let j = 0; j < n; j++) cols.set(couplings.subarray(j * n, (j + 1) * n), j * stride)
@@ -129,7 +129,7 @@ export class DenseIntKernel {
         for (let j = 0; j < n; j++) cols[j * stride + i] = couplings[i * n + j]!
       }
     }
-    if (this.isPrivate) new Int32Array(ws.k.memory.buffer, this.biasAt, stride).set(this.bias)
+    if (this.isPrivate) new Int32Array(ws.buffer, this.biasAt, stride).set(this.bias)
     ws.residentId = this.isPrivate ? this.id : 0
   }
 
@@ -163,7 +163,7 @@ export class DenseIntKernel {
 
   glauber (state: Int8Array, h: Float64Array, order: Int32Array, noise: Float64Array, factor: number): void {
     const k = this.enterThermal()
-    const half = this.table.prepare(k.memory.buffer, factor)
+    const half = this.table.prepare(this.ws.buffer, factor)
     this.pass(state, h)
     this.order32.set(order)
     this.noise64.set(noise.subarray(0, this.n))
@@ -186,7 +186,7 @@ export class DenseIntKernel {
 
   glauberSync (state: Int8Array, h: Float64Array, noise: Float64Array, factor: number): void {
     const k = this.enterThermal()
-    const half = this.table.prepare(k.memory.buffer, factor)
+    const half = this.table.prepare(this.ws.buffer, factor)
     this.pass(state, h)
     this.noise64.set(noise.subarray(0, this.n))
     k.dense16GlauberSync(this.colsAt, this.biasAt, this.sAt, this.s16At, this.hAt, this.nextAt, this.noiseAt, this.n, this.stride, factor, this.rowsAreColumns, this.table.at, half)
@@ -202,7 +202,7 @@ export class DenseIntKernel {
   private enter (): DenseIntExports {
     const ws = this.ws
     ws.reserve(this.end)
-    const buffer = ws.k.memory.buffer
+    const buffer = ws.buffer
     if (buffer !== this.buffer) {
       this.buffer = buffer
       this.h32 = new Int32Array(buffer, this.hAt, this.stride)

@@ -85,7 +85,7 @@ export class DenseKernel {
     this.noiseAt = align16(this.orderAt + 4 * n)
     this.end = this.noiseAt + 8 * n
     ws.reserve(this.end)
-    const buffer = ws.k.memory.buffer
+    const buffer = ws.buffer
     if (this.isPrivate) {
       new Float64Array(buffer, this.biasAt, n).set(bias)
       this.columns = new Float64Array(buffer, this.colsAt, n * n)
@@ -148,7 +148,7 @@ export class DenseKernel {
     const ws = this.ws
     const n = this.n
     ws.reserve(this.end)
-    const buffer = ws.k.memory.buffer
+    const buffer = ws.buffer
     if (buffer !== this.buffer) {
       this.buffer = buffer
       this.h64 = new Float64Array(buffer, this.hAt, n)

@@ -142,7 +142,7 @@ export class DenseMemoryKernel {
     this.end = this.stageAt + this.stageRows * n + 32
     this.isPrivate = ws.isPrivate
     ws.reserve(this.end)
-    this.xi = this.isPrivate ? new Int8Array(ws.k.memory.buffer, 0, n * pp) : new Int8Array(n * pp)
+    this.xi = this.isPrivate ? new Int8Array(ws.buffer, 0, n * pp) : new Int8Array(n * pp)
   }
 
   /** Fills `xi` from pattern-major ±1 patterns (patterns[μ·N + i]), 16×16 tiles at a time (as the overlap kernel). */
@@ -219,7 +219,7 @@ export class DenseMemoryKernel {
   private enter (copyPatterns = true): void {
     const ws = this.ws
     if (!this.isPrivate) ws.reserve(this.end)
-    const buffer = ws.k.memory.buffer
+    const buffer = ws.buffer
     if (buffer !== this.buffer) {
       this.buffer = buffer
       this.u8 = new Uint8Array(buffer)

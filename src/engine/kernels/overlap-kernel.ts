@@ -149,7 +149,7 @@ export class OverlapKernel {
     // A private memory never grows after this (`xi` is a view into it): the Glauber table's
     // room is reserved now; a shared one grows on first thermal use.
     ws.reserve(this.isPrivate ? this.table.at + this.table.bytes : this.end)
-    this.xi = this.isPrivate ? new Int8Array(ws.k.memory.buffer, 0, n * pp) : new Int8Array(n * pp)
+    this.xi = this.isPrivate ? new Int8Array(ws.buffer, 0, n * pp) : new Int8Array(n * pp)
     this.bits = this.isPrivate ? EMPTY.u8 : new Uint8Array(8 * this.words * p)
   }
 
@@ -304,7 +304,7 @@ export class OverlapKernel {
   /** For tests: a copy of the Glauber table as the last sweep left it (entry k is field k − half; 0 = never needed). */
   glauberTableSnapshot (): { half: number, values: Float64Array } {
     const half = this.table.halfWidth
-    const values = half < 0 ? new Float64Array(0) : new Float64Array(this.ws.k.memory.buffer, this.table.at, 2 * half + 1).slice()
+    const values = half < 0 ? new Float64Array(0) : new Float64Array(this.ws.buffer, this.table.at, 2 * half + 1).slice()
     return { half, values }
   }
 
@@ -312,14 +312,14 @@ export class OverlapKernel {
   private enterThermal (factor: number): number {
     this.ws.reserve(this.table.at + this.table.bytes)
     this.enter()
-    return this.table.prepare(this.ws.k.memory.buffer, factor)
+    return this.table.prepare(this.ws.buffer, factor)
   }
 
   /** Makes this network's layout current: memory large enough, views fresh, patterns resident. */
   private enter (copyPatterns = true): void {
     const ws = this.ws
     if (!this.isPrivate) ws.reserve(this.end)
-    const buffer = ws.k.memory.buffer
+    const buffer = ws.buffer
     if (buffer !== this.buffer) {
       this.buffer = buffer
       this.u8 = new Uint8Array(buffer)

@@ -43,6 +43,7 @@ export const KERNEL_SIGNATURES = {
   // Native xoshiro256** draws.
   shuffle: { modules: ['random'], params: ['order', 'n', 'state'] },
   partialShuffle: { modules: ['random'], params: ['idx', 'n', 'count', 'state'] },
+  markChosen: { modules: ['random'], params: ['idx', 's', 'count', 'zero'] },
   unbiasedRows: { modules: ['random'], params: ['out', 'n', 'count', 'state'] },
   uniforms: { modules: ['random'], params: ['out', 'count', 'state'] },
   // Whole overlap-space trials.

@@ -58,14 +58,18 @@ export class SoftmaxKernel {
   private coef64: Float64Array = EMPTY.f64
   private out64: Float64Array = EMPTY.f64
 
-  /** Null when the host lacks WebAssembly SIMD or the layout does not fit a 32-bit memory. */
-  static create (patterns: Int8Array, dimension: number, count: number): SoftmaxKernel | null {
+  /**
+   * Null when the host lacks WebAssembly SIMD or the layout does not fit a 32-bit memory. With
+   * `patterns` null the caller fills `patterns` itself afterwards (a private memory then holds
+   * the only copy from the start: no second pattern-sized array exists even while building).
+   */
+  static create (patterns: Int8Array | null, dimension: number, count: number): SoftmaxKernel | null {
     if (dimension * count + softmaxKernelExtraBytes(dimension, count) > 3.5 * 2 ** 30) return null
     const ws = workspaces.for(dimension * count)
     return ws === null ? null : unlessMemoryRefused(() => new SoftmaxKernel(ws, patterns, dimension, count))
   }
 
-  private constructor (ws: Workspace<SoftmaxExports>, patterns: Int8Array, d: number, p: number) {
+  private constructor (ws: Workspace<SoftmaxExports>, patterns: Int8Array | null, d: number, p: number) {
     this.ws = ws
     this.k = ws.k
     this.d = d
@@ -80,10 +84,10 @@ export class SoftmaxKernel {
     this.isPrivate = ws.isPrivate
     ws.reserve(this.end)
     if (this.isPrivate) {
-      this.patterns = new Int8Array(ws.k.memory.buffer, this.patAt, d * p)
-      this.patterns.set(patterns)
+      this.patterns = new Int8Array(ws.buffer, this.patAt, d * p)
+      if (patterns !== null) this.patterns.set(patterns)
     } else {
-      this.patterns = patterns
+      this.patterns = patterns ?? new Int8Array(d * p)
     }
   }
 
@@ -106,7 +110,7 @@ export class SoftmaxKernel {
   private enter (): void {
     const ws = this.ws
     if (!this.isPrivate) ws.reserve(this.end)
-    const buffer = ws.k.memory.buffer
+    const buffer = ws.buffer
     if (buffer !== this.buffer) {
       this.buffer = buffer
       this.st64 = new Float64Array(buffer, this.stAt, align16(this.d))

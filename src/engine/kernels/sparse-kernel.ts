@@ -148,7 +148,7 @@ export class SparseKernel {
     // A private memory never grows after this (views into it would be detached): the Glauber
     // table's room is reserved now.
     ws.reserve(this.isPrivate ? this.table.at + this.table.bytes : this.end)
-    const buffer = ws.k.memory.buffer
+    const buffer = ws.buffer
     this.inputs = this.isPrivate ? new Uint16Array(buffer, this.inputsAt, edges) : new Uint16Array(edges)
     this.weights = this.isPrivate ? new Int16Array(buffer, this.weightsAt, edges) : new Int16Array(edges)
     this.targets = this.isPrivate ? new Uint16Array(buffer, this.targetsAt, edges) : new Uint16Array(edges)
@@ -160,7 +160,7 @@ export class SparseKernel {
   loadPatterns (patterns: Int8Array): void {
     const { n, p } = this
     this.enter()
-    const u8 = new Uint8Array(this.ws.k.memory.buffer)
+    const u8 = new Uint8Array(this.ws.buffer)
     for (let mu0 = 0; mu0 < p; mu0 += this.stageRows) {
       const rows = Math.min(this.stageRows, p - mu0)
       u8.set(new Uint8Array(patterns.buffer, patterns.byteOffset + mu0 * n, rows * n), this.stageAt)
@@ -250,13 +250,13 @@ export class SparseKernel {
   private enterThermal (factor: number): number {
     this.ws.reserve(this.table.at + this.table.bytes)
     this.enter()
-    return this.table.prepare(this.ws.k.memory.buffer, factor)
+    return this.table.prepare(this.ws.buffer, factor)
   }
 
   private enter (): void {
     const ws = this.ws
     if (!this.isPrivate) ws.reserve(this.end)
-    const buffer = ws.k.memory.buffer
+    const buffer = ws.buffer
     if (buffer !== this.buffer) {
       this.buffer = buffer
       this.h32 = new Int32Array(buffer, this.hAt, this.n)

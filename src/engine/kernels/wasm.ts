@@ -97,12 +97,27 @@ export function instantiateKernels<T> (module: KernelModule): T | null {
 export class Workspace<T extends { memory: WasmMemory }> {
   /** The network whose data the memory holds now (shared workspaces copy theirs in on entry). */
   residentId = 0
-  constructor (readonly k: T, readonly isPrivate: boolean) {}
+  /**
+   * The memory's current buffer. Reading `memory.buffer` costs a call into the host on every
+   * kernel entry; the memory only grows through `reserve` (no kernel grows it), so the buffer
+   * is read again only then.
+   */
+  #buffer: ArrayBuffer
+  constructor (readonly k: T, readonly isPrivate: boolean) {
+    this.#buffer = k.memory.buffer
+  }
+
+  get buffer (): ArrayBuffer {
+    return this.#buffer
+  }
 
   /** Grows the memory to at least `bytes`; throws RangeError when the host refuses. */
   reserve (bytes: number): void {
-    const have = this.k.memory.buffer.byteLength
-    if (bytes > have) this.k.memory.grow(Math.ceil((bytes - have) / WASM_PAGE))
+    const have = this.#buffer.byteLength
+    if (bytes > have) {
+      this.k.memory.grow(Math.ceil((bytes - have) / WASM_PAGE))
+      this.#buffer = this.k.memory.buffer
+    }
   }
 }
 

@@ -1,5 +1,8 @@
 import { SoftmaxKernel } from '../../kernels/softmax-kernel.js'
 import { areFastPathsEnabled } from '../../kernels/wasm.js'
+import { generatePatterns } from '../../patterns/generate.js'
+import type { PointParams } from '../../params.js'
+import type { RandomSource } from '../../random/source.js'
 
 /**
  * Modern continuous Hopfield network (Ramsauer et al., "Hopfield Networks is All You Need",
@@ -39,17 +42,27 @@ export class SoftmaxMemory {
   /** The kernel's coefficients c_μ of the weighted sum. */
   private readonly coefficients: Float64Array
 
-  constructor (patterns: Int8Array, dimension: number, patternCount: number, beta: number) {
+  /**
+   * `patterns` as drawn, or a function that draws them into the array it is given (so a fast
+   * path can have them drawn straight into its own memory, holding the only copy).
+   */
+  constructor (patterns: Int8Array | ((into: Int8Array) => void), dimension: number, patternCount: number, beta: number) {
     this.dimension = dimension
     this.patternCount = patternCount
     this.beta = beta
     this.scale = 1 / Math.sqrt(dimension)
     this.weights = new Float64Array(patternCount)
-    this.kernel = areFastPathsEnabled() ? SoftmaxKernel.create(patterns, dimension, patternCount) : null
-    // A private kernel memory holds the only copy of large pattern sets.
-    this.patterns = this.kernel?.patterns ?? patterns
+    const given = typeof patterns === 'function' ? null : patterns
+    this.kernel = areFastPathsEnabled() ? SoftmaxKernel.create(given, dimension, patternCount) : null
+    this.patterns = this.kernel?.patterns ?? given ?? new Int8Array(dimension * patternCount)
+    if (typeof patterns === 'function') patterns(this.patterns)
     this.fastPath = this.kernel?.name ?? 'js'
     this.coefficients = new Float64Array(this.kernel === null ? 0 : patternCount)
+  }
+
+  /** Draws the point's patterns from `rng` into the memory's own storage (see the constructor). */
+  static draw (p: PointParams, beta: number, rng: RandomSource): SoftmaxMemory {
+    return new SoftmaxMemory((into) => { generatePatterns(p, rng, into) }, p.neurons, p.patterns, beta)
   }
 
   /** x^μᵀ state for every stored pattern, into out (length P). */
