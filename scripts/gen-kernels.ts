@@ -486,6 +486,113 @@ function syncBody (w: Width): string {
  * compared from t = 2 on) until a fixed point, a two-cycle or $max steps. Returns
  * 4·steps + ending (0 limit reached, 1 fixed point, 2 two-cycle).
  */
+/**
+ * A whole zero-temperature synchronous trial (int16 overlaps) that recomputes only the fields
+ * whose sign may have changed. After a step that changes c neurons, every field moves by at
+ * most ||Δm||₁ = Σ_μ |Δm_μ| (the sum of the overlaps' changes; the changes of c neurons partly
+ * cancel, so this is far below 2cP), and a field whose last exact value h has |h| greater than
+ * the sum of those bounds since it was computed still has h's sign and is not 0: its decision,
+ * sign(h), is the one the exact field gives. Each neuron keeps its last exact field (hb, int32)
+ * and the cumulative bound G at that moment (gb, float64, exact below 2⁵³); neurons that
+ * change are recomputed on the next step (their self term moved), and the first step computes
+ * every field. Late steps, near a fixed point, then compute a few per cent of the fields.
+ * Same contract and result as runSync16 without the bounds: every decision is exact.
+ */
+function runSync16Bounded (): string {
+  const hbAt = (j: string): string => `(i32.add (local.get $hb) (i32.shl ${j} (i32.const 2)))`
+  const gbAt = (j: string): string => `(i32.add (local.get $gb) (i32.shl ${j} (i32.const 3)))`
+  /** 1 when neuron ${j} needs its exact field this step. */
+  const needs = (j: string): string => `(i32.or (local.get $first)
+          (i32.eqz (f64.gt
+            (f64.convert_i32_s (select (local.tee $hv (i32.load ${hbAt(j)})) (i32.sub (i32.const 0) (local.get $hv)) (i32.ge_s (local.get $hv) (i32.const 0))))
+            (f64.sub (local.get $G) (f64.load ${gbAt(j)})))))`
+  const exactOne = (j: string): string => `
+          (local.set $row (i32.add (local.get $xi) (i32.mul ${j} (local.get $pp))))
+          ${dot(16)}
+          (i32.store ${hbAt(j)} (i32.sub (local.get $h) (i32.mul (local.get $self) (i32.load8_s (i32.add (local.get $s) ${j})))))
+          (f64.store ${gbAt(j)} (local.get $G))`
+  const decideAt = (j: string, offset: number): string => `
+        (local.set $si (i32.load8_s offset=${offset} (i32.add (local.get $s) ${j})))
+        (local.set $h (i32.load offset=${4 * offset} ${hbAt(j)}))
+        (local.set $v ${DECIDE})
+        (i32.store8 offset=${offset} (i32.add (local.get $next) ${j}) (local.get $v))
+        (if (i32.ne (local.get $v) (local.get $si)) (then (local.set $same (i32.const 0))))`
+  const group = `
+        (local.set $need (i32.or (i32.or ${needs('(local.get $i)')} (i32.shl ${needs('(i32.add (local.get $i) (i32.const 1))')} (i32.const 1)))
+          (i32.or (i32.shl ${needs('(i32.add (local.get $i) (i32.const 2))')} (i32.const 2)) (i32.shl ${needs('(i32.add (local.get $i) (i32.const 3))')} (i32.const 3)))))
+        (if (i32.eq (local.get $need) (i32.const 15))
+          (then
+            (local.set $r0 (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+            (local.set $r1 (i32.add (local.get $r0) (local.get $pp)))
+            (local.set $r2 (i32.add (local.get $r1) (local.get $pp)))
+            (local.set $r3 (i32.add (local.get $r2) (local.get $pp)))
+            ${dot4()}
+            ${[0, 1, 2, 3].map((j) => `(i32.store offset=${4 * j} ${hbAt('(local.get $i)')} (i32.sub (local.get $h${j}) (i32.mul (local.get $self) (i32.load8_s offset=${j} (i32.add (local.get $s) (local.get $i))))))
+            (f64.store offset=${8 * j} ${gbAt('(local.get $i)')} (local.get $G))`).join('\n            ')})
+          (else
+            ${[0, 1, 2, 3].map((j) => `(if (i32.and (local.get $need) (i32.const ${1 << j})) (then
+              (local.set $j (i32.add (local.get $i) (i32.const ${j})))
+              ${exactOne('(local.get $j)')}))`).join('\n            ')}))
+        ${[0, 1, 2, 3].map((j) => decideAt('(local.get $i)', j)).join('')}`
+  return `
+  ${header('runSync16')}
+    ${LOCALS} ${LOCALS4}
+    (local $i i32) (local $j i32) (local $si i32) (local $v i32) (local $same i32) (local $check i32) (local $steps i32)
+    (local $first i32) (local $need i32) (local $hv i32) (local $G f64) (local $acc v128) (local $mq i32) (local $me i32)
+    (loop $trial
+      (local.set $steps (i32.add (local.get $steps) (i32.const 1)))
+      (local.set $check (i32.ge_u (local.get $steps) (i32.const 2)))
+      (local.set $first (i32.eq (local.get $steps) (i32.const 1)))
+      (block $step
+        (local.set $same (i32.const 1))
+        (local.set $i (i32.const 0))
+        (block $groupsDone
+          (loop $group
+            (br_if $groupsDone (i32.gt_u (i32.add (local.get $i) (i32.const 4)) (local.get $n)))
+            ${group}
+            (local.set $i (i32.add (local.get $i) (i32.const 4)))
+            (br $group)))
+        (block $tailDone
+          (loop $tail
+            (br_if $tailDone (i32.ge_u (local.get $i) (local.get $n)))
+            (if ${needs('(local.get $i)')} (then ${exactOne('(local.get $i)')}))
+            ${decideAt('(local.get $i)', 0)}
+            (local.set $i (i32.add (local.get $i) (i32.const 1)))
+            (br $tail)))
+        (br_if $step (local.get $same))
+        ${TWO_CYCLE_CHECK}
+        (memory.copy (local.get $mprev) (local.get $m) (i32.shl (local.get $pp) (i32.const 1)))
+        (local.set $i (i32.const 0))
+        (loop $apply
+          (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+          (local.set $v (i32.load8_s (i32.add (local.get $next) (local.get $i))))
+          (i32.store8 (i32.add (local.get $prev) (local.get $i)) (local.get $si))
+          (if (i32.ne (local.get $v) (local.get $si))
+            (then
+              (i32.store8 (i32.add (local.get $s) (local.get $i)) (local.get $v))
+              (local.set $delta (i32.sub (local.get $v) (local.get $si)))
+              (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+              ${flip(16)}
+              ;; Its self term moved: recompute it next step.
+              (f64.store ${gbAt('(local.get $i)')} (f64.const -inf))))
+          (br_if $apply (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))
+        ;; G += Σ_μ |m_μ − m'_μ| (widened to int32: a difference of two int16 overlaps may not fit int16).
+        (local.set $acc (v128.const i32x4 0 0 0 0))
+        (local.set $mq (i32.const 0))
+        (local.set $me (i32.shl (local.get $pp) (i32.const 1)))
+        (loop $norm
+          (local.set $x (v128.load (i32.add (local.get $m) (local.get $mq))))
+          (local.set $y (v128.load (i32.add (local.get $mprev) (local.get $mq))))
+          (local.set $acc (i32x4.add (local.get $acc) (i32x4.abs (i32x4.sub (i32x4.extend_low_i16x8_s (local.get $x)) (i32x4.extend_low_i16x8_s (local.get $y))))))
+          (local.set $acc (i32x4.add (local.get $acc) (i32x4.abs (i32x4.sub (i32x4.extend_high_i16x8_s (local.get $x)) (i32x4.extend_high_i16x8_s (local.get $y))))))
+          (br_if $norm (i32.lt_u (local.tee $mq (i32.add (local.get $mq) (i32.const 16))) (local.get $me))))
+        (local.set $G (f64.add (local.get $G) (f64.convert_i32_u (i32.add
+          (i32.add (i32x4.extract_lane 0 (local.get $acc)) (i32x4.extract_lane 1 (local.get $acc)))
+          (i32.add (i32x4.extract_lane 2 (local.get $acc)) (i32x4.extract_lane 3 (local.get $acc))))))))
+      (br_if $trial (i32.and (i32.eqz (local.get $same)) (i32.lt_u (local.get $steps) (local.get $max)))))
+    (i32.add (i32.shl (local.get $steps) (i32.const 2)) (local.get $same)))`
+}
+
 function runSync (w: Width): string {
   return `
   ${header(`runSync${w}`)}
@@ -1745,7 +1852,7 @@ function sparse (): string {
 /** What each module holds, in the order its binary lists the functions. */
 const MODULE_PARTS: Record<KernelModule, () => string[]> = {
   random: () => [shuffle(), partialShuffle(), unbiasedRows(), uniforms()],
-  overlap: () => [variant(16), variant(32), transpose(), signBits(), runAsync16(), runGlauber16(), runSync(16), runSync(32)],
+  overlap: () => [variant(16), variant(32), transpose(), signBits(), runAsync16(), runGlauber16(), runSync16Bounded(), runSync(32)],
   dense: () => [dense(), dense16()],
   memory: () => [overlapsFunction(32), transpose(), denseMemory('Poly'), denseMemory('Exp')],
   softmax: () => [softmax()],

@@ -60,7 +60,7 @@ export type OverlapKernelName = 'wasm-simd128-overlap-i16' | 'wasm-simd128-overl
  */
 export function overlapKernelName (neurons: number, patterns: number): OverlapKernelName | null {
   if (patterns * (neurons + 1) >= 2 ** 31) return null
-  if (align16(neurons) * align16(patterns) + OverlapKernel.signBitBytes(neurons, patterns) + 16 * neurons + 8 * patterns > 3.5 * 2 ** 30) return null
+  if (align16(neurons) * align16(patterns) + OverlapKernel.signBitBytes(neurons, patterns) + 28 * neurons + 10 * patterns > 3.5 * 2 ** 30) return null
   return neurons <= I16_NEURONS ? 'wasm-simd128-overlap-i16' : 'wasm-simd128-overlap-i32'
 }
 
@@ -88,6 +88,11 @@ export class OverlapKernel {
   private readonly noiseAt: number
   private readonly stageAt: number
   private readonly rngAt: number
+  // Whole synchronous trials: each neuron's last exact field and the bound at that moment, and
+  // the overlaps before a step (see "runSync16Bounded" in the generator).
+  private readonly hbAt: number
+  private readonly gbAt: number
+  private readonly mPrevAt: number
   // Sign bits of the patterns (pattern-major, `words` 64-bit words a row) and of the state:
   // initial overlaps by popcount (see "overlapsBits" in the generator).
   private readonly words: number
@@ -136,8 +141,11 @@ export class OverlapKernel {
     this.orderAt = align16(this.prevAt + n)
     this.noiseAt = align16(this.orderAt + 4 * n)
     this.rngAt = align16(this.noiseAt + 8 * n)
+    this.hbAt = align16(this.rngAt + 48)
+    this.gbAt = align16(this.hbAt + 4 * n)
+    this.mPrevAt = align16(this.gbAt + 8 * n)
     this.words = Math.ceil(n / 64)
-    this.bitsAt = align16(this.rngAt + 48)
+    this.bitsAt = align16(this.mPrevAt + 2 * pp)
     this.sbitsAt = this.bitsAt + 8 * this.words * p
     this.stageAt = align16(this.sbitsAt + 8 * this.words)
     // Pattern rows staged for the transposer in chunks of about STAGE_BYTES (multiples of 16
@@ -234,8 +242,9 @@ export class OverlapKernel {
     this.enter()
     this.pass(state, m)
     this.prev8.set(previous)
-    const fn = this.wide ? this.k.runSync32 : this.k.runSync16
-    const r = fn(this.xiAt, this.mAt, this.sAt, this.nextAt, this.prevAt, this.n, this.stride, this.self, maxSteps)
+    const r = this.wide
+      ? this.k.runSync32(this.xiAt, this.mAt, this.sAt, this.nextAt, this.prevAt, this.n, this.stride, this.self, maxSteps)
+      : this.k.runSync16(this.xiAt, this.mAt, this.sAt, this.nextAt, this.prevAt, this.n, this.stride, this.self, maxSteps, this.hbAt, this.gbAt, this.mPrevAt)
     previous.set(this.prev8)
     this.leave(state, m, true)
     const ending = r & 3

@@ -49,7 +49,7 @@ export const KERNEL_SIGNATURES = {
   // Whole overlap-space trials.
   runAsync16: { modules: ['overlap'], params: ['xi', 'm', 's', 'order', 'n', 'pp', 'self', 'state', 'max', 'shuffle'], result: 'i32' },
   runGlauber16: { modules: ['overlap'], params: ['xi', 'm', 's', 'order', 'n', 'pp', 'self', 'state', 'max', 'shuffle', 'factor:f64', 'table', 'half'] },
-  runSync16: { modules: ['overlap'], params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'self', 'max'], result: 'i32' },
+  runSync16: { modules: ['overlap'], params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'self', 'max', 'hb', 'gb', 'mprev'], result: 'i32' },
   runSync32: { modules: ['overlap'], params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'self', 'max'], result: 'i32' },
   // Dense float64 couplings.
   denseLoad: { modules: ['dense'], params: ['cols', 'bias', 's', 'h', 'n', 'rowwise'] },

@@ -154,7 +154,7 @@ export class DenseMemoryNetwork implements Network {
   }
 
   rawOverlaps (out: Float64Array): void {
-    for (let mu = 0; mu < this.patternCount; mu++) out[mu] = this.overlaps[mu]!
+    out.set(this.overlaps)
   }
 
   readonly rawOverlapWith = (mu: number): number => this.overlaps[mu]!

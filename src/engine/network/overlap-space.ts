@@ -129,7 +129,9 @@ export class OverlapSpaceNetwork implements Network {
   energyPerNeuron (): number {
     // Σ_{i≠j} J_ij s_i s_j = (1/N)(Σ_μ m_μ² − P Σ_i s_i²)
     let sumSq = 0
-    for (let mu = 0; mu < this.patternCount; mu++) sumSq += this.overlaps[mu]! * this.overlaps[mu]!
+    const m = this.overlaps
+    const p = this.patternCount
+    for (let mu = 0; mu < p; mu++) sumSq += m[mu]! * m[mu]!
     // Σ_i s_i² is N less the erased (0) entries; indexOf finds them natively, so the common
     // all-±1 state costs no JavaScript loop over the neurons.
     let active = this.neurons
@@ -139,7 +141,8 @@ export class OverlapSpaceNetwork implements Network {
   }
 
   rawOverlaps (out: Float64Array): void {
-    for (let mu = 0; mu < this.patternCount; mu++) out[mu] = this.overlaps[mu]!
+    // A native copy (int32 to double, exact), no JavaScript loop.
+    out.set(this.overlaps)
   }
 
   readonly rawOverlapWith = (mu: number): number => this.overlaps[mu]!
