@@ -257,16 +257,81 @@ function sweep16Grouped (): string {
  * that changes nothing or after $max sweeps. Returns 2·sweeps + (1 if the last sweep changed
  * a neuron). The generator state and its last output are written back as in "shuffle".
  */
+/**
+ * The asynchronous sweep of runAsync16, recomputing only fields whose sign may have changed.
+ * A flip of s_j by Δ changes every overlap by Δ·ξ_j^μ, so any field moves by at most |Δ|·P
+ * (||Δm||₁; the flipped neuron's own field also moves by its self term, so it is marked stale).
+ * Each neuron keeps its last exact field (hb) and the running bound G at that moment (gb); a
+ * field further from 0 than G − gb still has its sign and is not 0, so the decision sign(h) is
+ * the exact one. Near a fixed point (the last sweep of a trial, which changes nothing) most
+ * fields are decided so without a dot product. Where a visit needs its field, the fields of the
+ * next four visits are computed together (as sweep16) when another of them needs it too; each
+ * is stored with the G of that moment, and a later flip only widens its bound.
+ */
+function boundedSweep16Body (): string {
+  const hbAt = (j: string): string => `(i32.add (local.get $hb) (i32.shl ${j} (i32.const 2)))`
+  const gbAt = (j: string): string => `(i32.add (local.get $gb) (i32.shl ${j} (i32.const 3)))`
+  const needs = (j: string): string => `(i32.eqz (f64.gt
+            (f64.convert_i32_s (select (local.tee $hv (i32.load ${hbAt(j)})) (i32.sub (i32.const 0) (local.get $hv)) (i32.ge_s (local.get $hv) (i32.const 0))))
+            (f64.sub (local.get $G) (f64.load ${gbAt(j)}))))`
+  const orderAt = (j: number): string => `(i32.load offset=${4 * j} (i32.add (local.get $order) (i32.shl (local.get $k) (i32.const 2))))`
+  const load = (j: number): string => `
+              (local.set $i${j} ${orderAt(j)})
+              (local.set $r${j} (i32.add (local.get $xi) (i32.mul (local.get $i${j}) (local.get $pp))))`
+  const store = (j: number): string => `
+              (i32.store ${hbAt(`(local.get $i${j})`)} (i32.sub (local.get $h${j}) (i32.mul (local.get $self) (i32.load8_s (i32.add (local.get $s) (local.get $i${j}))))))
+              (f64.store ${gbAt(`(local.get $i${j})`)} (local.get $G))`
+  return `
+    (local.set $k (i32.const 0))
+    (block $done
+      (loop $visit
+        (br_if $done (i32.ge_u (local.get $k) (local.get $n)))
+        (local.set $i (i32.load (i32.add (local.get $order) (i32.shl (local.get $k) (i32.const 2)))))
+        (if ${needs('(local.get $i)')}
+          (then
+            ;; (wasm evaluates both operands of i32.and: the look-ahead must not read past the order)
+            (local.set $need (i32.const 0))
+            (if (i32.le_u (i32.add (local.get $k) (i32.const 4)) (local.get $n))
+              (then (local.set $need (i32.or (i32.or ${needs(orderAt(1))} ${needs(orderAt(2))}) ${needs(orderAt(3))}))))
+            (if (local.get $need)
+              (then
+                ${[0, 1, 2, 3].map(load).join('')}
+                ${dot4()}
+                ${[0, 1, 2, 3].map(store).join('')})
+              (else
+                (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+                ${dot(16)}
+                (i32.store ${hbAt('(local.get $i)')} (i32.sub (local.get $h) (i32.mul (local.get $self) (i32.load8_s (i32.add (local.get $s) (local.get $i))))))
+                (f64.store ${gbAt('(local.get $i)')} (local.get $G))))))
+        (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+        (local.set $h (i32.load ${hbAt('(local.get $i)')}))
+        (local.set $v ${DECIDE})
+        (if (i32.ne (local.get $v) (local.get $si))
+          (then
+            (i32.store8 (i32.add (local.get $s) (local.get $i)) (local.get $v))
+            (local.set $delta (i32.sub (local.get $v) (local.get $si)))
+            (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+            ${flip(16)}
+            (local.set $G (f64.add (local.get $G) (f64.convert_i32_u (i32.mul (local.get $p)
+              (select (local.get $delta) (i32.sub (i32.const 0) (local.get $delta)) (i32.ge_s (local.get $delta) (i32.const 0)))))))
+            (f64.store ${gbAt('(local.get $i)')} (f64.const nan))
+            (local.set $changed (i32.const 1))))
+        (local.set $k (i32.add (local.get $k) (i32.const 1)))
+        (br $visit)))`
+}
+
 function runAsync16 (): string {
   return `
   ${header('runAsync16')}
-    ${sweep16Locals()}
+    ${sweep16Locals()} (local $G f64) (local $hv i32) (local $need i32)
     (local $w0 i64) (local $w1 i64) (local $w2 i64) (local $w3 i64) (local $wt i64) (local $wx i64) (local $drew i32)
     (local $fi i32) (local $fj i32) (local $fpi i32) (local $fpj i32) (local $ftmp i32) (local $sweeps i32)
     (local.set $w0 (i64.load (local.get $state)))
     (local.set $w1 (i64.load offset=8 (local.get $state)))
     (local.set $w2 (i64.load offset=16 (local.get $state)))
     (local.set $w3 (i64.load offset=24 (local.get $state)))
+    ;; No field is known yet: NaN bounds fail every comparison.
+    (memory.fill (local.get $gb) (i32.const 0xff) (i32.shl (local.get $n) (i32.const 3)))
     (loop $trial
       (local.set $sweeps (i32.add (local.get $sweeps) (i32.const 1)))
       (if (i32.and (local.get $shuffle) (i32.ge_u (local.get $n) (i32.const 2)))
@@ -295,7 +360,7 @@ function runAsync16 (): string {
             (i32.store (local.get $fpj) (local.get $ftmp))
             (br_if $draw (local.tee $fi (i32.sub (local.get $fi) (i32.const 1)))))))
       (local.set $changed (i32.const 0))
-      ${sweep16Body()}
+      ${boundedSweep16Body()}
       (br_if $trial (i32.and (local.get $changed) (i32.lt_u (local.get $sweeps) (local.get $max)))))
     (i64.store (local.get $state) (local.get $w0))
     (i64.store offset=8 (local.get $state) (local.get $w1))

@@ -227,7 +227,7 @@ export class OverlapKernel {
     this.pass(state, m)
     this.order32.set(order)
     if (words !== null) stateToKernel(words, rng, this.rng32)
-    const r = this.k.runAsync16(this.xiAt, this.mAt, this.sAt, this.orderAt, this.n, this.stride, this.self, this.rngAt, maxSweeps, shuffle ? 1 : 0)
+    const r = this.k.runAsync16(this.xiAt, this.mAt, this.sAt, this.orderAt, this.n, this.stride, this.self, this.rngAt, maxSweeps, shuffle ? 1 : 0, this.p, this.hbAt, this.gbAt)
     this.leave(state, m, true)
     order.set(this.order32)
     if (words !== null) stateFromKernel(this.rng32, words, rng)
