@@ -3,7 +3,7 @@
  * TypeScript libraries carry no WebAssembly declarations, plus the switch that lets tests
  * run the plain JavaScript path on purpose.
  */
-import { KERNEL_MODULES_BASE64 } from './kernels.generated.js'
+import { KERNEL_MODULE_BYTES } from './kernels.generated.js'
 import type { KernelModule } from './signatures.js'
 
 export interface WasmMemory {
@@ -37,13 +37,6 @@ export function wasmApi (): WasmApi | null {
   return (globalThis as { WebAssembly?: WasmApi }).WebAssembly ?? null
 }
 
-function base64ToBytes (text: string): Uint8Array {
-  const binary = atob(text)
-  const out = new Uint8Array(binary.length)
-  for (let k = 0; k < binary.length; k++) out[k] = binary.charCodeAt(k)
-  return out
-}
-
 const compiled = new Map<KernelModule, object | null>()
 
 /**
@@ -55,7 +48,7 @@ function kernelModule (name: KernelModule): object | null {
   let mod = compiled.get(name)
   if (mod === undefined) {
     const api = wasmApi()
-    const bytes = base64ToBytes(KERNEL_MODULES_BASE64[name])
+    const bytes = Uint8Array.from(KERNEL_MODULE_BYTES[name]!)
     mod = api !== null && api.validate(bytes) ? new api.Module(bytes) : null
     compiled.set(name, mod)
   }

@@ -7,7 +7,7 @@
 import { readFileSync } from 'node:fs'
 import { describe, expect, it } from 'vitest'
 import { assembleKernels, GENERATED_PATH } from '../../../scripts/gen-kernels.js'
-import { KERNEL_MODULES_BASE64 } from '../../../src/engine/kernels/kernels.generated.js'
+import { KERNEL_MODULE_BYTES } from '../../../src/engine/kernels/kernels.generated.js'
 import { KERNEL_MODULES, KERNEL_SIGNATURES, parseParam } from '../../../src/engine/kernels/signatures.js'
 
 interface WasmReflection {
@@ -15,12 +15,12 @@ interface WasmReflection {
   Instance: new (module: object, imports: Record<string, Record<string, unknown>>) => { exports: Record<string, unknown> }
 }
 const wasm = (globalThis as unknown as { WebAssembly: WasmReflection }).WebAssembly
-const committed = (module: keyof typeof KERNEL_MODULES_BASE64): Uint8Array => Uint8Array.from(Buffer.from(KERNEL_MODULES_BASE64[module], 'base64'))
+const committed = (module: string): Uint8Array => Uint8Array.from(KERNEL_MODULE_BYTES[module]!)
 
 describe('generated kernel modules', () => {
   it('have the bytes the generator assembles now (run `npm run kernels:generate` after changing scripts/gen-kernels.ts or the signature table)', async () => {
     const { wasm: fresh, generated } = await assembleKernels()
-    expect(Object.keys(KERNEL_MODULES_BASE64).sort()).toStrictEqual([...KERNEL_MODULES].sort())
+    expect(Object.keys(KERNEL_MODULE_BYTES).sort()).toStrictEqual([...KERNEL_MODULES].sort())
     // Byte for byte: first each module, then the whole generated file around them.
     for (const module of KERNEL_MODULES) {
       const bytes = committed(module)
