@@ -730,8 +730,6 @@ function variant (w: Width): string {
     (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
     ${flip(w)})
 
-  ${overlapsFunction(w)}
-
   ;; One asynchronous zero-temperature sweep in the given order; returns 1 if any neuron changed.
   ${w === 16 ? sweep16Grouped() : sweepOne(w)}
 
@@ -1917,12 +1915,16 @@ function sparse (): string {
 /** What each module holds, in the order its binary lists the functions. */
 const MODULE_PARTS: Record<KernelModule, () => string[]> = {
   random: () => [shuffle(), partialShuffle(), unbiasedRows(), uniforms()],
-  overlap: () => [variant(16), variant(32), transpose(), signBits(), runAsync16(), runGlauber16(), runSync16Bounded(), runSync(32)],
+  overlap: () => [overlapsFunction(16), overlapsFunction(32), transpose(), signBits(), runAsync16()],
+  overlapMore: () => [variant(16), variant(32), runGlauber16(), runSync16Bounded(), runSync(32)],
   dense: () => [dense(), dense16()],
   memory: () => [overlapsFunction(32), transpose(), denseMemory('Poly'), denseMemory('Exp')],
   softmax: () => [softmax()],
   sparse: () => [signBits(), sparse()]
 }
+
+/** Modules that run on the memory of another module's instance (imported as env.memory). */
+const SHARES_MEMORY = new Set<KernelModule>(['overlapMore'])
 
 /** One module's WebAssembly text. */
 export function kernelsWat (module: KernelModule): string {
@@ -1931,7 +1933,7 @@ export function kernelsWat (module: KernelModule): string {
   const text = `(module
   (import "host" "exp" (func $exp (param f64) (result f64)))
   (import "host" "sweepDone" (func $sweepDone (param i32)))
-  (memory (export "memory") 1)
+  ${SHARES_MEMORY.has(module) ? '(import "env" "memory" (memory 1))' : '(memory (export "memory") 1)'}
 ${MODULE_PARTS[module]().join('\n')}
 )
 `

@@ -1,5 +1,5 @@
 import { EMPTY, unlessMemoryRefused, withSweepObserver, Workspaces, type Workspace } from './wasm.js'
-import type { KernelsUsing } from './signatures.js'
+import type { KernelExports, KernelsUsing } from './signatures.js'
 import { stateFromKernel, stateToKernel, xoshiroState } from './native-random.js'
 import { GlauberTable } from './glauber-table.js'
 import type { RandomSource } from '../random/source.js'
@@ -29,7 +29,9 @@ import type { RandomSource } from '../random/source.js'
  * network would be simpler, but V8 reserves gigabytes of address space per memory and stalls
  * on garbage collection when thousands of networks are built in a row.)
  */
-type OverlapExports = KernelsUsing<'runGlauber16' | 'overlaps16' | 'overlaps32' | 'sweep16' | 'sweep32' | 'sync16' | 'sync32' | 'glauber16' | 'glauber32' | 'glauberSync16' | 'glauberSync32' | 'transpose' | 'runSync16' | 'runSync32' | 'runAsync16' | 'packRows' | 'overlapsBits'>
+type OverlapExports = KernelsUsing<'overlaps16' | 'overlaps32' | 'transpose' | 'packRows' | 'overlapsBits' | 'runAsync16'>
+/** The other dynamics, in the companion module that runs on the same memory (signatures.ts). */
+type MoreExports = Pick<KernelExports, 'sweep16' | 'sweep32' | 'sync16' | 'sync32' | 'glauber16' | 'glauber32' | 'glauberSync16' | 'glauberSync32' | 'runGlauber16' | 'runSync16' | 'runSync32'>
 
 /**
  * Networks whose neuron-major patterns take at least 8 MiB get a private instance, so the
@@ -114,13 +116,29 @@ export class OverlapKernel {
   private noise64: Float64Array = EMPTY.f64
   private rng32: Int32Array = EMPTY.i32
 
-  /** Null when the host has no WebAssembly SIMD or the size does not suit the kernel. */
-  static create (neurons: number, patterns: number, selfTerm: number): OverlapKernel | null {
+  /**
+   * Null when the host has no WebAssembly SIMD or the size does not suit the kernel. With
+   * `onlyWholeAsync` the network will run whole zero-temperature asynchronous trials only, so
+   * the companion module of the other dynamics is left uncompiled until something needs it;
+   * otherwise it is made ready now, with the network.
+   */
+  static create (neurons: number, patterns: number, selfTerm: number, onlyWholeAsync = false): OverlapKernel | null {
     const name = overlapKernelName(neurons, patterns)
     if (name === null) return null
     const stride = align16(patterns)
     const ws = workspaces.for(align16(neurons) * stride)
-    return ws === null ? null : unlessMemoryRefused(() => new OverlapKernel(ws, name, neurons, patterns, selfTerm))
+    if (ws === null) return null
+    const kernel = unlessMemoryRefused(() => new OverlapKernel(ws, name, neurons, patterns, selfTerm))
+    // int32 overlaps have no whole asynchronous trial: they always need the companion.
+    if (kernel !== null && (!onlyWholeAsync || kernel.wide)) kernel.more()
+    return kernel
+  }
+
+  /** The companion module's exports on this network's workspace. */
+  private more (): MoreExports {
+    const more = this.ws.companion<MoreExports>('overlapMore')
+    if (more === null) throw new Error('the overlapMore kernel module could not be instantiated')
+    return more
   }
 
   private constructor (ws: Workspace<OverlapExports>, name: OverlapKernelName, n: number, p: number, selfTerm: number) {
@@ -206,7 +224,8 @@ export class OverlapKernel {
     this.enter()
     this.pass(state, m)
     this.order32.set(order)
-    const fn = this.wide ? this.k.sweep32 : this.k.sweep16
+    const more = this.more()
+    const fn = this.wide ? more.sweep32 : more.sweep16
     const changed = fn(this.xiAt, this.mAt, this.sAt, this.orderAt, this.n, this.stride, this.self)
     this.leave(state, m, true)
     return changed !== 0
@@ -242,9 +261,10 @@ export class OverlapKernel {
     this.enter()
     this.pass(state, m)
     this.prev8.set(previous)
+    const more = this.more()
     const r = this.wide
-      ? this.k.runSync32(this.xiAt, this.mAt, this.sAt, this.nextAt, this.prevAt, this.n, this.stride, this.self, maxSteps)
-      : this.k.runSync16(this.xiAt, this.mAt, this.sAt, this.nextAt, this.prevAt, this.n, this.stride, this.self, maxSteps, this.hbAt, this.gbAt, this.mPrevAt)
+      ? more.runSync32(this.xiAt, this.mAt, this.sAt, this.nextAt, this.prevAt, this.n, this.stride, this.self, maxSteps)
+      : more.runSync16(this.xiAt, this.mAt, this.sAt, this.nextAt, this.prevAt, this.n, this.stride, this.self, maxSteps, this.hbAt, this.gbAt, this.mPrevAt)
     previous.set(this.prev8)
     this.leave(state, m, true)
     const ending = r & 3
@@ -256,7 +276,8 @@ export class OverlapKernel {
     this.enter()
     this.pass(state, m)
     this.prev8.set(previous)
-    const fn = this.wide ? this.k.sync32 : this.k.sync16
+    const more = this.more()
+    const fn = this.wide ? more.sync32 : more.sync16
     const outcome = fn(this.xiAt, this.mAt, this.sAt, this.nextAt, this.prevAt, this.n, this.stride, this.self, check ? 1 : 0)
     if (outcome !== 1) {
       previous.set(this.prev8)
@@ -271,7 +292,8 @@ export class OverlapKernel {
     this.pass(state, m)
     this.order32.set(order)
     this.noise64.set(noise.subarray(0, this.n))
-    const fn = this.wide ? this.k.glauber32 : this.k.glauber16
+    const more = this.more()
+    const fn = this.wide ? more.glauber32 : more.glauber16
     fn(this.xiAt, this.mAt, this.sAt, this.orderAt, this.noiseAt, this.n, this.stride, this.self, factor, this.table.at, half)
     this.leave(state, m, true)
   }
@@ -281,7 +303,8 @@ export class OverlapKernel {
     const half = this.enterThermal(factor)
     this.pass(state, m)
     this.noise64.set(noise.subarray(0, this.n))
-    const fn = this.wide ? this.k.glauberSync32 : this.k.glauberSync16
+    const more = this.more()
+    const fn = this.wide ? more.glauberSync32 : more.glauberSync16
     fn(this.xiAt, this.mAt, this.sAt, this.nextAt, this.noiseAt, this.n, this.stride, this.self, factor, this.table.at, half)
     this.leave(state, m, true)
   }
@@ -301,10 +324,11 @@ export class OverlapKernel {
     this.pass(state, m)
     this.order32.set(order)
     stateToKernel(words, rng, this.rng32)
+    const more = this.more()
     withSweepObserver((sweep) => {
       this.leave(state, m, true)
       afterSweep(sweep)
-    }, () => this.k.runGlauber16(this.xiAt, this.mAt, this.sAt, this.orderAt, this.n, this.stride, this.self, this.rngAt, sweeps, shuffle ? 1 : 0, factor, this.table.at, half))
+    }, () => more.runGlauber16(this.xiAt, this.mAt, this.sAt, this.orderAt, this.n, this.stride, this.self, this.rngAt, sweeps, shuffle ? 1 : 0, factor, this.table.at, half))
     order.set(this.order32)
     stateFromKernel(this.rng32, words, rng)
     return true

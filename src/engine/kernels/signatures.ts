@@ -3,9 +3,13 @@ import type { WasmMemory } from './wasm.js'
 /**
  * The kernels come as several WebAssembly modules, one per kind of network (plus the native
  * draws), each compiled when first used: a process pays the optimising compiler only for the
- * kernels it runs, and adding a kernel for one model costs the others nothing.
+ * kernels it runs, and adding a kernel for one model costs the others nothing. The overlap-space
+ * kernels are split in two: `overlap` holds what a zero-temperature asynchronous trial needs
+ * (the common case, and a network per trial in capacity curves), `overlapMore` the other
+ * dynamics; it imports the memory of an `overlap` instance (`env.memory`) and is compiled only
+ * by processes that run those dynamics.
  */
-export const KERNEL_MODULES = ['random', 'overlap', 'dense', 'memory', 'softmax', 'sparse'] as const
+export const KERNEL_MODULES = ['random', 'overlap', 'overlapMore', 'dense', 'memory', 'softmax', 'sparse'] as const
 export type KernelModule = (typeof KERNEL_MODULES)[number]
 
 /**
@@ -20,21 +24,21 @@ export type KernelModule = (typeof KERNEL_MODULES)[number]
  */
 export const KERNEL_SIGNATURES = {
   // Overlap space, int16 overlaps (N ≤ 32767).
-  dot16: { modules: ['overlap'], params: ['xi', 'm', 'pp', 'i'], result: 'i32' },
-  flip16: { modules: ['overlap'], params: ['xi', 'm', 'pp', 'i', 'd0'] },
+  dot16: { modules: ['overlapMore'], params: ['xi', 'm', 'pp', 'i'], result: 'i32' },
+  flip16: { modules: ['overlapMore'], params: ['xi', 'm', 'pp', 'i', 'd0'] },
   overlaps16: { modules: ['overlap'], params: ['xi', 'm', 's', 'n', 'pp'] },
-  sweep16: { modules: ['overlap'], params: ['xi', 'm', 's', 'order', 'n', 'pp', 'self'], result: 'i32' },
-  sync16: { modules: ['overlap'], params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'self', 'check'], result: 'i32' },
-  glauber16: { modules: ['overlap'], params: ['xi', 'm', 's', 'order', 'noise', 'n', 'pp', 'self', 'factor:f64', 'table', 'half'] },
-  glauberSync16: { modules: ['overlap'], params: ['xi', 'm', 's', 'next', 'noise', 'n', 'pp', 'self', 'factor:f64', 'table', 'half'] },
+  sweep16: { modules: ['overlapMore'], params: ['xi', 'm', 's', 'order', 'n', 'pp', 'self'], result: 'i32' },
+  sync16: { modules: ['overlapMore'], params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'self', 'check'], result: 'i32' },
+  glauber16: { modules: ['overlapMore'], params: ['xi', 'm', 's', 'order', 'noise', 'n', 'pp', 'self', 'factor:f64', 'table', 'half'] },
+  glauberSync16: { modules: ['overlapMore'], params: ['xi', 'm', 's', 'next', 'noise', 'n', 'pp', 'self', 'factor:f64', 'table', 'half'] },
   // Overlap space, int32 overlaps (any N).
-  dot32: { modules: ['overlap'], params: ['xi', 'm', 'pp', 'i'], result: 'i32' },
-  flip32: { modules: ['overlap'], params: ['xi', 'm', 'pp', 'i', 'd0'] },
+  dot32: { modules: ['overlapMore'], params: ['xi', 'm', 'pp', 'i'], result: 'i32' },
+  flip32: { modules: ['overlapMore'], params: ['xi', 'm', 'pp', 'i', 'd0'] },
   overlaps32: { modules: ['overlap', 'memory'], params: ['xi', 'm', 's', 'n', 'pp'] },
-  sweep32: { modules: ['overlap'], params: ['xi', 'm', 's', 'order', 'n', 'pp', 'self'], result: 'i32' },
-  sync32: { modules: ['overlap'], params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'self', 'check'], result: 'i32' },
-  glauber32: { modules: ['overlap'], params: ['xi', 'm', 's', 'order', 'noise', 'n', 'pp', 'self', 'factor:f64', 'table', 'half'] },
-  glauberSync32: { modules: ['overlap'], params: ['xi', 'm', 's', 'next', 'noise', 'n', 'pp', 'self', 'factor:f64', 'table', 'half'] },
+  sweep32: { modules: ['overlapMore'], params: ['xi', 'm', 's', 'order', 'n', 'pp', 'self'], result: 'i32' },
+  sync32: { modules: ['overlapMore'], params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'self', 'check'], result: 'i32' },
+  glauber32: { modules: ['overlapMore'], params: ['xi', 'm', 's', 'order', 'noise', 'n', 'pp', 'self', 'factor:f64', 'table', 'half'] },
+  glauberSync32: { modules: ['overlapMore'], params: ['xi', 'm', 's', 'next', 'noise', 'n', 'pp', 'self', 'factor:f64', 'table', 'half'] },
   // Pattern layouts and sign bits.
   transpose: { modules: ['overlap', 'memory'], params: ['src', 'srcStride', 'cols', 'dst', 'stride', 'rows'] },
   packSigns: { modules: ['overlap', 'sparse'], params: ['src', 'n', 'dst', 'words'], result: 'i32' },
@@ -48,9 +52,9 @@ export const KERNEL_SIGNATURES = {
   uniforms: { modules: ['random'], params: ['out', 'count', 'state'] },
   // Whole overlap-space trials.
   runAsync16: { modules: ['overlap'], params: ['xi', 'm', 's', 'order', 'n', 'pp', 'self', 'state', 'max', 'shuffle', 'p', 'hb', 'gb'], result: 'i32' },
-  runGlauber16: { modules: ['overlap'], params: ['xi', 'm', 's', 'order', 'n', 'pp', 'self', 'state', 'max', 'shuffle', 'factor:f64', 'table', 'half'] },
-  runSync16: { modules: ['overlap'], params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'self', 'max', 'hb', 'gb', 'mprev'], result: 'i32' },
-  runSync32: { modules: ['overlap'], params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'self', 'max'], result: 'i32' },
+  runGlauber16: { modules: ['overlapMore'], params: ['xi', 'm', 's', 'order', 'n', 'pp', 'self', 'state', 'max', 'shuffle', 'factor:f64', 'table', 'half'] },
+  runSync16: { modules: ['overlapMore'], params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'self', 'max', 'hb', 'gb', 'mprev'], result: 'i32' },
+  runSync32: { modules: ['overlapMore'], params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'self', 'max'], result: 'i32' },
   // Dense float64 couplings.
   denseLoad: { modules: ['dense'], params: ['cols', 'bias', 's', 'h', 'n', 'rowwise'] },
   denseSweep: { modules: ['dense'], params: ['cols', 's', 'h', 'order', 'n'], result: 'i32' },

@@ -78,12 +78,15 @@ const HOST = {
   }
 }
 
-/** A fresh instance of a kernel module (its own linear memory), or null without WebAssembly SIMD. */
-export function instantiateKernels<T> (module: KernelModule): T | null {
+/**
+ * A fresh instance of a kernel module, or null without WebAssembly SIMD: with its own linear
+ * memory, or on `memory` for a module that imports one (overlapMore).
+ */
+export function instantiateKernels<T> (module: KernelModule, memory?: WasmMemory): T | null {
   const api = wasmApi()
   const mod = kernelModule(module)
   if (api === null || mod === null) return null
-  return new api.Instance(mod, HOST).exports as unknown as T
+  return new api.Instance(mod, memory === undefined ? HOST : { ...HOST, env: { memory } }).exports as unknown as T
 }
 
 /** A kernel module instance whose linear memory holds one or more networks' data. */
@@ -102,6 +105,17 @@ export class Workspace<T extends { memory: WasmMemory }> {
 
   get buffer (): ArrayBuffer {
     return this.#buffer
+  }
+
+  #companions = new Map<KernelModule, unknown>()
+
+  /**
+   * An instance of a module that runs on this workspace's memory (overlapMore), made and
+   * compiled on first use and kept; null without WebAssembly SIMD.
+   */
+  companion<U> (module: KernelModule): U | null {
+    if (!this.#companions.has(module)) this.#companions.set(module, instantiateKernels<U>(module, this.k.memory))
+    return this.#companions.get(module) as U | null
   }
 
   /** Grows the memory to at least `bytes`; throws RangeError when the host refuses. */

@@ -150,7 +150,16 @@ describe('overlap-space fast path is bit-identical to the plain path', () => {
     }
   })
 
-  it('an injected non-xoshiro source shuffles in JavaScript and still matches', () => {
+  it('an injected non-xoshiro source shuffles in JavaScript and still matches (also where the network was built for whole native trials only)', () => {
+    const quiet = params({ measures: { overlapTrajectory: false, energyTrajectory: false, stability: false } })
+    const runQuiet = (fast: boolean): TrialRecord[] => {
+      setFastPathsEnabled(fast)
+      const rng = new SeedrandomSource('rooms', 'alea')
+      const net = buildNetwork(quiet, rng)
+      const scratch = createScratch(quiet.neurons, quiet.patterns)
+      return [0, 1, 2].map((t) => runTrialOn(net, quiet, t, t, rng, scratch))
+    }
+    expect(runQuiet(true)).toStrictEqual(runQuiet(false))
     const p = params()
     const run = (fast: boolean): TrialRecord[] => {
       setFastPathsEnabled(fast)

@@ -11,8 +11,12 @@ import { KERNEL_MODULE_BYTES } from '../../../src/engine/kernels/kernels.generat
 import { KERNEL_MODULES, KERNEL_SIGNATURES, parseParam } from '../../../src/engine/kernels/signatures.js'
 
 interface WasmReflection {
-  Module: (new (bytes: Uint8Array) => object) & { exports: (module: object) => Array<{ name: string, kind: string }> }
+  Module: (new (bytes: Uint8Array) => object) & {
+    exports: (module: object) => Array<{ name: string, kind: string }>
+    imports: (module: object) => Array<{ module: string, name: string, kind: string }>
+  }
   Instance: new (module: object, imports: Record<string, Record<string, unknown>>) => { exports: Record<string, unknown> }
+  Memory: new (descriptor: { initial: number }) => object
 }
 const wasm = (globalThis as unknown as { WebAssembly: WasmReflection }).WebAssembly
 const committed = (module: string): Uint8Array => Uint8Array.from(KERNEL_MODULE_BYTES[module]!)
@@ -36,7 +40,12 @@ describe('generated kernel modules', () => {
       const functions = wasm.Module.exports(mod).filter((e) => e.kind === 'function').map((e) => e.name)
       const listed = Object.entries(KERNEL_SIGNATURES).filter(([, sig]) => (sig.modules as readonly string[]).includes(module)).map(([name]) => name)
       expect([...functions].sort(), module).toStrictEqual(listed.sort())
-      const instance = new wasm.Instance(mod, { host: { exp: Math.exp, sweepDone: () => {} } })
+      // A module that runs on another's memory imports it (overlapMore); the others own one.
+      const imports = wasm.Module.imports(mod).map((i) => `${i.module}.${i.name}:${i.kind}`).sort()
+      const sharesMemory = imports.includes('env.memory:memory')
+      expect(imports.filter((i) => i !== 'env.memory:memory'), module).toStrictEqual(['host.exp:function', 'host.sweepDone:function'])
+      expect(sharesMemory ? [] : wasm.Module.exports(mod).filter((e) => e.kind === 'memory').map((e) => e.name), module).toStrictEqual(sharesMemory ? [] : ['memory'])
+      const instance = new wasm.Instance(mod, { host: { exp: Math.exp, sweepDone: () => {} }, ...(sharesMemory ? { env: { memory: new wasm.Memory({ initial: 1 }) } } : {}) })
       for (const name of listed) {
         const signature = KERNEL_SIGNATURES[name as keyof typeof KERNEL_SIGNATURES]
         const fn = instance.exports[name] as (...args: number[]) => unknown
