@@ -76,6 +76,13 @@ const align16 = (x: number): number => (x + 15) & ~15
 const sharedCopy = (bytes: number): number => bytes < KERNEL_PRIVATE_BYTES ? bytes : 0
 
 /**
+ * How many times faster the model kernels run a visit (or an update) than the plain loops the
+ * operation counts below describe: the smallest fast ÷ plain ratio measured on D4–D7
+ * (bench/RESULTS.md, rounded down), so estimates stay on the safe side.
+ */
+const MODEL_KERNEL_SPEEDUP = { denseMemory: 4, softmax: 4, inDegree: 2 } as const
+
+/**
  * The representations without a coupling matrix: dense memories and the softmax network
  * hold the patterns twice (O(P) per visit or per state component), the fixed in-degree
  * network its N·K lists (O(K) per visit at most). Their WebAssembly kernels add their layouts
@@ -90,10 +97,11 @@ function modelCost (p: PointParams, representation: Representation, baseBytes: n
       // The neuron-major copy (rows padded to 16 in the kernel), the plain table, the overlaps.
       const byNeuron = kernel ? n * align16(count) : n * count
       const kernelBytes = kernel ? denseMemoryKernelExtraBytes(n, count) + sharedCopy(byNeuron) : 0
-      return { bytes: baseBytes + byNeuron + 4 * count + 16 * n + kernelBytes, neuronUpdatesPerTrial, buildOpsPerNetwork: 2 * n * count, opsPerVisit: p.rule.kind === 'dense-exponential' ? 2 * count : count }
+      const plainOps = p.rule.kind === 'dense-exponential' ? 2 * count : count
+      return { bytes: baseBytes + byNeuron + 4 * count + 16 * n + kernelBytes, neuronUpdatesPerTrial, buildOpsPerNetwork: 2 * n * count, opsPerVisit: kernel ? plainOps / MODEL_KERNEL_SPEEDUP.denseMemory : plainOps }
     }
     case 'softmax-continuous':
-      return { bytes: baseBytes + 8 * count + 16 * n + softmaxKernelExtraBytes(n, count) + sharedCopy(n * count), neuronUpdatesPerTrial, buildOpsPerNetwork: n * count, opsPerVisit: 2 * count }
+      return { bytes: baseBytes + 8 * count + 16 * n + softmaxKernelExtraBytes(n, count) + sharedCopy(n * count), neuronUpdatesPerTrial, buildOpsPerNetwork: n * count, opsPerVisit: 2 * count / MODEL_KERNEL_SPEEDUP.softmax }
     case 'sparse-in-degree': {
       const k = p.dilution?.kind === 'fixed-in-degree' ? p.dilution.inDegree : n
       // While the network is built, the rule's int32 rows (8·N·K) and the out-lists (8·N·K, or the
@@ -101,7 +109,7 @@ function modelCost (p: PointParams, representation: Representation, baseBytes: n
       // most P in magnitude, clipped ones 1.
       const kernel = sparseKernelFits(n, p.rule.kind === 'clipped' ? 1 : count)
       const kernelBytes = kernel ? sparseKernelExtraBytes(n, count) + sharedCopy(8 * n * k) : 0
-      return { bytes: baseBytes + n * count + 16 * n * k + 12 * n + kernelBytes, neuronUpdatesPerTrial, buildOpsPerNetwork: n * k * (count + 8), opsPerVisit: k }
+      return { bytes: baseBytes + n * count + 16 * n * k + 12 * n + kernelBytes, neuronUpdatesPerTrial, buildOpsPerNetwork: n * k * (count + 8), opsPerVisit: kernel ? k / MODEL_KERNEL_SPEEDUP.inDegree : k }
     }
     default:
       return null
