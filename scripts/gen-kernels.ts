@@ -320,6 +320,25 @@ function boundedSweep16Body (): string {
         (br $visit)))`
 }
 
+/**
+ * Σ_μ m_μ² over int16 overlaps (padding lanes 0), for the energy: pairs by i32x4.dot_i16x8_s
+ * (2·32767² < 2³¹), summed as doubles, exact (below 2⁵³), so equal to the plain loop's sum.
+ */
+function sumSquares16 (): string {
+  return `
+  ${header('sumSquares16')}
+    (local $q i32) (local $e i32) (local $x v128) (local $acc v128) (local $d v128)
+    (local.set $e (i32.add (local.get $m) (i32.shl (local.get $pp) (i32.const 1))))
+    (local.set $q (local.get $m))
+    (loop $pairs
+      (local.set $x (v128.load (local.get $q)))
+      (local.set $d (i32x4.dot_i16x8_s (local.get $x) (local.get $x)))
+      (local.set $acc (f64x2.add (local.get $acc) (f64x2.add (f64x2.convert_low_i32x4_s (local.get $d))
+        (f64x2.convert_low_i32x4_s (i8x16.shuffle 8 9 10 11 12 13 14 15 0 1 2 3 4 5 6 7 (local.get $d) (local.get $d))))))
+      (br_if $pairs (i32.lt_u (local.tee $q (i32.add (local.get $q) (i32.const 16))) (local.get $e))))
+    (f64.add (f64x2.extract_lane 0 (local.get $acc)) (f64x2.extract_lane 1 (local.get $acc))))`
+}
+
 function runAsync16 (): string {
   return `
   ${header('runAsync16')}
@@ -1915,7 +1934,7 @@ function sparse (): string {
 /** What each module holds, in the order its binary lists the functions. */
 const MODULE_PARTS: Record<KernelModule, () => string[]> = {
   random: () => [shuffle(), partialShuffle(), unbiasedRows(), uniforms()],
-  overlap: () => [overlapsFunction(16), overlapsFunction(32), transpose(), signBits(), runAsync16()],
+  overlap: () => [overlapsFunction(16), overlapsFunction(32), transpose(), signBits(), runAsync16(), sumSquares16()],
   overlapMore: () => [variant(16), variant(32), runGlauber16(), runSync16Bounded(), runSync(32)],
   dense: () => [dense(), dense16()],
   memory: () => [overlapsFunction(32), transpose(), denseMemory('Poly'), denseMemory('Exp')],

@@ -29,7 +29,7 @@ import type { RandomSource } from '../random/source.js'
  * network would be simpler, but V8 reserves gigabytes of address space per memory and stalls
  * on garbage collection when thousands of networks are built in a row.)
  */
-type OverlapExports = KernelsUsing<'overlaps16' | 'overlaps32' | 'transpose' | 'packRows' | 'overlapsBits' | 'runAsync16'>
+type OverlapExports = KernelsUsing<'overlaps16' | 'overlaps32' | 'transpose' | 'packRows' | 'overlapsBits' | 'runAsync16' | 'sumSquares16'>
 /** The other dynamics, in the companion module that runs on the same memory (signatures.ts). */
 type MoreExports = Pick<KernelExports, 'sweep16' | 'sweep32' | 'sync16' | 'sync32' | 'glauber16' | 'glauber32' | 'glauberSync16' | 'glauberSync32' | 'runGlauber16' | 'runSync16' | 'runSync32'>
 
@@ -217,6 +217,14 @@ export class OverlapKernel {
       fn(this.xiAt, this.mAt, this.sAt, this.n, this.stride)
     }
     this.leave(state, m, false)
+  }
+
+  /** Σ_μ m_μ², exactly the plain loop's sum (int16 overlaps), or null (int32 overlaps: the caller sums). */
+  sumSquares (m: Int32Array): number | null {
+    if (this.wide) return null
+    this.enter()
+    this.m16.set(m)
+    return this.k.sumSquares16(this.mAt, this.stride)
   }
 
   /** One zero-temperature asynchronous sweep in `order`; true if a neuron changed. */

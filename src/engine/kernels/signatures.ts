@@ -51,6 +51,7 @@ export const KERNEL_SIGNATURES = {
   unbiasedRows: { modules: ['random'], params: ['out', 'n', 'count', 'state'] },
   uniforms: { modules: ['random'], params: ['out', 'count', 'state'] },
   // Whole overlap-space trials.
+  sumSquares16: { modules: ['overlap'], params: ['m', 'pp'], result: 'f64' },
   runAsync16: { modules: ['overlap'], params: ['xi', 'm', 's', 'order', 'n', 'pp', 'self', 'state', 'max', 'shuffle', 'p', 'hb', 'gb'], result: 'i32' },
   runGlauber16: { modules: ['overlapMore'], params: ['xi', 'm', 's', 'order', 'n', 'pp', 'self', 'state', 'max', 'shuffle', 'factor:f64', 'table', 'half'] },
   runSync16: { modules: ['overlapMore'], params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'self', 'max', 'hb', 'gb', 'mprev'], result: 'i32' },

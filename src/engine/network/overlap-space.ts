@@ -133,10 +133,15 @@ export class OverlapSpaceNetwork implements Network {
 
   energyPerNeuron (): number {
     // Σ_{i≠j} J_ij s_i s_j = (1/N)(Σ_μ m_μ² − P Σ_i s_i²)
-    let sumSq = 0
-    const m = this.overlaps
-    const p = this.patternCount
-    for (let mu = 0; mu < p; mu++) sumSq += m[mu]! * m[mu]!
+    // The kernel sums natively (the same exact integer): a JavaScript loop of P steps costs more
+    // than the rest of a short trial's measures until the JIT has optimised it.
+    let sumSq = this.kernel?.sumSquares(this.overlaps) ?? null
+    if (sumSq === null) {
+      sumSq = 0
+      const m = this.overlaps
+      const p = this.patternCount
+      for (let mu = 0; mu < p; mu++) sumSq += m[mu]! * m[mu]!
+    }
     // Σ_i s_i² is N less the erased (0) entries; indexOf finds them natively, so the common
     // all-±1 state costs no JavaScript loop over the neurons.
     let active = this.neurons
