@@ -4,6 +4,8 @@
  * order, so the outputs can be compared bit for bit with the C reference's integer variants.
  */
 import { buildNetwork, createScratch, runTrialOn, Xoshiro256StarStar, type PointParams, type TrialRecord } from '../src/engine/index.js'
+import { SoftmaxMemory } from '../src/engine/models/softmax/memory.js'
+import { createSoftmaxScratch, runSoftmaxTrial } from '../src/engine/models/softmax/trial.js'
 
 export interface WorkloadRun {
   workload: string
@@ -47,6 +49,20 @@ export function runSharedNetworkWorkload (workload: string, p: PointParams, tria
   for (let t = 0; t < trials; t++) records.push(runTrialOn(net, p, t, t % p.patterns, rng, scratch))
   const t2 = performance.now()
   return { workload, neurons: p.neurons, patterns: p.patterns, trials: records, buildSeconds: (t1 - t0) / 1000, simSeconds: (t2 - t1) / 1000, weightBytes: 0, representation: net.representation, fastPath: net.fastPath, representationBytes: net.bytes }
+}
+
+/** The modern softmax network (D6): one pattern set for all trials, as the shared-network workloads. */
+export function runSoftmaxWorkload (workload: string, p: PointParams, trials: number, seed: number): WorkloadRun {
+  if (p.rule.kind !== 'modern-softmax') throw new Error('runSoftmaxWorkload needs the modern-softmax rule')
+  const rng = Xoshiro256StarStar.fromSeed(BigInt(seed))
+  const t0 = performance.now()
+  const mem = SoftmaxMemory.draw(p, p.rule.beta, rng)
+  const t1 = performance.now()
+  const scratch = createSoftmaxScratch(p.neurons, p.patterns)
+  const records: TrialRecord[] = []
+  for (let t = 0; t < trials; t++) records.push(runSoftmaxTrial(mem, p, t, t % p.patterns, rng, scratch))
+  const t2 = performance.now()
+  return { workload, neurons: p.neurons, patterns: p.patterns, trials: records, buildSeconds: (t1 - t0) / 1000, simSeconds: (t2 - t1) / 1000, weightBytes: 0, representation: 'softmax-continuous', fastPath: mem.fastPath, representationBytes: mem.bytes }
 }
 
 /** W2: a fresh pattern set for every trial, α ascending, all from one stream. */

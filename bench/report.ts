@@ -175,6 +175,84 @@ function denseSection (runs: Run[]): string[] {
   ]
 }
 
+const MODEL_WORKLOADS: Record<string, string> = {
+  D4: 'dense polynomial memory F(x) = x³, N=400, P=2000, 50 trials, 10 % flipped, async',
+  D5: 'dense exponential memory, N=200, P=2000, 50 trials, 10 % flipped, async',
+  D6: 'modern softmax network β = 32, d=400, P=2000, 50 trials, 10 % flipped',
+  D7: 'fixed in-degree K = 50 (Hebbian), N=20,000, P=5, 20 trials, 10 % flipped, async'
+}
+
+/** Output fields that must agree between the fast and the plain path (and, statistically, with numpy). */
+const signatureOf = (r: Run): string => JSON.stringify([r.mean_overlap, r.sd_overlap, r.frac_success, r.mean_sweeps ?? r.mean_steps, r.n_maxed, r.n_fixed, r.n_cycle2])
+
+/** The model kernels: fast against plain (same stream, identical outputs) and against our numpy peer. */
+function modelSection (runs: Run[]): string[] {
+  const rows: string[] = []
+  const median0 = (rs: Run[]): number => rs.length > 0 ? median(rs.map(timeOf)) : Number.NaN
+  for (const [w, what] of Object.entries(MODEL_WORKLOADS)) {
+    const fast = runs.filter((r) => r.workload === w && r.label === 'memsweep' && r.variant === 'fast')
+    if (fast.length === 0) continue
+    const plain = runs.filter((r) => r.workload === w && r.label === 'memsweep' && r.variant === 'plain')
+    const np = runs.filter((r) => r.workload === w && r.label === 'numpy')
+    const np1 = runs.filter((r) => r.workload === w && r.label === 'numpy-1t')
+    const tf = median0(fast)
+    const tp = median0(plain)
+    const tn = median0(np)
+    const tn1 = median0(np1)
+    const bestNumpy = Math.min(Number.isFinite(tn) ? tn : Infinity, Number.isFinite(tn1) ? tn1 : Infinity)
+    const same = plain.length === 0 ? '-' : new Set([...fast, ...plain].map(signatureOf)).size === 1 ? 'yes' : 'NO'
+    const vsPlain = tp / tf
+    const vsNumpy = bestNumpy / tf
+    rows.push(`| ${w} | ${what} | ${String(fast[0]!.fast_path)} | ${ms(tf)} | ${plain.length > 0 ? ms(tp) : '-'} | ${plain.length > 0 ? `${ratio(vsPlain)} (${vsPlain >= 3 ? 'met' : 'missed'})` : '-'} | ${np.length > 0 ? ms(tn) : '-'} / ${np1.length > 0 ? ms(tn1) : '-'} | ${Number.isFinite(vsNumpy) ? `${ratio(vsNumpy)} (${vsNumpy >= 1 ? 'met' : 'missed'})` : '-'} | ${same} | ${np.length > 0 ? (np[0]!.mean_overlap as number).toFixed(4) : '-'} / ${(fast[0]!.mean_overlap as number).toFixed(4)} |`)
+  }
+  if (rows.length === 0) return []
+  return [
+    '## Model kernels (D4–D7): fast path against the plain path and a vectorised numpy peer',
+    '',
+    'Time is the trials (`sim_s`), fresh processes, medians. The numpy peer (bench/peers/models_numpy.py) vectorises each visit or',
+    'update over the patterns (or couplings) as a researcher would; it draws its own random stream (PCG64), so its outputs agree',
+    'statistically (mean overlap shown). It runs with its default BLAS threads and with one (`OPENBLAS_NUM_THREADS=1`); the target',
+    'is judged against the faster of the two. Targets: at least 3× today\'s JavaScript (the plain path) and at least as fast as numpy;',
+    'fast and plain outputs must be identical.',
+    '',
+    '| workload | network | fast path | fast | plain | × plain (target ≥ 3×) | numpy default / 1 thread | × best numpy (target ≥ 1×) | identical outputs | mean overlap numpy / memsweep |',
+    '|---|---|---|---|---|---|---|---|---|---|',
+    ...rows,
+    ''
+  ]
+}
+
+/** Glauber dynamics (G1) against our C peer: exp per visit, and the same probabilities tabulated. */
+function glauberSection (runs: Run[]): string[] {
+  const ours = runs.filter((r) => r.workload === 'G1' && r.label === 'memsweep' && r.variant === 'fast')
+  if (ours.length === 0) return []
+  const plain = runs.filter((r) => r.workload === 'G1' && r.label === 'memsweep' && r.variant === 'plain')
+  const cs = ['exp', 'table'].map((v) => ({ v, rs: runs.filter((r) => r.workload === 'G1' && r.label === 'c' && r.variant === v) })).filter((c) => c.rs.length > 0)
+  const t = median(ours.map(timeOf))
+  const lines = [
+    '## Glauber dynamics (G1) against C',
+    '',
+    'Hebbian N = 1000, P = 50, T = 0.4, asynchronous, 20 sweeps (time average over the last 10), 100 trials from a 10 % flipped cue,',
+    'one network; time is the trials (`sim_s`). The C peer (bench/peers/glauber.c, -O3 -march=native) draws the same canonical stream',
+    'and computes the same decisions, u·(1 + exp(factor·h)) < 1, with libm\'s exp per visit (`exp`) or memoised per integer field',
+    '(`table`). Target: ≤ 1.2× the best C variant.',
+    '',
+    '| impl | variant | runs | median | min..max | time ÷ best C | mean overlap | sd overlap |',
+    '|---|---|---|---|---|---|---|---|'
+  ]
+  const best = cs.length > 0 ? Math.min(...cs.map((c) => median(c.rs.map(timeOf)))) : Number.NaN
+  const row = (impl: string, variant: string, rs: Run[]): string => {
+    const times = rs.map(timeOf)
+    const tm = median(times)
+    return `| ${impl} | ${variant} | ${rs.length} | ${ms(tm)} | ${ms(Math.min(...times))}..${ms(Math.max(...times))} | ${Number.isFinite(best) ? ratio(tm / best) : '-'} | ${(rs[0]!.mean_overlap as number).toFixed(6)} | ${(rs[0]!.sd_overlap as number).toFixed(6)} |`
+  }
+  lines.push(row('memsweep', `fast (${String(ours[0]!.fast_path)})`, ours))
+  if (plain.length > 0) lines.push(row('memsweep', 'plain (js)', plain))
+  for (const c of cs) lines.push(row('c', c.v, c.rs))
+  const verdict = Number.isFinite(best) ? `memsweep ÷ best C = ${ratio(t / best)} (${t / best <= 1.2 ? 'met' : 'missed'})` : 'C peer not run'
+  return [...lines, '', `- ${verdict}.`, ''].concat(plain.length > 0 ? [`- Fast and plain outputs identical: ${new Set([...ours, ...plain].map(signatureOf)).size === 1 ? 'yes' : 'NO'}.`, ''] : [])
+}
+
 interface ScalingSide { one: number, two: number, speedup: number, identical: boolean, runs: { one: number[], two: number[] } }
 interface PairCeiling { alone: number, together: number, ceiling: number }
 /** What bench/scaling.ts prints. */
@@ -298,6 +376,8 @@ export function renderReport (runs: Run[], extra: { scale: Run | null, baseline:
     ...bitCheck(runs),
     '',
     ...denseSection(runs),
+    ...modelSection(runs),
+    ...glauberSection(runs),
     '## Memory',
     '',
     `- Node baseline (a process that loads the engine and runs nothing): ${mib(baselineKb)} peak RSS (median of ${baseline.length}).`,

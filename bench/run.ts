@@ -6,7 +6,8 @@
  * bench/RESULTS.md.
  *
  * Environment: ENGINE_REPS (5), PLAIN_REPS (3), C_REPS (5), NP_REPS (3), WARM_REPEATS (5),
- * DENSE_REPS (3), PEERS_DIR (../shared/bench), SKIP_PEERS, SKIP_PLAIN, SKIP_DENSE, SKIP_SCALE,
+ * DENSE_REPS (3), MODEL_REPS (5), MODEL_PLAIN_REPS (3), PEERS_DIR (../shared/bench), SKIP_PEERS,
+ * SKIP_PLAIN, SKIP_DENSE, SKIP_MODELS, SKIP_SCALE,
  * SKIP_SCALING, SKIP_MEMORY, TRIALS, REPS and CEILING_TRIALS (for bench/scaling.ts), RESULTS (bench/RESULTS.md).
  */
 import { cpus, freemem, loadavg, totalmem } from 'node:os'
@@ -28,7 +29,9 @@ const reps = {
   PLAIN_REPS: env.SKIP_PLAIN ? 0 : Number(env.PLAIN_REPS ?? 3),
   C_REPS: env.SKIP_PEERS ? 0 : Number(env.C_REPS ?? 5),
   NP_REPS: env.SKIP_PEERS ? 0 : Number(env.NP_REPS ?? 3),
-  DENSE_REPS: env.SKIP_DENSE ? 0 : Number(env.DENSE_REPS ?? 3)
+  DENSE_REPS: env.SKIP_DENSE ? 0 : Number(env.DENSE_REPS ?? 3),
+  MODEL_REPS: env.SKIP_MODELS ? 0 : Number(env.MODEL_REPS ?? 5),
+  MODEL_PLAIN_REPS: env.SKIP_MODELS || env.SKIP_PLAIN ? 0 : Number(env.MODEL_PLAIN_REPS ?? 3)
 }
 const started = Date.now()
 const loadBefore = loadavg().map((x) => x.toFixed(2)).join(' ')
@@ -57,6 +60,22 @@ for (const w of ['W1', 'W2', 'W3', 'W4']) {
 for (const d of ['D1', 'D2', 'D3']) {
   jobs.push({ label: 'memsweep', reps: reps.DENSE_REPS, workload: d, command: engine(d, 'fast') })
   jobs.push({ label: 'memsweep', reps: reps.DENSE_REPS, workload: d, command: engine(d, 'plain') })
+}
+// The model kernels (D4–D7) against the plain path and our numpy peer, numpy with its default
+// BLAS threads and with one.
+for (const d of ['D4', 'D5', 'D6', 'D7']) {
+  jobs.push({ label: 'memsweep', reps: reps.MODEL_REPS, workload: d, command: engine(d, 'fast') })
+  jobs.push({ label: 'memsweep', reps: reps.MODEL_PLAIN_REPS, workload: d, command: engine(d, 'plain') })
+  if (peers?.modelsScript) {
+    jobs.push({ label: 'numpy', reps: reps.NP_REPS, workload: d, command: ['python3', peers.modelsScript, d, '--seed', '1'] })
+    jobs.push({ label: 'numpy-1t', reps: reps.NP_REPS, workload: d, command: ['env', 'OPENBLAS_NUM_THREADS=1', 'OMP_NUM_THREADS=1', 'python3', peers.modelsScript, d, '--seed', '1'] })
+  }
+}
+// Glauber dynamics (G1) against our C peer, exp per visit and tabulated.
+jobs.push({ label: 'memsweep', reps: reps.ENGINE_REPS, workload: 'G1', command: engine('G1', 'fast') })
+jobs.push({ label: 'memsweep', reps: reps.MODEL_PLAIN_REPS, workload: 'G1', command: engine('G1', 'plain') })
+if (peers?.glauberBinary) {
+  for (const v of ['exp', 'table']) jobs.push({ label: 'c', reps: reps.C_REPS, workload: 'G1', command: [peers.glauberBinary, v, '1'] })
 }
 
 const runs: Run[] = []

@@ -1,11 +1,11 @@
 /**
  * One benchmark measurement in a fresh process:
- * `node --import tsx bench/workload.ts <W1|W2|W3|W4|D1|D2|D3|SCALE|BASELINE> <fast|plain> [seed] [warm repeats]`.
+ * `node --import tsx bench/workload.ts <W1|W2|W3|W4|D1…D7|G1|SCALE|BASELINE> <fast|plain> [seed] [warm repeats]`.
  * Prints one JSON line with the keys the shared peers print (WORKLOADS.md §8), so engine
  * and peer runs land in the same tables. Timing is in-process with a monotonic clock;
  * module loading is excluded, JIT warm-up inside the timed region counts.
  */
-import { runCapacityWorkload, runSharedNetworkWorkload, summarize, workloadParams } from './canonical.js'
+import { runCapacityWorkload, runSharedNetworkWorkload, runSoftmaxWorkload, summarize, workloadParams } from './canonical.js'
 import { setFastPathsEnabled } from '../src/engine/kernels/wasm.js'
 import type { PointParams } from '../src/engine/index.js'
 import { compileKernelsOptimised } from '../src/runtime/kernel-compilation.js'
@@ -23,16 +23,22 @@ const impl = 'memsweep'
 const variant = path
 const selfRssKb = (): number => process.resourceUsage().maxRSS
 
-/** Dense-representation workloads (no peer): the engine's plain and fast paths only. */
-const DENSE: Record<string, (p: PointParams) => PointParams> = {
+/** Workloads that change the standard Hebbian point (bench/README.md defines them). */
+const VARIANTS: Record<string, (p: PointParams) => PointParams> = {
   D1: (p) => ({ ...p, coding: 'binary' }),
   D2: (p) => ({ ...p, rule: { kind: 'pseudo-inverse', selfCoupling: false } }),
-  D3: (p) => ({ ...p, dilution: { keep: 0.3, symmetric: true } })
+  D3: (p) => ({ ...p, dilution: { keep: 0.3, symmetric: true } }),
+  D4: (p) => ({ ...p, rule: { kind: 'dense-polynomial', degree: 3 } }),
+  D5: (p) => ({ ...p, rule: { kind: 'dense-exponential' } }),
+  D6: (p) => ({ ...p, rule: { kind: 'modern-softmax', beta: 32 } }),
+  D7: (p) => ({ ...p, dilution: { kind: 'fixed-in-degree', inDegree: 50 } }),
+  G1: (p) => ({ ...p, dynamics: { ...p.dynamics, temperature: 0.4, maxSweeps: 20, burnIn: 10 } })
 }
 
 function shared (name: string, neurons: number, patterns: number, flips: number, update: 'async-random' | 'sync', trials: number): Record<string, unknown> {
   const base = workloadParams(neurons, patterns, flips, update)
-  const run = runSharedNetworkWorkload(name, DENSE[name]?.(base) ?? base, trials, seed)
+  const p = VARIANTS[name]?.(base) ?? base
+  const run = p.rule.kind === 'modern-softmax' ? runSoftmaxWorkload(name, p, trials, seed) : runSharedNetworkWorkload(name, p, trials, seed)
   const s = summarize(run.trials)
   const sweeps = run.trials.reduce((a, r) => a + r.sweeps, 0)
   const updates = sweeps * neurons
@@ -82,6 +88,11 @@ function once (): Record<string, unknown> {
     case 'D1': return shared('D1', 1000, 50, 100, 'async-random', 100)
     case 'D2': return shared('D2', 500, 100, 50, 'async-random', 50)
     case 'D3': return shared('D3', 1000, 50, 100, 'sync', 100)
+    case 'D4': return shared('D4', 400, 2000, 40, 'async-random', 50)
+    case 'D5': return shared('D5', 200, 2000, 20, 'async-random', 50)
+    case 'D6': return shared('D6', 400, 2000, 40, 'sync', 50)
+    case 'D7': return shared('D7', 20_000, 5, 2000, 'async-random', 20)
+    case 'G1': return shared('G1', 1000, 50, 100, 'async-random', 100)
     case 'W2': {
       const r = runCapacityWorkload(seed, trialsPerLoad)
       return {

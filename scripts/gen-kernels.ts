@@ -1,8 +1,11 @@
 /**
  * Generates src/engine/kernels/kernels.generated.ts: the WebAssembly (SIMD128) module behind
  * the engine's fast paths (overlap-space and dense sweeps, native xoshiro256** draws),
- * embedded as base64 so the engine reads no file at run time. The WebAssembly text below is the source of truth; `npm run kernels:generate`
- * assembles it with wabt (a dev dependency used only here) and rewrites the generated file.
+ * embedded as base64 so the engine reads no file at run time. The WebAssembly text below is the
+ * source of truth for the bodies; every function header comes from the signature table
+ * (src/engine/kernels/signatures.ts), which also types the exports for the engine.
+ * `npm run kernels:generate` assembles the text with wabt (a dev dependency used only here) and
+ * rewrites the generated file; test/engine/kernels/generated.test.ts fails on any drift.
  *
  * Layout the kernels expect (all offsets are byte addresses in the module's memory, 16-aligned):
  *   xi     neuron-major patterns, int8 ±1: xi[i·pp + μ] = ξ_i^μ, rows padded with zeros to
@@ -16,8 +19,30 @@
 import { writeFileSync } from 'node:fs'
 import { fileURLToPath } from 'node:url'
 import wabtFactory from 'wabt'
+import { KERNEL_MODULES, KERNEL_SIGNATURES, parseParam, type KernelModule, type KernelName, type KernelSignature } from '../src/engine/kernels/signatures.js'
 
 type Width = 16 | 32
+
+/** The module being written and the exports whose header it has, so a table entry without a body (or one written twice) is caught. */
+let writing: KernelModule = 'overlap'
+const emitted = new Set<string>()
+
+/**
+ * The header of an exported function, from its entry in KERNEL_SIGNATURES (the one table of
+ * names, modules, parameter order and types, and results): `(func [internal] (export "name") (param $p t)… [(result t)]`.
+ */
+function header (name: string, internal?: string): string {
+  if (!Object.hasOwn(KERNEL_SIGNATURES, name)) throw new Error(`kernel ${name} is not in KERNEL_SIGNATURES (src/engine/kernels/signatures.ts)`)
+  const signature: KernelSignature = KERNEL_SIGNATURES[name as KernelName]
+  if (!signature.modules.includes(writing)) throw new Error(`kernel ${name} is written into module ${writing}, which its table entry does not list`)
+  if (emitted.has(name)) throw new Error(`kernel ${name} is written twice into module ${writing}`)
+  emitted.add(name)
+  const params = signature.params.map((p) => {
+    const { name: param, type } = parseParam(p)
+    return ` (param $${param} ${type})`
+  }).join('')
+  return `(func ${internal !== undefined ? `${internal} ` : ''}(export "${name}")${params}${signature.result !== undefined ? ` (result ${signature.result})` : ''}`
+}
 
 /** Body that leaves Σ_μ ξ_row^μ m_μ in local $h; uses locals $r $e $mp $x $a $b $c $d. */
 function dot (w: Width): string {
@@ -166,13 +191,13 @@ const LOCALS4 = `(local $o i32) (local $ml v128) (local $mh v128)
  * changes a neuron, so the group is cut short there and the next group starts right after
  * it. Every decision therefore sees exactly the field the one-at-a-time sweep would.
  */
-function sweep16Body (): string {
+function sweep16Body (decide = `(local.set $v ${DECIDE})`): string {
   const visit = (j: number): string => `
           (local.set $i (local.get $i${j}))
           (local.set $row (local.get $r${j}))
           (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
           (local.set $h (i32.sub (local.get $h${j}) (i32.mul (local.get $self) (local.get $si))))
-          (local.set $v ${DECIDE})
+          ${decide}
           (if (i32.ne (local.get $v) (local.get $si))
             (then
               (i32.store8 (i32.add (local.get $s) (local.get $i)) (local.get $v))
@@ -201,7 +226,7 @@ function sweep16Body (): string {
         (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
         ${dot(16)}
         (local.set $h (i32.sub (local.get $h) (i32.mul (local.get $self) (local.get $si))))
-        (local.set $v ${DECIDE})
+        ${decide}
         (if (i32.ne (local.get $v) (local.get $si))
           (then
             (i32.store8 (i32.add (local.get $s) (local.get $i)) (local.get $v))
@@ -219,7 +244,7 @@ function sweep16Locals (): string {
 
 function sweep16Grouped (): string {
   return `
-  (func (export "sweep16") (param $xi i32) (param $m i32) (param $s i32) (param $order i32) (param $n i32) (param $pp i32) (param $self i32) (result i32)
+  ${header('sweep16')}
     ${sweep16Locals()}
     ${sweep16Body()}
     (local.get $changed))`
@@ -232,16 +257,100 @@ function sweep16Grouped (): string {
  * that changes nothing or after $max sweeps. Returns 2·sweeps + (1 if the last sweep changed
  * a neuron). The generator state and its last output are written back as in "shuffle".
  */
+/**
+ * The asynchronous sweep of runAsync16, recomputing only fields whose sign may have changed.
+ * A flip of s_j by Δ changes every overlap by Δ·ξ_j^μ, so any field moves by at most |Δ|·P
+ * (||Δm||₁; the flipped neuron's own field also moves by its self term, so it is marked stale).
+ * Each neuron keeps its last exact field (hb) and the running bound G at that moment (gb); a
+ * field further from 0 than G − gb still has its sign and is not 0, so the decision sign(h) is
+ * the exact one. Near a fixed point (the last sweep of a trial, which changes nothing) most
+ * fields are decided so without a dot product. Where a visit needs its field, the fields of the
+ * next four visits are computed together (as sweep16) when another of them needs it too; each
+ * is stored with the G of that moment, and a later flip only widens its bound.
+ */
+function boundedSweep16Body (): string {
+  const hbAt = (j: string): string => `(i32.add (local.get $hb) (i32.shl ${j} (i32.const 2)))`
+  const gbAt = (j: string): string => `(i32.add (local.get $gb) (i32.shl ${j} (i32.const 3)))`
+  const needs = (j: string): string => `(i32.eqz (f64.gt
+            (f64.convert_i32_s (select (local.tee $hv (i32.load ${hbAt(j)})) (i32.sub (i32.const 0) (local.get $hv)) (i32.ge_s (local.get $hv) (i32.const 0))))
+            (f64.sub (local.get $G) (f64.load ${gbAt(j)}))))`
+  const orderAt = (j: number): string => `(i32.load offset=${4 * j} (i32.add (local.get $order) (i32.shl (local.get $k) (i32.const 2))))`
+  const load = (j: number): string => `
+              (local.set $i${j} ${orderAt(j)})
+              (local.set $r${j} (i32.add (local.get $xi) (i32.mul (local.get $i${j}) (local.get $pp))))`
+  const store = (j: number): string => `
+              (i32.store ${hbAt(`(local.get $i${j})`)} (i32.sub (local.get $h${j}) (i32.mul (local.get $self) (i32.load8_s (i32.add (local.get $s) (local.get $i${j}))))))
+              (f64.store ${gbAt(`(local.get $i${j})`)} (local.get $G))`
+  return `
+    (local.set $k (i32.const 0))
+    (block $done
+      (loop $visit
+        (br_if $done (i32.ge_u (local.get $k) (local.get $n)))
+        (local.set $i (i32.load (i32.add (local.get $order) (i32.shl (local.get $k) (i32.const 2)))))
+        (if ${needs('(local.get $i)')}
+          (then
+            ;; (wasm evaluates both operands of i32.and: the look-ahead must not read past the order)
+            (local.set $need (i32.const 0))
+            (if (i32.le_u (i32.add (local.get $k) (i32.const 4)) (local.get $n))
+              (then (local.set $need (i32.or (i32.or ${needs(orderAt(1))} ${needs(orderAt(2))}) ${needs(orderAt(3))}))))
+            (if (local.get $need)
+              (then
+                ${[0, 1, 2, 3].map(load).join('')}
+                ${dot4()}
+                ${[0, 1, 2, 3].map(store).join('')})
+              (else
+                (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+                ${dot(16)}
+                (i32.store ${hbAt('(local.get $i)')} (i32.sub (local.get $h) (i32.mul (local.get $self) (i32.load8_s (i32.add (local.get $s) (local.get $i))))))
+                (f64.store ${gbAt('(local.get $i)')} (local.get $G))))))
+        (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+        (local.set $h (i32.load ${hbAt('(local.get $i)')}))
+        (local.set $v ${DECIDE})
+        (if (i32.ne (local.get $v) (local.get $si))
+          (then
+            (i32.store8 (i32.add (local.get $s) (local.get $i)) (local.get $v))
+            (local.set $delta (i32.sub (local.get $v) (local.get $si)))
+            (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+            ${flip(16)}
+            (local.set $G (f64.add (local.get $G) (f64.convert_i32_u (i32.mul (local.get $p)
+              (select (local.get $delta) (i32.sub (i32.const 0) (local.get $delta)) (i32.ge_s (local.get $delta) (i32.const 0)))))))
+            (f64.store ${gbAt('(local.get $i)')} (f64.const nan))
+            (local.set $changed (i32.const 1))))
+        (local.set $k (i32.add (local.get $k) (i32.const 1)))
+        (br $visit)))`
+}
+
+/**
+ * Σ_μ m_μ² over int16 overlaps (padding lanes 0), for the energy: pairs by i32x4.dot_i16x8_s
+ * (2·32767² < 2³¹), summed as doubles, exact (below 2⁵³), so equal to the plain loop's sum.
+ */
+function sumSquares16 (): string {
+  return `
+  ${header('sumSquares16')}
+    (local $q i32) (local $e i32) (local $x v128) (local $acc v128) (local $d v128)
+    (local.set $e (i32.add (local.get $m) (i32.shl (local.get $pp) (i32.const 1))))
+    (local.set $q (local.get $m))
+    (loop $pairs
+      (local.set $x (v128.load (local.get $q)))
+      (local.set $d (i32x4.dot_i16x8_s (local.get $x) (local.get $x)))
+      (local.set $acc (f64x2.add (local.get $acc) (f64x2.add (f64x2.convert_low_i32x4_s (local.get $d))
+        (f64x2.convert_low_i32x4_s (i8x16.shuffle 8 9 10 11 12 13 14 15 0 1 2 3 4 5 6 7 (local.get $d) (local.get $d))))))
+      (br_if $pairs (i32.lt_u (local.tee $q (i32.add (local.get $q) (i32.const 16))) (local.get $e))))
+    (f64.add (f64x2.extract_lane 0 (local.get $acc)) (f64x2.extract_lane 1 (local.get $acc))))`
+}
+
 function runAsync16 (): string {
   return `
-  (func (export "runAsync16") (param $xi i32) (param $m i32) (param $s i32) (param $order i32) (param $n i32) (param $pp i32) (param $self i32) (param $state i32) (param $max i32) (param $shuffle i32) (result i32)
-    ${sweep16Locals()}
+  ${header('runAsync16')}
+    ${sweep16Locals()} (local $G f64) (local $hv i32) (local $need i32)
     (local $w0 i64) (local $w1 i64) (local $w2 i64) (local $w3 i64) (local $wt i64) (local $wx i64) (local $drew i32)
     (local $fi i32) (local $fj i32) (local $fpi i32) (local $fpj i32) (local $ftmp i32) (local $sweeps i32)
     (local.set $w0 (i64.load (local.get $state)))
     (local.set $w1 (i64.load offset=8 (local.get $state)))
     (local.set $w2 (i64.load offset=16 (local.get $state)))
     (local.set $w3 (i64.load offset=24 (local.get $state)))
+    ;; No field is known yet: NaN bounds fail every comparison.
+    (memory.fill (local.get $gb) (i32.const 0xff) (i32.shl (local.get $n) (i32.const 3)))
     (loop $trial
       (local.set $sweeps (i32.add (local.get $sweeps) (i32.const 1)))
       (if (i32.and (local.get $shuffle) (i32.ge_u (local.get $n) (i32.const 2)))
@@ -270,7 +379,7 @@ function runAsync16 (): string {
             (i32.store (local.get $fpj) (local.get $ftmp))
             (br_if $draw (local.tee $fi (i32.sub (local.get $fi) (i32.const 1)))))))
       (local.set $changed (i32.const 0))
-      ${sweep16Body()}
+      ${boundedSweep16Body()}
       (br_if $trial (i32.and (local.get $changed) (i32.lt_u (local.get $sweeps) (local.get $max)))))
     (i64.store (local.get $state) (local.get $w0))
     (i64.store offset=8 (local.get $state) (local.get $w1))
@@ -278,6 +387,58 @@ function runAsync16 (): string {
     (i64.store offset=24 (local.get $state) (local.get $w3))
     (if (local.get $drew) (then (i64.store offset=32 (local.get $state) (local.get $wx))))
     (i32.add (i32.shl (local.get $sweeps) (i32.const 1)) (local.get $changed)))`
+}
+
+/**
+ * A whole asynchronous Glauber trial in one call (int16 overlaps): $max sweeps, each preceded
+ * by the Fisher–Yates reshuffle of the order (unless $shuffle is 0) and drawing one uniform
+ * per visit, in visiting order, from the xoshiro256** state at $state: the stream the plain
+ * loop consumes (it draws the sweep's uniforms after its shuffle, nothing in between).
+ * Visits are grouped by four as in "sweep16" (a group is cut at the first visit that changes
+ * a neuron), and 1 + exp(factor·h) comes from the table (onePlusExp). After every sweep the
+ * host's sweepDone(sweep) runs, so the caller can read the state and observe, as the plain
+ * loop does between sweeps. The generator state and last output are written back at the end.
+ */
+function runGlauber16 (): string {
+  // The generator's output is $wx here: $x is a v128 of the sweep body.
+  const next = XOSHIRO_NEXT.replaceAll('$x', '$wx')
+  const decide = `${next}
+          (local.set $drew (i32.const 1))
+          ${onePlusExp('(local.get $h)')}
+          (local.set $v (select (i32.const 1) (i32.const -1)
+            (f64.lt (f64.mul (f64.mul (f64.convert_i64_u (i64.shr_u (local.get $wx) (i64.const 11))) (f64.const 0x1p-53)) (local.get $g)) (f64.const 1))))`
+  return `
+  ${header('runGlauber16')}
+    ${sweep16Locals()} ${TABLE_LOCALS}
+    (local $s0 i64) (local $s1 i64) (local $s2 i64) (local $s3 i64) (local $t i64) (local $wx i64) (local $drew i32)
+    (local $fi i32) (local $fj i32) (local $fpi i32) (local $fpj i32) (local $ftmp i32) (local $sweeps i32)
+    ${XOSHIRO_LOAD}
+    (block $end
+      (loop $trial
+        (br_if $end (i32.ge_u (local.get $sweeps) (local.get $max)))
+        (local.set $sweeps (i32.add (local.get $sweeps) (i32.const 1)))
+        (if (i32.and (local.get $shuffle) (i32.ge_u (local.get $n) (i32.const 2)))
+          (then
+            (local.set $drew (i32.const 1))
+            (local.set $fi (i32.sub (local.get $n) (i32.const 1)))
+            (loop $draw
+              ${next}
+              (local.set $t (i64.extend_i32_u (i32.add (local.get $fi) (i32.const 1))))
+              (local.set $fj ${BELOW_T.replaceAll('$x', '$wx')})
+              (local.set $fpi (i32.add (local.get $order) (i32.shl (local.get $fi) (i32.const 2))))
+              (local.set $fpj (i32.add (local.get $order) (i32.shl (local.get $fj) (i32.const 2))))
+              (local.set $ftmp (i32.load (local.get $fpi)))
+              (i32.store (local.get $fpi) (i32.load (local.get $fpj)))
+              (i32.store (local.get $fpj) (local.get $ftmp))
+              (br_if $draw (local.tee $fi (i32.sub (local.get $fi) (i32.const 1)))))))
+        ${sweep16Body(decide)}
+        (call $sweepDone (local.get $sweeps))
+        (br $trial)))
+    (i64.store (local.get $state) (local.get $s0))
+    (i64.store offset=8 (local.get $state) (local.get $s1))
+    (i64.store offset=16 (local.get $state) (local.get $s2))
+    (i64.store offset=24 (local.get $state) (local.get $s3))
+    (if (local.get $drew) (then (i64.store offset=32 (local.get $state) (local.get $wx)))))`
 }
 
 /** The decision pass of the int16 synchronous step, four neurons per field computation. */
@@ -315,13 +476,37 @@ const TWO_CYCLE_CHECK = `(if (local.get $check)
             (br_if $compare (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))
           (local.set $same (i32.const 2)))))`
 
+/**
+ * Glauber's 1 + exp(factor·h) for an integer field h, left in $g: read from the table at
+ * $table, which holds it for h in [−$half, $half] (entry h + $half, 0 until first needed, since
+ * 1 + exp(·) ≥ 1 is never 0), or computed with the host's exp outside the window. An entry is the
+ * double f64.add(1, exp(f64.mul(factor, h))) computed the first time h occurs, so every read
+ * gives the very value the plain path computes for that field; the caller zeroes the table
+ * whenever the factor changes. Uses locals $gi $ga $g (TABLE_LOCALS).
+ */
+function onePlusExp (h: string): string {
+  const direct = `(f64.add (f64.const 1) (call $exp (f64.mul (local.get $factor) (f64.convert_i32_s ${h}))))`
+  return `(local.set $gi (i32.add ${h} (local.get $half)))
+      (if (i32.le_u (local.get $gi) (i32.shl (local.get $half) (i32.const 1)))
+        (then
+          (local.set $ga (i32.add (local.get $table) (i32.shl (local.get $gi) (i32.const 3))))
+          (local.set $g (f64.load (local.get $ga)))
+          (if (f64.eq (local.get $g) (f64.const 0))
+            (then
+              (local.set $g ${direct})
+              (f64.store (local.get $ga) (local.get $g)))))
+        (else (local.set $g ${direct})))`
+}
+
+const TABLE_LOCALS = '(local $gi i32) (local $ga i32) (local $g f64)'
+
 /** The zero-temperature decision: v = +1 if h > 0, −1 if h < 0, else unchanged (the tie rule). */
 const DECIDE = '(select (i32.const 1) (select (i32.const -1) (local.get $si) (i32.lt_s (local.get $h) (i32.const 0))) (i32.gt_s (local.get $h) (i32.const 0)))'
 
 /** The one-visit-at-a-time asynchronous sweep (int32 overlaps). */
 function sweepOne (w: Width): string {
   return `
-  (func (export "sweep${w}") (param $xi i32) (param $m i32) (param $s i32) (param $order i32) (param $n i32) (param $pp i32) (param $self i32) (result i32)
+  ${header(`sweep${w}`)}
     ${LOCALS}
     (local $k i32) (local $ke i32) (local $i i32) (local $si i32) (local $v i32) (local $changed i32)
     (local.set $k (local.get $order))
@@ -385,9 +570,116 @@ function syncBody (w: Width): string {
  * compared from t = 2 on) until a fixed point, a two-cycle or $max steps. Returns
  * 4·steps + ending (0 limit reached, 1 fixed point, 2 two-cycle).
  */
+/**
+ * A whole zero-temperature synchronous trial (int16 overlaps) that recomputes only the fields
+ * whose sign may have changed. After a step that changes c neurons, every field moves by at
+ * most ||Δm||₁ = Σ_μ |Δm_μ| (the sum of the overlaps' changes; the changes of c neurons partly
+ * cancel, so this is far below 2cP), and a field whose last exact value h has |h| greater than
+ * the sum of those bounds since it was computed still has h's sign and is not 0: its decision,
+ * sign(h), is the one the exact field gives. Each neuron keeps its last exact field (hb, int32)
+ * and the cumulative bound G at that moment (gb, float64, exact below 2⁵³); neurons that
+ * change are recomputed on the next step (their self term moved), and the first step computes
+ * every field. Late steps, near a fixed point, then compute a few per cent of the fields.
+ * Same contract and result as runSync16 without the bounds: every decision is exact.
+ */
+function runSync16Bounded (): string {
+  const hbAt = (j: string): string => `(i32.add (local.get $hb) (i32.shl ${j} (i32.const 2)))`
+  const gbAt = (j: string): string => `(i32.add (local.get $gb) (i32.shl ${j} (i32.const 3)))`
+  /** 1 when neuron ${j} needs its exact field this step. */
+  const needs = (j: string): string => `(i32.or (local.get $first)
+          (i32.eqz (f64.gt
+            (f64.convert_i32_s (select (local.tee $hv (i32.load ${hbAt(j)})) (i32.sub (i32.const 0) (local.get $hv)) (i32.ge_s (local.get $hv) (i32.const 0))))
+            (f64.sub (local.get $G) (f64.load ${gbAt(j)})))))`
+  const exactOne = (j: string): string => `
+          (local.set $row (i32.add (local.get $xi) (i32.mul ${j} (local.get $pp))))
+          ${dot(16)}
+          (i32.store ${hbAt(j)} (i32.sub (local.get $h) (i32.mul (local.get $self) (i32.load8_s (i32.add (local.get $s) ${j})))))
+          (f64.store ${gbAt(j)} (local.get $G))`
+  const decideAt = (j: string, offset: number): string => `
+        (local.set $si (i32.load8_s offset=${offset} (i32.add (local.get $s) ${j})))
+        (local.set $h (i32.load offset=${4 * offset} ${hbAt(j)}))
+        (local.set $v ${DECIDE})
+        (i32.store8 offset=${offset} (i32.add (local.get $next) ${j}) (local.get $v))
+        (if (i32.ne (local.get $v) (local.get $si)) (then (local.set $same (i32.const 0))))`
+  const group = `
+        (local.set $need (i32.or (i32.or ${needs('(local.get $i)')} (i32.shl ${needs('(i32.add (local.get $i) (i32.const 1))')} (i32.const 1)))
+          (i32.or (i32.shl ${needs('(i32.add (local.get $i) (i32.const 2))')} (i32.const 2)) (i32.shl ${needs('(i32.add (local.get $i) (i32.const 3))')} (i32.const 3)))))
+        (if (i32.eq (local.get $need) (i32.const 15))
+          (then
+            (local.set $r0 (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+            (local.set $r1 (i32.add (local.get $r0) (local.get $pp)))
+            (local.set $r2 (i32.add (local.get $r1) (local.get $pp)))
+            (local.set $r3 (i32.add (local.get $r2) (local.get $pp)))
+            ${dot4()}
+            ${[0, 1, 2, 3].map((j) => `(i32.store offset=${4 * j} ${hbAt('(local.get $i)')} (i32.sub (local.get $h${j}) (i32.mul (local.get $self) (i32.load8_s offset=${j} (i32.add (local.get $s) (local.get $i))))))
+            (f64.store offset=${8 * j} ${gbAt('(local.get $i)')} (local.get $G))`).join('\n            ')})
+          (else
+            ${[0, 1, 2, 3].map((j) => `(if (i32.and (local.get $need) (i32.const ${1 << j})) (then
+              (local.set $j (i32.add (local.get $i) (i32.const ${j})))
+              ${exactOne('(local.get $j)')}))`).join('\n            ')}))
+        ${[0, 1, 2, 3].map((j) => decideAt('(local.get $i)', j)).join('')}`
+  return `
+  ${header('runSync16')}
+    ${LOCALS} ${LOCALS4}
+    (local $i i32) (local $j i32) (local $si i32) (local $v i32) (local $same i32) (local $check i32) (local $steps i32)
+    (local $first i32) (local $need i32) (local $hv i32) (local $G f64) (local $acc v128) (local $mq i32) (local $me i32)
+    (loop $trial
+      (local.set $steps (i32.add (local.get $steps) (i32.const 1)))
+      (local.set $check (i32.ge_u (local.get $steps) (i32.const 2)))
+      (local.set $first (i32.eq (local.get $steps) (i32.const 1)))
+      (block $step
+        (local.set $same (i32.const 1))
+        (local.set $i (i32.const 0))
+        (block $groupsDone
+          (loop $group
+            (br_if $groupsDone (i32.gt_u (i32.add (local.get $i) (i32.const 4)) (local.get $n)))
+            ${group}
+            (local.set $i (i32.add (local.get $i) (i32.const 4)))
+            (br $group)))
+        (block $tailDone
+          (loop $tail
+            (br_if $tailDone (i32.ge_u (local.get $i) (local.get $n)))
+            (if ${needs('(local.get $i)')} (then ${exactOne('(local.get $i)')}))
+            ${decideAt('(local.get $i)', 0)}
+            (local.set $i (i32.add (local.get $i) (i32.const 1)))
+            (br $tail)))
+        (br_if $step (local.get $same))
+        ${TWO_CYCLE_CHECK}
+        (memory.copy (local.get $mprev) (local.get $m) (i32.shl (local.get $pp) (i32.const 1)))
+        (local.set $i (i32.const 0))
+        (loop $apply
+          (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+          (local.set $v (i32.load8_s (i32.add (local.get $next) (local.get $i))))
+          (i32.store8 (i32.add (local.get $prev) (local.get $i)) (local.get $si))
+          (if (i32.ne (local.get $v) (local.get $si))
+            (then
+              (i32.store8 (i32.add (local.get $s) (local.get $i)) (local.get $v))
+              (local.set $delta (i32.sub (local.get $v) (local.get $si)))
+              (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+              ${flip(16)}
+              ;; Its self term moved: recompute it next step.
+              (f64.store ${gbAt('(local.get $i)')} (f64.const -inf))))
+          (br_if $apply (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))
+        ;; G += Σ_μ |m_μ − m'_μ| (widened to int32: a difference of two int16 overlaps may not fit int16).
+        (local.set $acc (v128.const i32x4 0 0 0 0))
+        (local.set $mq (i32.const 0))
+        (local.set $me (i32.shl (local.get $pp) (i32.const 1)))
+        (loop $norm
+          (local.set $x (v128.load (i32.add (local.get $m) (local.get $mq))))
+          (local.set $y (v128.load (i32.add (local.get $mprev) (local.get $mq))))
+          (local.set $acc (i32x4.add (local.get $acc) (i32x4.abs (i32x4.sub (i32x4.extend_low_i16x8_s (local.get $x)) (i32x4.extend_low_i16x8_s (local.get $y))))))
+          (local.set $acc (i32x4.add (local.get $acc) (i32x4.abs (i32x4.sub (i32x4.extend_high_i16x8_s (local.get $x)) (i32x4.extend_high_i16x8_s (local.get $y))))))
+          (br_if $norm (i32.lt_u (local.tee $mq (i32.add (local.get $mq) (i32.const 16))) (local.get $me))))
+        (local.set $G (f64.add (local.get $G) (f64.convert_i32_u (i32.add
+          (i32.add (i32x4.extract_lane 0 (local.get $acc)) (i32x4.extract_lane 1 (local.get $acc)))
+          (i32.add (i32x4.extract_lane 2 (local.get $acc)) (i32x4.extract_lane 3 (local.get $acc))))))))
+      (br_if $trial (i32.and (i32.eqz (local.get $same)) (i32.lt_u (local.get $steps) (local.get $max)))))
+    (i32.add (i32.shl (local.get $steps) (i32.const 2)) (local.get $same)))`
+}
+
 function runSync (w: Width): string {
   return `
-  (func (export "runSync${w}") (param $xi i32) (param $m i32) (param $s i32) (param $next i32) (param $prev i32) (param $n i32) (param $pp i32) (param $self i32) (param $max i32) (result i32)
+  ${header(`runSync${w}`)}
     ${LOCALS}
     (local $i i32) (local $si i32) (local $v i32) (local $same i32) (local $check i32) (local $steps i32) ${w === 16 ? LOCALS4 : ''}
     (loop $trial
@@ -398,26 +690,13 @@ function runSync (w: Width): string {
     (i32.add (i32.shl (local.get $steps) (i32.const 2)) (local.get $same)))`
 }
 
-function variant (w: Width): string {
+/** m = Σ_i s_i ξ_i from scratch, int16 or int32 overlaps (xi neuron-major, rows of pp). */
+function overlapsFunction (w: Width): string {
   const lane = w === 16 ? 2 : 4
   return `
-  ;; Raw field without the self term: Σ_μ ξ_i^μ m_μ.
-  (func (export "dot${w}") (param $xi i32) (param $m i32) (param $pp i32) (param $i i32) (result i32)
-    ${LOCALS}
-    (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
-    ${dot(w)}
-    (local.get $h))
-
-  ;; m += delta·ξ_i (a change of s_i by delta).
-  (func (export "flip${w}") (param $xi i32) (param $m i32) (param $pp i32) (param $i i32) (param $d0 i32)
-    ${LOCALS}
-    (local.set $delta (local.get $d0))
-    (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
-    ${flip(w)})
-
   ;; m = Σ_i s_i ξ_i from scratch. ${w === 16 ? 'Groups of 64 patterns (one cache line of a row) then single blocks of 16' : 'One block of 16 patterns at a time'},
   ;; so the accumulators stay in registers and every cache line fetched is used whole.
-  (func (export "overlaps${w}") (param $xi i32) (param $m i32) (param $s i32) (param $n i32) (param $pp i32)
+  ${header(`overlaps${w}`)}
     (local $blk i32) (local $r i32) (local $sp i32) (local $se i32) (local $x v128) (local $y v128) (local $sv v128)
     (local $a v128) (local $b v128) (local $c v128) (local $d v128)
     (local $a4 v128) (local $a5 v128) (local $a6 v128) (local $a7 v128)
@@ -451,7 +730,24 @@ function variant (w: Width): string {
       (v128.store (local.get $r) (local.get $a))
       (v128.store offset=16 (local.get $r) (local.get $b))
       ${w === 32 ? '(v128.store offset=32 (local.get $r) (local.get $c)) (v128.store offset=48 (local.get $r) (local.get $d))' : ''}
-      (br_if $block (i32.lt_u (local.tee $blk (i32.add (local.get $blk) (i32.const 16))) (local.get $pp)))))))
+      (br_if $block (i32.lt_u (local.tee $blk (i32.add (local.get $blk) (i32.const 16))) (local.get $pp)))))))`
+}
+
+function variant (w: Width): string {
+  return `
+  ;; Raw field without the self term: Σ_μ ξ_i^μ m_μ.
+  ${header(`dot${w}`)}
+    ${LOCALS}
+    (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+    ${dot(w)}
+    (local.get $h))
+
+  ;; m += delta·ξ_i (a change of s_i by delta).
+  ${header(`flip${w}`)}
+    ${LOCALS}
+    (local.set $delta (local.get $d0))
+    (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+    ${flip(w)})
 
   ;; One asynchronous zero-temperature sweep in the given order; returns 1 if any neuron changed.
   ${w === 16 ? sweep16Grouped() : sweepOne(w)}
@@ -459,16 +755,17 @@ function variant (w: Width): string {
   ;; One synchronous zero-temperature step s(t) = sign(h(s(t−1))), ties keep s_i.
   ;; Returns 1 if s(t) = s(t−1) (state left as is), 2 if s(t) = prev (checked when $check), else 0;
   ;; unless 1, prev ← s(t−1) and s, m ← s(t), m updated from the changed neurons only.
-  (func (export "sync${w}") (param $xi i32) (param $m i32) (param $s i32) (param $next i32) (param $prev i32) (param $n i32) (param $pp i32) (param $self i32) (param $check i32) (result i32)
+  ${header(`sync${w}`)}
     ${LOCALS}
     (local $i i32) (local $si i32) (local $v i32) (local $same i32) ${w === 16 ? LOCALS4 : ''}
     ${syncBody(w)}
     (local.get $same))
 
   ;; One asynchronous Glauber sweep: s_i ← +1 iff u_k·(1 + exp(factor·h_i)) < 1, u_k = noise[k].
-  ;; The same IEEE operations, in the same order, as the plain path; exp is the host's Math.exp.
-  (func (export "glauber${w}") (param $xi i32) (param $m i32) (param $s i32) (param $order i32) (param $noise i32) (param $n i32) (param $pp i32) (param $self i32) (param $factor f64)
-    ${LOCALS}
+  ;; The same IEEE operations, in the same order, as the plain path; exp is the host's Math.exp,
+  ;; its values kept in the table over the integer field (see onePlusExp).
+  ${header(`glauber${w}`)}
+    ${LOCALS} ${TABLE_LOCALS}
     (local $k i32) (local $i i32) (local $si i32) (local $v i32)
     (local.set $k (i32.const 0))
     (loop $visit
@@ -477,11 +774,9 @@ function variant (w: Width): string {
       (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
       ${dot(w)}
       (local.set $h (i32.sub (local.get $h) (i32.mul (local.get $self) (local.get $si))))
+      ${onePlusExp('(local.get $h)')}
       (local.set $v (select (i32.const 1) (i32.const -1)
-        (f64.lt
-          (f64.mul (f64.load (i32.add (local.get $noise) (i32.shl (local.get $k) (i32.const 3))))
-            (f64.add (f64.const 1) (call $exp (f64.mul (local.get $factor) (f64.convert_i32_s (local.get $h))))))
-          (f64.const 1))))
+        (f64.lt (f64.mul (f64.load (i32.add (local.get $noise) (i32.shl (local.get $k) (i32.const 3)))) (local.get $g)) (f64.const 1))))
       (if (i32.ne (local.get $v) (local.get $si))
         (then
           (i32.store8 (i32.add (local.get $s) (local.get $i)) (local.get $v))
@@ -490,8 +785,8 @@ function variant (w: Width): string {
       (br_if $visit (i32.lt_u (local.tee $k (i32.add (local.get $k) (i32.const 1))) (local.get $n)))))
 
   ;; Synchronous Glauber step: next_i from the current state for every i, then s, m ← next.
-  (func (export "glauberSync${w}") (param $xi i32) (param $m i32) (param $s i32) (param $next i32) (param $noise i32) (param $n i32) (param $pp i32) (param $self i32) (param $factor f64)
-    ${LOCALS}
+  ${header(`glauberSync${w}`)}
+    ${LOCALS} ${TABLE_LOCALS}
     (local $i i32) (local $si i32) (local $v i32)
     (local.set $i (i32.const 0))
     (loop $visit
@@ -499,11 +794,9 @@ function variant (w: Width): string {
       (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
       ${dot(w)}
       (local.set $h (i32.sub (local.get $h) (i32.mul (local.get $self) (local.get $si))))
+      ${onePlusExp('(local.get $h)')}
       (i32.store8 (i32.add (local.get $next) (local.get $i)) (select (i32.const 1) (i32.const -1)
-        (f64.lt
-          (f64.mul (f64.load (i32.add (local.get $noise) (i32.shl (local.get $i) (i32.const 3))))
-            (f64.add (f64.const 1) (call $exp (f64.mul (local.get $factor) (f64.convert_i32_s (local.get $h))))))
-          (f64.const 1))))
+        (f64.lt (f64.mul (f64.load (i32.add (local.get $noise) (i32.shl (local.get $i) (i32.const 3)))) (local.get $g)) (f64.const 1))))
       (br_if $visit (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))
     (local.set $i (i32.const 0))
     (loop $apply
@@ -542,7 +835,7 @@ function transpose (): string {
   for (let c = 0; c < 16; c++) stores.push(`(v128.store (i32.add (local.get $out) (i32.mul (i32.const ${c}) (local.get $stride))) (local.get $v${c}))`)
   return `
   ;; dst[i·stride + μ] = src[μ·srcStride + i] for i < cols, μ < rows (cols, rows multiples of 16).
-  (func (export "transpose") (param $src i32) (param $srcStride i32) (param $cols i32) (param $dst i32) (param $stride i32) (param $rows i32)
+  ${header('transpose')}
     (local $ti i32) (local $tm i32) (local $in i32) (local $out i32)
     ${decl.join(' ')}
     (local.set $ti (i32.const 0))
@@ -567,7 +860,7 @@ function transpose (): string {
  */
 function shuffle (): string {
   return `
-  (func (export "shuffle") (param $order i32) (param $n i32) (param $state i32)
+  ${header('shuffle')}
     (local $s0 i64) (local $s1 i64) (local $s2 i64) (local $s3 i64) (local $t i64) (local $x i64)
     (local $i i32) (local $j i32) (local $pi i32) (local $pj i32) (local $tmp i32)
     (if (i32.lt_u (local.get $n) (i32.const 2)) (then (return)))
@@ -595,7 +888,7 @@ function shuffle (): string {
  */
 function partialShuffle (): string {
   return `
-  (func (export "partialShuffle") (param $idx i32) (param $n i32) (param $count i32) (param $state i32)
+  ${header('partialShuffle')}
     (local $s0 i64) (local $s1 i64) (local $s2 i64) (local $s3 i64) (local $t i64) (local $x i64)
     (local $k i32) (local $j i32) (local $pk i32) (local $pj i32) (local $tmp i32)
     (loop $identity
@@ -614,7 +907,18 @@ function partialShuffle (): string {
       (i32.store (local.get $pj) (i32.load (local.get $pk)))
       (i32.store (local.get $pk) (local.get $tmp))
       (br_if $draw (i32.lt_u (local.tee $k (i32.add (local.get $k) (i32.const 1))) (local.get $count))))
-    ${XOSHIRO_STORE})`
+    ${XOSHIRO_STORE})
+
+  ;; The cue's bits once chosen ("partialShuffle"): s[idx[k]] for k < count negated, or set to 0 when $zero.
+  ${header('markChosen')}
+    (local $k i32) (local $p i32)
+    (block $done
+      (loop $mark
+        (br_if $done (i32.ge_u (local.get $k) (local.get $count)))
+        (local.set $p (i32.add (local.get $s) (i32.load (i32.add (local.get $idx) (i32.shl (local.get $k) (i32.const 2))))))
+        (i32.store8 (local.get $p) (select (i32.const 0) (i32.sub (i32.const 0) (i32.load8_s (local.get $p))) (local.get $zero)))
+        (local.set $k (i32.add (local.get $k) (i32.const 1)))
+        (br $mark))))`
 }
 
 /**
@@ -633,7 +937,7 @@ function signBits (): string {
         (then (i32.store (i32.add (local.get $m) (i32.shl (local.get $mu) (i32.const 2))) ${value}))
         (else (i32.store16 (i32.add (local.get $m) (i32.shl (local.get $mu) (i32.const 1))) ${value})))`
   return `
-  (func $packSigns (export "packSigns") (param $src i32) (param $n i32) (param $dst i32) (param $words i32) (result i32)
+  ${header('packSigns', '$packSigns')}
     (local $k i32) (local $groups i32) (local $all i32) (local $v v128) (local $zero i32) (local $valid i32)
     (local.set $groups (i32.shr_u (i32.add (local.get $n) (i32.const 15)) (i32.const 4)))
     (local.set $all (i32.shl (local.get $words) (i32.const 2)))
@@ -654,7 +958,7 @@ function signBits (): string {
         (br $group)))
     (i32.ne (local.get $zero) (i32.const 0)))
 
-  (func (export "packRows") (param $src i32) (param $n i32) (param $rows i32) (param $dst i32) (param $words i32)
+  ${header('packRows')}
     (local $r i32)
     (block $done
       (loop $row
@@ -667,7 +971,7 @@ function signBits (): string {
         (local.set $r (i32.add (local.get $r) (i32.const 1)))
         (br $row))))
 
-  (func (export "overlapsBits") (param $bits i32) (param $words i32) (param $s i32) (param $sbits i32) (param $n i32) (param $p i32) (param $pp i32) (param $m i32) (param $wide i32) (result i32)
+  ${header('overlapsBits')}
     (local $mu i32) (local $w i32) (local $acc i64) (local $row i32)
     (if (call $packSigns (local.get $s) (local.get $n) (local.get $sbits) (local.get $words)) (then (return (i32.const 0))))
     (local.set $row (local.get $bits))
@@ -700,7 +1004,7 @@ function signBits (): string {
  */
 function uniforms (): string {
   return `
-  (func (export "uniforms") (param $out i32) (param $count i32) (param $state i32)
+  ${header('uniforms')}
     (local $s0 i64) (local $s1 i64) (local $s2 i64) (local $s3 i64) (local $t i64) (local $x i64) (local $e i32)
     (if (i32.eqz (local.get $count)) (then (return)))
     ${XOSHIRO_LOAD}
@@ -755,7 +1059,7 @@ function unbiasedRows (): string {
         (local.set $v (v128.and (i8x16.swizzle (local.get $w) (v128.const i8x16 ${2 * q} ${2 * q} ${2 * q} ${2 * q} ${2 * q} ${2 * q} ${2 * q} ${2 * q} ${2 * q + 1} ${2 * q + 1} ${2 * q + 1} ${2 * q + 1} ${2 * q + 1} ${2 * q + 1} ${2 * q + 1} ${2 * q + 1})) (local.get $bits)))
         (v128.store offset=${16 * q} (local.get $p) (i8x16.sub (v128.and (i8x16.eq (local.get $v) (local.get $bits)) (local.get $two)) (local.get $one)))`
   return `
-  (func (export "unbiasedRows") (param $out i32) (param $n i32) (param $count i32) (param $state i32)
+  ${header('unbiasedRows')}
     (local $s0 i64) (local $s1 i64) (local $s2 i64) (local $s3 i64) (local $t i64) (local $x i64)
     (local $row i32) (local $p i32) (local $e i32) (local $w v128) (local $v v128) (local $bits v128) (local $two v128) (local $one v128)
     (if (i32.eqz (i32.mul (local.get $n) (local.get $count))) (then (return)))
@@ -838,12 +1142,12 @@ function dense (): string {
             (f64.const 1)))`
   return `
   ;; Dense: h = bias + J s from scratch (cols[j·n + i] = J_ij).
-  (func (export "denseLoad") (param $cols i32) (param $bias i32) (param $s i32) (param $h i32) (param $n i32) (param $rowwise i32)
+  ${header('denseLoad')}
     ${DENSE_LOCALS}
     ${reload})
 
   ;; Dense zero-temperature asynchronous sweep; returns 1 if any neuron changed.
-  (func (export "denseSweep") (param $cols i32) (param $s i32) (param $h i32) (param $order i32) (param $n i32) (result i32)
+  ${header('denseSweep')}
     ${DENSE_LOCALS} (local $changed i32) (local $fh f64)
     (local.set $k (i32.const 0))
     (loop $visit
@@ -858,7 +1162,7 @@ function dense (): string {
     (local.get $changed))
 
   ;; Dense asynchronous Glauber sweep, noise[k] the uniform of the k-th visit.
-  (func (export "denseGlauber") (param $cols i32) (param $s i32) (param $h i32) (param $order i32) (param $noise i32) (param $n i32) (param $factor f64)
+  ${header('denseGlauber')}
     ${DENSE_LOCALS}
     (local.set $k (i32.const 0))
     (loop $visit
@@ -869,7 +1173,7 @@ function dense (): string {
       (br_if $visit (i32.lt_u (local.tee $k (i32.add (local.get $k) (i32.const 1))) (local.get $n)))))
 
   ;; Dense synchronous zero-temperature step (same contract as sync16), then h reloaded from scratch.
-  (func (export "denseSync") (param $cols i32) (param $bias i32) (param $s i32) (param $h i32) (param $next i32) (param $prev i32) (param $n i32) (param $check i32) (param $rowwise i32) (result i32)
+  ${header('denseSync')}
     ${DENSE_LOCALS} (local $same i32) (local $fh f64)
     (local.set $same (i32.const 1))
     (local.set $i (i32.const 0))
@@ -888,7 +1192,7 @@ function dense (): string {
     (local.get $same))
 
   ;; Dense synchronous Glauber step: next_i from h_i and noise[i], then s ← next and h reloaded.
-  (func (export "denseGlauberSync") (param $cols i32) (param $bias i32) (param $s i32) (param $h i32) (param $next i32) (param $noise i32) (param $n i32) (param $factor f64) (param $rowwise i32)
+  ${header('denseGlauberSync')}
     ${DENSE_LOCALS}
     (local.set $i (i32.const 0))
     (loop $visit
@@ -962,24 +1266,25 @@ function dense16 (): string {
         ${axpy16(COLUMN16('(local.get $i)'), '(i32.sub (local.get $v) (local.get $si))')}`
   const field = '(i32.load (i32.add (local.get $h) (i32.shl (local.get $i) (i32.const 2))))'
   const decide = '(select (i32.const 1) (select (i32.const -1) (local.get $si) (i32.lt_s (local.get $fh) (i32.const 0))) (i32.gt_s (local.get $fh) (i32.const 0)))'
-  const glauberUp = (noiseIndex: string): string => `(select (i32.const 1) (i32.const -1)
-          (f64.lt
-            (f64.mul (f64.load (i32.add (local.get $noise) (i32.shl ${noiseIndex} (i32.const 3))))
-              (f64.add (f64.const 1) (call $exp (f64.mul (local.get $factor) (f64.convert_i32_s ${field})))))
-            (f64.const 1)))`
+  // Leaves 1 + exp(factor·h_i) in $g (tabulated over the integer field), then decides.
+  const glauberUp = (noiseIndex: string): string => `(block (result i32)
+          (local.set $fh ${field})
+          ${onePlusExp('(local.get $fh)')}
+          (select (i32.const 1) (i32.const -1)
+            (f64.lt (f64.mul (f64.load (i32.add (local.get $noise) (i32.shl ${noiseIndex} (i32.const 3)))) (local.get $g)) (f64.const 1))))`
   return `
   ;; Dense int16: h = bias + J s from scratch.
-  (func (export "dense16Load") (param $cols i32) (param $bias i32) (param $s i32) (param $s16 i32) (param $h i32) (param $n i32) (param $stride i32) (param $rowsAreColumns i32)
+  ${header('dense16Load')}
     ${DENSE16_LOCALS}
     ${reload})
 
   ;; Dense int16: s_j changes by delta (the per-neuron set of the JavaScript API).
-  (func (export "dense16Set") (param $cols i32) (param $h i32) (param $stride i32) (param $j i32) (param $delta i32)
+  ${header('dense16Set')}
     ${DENSE16_LOCALS}
     ${axpy16(COLUMN16('(local.get $j)'), '(local.get $delta)')})
 
   ;; Dense int16 zero-temperature asynchronous sweep; returns 1 if any neuron changed.
-  (func (export "dense16Sweep") (param $cols i32) (param $s i32) (param $h i32) (param $order i32) (param $n i32) (param $stride i32) (result i32)
+  ${header('dense16Sweep')}
     ${DENSE16_LOCALS} (local $changed i32)
     (local.set $k (i32.const 0))
     (loop $visit
@@ -994,8 +1299,8 @@ function dense16 (): string {
     (local.get $changed))
 
   ;; Dense int16 asynchronous Glauber sweep, noise[k] the uniform of the k-th visit.
-  (func (export "dense16Glauber") (param $cols i32) (param $s i32) (param $h i32) (param $order i32) (param $noise i32) (param $n i32) (param $stride i32) (param $factor f64)
-    ${DENSE16_LOCALS}
+  ${header('dense16Glauber')}
+    ${DENSE16_LOCALS} ${TABLE_LOCALS}
     (local.set $k (i32.const 0))
     (loop $visit
       (local.set $i (i32.load (i32.add (local.get $order) (i32.shl (local.get $k) (i32.const 2)))))
@@ -1005,7 +1310,7 @@ function dense16 (): string {
       (br_if $visit (i32.lt_u (local.tee $k (i32.add (local.get $k) (i32.const 1))) (local.get $n)))))
 
   ;; Dense int16 synchronous zero-temperature step (contract of sync16), then h rebuilt.
-  (func (export "dense16Sync") (param $cols i32) (param $bias i32) (param $s i32) (param $s16 i32) (param $h i32) (param $next i32) (param $prev i32) (param $n i32) (param $stride i32) (param $check i32) (param $rowsAreColumns i32) (result i32)
+  ${header('dense16Sync')}
     ${DENSE16_LOCALS} (local $same i32)
     (local.set $same (i32.const 1))
     (local.set $i (i32.const 0))
@@ -1024,8 +1329,8 @@ function dense16 (): string {
     (local.get $same))
 
   ;; Dense int16 synchronous Glauber step: next_i from h_i and noise[i], then s ← next and h rebuilt.
-  (func (export "dense16GlauberSync") (param $cols i32) (param $bias i32) (param $s i32) (param $s16 i32) (param $h i32) (param $next i32) (param $noise i32) (param $n i32) (param $stride i32) (param $factor f64) (param $rowsAreColumns i32)
-    ${DENSE16_LOCALS}
+  ${header('dense16GlauberSync')}
+    ${DENSE16_LOCALS} ${TABLE_LOCALS}
     (local.set $i (i32.const 0))
     (loop $visit
       (i32.store8 (i32.add (local.get $next) (local.get $i)) ${glauberUp('(local.get $i)')})
@@ -1034,45 +1339,670 @@ function dense16 (): string {
     ${reload})`
 }
 
-export const KERNELS_WAT = `(module
+/**
+ * Dense associative memories (network/dense-memory.ts), ±1 neurons, raw field
+ * h_i = Σ_μ ξ_i^μ D(r_μ), r_μ = m_μ − ξ_i^μ s_i, read there from a table over the integers.
+ *
+ * ## Why this shape
+ * The plain visit gathers P table entries and adds them in order: P dependent additions. For
+ * s_i = ±1, write t_μ = ξ_i^μ s_i; then ξ_i^μ D(r_μ) is s_i·A_μ where t_μ = 1 and −s_i·B_μ where
+ * t_μ = −1, with A_μ = D(m_μ − 1), B_μ = D(m_μ + 1), so
+ *   h_i = ½ [ s_i Σ_μ (A_μ − B_μ) + Σ_μ ξ_i^μ C_μ ],   C_μ = A_μ + B_μ:
+ * the vector C depends on the overlaps only (rebuilt after a change, which rewrites every m_μ
+ * anyway), and a visit is a masked sum Σ_μ ξ_i^μ C_μ = ΣC − 2 Σ_{ξ_i^μ = −1} C_μ, two float64
+ * lanes per SIMD operation, the masks expanded from the int8 pattern row by byte swizzles.
+ * - Polynomial: D(r) = (r+1)ⁿ − (r−1)ⁿ is an integer. The network runs this kernel only when
+ *   every sum involved is an integer below 2⁵³ (4·P·max|D| < 2⁵³), where float64 addition is
+ *   exact in any order: the field is the plain path's integer, bit for bit, at any temperature.
+ * - Exponential: D(r) ∝ eʳ, and the plain field Σ_μ ξ e^{r_μ − R} (R = max r) is a rounded
+ *   sequential sum. With E_μ = e^{m_μ − M'} (M' = max m + 1, table values) and S = ΣE, the same
+ *   algebra gives h ∝ G = (S − 2 Σ_{ξ=−1} E) − s_i·S·tanh 1 with a positive factor, so the sign
+ *   of G is the sign of the exact field. Both G and the plain sum are within a few P ulps of S
+ *   of their exact values, so where |G| > τ = (16P + 64)·2⁻⁵³·S + P·2⁻¹⁰⁶⁰ (over twice the two
+ *   error bounds together) G's sign is the plain field's sign, and the decision is the plain
+ *   decision. Where |G| ≤ τ (ties, near-ties) the kernel computes the plain field itself, in the
+ *   plain order with the plain table. Zero temperature only (the model allows no other).
+ * Where s_i = 0 (erased cue bits) the polynomial visit also computes the plain field directly.
+ *
+ * Layout: xi neuron-major int8 rows of pp (P rounded up to 16, zero padded; the overlap-space
+ * layout, so overlaps32 and the flip32 update serve here too), m int32 (pp lanes), c float64
+ * (pp), sums float64 ×2 (polynomial: Σ(A−B), ΣC; exponential: S, τ), table float64:
+ * polynomial D(r) at r + off (off = N + 1, r ∈ [−N−1, N+1]), exponential e^{−d} at d ∈ [0, 2N+1].
+ */
+type MemoryKind = 'Poly' | 'Exp'
+
+const MEM_LOCALS = `(local $row i32) (local $r i32) (local $e i32) (local $mp i32) (local $delta i32) (local $x v128) (local $y v128) (local $dv v128)
+    (local $vp i32) (local $nm v128) (local $q0 v128) (local $q1 v128) (local $q2 v128) (local $q3 v128) (local $neg f64) (local $f f64)
+    (local $mu i32) (local $xv i32) (local $top i32) (local $rr i32) (local $k0 f64) (local $k1 f64) (local $k i32) (local $i i32) (local $si i32) (local $v i32)`
+
+/** Σ_{μ: ξ_row^μ = −1} vec_μ into $neg: the row's sign bytes widened to 64-bit lane masks by swizzles. */
+function maskedSum (): string {
+  const lanes: string[] = []
+  for (let q = 0; q < 8; q++) {
+    const index = `${Array(8).fill(2 * q).join(' ')} ${Array(8).fill(2 * q + 1).join(' ')}`
+    lanes.push(`(local.set $q${q % 4} (f64x2.add (local.get $q${q % 4}) (v128.and (i8x16.swizzle (local.get $nm) (v128.const i8x16 ${index})) (v128.load offset=${16 * q} (local.get $vp)))))`)
+  }
+  return `
+      (local.set $r (local.get $row))
+      (local.set $e (i32.add (local.get $row) (local.get $pp)))
+      (local.set $vp (local.get $vec))
+      (local.set $q0 (v128.const i32x4 0 0 0 0))
+      (local.set $q1 (v128.const i32x4 0 0 0 0))
+      (local.set $q2 (v128.const i32x4 0 0 0 0))
+      (local.set $q3 (v128.const i32x4 0 0 0 0))
+      (loop $masked
+        (local.set $nm (i8x16.lt_s (v128.load (local.get $r)) (v128.const i32x4 0 0 0 0)))
+        ${lanes.join('\n        ')}
+        (local.set $vp (i32.add (local.get $vp) (i32.const 128)))
+        (br_if $masked (i32.lt_u (local.tee $r (i32.add (local.get $r) (i32.const 16))) (local.get $e))))
+      (local.set $q0 (f64x2.add (f64x2.add (local.get $q0) (local.get $q1)) (f64x2.add (local.get $q2) (local.get $q3))))
+      (local.set $neg (f64.add (f64x2.extract_lane 0 (local.get $q0)) (f64x2.extract_lane 1 (local.get $q0))))`
+}
+
+const M_AT = (mu: string): string => `(i32.load (i32.add (local.get $m) (i32.shl ${mu} (i32.const 2))))`
+const ROW_AT = (mu: string): string => `(i32.load8_s (i32.add (local.get $row) ${mu}))`
+
+/** The plain path's field, in its order, into $f: Σ_μ ξ·D(m_μ − ξ s_i) (polynomial table at r + off). */
+const EXACT_POLY = `
+      (local.set $f (f64.const 0))
+      (local.set $mu (i32.const 0))
+      (block $exactDone
+        (loop $exact
+          (br_if $exactDone (i32.ge_u (local.get $mu) (local.get $p)))
+          (local.set $xv ${ROW_AT('(local.get $mu)')})
+          (local.set $f (f64.add (local.get $f) (f64.mul (f64.convert_i32_s (local.get $xv))
+            (f64.load (i32.add (local.get $table) (i32.shl (i32.add (i32.sub ${M_AT('(local.get $mu)')} (i32.mul (local.get $xv) (local.get $si))) (local.get $off)) (i32.const 3)))))))
+          (local.set $mu (i32.add (local.get $mu) (i32.const 1)))
+          (br $exact)))`
+
+/** The plain path's exponential field into $f: R = max_μ r_μ, then Σ_μ ξ·e^{−(R − r_μ)} in order. */
+const EXACT_EXP = `
+      (local.set $top (i32.const 0x80000000))
+      (local.set $mu (i32.const 0))
+      (block $topDone
+        (loop $topLoop
+          (br_if $topDone (i32.ge_u (local.get $mu) (local.get $p)))
+          (local.set $rr (i32.sub ${M_AT('(local.get $mu)')} (i32.mul ${ROW_AT('(local.get $mu)')} (local.get $si))))
+          (local.set $top (select (local.get $rr) (local.get $top) (i32.gt_s (local.get $rr) (local.get $top))))
+          (local.set $mu (i32.add (local.get $mu) (i32.const 1)))
+          (br $topLoop)))
+      (local.set $f (f64.const 0))
+      (local.set $mu (i32.const 0))
+      (block $exactDone
+        (loop $exact
+          (br_if $exactDone (i32.ge_u (local.get $mu) (local.get $p)))
+          (local.set $xv ${ROW_AT('(local.get $mu)')})
+          (local.set $f (f64.add (local.get $f) (f64.mul (f64.convert_i32_s (local.get $xv))
+            (f64.load (i32.add (local.get $table) (i32.shl (i32.sub (local.get $top) (i32.sub ${M_AT('(local.get $mu)')} (i32.mul (local.get $xv) (local.get $si)))) (i32.const 3)))))))
+          (local.set $mu (i32.add (local.get $mu) (i32.const 1)))
+          (br $exact)))`
+
+const DECIDE_F = '(select (i32.const 1) (select (i32.const -1) (local.get $si) (f64.lt (local.get $f) (f64.const 0))) (f64.gt (local.get $f) (f64.const 0)))'
+
+/** Leaves the raw field of neuron $i (row $row, state $si) in $f: exact, from the vector C unless s_i = 0. */
+const POLY_FIELD = `
+      (if (local.get $si)
+        (then
+          ${maskedSum()}
+          (local.set $f (f64.mul (f64.add (f64.mul (f64.convert_i32_s (local.get $si)) (local.get $k0)) (f64.sub (local.get $k1) (f64.add (local.get $neg) (local.get $neg)))) (f64.const 0.5))))
+        (else ${EXACT_POLY}))`
+
+/** Leaves the zero-temperature decision for neuron $i in $v: the sign of G where certain, else of the plain field. */
+const EXP_DECIDE = `
+      ${maskedSum()}
+      (local.set $f (f64.sub (f64.sub (local.get $k0) (f64.add (local.get $neg) (local.get $neg)))
+        (f64.mul (f64.mul (f64.convert_i32_s (local.get $si)) (local.get $k0)) (f64.const ${Math.tanh(1)}))))
+      (if (f64.gt (local.get $f) (local.get $k1))
+        (then (local.set $v (i32.const 1)))
+        (else
+          (if (f64.lt (local.get $f) (f64.neg (local.get $k1)))
+            (then (local.set $v (i32.const -1)))
+            (else
+              ${EXACT_EXP}
+              (local.set $v ${DECIDE_F})))))`
+
+function memDecide (kind: MemoryKind): string {
+  return kind === 'Poly' ? `${POLY_FIELD}\n      (local.set $v ${DECIDE_F})` : EXP_DECIDE
+}
+
+/** Makes the vector and its sums current for m, and loads the sums into $k0, $k1. */
+function memRefresh (kind: MemoryKind): string {
+  const args = kind === 'Poly' ? '(local.get $m) (local.get $vec) (local.get $table) (local.get $p) (local.get $off) (local.get $sums)' : '(local.get $m) (local.get $vec) (local.get $table) (local.get $p) (local.get $sums)'
+  return `(call $memVector${kind} ${args})
+      (local.set $k0 (f64.load (local.get $sums)))
+      (local.set $k1 (f64.load offset=8 (local.get $sums)))`
+}
+
+/** s_i ← $v, m += (v − s_i)·ξ_i, vector rebuilt. */
+function memChange (kind: MemoryKind): string {
+  return `(i32.store8 (i32.add (local.get $s) (local.get $i)) (local.get $v))
+          (local.set $delta (i32.sub (local.get $v) (local.get $si)))
+          ${flip(32)}
+          ${memRefresh(kind)}`
+}
+
+function denseMemory (kind: MemoryKind): string {
+  const vector = kind === 'Poly'
+    ? `
+  ;; C_μ = D(m_μ − 1) + D(m_μ + 1), and Σ(A − B), ΣC into sums (exact integers: see the eligibility).
+  ${header('memVectorPoly', '$memVectorPoly')}
+    (local $mu i32) (local $ix i32) (local $a f64) (local $b f64) (local $sab f64) (local $sc f64)
+    (block $done
+      (loop $each
+        (br_if $done (i32.ge_u (local.get $mu) (local.get $p)))
+        (local.set $ix (i32.add (local.get $table) (i32.shl (i32.add ${M_AT('(local.get $mu)')} (local.get $off)) (i32.const 3))))
+        (local.set $a (f64.load (i32.sub (local.get $ix) (i32.const 8))))
+        (local.set $b (f64.load offset=8 (local.get $ix)))
+        (f64.store (i32.add (local.get $vec) (i32.shl (local.get $mu) (i32.const 3))) (f64.add (local.get $a) (local.get $b)))
+        (local.set $sab (f64.add (local.get $sab) (f64.sub (local.get $a) (local.get $b))))
+        (local.set $sc (f64.add (local.get $sc) (f64.add (local.get $a) (local.get $b))))
+        (local.set $mu (i32.add (local.get $mu) (i32.const 1)))
+        (br $each)))
+    (f64.store (local.get $sums) (local.get $sab))
+    (f64.store offset=8 (local.get $sums) (local.get $sc)))`
+    : `
+  ;; E_μ = e^{−(M' − m_μ)}, M' = max m + 1, then S = ΣE and the certainty margin τ into sums.
+  ${header('memVectorExp', '$memVectorExp')}
+    (local $mu i32) (local $top i32) (local $mm i32) (local $ev f64) (local $sum f64)
+    (local.set $top (i32.const 0x80000000))
+    (block $done
+      (loop $each
+        (br_if $done (i32.ge_u (local.get $mu) (local.get $p)))
+        (local.set $mm ${M_AT('(local.get $mu)')})
+        (local.set $top (select (local.get $mm) (local.get $top) (i32.gt_s (local.get $mm) (local.get $top))))
+        (local.set $mu (i32.add (local.get $mu) (i32.const 1)))
+        (br $each)))
+    (local.set $top (i32.add (local.get $top) (i32.const 1)))
+    (local.set $mu (i32.const 0))
+    (block $done2
+      (loop $each2
+        (br_if $done2 (i32.ge_u (local.get $mu) (local.get $p)))
+        (local.set $ev (f64.load (i32.add (local.get $table) (i32.shl (i32.sub (local.get $top) ${M_AT('(local.get $mu)')}) (i32.const 3)))))
+        (f64.store (i32.add (local.get $vec) (i32.shl (local.get $mu) (i32.const 3))) (local.get $ev))
+        (local.set $sum (f64.add (local.get $sum) (local.get $ev)))
+        (local.set $mu (i32.add (local.get $mu) (i32.const 1)))
+        (br $each2)))
+    (f64.store (local.get $sums) (local.get $sum))
+    (f64.store offset=8 (local.get $sums) (f64.add
+      (f64.mul (local.get $sum) (f64.mul (f64.convert_i32_u (i32.add (i32.shl (local.get $p) (i32.const 4)) (i32.const 64))) (f64.const 0x1p-53)))
+      (f64.mul (f64.convert_i32_u (local.get $p)) (f64.const 0x1p-1060)))))`
+  const glauber = kind === 'Exp'
+    ? ''
+    : `
+  ;; Asynchronous Glauber sweep (polynomial): s_i ← +1 iff noise[k]·(1 + exp(factor·h_i)) < 1.
+  ${header('memGlauberPoly')}
+    ${MEM_LOCALS}
+    ${memRefresh(kind)}
+    (local.set $k (i32.const 0))
+    (loop $visit
+      (local.set $i (i32.load (i32.add (local.get $order) (i32.shl (local.get $k) (i32.const 2)))))
+      (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+      (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+      ${POLY_FIELD}
+      (local.set $v (select (i32.const 1) (i32.const -1)
+        (f64.lt (f64.mul (f64.load (i32.add (local.get $noise) (i32.shl (local.get $k) (i32.const 3))))
+          (f64.add (f64.const 1) (call $exp (f64.mul (local.get $factor) (local.get $f))))) (f64.const 1))))
+      (if (i32.ne (local.get $v) (local.get $si)) (then ${memChange(kind)}))
+      (br_if $visit (i32.lt_u (local.tee $k (i32.add (local.get $k) (i32.const 1))) (local.get $n)))))
+
+  ;; Synchronous Glauber step (polynomial): next_i from the current state, then s, m ← next.
+  ${header('memGlauberSyncPoly')}
+    ${MEM_LOCALS}
+    ${memRefresh(kind)}
+    (local.set $i (i32.const 0))
+    (loop $visit
+      (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+      (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+      ${POLY_FIELD}
+      (i32.store8 (i32.add (local.get $next) (local.get $i)) (select (i32.const 1) (i32.const -1)
+        (f64.lt (f64.mul (f64.load (i32.add (local.get $noise) (i32.shl (local.get $i) (i32.const 3))))
+          (f64.add (f64.const 1) (call $exp (f64.mul (local.get $factor) (local.get $f))))) (f64.const 1))))
+      (br_if $visit (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))
+    ${memApply()})`
+  return `${vector}
+
+  ;; Zero-temperature asynchronous sweep in the given order; returns 1 if any neuron changed.
+  ${header(`memSweep${kind}`)}
+    ${MEM_LOCALS} (local $changed i32)
+    ${memRefresh(kind)}
+    (local.set $k (i32.const 0))
+    (loop $visit
+      (local.set $i (i32.load (i32.add (local.get $order) (i32.shl (local.get $k) (i32.const 2)))))
+      (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+      (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+      ${memDecide(kind)}
+      (if (i32.ne (local.get $v) (local.get $si))
+        (then
+          ${memChange(kind)}
+          (local.set $changed (i32.const 1))))
+      (br_if $visit (i32.lt_u (local.tee $k (i32.add (local.get $k) (i32.const 1))) (local.get $n))))
+    (local.get $changed))
+
+  ;; Zero-temperature synchronous step (the contract of sync16): 1 fixed point (nothing written),
+  ;; 2 two-cycle (compared when $check), else 0; unless 1, prev ← s(t−1) and s, m ← s(t).
+  ${header(`memSync${kind}`)}
+    ${MEM_LOCALS} (local $same i32)
+    ${memRefresh(kind)}
+    (local.set $same (i32.const 1))
+    (local.set $i (i32.const 0))
+    (loop $visit
+      (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+      (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+      ${memDecide(kind)}
+      (i32.store8 (i32.add (local.get $next) (local.get $i)) (local.get $v))
+      (if (i32.ne (local.get $v) (local.get $si)) (then (local.set $same (i32.const 0))))
+      (br_if $visit (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))
+    (if (local.get $same) (then (return (i32.const 1))))
+    ${TWO_CYCLE_CHECK}
+    ${memApply(true)}
+    (local.get $same))
+${glauber}`
+}
+
+/** s, m ← next, m updated from the changed neurons only; with `keepPrevious`, prev ← s first. */
+function memApply (keepPrevious = false): string {
+  return `(local.set $i (i32.const 0))
+    (loop $apply
+      (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $i))))
+      (local.set $v (i32.load8_s (i32.add (local.get $next) (local.get $i))))
+      ${keepPrevious ? '(i32.store8 (i32.add (local.get $prev) (local.get $i)) (local.get $si))' : ''}
+      (if (i32.ne (local.get $v) (local.get $si))
+        (then
+          (i32.store8 (i32.add (local.get $s) (local.get $i)) (local.get $v))
+          (local.set $delta (i32.sub (local.get $v) (local.get $si)))
+          (local.set $row (i32.add (local.get $xi) (i32.mul (local.get $i) (local.get $pp))))
+          ${flip(32)}))
+      (br_if $apply (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $n))))`
+}
+
+/**
+ * The modern softmax network (models/softmax/memory.ts): ±1 patterns x^μ (int8, pattern-major,
+ * rows of d entries, the JavaScript layout itself) against a float64 state.
+ *
+ * ## Why this shape
+ * The plain overlap x^μ·ξ is a sequential sum over i, one dependent addition per entry. Here
+ * eight patterns run side by side, two per f64x2 lane pair, so eight such sums advance at
+ * once, each lane adding exactly the plain terms in the plain order: the product of a ±1 entry
+ * and a double is that double with its sign flipped or not, an exact operation done here by
+ * XOR with the entry's sign bit (moved into place by two shifts). The accumulation
+ * out = Σ_μ c_μ x^μ runs sixteen entries of out at a time, each adding c_μ·x_i^μ in μ order, as
+ * the plain loop does. Patterns left over from the blocks of eight run one at a time.
+ * Rows are read sixteen bytes at a time past their end (up to 15 bytes of the next row, or of
+ * the slack after the last): in the overlap pass those bytes meet state entries padded with
+ * +0, whose sign flip adds ±0 and changes no sum; in the accumulation they only touch padding
+ * entries of out, which the caller never reads.
+ */
+function softmax (): string {
+  // The sign bit of byte t of each 64-bit lane, alone at the top of the lane: shifting right by
+  // 8t + 7 brings it to bit 0, shifting left by 63 takes it to bit 63 and drops every other bit.
+  const signOf = (v: string, t: number): string => `(i64x2.shl (i64x2.shr_u ${v} (i32.const ${8 * t + 7})) (i32.const 63))`
+  const overlapHalf = (half: number): string => {
+    const lines: string[] = []
+    // Lane 0: pattern 2q at entries i + 8·half …, lane 1: pattern 2q + 1 at the same entries.
+    const halves = half === 0 ? '0 1 2 3 4 5 6 7 16 17 18 19 20 21 22 23' : '8 9 10 11 12 13 14 15 24 25 26 27 28 29 30 31'
+    for (let q = 0; q < 4; q++) {
+      lines.push(`(local.set $w${q} (i8x16.shuffle ${halves} (v128.load (i32.add (local.get $r${2 * q}) (local.get $i))) (v128.load (i32.add (local.get $r${2 * q + 1}) (local.get $i)))))`)
+    }
+    for (let t = 0; t < 8; t++) {
+      lines.push(`(local.set $sv (f64x2.splat (f64.load offset=${8 * (8 * half + t)} (local.get $sp))))`)
+      for (let q = 0; q < 4; q++) lines.push(`(local.set $a${q} (f64x2.add (local.get $a${q}) (v128.xor (local.get $sv) ${signOf(`(local.get $w${q})`, t)})))`)
+    }
+    return lines.join('\n          ')
+  }
+  const rows = [1, 2, 3, 4, 5, 6, 7].map((j) => `(local.set $r${j} (i32.add (local.get $r${j - 1}) (local.get $d)))`).join('\n        ')
+  const stores: string[] = []
+  for (let q = 0; q < 4; q++) {
+    stores.push(`(f64.store offset=${16 * q} (local.get $op) (f64.mul (f64x2.extract_lane 0 (local.get $a${q})) (local.get $scale)))`)
+    stores.push(`(f64.store offset=${16 * q + 8} (local.get $op) (f64.mul (f64x2.extract_lane 1 (local.get $a${q})) (local.get $scale)))`)
+  }
+  // Accumulator k holds entries i + k (lane 0) and i + 8 + k (lane 1), the lanes signOf(·, k) serves.
+  const accumulate = [0, 1, 2, 3, 4, 5, 6, 7].map((k) => `(local.set $a${k} (f64x2.add (local.get $a${k}) (v128.xor (local.get $cv) ${signOf('(local.get $v0)', k)})))`)
+  const loadSums = [0, 1, 2, 3, 4, 5, 6, 7].map((k) => `(local.set $a${k} (f64x2.replace_lane 1 (f64x2.splat (f64.load offset=${8 * k} (local.get $op))) (f64.load offset=${8 * (8 + k)} (local.get $op))))`)
+  const storeSums = [0, 1, 2, 3, 4, 5, 6, 7].map((k) => `(f64.store offset=${8 * k} (local.get $op) (f64x2.extract_lane 0 (local.get $a${k}))) (f64.store offset=${8 * (8 + k)} (local.get $op) (f64x2.extract_lane 1 (local.get $a${k})))`)
+  return `
+  ;; out[μ] = (Σ_i x_i^μ·st[i]) · scale for μ < p, each sum in the plain order (st padded with +0 to a
+  ;; multiple of 16). Eight patterns at a time, two per f64x2: the halves of two rows are paired
+  ;; so that shifts put the sign of each one's entry i into its lane's sign bit.
+  ${header('softmaxOverlaps')}
+    (local $mu i32) (local $i i32) (local $sp i32) (local $op i32) (local $sv v128) (local $dot f64) (local $rr i32)
+    (local $a0 v128) (local $a1 v128) (local $a2 v128) (local $a3 v128)
+    (local $w0 v128) (local $w1 v128) (local $w2 v128) (local $w3 v128)
+    (local $r0 i32) (local $r1 i32) (local $r2 i32) (local $r3 i32) (local $r4 i32) (local $r5 i32) (local $r6 i32) (local $r7 i32)
+    (block $blocksDone
+      (loop $block
+        (br_if $blocksDone (i32.gt_u (i32.add (local.get $mu) (i32.const 8)) (local.get $p)))
+        (local.set $r0 (i32.add (local.get $pat) (i32.mul (local.get $mu) (local.get $d))))
+        ${rows}
+        (local.set $a0 (v128.const i32x4 0 0 0 0))
+        (local.set $a1 (v128.const i32x4 0 0 0 0))
+        (local.set $a2 (v128.const i32x4 0 0 0 0))
+        (local.set $a3 (v128.const i32x4 0 0 0 0))
+        (local.set $i (i32.const 0))
+        (local.set $sp (local.get $st))
+        (loop $chunk
+          ${overlapHalf(0)}
+          ${overlapHalf(1)}
+          (local.set $sp (i32.add (local.get $sp) (i32.const 128)))
+          (br_if $chunk (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 16))) (local.get $d))))
+        (local.set $op (i32.add (local.get $out) (i32.shl (local.get $mu) (i32.const 3))))
+        ${stores.join('\n        ')}
+        (local.set $mu (i32.add (local.get $mu) (i32.const 8)))
+        (br $block)))
+    (block $tailDone
+      (loop $tail
+        (br_if $tailDone (i32.ge_u (local.get $mu) (local.get $p)))
+        (local.set $rr (i32.add (local.get $pat) (i32.mul (local.get $mu) (local.get $d))))
+        (local.set $dot (f64.const 0))
+        (local.set $i (i32.const 0))
+        (loop $entry
+          (local.set $dot (f64.add (local.get $dot) (f64.mul (f64.convert_i32_s (i32.load8_s (i32.add (local.get $rr) (local.get $i)))) (f64.load (i32.add (local.get $st) (i32.shl (local.get $i) (i32.const 3)))))))
+          (br_if $entry (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 1))) (local.get $d))))
+        (f64.store (i32.add (local.get $out) (i32.shl (local.get $mu) (i32.const 3))) (f64.mul (local.get $dot) (local.get $scale)))
+        (local.set $mu (i32.add (local.get $mu) (i32.const 1)))
+        (br $tail))))
+
+  ;; out[i] = Σ_μ coef[μ]·x_i^μ for i < d (rounded up to 16), each starting from +0 and adding in μ
+  ;; order. Blocks of 64 patterns (their rows stay in the first-level cache) run over all the
+  ;; entries before the next block, the sums kept in out in between: each sum still adds in μ order.
+  ${header('softmaxAccumulate')}
+    (local $mu i32) (local $mb i32) (local $me i32) (local $i i32) (local $rp i32) (local $op i32) (local $cv v128)
+    (local $a0 v128) (local $a1 v128) (local $a2 v128) (local $a3 v128) (local $a4 v128) (local $a5 v128) (local $a6 v128) (local $a7 v128) (local $v0 v128)
+    (memory.fill (local.get $out) (i32.const 0) (i32.shl (i32.and (i32.add (local.get $d) (i32.const 15)) (i32.const -16)) (i32.const 3)))
+    (block $blocksDone
+      (loop $block
+        (br_if $blocksDone (i32.ge_u (local.get $mb) (local.get $p)))
+        (local.set $me (select (local.get $p) (i32.add (local.get $mb) (i32.const 64)) (i32.lt_u (i32.sub (local.get $p) (local.get $mb)) (i32.const 64))))
+        (local.set $i (i32.const 0))
+        (loop $chunk
+          (local.set $op (i32.add (local.get $out) (i32.shl (local.get $i) (i32.const 3))))
+          ${loadSums.join('\n          ')}
+          (local.set $rp (i32.add (i32.add (local.get $pat) (i32.mul (local.get $mb) (local.get $d))) (local.get $i)))
+          (local.set $mu (local.get $mb))
+          (loop $pattern
+            (local.set $cv (f64x2.splat (f64.load (i32.add (local.get $coef) (i32.shl (local.get $mu) (i32.const 3))))))
+            (local.set $v0 (v128.load (local.get $rp)))
+            ${accumulate.join('\n            ')}
+            (local.set $rp (i32.add (local.get $rp) (local.get $d)))
+            (br_if $pattern (i32.lt_u (local.tee $mu (i32.add (local.get $mu) (i32.const 1))) (local.get $me))))
+          ${storeSums.join('\n          ')}
+          (br_if $chunk (i32.lt_u (local.tee $i (i32.add (local.get $i) (i32.const 16))) (local.get $d))))
+        (local.set $mb (local.get $me))
+        (br $block))))`
+}
+
+/**
+ * The fixed in-degree network (network/sparse-in-degree.ts): integer couplings in adjacency
+ * lists, exact int32 fields h (the network checks K·max|T| < 2³¹). Rows (inputs, weights) and
+ * out-lists (targets, tw; offsets outStart, int32) hold neurons as uint16 and couplings as
+ * int16 (the network runs the kernel only for N ≤ 65536 and |T| ≤ 32767): 8 bytes an edge in
+ * all, half the plain path's, and half the memory traffic of a field build. A change of s_j by
+ * Δ adds Δ·T_ij to the fields of the neurons j projects to.
+ *
+ * ## Why this shape
+ * The plain path pays a JavaScript call and bounds checks per visit and per edge; here a
+ * whole sweep (or a whole zero-temperature trial, shuffles included) is one call, and the
+ * field build h = T s is a tight gather over the rows. Integer sums are exact in any order, so
+ * every field, and every decision (ties keep s_i), is the plain one.
+ */
+const SPARSE_DECIDE = '(select (i32.const 1) (select (i32.const -1) (local.get $si) (i32.lt_s (local.get $hi) (i32.const 0))) (i32.gt_s (local.get $hi) (i32.const 0)))'
+
+/** s_j changed by $delta: the fields of j's targets follow. Uses $j $e $ee. */
+const SPARSE_SCATTER = `
+          (local.set $e (i32.load (i32.add (local.get $outStart) (i32.shl (local.get $j) (i32.const 2)))))
+          (local.set $ee (i32.load offset=4 (i32.add (local.get $outStart) (i32.shl (local.get $j) (i32.const 2)))))
+          (block $scattered
+            (loop $scatter
+              (br_if $scattered (i32.ge_u (local.get $e) (local.get $ee)))
+              (local.set $ta (i32.add (local.get $h) (i32.shl (i32.load16_u (i32.add (local.get $targets) (i32.shl (local.get $e) (i32.const 1)))) (i32.const 2))))
+              (i32.store (local.get $ta) (i32.add (i32.load (local.get $ta)) (i32.mul (local.get $delta) (i32.load16_s (i32.add (local.get $tw) (i32.shl (local.get $e) (i32.const 1)))))))
+              (local.set $e (i32.add (local.get $e) (i32.const 1)))
+              (br $scatter)))`
+
+const SPARSE_LOCALS = '(local $kk i32) (local $j i32) (local $si i32) (local $v i32) (local $hi i32) (local $delta i32) (local $e i32) (local $ee i32) (local $ta i32)'
+
+/** One zero-temperature asynchronous sweep over $order; sets $changed. */
+const SPARSE_SWEEP = `
+    (local.set $kk (i32.const 0))
+    (block $swept
+      (loop $visit
+        (br_if $swept (i32.ge_u (local.get $kk) (local.get $n)))
+        (local.set $j (i32.load (i32.add (local.get $order) (i32.shl (local.get $kk) (i32.const 2)))))
+        (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $j))))
+        (local.set $hi (i32.load (i32.add (local.get $h) (i32.shl (local.get $j) (i32.const 2)))))
+        (local.set $v ${SPARSE_DECIDE})
+        (if (i32.ne (local.get $v) (local.get $si))
+          (then
+            (i32.store8 (i32.add (local.get $s) (local.get $j)) (local.get $v))
+            (local.set $delta (i32.sub (local.get $v) (local.get $si)))
+            ${SPARSE_SCATTER}
+            (local.set $changed (i32.const 1))))
+        (local.set $kk (i32.add (local.get $kk) (i32.const 1)))
+        (br $visit)))`
+
+/** s ← next with the fields following every change; with `keepPrevious`, prev ← s first. */
+function sparseApply (keepPrevious: boolean): string {
+  return `(local.set $j (i32.const 0))
+    (block $applied
+      (loop $apply
+        (br_if $applied (i32.ge_u (local.get $j) (local.get $n)))
+        (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $j))))
+        (local.set $v (i32.load8_s (i32.add (local.get $next) (local.get $j))))
+        ${keepPrevious ? '(i32.store8 (i32.add (local.get $prev) (local.get $j)) (local.get $si))' : ''}
+        (if (i32.ne (local.get $v) (local.get $si))
+          (then
+            (i32.store8 (i32.add (local.get $s) (local.get $j)) (local.get $v))
+            (local.set $delta (i32.sub (local.get $v) (local.get $si)))
+            ${SPARSE_SCATTER}))
+        (local.set $j (i32.add (local.get $j) (i32.const 1)))
+        (br $apply)))`
+}
+
+function sparse (): string {
+  const glauberUp = (noiseIndex: string): string => `
+        ${onePlusExp('(local.get $hi)')}
+        (local.set $v (select (i32.const 1) (i32.const -1)
+          (f64.lt (f64.mul (f64.load (i32.add (local.get $noise) (i32.shl ${noiseIndex} (i32.const 3)))) (local.get $g)) (f64.const 1))))`
+  return `
+  ;; h_i = Σ_{e in row i} w_e·s[in_e], rows of k edges: gathers from the state (N bytes, in the
+  ;; first-level cache), four edges per step into two sums.
+  ${header('sparseLoad')}
+    (local $i i32) (local $e i32) (local $ee i32) (local $e4 i32) (local $acc i32) (local $acc2 i32) (local $ip i32) (local $wp i32)
+    (block $done
+      (loop $row
+        (br_if $done (i32.ge_u (local.get $i) (local.get $n)))
+        (local.set $acc (i32.const 0))
+        (local.set $acc2 (i32.const 0))
+        (local.set $ee (i32.add (local.get $e) (local.get $k)))
+        (local.set $e4 (i32.sub (local.get $ee) (i32.const 3)))
+        (block $quadsDone
+          (loop $quad
+            (br_if $quadsDone (i32.ge_s (local.get $e) (local.get $e4)))
+            (local.set $ip (i32.add (local.get $inputs) (i32.shl (local.get $e) (i32.const 1))))
+            (local.set $wp (i32.add (local.get $weights) (i32.shl (local.get $e) (i32.const 1))))
+            (local.set $acc (i32.add (local.get $acc) (i32.add
+              (i32.mul (i32.load16_s (local.get $wp)) (i32.load8_s (i32.add (local.get $s) (i32.load16_u (local.get $ip)))))
+              (i32.mul (i32.load16_s offset=2 (local.get $wp)) (i32.load8_s (i32.add (local.get $s) (i32.load16_u offset=2 (local.get $ip))))))))
+            (local.set $acc2 (i32.add (local.get $acc2) (i32.add
+              (i32.mul (i32.load16_s offset=4 (local.get $wp)) (i32.load8_s (i32.add (local.get $s) (i32.load16_u offset=4 (local.get $ip)))))
+              (i32.mul (i32.load16_s offset=6 (local.get $wp)) (i32.load8_s (i32.add (local.get $s) (i32.load16_u offset=6 (local.get $ip))))))))
+            (local.set $e (i32.add (local.get $e) (i32.const 4)))
+            (br $quad)))
+        (block $rowDone
+          (loop $edge
+            (br_if $rowDone (i32.ge_u (local.get $e) (local.get $ee)))
+            (local.set $acc (i32.add (local.get $acc) (i32.mul
+              (i32.load16_s (i32.add (local.get $weights) (i32.shl (local.get $e) (i32.const 1))))
+              (i32.load8_s (i32.add (local.get $s) (i32.load16_u (i32.add (local.get $inputs) (i32.shl (local.get $e) (i32.const 1)))))))))
+            (local.set $e (i32.add (local.get $e) (i32.const 1)))
+            (br $edge)))
+        (i32.store (i32.add (local.get $h) (i32.shl (local.get $i) (i32.const 2))) (i32.add (local.get $acc) (local.get $acc2)))
+        (local.set $i (i32.add (local.get $i) (i32.const 1)))
+        (br $row))))
+
+  ;; One zero-temperature asynchronous sweep in the given order; returns 1 if any neuron changed.
+  ${header('sparseSweep')}
+    ${SPARSE_LOCALS} (local $changed i32)
+    ${SPARSE_SWEEP}
+    (local.get $changed))
+
+  ;; A whole zero-temperature asynchronous trial (the contract of runAsync16): returns 2·sweeps + (1 if the last sweep changed a neuron).
+  ${header('sparseRunAsync')}
+    ${SPARSE_LOCALS} (local $changed i32) (local $sweeps i32) (local $drew i32)
+    (local $s0 i64) (local $s1 i64) (local $s2 i64) (local $s3 i64) (local $t i64) (local $x i64)
+    (local $fi i32) (local $fj i32) (local $fpi i32) (local $fpj i32) (local $ftmp i32)
+    ${XOSHIRO_LOAD}
+    (loop $trial
+      (local.set $sweeps (i32.add (local.get $sweeps) (i32.const 1)))
+      (if (i32.and (local.get $shuffle) (i32.ge_u (local.get $n) (i32.const 2)))
+        (then
+          (local.set $drew (i32.const 1))
+          (local.set $fi (i32.sub (local.get $n) (i32.const 1)))
+          (loop $draw
+            ${XOSHIRO_NEXT}
+            (local.set $t (i64.extend_i32_u (i32.add (local.get $fi) (i32.const 1))))
+            (local.set $fj ${BELOW_T})
+            (local.set $fpi (i32.add (local.get $order) (i32.shl (local.get $fi) (i32.const 2))))
+            (local.set $fpj (i32.add (local.get $order) (i32.shl (local.get $fj) (i32.const 2))))
+            (local.set $ftmp (i32.load (local.get $fpi)))
+            (i32.store (local.get $fpi) (i32.load (local.get $fpj)))
+            (i32.store (local.get $fpj) (local.get $ftmp))
+            (br_if $draw (local.tee $fi (i32.sub (local.get $fi) (i32.const 1)))))))
+      (local.set $changed (i32.const 0))
+      ${SPARSE_SWEEP}
+      (br_if $trial (i32.and (local.get $changed) (i32.lt_u (local.get $sweeps) (local.get $max)))))
+    (i64.store (local.get $state) (local.get $s0))
+    (i64.store offset=8 (local.get $state) (local.get $s1))
+    (i64.store offset=16 (local.get $state) (local.get $s2))
+    (i64.store offset=24 (local.get $state) (local.get $s3))
+    (if (local.get $drew) (then (i64.store offset=32 (local.get $state) (local.get $x))))
+    (i32.add (i32.shl (local.get $sweeps) (i32.const 1)) (local.get $changed)))
+
+  ;; Zero-temperature synchronous step (the contract of sync16); the fields follow the changes.
+  ${header('sparseSync')}
+    ${SPARSE_LOCALS} (local $same i32) (local $i i32)
+    (local.set $same (i32.const 1))
+    (local.set $j (i32.const 0))
+    (block $decided
+      (loop $decide
+        (br_if $decided (i32.ge_u (local.get $j) (local.get $n)))
+        (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $j))))
+        (local.set $hi (i32.load (i32.add (local.get $h) (i32.shl (local.get $j) (i32.const 2)))))
+        (local.set $v ${SPARSE_DECIDE})
+        (i32.store8 (i32.add (local.get $next) (local.get $j)) (local.get $v))
+        (if (i32.ne (local.get $v) (local.get $si)) (then (local.set $same (i32.const 0))))
+        (local.set $j (i32.add (local.get $j) (i32.const 1)))
+        (br $decide)))
+    (if (local.get $same) (then (return (i32.const 1))))
+    ${TWO_CYCLE_CHECK}
+    ${sparseApply(true)}
+    (local.get $same))
+
+  ;; Asynchronous Glauber sweep, noise[k] the uniform of the k-th visit (1 + exp(factor·h) tabulated).
+  ${header('sparseGlauber')}
+    ${SPARSE_LOCALS} ${TABLE_LOCALS}
+    (local.set $kk (i32.const 0))
+    (block $swept
+      (loop $visit
+        (br_if $swept (i32.ge_u (local.get $kk) (local.get $n)))
+        (local.set $j (i32.load (i32.add (local.get $order) (i32.shl (local.get $kk) (i32.const 2)))))
+        (local.set $si (i32.load8_s (i32.add (local.get $s) (local.get $j))))
+        (local.set $hi (i32.load (i32.add (local.get $h) (i32.shl (local.get $j) (i32.const 2)))))
+        ${glauberUp('(local.get $kk)')}
+        (if (i32.ne (local.get $v) (local.get $si))
+          (then
+            (i32.store8 (i32.add (local.get $s) (local.get $j)) (local.get $v))
+            (local.set $delta (i32.sub (local.get $v) (local.get $si)))
+            ${SPARSE_SCATTER}))
+        (local.set $kk (i32.add (local.get $kk) (i32.const 1)))
+        (br $visit))))
+
+  ;; Synchronous Glauber step: next_j from h_j and noise[j], then s ← next with the fields following.
+  ${header('sparseGlauberSync')}
+    ${SPARSE_LOCALS} ${TABLE_LOCALS}
+    (local.set $j (i32.const 0))
+    (block $decided
+      (loop $decide
+        (br_if $decided (i32.ge_u (local.get $j) (local.get $n)))
+        (local.set $hi (i32.load (i32.add (local.get $h) (i32.shl (local.get $j) (i32.const 2)))))
+        ${glauberUp('(local.get $j)')}
+        (i32.store8 (i32.add (local.get $next) (local.get $j)) (local.get $v))
+        (local.set $j (i32.add (local.get $j) (i32.const 1)))
+        (br $decide)))
+    ${sparseApply(false)})`
+}
+
+/** What each module holds, in the order its binary lists the functions. */
+const MODULE_PARTS: Record<KernelModule, () => string[]> = {
+  random: () => [shuffle(), partialShuffle(), unbiasedRows(), uniforms()],
+  overlap: () => [overlapsFunction(16), overlapsFunction(32), transpose(), signBits(), runAsync16(), sumSquares16()],
+  overlapMore: () => [variant(16), variant(32), runGlauber16(), runSync16Bounded(), runSync(32)],
+  dense: () => [dense(), dense16()],
+  memory: () => [overlapsFunction(32), transpose(), denseMemory('Poly'), denseMemory('Exp')],
+  softmax: () => [softmax()],
+  sparse: () => [signBits(), sparse()]
+}
+
+/** Modules that run on the memory of another module's instance (imported as env.memory). */
+const SHARES_MEMORY = new Set<KernelModule>(['overlapMore'])
+
+/** One module's WebAssembly text. */
+export function kernelsWat (module: KernelModule): string {
+  writing = module
+  emitted.clear()
+  const text = `(module
   (import "host" "exp" (func $exp (param f64) (result f64)))
-  (memory (export "memory") 1)
-${variant(16)}
-${variant(32)}
-${transpose()}
-${signBits()}
-${shuffle()}
-${partialShuffle()}
-${unbiasedRows()}
-${uniforms()}
-${runAsync16()}
-${runSync(16)}
-${runSync(32)}
-${dense()}
-${dense16()}
+  (import "host" "sweepDone" (func $sweepDone (param i32)))
+  ${SHARES_MEMORY.has(module) ? '(import "env" "memory" (memory 1))' : '(memory (export "memory") 1)'}
+${MODULE_PARTS[module]().join('\n')}
 )
 `
+  const missing = Object.entries(KERNEL_SIGNATURES).filter(([name, sig]) => (sig.modules as readonly string[]).includes(module) && !emitted.has(name)).map(([name]) => name)
+  if (missing.length > 0) throw new Error(`KERNEL_SIGNATURES lists kernels of module ${module} with no body: ${missing.join(', ')}`)
+  return text
+}
 
-async function main (): Promise<void> {
+/** Assembles every module with wabt: their bytes and the text of kernels.generated.ts that embeds them. */
+export async function assembleKernels (): Promise<{ wasm: Record<KernelModule, Uint8Array>, generated: string }> {
   const wabt = await wabtFactory()
-  const mod = wabt.parseWat('kernels.wat', KERNELS_WAT, { simd: true, bulk_memory: true })
-  mod.validate()
-  const { buffer } = mod.toBinary({})
-  mod.destroy()
-  const base64 = Buffer.from(buffer).toString('base64')
-  const lines: string[] = []
-  for (let k = 0; k < base64.length; k += 120) lines.push(`  '${base64.slice(k, k + 120)}'`)
-  const out = `// Generated by scripts/gen-kernels.ts (npm run kernels:generate). Do not edit by hand.
-// The WebAssembly SIMD128 module of the engine's fast paths; its text source, layout notes
+  const wasm = {} as Record<KernelModule, Uint8Array>
+  const entries: string[] = []
+  for (const module of KERNEL_MODULES) {
+    const mod = wabt.parseWat(`${module}.wat`, kernelsWat(module), { simd: true, bulk_memory: true })
+    try {
+      mod.validate()
+      wasm[module] = Uint8Array.from(mod.toBinary({}).buffer)
+    } finally {
+      mod.destroy()
+    }
+    const bytes = Array.from(wasm[module])
+    const lines: string[] = []
+    for (let k = 0; k < bytes.length; k += 32) lines.push(`    ${bytes.slice(k, k + 32).join(', ')}`)
+    entries.push(`  ${module}: [\n${lines.join(',\n')}\n  ]`)
+  }
+  const generated = `// Generated by scripts/gen-kernels.ts (npm run kernels:generate). Do not edit by hand.
+// The WebAssembly SIMD128 modules of the engine's fast paths; their text source, layout notes
 // and the reasons for each kernel's shape live in the generator.
 
-/** The module's bytes, base64-encoded. */
-export const KERNELS_WASM_BASE64 =
-${lines.join(' +\n')}
+/**
+ * Each module's bytes. Plain number literals, not base64: the parser builds these arrays when
+ * the engine is loaded, where decoding base64 would cost a few milliseconds of JavaScript in
+ * the first run that compiles the module.
+ */
+export const KERNEL_MODULE_BYTES: Readonly<Record<string, readonly number[]>> = {
+${entries.join(',\n')}
+}
 `
-  const target = process.env.KERNEL_OUT ?? fileURLToPath(new URL('../src/engine/kernels/kernels.generated.ts', import.meta.url))
-  writeFileSync(target, out)
-  console.log(`wrote ${target} (${buffer.length} bytes of wasm)`)
+  return { wasm, generated }
+}
+
+/** Where the generated module lives in the repository. */
+export const GENERATED_PATH = fileURLToPath(new URL('../src/engine/kernels/kernels.generated.ts', import.meta.url))
+
+async function main (): Promise<void> {
+  const { wasm, generated } = await assembleKernels()
+  const target = process.env.KERNEL_OUT ?? GENERATED_PATH
+  writeFileSync(target, generated)
+  console.log(`wrote ${target} (${Object.entries(wasm).map(([module, bytes]) => `${module} ${bytes.length}`).join(', ')} bytes of wasm)`)
 }
 
 if (process.argv[1] === fileURLToPath(import.meta.url)) await main()

@@ -1,6 +1,10 @@
 import type { PointParams } from './params.js'
 import { chooseRepresentation, type Representation } from './network/build.js'
 import { OverlapKernel } from './kernels/overlap-kernel.js'
+import { glauberTableBytes } from './kernels/glauber-table.js'
+import { denseMemoryKernelExtraBytes, polynomialKernelFits } from './kernels/dense-memory-kernel.js'
+import { softmaxKernelExtraBytes } from './kernels/softmax-kernel.js'
+import { sparseKernelExtraBytes, sparseKernelFits } from './kernels/sparse-kernel.js'
 
 export interface PointCost {
   /** Peak bytes one runner holds for this point (network, patterns, scratch). */
@@ -41,8 +45,10 @@ export function estimatePointCost (p: PointParams): PointCost {
   const noiseOps = thermal ? GLAUBER_OPS_PER_VISIT : 0
   if (representation === 'overlap-space') {
     return {
-      // Both pattern layouts, the overlaps and the fast path's sign bits (8·⌈N/64⌉ bytes a pattern).
-      bytes: 2 * patternBytes + OverlapKernel.signBitBytes(n, count) + scratchBytes + 4 * count,
+      // Both pattern layouts, the overlaps and the fast path's sign bits (8·⌈N/64⌉ bytes a
+      // pattern) and per-neuron bounds (12 bytes); at T > 0 the table of Glauber's
+      // 1 + exp(factor·h) over the integer fields.
+      bytes: 2 * patternBytes + OverlapKernel.signBitBytes(n, count) + scratchBytes + 4 * count + 12 * n + (thermal ? glauberTableBytes(count * (n + 1)) : 0),
       neuronUpdatesPerTrial,
       buildOpsPerNetwork: n * count,
       opsPerVisit: OVERLAP_VISIT_FIXED_OPS + count / OVERLAP_KERNEL_LANES + noiseOps
@@ -54,7 +60,8 @@ export function estimatePointCost (p: PointParams): PointCost {
   if (p.rule.kind === 'pseudo-inverse') buildOps += n * count * count + count * count * count
   if (p.rule.kind === 'storkey') buildOps *= 2
   return {
-    bytes: denseBuildPeakBytes(p) + patternBytes + scratchBytes,
+    // At T > 0 integer couplings also tabulate Glauber's 1 + exp(factor·h) (counted at its largest).
+    bytes: denseBuildPeakBytes(p) + patternBytes + scratchBytes + (thermal ? glauberTableBytes(Number.MAX_SAFE_INTEGER) : 0),
     neuronUpdatesPerTrial,
     buildOpsPerNetwork: buildOps,
     // A visit reads one field; a change (a fraction of visits) adds a column of N.
@@ -62,22 +69,47 @@ export function estimatePointCost (p: PointParams): PointCost {
   }
 }
 
+/** Below this many bytes a kernel's large array lives in a shared instance as a second copy. */
+const KERNEL_PRIVATE_BYTES = 8 * 1024 * 1024
+const align16 = (x: number): number => (x + 15) & ~15
+/** The copy a shared kernel instance keeps of a small network's large array (counted while it is resident). */
+const sharedCopy = (bytes: number): number => bytes < KERNEL_PRIVATE_BYTES ? bytes : 0
+
+/**
+ * How many times faster the model kernels run a visit (or an update) than the plain loops the
+ * operation counts below describe: the smallest fast ÷ plain ratio measured on D4–D7
+ * (bench/RESULTS.md, rounded down), so estimates stay on the safe side.
+ */
+const MODEL_KERNEL_SPEEDUP = { denseMemory: 4, softmax: 4, inDegree: 2 } as const
+
 /**
  * The representations without a coupling matrix: dense memories and the softmax network
  * hold the patterns twice (O(P) per visit or per state component), the fixed in-degree
- * network four N·K arrays (O(K) per visit at most). Null for the others.
+ * network its N·K lists (O(K) per visit at most). Their WebAssembly kernels add their layouts
+ * (kernels/*-kernel.ts). Null for the others.
  */
 function modelCost (p: PointParams, representation: Representation, baseBytes: number, neuronUpdatesPerTrial: number): PointCost | null {
   const n = p.neurons
   const count = p.patterns
   switch (representation) {
-    case 'dense-memory':
-      return { bytes: baseBytes + n * count + 4 * count + 16 * n, neuronUpdatesPerTrial, buildOpsPerNetwork: 2 * n * count, opsPerVisit: p.rule.kind === 'dense-exponential' ? 2 * count : count }
+    case 'dense-memory': {
+      const kernel = p.rule.kind === 'dense-exponential' || (p.rule.kind === 'dense-polynomial' && polynomialKernelFits(n, count, p.rule.degree))
+      // The neuron-major copy (rows padded to 16 in the kernel), the plain table, the overlaps.
+      const byNeuron = kernel ? n * align16(count) : n * count
+      const kernelBytes = kernel ? denseMemoryKernelExtraBytes(n, count) + sharedCopy(byNeuron) : 0
+      const plainOps = p.rule.kind === 'dense-exponential' ? 2 * count : count
+      return { bytes: baseBytes + byNeuron + 4 * count + 16 * n + kernelBytes, neuronUpdatesPerTrial, buildOpsPerNetwork: 2 * n * count, opsPerVisit: kernel ? plainOps / MODEL_KERNEL_SPEEDUP.denseMemory : plainOps }
+    }
     case 'softmax-continuous':
-      return { bytes: baseBytes + 8 * count + 16 * n, neuronUpdatesPerTrial, buildOpsPerNetwork: n * count, opsPerVisit: 2 * count }
+      return { bytes: baseBytes + 8 * count + 16 * n + softmaxKernelExtraBytes(n, count) + sharedCopy(n * count), neuronUpdatesPerTrial, buildOpsPerNetwork: n * count, opsPerVisit: 2 * count / MODEL_KERNEL_SPEEDUP.softmax }
     case 'sparse-in-degree': {
       const k = p.dilution?.kind === 'fixed-in-degree' ? p.dilution.inDegree : n
-      return { bytes: baseBytes + n * count + 16 * n * k + 12 * n, neuronUpdatesPerTrial, buildOpsPerNetwork: n * k * (count + 8), opsPerVisit: k }
+      // While the network is built, the rule's int32 rows (8·N·K) and the out-lists (8·N·K, or the
+      // kernel's compact rows and out-lists, 8·N·K in all) are both alive. Hebbian couplings are at
+      // most P in magnitude, clipped ones 1.
+      const kernel = sparseKernelFits(n, p.rule.kind === 'clipped' ? 1 : count)
+      const kernelBytes = kernel ? sparseKernelExtraBytes(n, count) + sharedCopy(8 * n * k) : 0
+      return { bytes: baseBytes + n * count + 16 * n * k + 12 * n + kernelBytes, neuronUpdatesPerTrial, buildOpsPerNetwork: n * k * (count + 8), opsPerVisit: kernel ? k / MODEL_KERNEL_SPEEDUP.inDegree : k }
     }
     default:
       return null

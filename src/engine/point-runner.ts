@@ -8,7 +8,6 @@ import { runTrialOn } from './trial.js'
 import { measureStability } from './measures.js'
 import { checkPointParams } from './check.js'
 import { estimatePointCost } from './cost.js'
-import { generatePatterns } from './patterns/generate.js'
 import { SoftmaxMemory } from './models/softmax/memory.js'
 import { createSoftmaxScratch, runSoftmaxTrial, softmaxStability } from './models/softmax/trial.js'
 
@@ -87,14 +86,14 @@ function createSoftmaxRunner (p: PointParams, beta: number, masterSeed: number, 
     if (cached === null || cachedIndex !== index) {
       cached = null
       reclaim()
-      cached = new SoftmaxMemory(generatePatterns(p, openStream(masterSeed, 'network', pointIndex, index)), p.neurons, p.patterns, beta)
+      cached = SoftmaxMemory.draw(p, beta, openStream(masterSeed, 'network', pointIndex, index))
       cachedIndex = index
     }
     return cached
   }
   return {
     representation: 'softmax-continuous',
-    get fastPath () { return cached === null ? null : 'js' },
+    get fastPath () { return cached === null ? null : cached.fastPath },
     algorithm: RNG_ALGORITHM,
     runTrial (trial: number): TrialRecord {
       const mem = memoryFor(Math.floor(trial / p.trialsPerNetwork))

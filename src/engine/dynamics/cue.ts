@@ -2,7 +2,7 @@ import type { Cue } from '../params.js'
 import type { RandomSource } from '../random/source.js'
 import { fillUnbiased } from '../patterns/generate.js'
 import { resetIdentity, type Scratch } from './scratch.js'
-import { nativePartialShuffle } from '../kernels/native-random.js'
+import { nativeMarkChosen } from '../kernels/native-random.js'
 
 /**
  * Writes the initial state of a trial into `scratch.initial`.
@@ -22,10 +22,7 @@ export function writeCue (cue: Cue, patterns: Int8Array, n: number, p: number, t
       const count = Math.round(cue.fraction * n)
       const idx = scratch.indices
       // Random erase fills draw between the choices, so only they need the interleaved loop.
-      if ((cue.kind === 'flip' || cue.fill === 'zero') && nativePartialShuffle(idx, count, rng)) {
-        for (let k = 0; k < count; k++) s[idx[k]!] = cue.kind === 'flip' ? -s[idx[k]!]! : 0
-        return
-      }
+      if ((cue.kind === 'flip' || cue.fill === 'zero') && nativeMarkChosen(s, count, cue.kind === 'erase', rng)) return
       resetIdentity(idx)
       for (let k = 0; k < count; k++) {
         const j = k + rng.below(n - k)

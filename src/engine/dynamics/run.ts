@@ -32,29 +32,42 @@ export interface Observation {
  * the target overlap over those after `burnIn` (`sampled`).
  */
 export function runDynamics (net: Network, dynamics: Dynamics, rng: RandomSource, scratch: Scratch, observe: Observation): DynamicsOutcome {
+  const thermal = dynamics.temperature > 0
+  const order = scratch.order
+  if (dynamics.update !== 'sync') resetIdentity(order)
+  // Without trajectories a zero-temperature trial observes nothing between sweeps, so a fast
+  // path may run it whole in one call.
+  if (!thermal && !observe.recordOverlap && !observe.recordEnergy && net.native !== null) {
+    const run = dynamics.update === 'sync'
+      ? net.native.runSynchronous?.(scratch.previous, dynamics.maxSweeps)
+      : net.native.runZeroTemperature?.(order, dynamics.maxSweeps, dynamics.update === 'async-random', rng)
+    if (run !== undefined && run !== null) return { sweeps: run.sweeps, ending: run.ending, timeAveragedOverlap: Number.NaN, overlapTrajectory: null, energyTrajectory: null }
+  }
   const overlapTrajectory = observe.recordOverlap ? [] as number[] : null
   const energyTrajectory = observe.recordEnergy ? [] as number[] : null
   const record = (): void => {
     overlapTrajectory?.push(observe.targetOverlap())
     energyTrajectory?.push(net.energyPerNeuron())
   }
-  const thermal = dynamics.temperature > 0
   let sampledSum = 0
   let sampledCount = 0
   let ending: Ending = thermal ? 'sampled' : 'max'
   let sweeps = 0
-  const order = scratch.order
-  if (dynamics.update !== 'sync') resetIdentity(order)
-  // Without trajectories a zero-temperature trial observes nothing between sweeps, so a fast
-  // path may run it whole in one call.
-  if (!thermal && overlapTrajectory === null && energyTrajectory === null && net.native !== null) {
-    const run = dynamics.update === 'sync'
-      ? net.native.runSynchronous?.(scratch.previous, dynamics.maxSweeps)
-      : net.native.runZeroTemperature?.(order, dynamics.maxSweeps, dynamics.update === 'async-random', rng)
-    if (run !== undefined && run !== null) return { sweeps: run.sweeps, ending: run.ending, timeAveragedOverlap: Number.NaN, overlapTrajectory: null, energyTrajectory: null }
+  /** What happens between thermal sweeps: record, then sample after the burn-in. */
+  const observeThermal = (sweep: number): void => {
+    sweeps = sweep
+    record()
+    if (sweep > dynamics.burnIn) {
+      sampledSum += observe.targetOverlap()
+      sampledCount++
+    }
   }
+  // A fast path may run a whole asynchronous Glauber trial, stopping after each sweep to observe.
+  const wholeGlauber = thermal && dynamics.update !== 'sync' && net.native?.runGlauber !== undefined &&
+    net.native.runGlauber(order, dynamics.maxSweeps, dynamics.update === 'async-random', glauberFactor(net, dynamics.temperature), rng, observeThermal)
 
-  for (let sweep = 1; sweep <= dynamics.maxSweeps; sweep++) {
+  const firstSweep = wholeGlauber ? dynamics.maxSweeps + 1 : 1
+  for (let sweep = firstSweep; sweep <= dynamics.maxSweeps; sweep++) {
     sweeps = sweep
     let outcome: SyncOutcome
     if (dynamics.update === 'sync') {
@@ -63,15 +76,14 @@ export function runDynamics (net: Network, dynamics: Dynamics, rng: RandomSource
       if (dynamics.update === 'async-random') shuffle(order, rng)
       outcome = thermal ? asyncGlauberSweep(net, order, dynamics.temperature, rng, scratch.fields) : asyncSweep(net, order)
     }
-    record()
     if (thermal) {
-      if (sweep > dynamics.burnIn) {
-        sampledSum += observe.targetOverlap()
-        sampledCount++
+      observeThermal(sweep)
+    } else {
+      record()
+      if (outcome !== 'changed') {
+        ending = outcome
+        break
       }
-    } else if (outcome !== 'changed') {
-      ending = outcome
-      break
     }
   }
   return {
@@ -110,9 +122,14 @@ function asyncSweep (net: Network, order: Int32Array): 'changed' | 'fixed' {
   return changed ? 'changed' : 'fixed'
 }
 
+/** Glauber's factor: s_i ← +1 with probability 1/(1 + exp(factor·field(i))). */
+function glauberFactor (net: Network, temperature: number): number {
+  return -2 * net.fieldScale / temperature
+}
+
 function asyncGlauberSweep (net: Network, order: Int32Array, temperature: number, rng: RandomSource, noise: Float64Array): 'changed' {
   const s = net.state
-  const factor = -2 * net.fieldScale / temperature
+  const factor = glauberFactor(net, temperature)
   if (net.native !== null) {
     // Visit k draws the k-th uniform, and nothing else draws during a sweep, so drawing
     // them all first consumes the stream exactly as the loop below does.
@@ -157,7 +174,7 @@ function syncStep (net: Network, scratch: Scratch, step: number): SyncOutcome {
 function syncGlauberStep (net: Network, temperature: number, rng: RandomSource, scratch: Scratch): 'changed' {
   const n = net.neurons
   const next = scratch.next
-  const factor = -2 * net.fieldScale / temperature
+  const factor = glauberFactor(net, temperature)
   if (net.native !== null) {
     const noise = scratch.fields
     if (!nativeUniforms(noise, n, rng)) for (let i = 0; i < n; i++) noise[i] = rng.uniform()

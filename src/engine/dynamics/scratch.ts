@@ -23,6 +23,10 @@ export function createScratch (neurons: number, patterns: number): Scratch {
   }
 }
 
+/** 0, 1, 2, …, grown as needed: identity orders are copied from it natively instead of filled in a loop. */
+let identity = new Int32Array(0)
+
 export function resetIdentity (a: Int32Array): void {
-  for (let i = 0; i < a.length; i++) a[i] = i
+  if (identity.length < a.length) identity = Int32Array.from({ length: Math.max(a.length, 2 * identity.length) }, (_, i) => i)
+  a.set(identity.subarray(0, a.length))
 }

@@ -1,4 +1,6 @@
-import { EMPTY, unlessMemoryRefused, Workspaces, type Workspace, type WasmMemory } from './wasm.js'
+import { EMPTY, unlessMemoryRefused, Workspaces, type Workspace } from './wasm.js'
+import type { KernelsUsing } from './signatures.js'
+import { GlauberTable } from './glauber-table.js'
 
 /**
  * WebAssembly SIMD128 fast path of the dense network for integer couplings (kernel text:
@@ -17,17 +19,9 @@ import { EMPTY, unlessMemoryRefused, Workspaces, type Workspace, type WasmMemory
  * Memory as in the other kernels: matrices under 1 MiB share an instance and are copied in
  * when another network used it last; larger ones own an instance holding the only copy.
  */
-interface DenseIntExports {
-  memory: WasmMemory
-  dense16Load: (cols: number, bias: number, s: number, s16: number, h: number, n: number, stride: number, rowsAreColumns: number) => void
-  dense16Set: (cols: number, h: number, stride: number, j: number, delta: number) => void
-  dense16Sweep: (cols: number, s: number, h: number, order: number, n: number, stride: number) => number
-  dense16Glauber: (cols: number, s: number, h: number, order: number, noise: number, n: number, stride: number, factor: number) => void
-  dense16Sync: (cols: number, bias: number, s: number, s16: number, h: number, next: number, prev: number, n: number, stride: number, check: number, rowsAreColumns: number) => number
-  dense16GlauberSync: (cols: number, bias: number, s: number, s16: number, h: number, next: number, noise: number, n: number, stride: number, factor: number, rowsAreColumns: number) => void
-}
+type DenseIntExports = KernelsUsing<'dense16Load' | 'dense16Set' | 'dense16Sweep' | 'dense16Glauber' | 'dense16Sync' | 'dense16GlauberSync'>
 
-const workspaces = new Workspaces<DenseIntExports>(1024 * 1024)
+const workspaces = new Workspaces<DenseIntExports>('dense', 1024 * 1024)
 
 /** Moves the shared/private boundary (tests use it to exercise private instances on small networks). */
 export function setDenseIntPrivateBytes (bytes: number): void {
@@ -38,25 +32,29 @@ let nextId = 1
 const align16 = (x: number): number => (x + 15) & ~15
 const INT16_MAX = 32767
 
-/** True when the couplings and bias can run on the int16 kernel with exact int32 fields. */
-export function integerCouplings (couplings: Float64Array, bias: Float64Array, n: number): boolean {
+/**
+ * When the couplings and bias can run on the int16 kernel with exact int32 fields, the bound
+ * |bias| + N·max|J| on every field; null otherwise.
+ */
+export function integerFieldBound (couplings: Float64Array, bias: Float64Array, n: number): number | null {
   let maxJ = 0
   for (let k = 0; k < couplings.length; k++) {
     const x = couplings[k]!
-    if (!Number.isInteger(x)) return false
+    if (!Number.isInteger(x)) return null
     const a = Math.abs(x)
     if (a > maxJ) {
-      if (a > INT16_MAX) return false
+      if (a > INT16_MAX) return null
       maxJ = a
     }
   }
   let maxBias = 0
   for (let i = 0; i < n; i++) {
     const b = bias[i]!
-    if (!Number.isInteger(b)) return false
+    if (!Number.isInteger(b)) return null
     maxBias = Math.max(maxBias, Math.abs(b))
   }
-  return maxBias + n * maxJ < 2 ** 31
+  const bound = maxBias + n * maxJ
+  return bound < 2 ** 31 ? bound : null
 }
 
 export class DenseIntKernel {
@@ -80,6 +78,8 @@ export class DenseIntKernel {
   private readonly orderAt: number
   private readonly noiseAt: number
   private readonly end: number
+  /** Glauber's 1 + exp(factor·h) over the integer fields, after the layout (memory reserved on first use). */
+  private readonly table: GlauberTable
   private buffer: ArrayBuffer | null = null
   private h32: Int32Array = EMPTY.i32
   private s8: Int8Array = EMPTY.i8
@@ -92,14 +92,14 @@ export class DenseIntKernel {
    * serves as its own columns and builds fields by row dot products; otherwise the columns
    * are written transposed. Null without WebAssembly SIMD or memory.
    */
-  static create (couplings: Float64Array, bias: Float64Array, n: number, symmetric: boolean): DenseIntKernel | null {
+  static create (couplings: Float64Array, bias: Float64Array, n: number, symmetric: boolean, fieldBound: number): DenseIntKernel | null {
     const stride = (n + 7) & ~7
     if (2 * n * stride + 32 * stride > 3.5 * 2 ** 30) return null
     const ws = workspaces.for(2 * n * stride)
-    return ws === null ? null : unlessMemoryRefused(() => new DenseIntKernel(ws, couplings, bias, n, stride, symmetric))
+    return ws === null ? null : unlessMemoryRefused(() => new DenseIntKernel(ws, couplings, bias, n, stride, symmetric, fieldBound))
   }
 
-  private constructor (ws: Workspace<DenseIntExports>, couplings: Float64Array, bias: Float64Array, n: number, stride: number, symmetric: boolean) {
+  private constructor (ws: Workspace<DenseIntExports>, couplings: Float64Array, bias: Float64Array, n: number, stride: number, symmetric: boolean, fieldBound: number) {
     this.ws = ws
     this.n = n
     this.stride = stride
@@ -114,10 +114,13 @@ export class DenseIntKernel {
     this.orderAt = align16(this.prevAt + n)
     this.noiseAt = align16(this.orderAt + 4 * n)
     this.end = this.noiseAt + 8 * n
-    ws.reserve(this.end)
+    this.table = new GlauberTable(align16(this.end), fieldBound)
+    // A private memory never grows after this (`columns` is a view into it): the Glauber
+    // table's room is reserved now; a shared one grows on first thermal use.
+    ws.reserve(this.isPrivate ? this.table.at + this.table.bytes : this.end)
     this.bias = new Int32Array(stride)
     this.bias.set(bias)
-    this.columns = this.isPrivate ? new Int16Array(ws.k.memory.buffer, this.colsAt, n * stride) : new Int16Array(n * stride)
+    this.columns = this.isPrivate ? new Int16Array(ws.buffer, this.colsAt, n * stride) : new Int16Array(n * stride)
     const cols = this.columns
     if (symmetric) {
       for (let j = 0; j < n; j++) cols.set(couplings.subarray(j * n, (j + 1) * n), j * stride)
@@ -126,7 +129,7 @@ export class DenseIntKernel {
         for (let j = 0; j < n; j++) cols[j * stride + i] = couplings[i * n + j]!
       }
     }
-    if (this.isPrivate) new Int32Array(ws.k.memory.buffer, this.biasAt, stride).set(this.bias)
+    if (this.isPrivate) new Int32Array(ws.buffer, this.biasAt, stride).set(this.bias)
     ws.residentId = this.isPrivate ? this.id : 0
   }
 
@@ -159,11 +162,12 @@ export class DenseIntKernel {
   }
 
   glauber (state: Int8Array, h: Float64Array, order: Int32Array, noise: Float64Array, factor: number): void {
-    const k = this.enter()
+    const k = this.enterThermal()
+    const half = this.table.prepare(this.ws.buffer, factor)
     this.pass(state, h)
     this.order32.set(order)
     this.noise64.set(noise.subarray(0, this.n))
-    k.dense16Glauber(this.colsAt, this.sAt, this.hAt, this.orderAt, this.noiseAt, this.n, this.stride, factor)
+    k.dense16Glauber(this.colsAt, this.sAt, this.hAt, this.orderAt, this.noiseAt, this.n, this.stride, factor, this.table.at, half)
     this.leave(state, h)
   }
 
@@ -181,17 +185,24 @@ export class DenseIntKernel {
   }
 
   glauberSync (state: Int8Array, h: Float64Array, noise: Float64Array, factor: number): void {
-    const k = this.enter()
+    const k = this.enterThermal()
+    const half = this.table.prepare(this.ws.buffer, factor)
     this.pass(state, h)
     this.noise64.set(noise.subarray(0, this.n))
-    k.dense16GlauberSync(this.colsAt, this.biasAt, this.sAt, this.s16At, this.hAt, this.nextAt, this.noiseAt, this.n, this.stride, factor, this.rowsAreColumns)
+    k.dense16GlauberSync(this.colsAt, this.biasAt, this.sAt, this.s16At, this.hAt, this.nextAt, this.noiseAt, this.n, this.stride, factor, this.rowsAreColumns, this.table.at, half)
     this.leave(state, h)
+  }
+
+  /** Enters with room for the Glauber table. */
+  private enterThermal (): DenseIntExports {
+    this.ws.reserve(this.table.at + this.table.bytes)
+    return this.enter()
   }
 
   private enter (): DenseIntExports {
     const ws = this.ws
     ws.reserve(this.end)
-    const buffer = ws.k.memory.buffer
+    const buffer = ws.buffer
     if (buffer !== this.buffer) {
       this.buffer = buffer
       this.h32 = new Int32Array(buffer, this.hAt, this.stride)
@@ -201,6 +212,7 @@ export class DenseIntKernel {
       this.noise64 = new Float64Array(buffer, this.noiseAt, this.n)
     }
     if (ws.residentId !== this.id) {
+      this.table.invalidate()
       new Int16Array(buffer, this.colsAt, this.columns.length).set(this.columns)
       new Int32Array(buffer, this.biasAt, this.stride).set(this.bias)
       ws.residentId = this.id

@@ -1,4 +1,5 @@
-import { EMPTY, unlessMemoryRefused, Workspaces, type Workspace, type WasmMemory } from './wasm.js'
+import { EMPTY, unlessMemoryRefused, Workspaces, type Workspace } from './wasm.js'
+import type { KernelsUsing } from './signatures.js'
 
 /**
  * WebAssembly SIMD128 fast path of the dense network (kernel text: scripts/gen-kernels.ts).
@@ -17,17 +18,10 @@ import { EMPTY, unlessMemoryRefused, Workspaces, type Workspace, type WasmMemory
  * and copy their columns in when another network used it last; larger ones own an instance
  * whose memory holds the only copy of the columns.
  */
-interface DenseExports {
-  memory: WasmMemory
-  denseLoad: (cols: number, bias: number, s: number, h: number, n: number, rowwise: number) => void
-  denseSweep: (cols: number, s: number, h: number, order: number, n: number) => number
-  denseGlauber: (cols: number, s: number, h: number, order: number, noise: number, n: number, factor: number) => void
-  denseSync: (cols: number, bias: number, s: number, h: number, next: number, prev: number, n: number, check: number, rowwise: number) => number
-  denseGlauberSync: (cols: number, bias: number, s: number, h: number, next: number, noise: number, n: number, factor: number, rowwise: number) => void
-}
+type DenseExports = KernelsUsing<'denseLoad' | 'denseSweep' | 'denseGlauber' | 'denseSync' | 'denseGlauberSync'>
 
 /** Dense networks are built at most a few per second, so all but the smallest get a private memory. */
-const workspaces = new Workspaces<DenseExports>(1024 * 1024)
+const workspaces = new Workspaces<DenseExports>('dense', 1024 * 1024)
 
 /** Moves the shared/private boundary (tests use it to exercise private instances on small networks). */
 export function setDensePrivateBytes (bytes: number): void {
@@ -91,7 +85,7 @@ export class DenseKernel {
     this.noiseAt = align16(this.orderAt + 4 * n)
     this.end = this.noiseAt + 8 * n
     ws.reserve(this.end)
-    const buffer = ws.k.memory.buffer
+    const buffer = ws.buffer
     if (this.isPrivate) {
       new Float64Array(buffer, this.biasAt, n).set(bias)
       this.columns = new Float64Array(buffer, this.colsAt, n * n)
@@ -154,7 +148,7 @@ export class DenseKernel {
     const ws = this.ws
     const n = this.n
     ws.reserve(this.end)
-    const buffer = ws.k.memory.buffer
+    const buffer = ws.buffer
     if (buffer !== this.buffer) {
       this.buffer = buffer
       this.h64 = new Float64Array(buffer, this.hAt, n)

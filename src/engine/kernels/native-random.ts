@@ -1,4 +1,5 @@
-import { areFastPathsEnabled, instantiateKernels, WASM_PAGE, type WasmMemory } from './wasm.js'
+import { areFastPathsEnabled, instantiateKernels, WASM_PAGE } from './wasm.js'
+import type { KernelsUsing } from './signatures.js'
 import { Xoshiro256StarStar } from '../random/xoshiro256.js'
 import type { RandomSource } from '../random/source.js'
 
@@ -12,19 +13,13 @@ import type { RandomSource } from '../random/source.js'
  * loops. For any other RandomSource the functions return false and the caller draws in
  * JavaScript.
  */
-interface RandomExports {
-  memory: WasmMemory
-  shuffle: (order: number, n: number, state: number) => void
-  partialShuffle: (idx: number, n: number, count: number, state: number) => void
-  unbiasedRows: (out: number, n: number, count: number, state: number) => void
-  uniforms: (out: number, count: number, state: number) => void
-}
+type RandomExports = KernelsUsing<'shuffle' | 'partialShuffle' | 'markChosen' | 'unbiasedRows' | 'uniforms'>
 
 let kernel: RandomExports | null | undefined
 
 function randomKernel (): RandomExports | null {
   if (kernel === undefined) {
-    kernel = instantiateKernels<RandomExports>()
+    kernel = instantiateKernels<RandomExports>('random')
   }
   return kernel
 }
@@ -42,15 +37,20 @@ const CHUNK_BYTES = 4 * 1024 * 1024
 let viewsOf: ArrayBuffer | null = null
 let stateView = new Int32Array(0)
 let dataView32 = new Int32Array(0)
+/** The memory's buffer, read again only after this module grows it (reading it is a host call). */
+let buffer: ArrayBuffer | null = null
 
 /** Kernel with at least `bytes` of data room, the generator's state copied in (little-endian words). */
 function enter (s: Int32Array, bytes: number): RandomExports | null {
   const k = randomKernel()
   if (k === null) return null
   const need = DATA_AT + bytes
-  const have = k.memory.buffer.byteLength
-  if (need > have) k.memory.grow(Math.ceil((need - have) / WASM_PAGE))
-  const buffer = k.memory.buffer
+  buffer ??= k.memory.buffer
+  const have = buffer.byteLength
+  if (need > have) {
+    k.memory.grow(Math.ceil((need - have) / WASM_PAGE))
+    buffer = k.memory.buffer
+  }
   if (buffer !== viewsOf) {
     viewsOf = buffer
     stateView = new Int32Array(buffer, STATE_AT, 10)
@@ -110,6 +110,27 @@ export function nativePartialShuffle (idx: Int32Array, count: number, rng: Rando
 }
 
 /**
+ * The cue's flips or erasures in place: chooses `count` distinct entries of `state` exactly as
+ * `nativePartialShuffle` (the plain partial Fisher–Yates loop) would with `rng`, then negates
+ * them, or sets them to 0 when `erase`. False (nothing drawn or changed) if it cannot.
+ */
+export function nativeMarkChosen (state: Int8Array, count: number, erase: boolean, rng: RandomSource): boolean {
+  const s = xoshiroState(rng)
+  if (s === null) return false
+  if (count === 0) return true
+  const n = state.length
+  const sAt = DATA_AT + ((4 * n + 15) & ~15)
+  const k = enter(s, sAt - DATA_AT + n)
+  if (k === null) return false
+  new Int8Array(buffer!, sAt, n).set(state)
+  k.partialShuffle(DATA_AT, n, count, STATE_AT)
+  k.markChosen(DATA_AT, sAt, count, erase ? 1 : 0)
+  state.set(new Int8Array(buffer!, sAt, n))
+  leave(s, rng)
+  return true
+}
+
+/**
  * Writes `count` unbiased ±1 rows of n entries from out[offset] on, exactly as `count` calls
  * of the plain bit-by-bit fill would; false if it cannot.
  */
@@ -124,7 +145,7 @@ export function nativeUnbiasedRows (out: Int8Array, offset: number, n: number, c
   for (let row = 0; row < count; row += rows) {
     const take = Math.min(rows, count - row)
     k.unbiasedRows(DATA_AT, n, take, STATE_AT)
-    out.set(new Int8Array(k.memory.buffer, DATA_AT, n * take), offset + row * n)
+    out.set(new Int8Array(buffer!, DATA_AT, n * take), offset + row * n)
     // The kernel stored the state where the next chunk reads it.
   }
   leave(s, rng)

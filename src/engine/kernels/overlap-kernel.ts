@@ -1,5 +1,7 @@
-import { EMPTY, unlessMemoryRefused, Workspaces, type Workspace, type WasmMemory } from './wasm.js'
+import { EMPTY, unlessMemoryRefused, withSweepObserver, Workspaces, type Workspace } from './wasm.js'
+import type { KernelExports, KernelsUsing } from './signatures.js'
 import { stateFromKernel, stateToKernel, xoshiroState } from './native-random.js'
+import { GlauberTable } from './glauber-table.js'
 import type { RandomSource } from '../random/source.js'
 
 /**
@@ -27,31 +29,15 @@ import type { RandomSource } from '../random/source.js'
  * network would be simpler, but V8 reserves gigabytes of address space per memory and stalls
  * on garbage collection when thousands of networks are built in a row.)
  */
-interface OverlapExports {
-  memory: WasmMemory
-  overlaps16: (xi: number, m: number, s: number, n: number, pp: number) => void
-  overlaps32: (xi: number, m: number, s: number, n: number, pp: number) => void
-  sweep16: (xi: number, m: number, s: number, order: number, n: number, pp: number, self: number) => number
-  sweep32: (xi: number, m: number, s: number, order: number, n: number, pp: number, self: number) => number
-  sync16: (xi: number, m: number, s: number, next: number, prev: number, n: number, pp: number, self: number, check: number) => number
-  sync32: (xi: number, m: number, s: number, next: number, prev: number, n: number, pp: number, self: number, check: number) => number
-  glauber16: (xi: number, m: number, s: number, order: number, noise: number, n: number, pp: number, self: number, factor: number) => void
-  glauber32: (xi: number, m: number, s: number, order: number, noise: number, n: number, pp: number, self: number, factor: number) => void
-  glauberSync16: (xi: number, m: number, s: number, next: number, noise: number, n: number, pp: number, self: number, factor: number) => void
-  glauberSync32: (xi: number, m: number, s: number, next: number, noise: number, n: number, pp: number, self: number, factor: number) => void
-  transpose: (src: number, srcStride: number, cols: number, dst: number, stride: number, rows: number) => void
-  runSync16: (xi: number, m: number, s: number, next: number, prev: number, n: number, pp: number, self: number, max: number) => number
-  runSync32: (xi: number, m: number, s: number, next: number, prev: number, n: number, pp: number, self: number, max: number) => number
-  runAsync16: (xi: number, m: number, s: number, order: number, n: number, pp: number, self: number, state: number, max: number, shuffle: number) => number
-  packRows: (src: number, n: number, rows: number, dst: number, words: number) => void
-  overlapsBits: (bits: number, words: number, s: number, sbits: number, n: number, p: number, pp: number, m: number, wide: number) => number
-}
+type OverlapExports = KernelsUsing<'overlaps16' | 'overlaps32' | 'transpose' | 'packRows' | 'overlapsBits' | 'runAsync16' | 'sumSquares16'>
+/** The other dynamics, in the companion module that runs on the same memory (signatures.ts). */
+type MoreExports = Pick<KernelExports, 'sweep16' | 'sweep32' | 'sync16' | 'sync32' | 'glauber16' | 'glauber32' | 'glauberSync16' | 'glauberSync32' | 'runGlauber16' | 'runSync16' | 'runSync32'>
 
 /**
  * Networks whose neuron-major patterns take at least 8 MiB get a private instance, so the
  * shared workspace never holds more than that beyond the networks themselves.
  */
-const workspaces = new Workspaces<OverlapExports>(8 * 1024 * 1024)
+const workspaces = new Workspaces<OverlapExports>('overlap', 8 * 1024 * 1024)
 
 /** Moves the shared/private boundary (tests use it to exercise private instances on small networks). */
 export function setOverlapPrivateBytes (bytes: number): void {
@@ -76,7 +62,7 @@ export type OverlapKernelName = 'wasm-simd128-overlap-i16' | 'wasm-simd128-overl
  */
 export function overlapKernelName (neurons: number, patterns: number): OverlapKernelName | null {
   if (patterns * (neurons + 1) >= 2 ** 31) return null
-  if (align16(neurons) * align16(patterns) + OverlapKernel.signBitBytes(neurons, patterns) + 16 * neurons + 8 * patterns > 3.5 * 2 ** 30) return null
+  if (align16(neurons) * align16(patterns) + OverlapKernel.signBitBytes(neurons, patterns) + 28 * neurons + 10 * patterns > 3.5 * 2 ** 30) return null
   return neurons <= I16_NEURONS ? 'wasm-simd128-overlap-i16' : 'wasm-simd128-overlap-i32'
 }
 
@@ -104,6 +90,11 @@ export class OverlapKernel {
   private readonly noiseAt: number
   private readonly stageAt: number
   private readonly rngAt: number
+  // Whole synchronous trials: each neuron's last exact field and the bound at that moment, and
+  // the overlaps before a step (see "runSync16Bounded" in the generator).
+  private readonly hbAt: number
+  private readonly gbAt: number
+  private readonly mPrevAt: number
   // Sign bits of the patterns (pattern-major, `words` 64-bit words a row) and of the state:
   // initial overlaps by popcount (see "overlapsBits" in the generator).
   private readonly words: number
@@ -113,6 +104,8 @@ export class OverlapKernel {
   private readonly bits: Uint8Array
   private readonly stageRows: number
   private readonly end: number
+  /** Glauber's 1 + exp(factor·h) over the integer fields, after the layout (memory reserved on first use). */
+  private readonly table: GlauberTable
   private buffer: ArrayBuffer | null = null
   private u8: Uint8Array = EMPTY.u8
   private s8: Int8Array = EMPTY.i8
@@ -123,13 +116,29 @@ export class OverlapKernel {
   private noise64: Float64Array = EMPTY.f64
   private rng32: Int32Array = EMPTY.i32
 
-  /** Null when the host has no WebAssembly SIMD or the size does not suit the kernel. */
-  static create (neurons: number, patterns: number, selfTerm: number): OverlapKernel | null {
+  /**
+   * Null when the host has no WebAssembly SIMD or the size does not suit the kernel. With
+   * `onlyWholeAsync` the network will run whole zero-temperature asynchronous trials only, so
+   * the companion module of the other dynamics is left uncompiled until something needs it;
+   * otherwise it is made ready now, with the network.
+   */
+  static create (neurons: number, patterns: number, selfTerm: number, onlyWholeAsync = false): OverlapKernel | null {
     const name = overlapKernelName(neurons, patterns)
     if (name === null) return null
     const stride = align16(patterns)
     const ws = workspaces.for(align16(neurons) * stride)
-    return ws === null ? null : unlessMemoryRefused(() => new OverlapKernel(ws, name, neurons, patterns, selfTerm))
+    if (ws === null) return null
+    const kernel = unlessMemoryRefused(() => new OverlapKernel(ws, name, neurons, patterns, selfTerm))
+    // int32 overlaps have no whole asynchronous trial: they always need the companion.
+    if (kernel !== null && (!onlyWholeAsync || kernel.wide)) kernel.more()
+    return kernel
+  }
+
+  /** The companion module's exports on this network's workspace. */
+  private more (): MoreExports {
+    const more = this.ws.companion<MoreExports>('overlapMore')
+    if (more === null) throw new Error('the overlapMore kernel module could not be instantiated')
+    return more
   }
 
   private constructor (ws: Workspace<OverlapExports>, name: OverlapKernelName, n: number, p: number, selfTerm: number) {
@@ -150,17 +159,23 @@ export class OverlapKernel {
     this.orderAt = align16(this.prevAt + n)
     this.noiseAt = align16(this.orderAt + 4 * n)
     this.rngAt = align16(this.noiseAt + 8 * n)
+    this.hbAt = align16(this.rngAt + 48)
+    this.gbAt = align16(this.hbAt + 4 * n)
+    this.mPrevAt = align16(this.gbAt + 8 * n)
     this.words = Math.ceil(n / 64)
-    this.bitsAt = align16(this.rngAt + 48)
+    this.bitsAt = align16(this.mPrevAt + 2 * pp)
     this.sbitsAt = this.bitsAt + 8 * this.words * p
     this.stageAt = align16(this.sbitsAt + 8 * this.words)
     // Pattern rows staged for the transposer in chunks of about STAGE_BYTES (multiples of 16
     // rows), so no second pattern-sized buffer stays behind in a private memory.
     this.stageRows = Math.min(pp, Math.max(16, Math.floor(STAGE_BYTES / n / 16) * 16))
     this.end = this.stageAt + this.stageRows * n + 32
+    this.table = new GlauberTable(align16(this.end), p * (n + 1))
     this.isPrivate = ws.isPrivate
-    ws.reserve(this.end)
-    this.xi = this.isPrivate ? new Int8Array(ws.k.memory.buffer, 0, n * pp) : new Int8Array(n * pp)
+    // A private memory never grows after this (`xi` is a view into it): the Glauber table's
+    // room is reserved now; a shared one grows on first thermal use.
+    ws.reserve(this.isPrivate ? this.table.at + this.table.bytes : this.end)
+    this.xi = this.isPrivate ? new Int8Array(ws.buffer, 0, n * pp) : new Int8Array(n * pp)
     this.bits = this.isPrivate ? EMPTY.u8 : new Uint8Array(8 * this.words * p)
   }
 
@@ -204,12 +219,21 @@ export class OverlapKernel {
     this.leave(state, m, false)
   }
 
+  /** Σ_μ m_μ², exactly the plain loop's sum (int16 overlaps), or null (int32 overlaps: the caller sums). */
+  sumSquares (m: Int32Array): number | null {
+    if (this.wide) return null
+    this.enter()
+    this.m16.set(m)
+    return this.k.sumSquares16(this.mAt, this.stride)
+  }
+
   /** One zero-temperature asynchronous sweep in `order`; true if a neuron changed. */
   sweep (state: Int8Array, m: Int32Array, order: Int32Array): boolean {
     this.enter()
     this.pass(state, m)
     this.order32.set(order)
-    const fn = this.wide ? this.k.sweep32 : this.k.sweep16
+    const more = this.more()
+    const fn = this.wide ? more.sweep32 : more.sweep16
     const changed = fn(this.xiAt, this.mAt, this.sAt, this.orderAt, this.n, this.stride, this.self)
     this.leave(state, m, true)
     return changed !== 0
@@ -230,7 +254,7 @@ export class OverlapKernel {
     this.pass(state, m)
     this.order32.set(order)
     if (words !== null) stateToKernel(words, rng, this.rng32)
-    const r = this.k.runAsync16(this.xiAt, this.mAt, this.sAt, this.orderAt, this.n, this.stride, this.self, this.rngAt, maxSweeps, shuffle ? 1 : 0)
+    const r = this.k.runAsync16(this.xiAt, this.mAt, this.sAt, this.orderAt, this.n, this.stride, this.self, this.rngAt, maxSweeps, shuffle ? 1 : 0, this.p, this.hbAt, this.gbAt)
     this.leave(state, m, true)
     order.set(this.order32)
     if (words !== null) stateFromKernel(this.rng32, words, rng)
@@ -245,8 +269,10 @@ export class OverlapKernel {
     this.enter()
     this.pass(state, m)
     this.prev8.set(previous)
-    const fn = this.wide ? this.k.runSync32 : this.k.runSync16
-    const r = fn(this.xiAt, this.mAt, this.sAt, this.nextAt, this.prevAt, this.n, this.stride, this.self, maxSteps)
+    const more = this.more()
+    const r = this.wide
+      ? more.runSync32(this.xiAt, this.mAt, this.sAt, this.nextAt, this.prevAt, this.n, this.stride, this.self, maxSteps)
+      : more.runSync16(this.xiAt, this.mAt, this.sAt, this.nextAt, this.prevAt, this.n, this.stride, this.self, maxSteps, this.hbAt, this.gbAt, this.mPrevAt)
     previous.set(this.prev8)
     this.leave(state, m, true)
     const ending = r & 3
@@ -258,7 +284,8 @@ export class OverlapKernel {
     this.enter()
     this.pass(state, m)
     this.prev8.set(previous)
-    const fn = this.wide ? this.k.sync32 : this.k.sync16
+    const more = this.more()
+    const fn = this.wide ? more.sync32 : more.sync16
     const outcome = fn(this.xiAt, this.mAt, this.sAt, this.nextAt, this.prevAt, this.n, this.stride, this.self, check ? 1 : 0)
     if (outcome !== 1) {
       previous.set(this.prev8)
@@ -269,30 +296,71 @@ export class OverlapKernel {
 
   /** One asynchronous Glauber sweep with noise[k] the uniform of the k-th visit. */
   glauber (state: Int8Array, m: Int32Array, order: Int32Array, noise: Float64Array, factor: number): void {
-    this.enter()
+    const half = this.enterThermal(factor)
     this.pass(state, m)
     this.order32.set(order)
     this.noise64.set(noise.subarray(0, this.n))
-    const fn = this.wide ? this.k.glauber32 : this.k.glauber16
-    fn(this.xiAt, this.mAt, this.sAt, this.orderAt, this.noiseAt, this.n, this.stride, this.self, factor)
+    const more = this.more()
+    const fn = this.wide ? more.glauber32 : more.glauber16
+    fn(this.xiAt, this.mAt, this.sAt, this.orderAt, this.noiseAt, this.n, this.stride, this.self, factor, this.table.at, half)
     this.leave(state, m, true)
   }
 
   /** One synchronous Glauber step with noise[i] the uniform of neuron i. */
   glauberSync (state: Int8Array, m: Int32Array, noise: Float64Array, factor: number): void {
-    this.enter()
+    const half = this.enterThermal(factor)
     this.pass(state, m)
     this.noise64.set(noise.subarray(0, this.n))
-    const fn = this.wide ? this.k.glauberSync32 : this.k.glauberSync16
-    fn(this.xiAt, this.mAt, this.sAt, this.nextAt, this.noiseAt, this.n, this.stride, this.self, factor)
+    const more = this.more()
+    const fn = this.wide ? more.glauberSync32 : more.glauberSync16
+    fn(this.xiAt, this.mAt, this.sAt, this.nextAt, this.noiseAt, this.n, this.stride, this.self, factor, this.table.at, half)
     this.leave(state, m, true)
+  }
+
+  /**
+   * A whole asynchronous Glauber run from the loaded state: `sweeps` sweeps, each after the
+   * reshuffle of `order` (when `shuffle`) and drawing its uniforms, all from `rng` as the plain
+   * loop does. After each sweep, `state` and `m` hold the network's state and `afterSweep(sweep)`
+   * runs. False when this kernel cannot (int32 overlaps, or a random source other than the
+   * engine's xoshiro256**), with nothing drawn or changed.
+   */
+  runGlauber (state: Int8Array, m: Int32Array, order: Int32Array, sweeps: number, shuffle: boolean, factor: number, rng: RandomSource, afterSweep: (sweep: number) => void): boolean {
+    if (this.wide || sweeps < 1) return false
+    const words = xoshiroState(rng)
+    if (words === null) return false
+    const half = this.enterThermal(factor)
+    this.pass(state, m)
+    this.order32.set(order)
+    stateToKernel(words, rng, this.rng32)
+    const more = this.more()
+    withSweepObserver((sweep) => {
+      this.leave(state, m, true)
+      afterSweep(sweep)
+    }, () => more.runGlauber16(this.xiAt, this.mAt, this.sAt, this.orderAt, this.n, this.stride, this.self, this.rngAt, sweeps, shuffle ? 1 : 0, factor, this.table.at, half))
+    order.set(this.order32)
+    stateFromKernel(this.rng32, words, rng)
+    return true
+  }
+
+  /** For tests: a copy of the Glauber table as the last sweep left it (entry k is field k − half; 0 = never needed). */
+  glauberTableSnapshot (): { half: number, values: Float64Array } {
+    const half = this.table.halfWidth
+    const values = half < 0 ? new Float64Array(0) : new Float64Array(this.ws.buffer, this.table.at, 2 * half + 1).slice()
+    return { half, values }
+  }
+
+  /** Enters with room for the Glauber table, ready for `factor`; returns its half-width. */
+  private enterThermal (factor: number): number {
+    this.ws.reserve(this.table.at + this.table.bytes)
+    this.enter()
+    return this.table.prepare(this.ws.buffer, factor)
   }
 
   /** Makes this network's layout current: memory large enough, views fresh, patterns resident. */
   private enter (copyPatterns = true): void {
     const ws = this.ws
     if (!this.isPrivate) ws.reserve(this.end)
-    const buffer = ws.k.memory.buffer
+    const buffer = ws.buffer
     if (buffer !== this.buffer) {
       this.buffer = buffer
       this.u8 = new Uint8Array(buffer)
@@ -305,6 +373,7 @@ export class OverlapKernel {
       this.rng32 = new Int32Array(buffer, this.rngAt, 10)
     }
     if (ws.residentId !== this.id) {
+      this.table.invalidate()
       if (!this.isPrivate && copyPatterns) {
         this.u8.set(new Uint8Array(this.xi.buffer, this.xi.byteOffset, this.xi.length), this.xiAt)
         this.u8.set(this.bits, this.bitsAt)

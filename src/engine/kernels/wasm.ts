@@ -3,7 +3,8 @@
  * TypeScript libraries carry no WebAssembly declarations, plus the switch that lets tests
  * run the plain JavaScript path on purpose.
  */
-import { KERNELS_WASM_BASE64 } from './kernels.generated.js'
+import { KERNEL_MODULE_BYTES } from './kernels.generated.js'
+import type { KernelModule } from './signatures.js'
 
 export interface WasmMemory {
   readonly buffer: ArrayBuffer
@@ -36,46 +37,94 @@ export function wasmApi (): WasmApi | null {
   return (globalThis as { WebAssembly?: WasmApi }).WebAssembly ?? null
 }
 
-function base64ToBytes (text: string): Uint8Array {
-  const binary = atob(text)
-  const out = new Uint8Array(binary.length)
-  for (let k = 0; k < binary.length; k++) out[k] = binary.charCodeAt(k)
-  return out
-}
-
-let compiled: object | null | undefined
+const compiled = new Map<KernelModule, object | null>()
 
 /**
- * The engine's kernel module, compiled once per process on first use; null when the host
- * lacks WebAssembly or a feature the module uses (SIMD128, bulk memory).
+ * One of the engine's kernel modules, compiled once per process on first use (so a process
+ * compiles only the kernels it runs); null when the host lacks WebAssembly or a feature the
+ * module uses (SIMD128, bulk memory).
  */
-function kernelModule (): object | null {
-  if (compiled === undefined) {
+function kernelModule (name: KernelModule): object | null {
+  let mod = compiled.get(name)
+  if (mod === undefined) {
     const api = wasmApi()
-    const bytes = base64ToBytes(KERNELS_WASM_BASE64)
-    compiled = api !== null && api.validate(bytes) ? new api.Module(bytes) : null
+    const bytes = Uint8Array.from(KERNEL_MODULE_BYTES[name]!)
+    mod = api !== null && api.validate(bytes) ? new api.Module(bytes) : null
+    compiled.set(name, mod)
   }
-  return compiled
+  return mod
 }
 
-/** A fresh instance of the kernel module (its own linear memory), or null without WebAssembly SIMD. */
-export function instantiateKernels<T> (): T | null {
+let sweepObserver: ((sweep: number) => void) | null = null
+
+/**
+ * Runs `body` (a call into a kernel that runs several sweeps) with `observer` called after
+ * each of its sweeps: the kernels call the host's sweepDone(sweep), which lands here.
+ */
+export function withSweepObserver<R> (observer: (sweep: number) => void, body: () => R): R {
+  sweepObserver = observer
+  try {
+    return body()
+  } finally {
+    sweepObserver = null
+  }
+}
+
+/** The module's imports: the host's exponential (the plain path's Math.exp) and the sweep hook. */
+const HOST = {
+  host: {
+    exp: Math.exp,
+    sweepDone: (sweep: number): void => { sweepObserver?.(sweep) }
+  }
+}
+
+/**
+ * A fresh instance of a kernel module, or null without WebAssembly SIMD: with its own linear
+ * memory, or on `memory` for a module that imports one (overlapMore).
+ */
+export function instantiateKernels<T> (module: KernelModule, memory?: WasmMemory): T | null {
   const api = wasmApi()
-  const mod = kernelModule()
+  const mod = kernelModule(module)
   if (api === null || mod === null) return null
-  return new api.Instance(mod, { host: { exp: Math.exp } }).exports as unknown as T
+  return new api.Instance(mod, memory === undefined ? HOST : { ...HOST, env: { memory } }).exports as unknown as T
 }
 
 /** A kernel module instance whose linear memory holds one or more networks' data. */
 export class Workspace<T extends { memory: WasmMemory }> {
   /** The network whose data the memory holds now (shared workspaces copy theirs in on entry). */
   residentId = 0
-  constructor (readonly k: T, readonly isPrivate: boolean) {}
+  /**
+   * The memory's current buffer. Reading `memory.buffer` costs a call into the host on every
+   * kernel entry; the memory only grows through `reserve` (no kernel grows it), so the buffer
+   * is read again only then.
+   */
+  #buffer: ArrayBuffer
+  constructor (readonly k: T, readonly isPrivate: boolean) {
+    this.#buffer = k.memory.buffer
+  }
+
+  get buffer (): ArrayBuffer {
+    return this.#buffer
+  }
+
+  #companions = new Map<KernelModule, unknown>()
+
+  /**
+   * An instance of a module that runs on this workspace's memory (overlapMore), made and
+   * compiled on first use and kept; null without WebAssembly SIMD.
+   */
+  companion<U> (module: KernelModule): U | null {
+    if (!this.#companions.has(module)) this.#companions.set(module, instantiateKernels<U>(module, this.k.memory))
+    return this.#companions.get(module) as U | null
+  }
 
   /** Grows the memory to at least `bytes`; throws RangeError when the host refuses. */
   reserve (bytes: number): void {
-    const have = this.k.memory.buffer.byteLength
-    if (bytes > have) this.k.memory.grow(Math.ceil((bytes - have) / WASM_PAGE))
+    const have = this.#buffer.byteLength
+    if (bytes > have) {
+      this.k.memory.grow(Math.ceil((bytes - have) / WASM_PAGE))
+      this.#buffer = this.k.memory.buffer
+    }
   }
 }
 
@@ -91,16 +140,16 @@ export class Workspaces<T extends { memory: WasmMemory }> {
   #shared: Workspace<T> | null | undefined
 
   /** `privateBytes` is public so tests can exercise private instances on small networks. */
-  constructor (public privateBytes: number) {}
+  constructor (private readonly module: KernelModule, public privateBytes: number) {}
 
   /** The workspace for a network whose large array takes `bytes`; null without WebAssembly SIMD. */
   for (bytes: number): Workspace<T> | null {
     if (bytes >= this.privateBytes) {
-      const k = instantiateKernels<T>()
+      const k = instantiateKernels<T>(this.module)
       return k === null ? null : new Workspace(k, true)
     }
     if (this.#shared === undefined) {
-      const k = instantiateKernels<T>()
+      const k = instantiateKernels<T>(this.module)
       this.#shared = k === null ? null : new Workspace(k, false)
     }
     return this.#shared

@@ -50,7 +50,9 @@ export function buildNetwork (p: PointParams, rng: RandomSource): Network {
     return new SparseInDegreeNetwork(patterns, n, count, inDegreeCouplings(patterns, n, count, k, clipped, rng), clipped ? Math.sqrt(count) / k : 1 / k)
   }
   if (rule.kind === 'hebbian' && chooseRepresentation(p) === 'overlap-space') {
-    return new OverlapSpaceNetwork(patterns, n, count, rule.selfCoupling)
+    const { dynamics, measures } = p
+    const onlyWholeAsync = dynamics.temperature === 0 && dynamics.update !== 'sync' && !measures.overlapTrajectory && !measures.energyTrajectory
+    return new OverlapSpaceNetwork(patterns, n, count, rule.selfCoupling, onlyWholeAsync)
   }
   let couplings: Float64Array
   let fieldScale = 1

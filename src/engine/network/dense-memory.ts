@@ -1,4 +1,6 @@
 import type { NativeSweeps, Network } from './network.js'
+import { DenseMemoryKernel } from '../kernels/dense-memory-kernel.js'
+import { areFastPathsEnabled } from '../kernels/wasm.js'
 
 /** The interaction F of a dense associative memory. */
 export type Interaction = { kind: 'polynomial', degree: number } | { kind: 'exponential' }
@@ -27,18 +29,25 @@ export type Interaction = { kind: 'polynomial', degree: number } | { kind: 'expo
  * by N (n = 2: the Hebbian energy minus P·Σσ_i²/(2N²), i.e. without its self-coupling
  * constant); exponential −(1/N) ln Σ_μ e^{m_μ} = −ln(−E)/N, finite at any N. Both are
  * increasing functions of E, so they never increase when E does not.
+ *
+ * Whole sweeps and steps run in a WebAssembly SIMD kernel (`fastPath`, kernels/dense-memory-kernel.ts)
+ * when the host supports it and, for the polynomial, its sums are exact; its decisions are the
+ * ones the per-neuron methods below (the plain path) take.
  */
 export class DenseMemoryNetwork implements Network {
   readonly representation = 'dense-memory' as const
-  readonly fastPath = 'js'
-  readonly native: NativeSweeps | null = null
+  readonly fastPath: string
+  readonly native: NativeSweeps | null
   readonly neurons: number
   readonly patternCount: number
   readonly patterns: Int8Array
   readonly fieldScale: number
   readonly state: Int8Array
   readonly bytes: number
+  /** Neuron-major patterns, byNeuron[i·stride + μ] (stride P, or the kernel's padded stride). */
   private readonly byNeuron: Int8Array
+  private readonly stride: number
+  private readonly kernel: DenseMemoryKernel | null
   private readonly overlaps: Int32Array
   private readonly degree: number
   /** Polynomial: D(r) at index r + N − 1. Exponential: e^{−d} at index d = R − r. */
@@ -58,17 +67,31 @@ export class DenseMemoryNetwork implements Network {
       for (let d = 0; d < this.table.length; d++) this.table[d] = Math.exp(-d)
       this.fieldScale = 1
     }
-    this.byNeuron = new Int8Array(n * patternCount)
-    for (let mu = 0; mu < patternCount; mu++) {
-      for (let i = 0; i < n; i++) this.byNeuron[i * patternCount + mu] = patterns[mu * n + i]!
+    this.kernel = areFastPathsEnabled() ? DenseMemoryKernel.create(n, patternCount, this.degree > 0 ? this.degree : null) : null
+    if (this.kernel !== null) {
+      this.stride = this.kernel.stride
+      this.byNeuron = this.kernel.xi
+      this.kernel.loadPatterns(patterns)
+    } else {
+      this.stride = patternCount
+      this.byNeuron = new Int8Array(n * patternCount)
+      for (let mu = 0; mu < patternCount; mu++) {
+        for (let i = 0; i < n; i++) this.byNeuron[i * patternCount + mu] = patterns[mu * n + i]!
+      }
     }
+    this.fastPath = this.kernel?.name ?? 'js'
     this.overlaps = new Int32Array(patternCount)
     this.state = new Int8Array(n)
-    this.bytes = 2 * patterns.byteLength + 4 * patternCount + this.table.byteLength + n
+    this.bytes = patterns.byteLength + this.byNeuron.byteLength + 4 * patternCount + this.table.byteLength + n
+    this.native = this.kernel === null ? null : this.kernelSweeps(this.kernel)
   }
 
   load (state: Int8Array): void {
     this.state.set(state)
+    if (this.kernel !== null) {
+      this.kernel.overlaps(this.state, this.overlaps)
+      return
+    }
     const n = this.neurons
     for (let mu = 0; mu < this.patternCount; mu++) {
       let sum = 0
@@ -84,7 +107,7 @@ export class DenseMemoryNetwork implements Network {
     const m = this.overlaps
     const table = this.table
     const si = this.state[i]!
-    const base = i * p
+    const base = i * this.stride
     let h = 0
     if (this.degree > 0) {
       const offset = this.neurons - 1
@@ -111,7 +134,7 @@ export class DenseMemoryNetwork implements Network {
     if (delta === 0) return
     this.state[i] = v
     const p = this.patternCount
-    const base = i * p
+    const base = i * this.stride
     for (let mu = 0; mu < p; mu++) this.overlaps[mu] = this.overlaps[mu]! + delta * this.byNeuron[base + mu]!
   }
 
@@ -131,7 +154,37 @@ export class DenseMemoryNetwork implements Network {
   }
 
   rawOverlaps (out: Float64Array): void {
-    for (let mu = 0; mu < this.patternCount; mu++) out[mu] = this.overlaps[mu]!
+    out.set(this.overlaps)
+  }
+
+  readonly rawOverlapWith = (mu: number): number => this.overlaps[mu]!
+
+  private kernelSweeps (kernel: DenseMemoryKernel): NativeSweeps {
+    const state = this.state
+    const m = this.overlaps
+    // The exponential memory runs at zero temperature only (the spec refuses T > 0); should a
+    // caller still ask, its Glauber sweeps take the plain per-neuron loop.
+    const plainGlauber = (order: Int32Array, noise: Float64Array, factor: number): void => {
+      for (let k = 0; k < order.length; k++) {
+        const i = order[k]!
+        const v = noise[k]! * (1 + Math.exp(factor * this.field(i))) < 1 ? 1 : -1
+        if (state[i] !== v) this.set(i, v)
+      }
+    }
+    const plainGlauberStep = (noise: Float64Array, factor: number): void => {
+      const next = new Int8Array(this.neurons)
+      for (let i = 0; i < this.neurons; i++) next[i] = noise[i]! * (1 + Math.exp(factor * this.field(i))) < 1 ? 1 : -1
+      this.load(next)
+    }
+    return {
+      sweepZeroTemperature: (order) => kernel.sweep(state, m, order),
+      stepZeroTemperature: (previous, checkPrevious) => {
+        const outcome = kernel.sync(state, m, previous, checkPrevious)
+        return outcome === 1 ? 'fixed' : outcome === 2 ? 'cycle2' : 'changed'
+      },
+      sweepGlauber: this.degree > 0 ? (order, noise, factor) => kernel.glauber(state, m, order, noise, factor) : plainGlauber,
+      stepGlauber: this.degree > 0 ? (noise, factor) => kernel.glauberSync(state, m, noise, factor) : plainGlauberStep
+    }
   }
 }
 

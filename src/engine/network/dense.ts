@@ -1,6 +1,6 @@
 import type { NativeSweeps, Network } from './network.js'
 import { DenseKernel } from '../kernels/dense-kernel.js'
-import { DenseIntKernel, integerCouplings } from '../kernels/dense-int-kernel.js'
+import { DenseIntKernel, integerFieldBound } from '../kernels/dense-int-kernel.js'
 import { areFastPathsEnabled } from '../kernels/wasm.js'
 
 /**
@@ -61,7 +61,8 @@ export class DenseNetwork implements Network {
     const transposed = !options.symmetric
     let kernel: DenseKernel | DenseIntKernel | null = null
     if (areFastPathsEnabled()) {
-      if (exact && integerCouplings(options.couplings, this.bias, n)) kernel = DenseIntKernel.create(options.couplings, this.bias, n, options.symmetric)
+      const fieldBound = exact ? integerFieldBound(options.couplings, this.bias, n) : null
+      if (fieldBound !== null) kernel = DenseIntKernel.create(options.couplings, this.bias, n, options.symmetric, fieldBound)
       kernel ??= DenseKernel.create(options.couplings, transposed, this.bias, n, exact)
     }
     this.kernel = kernel

@@ -71,6 +71,14 @@ export interface NativeSweeps {
    * t = 1, 2, … as `stepZeroTemperature` with the two-cycle compared from t = 2 on.
    */
   runSynchronous? (previous: Int8Array, maxSteps: number): { sweeps: number, ending: 'fixed' | 'cycle2' | 'max' }
+  /**
+   * Optional: a whole asynchronous Glauber run of `sweeps` sweeps in one call, drawing from
+   * `rng` exactly as dynamics/run.ts does (the reshuffle when `shuffle`, then one uniform per
+   * visit). After each sweep the network holds that sweep's state and `afterSweep(sweep)` runs
+   * (it may read the network, not change it). False when it cannot (for instance another
+   * random source), with nothing drawn or changed.
+   */
+  runGlauber? (order: Int32Array, sweeps: number, shuffle: boolean, factor: number, rng: RandomSource, afterSweep: (sweep: number) => void): boolean
   /** Zero-temperature asynchronous sweep in `order`; true if any neuron changed. */
   sweepZeroTemperature (order: Int32Array): boolean
   /** Zero-temperature synchronous step; `previous` holds s(t−2) and receives s(t−1) unless the step is `fixed`. */

@@ -1,4 +1,5 @@
-import type { NativeSweeps, Network } from './network.js'
+import type { NativeSweeps, Network, SyncOutcome } from './network.js'
+import type { RandomSource } from '../random/source.js'
 import { OverlapKernel } from '../kernels/overlap-kernel.js'
 import { areFastPathsEnabled } from '../kernels/wasm.js'
 
@@ -34,13 +35,17 @@ export class OverlapSpaceNetwork implements Network {
   private readonly selfTerm: number
   private readonly kernel: OverlapKernel | null
 
-  constructor (patterns: Int8Array, neurons: number, patternCount: number, selfCoupling: boolean) {
+  /**
+   * `onlyWholeAsync`: the network will run whole zero-temperature asynchronous trials only (no
+   * trajectories), so the fast path compiles the kernels of other dynamics only if asked.
+   */
+  constructor (patterns: Int8Array, neurons: number, patternCount: number, selfCoupling: boolean, onlyWholeAsync = false) {
     this.neurons = neurons
     this.patternCount = patternCount
     this.patterns = patterns
     this.fieldScale = 1 / neurons
     this.selfTerm = selfCoupling ? 0 : patternCount
-    this.kernel = areFastPathsEnabled() ? OverlapKernel.create(neurons, patternCount, this.selfTerm) : null
+    this.kernel = areFastPathsEnabled() ? OverlapKernel.create(neurons, patternCount, this.selfTerm, onlyWholeAsync) : null
     this.fastPath = this.kernel?.name ?? 'js'
     if (this.kernel !== null) {
       this.stride = this.kernel.stride
@@ -53,7 +58,7 @@ export class OverlapSpaceNetwork implements Network {
     this.overlaps = new Int32Array(patternCount)
     this.state = new Int8Array(neurons)
     this.bytes = patterns.byteLength + this.byNeuron.byteLength + 4 * patternCount + neurons + (this.kernel === null ? 0 : OverlapKernel.signBitBytes(neurons, patternCount))
-    this.native = this.kernel === null ? null : kernelSweeps(this.kernel, this.state, this.overlaps)
+    this.native = this.kernel === null ? null : new KernelSweeps(this.kernel, this.state, this.overlaps)
   }
 
   load (state: Int8Array): void {
@@ -128,8 +133,15 @@ export class OverlapSpaceNetwork implements Network {
 
   energyPerNeuron (): number {
     // Σ_{i≠j} J_ij s_i s_j = (1/N)(Σ_μ m_μ² − P Σ_i s_i²)
-    let sumSq = 0
-    for (let mu = 0; mu < this.patternCount; mu++) sumSq += this.overlaps[mu]! * this.overlaps[mu]!
+    // The kernel sums natively (the same exact integer): a JavaScript loop of P steps costs more
+    // than the rest of a short trial's measures until the JIT has optimised it.
+    let sumSq = this.kernel?.sumSquares(this.overlaps) ?? null
+    if (sumSq === null) {
+      sumSq = 0
+      const m = this.overlaps
+      const p = this.patternCount
+      for (let mu = 0; mu < p; mu++) sumSq += m[mu]! * m[mu]!
+    }
     // Σ_i s_i² is N less the erased (0) entries; indexOf finds them natively, so the common
     // all-±1 state costs no JavaScript loop over the neurons.
     let active = this.neurons
@@ -139,29 +151,49 @@ export class OverlapSpaceNetwork implements Network {
   }
 
   rawOverlaps (out: Float64Array): void {
-    for (let mu = 0; mu < this.patternCount; mu++) out[mu] = this.overlaps[mu]!
+    // A native copy (int32 to double, exact), no JavaScript loop.
+    out.set(this.overlaps)
   }
 
   readonly rawOverlapWith = (mu: number): number => this.overlaps[mu]!
 }
 
-function kernelSweeps (kernel: OverlapKernel, state: Int8Array, overlaps: Int32Array): NativeSweeps {
-  return {
-    runZeroTemperature: (order, maxSweeps, shuffle, rng) => {
-      const run = kernel.runAsync(state, overlaps, order, maxSweeps, shuffle, rng)
-      return run === null ? null : { sweeps: run.sweeps, ending: run.changedLast ? 'max' : 'fixed' }
-    },
-    runSynchronous: (previous, maxSteps) => {
-      const run = kernel.runSync(state, overlaps, previous, maxSteps)
-      return { sweeps: run.steps, ending: run.ending }
-    },
-    sweepZeroTemperature: (order) => kernel.sweep(state, overlaps, order),
-    stepZeroTemperature: (previous, checkPrevious) => {
-      const outcome = kernel.sync(state, overlaps, previous, checkPrevious)
-      return outcome === 1 ? 'fixed' : outcome === 2 ? 'cycle2' : 'changed'
-    },
-    sweepGlauber: (order, noise, factor) => kernel.glauber(state, overlaps, order, noise, factor),
-    stepGlauber: (noise, factor) => kernel.glauberSync(state, overlaps, noise, factor)
+/**
+ * The kernel's whole sweeps and trials on this network's state and overlaps (a class, not a
+ * bundle of closures: W2-style points build a network per trial).
+ */
+class KernelSweeps implements NativeSweeps {
+  constructor (private readonly kernel: OverlapKernel, private readonly state: Int8Array, private readonly overlaps: Int32Array) {}
+
+  runZeroTemperature (order: Int32Array, maxSweeps: number, shuffle: boolean, rng: RandomSource): { sweeps: number, ending: 'fixed' | 'max' } | null {
+    const run = this.kernel.runAsync(this.state, this.overlaps, order, maxSweeps, shuffle, rng)
+    return run === null ? null : { sweeps: run.sweeps, ending: run.changedLast ? 'max' : 'fixed' }
+  }
+
+  runSynchronous (previous: Int8Array, maxSteps: number): { sweeps: number, ending: 'fixed' | 'cycle2' | 'max' } {
+    const run = this.kernel.runSync(this.state, this.overlaps, previous, maxSteps)
+    return { sweeps: run.steps, ending: run.ending }
+  }
+
+  runGlauber (order: Int32Array, sweeps: number, shuffle: boolean, factor: number, rng: RandomSource, afterSweep: (sweep: number) => void): boolean {
+    return this.kernel.runGlauber(this.state, this.overlaps, order, sweeps, shuffle, factor, rng, afterSweep)
+  }
+
+  sweepZeroTemperature (order: Int32Array): boolean {
+    return this.kernel.sweep(this.state, this.overlaps, order)
+  }
+
+  stepZeroTemperature (previous: Int8Array, checkPrevious: boolean): SyncOutcome {
+    const outcome = this.kernel.sync(this.state, this.overlaps, previous, checkPrevious)
+    return outcome === 1 ? 'fixed' : outcome === 2 ? 'cycle2' : 'changed'
+  }
+
+  sweepGlauber (order: Int32Array, noise: Float64Array, factor: number): void {
+    this.kernel.glauber(this.state, this.overlaps, order, noise, factor)
+  }
+
+  stepGlauber (noise: Float64Array, factor: number): void {
+    this.kernel.glauberSync(this.state, this.overlaps, noise, factor)
   }
 }
 

@@ -12,10 +12,12 @@ import { nativeUnbiasedRows } from '../kernels/native-random.js'
  * first (bit 1 → +1); each pattern starts a fresh draw. Biased entries are +1 when a
  * uniform double falls below the activity. Correlated families copy parent μ mod K and
  * redraw each entry with probability 1 − q, so the expected child–parent overlap is q.
+ * Writes into `into` when given (it must hold P·N entries), else into a new array.
  */
-export function generatePatterns (p: PointParams, rng: RandomSource): Int8Array {
+export function generatePatterns (p: PointParams, rng: RandomSource, into?: Int8Array): Int8Array {
   const { neurons: n, patterns: count, family } = p
-  const out = new Int8Array(count * n)
+  // `into` (P·N entries) lets a fast path draw the patterns straight into its own memory.
+  const out = into ?? new Int8Array(count * n)
   switch (family.kind) {
     case 'random':
       if (family.activity === 0.5 && nativeUnbiasedRows(out, 0, n, count, rng)) return out

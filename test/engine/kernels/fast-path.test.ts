@@ -65,6 +65,20 @@ describe('overlap-space fast path is bit-identical to the plain path', () => {
     expectSame(params({ neurons: 1, patterns: 1, cue: { kind: 'random' }, measures: quiet }), 3)
   })
 
+  it('whole trials that skip fields whose sign is settled: few patterns (a flip moves a field by the full bound), many trials', () => {
+    // With P ≤ 3 a flip changes another neuron's field by 2|ξ_i·ξ_j|, often the whole bound 2P,
+    // so any slack in the bound would change a decision somewhere in these trials.
+    const quiet = { overlapTrajectory: false, energyTrajectory: false, stability: false }
+    for (const patterns of [1, 2, 3]) {
+      for (const update of ['async-random', 'sync'] as const) {
+        expectSame(params({ neurons: 120, patterns, cue: { kind: 'random' }, dynamics: { update, maxSweeps: 12 }, measures: quiet }), 12)
+        expectSame(params({ neurons: 97, patterns, cue: { kind: 'erase', fraction: 0.5, fill: 'zero' }, dynamics: { update }, measures: quiet }), 12)
+        // Tiny networks: fields of a few units, so a bound off by any factor meets a real flip of the sign.
+        expectSame(params({ neurons: 12, patterns, cue: { kind: 'random' }, dynamics: { update, maxSweeps: 12 }, measures: quiet, trialsPerNetwork: 1 }), 60)
+      }
+    }
+  })
+
   it('whole synchronous trials in one call (no trajectories): fixed points, 2-cycles, step limit, int32 overlaps', () => {
     const quiet = { overlapTrajectory: false, energyTrajectory: false, stability: false }
     const records = expectSame(params({ patterns: 45, cue: { kind: 'random' }, dynamics: { update: 'sync', maxSweeps: 40 }, measures: quiet }), 8)
@@ -136,7 +150,16 @@ describe('overlap-space fast path is bit-identical to the plain path', () => {
     }
   })
 
-  it('an injected non-xoshiro source shuffles in JavaScript and still matches', () => {
+  it('an injected non-xoshiro source shuffles in JavaScript and still matches (also where the network was built for whole native trials only)', () => {
+    const quiet = params({ measures: { overlapTrajectory: false, energyTrajectory: false, stability: false } })
+    const runQuiet = (fast: boolean): TrialRecord[] => {
+      setFastPathsEnabled(fast)
+      const rng = new SeedrandomSource('rooms', 'alea')
+      const net = buildNetwork(quiet, rng)
+      const scratch = createScratch(quiet.neurons, quiet.patterns)
+      return [0, 1, 2].map((t) => runTrialOn(net, quiet, t, t, rng, scratch))
+    }
+    expect(runQuiet(true)).toStrictEqual(runQuiet(false))
     const p = params()
     const run = (fast: boolean): TrialRecord[] => {
       setFastPathsEnabled(fast)

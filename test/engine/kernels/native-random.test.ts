@@ -1,6 +1,6 @@
 import { afterEach, describe, expect, it } from 'vitest'
 import { Xoshiro256StarStar } from '../../../src/engine/index.js'
-import { nativePartialShuffle, nativeShuffle, nativeUnbiasedRows, nativeUniforms } from '../../../src/engine/kernels/native-random.js'
+import { nativeMarkChosen, nativePartialShuffle, nativeShuffle, nativeUnbiasedRows, nativeUniforms } from '../../../src/engine/kernels/native-random.js'
 import { fillUnbiased } from '../../../src/engine/patterns/generate.js'
 import { setFastPathsEnabled } from '../../../src/engine/kernels/wasm.js'
 
@@ -62,6 +62,33 @@ describe('native xoshiro256** draws continue the JavaScript stream exactly', () 
       }
       expect(Array.from(a.word)).toStrictEqual(Array.from(b.word))
       expect(nextWords(a)).toStrictEqual(nextWords(b))
+    }
+  })
+
+  it('flips or erases the chosen cue bits in place like the plain interleaved loop, leaving the same state', () => {
+    for (const [n, count] of [[1, 0], [1, 1], [10, 10], [1000, 100], [4097, 409], [7, 3]] as const) {
+      for (const erase of [false, true]) {
+        const a = Xoshiro256StarStar.fromSeed(BigInt(5 * n + count))
+        const b = Xoshiro256StarStar.fromSeed(BigInt(5 * n + count))
+        for (let trial = 0; trial < 3; trial++) {
+          const start = Int8Array.from({ length: n }, (_, i) => ((i * 7 + trial) % 3 === 0 ? -1 : 1))
+          const x = start.slice()
+          expect(nativeMarkChosen(x, count, erase, a)).toBe(true)
+          // The plain loop of dynamics/cue.ts.
+          const y = start.slice()
+          const idx = Int32Array.from({ length: n }, (_, i) => i)
+          for (let k = 0; k < count; k++) {
+            const j = k + b.below(n - k)
+            const chosen = idx[j]!
+            idx[j] = idx[k]!
+            idx[k] = chosen
+            y[chosen] = erase ? 0 : -y[chosen]!
+          }
+          expect(x).toStrictEqual(y)
+        }
+        expect(Array.from(a.word)).toStrictEqual(Array.from(b.word))
+        expect(nextWords(a)).toStrictEqual(nextWords(b))
+      }
     }
   })
 

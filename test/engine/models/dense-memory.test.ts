@@ -182,6 +182,7 @@ describe('dense associative memories (Krotov & Hopfield 2016; Demircigil et al. 
     const a = buildNetwork(p, Xoshiro256StarStar.fromSeed(6n))
     const b = buildNetwork(pointParams({ neurons: 30, patterns: 5 }), Xoshiro256StarStar.fromSeed(6n))
     expect(a.patterns).toStrictEqual(b.patterns)
-    expect(a.fastPath).toBe('js')
+    // Its WebAssembly fast path (bit-identical to the plain loops: test/engine/kernels/dense-memory.test.ts).
+    expect(a.fastPath).toBe('wasm-simd128-dense-memory-poly')
   })
 })

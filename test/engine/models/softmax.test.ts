@@ -162,7 +162,7 @@ describe('modern continuous Hopfield network (Ramsauer et al., ICLR 2021)', () =
       if (t === 0) expect(r.stability).toEqual({ unstableFraction: 0, tieFraction: 0, fixedPatternFraction: 1 })
       else expect(r.stability).toBeUndefined()
     }
-    expect(runner.fastPath).toBe('js')
+    expect(runner.fastPath).toBe('wasm-simd128-softmax')
     const soft = createPointRunner({ ...p, rule: { kind: 'modern-softmax', beta: 8 }, measures: quiet }, 4, 0).runTrial(0)
     expect(Math.abs(soft.overlap)).toBeLessThan(0.1)
     expect(soft.endState).toBe('other')

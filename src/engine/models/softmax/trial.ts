@@ -77,7 +77,7 @@ export function runSoftmaxTrial (mem: SoftmaxMemory, p: PointParams, trial: numb
     maxOtherOverlap: maxOtherOverlap(overlaps, mem.patternCount, target),
     sweeps,
     ending,
-    energy: mem.energy(state),
+    energy: mem.energy(state, overlaps),
     endState: classifyEndState(overlaps, mem.patternCount, target, d)
   }
   if (overlapTrajectory !== null) record.overlapTrajectory = overlapTrajectory
