@@ -135,7 +135,7 @@ function makeYScale (plan: FigurePlan, bottom: number, top: number): AxisScale {
 }
 
 function makeXScale (plan: FigurePlan, plot: Rect): AxisScale {
-  const xs = plan.series.flatMap((s) => s.rows.map((row) => row.values[plan.x]!))
+  const xs = plan.series.flatMap((s) => s.rows.map((row) => row.values[plan.x] as number))
   const extent: [number, number] = xs.length === 0 ? [0, 1] : [Math.min(...xs), Math.max(...xs)]
   const domain = xDomain(extent, plan.options.xScale)
   // Fewer ticks until neighbouring labels keep a gap between them.

@@ -93,7 +93,7 @@ export function planTheory (
       if (!denseApplies(key, s.rows, spec, x)) continue
       const form = closedForm(key, x, params)
       if (form === null) continue
-      const xs = s.rows.map((row) => row.values[x]!)
+      const xs = s.rows.map((row) => row.values[x] as number)
       overlays.push({ key, kind: 'curve', label: LABELS[key]!, series: [s.index], segments: sample(form, Math.min(...xs), Math.max(...xs), options.xScale, options.yScale), at: null })
       drawn.add(key)
     }
@@ -189,7 +189,7 @@ function perPointSegments (rows: readonly ResultRow[], key: string, x: VariedPat
       current = []
       continue
     }
-    current.push([row.values[x]!, y])
+    current.push([row.values[x] as number, y])
   }
   if (current.length > 0) segments.push(current)
   return segments
@@ -202,7 +202,7 @@ function criticalLoadLine (rows: readonly ResultRow[], x: VariedPath, p: PointPa
   if (!isNumber(first) || !values.every((v) => v === first)) return null
   const at = x === 'load' ? first : first * p.neurons
   // Lines outside the simulated range say nothing about these data.
-  const xs = rows.map((row) => row.values[x]!)
+  const xs = rows.map((row) => row.values[x] as number)
   if (at < Math.min(...xs) || at > Math.max(...xs)) return null
   const value = formatValue(Number(at.toPrecision(3)))
   return {

@@ -8,6 +8,7 @@
 import { aggregatePoint, ENGINE_TIE_RULE, ENGINE_VERSION, RNG_ALGORITHM, theoryForPoint, type TrialRecord } from '../engine/index.js'
 import { canonicalJson, countPoints, pointAt, sortKeysDeep, specHash, type NormalisedSpec } from '../spec/index.js'
 import type { Provenance, ResultRow, SweepResult } from '../results/types.js'
+import { rowParams } from '../results/row-params.js'
 import type { RuntimeFacts } from '../runtime/facts.js'
 import { assembleSearches } from './analysis/assemble-searches.js'
 import { decodeValue } from './codec.js'
@@ -89,7 +90,7 @@ export function assembleResult (spec: NormalisedSpec, chunkResults: readonly Chu
     return {
       point,
       values,
-      params: { alpha: params.patterns / params.neurons, neurons: params.neurons, patterns: params.patterns },
+      params: rowParams(params),
       summary: aggregatePoint(params, pointTrials),
       theory: sortKeysDeep(theory.values),
       theoryUnavailable: sortKeysDeep(theory.unavailable)
@@ -109,6 +110,7 @@ export function storedTrials (spec: NormalisedSpec, plan: readonly Chunk[], stor
 }
 
 function placeTrials (spec: NormalisedSpec, chunkResults: readonly ChunkResult[]): TrialRecord[][] {
+  if (spec.streams === 'canonical') chunkResults = splitCanonical(spec, chunkResults)
   const points = countPoints(spec)
   const slots: Array<Array<TrialRecord | undefined>> = Array.from({ length: points }, () => new Array<TrialRecord | undefined>(spec.trials))
   const problems: string[] = []
@@ -143,4 +145,13 @@ function placeTrials (spec: NormalisedSpec, chunkResults: readonly ChunkResult[]
   }
   if (problems.length > 0) throw new IncompleteResultError(problems)
   return slots as TrialRecord[][]
+}
+
+/** The canonical chunk holds every point's trials in grid order: as one result per point. */
+function splitCanonical (spec: NormalisedSpec, chunkResults: readonly ChunkResult[]): ChunkResult[] {
+  return chunkResults.flatMap((result) => Array.from({ length: countPoints(spec) }, (_, point) => ({
+    chunk: result.chunk,
+    point,
+    trials: result.trials.slice(point * spec.trials, (point + 1) * spec.trials)
+  })))
 }

@@ -15,7 +15,8 @@ import type { NormalisedSpec } from '../spec/index.js'
 /**
  * Version of the plan format. Version 1: chunks are runs of consecutive trials of one grid
  * point; a threshold search is one chunk per point of the outer grid holding the search's
- * whole trial budget.
+ * whole trial budget; a sweep on the canonical stream is one chunk (point 0, every trial of
+ * every point in grid order).
  */
 export const PLAN_VERSION = 1
 
@@ -42,7 +43,16 @@ export interface SweepPlan {
  * is built twice.
  */
 export function planSweep (spec: NormalisedSpec): SweepPlan {
+  if (spec.streams === 'canonical') return { version: PLAN_VERSION, chunks: [canonicalChunk(spec)] }
   return { version: PLAN_VERSION, chunks: spec.analysis === undefined ? gridChunks(spec) : searchChunks(spec) }
+}
+
+/**
+ * The canonical stream is one sequence of draws through every point and trial in order, so
+ * its sweep cannot be cut: one chunk, counted at point 0, holding points × trials trials.
+ */
+export function canonicalChunk (spec: NormalisedSpec): Chunk {
+  return { index: 0, point: 0, firstTrial: 0, count: countPoints(spec) * spec.trials }
 }
 
 function gridChunks (spec: NormalisedSpec): Chunk[] {
@@ -76,6 +86,13 @@ function searchChunks (spec: NormalisedSpec): Chunk[] {
  */
 export function checkPlan (spec: NormalisedSpec, plan: SweepPlan): void {
   if (plan.version !== PLAN_VERSION) throw new RangeError(`invalid argument. Plan version ${plan.version} is not supported (this code runs version ${PLAN_VERSION}).`)
+  if (spec.streams === 'canonical') {
+    const only = canonicalChunk(spec)
+    if (plan.chunks.length !== 1 || JSON.stringify(plan.chunks[0]) !== JSON.stringify(only)) {
+      throw new RangeError(`invalid argument. A sweep on the canonical stream is the one chunk ${JSON.stringify(only)}.`)
+    }
+    return
+  }
   const points = countPoints(spec)
   const perPoint = spec.analysis === undefined ? spec.trials : searchTrialBudget(spec, spec.analysis)
   const covered = new Float64Array(points)

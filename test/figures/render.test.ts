@@ -119,7 +119,7 @@ describe('error bars', () => {
     }
   })
 
-  it('of the stability measure come from the per-network records', () => {
+  it('of the stability measure come from the spread over networks (in the row, equal to the per-network records)', () => {
     const result = runSweep({ neurons: 60, load: { values: [0.1, 0.2, 0.3] }, measures: { stability: true }, dynamics: { maxSweeps: 1 }, trials: 6, seed: 5 })
     const points = drawnPoints(parseSvg(renderFigure(result, { measure: 'unstableFraction', errorBars: 'sd' })))
     expect(points).toHaveLength(3)
@@ -133,11 +133,15 @@ describe('error bars', () => {
       expect(p.high!).toBeCloseTo(Math.min(1, p.y + sd), 12)
       expect(p.low!).toBeCloseTo(Math.max(0, p.y - sd), 12)
     }
-    // Without per-trial records (a results file without trials) there is no spread to show.
+    // The row holds the spread itself, so a results file without trials draws the same bars.
     const { trials: _dropped, ...withoutTrials } = result
-    const bare = parseSvg(renderFigure(withoutTrials as SweepResult, { measure: 'unstableFraction' }))
-    expect(drawnPoints(bare).every((p) => p.low === null)).toBe(true)
-    expect(noteText(bare)).toContain('No error bars')
+    const bare = drawnPoints(parseSvg(renderFigure(withoutTrials as SweepResult, { measure: 'unstableFraction', errorBars: 'sd' })))
+    expect(bare.map((p) => [p.low, p.high])).toEqual(points.map((p) => [p.low, p.high]))
+    // Rows of results made before the spread was kept fall back to the records, and without them show none.
+    const oldRows = { ...withoutTrials, rows: result.rows.map((row) => ({ ...row, summary: { ...row.summary, stability: { ...row.summary.stability!, sd: undefined, se: undefined } } })) }
+    const old = parseSvg(renderFigure(oldRows as unknown as SweepResult, { measure: 'unstableFraction' }))
+    expect(drawnPoints(old).every((p) => p.low === null)).toBe(true)
+    expect(noteText(old)).toContain('No error bars')
   })
 })
 

@@ -4,8 +4,9 @@ import { z } from 'zod'
 import type { FastifyReply } from 'fastify'
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod'
 import { ServiceError } from '../../errors.js'
-import { resultToCsv, resultToJson } from '../../results/index.js'
+import { RESULT_SERIES, resultToCsv, resultToJson, TRAJECTORY_PADDING, trajectoryCsv, trajectoryJson, trajectoryUnavailable, type SweepResult } from '../../results/index.js'
 import { negotiate } from '../negotiate.js'
+import { fieldIssue, listedIssues } from '../problem-reply.js'
 import { ifNoneMatchHits, sweepPath } from '../presenters.js'
 import { problemResponses } from '../schemas/problem.js'
 import { sweepResultSchema } from '../schemas/result.js'
@@ -24,7 +25,8 @@ type Format = keyof typeof MEDIA
 const resultsQuery = z.object({
   format: z.enum(['json', 'csv']).optional().describe('Overrides the Accept header.'),
   trials: z.enum(['true', 'false']).optional().describe('true: one record per trial (JSON: a `trials` member; CSV: one row per trial). Default: false (one row per grid point).'),
-  timing: z.enum(['true', 'false']).optional().describe('JSON only. true: include the run timing (wallSeconds, cpuSeconds, workers) in the provenance. Default false, so the bytes depend on the spec and the code only.')
+  timing: z.enum(['true', 'false']).optional().describe('JSON only. true: include the run timing (wallSeconds, cpuSeconds, workers) in the provenance. Default false, so the bytes depend on the spec and the code only.'),
+  series: z.enum(RESULT_SERIES).optional().describe(`Another series instead of the rows. trajectory: the mean overlap (and energy) trajectory of every grid point with its spread, as long-format CSV (one row per point and sweep: point, the varied parameters, neurons, patterns, alpha, sweep, running, overlap.mean|sd|se, energy.mean|sd|se) or JSON ({ specHash, series, padding, points: [{ point, values, params, overlap, energy }] }); needs measures.overlapTrajectory or energyTrajectory in the spec (else 400 naming \`series\`); not with trials=true. ${TRAJECTORY_PADDING}`)
 })
 
 interface Rendered { body: Buffer, etag: string }
@@ -60,6 +62,17 @@ class RenderedCache {
 /** Ready-made bytes skip the response serializer (and its typing): they are the representation. */
 function sendBytes (reply: FastifyReply, body: Buffer): FastifyReply {
   return reply.send(body)
+}
+
+function seriesProblem (message: string): ServiceError {
+  return new ServiceError('MEMSWEEP_MALFORMED_REQUEST', { reason: `invalid query parameter series: ${message}` }, { extensions: listedIssues([{ ...fieldIssue(['series'], message), path: 'querystring.series' }]) })
+}
+
+/** The trajectory series of a result, or a 400 naming `series` when the sweep has none. */
+function renderTrajectory (result: SweepResult, format: Format): string {
+  const missing = trajectoryUnavailable(result.spec)
+  if (missing !== null) throw seriesProblem(missing)
+  return format === 'csv' ? trajectoryCsv(result) : trajectoryJson(result)
 }
 
 export const resultRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx) => {
@@ -113,13 +126,15 @@ export const resultRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
       throw new ServiceError('MEMSWEEP_RESULTS_UNAVAILABLE', { id, status: record.status }, { extensions: { sweepId: id } })
     }
     const timing = request.query.timing === 'true'
-    const key = `${id}\u0000${format}\u0000${perTrial ? 1 : 0}\u0000${timing ? 1 : 0}`
+    const series = request.query.series ?? null
+    if (series !== null && perTrial) throw seriesProblem('a series replaces the rows, so it cannot be combined with trials=true')
+    const key = `${id}\u0000${format}\u0000${perTrial ? 1 : 0}\u0000${timing ? 1 : 0}\u0000${series ?? ''}`
     let rendered = cache.get(key)
     if (rendered === undefined) {
       let result = await ctx.queue.results(id)
       if (result === null) throw new Error(`sweep ${id} succeeded but the backend has no result for it`)
       if (perTrial) result = { ...result, trials: await ctx.queue.trials(id) ?? [] }
-      const text = format === 'csv' ? resultToCsv(result, { perTrial }) : resultToJson(result, { perTrial, timing })
+      const text = series !== null ? renderTrajectory(result, format) : format === 'csv' ? resultToCsv(result, { perTrial }) : resultToJson(result, { perTrial, timing })
       const body = Buffer.from(text, 'utf8')
       rendered = { body, etag: `"${createHash('sha256').update(body).digest('base64url')}"` }
       cache.set(key, rendered)
@@ -130,7 +145,7 @@ export const resultRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
       .header('cache-control', 'private, max-age=86400, immutable')
     if (ifNoneMatchHits(request.headers['if-none-match'], rendered.etag)) return reply.code(304).send()
     if (format === 'csv') {
-      const name = `memsweep-${id}${perTrial ? '-trials' : ''}.csv`
+      const name = `memsweep-${id}${perTrial ? '-trials' : ''}${series !== null ? `-${series}` : ''}.csv`
       reply.header('content-disposition', `attachment; filename="${name}"`)
       return sendBytes(reply.type('text/csv; charset=utf-8; header=present'), rendered.body)
     }
