@@ -9,7 +9,7 @@ import { negotiate } from '../negotiate.js'
 import { fieldIssue, listedIssues } from '../problem-reply.js'
 import { ifNoneMatchHits, sweepPath } from '../presenters.js'
 import { problemResponses } from '../schemas/problem.js'
-import { sweepResultSchema } from '../schemas/result.js'
+import { sweepResultSchema, trajectorySeriesSchema } from '../schemas/result.js'
 import { sweepIdSchema } from '../schemas/sweep.js'
 import { visibleSweep, type RouteContext } from './context.js'
 
@@ -82,7 +82,7 @@ export const resultRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
     schema: {
       operationId: 'getSweepResults',
       summary: 'Results of a succeeded sweep (JSON or CSV)',
-      description: 'JSON by default; CSV with `Accept: text/csv` or `?format=csv`. One row per grid point with the varied parameters, aggregated measures with uncertainties and the theory values that apply; `?trials=true` for per-trial rows. An analysis (threshold search) gives `searches` (and `scaling` when asked for) in JSON; its CSV has one row per search, or with `?trials=true` one row per evaluated step (searches keep per-step summaries, not per-trial records; scaling fits are JSON-only). A strong ETag (sha256 of the bytes) supports If-None-Match → 304. 409 while the sweep has not succeeded; 422 (limit maxTrialRows) for per-trial rows of sweeps over a million trials.',
+      description: 'JSON by default; CSV with `Accept: text/csv` or `?format=csv`. One row per grid point with the varied parameters, aggregated measures with uncertainties and the theory values that apply; `?trials=true` for per-trial rows; `?series=trajectory` for the mean trajectories per point (long-format CSV, or JSON). An analysis (threshold search) gives `searches` (and `scaling` when asked for) in JSON; its CSV has one row per search, or with `?trials=true` one row per evaluated step (searches keep per-step summaries, not per-trial records; scaling fits are JSON-only). A strong ETag (sha256 of the bytes) supports If-None-Match → 304. 409 while the sweep has not succeeded; 422 (limit maxTrialRows) for per-trial rows of sweeps over a million trials.',
       tags: ['sweeps'],
       params: z.object({ id: sweepIdSchema }),
       querystring: resultsQuery,
@@ -90,7 +90,7 @@ export const resultRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
         200: {
           description: 'The results.',
           content: {
-            'application/json': { schema: sweepResultSchema },
+            'application/json': { schema: z.union([sweepResultSchema, trajectorySeriesSchema]).describe('The result (SweepResult), or with ?series=trajectory the trajectory series (TrajectorySeries).') },
             'text/csv': { schema: z.string().describe('RFC 4180 CSV with a header row; CRLF line ends.') }
           }
         },

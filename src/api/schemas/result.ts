@@ -151,6 +151,20 @@ export const provenanceSchema = z.looseObject({
 
 const { searchRow: searchRowSchema, scalingRow: scalingRowSchema } = analysisResultSchemas(pointSummarySchema)
 
+/** `?series=trajectory` as JSON: the rows' mean trajectories, one entry per grid point. */
+export const trajectorySeriesSchema = z.object({
+  specHash: z.string(),
+  series: z.literal('trajectory'),
+  padding: z.string().describe('How a trial that stopped early is extended, in words.'),
+  points: z.array(z.object({
+    point: z.number().int(),
+    values: axisValuesSchema,
+    params: resultRowSchema.shape.params,
+    overlap: trajectorySummary.nullable().describe('The mean target overlap after each sweep (sweep 0: the cue); null when not recorded.'),
+    energy: trajectorySummary.nullable().describe('The mean energy after each sweep, from sweep 1; null when not recorded.')
+  })).describe('One entry per grid point, in grid order.')
+}).meta({ id: 'TrajectorySeries' })
+
 export const sweepResultSchema = z.object({
   specHash: z.string(),
   spec: z.record(z.string(), z.unknown()).describe('The normalised spec the result belongs to.'),
