@@ -266,3 +266,36 @@ describe('the document', () => {
     expect(doc.documentElement!.getAttribute('viewBox')).toBe('0 0 900 500')
   })
 })
+
+describe('categorical axes', () => {
+  it('split series by the rule and by the self-coupling, labelled in words', () => {
+    const result = runSweep({
+      neurons: 60,
+      load: { values: [0.05, 0.1, 0.15] },
+      rule: { values: [{ kind: 'hebbian' }, { kind: 'storkey' }, { kind: 'pseudo-inverse', selfCoupling: true }] },
+      trials: 4,
+      seed: 9
+    })
+    const doc = parseSvg(renderFigure(result, { measure: 'success', theory: false }))
+    const series = byClass(doc, 'series', 'g')
+    expect(series.map((s) => s.getAttribute('data-label'))).toEqual(['Hebbian rule', 'Storkey rule', 'pseudo-inverse rule (J_ii kept)'])
+    for (const [i, s] of series.entries()) {
+      const rows = result.rows.filter((row) => row.values.rule === ['hebbian', 'storkey', 'pseudo-inverse(selfCoupling=true)'][i])
+      expect(drawnPoints(doc).filter((p) => p.series === i).map((p) => p.point)).toEqual(rows.map((row) => row.point))
+      expect(s.getAttribute('data-label')).not.toBe('Simulation')
+    }
+    const coupling = runSweep({ neurons: 60, load: { values: [0.05, 0.1] }, rule: { kind: 'hebbian', selfCoupling: { values: [false, true] } }, trials: 4, seed: 9 })
+    const labels = byClass(parseSvg(renderFigure(coupling, { theory: false, series: 'rule.selfCoupling' })), 'series', 'g').map((s) => s.getAttribute('data-label'))
+    expect(labels).toEqual(['J_ii = 0', 'J_ii kept'])
+  })
+
+  it('draw the overlaps between stored patterns as a measure, when the sweep measured them', () => {
+    const result = runSweep({ neurons: 100, patterns: { values: [4, 8, 16] }, measures: { patternOverlaps: true }, trials: 6, seed: 10 })
+    const points = drawnPoints(parseSvg(renderFigure(result, { measure: 'patternOverlapMaxAbs', errorBars: 'se' })))
+    expect(points.map((p) => p.y)).toEqual(result.rows.map((row) => row.summary.patternOverlaps!.maxAbs.mean))
+    expect(points.map((p) => p.n)).toEqual([6, 6, 6])
+    expect(points[0]!.high! - points[0]!.y).toBeCloseTo(result.rows[0]!.summary.patternOverlaps!.maxAbs.se, 12)
+    const plain = runSweep({ neurons: 100, patterns: { values: [4, 8] }, trials: 2, seed: 10 })
+    expect(() => renderFigure(plain, { measure: 'patternOverlapMeanAbs' })).toThrow(/measures\.patternOverlaps/)
+  })
+})
