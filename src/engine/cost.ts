@@ -29,6 +29,13 @@ const GLAUBER_OPS_PER_VISIT = 20
  * oversized work can be refused before anything is allocated.
  */
 export function estimatePointCost (p: PointParams): PointCost {
+  const cost = representationCost(p)
+  // The stored patterns' overlaps are measured once per network: N·P(P − 1)/2 multiply-adds.
+  if (p.measures.patternOverlaps !== true) return cost
+  return { ...cost, buildOpsPerNetwork: cost.buildOpsPerNetwork + p.neurons * p.patterns * (p.patterns - 1) / 2 }
+}
+
+function representationCost (p: PointParams): PointCost {
   const n = p.neurons
   const count = p.patterns
   const representation = chooseRepresentation(p)

@@ -45,7 +45,7 @@ export const NOISE_ESTIMATE_MIN_PATTERNS = 10
 /** Standard deviations of finite-N noise allowed around a mixture value. */
 export const MIXTURE_NOISE_SDS = 4
 
-/** Allowance for the shift of mixture overlaps with load and for time averaging (our choice; AGS 1987 show shifts of a few hundredths below α ≈ 0.03). */
+/** Allowance for the shift of mixture overlaps at a finite load and for time averaging (our choice, not a published value). */
 export const MIXTURE_LOAD_ALLOWANCE = 0.05
 
 // MAIN //

@@ -1,3 +1,4 @@
+import { readFileSync } from 'node:fs'
 import { describe, it, expect } from 'vitest'
 import { aggregatePoint, createPointRunner, END_STATES, EndStateClassifier, macroscopicLevel, mixtureOverlap, mixtureOverlapAt, type PointParams, type TrialRecord } from '../../src/engine/index.js'
 import { mean, pointParams, sampleSd } from '../helpers/point.js'
@@ -24,9 +25,13 @@ function noise (count: number, sd: number, seed: number): number[] {
 }
 
 describe('the end-state classes', () => {
-  it('are one list of camelCase names', () => {
+  it('are one list of camelCase names, each a row of docs/end-states.md', () => {
     expect(END_STATES).toEqual(['target', 'reversed', 'otherPattern', 'symmetricMixture', 'partialTarget', 'spurious', 'spinGlass'])
     for (const name of END_STATES) expect(name).toMatch(/^[a-z]+([A-Z][a-z]+)*$/)
+    const doc = readFileSync(new URL('../../docs/end-states.md', import.meta.url), 'utf8')
+    const table = doc.slice(doc.indexOf('## The classes'), doc.indexOf('### Pattern level'))
+    const rows = [...table.matchAll(/^\| `([A-Za-z]+)` \| /gm)].map((m) => m[1])
+    expect(rows).toEqual([...END_STATES])
   })
 
   it('put the target exactly where success starts: m_t ≥ q, q the pattern level', () => {

@@ -1,6 +1,6 @@
 import { describe, it, expect } from 'vitest'
 import {
-  aggregatePoint, createPointRunner, keyedParams, measurePatternOverlaps, patternOverlapExpectation, Xoshiro256StarStar,
+  aggregatePoint, createPointRunner, estimatePointCost, keyedParams, measurePatternOverlaps, patternOverlapExpectation, Xoshiro256StarStar,
   type PointParams, type TrialRecord
 } from '../../src/engine/index.js'
 import { firstParallelStepExact } from '../../src/engine/theory/index.js'
@@ -192,5 +192,15 @@ describe('one shared stream (canonical)', () => {
     const again = createPointRunner(p, 1, 0, { stream: Xoshiro256StarStar.fromSeed(9n) })
     const first = createPointRunner(p, 1, 0, { stream: Xoshiro256StarStar.fromSeed(9n) })
     expect([0, 1, 2].map((t) => again.runTrial(t))).toEqual([0, 1, 2].map((t) => first.runTrial(t)))
+  })
+})
+
+describe('the cost model', () => {
+  it('counts the stored-pattern overlaps once per network: N·P(P − 1)/2 operations', () => {
+    const p = pointParams({ neurons: 1000, patterns: 100 })
+    const plain = estimatePointCost(p)
+    const measured = estimatePointCost({ ...p, measures: { ...p.measures, patternOverlaps: true } })
+    expect(measured.buildOpsPerNetwork - plain.buildOpsPerNetwork).toBe(1000 * 100 * 99 / 2)
+    expect(measured.bytes).toBe(plain.bytes)
   })
 })
