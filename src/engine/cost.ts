@@ -40,7 +40,8 @@ function representationCost (p: PointParams): PointCost {
   const count = p.patterns
   const representation = chooseRepresentation(p)
   const patternBytes = n * count
-  const scratchBytes = n * (4 + 4 + 1 + 1 + 1 + 8) + 8 * count + generationBytes(p)
+  // Scratch: order, indices, three states, fields; the overlaps and their T > 0 sums (8 bytes each per pattern).
+  const scratchBytes = n * (4 + 4 + 1 + 1 + 1 + 8) + 16 * count + generationBytes(p)
   const thermal = p.dynamics.temperature > 0
   const sweeps = thermal ? p.dynamics.maxSweeps : Math.min(p.dynamics.maxSweeps, 10)
   const neuronUpdatesPerTrial = sweeps * n
