@@ -182,3 +182,9 @@ describe('end states in simulations', () => {
     })
   })
 })
+
+describe('the pattern level of a point', () => {
+  it('is checked like the success threshold', () => {
+    expect(() => createPointRunner(pointParams({ patternLevel: 1.5 }), 1, 0)).toThrow(/patternLevel/)
+  })
+})

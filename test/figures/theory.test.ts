@@ -161,4 +161,11 @@ describe('theory overlays', () => {
     // On a load axis the same sweep gets no temperature line.
     expect(overlays(parseSvg(renderFigure(result, { measure: 'success', x: 'load' }))).some((g) => g.getAttribute('data-theory') === 'retrievalTemperature')).toBe(false)
   })
+
+  it('join the finite-temperature RS overlaps per point on a load axis at T > 0 (the dense curve is the T = 0 branch)', () => {
+    const warm = runSweep({ neurons: 100, load: { values: [0.03, 0.06, 0.09] }, dynamics: { temperature: 0.3, maxSweeps: 4, burnIn: 1 }, trials: 2, seed: 12 })
+    const rs = overlays(parseSvg(renderFigure(warm, { measure: 'overlap' }))).find((g) => g.getAttribute('data-theory') === 'retrievalOverlapRS')!
+    expect(rs.getAttribute('data-kind')).toBe('per-point')
+    expect(curvePoints(rs).flat().map(([, y]) => y)).toEqual(warm.rows.map((row) => row.theory.retrievalOverlapRS))
+  })
 })
