@@ -13,6 +13,7 @@ import { runLocal } from './commands/run-local.js'
 import { serve, worker } from './commands/services.js'
 import { submit } from './commands/submit.js'
 import { CliError, EXIT, say, type CliIo } from './io.js'
+import { END_STATES } from '../engine/index.js'
 
 const EPILOG = `
 Exit codes: 0 success; 1 the sweep failed or was canceled; 2 invalid input or a request the
@@ -62,6 +63,7 @@ export async function runCli (argv: readonly string[], io: CliIo): Promise<numbe
     .requiredOption('-o, --output <file>', 'results file: .csv or .json')
     .option('--format <format>', 'csv or json (default: from the file name)')
     .option('--trials', 'one row per trial instead of one per grid point')
+    .option('--series <series>', 'write another series instead of the rows: trajectory (mean trajectories, long format; needs measures.overlapTrajectory)')
     .option('--threads <n>', `compute threads (default: ${availableParallelism()}); 1 runs in this process`, positiveInt)
     .action(async (spec: string, options) => {
       exitCode = await runLocal(io, spec, { ...options, ...(io.signal === undefined ? {} : { signal: io.signal }) })
@@ -76,6 +78,7 @@ export async function runCli (argv: readonly string[], io: CliIo): Promise<numbe
     .option('--output <file>', 'download the results here (.csv or .json); implies --wait')
     .option('--format <format>', 'csv or json (default: from the file name)')
     .option('--trials', 'per-trial rows')
+    .option('--series <series>', 'download another series instead of the rows: trajectory (mean trajectories, long format)')
     .option('--reuse', 'reuse the results of an identical finished sweep instead of running again')
     .option('--idempotency-key <key>', 'makes retrying this submission safe')
     .action(async (spec: string, options) => { exitCode = await submit(io, spec, options) })
@@ -85,7 +88,7 @@ export async function runCli (argv: readonly string[], io: CliIo): Promise<numbe
     .argument('<results...>', 'results files written by run or downloaded from /results (JSON)')
     .requiredOption('-o, --output <file>', 'SVG file to write (- for standard output)')
     .option('--measure <measure>', 'success, overlap, sweeps, maxOtherOverlap, energy, endState, unstableFraction or fixedPatternFraction (default success)')
-    .option('--end-state <class>', 'with --measure endState: target, reversed, other-pattern, mixture or other')
+    .option('--end-state <class>', `with --measure endState: ${END_STATES.join(', ')}`)
     .option('--x <parameter>', 'varied parameter on the x axis, e.g. load (default: the one with the most values)')
     .option('--series <parameter>', 'varied parameter named first in the series labels')
     .option('--x-scale <scale>', 'linear or log')

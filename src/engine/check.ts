@@ -53,6 +53,9 @@ export function checkPointParams (p: PointParams): void {
   if (!(p.successThreshold >= -1 && p.successThreshold <= 1)) {
     throw new EngineInputError('successThreshold', p.successThreshold, 'the success threshold is an overlap in [−1, 1].')
   }
+  if (p.patternLevel !== undefined && !(p.patternLevel >= -1 && p.patternLevel <= 1)) {
+    throw new EngineInputError('patternLevel', p.patternLevel, 'the pattern level of the end states is an overlap in [−1, 1].')
+  }
   integerIn('trialsPerNetwork', p.trialsPerNetwork, 1, Number.MAX_SAFE_INTEGER)
 }
 

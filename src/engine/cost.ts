@@ -33,11 +33,19 @@ const GLAUBER_OPS_PER_VISIT = 20
  * oversized work can be refused before anything is allocated.
  */
 export function estimatePointCost (p: PointParams): PointCost {
+  const cost = representationCost(p)
+  // The stored patterns' overlaps are measured once per network: N·P(P − 1)/2 multiply-adds.
+  if (p.measures.patternOverlaps !== true) return cost
+  return { ...cost, buildOpsPerNetwork: cost.buildOpsPerNetwork + p.neurons * p.patterns * (p.patterns - 1) / 2 }
+}
+
+function representationCost (p: PointParams): PointCost {
   const n = p.neurons
   const count = p.patterns
   const representation = chooseRepresentation(p)
   const patternBytes = n * count
-  const scratchBytes = n * (4 + 4 + 1 + 1 + 1 + 8) + 8 * count + generationBytes(p)
+  // Scratch: order, indices, three states, fields; the overlaps and their T > 0 sums (8 bytes each per pattern).
+  const scratchBytes = n * (4 + 4 + 1 + 1 + 1 + 8) + 16 * count + generationBytes(p)
   const thermal = p.dynamics.temperature > 0
   const sweeps = thermal ? p.dynamics.maxSweeps : Math.min(p.dynamics.maxSweeps, 10)
   const neuronUpdatesPerTrial = sweeps * n

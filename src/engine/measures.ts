@@ -1,13 +1,5 @@
 import type { Network } from './network/network.js'
-import type { EndState, StabilityRecord } from './results.js'
-
-/** Overlap level above which a state counts as a stored pattern (or its reverse). */
-export const PATTERN_LEVEL = 0.9
-
-/** Overlap level for a pattern to count as a component of a mixture: max(0.15, 4/√N), well above random-pattern noise 1/√N. */
-export function mixtureLevel (neurons: number): number {
-  return Math.max(0.15, 4 / Math.sqrt(neurons))
-}
+import type { StabilityRecord } from './results.js'
 
 /**
  * Normalised overlaps m_μ = Σ_i (ξ_i^μ − b) s_i / Σ_i (ξ_i^μ − b) ξ_i^μ of the current state
@@ -46,20 +38,6 @@ function patternNorm (net: Network, mu: number, centre: number): number {
   let sum = 0
   for (let i = 0; i < n; i++) sum += net.patterns[mu * n + i]!
   return n - centre * sum
-}
-
-export function classifyEndState (overlaps: Float64Array, count: number, target: number, neurons: number): EndState {
-  const m = overlaps[target]!
-  if (m >= PATTERN_LEVEL) return 'target'
-  if (m <= -PATTERN_LEVEL) return 'reversed'
-  const level = mixtureLevel(neurons)
-  let strong = 0
-  for (let mu = 0; mu < count; mu++) {
-    const a = Math.abs(overlaps[mu]!)
-    if (mu !== target && a >= PATTERN_LEVEL) return 'other-pattern'
-    if (a >= level) strong++
-  }
-  return strong >= 2 ? 'mixture' : 'other'
 }
 
 export function maxOtherOverlap (overlaps: Float64Array, count: number, target: number): number {

@@ -116,6 +116,11 @@ export interface Measures {
   energyTrajectory: boolean
   /** One-step stability of every stored pattern of the trial's network (costs O(N·P·P) per network). */
   stability: boolean
+  /**
+   * Statistics of the overlaps between the stored patterns of each network (costs O(N·P·P/2)
+   * per network). Absent means false. Output only: left out of the stream key (keyedParams).
+   */
+  patternOverlaps?: boolean
 }
 
 export interface PointParams {
@@ -133,8 +138,33 @@ export interface PointParams {
   /** A trial succeeds when its final target overlap is at least this. */
   successThreshold: number
   /**
+   * Pattern level q of the end-state classes (end-states.ts): a state is at the target when
+   * m_t ≥ q, at another pattern when |m_ν| ≥ |q|. Absent means the success threshold, so
+   * `target` and success agree (spec format 2); format-1 specs set 0.9. Output only: left out
+   * of the stream key (keyedParams).
+   */
+  patternLevel?: number
+  /**
    * Consecutive trials that share one network (pattern set and couplings). 1 draws a new
    * pattern set for every trial; larger values amortise expensive rules (pseudo-inverse, Storkey).
    */
   trialsPerNetwork: number
+}
+
+/** The pattern level q of a point: its own, or else its success threshold. */
+export function patternLevelOf (p: PointParams): number {
+  return p.patternLevel ?? p.successThreshold
+}
+
+/**
+ * The parameters a point's random streams are keyed by: everything except the output-only
+ * members added after streams were first keyed (`patternLevel`, `measures.patternOverlaps`),
+ * which change no draw and no dynamics. Leaving them out keeps the keys, and so the trials,
+ * of every point that does not use them exactly as before; two points that differ only in
+ * them draw the same trials.
+ */
+export function keyedParams (p: PointParams): PointParams {
+  const { patternLevel: _level, measures, ...rest } = p
+  const { patternOverlaps: _overlaps, ...keptMeasures } = measures
+  return { ...rest, measures: keptMeasures }
 }

@@ -43,6 +43,8 @@ export function yDomain (measure: FigureMeasure, extent: readonly [number, numbe
     case 'overlap':
       return [Math.max(-1, Math.min(0, extent?.[0] ?? 0)), 1]
     case 'maxOtherOverlap':
+    case 'patternOverlapMeanAbs':
+    case 'patternOverlapMaxAbs':
       return [0, Math.min(1, Math.max(extent?.[1] ?? 1, 1e-9))]
     case 'sweeps':
     case 'unstableFraction':

@@ -135,7 +135,7 @@ function makeYScale (plan: FigurePlan, bottom: number, top: number): AxisScale {
 }
 
 function makeXScale (plan: FigurePlan, plot: Rect): AxisScale {
-  const xs = plan.series.flatMap((s) => s.rows.map((row) => row.values[plan.x]!))
+  const xs = plan.series.flatMap((s) => s.rows.map((row) => row.values[plan.x] as number))
   const extent: [number, number] = xs.length === 0 ? [0, 1] : [Math.min(...xs), Math.max(...xs)]
   const domain = xDomain(extent, plan.options.xScale)
   // Fewer ticks until neighbouring labels keep a gap between them.
@@ -310,21 +310,28 @@ function drawTheory (o: TheoryOverlay, xs: AxisScale, ys: AxisScale, plot: Rect,
 }
 
 function drawAnnotations (theory: readonly TheoryOverlay[], xs: AxisScale, plot: Rect, colour: (o: TheoryOverlay) => string): string {
-  const texts = theory.filter((o) => o.kind === 'reference' && o.at !== null && o.annotation !== undefined).map((o) => {
-    const x = xs.toPx(o.at!)
-    const half = richTextWidth(o.annotation!, ANNOTATION_FONT) / 2
-    const centre = Math.min(Math.max(x, plot.left + half), plot.right - half)
-    return element('text', {
-      class: 'annotation',
-      'data-theory': o.key,
-      'data-label': plainText(o.annotation!),
-      x: centre,
-      y: plot.top - 5,
-      'text-anchor': 'middle',
-      'font-size': ANNOTATION_FONT,
-      fill: colour(o)
-    }, richText(o.annotation!, ANNOTATION_FONT))
+  const lines = theory.filter((o) => o.kind === 'reference' && o.at !== null && o.annotation !== undefined).sort((a, b) => a.at! - b.at!)
+  // Several lines close together: their values alone (the legend names them), and any that
+  // would still overlap its left neighbour is left out rather than drawn over it.
+  const place = (text: (o: TheoryOverlay) => string) => lines.map((o) => {
+    const half = richTextWidth(text(o), ANNOTATION_FONT) / 2
+    return { o, text: text(o), left: Math.min(Math.max(xs.toPx(o.at!), plot.left + half), plot.right - half) - half, width: 2 * half }
   })
+  const overlapping = (boxes: ReturnType<typeof place>) => boxes.some((b, i) => i > 0 && b.left < boxes[i - 1]!.left + boxes[i - 1]!.width + 4)
+  let boxes = place((o) => o.annotation!)
+  if (overlapping(boxes)) boxes = place((o) => o.annotation!.split(' = ').pop()!)
+  const kept: typeof boxes = []
+  for (const box of boxes) if (kept.length === 0 || box.left >= kept[kept.length - 1]!.left + kept[kept.length - 1]!.width + 4) kept.push(box)
+  const texts = kept.map(({ o, text, left, width }) => element('text', {
+    class: 'annotation',
+    'data-theory': o.key,
+    'data-label': plainText(text),
+    x: left + width / 2,
+    y: plot.top - 5,
+    'text-anchor': 'middle',
+    'font-size': ANNOTATION_FONT,
+    fill: colour(o)
+  }, richText(text, ANNOTATION_FONT)))
   return texts.length === 0 ? '' : element('g', { class: 'annotations' }, texts)
 }
 

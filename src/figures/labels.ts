@@ -4,7 +4,7 @@
  * turns that into readable plain text for <title>, <desc> and data attributes.
  */
 import type { EndState } from '../engine/index.js'
-import type { NormalisedSpec, VariedPath } from '../spec/index.js'
+import { ruleLabel, type AxisPath, type AxisValue, type NormalisedSpec, type VariedPath } from '../spec/index.js'
 import type { FigureMeasure } from './options.js'
 
 interface ParameterWords {
@@ -20,6 +20,7 @@ const PARAMETERS: Record<VariedPath, ParameterWords> = {
   neurons: { symbol: 'N', axis: 'Network size N (neurons)', short: 'network size N' },
   patterns: { symbol: 'P', axis: 'Stored patterns P', short: 'stored patterns P' },
   load: { symbol: 'α', axis: 'Load α = P/N', short: 'load α' },
+  inDegreeLoad: { symbol: 'α_{K}', axis: 'Load per input α_{K} = P/K', short: 'load per input α_K' },
   'family.activity': { symbol: 'a', axis: 'Pattern activity a (fraction of active neurons)', short: 'pattern activity a' },
   'family.parents': { symbol: 'parents', axis: 'Parent patterns', short: 'parent patterns' },
   'family.parentOverlap': { symbol: 'b', axis: 'Overlap b of each pattern with its parent', short: 'parent overlap b' },
@@ -40,9 +41,11 @@ const PARAMETERS: Record<VariedPath, ParameterWords> = {
 const END_STATE_WORDS: Record<EndState, string> = {
   target: 'at the target',
   reversed: 'at the reversed target',
-  'other-pattern': 'at another pattern',
-  mixture: 'in a mixture state',
-  other: 'elsewhere (spin-glass-like)'
+  otherPattern: 'at another pattern',
+  symmetricMixture: 'in a symmetric mixture state',
+  partialTarget: 'partly at the target (below the pattern level)',
+  spurious: 'in another spurious state',
+  spinGlass: 'in a spin-glass-like state (no macroscopic overlap)'
 }
 
 // MAIN //
@@ -75,8 +78,28 @@ export function parameterShortName (path: VariedPath): string {
   return PARAMETERS[path].short
 }
 
-export function legendEntry (path: VariedPath, value: number): string {
-  return `${PARAMETERS[path].symbol} = ${formatValue(value)}`
+export function legendEntry (path: AxisPath, value: AxisValue): string {
+  if (path === 'rule') return ruleWords(String(value))
+  if (path === 'rule.selfCoupling') return value === true ? 'J_{ii} kept' : 'J_{ii} = 0'
+  return `${PARAMETERS[path].symbol} = ${formatValue(value as number)}`
+}
+
+const RULE_NAMES: Record<string, string> = {
+  hebbian: 'Hebbian rule',
+  'pseudo-inverse': 'pseudo-inverse rule',
+  storkey: 'Storkey rule',
+  covariance: 'covariance rule',
+  clipped: 'clipped synapses',
+  'dense-polynomial': 'dense memory F = xⁿ',
+  'dense-exponential': 'dense memory F = eˣ',
+  'modern-softmax': 'softmax network'
+}
+
+/** A rule axis label (`dense-polynomial(degree=3)`) in words: `dense memory F = xⁿ (degree=3)`. */
+function ruleWords (label: string): string {
+  const open = label.indexOf('(')
+  const kind = open < 0 ? label : label.slice(0, open)
+  return `${RULE_NAMES[kind] ?? kind}${open < 0 ? '' : ` ${label.slice(open).replace('selfCoupling=true', 'J_{ii} kept')}`}`
 }
 
 /** The y axis title. */
@@ -105,6 +128,10 @@ export function measureAxisTitle (measure: FigureMeasure, specs: readonly Normal
       return 'Fraction of unstable bits'
     case 'fixedPatternFraction':
       return 'Stored patterns that are fixed points (fraction)'
+    case 'patternOverlapMeanAbs':
+      return 'Mean |C_{μν}| between stored patterns'
+    case 'patternOverlapMaxAbs':
+      return 'Largest |C_{μν}| between stored patterns'
   }
 }
 
@@ -118,6 +145,8 @@ export function measureShortName (measure: FigureMeasure, endState: EndState): s
     case 'endState': return `Trials ending ${END_STATE_WORDS[endState]}`
     case 'unstableFraction': return 'Unstable bits'
     case 'fixedPatternFraction': return 'Patterns that are fixed points'
+    case 'patternOverlapMeanAbs': return 'Mean overlap between stored patterns'
+    case 'patternOverlapMaxAbs': return 'Largest overlap between stored patterns'
   }
 }
 
@@ -139,6 +168,7 @@ export function modelConditions (spec: NormalisedSpec, shown: ReadonlySet<string
   if (constant('neurons', spec.neurons)) out.push(`N = ${formatValue(spec.neurons)}`)
   if (spec.patterns !== undefined && constant('patterns', spec.patterns)) out.push(`P = ${formatValue(spec.patterns)}`)
   if (spec.load !== undefined && constant('load', spec.load)) out.push(`α = ${formatValue(spec.load)}`)
+  if (spec.inDegreeLoad !== undefined && constant('inDegreeLoad', spec.inDegreeLoad)) out.push(`α_{K} = P/K = ${formatValue(spec.inDegreeLoad)}`)
   if (spec.coding === 'binary') out.push('0/1 neurons')
   const f = spec.family
   if (f.kind === 'random') out.push(constant('family.activity', f.activity) && f.activity !== 0.5 ? `random patterns (a = ${formatValue(f.activity)})` : 'random patterns')
@@ -147,21 +177,22 @@ export function modelConditions (spec: NormalisedSpec, shown: ReadonlySet<string
     out.push(parts.length > 0 ? `correlated patterns (${parts.join(', ')})` : 'correlated patterns')
   } else out.push('supplied patterns')
   const r = spec.rule
-  const ruleName = {
-    hebbian: 'Hebbian rule',
-    'pseudo-inverse': 'pseudo-inverse rule',
-    storkey: 'Storkey rule',
-    covariance: 'covariance rule',
-    clipped: 'clipped synapses',
-    'dense-polynomial': 'dense memory F = xⁿ',
-    'dense-exponential': 'dense memory F = eˣ',
-    'modern-softmax': 'softmax network'
-  }[r.kind]
+  if ('values' in r) {
+    if (!shown.has('rule')) out.push(r.values.length === 1 ? ruleWords(ruleLabel(r.values[0]!)) : `${r.values.length} rules`)
+    return out.concat(dynamicsConditions(spec, constant))
+  }
+  const ruleName = RULE_NAMES[r.kind]!
   const threshold = r.kind === 'covariance' && r.threshold !== null && constant('rule.threshold', r.threshold) ? ` (θ = ${formatValue(r.threshold)})` : ''
   const option = r.kind === 'dense-polynomial' && constant('rule.degree', r.degree)
     ? ` (n = ${formatValue(r.degree)})`
     : r.kind === 'modern-softmax' && constant('rule.beta', r.beta) ? ` (β = ${formatValue(r.beta)})` : ''
-  out.push(`${ruleName}${threshold}${option}${'selfCoupling' in r && r.selfCoupling ? ', J_{ii} kept' : ''}`)
+  out.push(`${ruleName}${threshold}${option}${'selfCoupling' in r && r.selfCoupling === true ? ', J_{ii} kept' : ''}`)
+  return out.concat(dynamicsConditions(spec, constant))
+}
+
+/** The conditions after the rule: dilution, cue, dynamics, trials. */
+function dynamicsConditions (spec: NormalisedSpec, constant: (path: VariedPath, v: unknown) => v is number): string[] {
+  const out: string[] = []
   if (spec.dilution !== null && 'inDegree' in spec.dilution) {
     out.push(constant('dilution.inDegree', spec.dilution.inDegree) ? `K = ${formatValue(spec.dilution.inDegree)} inputs per neuron (asymmetric)` : 'fixed in-degree (asymmetric)')
   } else if (spec.dilution !== null) {

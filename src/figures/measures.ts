@@ -58,6 +58,12 @@ export function measureRow (
     case 'unstableFraction':
     case 'fixedPatternFraction':
       return stabilityValue(row, trials, measure, errorBars)
+    case 'patternOverlapMeanAbs':
+    case 'patternOverlapMaxAbs': {
+      const po = s.patternOverlaps
+      if (po === undefined) return null
+      return meanValue(measure === 'patternOverlapMeanAbs' ? po.meanAbs : po.maxAbs, po.networks, errorBars, true)
+    }
   }
 }
 
@@ -90,9 +96,9 @@ function meanValue (stat: MeanWithError, n: number, errorBars: ErrorBars, bounde
 }
 
 /**
- * Stability is measured once per network. The row keeps only the mean over networks, so the
- * spread comes from the per-trial records when the result includes them; without them the
- * point has no error bar.
+ * Stability is measured once per network. The row keeps the mean over networks with its sd
+ * and se; rows of results made before they did have the spread from the per-trial records
+ * when the result includes them, and no error bar otherwise.
  */
 function stabilityValue (
   row: ResultRow,
@@ -103,6 +109,11 @@ function stabilityValue (
   const stability = row.summary.stability
   if (stability === null || stability === undefined || !isNumber(stability[measure])) return null
   const y = stability[measure]
+  const rowSd = stability.sd?.[measure]
+  const rowSe = stability.se?.[measure]
+  if (isNumber(rowSd) && isNumber(rowSe) && stability.networks >= 2) {
+    return errorBars === 'none' ? { y, low: null, high: null, n: stability.networks } : meanValue({ mean: y, sd: rowSd, se: rowSe }, stability.networks, errorBars, true)
+  }
   const perNetwork = (trials ?? []).flatMap((t) => (t.stability === undefined ? [] : [t.stability[measure]]))
   if (errorBars === 'none' || perNetwork.length !== stability.networks || perNetwork.length < 2 || !perNetwork.every(isNumber)) {
     return { y, low: null, high: null, n: stability.networks }

@@ -5,18 +5,20 @@
  */
 import { z } from 'zod'
 import { END_STATES } from '../engine/index.js'
-import { VARIED_PARAMETERS, type VariedPath } from '../spec/index.js'
+import { AXIS_ORDER, VARIED_PARAMETERS, type AxisPath, type VariedPath } from '../spec/index.js'
 
 // VARIABLES //
 
 /** Plottable measures of a result row (see measures.ts for what each one reads). */
 export const FIGURE_MEASURES = [
-  'success', 'overlap', 'sweeps', 'maxOtherOverlap', 'energy', 'endState', 'unstableFraction', 'fixedPatternFraction'
+  'success', 'overlap', 'sweeps', 'maxOtherOverlap', 'energy', 'endState', 'unstableFraction', 'fixedPatternFraction',
+  'patternOverlapMeanAbs', 'patternOverlapMaxAbs'
 ] as const
 
 export type FigureMeasure = typeof FIGURE_MEASURES[number]
 
 const VARIED_PATHS = VARIED_PARAMETERS.map((p) => p.path) as [VariedPath, ...VariedPath[]]
+const AXIS_PATHS = [...AXIS_ORDER] as [AxisPath, ...AxisPath[]]
 
 export const FIGURE_SIZE = { minWidth: 320, maxWidth: 4000, minHeight: 240, maxHeight: 3000, width: 640, height: 440 } as const
 
@@ -34,12 +36,13 @@ export const FigureOptionsSchema = z.strictObject({
     'What the y axis shows: success (recall success rate), overlap (mean final target overlap), sweeps (mean sweeps run), ' +
     'maxOtherOverlap (mean largest |overlap| with another pattern), energy (mean energy per neuron), endState (fraction of ' +
     'trials ending in the class chosen by `endState`), unstableFraction and fixedPatternFraction (one-step stability of the ' +
-    'stored patterns; needs measures.stability in the spec). Default: success.'),
+    'stored patterns; needs measures.stability in the spec), patternOverlapMeanAbs and patternOverlapMaxAbs (mean and largest |overlap| ' +
+    'between the stored patterns of a network, mean over networks; needs measures.patternOverlaps in the spec). Default: success.'),
   endState: z.enum(END_STATES).default('target').describe('With measure=endState: the class of final state counted. Default: target.'),
   x: z.enum(VARIED_PATHS).optional().describe('Varied parameter on the x axis. Default: the varied parameter with the most values (the later one in canonical order on a tie).'),
-  series: z.enum(VARIED_PATHS).optional().describe(
-    'Varied parameter that names the series (one per value) and orders the legend. Any other varied parameter still splits ' +
-    'series, so no line ever joins points that differ in more than x. Default: every varied parameter but x.'),
+  series: z.enum(AXIS_PATHS).optional().describe(
+    'Varied parameter that names the series (one per value) and orders the legend, numeric or categorical (rule, rule.selfCoupling). ' +
+    'Any other varied parameter still splits series, so no line ever joins points that differ in more than x. Default: every varied parameter but x.'),
   xScale: scale.default('linear').describe('x axis scale; log needs positive x values. Default: linear.'),
   yScale: scale.default('linear').describe('y axis scale; on log, values ≤ 0 are left out (and counted in the description). Default: linear.'),
   errorBars: z.enum(['ci', 'se', 'sd', 'none']).default('ci').describe(

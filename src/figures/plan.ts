@@ -57,7 +57,7 @@ export function planFigure (results: readonly SweepResult[], options: FigureOpti
   const plan = planSeries(results, options)
   const { x, series } = plan
   if (options.xScale === 'log') {
-    const bad = series.flatMap((s) => s.rows.map((row) => row.values[x]!)).find((v) => !(v > 0))
+    const bad = series.flatMap((s) => s.rows.map((row) => row.values[x] as number)).find((v) => !(v > 0))
     if (bad !== undefined) {
       throw new FigureOptionsError([{ path: 'xScale', message: `a log axis needs positive values, and '${x}' takes the value ${bad}` }])
     }

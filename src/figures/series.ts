@@ -4,7 +4,7 @@
  * never joins points that differ in anything else.
  */
 import type { TrialRecord } from '../engine/index.js'
-import { gridAxes, type VariedPath } from '../spec/index.js'
+import { gridAxes, numericAxes, type AxisPath, type AxisValue, type VariedPath } from '../spec/index.js'
 import { type ResultRow, type SweepResult } from '../results/index.js'
 import { FigureOptionsError } from './errors.js'
 import { legendEntry } from './labels.js'
@@ -34,7 +34,7 @@ export interface PlotSeries {
   /** Legend label (may hold `_{…}` subscripts). */
   label: string
   /** The varied parameters other than x, fixed along the series. */
-  fixed: Record<string, number>
+  fixed: Record<string, AxisValue>
   /** Rows of the series, in increasing x. */
   rows: ResultRow[]
   /** Plotted points, in increasing x. */
@@ -48,7 +48,7 @@ export interface PlotSeries {
 export interface SeriesPlan {
   x: VariedPath
   /** The parameter named first in labels, when the caller chose one. */
-  seriesBy: VariedPath | null
+  seriesBy: AxisPath | null
   series: PlotSeries[]
   sweepLabels: string[]
 }
@@ -58,7 +58,7 @@ export interface SeriesPlan {
 export function planSeries (results: readonly SweepResult[], options: FigureOptions): SeriesPlan {
   if (results.length === 0) throw new FigureOptionsError([{ path: '', message: 'there is no result to draw' }])
   const axesOf = results.map((r) => gridAxes(r.spec))
-  const x = options.x ?? defaultX(axesOf[0]!)
+  const x = options.x ?? defaultX(numericAxes(results[0]!.spec))
   if (x === null) {
     throw new FigureOptionsError([{ path: 'x', message: `${describeSweep(results, 0)} varies no parameter, so there is nothing to put on the x axis` }])
   }
@@ -86,7 +86,7 @@ export function planSeries (results: readonly SweepResult[], options: FigureOpti
     if (seriesBy !== null) splitBy.sort((a, b) => (a.path === seriesBy ? -1 : b.path === seriesBy ? 1 : 0))
     const groups = new Map<string, ResultRow[]>()
     for (const row of result.rows) {
-      const key = splitBy.map((a) => a.values.indexOf(row.values[a.path]!)).join(',')
+      const key = splitBy.map((a) => (a.values as readonly AxisValue[]).indexOf(row.values[a.path]!)).join(',')
       const group = groups.get(key)
       if (group === undefined) groups.set(key, [row])
       else group.push(row)
@@ -94,7 +94,7 @@ export function planSeries (results: readonly SweepResult[], options: FigureOpti
     // Series follow the axis values in the order the spec lists them.
     const keys = [...groups.keys()].sort((a, b) => compareIndexLists(a, b))
     for (const key of keys) {
-      const rows = groups.get(key)!.sort((a, b) => a.values[x]! - b.values[x]!)
+      const rows = groups.get(key)!.sort((a, b) => (a.values[x] as number) - (b.values[x] as number))
       const fixed = Object.fromEntries(splitBy.map((a) => [a.path, rows[0]!.values[a.path]!]))
       const parts = splitBy.filter((a) => a.values.length > 1).map((a) => legendEntry(a.path, fixed[a.path]!))
       const label = results.length > 1
@@ -120,7 +120,7 @@ function buildSeries (
   index: number,
   sweep: number,
   label: string,
-  fixed: Record<string, number>,
+  fixed: Record<string, AxisValue>,
   rows: ResultRow[],
   x: VariedPath,
   trials: readonly TrialRecord[][] | undefined,
@@ -133,13 +133,13 @@ function buildSeries (
     const value = measureRow(row, trials?.[row.point], options.measure, options.errorBars, options.endState)
     if (value === null) { missing++; continue }
     if (options.yScale === 'log' && !(value.y > 0)) { belowLogAxis++; continue }
-    points.push({ x: row.values[x]!, ...value, point: row.point })
+    points.push({ x: row.values[x] as number, ...value, point: row.point })
   }
   return { index, sweep, label, fixed, rows, points, missing, belowLogAxis }
 }
 
-/** The axis with the most values; on a tie the later one in canonical order (it varies faster in the grid). */
-function defaultX (axes: ReturnType<typeof gridAxes>): VariedPath | null {
+/** The numeric axis with the most values; on a tie the later one in canonical order (it varies faster in the grid). */
+function defaultX (axes: ReturnType<typeof numericAxes>): VariedPath | null {
   let best: VariedPath | null = null
   let most = 0
   for (const axis of axes) {
@@ -149,6 +149,14 @@ function defaultX (axes: ReturnType<typeof gridAxes>): VariedPath | null {
 }
 
 function checkMeasureAvailable (results: readonly SweepResult[], options: FigureOptions): void {
+  if (options.measure === 'patternOverlapMeanAbs' || options.measure === 'patternOverlapMaxAbs') {
+    results.forEach((r, s) => {
+      if (!r.rows.some((row) => row.summary.patternOverlaps !== undefined)) {
+        throw new FigureOptionsError([{ path: 'measure', message: `${describeSweep(results, s)} did not measure the overlaps between its stored patterns (the spec needs measures.patternOverlaps: true)` }])
+      }
+    })
+    return
+  }
   if (options.measure !== 'unstableFraction' && options.measure !== 'fixedPatternFraction') return
   results.forEach((r, s) => {
     if (!r.rows.some((row) => row.summary.stability !== null && row.summary.stability !== undefined)) {

@@ -3,8 +3,8 @@
  * row carries a theory value only when the model matches its assumptions (theoryForPoint).
  * When every row of a series carries one and x is the variable of the closed form (load,
  * temperature, cue fraction), the curve is drawn densely from the theory function over the
- * series' x range; otherwise the rows' own values are joined by a line. Critical loads are
- * vertical reference lines.
+ * series' x range; otherwise the rows' own values are joined by a line. Critical loads
+ * (x = load) and retrieval temperatures (x = temperature) are vertical reference lines.
  */
 import {
   crosstalkErrorGaussian, curieWeissOverlap, firstParallelStep, rsCriticalLoad, rsRetrievalOverlap, type PointParams
@@ -93,7 +93,7 @@ export function planTheory (
       if (!denseApplies(key, s.rows, spec, x)) continue
       const form = closedForm(key, x, params)
       if (form === null) continue
-      const xs = s.rows.map((row) => row.values[x]!)
+      const xs = s.rows.map((row) => row.values[x] as number)
       overlays.push({ key, kind: 'curve', label: LABELS[key]!, series: [s.index], segments: sample(form, Math.min(...xs), Math.max(...xs), options.xScale, options.yScale), at: null })
       drawn.add(key)
     }
@@ -104,7 +104,7 @@ export function planTheory (
       overlays.push({ key, kind: 'per-point', label: LABELS[key] ?? key, series: [s.index], segments, at: null })
     }
     if (REFERENCE_MEASURES.has(options.measure)) {
-      const reference = criticalLoadLine(s.rows, x, params)
+      const reference = criticalLoadLine(s.rows, x, params) ?? retrievalTemperatureLine(s.rows, x)
       if (reference !== null) overlays.push({ ...reference, series: [s.index], segments: [] })
     }
   }
@@ -128,7 +128,8 @@ function closedForm (key: string, x: VariedPath, p: PointParams): ClosedForm | n
   const loadScale = x === 'patterns' ? p.neurons : 1
   switch (key) {
     case 'retrievalOverlapRS':
-      if (toLoad === null) return null
+      // The closed form is the T = 0 branch; at T > 0 the rows' own values are joined instead.
+      if (toLoad === null || p.dynamics.temperature > 0) return null
       return { f: (v) => rsRetrievalOverlap(toLoad(v)), breaks: [rsCriticalLoad().alphaC * loadScale] }
     case 'curieWeissOverlap':
       return x === 'dynamics.temperature' ? { f: curieWeissOverlap, breaks: [1] } : null
@@ -189,7 +190,7 @@ function perPointSegments (rows: readonly ResultRow[], key: string, x: VariedPat
       current = []
       continue
     }
-    current.push([row.values[x]!, y])
+    current.push([row.values[x] as number, y])
   }
   if (current.length > 0) segments.push(current)
   return segments
@@ -202,7 +203,7 @@ function criticalLoadLine (rows: readonly ResultRow[], x: VariedPath, p: PointPa
   if (!isNumber(first) || !values.every((v) => v === first)) return null
   const at = x === 'load' ? first : first * p.neurons
   // Lines outside the simulated range say nothing about these data.
-  const xs = rows.map((row) => row.values[x]!)
+  const xs = rows.map((row) => row.values[x] as number)
   if (at < Math.min(...xs) || at > Math.max(...xs)) return null
   const value = formatValue(Number(at.toPrecision(3)))
   return {
@@ -211,6 +212,27 @@ function criticalLoadLine (rows: readonly ResultRow[], x: VariedPath, p: PointPa
     label: first === 1 ? 'Critical load α_{c} (pseudo-inverse rule)' : 'Critical load α_{c} (replica-symmetric)',
     at,
     annotation: x === 'load' ? `α_{c} = ${value}` : `P_{c} = ${value}`
+  }
+}
+
+/**
+ * At fixed load the replica-symmetric retrieval state is gone above T_M(α) (`retrievalTemperature`,
+ * the same for every T > 0 row of a series; T = 0 rows do not carry it): a vertical line on a
+ * temperature axis, where the series' overlap should fall.
+ */
+function retrievalTemperatureLine (rows: readonly ResultRow[], x: VariedPath): Omit<TheoryOverlay, 'series' | 'segments'> | null {
+  if (x !== 'dynamics.temperature') return null
+  const values = rows.map((row) => row.theory.retrievalTemperature).filter(isNumber)
+  const first = values[0]
+  if (first === undefined || !values.every((v) => v === first)) return null
+  const xs = rows.map((row) => row.values[x] as number)
+  if (first < Math.min(...xs) || first > Math.max(...xs)) return null
+  return {
+    key: 'retrievalTemperature',
+    kind: 'reference',
+    label: 'Retrieval temperature T_{M} (replica-symmetric)',
+    at: first,
+    annotation: `T_{M} = ${formatValue(Number(first.toPrecision(3)))}`
   }
 }
 

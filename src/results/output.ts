@@ -9,6 +9,7 @@ import { canonicalJson } from '../spec/canonical.js'
 import { toCsv, type CsvCell } from './csv.js'
 import { gridAxes } from '../spec/grid.js'
 import { summaryCells, summaryHeader } from './summary-cells.js'
+import { hasInDegreeLoad, measureCells, measureHeader, measureLayout, trialMeasureCells, trialMeasureHeader, type MeasureLayout } from './measure-columns.js'
 
 export interface OutputOptions {
   /** Include every trial's record (JSON: the `trials` member; CSV: one row per trial). */
@@ -54,12 +55,16 @@ export function resultToCsv (result: SweepResult, opts: OutputOptions): string {
   return opts.perTrial ? trialCsv(result) : pointCsv(result)
 }
 
-const PARAM_COLUMNS = ['neurons', 'patterns', 'alpha'] as const
+const PARAM_COLUMNS = ['neurons', 'patterns', 'alpha', 'inDegreeLoad'] as const
 
-/** N, P and α follow the varied columns, except those already among them (a varied N or P). */
+/**
+ * N, P, α = P/N and (under a fixed in-degree) the load per input P/K follow the varied
+ * columns, except those already among them (a varied N or P).
+ */
 function paramColumns (result: SweepResult): Array<typeof PARAM_COLUMNS[number]> {
   const varied = new Set<string>(gridAxes(result.spec).map((axis) => axis.path))
-  return PARAM_COLUMNS.filter((name) => !varied.has(name))
+  const perInput = hasInDegreeLoad(result)
+  return PARAM_COLUMNS.filter((name) => !varied.has(name) && (name !== 'inDegreeLoad' || perInput))
 }
 
 function leadingHeader (result: SweepResult): string[] {
@@ -75,14 +80,17 @@ function pointCsv (result: SweepResult): string {
   // columns for a model); a value unavailable at a point is an empty cell there.
   const theoryNames = [...new Set(result.rows.flatMap((row) => [...Object.keys(row.theory), ...Object.keys(row.theoryUnavailable ?? {})]))].sort()
   const stability = result.spec.measures.stability
+  const layout = measureLayout(result, result.rows.map((row) => row.summary))
   const header = [
     ...leadingHeader(result),
     ...summaryHeader(stability),
+    ...measureHeader(layout),
     ...theoryNames.map((name) => `theory.${name}`)
   ]
   const rows = result.rows.map((row) => [
     ...leadingCells(result, row),
     ...summaryCells(row.summary, stability),
+    ...measureCells(row.summary, layout),
     ...theoryNames.map((name) => row.theory[name])
   ])
   return toCsv(header, rows)
@@ -90,16 +98,18 @@ function pointCsv (result: SweepResult): string {
 
 function trialCsv (result: SweepResult): string {
   const stability = result.spec.measures.stability
+  const layout: MeasureLayout = measureLayout(result, result.rows.map((row) => row.summary))
   const header = [
     ...leadingHeader(result),
     'trial', 'target', 'initialOverlap', 'overlap', 'success', 'maxOtherOverlap', 'sweeps', 'ending', 'energy', 'endState',
-    ...(stability ? ['stability.unstableFraction', 'stability.tieFraction', 'stability.fixedPatternFraction'] : [])
+    ...(stability ? ['stability.unstableFraction', 'stability.tieFraction', 'stability.fixedPatternFraction'] : []),
+    ...trialMeasureHeader(layout)
   ]
   const rows: CsvCell[][] = []
   for (const row of result.rows) {
     const lead = leadingCells(result, row)
     const threshold = successThresholdAt(result, row)
-    for (const t of result.trials[row.point] ?? []) rows.push([...lead, ...trialCells(t, threshold, stability)])
+    for (const t of result.trials[row.point] ?? []) rows.push([...lead, ...trialCells(t, threshold, stability), ...trialMeasureCells(t, layout)])
   }
   return toCsv(header, rows)
 }
@@ -113,5 +123,5 @@ function trialCells (t: TrialRecord, threshold: number, stability: boolean): Csv
 
 function successThresholdAt (result: SweepResult, row: ResultRow): number {
   const value = result.spec.successThreshold
-  return typeof value === 'number' ? value : row.values.successThreshold!
+  return typeof value === 'number' ? value : row.values.successThreshold as number
 }

@@ -7,6 +7,7 @@ import type { SweepResult } from './types.js'
 import { toCsv, type CsvCell } from './csv.js'
 import { gridAxes } from '../spec/grid.js'
 import { summaryCells, summaryHeader } from './summary-cells.js'
+import { measureCells, measureHeader, measureLayout } from './measure-columns.js'
 import type { SearchRow } from '../spec/analysis/types.js'
 
 // MAIN //
@@ -26,11 +27,12 @@ export function searchCsv (result: SweepResult, searches: readonly SearchRow[], 
   if (perStep) {
     const params = (['neurons', 'patterns', 'alpha'] as const).filter((name) => !outer.includes(name) && name !== analysis.parameter)
     const stability = result.spec.measures.stability
-    const header = ['search', ...outer, 'step', analysis.parameter, ...params, 'side', ...summaryHeader(stability)]
+    const layout = measureLayout(result, searches.flatMap((row) => row.steps.map((step) => step.summary)))
+    const header = ['search', ...outer, 'step', analysis.parameter, ...params, 'side', ...summaryHeader(stability), ...measureHeader(layout)]
     const rows: CsvCell[][] = []
     for (const row of searches) {
       for (const step of row.steps) {
-        rows.push([row.search, ...outer.map((path) => row.values[path]), step.step, step.value, ...params.map((name) => step.params[name]), step.side, ...summaryCells(step.summary, stability)])
+        rows.push([row.search, ...outer.map((path) => row.values[path]), step.step, step.value, ...params.map((name) => step.params[name]), step.side, ...summaryCells(step.summary, stability), ...measureCells(step.summary, layout)])
       }
     }
     return toCsv(header, rows)

@@ -1,6 +1,6 @@
 /** The shape of a sweep's result: what the assembler produces and every output renders. */
 import type { ENGINE_TIE_RULE, PointSummary, TrialRecord, UnavailableReason } from '../engine/index.js'
-import type { NormalisedSpec, ScalingRow, SearchRow } from '../spec/index.js'
+import type { AxisValue, NormalisedSpec, ScalingRow, SearchRow } from '../spec/index.js'
 
 /** Where and how a result was computed. Timing describes one run; everything else the code. */
 export interface Provenance {
@@ -28,10 +28,13 @@ export interface Provenance {
 
 export interface ResultRow {
   point: number
-  /** The varied parameters at this point, by path. */
-  values: Record<string, number>
-  /** N, P and the realised load α = P/N. */
-  params: { alpha: number, neurons: number, patterns: number }
+  /** The varied parameters at this point, by path (a rule axis gives the rule's label, a self-coupling axis true/false). */
+  values: Record<string, AxisValue>
+  /**
+   * N, P and the realised load α = P/N (load per neuron); under a fixed in-degree K also
+   * `inDegreeLoad` = P/K (load per input), the load that matters there.
+   */
+  params: { alpha: number, neurons: number, patterns: number, inDegreeLoad?: number }
   summary: PointSummary
   /** Theory values that apply at this point, by name. */
   theory: Record<string, number>

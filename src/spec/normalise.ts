@@ -9,10 +9,11 @@ import { normaliseVaried, type AxisInput, type Varied } from './axis.js'
 import { sortKeysDeep } from './canonical.js'
 import { SpecValidationError, type SpecIssue } from './errors.js'
 import { analysisIssues, normaliseAnalysis, pointsToCheck, searchesLoad } from './analysis/normalise.js'
+import { ruleLabel, type AxisValue } from './categorical.js'
 import { countPoints, gridAxes } from './grid.js'
 import { issuesFromZod, uniqueIssues } from './issues.js'
 import { domainOf, SPEC_CEILINGS, SweepSpecSchema, type ParsedSpec, type VariedPath } from './schema.js'
-import type { NormalisedCue, NormalisedFamily, NormalisedRule, NormalisedSpec } from './types.js'
+import type { ConstantRule, NormalisedCue, NormalisedFamily, NormalisedRule, NormalisedSpec } from './types.js'
 
 /** Most issues reported about the entries of supplied patterns; the rest are counted. */
 const MAX_DATA_ISSUES = 20
@@ -42,7 +43,7 @@ export function normaliseSpec (input: unknown): NormalisedSpec {
   if (presence.length > 0) fail(presence)
 
   const spec = buildNormalised(parsed.data)
-  const supplied = [...suppliedIssues(spec, parsed.data), ...analysisIssues(spec), ...precisionIssues(spec)]
+  const supplied = [...suppliedIssues(spec, parsed.data), ...crossFieldIssues(spec), ...analysisIssues(spec), ...precisionIssues(spec)]
   if (supplied.length > 0) fail(supplied)
 
   const points = countPoints(spec)
@@ -98,6 +99,9 @@ function isRecord (value: unknown): value is Record<string, unknown> {
   return value !== null && typeof value === 'object' && !Array.isArray(value)
 }
 
+/** The members that set the number of stored patterns; exactly one is given (supplied patterns: at most one). */
+const PATTERN_COUNT_FIELDS = ['patterns', 'load', 'inDegreeLoad'] as const
+
 /** Which of neurons / patterns / load must be present depends on the pattern family, so zod alone cannot say. */
 function presenceIssues (input: unknown): SpecIssue[] {
   if (!isRecord(input)) return []
@@ -105,14 +109,15 @@ function presenceIssues (input: unknown): SpecIssue[] {
   const has = (key: string) => input[key] !== undefined
   const issues: SpecIssue[] = []
   if (!has('neurons') && !supplied) issues.push({ path: 'neurons', message: 'required (the network size N), unless the patterns are supplied' })
+  const counts = PATTERN_COUNT_FIELDS.filter(has)
   if (searchesLoad(input)) {
-    const message = 'the analysis searches the load: leave out patterns and load (the range is analysis.from … analysis.to)'
-    for (const key of ['patterns', 'load']) if (has(key)) issues.push({ path: key, message })
-  } else if (has('patterns') && has('load')) {
-    const message = 'give either patterns (a count) or load (α = P/N), not both'
-    issues.push({ path: 'patterns', message }, { path: 'load', message })
-  } else if (!has('patterns') && !has('load') && !supplied) {
-    issues.push({ path: 'patterns', message: 'required: give patterns (P, a count) or load (α = P/N)' })
+    const message = 'the analysis searches the load: leave out patterns, load and inDegreeLoad (the range is analysis.from … analysis.to)'
+    for (const key of counts) issues.push({ path: key, message })
+  } else if (counts.length > 1) {
+    const message = `give one of patterns (a count), load (α = P/N) and inDegreeLoad (α_K = P/K), not ${counts.join(' and ')}`
+    for (const key of counts) issues.push({ path: key, message })
+  } else if (counts.length === 0 && !supplied) {
+    issues.push({ path: 'patterns', message: 'required: give patterns (P, a count), load (α = P/N) or, with a fixed in-degree, inDegreeLoad (α_K = P/K)' })
   }
   return issues
 }
@@ -158,13 +163,22 @@ function buildNormalised (p: ParsedSpec): NormalisedSpec {
       maxSweeps: varied('dynamics.maxSweeps', p.dynamics.maxSweeps),
       burnIn: varied('dynamics.burnIn', p.dynamics.burnIn)
     },
-    measures: { ...p.measures },
+    // Members added in format 2 are written only when not at their default, so a version 1
+    // spec normalises exactly as before and keeps its hash.
+    measures: {
+      energyTrajectory: p.measures.energyTrajectory,
+      overlapTrajectory: p.measures.overlapTrajectory,
+      stability: p.measures.stability,
+      ...(p.measures.patternOverlaps ? { patternOverlaps: true as const } : {})
+    },
     successThreshold: varied('successThreshold', p.successThreshold),
     trials: p.trials,
     trialsPerNetwork: varied('trialsPerNetwork', p.trialsPerNetwork)
   }
+  if (p.streams === 'canonical') spec.streams = 'canonical'
   if (p.patterns !== undefined) spec.patterns = varied('patterns', p.patterns)
   else if (p.load !== undefined) spec.load = varied('load', p.load)
+  else if (p.inDegreeLoad !== undefined) spec.inDegreeLoad = varied('inDegreeLoad', p.inDegreeLoad)
   else if (suppliedRows !== null) spec.patterns = suppliedRows.length
   if (p.analysis !== undefined) spec.analysis = normaliseAnalysis(p.analysis)
   if (p.precision !== undefined) spec.precision = { ...p.precision }
@@ -172,12 +186,14 @@ function buildNormalised (p: ParsedSpec): NormalisedSpec {
 }
 
 function normaliseRule (r: ParsedSpec['rule']): NormalisedRule {
+  if ('values' in r) return { values: r.values.map((entry) => ({ ...entry }) as ConstantRule) }
+  const coupling = (flag: boolean | { values: boolean[] }): boolean | { values: boolean[] } => typeof flag === 'boolean' ? flag : { values: [...flag.values] }
   switch (r.kind) {
-    case 'covariance': return { kind: 'covariance', selfCoupling: r.selfCoupling, threshold: r.threshold === null ? null : varied('rule.threshold', r.threshold) }
+    case 'covariance': return { kind: 'covariance', selfCoupling: coupling(r.selfCoupling), threshold: r.threshold === null ? null : varied('rule.threshold', r.threshold) }
     case 'dense-polynomial': return { kind: r.kind, degree: varied('rule.degree', r.degree) }
     case 'dense-exponential': return { kind: r.kind }
     case 'modern-softmax': return { kind: r.kind, beta: varied('rule.beta', r.beta) }
-    default: return { kind: r.kind, selfCoupling: r.selfCoupling }
+    default: return { kind: r.kind, selfCoupling: coupling(r.selfCoupling) }
   }
 }
 
@@ -185,8 +201,30 @@ function normaliseRule (r: ParsedSpec['rule']): NormalisedRule {
 function precisionIssues (spec: NormalisedSpec): SpecIssue[] {
   if (spec.precision === undefined) return []
   if (spec.analysis !== undefined) return [{ path: 'precision', message: 'a threshold search sets its own trials per step: precision targets apply to grid sweeps only' }]
+  if (spec.streams === 'canonical') return [{ path: 'precision', message: 'the canonical stream draws every trial of every point in one fixed order, so trials cannot be added point by point: precision targets need keyed streams' }]
   if (spec.precision.block > spec.trials) return [{ path: 'precision.block', message: `a block of ${spec.precision.block} trials does not fit the ceiling of ${spec.trials} trials per point (trials)` }]
   return []
+}
+
+/** Rules of a rule axis and flags of a self-coupling axis are distinct; inDegreeLoad needs K; canonical streams run grids. */
+function crossFieldIssues (spec: NormalisedSpec): SpecIssue[] {
+  const issues: SpecIssue[] = []
+  const rule = spec.rule
+  if ('values' in rule) {
+    const labels = rule.values.map(ruleLabel)
+    const repeated = labels.find((label, i) => labels.indexOf(label) !== i)
+    if (repeated !== undefined) issues.push({ path: 'rule.values', message: `the rules of an axis must be distinct; ${repeated} appears more than once` })
+  } else if ('selfCoupling' in rule && typeof rule.selfCoupling === 'object') {
+    const flags = rule.selfCoupling.values
+    if (new Set(flags).size !== flags.length) issues.push({ path: 'rule.selfCoupling.values', message: 'axis values must be distinct' })
+  }
+  if (spec.inDegreeLoad !== undefined && (spec.dilution === null || !('inDegree' in spec.dilution))) {
+    issues.push({ path: 'inDegreeLoad', message: 'the load per input P/K needs a fixed in-degree dilution ({ "kind": "fixed-in-degree", "inDegree": K }); use load for P/N' })
+  }
+  if (spec.streams === 'canonical' && spec.analysis !== undefined) {
+    issues.push({ path: 'streams', message: 'canonical streams run grid sweeps only; a threshold search draws each step from a stream of its own' })
+  }
+  return issues
 }
 
 /** Supplied patterns: one length for every row, matching `neurons`; entries in the coding; enough rows for `patterns`. */
@@ -232,7 +270,7 @@ function suppliedIssues (spec: NormalisedSpec, parsed: ParsedSpec): SpecIssue[] 
 interface PointProblem {
   message: string
   count: number
-  first: Record<string, number>
+  first: Record<string, AxisValue>
 }
 
 /**
@@ -241,7 +279,7 @@ interface PointProblem {
  */
 function checkEveryPoint (spec: NormalisedSpec, points: number): SpecIssue[] {
   const problems = new Map<string, PointProblem>()
-  const note = (path: string, message: string, values: Record<string, number>) => {
+  const note = (path: string, message: string, values: Record<string, AxisValue>) => {
     const known = problems.get(path)
     if (known === undefined) problems.set(path, { message, count: 1, first: values })
     else known.count++
@@ -254,6 +292,10 @@ function checkEveryPoint (spec: NormalisedSpec, points: number): SpecIssue[] {
       const pathOf = (field: string) => (end !== undefined && field === searched ? `analysis.${end}` : field)
       if (params.patterns < 1 && (spec.load !== undefined || searched === 'load')) {
         note(pathOf('load'), `load × neurons rounds to ${params.patterns} patterns; at least 1 is needed`, values)
+        continue
+      }
+      if (params.patterns < 1 && (spec.inDegreeLoad !== undefined || searched === 'inDegreeLoad')) {
+        note(pathOf('inDegreeLoad'), `inDegreeLoad × inDegree rounds to ${params.patterns} patterns; at least 1 is needed`, values)
         continue
       }
       if (params.family.kind === 'supplied' && params.patterns > params.family.data.length) {
@@ -290,9 +332,15 @@ function lightForCheck (params: PointParams, checkedCounts: Set<number>): PointP
   return { ...params, family: { kind: 'random', activity: 0.5 } }
 }
 
-/** Engine field paths are point paths; a point's `patterns` comes from `load` when the spec gives a load. */
+/**
+ * Engine field paths are point paths; a point's `patterns` comes from `load` (or
+ * `inDegreeLoad`) when the spec gives one, and a rule parameter belongs to the rule axis when
+ * the rule is one.
+ */
 function specPathOf (field: string, spec: NormalisedSpec): string {
   if (field === 'patterns' && (spec.load !== undefined || spec.analysis?.parameter === 'load')) return 'load'
+  if (field === 'patterns' && (spec.inDegreeLoad !== undefined || spec.analysis?.parameter === 'inDegreeLoad')) return 'inDegreeLoad'
+  if ((field === 'rule' || field.startsWith('rule.')) && 'values' in spec.rule) return 'rule'
   return field
 }
 
@@ -301,7 +349,7 @@ function reasonOf (error: EngineInputError): string {
   return error.message.startsWith(prefix) ? error.message.slice(prefix.length) : error.message
 }
 
-function describeValues (values: Record<string, number>): string {
+function describeValues (values: Record<string, AxisValue>): string {
   const parts = Object.entries(values).map(([k, v]) => `${k}=${v}`)
   return parts.length > 0 ? parts.join(', ') : 'the only point'
 }

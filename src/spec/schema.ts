@@ -5,13 +5,22 @@
  * engine checks) live in normalise.ts.
  */
 import { z } from 'zod'
-import { type NumericDomain, variedSchema } from './axis.js'
+import { type NumericDomain, scalarSchema, variedSchema } from './axis.js'
 import { analysisSchema } from './analysis/schema.js'
 
 // VARIABLES //
 
-/** Version of the spec format; bumped whenever a spec's meaning would change. */
-export const SPEC_FORMAT_VERSION = 1
+/**
+ * Version of the spec format; bumped whenever a spec's meaning would change. Version 2: the
+ * success threshold is also the pattern level of the end-state classes (version 1 keeps 0.9);
+ * it adds `streams`, `inDegreeLoad`, `measures.patternOverlaps` and categorical axes of the
+ * rule and its self-coupling. Version 1 specs are still accepted and keep their meaning and
+ * their hash (members added in version 2 are written only when not at their default).
+ */
+export const SPEC_FORMAT_VERSION = 2
+
+/** Spec format versions accepted. */
+export const SPEC_FORMAT_VERSIONS = [1, 2] as const
 
 /** Defaults filled in by normalisation, in one place so docs, schema and code agree. */
 export const SPEC_DEFAULTS = {
@@ -30,7 +39,9 @@ export const SPEC_DEFAULTS = {
   burnIn: 0,
   successThreshold: 0.9,
   trials: 100,
-  trialsPerNetwork: 1
+  trialsPerNetwork: 1,
+  streams: 'keyed',
+  patternOverlaps: false
 } as const
 
 /** Hard ceilings of the format itself; the service's configurable limits (work.ts) are usually tighter. */
@@ -42,7 +53,9 @@ export const SPEC_CEILINGS = {
   trialsPerNetwork: 10_000_000,
   labelLength: 200,
   /** Grid points (product of all axis lengths). */
-  points: 100_000
+  points: 100_000,
+  /** Values of a categorical axis (rules). */
+  ruleValues: 64
 } as const
 
 /**
@@ -53,6 +66,7 @@ export const VARIED_PARAMETERS = [
   { path: 'neurons', domain: { integer: true, min: 1, max: SPEC_CEILINGS.neurons } },
   { path: 'patterns', domain: { integer: true, min: 1, max: SPEC_CEILINGS.patterns } },
   { path: 'load', domain: { integer: false, min: 0, minExclusive: true, max: SPEC_CEILINGS.patterns } },
+  { path: 'inDegreeLoad', domain: { integer: false, min: 0, minExclusive: true, max: SPEC_CEILINGS.patterns } },
   { path: 'family.activity', domain: { integer: false, min: 0, minExclusive: true, max: 1, maxExclusive: true } },
   { path: 'family.parents', domain: { integer: true, min: 1, max: SPEC_CEILINGS.patterns } },
   { path: 'family.parentOverlap', domain: { integer: false, min: 0, max: 1 } },
@@ -72,6 +86,28 @@ export const VARIED_PARAMETERS = [
 
 export type VariedPath = typeof VARIED_PARAMETERS[number]['path']
 
+/**
+ * Parameters whose axis values are not numbers: the learning rule itself (each value a whole
+ * rule object with its own parameters) and its self-coupling (true/false).
+ */
+export const CATEGORICAL_PARAMETERS = ['rule', 'rule.selfCoupling'] as const
+
+export type CategoricalPath = typeof CATEGORICAL_PARAMETERS[number]
+
+/** Any parameter that may be an axis. */
+export type AxisPath = VariedPath | CategoricalPath
+
+/**
+ * Every axis path in canonical order (the grid's axis order, first = slowest, and the order of
+ * varied columns): the numeric ones of VARIED_PARAMETERS with the categorical ones placed
+ * before the rule's numeric parameters.
+ */
+export const AXIS_ORDER: readonly AxisPath[] = VARIED_PARAMETERS.flatMap((p): AxisPath[] => p.path === 'rule.threshold' ? [...CATEGORICAL_PARAMETERS, p.path] : [p.path])
+
+export function isCategoricalPath (path: string): path is CategoricalPath {
+  return (CATEGORICAL_PARAMETERS as readonly string[]).includes(path)
+}
+
 export function domainOf (path: VariedPath): NumericDomain {
   const entry = VARIED_PARAMETERS.find((p) => p.path === path)
   if (entry === undefined) throw new Error(`internal: unknown varied parameter ${path}`)
@@ -79,11 +115,22 @@ export function domainOf (path: VariedPath): NumericDomain {
 }
 
 const varied = (path: VariedPath, description: string) => variedSchema(domainOf(path), description)
+/** A numeric field that is always a number (inside a value of a categorical axis). */
+const constant = (path: VariedPath, description: string) => scalarSchema(domainOf(path)).describe(description)
 
 // MAIN //
 
-const selfCoupling = z.boolean().default(SPEC_DEFAULTS.selfCoupling)
+const selfCouplingFlag = z.boolean().default(SPEC_DEFAULTS.selfCoupling)
   .describe('Keep the diagonal couplings J_ii. Default: false.')
+
+const selfCouplingAxis = z.strictObject({
+  values: z.array(z.boolean()).min(1).max(2).describe('true, false or both, in the order given.')
+}).describe('An axis of self-coupling: { "values": [false, true] } runs every point without and with J_ii.')
+
+const selfCoupling = z.union([z.boolean(), selfCouplingAxis], {
+  error: (issue) => issue.input === undefined ? 'required' : typeof issue.input === 'object' ? undefined : 'expected true, false or an axis { "values": [false, true] }'
+}).default(SPEC_DEFAULTS.selfCoupling)
+  .describe('Keep the diagonal couplings J_ii: true, false, or an axis { "values": [false, true] }. Default: false.')
 
 const randomFamily = z.strictObject({
   kind: z.literal('random'),
@@ -107,32 +154,44 @@ const family = z.discriminatedUnion('kind', [randomFamily, correlatedFamily, sup
   .prefault({ kind: 'random' })
   .describe('How the stored patterns are drawn. Default: { "kind": "random", "activity": 0.5 }.')
 
-const plainRule = (kind: 'hebbian' | 'pseudo-inverse' | 'storkey' | 'clipped', description: string) =>
-  z.strictObject({ kind: z.literal(kind), selfCoupling }).describe(description)
+/**
+ * The learning rules, with numeric fields built by `number` (an axis-capable field at the top
+ * level, a plain number inside a value of a rule axis) and the self-coupling flag given.
+ */
+function ruleVariants<N extends z.ZodType, C extends z.ZodType> (number: (path: VariedPath, description: string) => N, coupling: C) {
+  const plainRule = (kind: 'hebbian' | 'pseudo-inverse' | 'storkey' | 'clipped', description: string) =>
+    z.strictObject({ kind: z.literal(kind), selfCoupling: coupling }).describe(description)
+  return z.discriminatedUnion('kind', [
+    plainRule('hebbian', 'Hebbian outer-product rule (Hopfield 1982).'),
+    plainRule('pseudo-inverse', 'Projection (pseudo-inverse) rule (Personnaz, Guyon & Dreyfus 1985).'),
+    plainRule('storkey', 'Storkey (1997) incremental rule.'),
+    z.strictObject({
+      kind: z.literal('covariance'),
+      selfCoupling: coupling,
+      threshold: number('rule.threshold', 'Uniform firing threshold θ in units of the local field; null uses the engine\'s activity-dependent default. Default: null.')
+        .nullable().default(SPEC_DEFAULTS.covarianceThreshold)
+    }).describe('Covariance rule for biased (sparse) patterns (Tsodyks & Feigel\'man 1988).'),
+    plainRule('clipped', 'Clipped Hebbian synapses J_ij = (√P/N) sign(Σ_μ ξ_i^μ ξ_j^μ), zero when the sum is 0 (Sompolinsky 1986).'),
+    z.strictObject({
+      kind: z.literal('dense-polynomial'),
+      degree: number('rule.degree', 'Degree n of the interaction F(x) = xⁿ, an integer in [2, 30]; n = 2 runs the Hebbian network. Required.')
+    }).describe('Dense associative memory with energy −Σ_μ (ξ^μ·σ)ⁿ (Krotov & Hopfield 2016); ±1 neurons, no dilution.'),
+    z.strictObject({ kind: z.literal('dense-exponential') })
+      .describe('Dense associative memory with energy −Σ_μ exp(ξ^μ·σ) (Demircigil et al. 2017); ±1 neurons, no dilution, temperature 0.'),
+    z.strictObject({
+      kind: z.literal('modern-softmax'),
+      beta: number('rule.beta', 'Inverse temperature β > 0 of the softmax update; the patterns have unit length. Required.')
+    }).describe('Modern continuous Hopfield network ξ ← X softmax(β Xᵀξ) (Ramsauer et al. 2021): continuous state, parallel updates (dynamics.update does not apply), temperature 0.')
+  ])
+}
 
-const rule = z.discriminatedUnion('kind', [
-  plainRule('hebbian', 'Hebbian outer-product rule (Hopfield 1982).'),
-  plainRule('pseudo-inverse', 'Projection (pseudo-inverse) rule (Personnaz, Guyon & Dreyfus 1985).'),
-  plainRule('storkey', 'Storkey (1997) incremental rule.'),
-  z.strictObject({
-    kind: z.literal('covariance'),
-    selfCoupling,
-    threshold: varied('rule.threshold', 'Uniform firing threshold θ in units of the local field; null uses the engine\'s activity-dependent default. Default: null.')
-      .nullable().default(SPEC_DEFAULTS.covarianceThreshold)
-  }).describe('Covariance rule for biased (sparse) patterns (Tsodyks & Feigel\'man 1988).'),
-  plainRule('clipped', 'Clipped Hebbian synapses J_ij = (√P/N) sign(Σ_μ ξ_i^μ ξ_j^μ), zero when the sum is 0 (Sompolinsky 1986).'),
-  z.strictObject({
-    kind: z.literal('dense-polynomial'),
-    degree: varied('rule.degree', 'Degree n of the interaction F(x) = xⁿ, an integer in [2, 30]; n = 2 runs the Hebbian network. Required.')
-  }).describe('Dense associative memory with energy −Σ_μ (ξ^μ·σ)ⁿ (Krotov & Hopfield 2016); ±1 neurons, no dilution.'),
-  z.strictObject({ kind: z.literal('dense-exponential') })
-    .describe('Dense associative memory with energy −Σ_μ exp(ξ^μ·σ) (Demircigil et al. 2017); ±1 neurons, no dilution, temperature 0.'),
-  z.strictObject({
-    kind: z.literal('modern-softmax'),
-    beta: varied('rule.beta', 'Inverse temperature β > 0 of the softmax update; the patterns have unit length. Required.')
-  }).describe('Modern continuous Hopfield network ξ ← X softmax(β Xᵀξ) (Ramsauer et al. 2021): continuous state, parallel updates (dynamics.update does not apply), temperature 0.')
-]).prefault({ kind: 'hebbian' })
-  .describe('Learning rule that turns the patterns into couplings. Default: { "kind": "hebbian", "selfCoupling": false }.')
+const ruleAxis = z.strictObject({
+  values: z.array(ruleVariants(constant, selfCouplingFlag)).min(1).max(SPEC_CEILINGS.ruleValues)
+    .describe('The rules to compare, each a rule object as above with plain numbers for its parameters (no axes inside), distinct, in the order given.')
+}).describe('An axis of learning rules: every point runs once with each rule, e.g. { "values": [{ "kind": "hebbian" }, { "kind": "storkey" }, { "kind": "pseudo-inverse" }] }.')
+
+const rule = z.union([ruleVariants(varied, selfCoupling), ruleAxis]).prefault({ kind: 'hebbian' })
+  .describe('Learning rule that turns the patterns into couplings, or an axis of rules ({ "values": [rule, …] }). Default: { "kind": "hebbian", "selfCoupling": false }.')
 
 const randomDilution = z.strictObject({
   kind: z.literal('random').optional()
@@ -144,7 +203,7 @@ const randomDilution = z.strictObject({
 
 const inDegreeDilution = z.strictObject({
   kind: z.literal('fixed-in-degree'),
-  inDegree: varied('dilution.inDegree', 'K, the inputs of every neuron (distinct other neurons, drawn independently per neuron), in [1, N − 1]; the load that matters is P/K. Required.')
+  inDegree: varied('dilution.inDegree', 'K, the inputs of every neuron (distinct other neurons, drawn independently per neuron), in [1, N − 1]; the load that matters is P/K (give it as `inDegreeLoad` to hold it fixed while K varies). Required.')
 }).describe('Extremely diluted asymmetric network (Derrida, Gardner & Zippelius 1987): hebbian or clipped rule, ±1 neurons, no self-coupling; held as adjacency lists.')
 
 const dilution = z.discriminatedUnion('kind', [randomDilution, inDegreeDilution]).nullable().default(null)
@@ -185,19 +244,21 @@ const dynamics = z.strictObject({
 const measures = z.strictObject({
   overlapTrajectory: z.boolean().default(false).describe('Record the target overlap after every sweep. Default: false.'),
   energyTrajectory: z.boolean().default(false).describe('Record the energy per neuron after every sweep. Default: false.'),
-  stability: z.boolean().default(false).describe('Measure the one-step stability of every stored pattern, once per network. Default: false.')
+  stability: z.boolean().default(false).describe('Measure the one-step stability of every stored pattern, once per network. Default: false.'),
+  patternOverlaps: z.boolean().default(SPEC_DEFAULTS.patternOverlaps).describe('Measure the overlaps between the stored patterns of every network (mean, mean |C|, rms, largest |C| over all pairs, beside what the pattern family implies); costs O(N·P²/2) per network. Default: false.')
 }).prefault({}).describe('Optional extra measurements.')
 
 export const SweepSpecSchema = z.strictObject({
-  version: z.literal(SPEC_FORMAT_VERSION).default(SPEC_FORMAT_VERSION)
-    .describe(`Spec format version. Default: ${SPEC_FORMAT_VERSION}.`),
+  version: z.literal(SPEC_FORMAT_VERSIONS, { error: `expected a spec format version: ${SPEC_FORMAT_VERSIONS.join(' or ')}` }).default(SPEC_FORMAT_VERSION)
+    .describe(`Spec format version: ${SPEC_FORMAT_VERSIONS.join(' or ')}. Version 1 classifies end states with the pattern level 0.9 whatever the success threshold; version 2 uses the success threshold. Default: ${SPEC_FORMAT_VERSION}.`),
   label: z.string().max(SPEC_CEILINGS.labelLength).nullable().default(null)
     .describe('Free text to recognise the sweep by; not part of the work, so not part of the spec hash. Default: null.'),
   seed: z.int().min(0).default(SPEC_DEFAULTS.seed)
     .describe('Master seed; with the rest of the spec it fixes every random draw. Default: 1.'),
   neurons: varied('neurons', 'N, the number of neurons. Required unless the patterns are supplied (then it is their length).').optional(),
   patterns: varied('patterns', 'P, the number of stored patterns. Give exactly one of patterns and load (supplied patterns: at most one; default all rows).').optional(),
-  load: varied('load', 'Load α = P/N; each point stores P = round(α·N) patterns. Give exactly one of patterns and load.').optional(),
+  load: varied('load', 'Load α = P/N; each point stores P = round(α·N) patterns. Give exactly one of patterns, load and inDegreeLoad.').optional(),
+  inDegreeLoad: varied('inDegreeLoad', 'Load per input α_K = P/K under a fixed in-degree dilution: each point stores P = round(α_K·K) patterns, so an axis of K holds P/K fixed. Give exactly one of patterns, load and inDegreeLoad.').optional(),
   coding: z.enum(['pm1', 'binary']).default(SPEC_DEFAULTS.coding)
     .describe('Neuron values: pm1 (−1/+1) or binary (0/1). Default: pm1.'),
   family,
@@ -212,6 +273,8 @@ export const SweepSpecSchema = z.strictObject({
     .describe(`Trials (recall attempts) per grid point; with an analysis, per evaluated value of the searched parameter. Default: ${SPEC_DEFAULTS.trials}.`),
   trialsPerNetwork: varied('trialsPerNetwork', 'Consecutive trials that share one network (pattern set and couplings); 1 draws a new network for every trial. Default: 1.')
     .default(SPEC_DEFAULTS.trialsPerNetwork),
+  streams: z.enum(['keyed', 'canonical']).default(SPEC_DEFAULTS.streams)
+    .describe('Random streams. keyed: a stream per network and per trial, keyed by the seed and the point\'s parameters (any trial re-runs alone; chunks run in parallel). canonical: one xoshiro256** stream seeded from `seed` through SplitMix64, drawn through the points in grid order and their trials in order, exactly as the shared benchmark\'s reference programs draw (docs/canonical-stream.md); the sweep runs as one sequential chunk. Default: keyed.'),
   analysis: analysisSchema(VARIED_PARAMETERS).optional(),
   precision: z.strictObject({
     measure: z.enum(['success', 'overlap'])

@@ -7,7 +7,7 @@ import { estimatePointCost, type PointParams } from '../engine/index.js'
 import { pointsToCheck } from './analysis/normalise.js'
 import { searchTrialBudget } from './analysis/budget.js'
 import { WorkLimitError, type WorkLimitName } from './errors.js'
-import { countPoints, gridAxes, pointAt } from './grid.js'
+import { countPoints, numericAxes, pointAt } from './grid.js'
 import type { NormalisedSpec } from './types.js'
 
 // VARIABLES //
@@ -205,6 +205,6 @@ function exceeds (limit: WorkLimitName, value: number, max: number): void {
 
 function largestNeurons (spec: NormalisedSpec): number {
   if (typeof spec.neurons === 'number') return spec.neurons
-  const axis = gridAxes(spec).find((a) => a.path === 'neurons')
+  const axis = numericAxes(spec).find((a) => a.path === 'neurons')
   return axis === undefined ? 0 : Math.max(...axis.values)
 }

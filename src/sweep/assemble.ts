@@ -8,6 +8,7 @@
 import { aggregatePoint, ENGINE_TIE_RULE, ENGINE_VERSION, RNG_ALGORITHM, theoryForPoint, type TrialRecord } from '../engine/index.js'
 import { canonicalJson, countPoints, pointAt, sortKeysDeep, specHash, type NormalisedSpec } from '../spec/index.js'
 import type { Provenance, ResultRow, SweepResult } from '../results/types.js'
+import { rowParams } from '../results/row-params.js'
 import type { RuntimeFacts } from '../runtime/facts.js'
 import { assembleSearches } from './analysis/assemble-searches.js'
 import { decodeValue } from './codec.js'
@@ -58,7 +59,8 @@ export function assembleStored (spec: NormalisedSpec, plan: readonly Chunk[], st
   const missing = plan.filter((chunk) => !bodies.has(chunk.index))
   if (missing.length > 0) throw new IncompleteResultError([`${missing.length} of ${plan.length} chunks are not stored (first: ${missing[0]!.index})`])
   const decode = (chunk: Chunk): ChunkResult => ({ ...decodeValue<ChunkResult>(bodies.get(chunk.index)!), chunk: chunk.index, point: chunk.point })
-  if (spec.analysis !== undefined) return { ...assembleResult(spec, plan.map(decode), provenance), trials: [] }
+  // A search's chunk is its whole result; the canonical stream's one chunk holds every point.
+  if (spec.analysis !== undefined || spec.streams === 'canonical') return { ...assembleResult(spec, plan.map(decode), provenance), trials: [] }
 
   const hash = specHash(spec)
   if (provenance.specHash !== hash) throw new RangeError(`invalid argument. The provenance is for spec ${provenance.specHash}, not ${hash}.`)
@@ -97,6 +99,10 @@ export function assemblePartial (spec: NormalisedSpec, plan: readonly Chunk[], s
   }
   const points = countPoints(spec)
   const rows: ResultRow[] = []
+  if (spec.streams === 'canonical') {
+    const whole = plan.every((chunk) => bodies.has(chunk.index)) ? assembleStored(spec, plan, stored, provenance).rows : []
+    return { specHash: hash, spec, rows: whole, trials: [], provenance: sortKeysDeep(provenance), partial: { pointsDone: whole.length, pointsTotal: points } }
+  }
   if (spec.analysis === undefined) {
     for (let point = 0; point < points; point++) {
       const planned = chunksOfPoint.get(point) ?? []
@@ -149,7 +155,7 @@ function resultRow (spec: NormalisedSpec, point: number, pointTrials: readonly T
   return {
     point,
     values,
-    params: { alpha: params.patterns / params.neurons, neurons: params.neurons, patterns: params.patterns },
+    params: rowParams(params),
     summary,
     theory: sortKeysDeep(theory.values),
     theoryUnavailable: sortKeysDeep(theory.unavailable),
@@ -198,6 +204,7 @@ function placePointTrials (spec: NormalisedSpec, point: number, chunkResults: re
 }
 
 function placeTrials (spec: NormalisedSpec, chunkResults: readonly ChunkResult[]): TrialRecord[][] {
+  if (spec.streams === 'canonical') chunkResults = splitCanonical(spec, chunkResults)
   const points = countPoints(spec)
   const problems: string[] = []
   const byPoint: ChunkResult[][] = Array.from({ length: points }, () => [])
@@ -241,4 +248,13 @@ function fillSlot (point: number, slot: Array<TrialRecord | undefined>, chunkRes
   for (let t = 0; t < trials; t++) if (slot[t] === undefined) missing++
   if (missing > 0) problems.push(`point ${point} is missing ${missing} of ${trials} trials`)
   return problems
+}
+
+/** The canonical chunk holds every point's trials in grid order: as one result per point. */
+function splitCanonical (spec: NormalisedSpec, chunkResults: readonly ChunkResult[]): ChunkResult[] {
+  return chunkResults.flatMap((result) => Array.from({ length: countPoints(spec) }, (_, point) => ({
+    chunk: result.chunk,
+    point,
+    trials: result.trials.slice(point * spec.trials, (point + 1) * spec.trials)
+  })))
 }

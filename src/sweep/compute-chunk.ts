@@ -11,7 +11,8 @@
  * still give exactly the numbers of a fresh run.
  */
 import { createHash } from 'node:crypto'
-import { createPointRunner, type PointParams, type TrialRecord } from '../engine/index.js'
+import { createPointRunner, keyedParams, Xoshiro256StarStar, type PointParams, type TrialRecord } from '../engine/index.js'
+import { countPoints } from '../spec/index.js'
 import { canonicalJson, pointAt, type NormalisedSpec, type SearchPayload } from '../spec/index.js'
 import { runSearchChunk } from './analysis/run-search.js'
 import { ChunkCanceledError } from './errors.js'
@@ -50,9 +51,9 @@ export interface ComputeChunkOptions {
 
 // MAIN //
 
-/** The stream key of a grid point: a function of its model parameters only. */
+/** The stream key of a grid point: a function of its model parameters only (output-only members left out: keyedParams). */
 export function pointStreamKey (params: PointParams): number {
-  const digest = createHash('sha256').update(canonicalJson(params)).digest()
+  const digest = createHash('sha256').update(canonicalJson(keyedParams(params))).digest()
   // 52 bits: the top 4 bits of byte 0, then bytes 1-6.
   const high = digest[0]! & 0x0f
   let low = 0
@@ -68,6 +69,7 @@ export function pointStreamKey (params: PointParams): number {
  */
 export function computeChunk (spec: NormalisedSpec, chunk: Chunk, opts: ComputeChunkOptions = {}): ChunkResult {
   if (spec.analysis !== undefined) return runSearchChunk(spec, spec.analysis, chunk, opts)
+  if (spec.streams === 'canonical') return computeCanonicalChunk(spec, chunk, opts)
   if (!(Number.isSafeInteger(chunk.firstTrial) && chunk.firstTrial >= 0) ||
       !(Number.isSafeInteger(chunk.count) && chunk.count >= 1) ||
       chunk.firstTrial + chunk.count > spec.trials) {
@@ -84,4 +86,35 @@ export function computeChunk (spec: NormalisedSpec, chunk: Chunk, opts: ComputeC
   return runner.fastPath === null
     ? { chunk: chunk.index, point: chunk.point, trials }
     : { chunk: chunk.index, point: chunk.point, trials, fastPath: runner.fastPath }
+}
+
+/**
+ * A sweep on the canonical stream (docs/canonical-stream.md): one xoshiro256** stream seeded
+ * with the spec's seed (SplitMix64 fills its state), drawn through the points in grid order
+ * and each point's trials in order, a network drawn just before its first trial. The chunk
+ * holds every trial of every point, in that order.
+ *
+ * @throws {ChunkCanceledError} when `shouldStop` returns true before a trial.
+ * @throws {RangeError} when the chunk is not the sweep's one canonical chunk.
+ */
+function computeCanonicalChunk (spec: NormalisedSpec, chunk: Chunk, opts: ComputeChunkOptions): ChunkResult {
+  const points = countPoints(spec)
+  if (chunk.point !== 0 || chunk.firstTrial !== 0 || chunk.count !== points * spec.trials) {
+    throw new RangeError(`invalid argument. Chunk ${JSON.stringify(chunk)} is not the canonical chunk of ${points} points × ${spec.trials} trials.`)
+  }
+  const stream = Xoshiro256StarStar.fromSeed(BigInt(spec.seed))
+  const trials: TrialRecord[] = []
+  const fastPaths = new Set<string>()
+  for (let point = 0; point < points; point++) {
+    const runner = createPointRunner(pointAt(spec, point).params, spec.seed, 0, { reclaim: opts.reclaim, stream })
+    for (let t = 0; t < spec.trials; t++) {
+      if (opts.shouldStop?.() === true) throw new ChunkCanceledError(chunk.index, trials.length)
+      trials.push(runner.runTrial(t))
+      opts.onTrial?.(trials.length)
+    }
+    if (runner.fastPath !== null) fastPaths.add(runner.fastPath)
+  }
+  return fastPaths.size === 0
+    ? { chunk: chunk.index, point: 0, trials }
+    : { chunk: chunk.index, point: 0, trials, fastPath: [...fastPaths].sort().join(', ') }
 }

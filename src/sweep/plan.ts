@@ -15,7 +15,8 @@ import type { NormalisedSpec } from '../spec/index.js'
 /**
  * Version of the plan format. Version 1: chunks are runs of consecutive trials of one grid
  * point; a threshold search is one chunk per point of the outer grid holding the search's
- * whole trial budget.
+ * whole trial budget; a sweep on the canonical stream is one chunk (point 0, every trial of
+ * every point in grid order).
  */
 export const PLAN_VERSION = 1
 
@@ -43,12 +44,21 @@ export interface SweepPlan {
  * at least one network, so no network is built twice.
  */
 export function planSweep (spec: NormalisedSpec): SweepPlan {
+  if (spec.streams === 'canonical') return { version: PLAN_VERSION, chunks: [canonicalChunk(spec)] }
   return { version: PLAN_VERSION, chunks: spec.analysis === undefined ? gridChunks(spec) : searchChunks(spec) }
 }
 
 /** Trials a grid point is planned for at submission: all of them, or with precision targets its first block. */
 export function initialTrials (spec: NormalisedSpec): number {
   return spec.precision === undefined ? spec.trials : Math.min(spec.precision.block, spec.trials)
+}
+
+/**
+ * The canonical stream is one sequence of draws through every point and trial in order, so
+ * its sweep cannot be cut: one chunk, counted at point 0, holding points × trials trials.
+ */
+export function canonicalChunk (spec: NormalisedSpec): Chunk {
+  return { index: 0, point: 0, firstTrial: 0, count: countPoints(spec) * spec.trials }
 }
 
 function gridChunks (spec: NormalisedSpec): Chunk[] {
@@ -102,7 +112,7 @@ export interface PlanWithReuse {
  * next stored range. Every trial is covered exactly once, so the result is that of a fresh run.
  */
 export function planWithReuse (spec: NormalisedSpec, available: (point: number) => readonly ReusableRange[]): PlanWithReuse {
-  if (spec.analysis !== undefined) return { plan: planSweep(spec), inherit: [] }
+  if (spec.analysis !== undefined || spec.streams === 'canonical') return { plan: planSweep(spec), inherit: [] }
   const chunks: Chunk[] = []
   const inherit: PlanWithReuse['inherit'] = []
   const trials = initialTrials(spec)
@@ -140,6 +150,13 @@ function searchChunks (spec: NormalisedSpec): Chunk[] {
  */
 export function checkPlan (spec: NormalisedSpec, plan: SweepPlan): void {
   if (plan.version !== PLAN_VERSION) throw new RangeError(`invalid argument. Plan version ${plan.version} is not supported (this code runs version ${PLAN_VERSION}).`)
+  if (spec.streams === 'canonical') {
+    const only = canonicalChunk(spec)
+    if (plan.chunks.length !== 1 || JSON.stringify(plan.chunks[0]) !== JSON.stringify(only)) {
+      throw new RangeError(`invalid argument. A sweep on the canonical stream is the one chunk ${JSON.stringify(only)}.`)
+    }
+    return
+  }
   const points = countPoints(spec)
   const perPoint = spec.analysis === undefined ? initialTrials(spec) : searchTrialBudget(spec, spec.analysis)
   const covered = new Float64Array(points)

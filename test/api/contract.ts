@@ -9,6 +9,7 @@ import { resultsContract } from './contract/results.js'
 import { sweepContract } from './contract/sweeps.js'
 import { tokensContract } from './contract/tokens.js'
 import { operationsContract } from './contract/operations.js'
+import { measuresContract } from './contract/measures.js'
 
 export type { QueueFactory } from './helpers/harness.js'
 
@@ -19,4 +20,5 @@ export function defineApiContract (factory: QueueFactory): void {
   errorsContract(factory)
   tokensContract(factory)
   operationsContract(factory)
+  measuresContract(factory)
 }

@@ -5,6 +5,7 @@ import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { normaliseSpec, specHash } from '../../src/spec/index.js'
 import { cli } from './helpers.js'
+import { C_REFERENCE, CANONICAL_WORKLOADS } from '../api/contract/measures.js'
 
 /** Place-cell population codes of the rooms of a flat, recalled from noisy cues. */
 const spec = { label: 'rooms of a flat', neurons: 120, load: { values: [0.05, 0.1, 0.15] }, cue: { kind: 'flip', fraction: 0.15 }, trials: 30, seed: 8 }
@@ -62,5 +63,43 @@ describe('memsweep run', () => {
     const res = await cli(['run', join(dir, 'spec.json'), '-o', join(dir, 'never.csv'), '--threads', '1'], { signal: interrupt.signal })
     expect(res.code).toBe(1)
     await expect(readFile(join(dir, 'never.csv'))).rejects.toThrow()
+  })
+})
+
+describe('memsweep run, format-2 options', () => {
+  it('reproduces the benchmark reference workloads on the canonical stream, in this process and on threads', async () => {
+    // The C reference program's outputs for seed 1 (shared bench RESULTS.md; measured
+    // regression references, not published values), as in test/api/contract/measures.ts.
+    await writeFile(join(dir, 'w1.json'), JSON.stringify(CANONICAL_WORKLOADS.W1))
+    await writeFile(join(dir, 'w2.json'), JSON.stringify(CANONICAL_WORKLOADS.W2))
+    const w1 = await cli(['run', join(dir, 'w1.json'), '-o', join(dir, 'w1.json.out.json'), '--threads', '1'])
+    expect(w1.code, w1.stderr).toBe(0)
+    const [row] = JSON.parse(await readFile(join(dir, 'w1.json.out.json'), 'utf8')).rows
+    expect(row.summary.overlap.mean.toFixed(6)).toBe(C_REFERENCE.W1.meanOverlap)
+    expect(row.summary.sweeps.mean).toBe(C_REFERENCE.W1.meanSweeps)
+    for (const threads of ['1', '2']) {
+      const w2 = await cli(['run', join(dir, 'w2.json'), '-o', join(dir, `w2-${threads}.json`), '--threads', threads])
+      expect(w2.code, w2.stderr).toBe(0)
+      const rows = JSON.parse(await readFile(join(dir, `w2-${threads}.json`), 'utf8')).rows
+      expect(rows.map((r: { summary: { success: { rate: number } } }) => r.summary.success.rate)).toEqual(C_REFERENCE.W2.success)
+    }
+  })
+
+  it('writes the trajectory series with --series trajectory, and refuses it up front for a sweep without trajectories', async () => {
+    await writeFile(join(dir, 'traj.json'), JSON.stringify({ ...spec, measures: { overlapTrajectory: true }, trials: 6 }))
+    const res = await cli(['run', join(dir, 'traj.json'), '-o', join(dir, 'traj.csv'), '--threads', '1', '--series', 'trajectory'])
+    expect(res.code, res.stderr).toBe(0)
+    const lines = (await readFile(join(dir, 'traj.csv'), 'utf8')).trimEnd().split('\r\n')
+    expect(lines[0]).toBe('point,load,neurons,patterns,alpha,sweep,running,overlap.mean,overlap.sd,overlap.se')
+    expect(lines[1]).toMatch(/^0,0\.05,120,6,0\.05,0,6,0\.70*1?,/)
+    const none = await cli(['run', join(dir, 'spec.json'), '-o', join(dir, 'none.csv'), '--series', 'trajectory'])
+    expect(none.code).toBe(2)
+    expect(none.stderr).toMatch(/No trajectory series: .*measures\.overlapTrajectory/)
+    expect(none.stderr).not.toContain('grid point(s)')
+    const both = await cli(['run', join(dir, 'traj.json'), '-o', join(dir, 'both.csv'), '--series', 'trajectory', '--trials'])
+    expect(both.code).toBe(2)
+    const unknown = await cli(['run', join(dir, 'traj.json'), '-o', join(dir, 'u.csv'), '--series', 'energy'])
+    expect(unknown.code).toBe(2)
+    expect(unknown.stderr).toContain('--series must be one of trajectory')
   })
 })

@@ -41,6 +41,17 @@ describe('memsweep submit', () => {
     expect(await readFile(join(dir, 'out.csv'), 'utf8')).toBe(served.body)
   })
 
+  it('downloads the trajectory series with --series trajectory, as the server serves it', async () => {
+    await writeFile(join(dir, 'traj.json'), JSON.stringify({ ...spec, measures: { overlapTrajectory: true }, trials: 5 }))
+    const res = await cli(['submit', join(dir, 'traj.json'), '--server', url, '--output', join(dir, 'traj.csv'), '--series', 'trajectory'], { env: { MEMSWEEP_TOKEN: TOKEN } })
+    expect(res.code, res.stderr).toBe(0)
+    const served = await h.app.inject({ method: 'GET', url: `/v1/sweeps/${res.stdout.trim()}/results?format=csv&series=trajectory`, headers: { authorization: `Bearer ${TOKEN}` } })
+    expect(served.statusCode).toBe(200)
+    const written = await readFile(join(dir, 'traj.csv'), 'utf8')
+    expect(written).toBe(served.body)
+    expect(written.split('\r\n')[0]).toContain('sweep,running,overlap.mean')
+  })
+
   it('without --wait prints the id and returns at once', async () => {
     const res = await cli(['submit', join(dir, 'spec.json'), '--server', url, '--token', TOKEN])
     expect(res.code).toBe(0)

@@ -119,7 +119,7 @@ describe('error bars', () => {
     }
   })
 
-  it('of the stability measure come from the per-network records', () => {
+  it('of the stability measure come from the spread over networks (in the row, equal to the per-network records)', () => {
     const result = runSweep({ neurons: 60, load: { values: [0.1, 0.2, 0.3] }, measures: { stability: true }, dynamics: { maxSweeps: 1 }, trials: 6, seed: 5 })
     const points = drawnPoints(parseSvg(renderFigure(result, { measure: 'unstableFraction', errorBars: 'sd' })))
     expect(points).toHaveLength(3)
@@ -133,11 +133,15 @@ describe('error bars', () => {
       expect(p.high!).toBeCloseTo(Math.min(1, p.y + sd), 12)
       expect(p.low!).toBeCloseTo(Math.max(0, p.y - sd), 12)
     }
-    // Without per-trial records (a results file without trials) there is no spread to show.
+    // The row holds the spread itself, so a results file without trials draws the same bars.
     const { trials: _dropped, ...withoutTrials } = result
-    const bare = parseSvg(renderFigure(withoutTrials as SweepResult, { measure: 'unstableFraction' }))
-    expect(drawnPoints(bare).every((p) => p.low === null)).toBe(true)
-    expect(noteText(bare)).toContain('No error bars')
+    const bare = drawnPoints(parseSvg(renderFigure(withoutTrials as SweepResult, { measure: 'unstableFraction', errorBars: 'sd' })))
+    expect(bare.map((p) => [p.low, p.high])).toEqual(points.map((p) => [p.low, p.high]))
+    // Rows of results made before the spread was kept fall back to the records, and without them show none.
+    const oldRows = { ...withoutTrials, rows: result.rows.map((row) => ({ ...row, summary: { ...row.summary, stability: { ...row.summary.stability!, sd: undefined, se: undefined } } })) }
+    const old = parseSvg(renderFigure(oldRows as unknown as SweepResult, { measure: 'unstableFraction' }))
+    expect(drawnPoints(old).every((p) => p.low === null)).toBe(true)
+    expect(noteText(old)).toContain('No error bars')
   })
 })
 
@@ -260,5 +264,38 @@ describe('the document', () => {
     const doc = parseSvg(renderFigure(rooms, { width: 900, height: 500 }))
     expect(num(doc.documentElement!, 'width')).toBe(900)
     expect(doc.documentElement!.getAttribute('viewBox')).toBe('0 0 900 500')
+  })
+})
+
+describe('categorical axes', () => {
+  it('split series by the rule and by the self-coupling, labelled in words', () => {
+    const result = runSweep({
+      neurons: 60,
+      load: { values: [0.05, 0.1, 0.15] },
+      rule: { values: [{ kind: 'hebbian' }, { kind: 'storkey' }, { kind: 'pseudo-inverse', selfCoupling: true }] },
+      trials: 4,
+      seed: 9
+    })
+    const doc = parseSvg(renderFigure(result, { measure: 'success', theory: false }))
+    const series = byClass(doc, 'series', 'g')
+    expect(series.map((s) => s.getAttribute('data-label'))).toEqual(['Hebbian rule', 'Storkey rule', 'pseudo-inverse rule (J_ii kept)'])
+    for (const [i, s] of series.entries()) {
+      const rows = result.rows.filter((row) => row.values.rule === ['hebbian', 'storkey', 'pseudo-inverse(selfCoupling=true)'][i])
+      expect(drawnPoints(doc).filter((p) => p.series === i).map((p) => p.point)).toEqual(rows.map((row) => row.point))
+      expect(s.getAttribute('data-label')).not.toBe('Simulation')
+    }
+    const coupling = runSweep({ neurons: 60, load: { values: [0.05, 0.1] }, rule: { kind: 'hebbian', selfCoupling: { values: [false, true] } }, trials: 4, seed: 9 })
+    const labels = byClass(parseSvg(renderFigure(coupling, { theory: false, series: 'rule.selfCoupling' })), 'series', 'g').map((s) => s.getAttribute('data-label'))
+    expect(labels).toEqual(['J_ii = 0', 'J_ii kept'])
+  })
+
+  it('draw the overlaps between stored patterns as a measure, when the sweep measured them', () => {
+    const result = runSweep({ neurons: 100, patterns: { values: [4, 8, 16] }, measures: { patternOverlaps: true }, trials: 6, seed: 10 })
+    const points = drawnPoints(parseSvg(renderFigure(result, { measure: 'patternOverlapMaxAbs', errorBars: 'se' })))
+    expect(points.map((p) => p.y)).toEqual(result.rows.map((row) => row.summary.patternOverlaps!.maxAbs.mean))
+    expect(points.map((p) => p.n)).toEqual([6, 6, 6])
+    expect(points[0]!.high! - points[0]!.y).toBeCloseTo(result.rows[0]!.summary.patternOverlaps!.maxAbs.se, 12)
+    const plain = runSweep({ neurons: 100, patterns: { values: [4, 8] }, trials: 2, seed: 10 })
+    expect(() => renderFigure(plain, { measure: 'patternOverlapMeanAbs' })).toThrow(/measures\.patternOverlaps/)
   })
 })

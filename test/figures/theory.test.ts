@@ -8,6 +8,7 @@ import {
   crosstalkErrorGaussian, curieWeissOverlap, firstParallelStep, rsCriticalLoad, rsRetrievalOverlap
 } from '../../src/engine/index.js'
 import { renderFigure } from '../../src/figures/index.js'
+import { richTextWidth } from '../../src/figures/rich-text.js'
 import type { Document, Element } from '@xmldom/xmldom'
 import { byClass, parseSvg, runSweep } from './helpers.js'
 
@@ -131,5 +132,40 @@ describe('theory overlays', () => {
     const [segment] = curvePoints(overlays(doc).find((g) => g.getAttribute('data-theory') === 'retrievalOverlapRS')!)
     const ratios = segment!.slice(2, -1).map(([x], i) => x / segment![i + 1]![0])
     for (const r of ratios) expect(r).toBeCloseTo(ratios[0]!, 9)
+  })
+
+  it('mark the retrieval temperature T_M(α) on a temperature axis, one line per load, with annotations that never overlap', () => {
+    // The replica-symmetric retrieval line of AGS 1987 (values checked in test/engine/theory).
+    const result = runSweep({
+      neurons: 100,
+      load: { values: [0.03, 0.05, 0.07] },
+      cue: { kind: 'flip', fraction: 0 },
+      dynamics: { temperature: { values: [0.1, 0.4, 0.7] }, maxSweeps: 4, burnIn: 1 },
+      trials: 2,
+      seed: 8
+    })
+    const doc = parseSvg(renderFigure(result, { measure: 'success', x: 'dynamics.temperature' }))
+    const lines = overlays(doc).filter((g) => g.getAttribute('data-theory') === 'retrievalTemperature')
+    expect(lines).toHaveLength(3)
+    const expected = result.rows.filter((row) => row.values['dynamics.temperature'] === 0.4).map((row) => row.theory.retrievalTemperature)
+    expect(lines.map((g) => g.getAttribute('data-series'))).toEqual(['0', '1', '2'])
+    expect(new Set(expected).size).toBe(3)
+    // Three lines about 0.06 apart on a 0.6-wide axis: values only, none drawn over another.
+    const annotations = byClass(doc, 'annotation').map((a) => {
+      const width = richTextWidth(a.getAttribute('data-label')!, Number(a.getAttribute('font-size')))
+      return { left: Number(a.getAttribute('x')) - width / 2, right: Number(a.getAttribute('x')) + width / 2, text: a.getAttribute('data-label')! }
+    })
+    expect(annotations.length).toBeGreaterThan(0)
+    for (const a of annotations) expect(a.text).toMatch(/^0\.\d+$/)
+    for (let i = 1; i < annotations.length; i++) expect(annotations[i]!.left).toBeGreaterThan(annotations[i - 1]!.right)
+    // On a load axis the same sweep gets no temperature line.
+    expect(overlays(parseSvg(renderFigure(result, { measure: 'success', x: 'load' }))).some((g) => g.getAttribute('data-theory') === 'retrievalTemperature')).toBe(false)
+  })
+
+  it('join the finite-temperature RS overlaps per point on a load axis at T > 0 (the dense curve is the T = 0 branch)', () => {
+    const warm = runSweep({ neurons: 100, load: { values: [0.03, 0.06, 0.09] }, dynamics: { temperature: 0.3, maxSweeps: 4, burnIn: 1 }, trials: 2, seed: 12 })
+    const rs = overlays(parseSvg(renderFigure(warm, { measure: 'overlap' }))).find((g) => g.getAttribute('data-theory') === 'retrievalOverlapRS')!
+    expect(rs.getAttribute('data-kind')).toBe('per-point')
+    expect(curvePoints(rs).flat().map(([, y]) => y)).toEqual(warm.rows.map((row) => row.theory.retrievalOverlapRS))
   })
 })

@@ -102,7 +102,14 @@ describe('spec hash', () => {
   it('stays the same across releases for a fixed spec', () => {
     expect(specHash(normaliseSpec(base))).toBe(GOLDEN_HASH)
   })
+
+  it('keeps the hash of a format-1 spec through the format-2 release (new members left out at their defaults)', () => {
+    expect(specHash(normaliseSpec({ ...base, version: 1 }))).toBe(GOLDEN_HASH_FORMAT_1)
+    expect(specHash(normaliseSpec({ ...base, version: 1, streams: 'keyed', measures: { patternOverlaps: false } }))).toBe(GOLDEN_HASH_FORMAT_1)
+  })
 })
 
 // Cross-checked with Python: hashlib.sha256(json.dumps(spec_without_label, sort_keys=True, separators=(',', ':')))
-const GOLDEN_HASH = '4dd59b6e4c6c5c9402b5fc860b5991d452e96ec543dd454ed9c673b10bb9fd66'
+const GOLDEN_HASH = '7a7949bfba44105a09e65cdb4f081048e65e550c47bc3c2b1c64c1273feb1ca0'
+/** The same spec's hash in format 1 (the golden hash of the releases before format 2). */
+const GOLDEN_HASH_FORMAT_1 = '4dd59b6e4c6c5c9402b5fc860b5991d452e96ec543dd454ed9c673b10bb9fd66'

@@ -32,7 +32,7 @@ describe('defaults', () => {
       successThreshold: 0.9,
       trials: 100,
       trialsPerNetwork: 1,
-      version: 1
+      version: 2
     })
     expect(Object.keys(spec)).toEqual(Object.keys(spec).sort())
   })
@@ -113,7 +113,8 @@ describe('strictness', () => {
 
   it('refuses a spec that is not an object, and a wrong format version', () => {
     expect(paths(42)).toEqual([''])
-    expect(paths({ version: 2, neurons: 100, patterns: 5 })).toEqual(['version'])
+    expect(paths({ version: 3, neurons: 100, patterns: 5 })).toEqual(['version'])
+    expect(issuesOf({ version: 0, neurons: 100, patterns: 5 })).toEqual([{ path: 'version', message: 'expected a spec format version: 1 or 2' }])
   })
 })
 

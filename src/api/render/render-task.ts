@@ -5,6 +5,7 @@
  */
 import type { EncodedResult, StoredProgress } from '../../backends/port.js'
 import type { FigureIssue, FigureOptions } from '../../figures/index.js'
+import type { ResultSeries } from '../../results/index.js'
 
 export type ResultFormat = 'json' | 'csv'
 
@@ -19,6 +20,8 @@ export interface RenderResultTask {
   format: ResultFormat
   perTrial: boolean
   timing: boolean
+  /** Another series instead of the rows (see RESULT_SERIES); the route has checked the sweep records it. */
+  series: ResultSeries | null
 }
 
 export interface RenderFigureTask {

@@ -6,7 +6,7 @@
  */
 import { createHash } from 'node:crypto'
 import { FigureOptionsError, renderFigure } from '../../figures/index.js'
-import { resultToCsv, resultToJson, type SweepResult } from '../../results/index.js'
+import { resultToCsv, resultToJson, trajectoryCsv, trajectoryJson, type SweepResult } from '../../results/index.js'
 import { assemblePartial, decodeValue, makeProvenance, storedTrials } from '../../sweep/index.js'
 import { runtimeFacts } from '../../runtime/facts.js'
 import type { EncodedResult } from '../../backends/port.js'
@@ -15,9 +15,11 @@ import type { RenderOutcome, RenderSource, RenderTask } from './render-task.js'
 export default function render (task: RenderTask): RenderOutcome {
   if (task.kind === 'result') {
     const result = read(task.source)
-    const text = task.format === 'csv'
-      ? resultToCsv(result, { perTrial: task.perTrial })
-      : resultToJson(result, { perTrial: task.perTrial, timing: task.timing })
+    const text = task.series === 'trajectory'
+      ? (task.format === 'csv' ? trajectoryCsv(result) : trajectoryJson(result))
+      : task.format === 'csv'
+        ? resultToCsv(result, { perTrial: task.perTrial })
+        : resultToJson(result, { perTrial: task.perTrial, timing: task.timing })
     return rendered(Buffer.from(text, 'utf8'))
   }
   try {

@@ -3,10 +3,12 @@ import { z } from 'zod'
 import type { FastifyReply } from 'fastify'
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod'
 import { ServiceError } from '../../errors.js'
+import { RESULT_SERIES, TRAJECTORY_PADDING, trajectoryUnavailable } from '../../results/index.js'
 import { negotiate } from '../negotiate.js'
+import { fieldIssue, listedIssues } from '../problem-reply.js'
 import { ifNoneMatchHits, sweepPath } from '../presenters.js'
 import { problemResponses } from '../schemas/problem.js'
-import { sweepResultSchema } from '../schemas/result.js'
+import { sweepResultSchema, trajectorySeriesSchema } from '../schemas/result.js'
 import { sweepIdSchema } from '../schemas/sweep.js'
 import { visibleSweep, type RouteContext } from './context.js'
 
@@ -23,7 +25,8 @@ const resultsQuery = z.object({
   format: z.enum(['json', 'csv']).optional().describe('Overrides the Accept header.'),
   trials: z.enum(['true', 'false']).optional().describe('true: one record per trial (JSON: a `trials` member; CSV: one row per trial). Default: false (one row per grid point).'),
   timing: z.enum(['true', 'false']).optional().describe('JSON only. true: include the run timing (wallSeconds, cpuSeconds, workers) in the provenance. Default false, so the bytes depend on the spec and the code only.'),
-  partial: z.enum(['true', 'false']).optional().describe('true: for a sweep that has not succeeded (running, canceled, failed), the rows of the points finished so far, marked as partial (JSON: a `partial` member; CSV: the header `Memsweep-Partial: <points done>/<points>` and a file name ending in -partial). A succeeded sweep answers its full result. Not with trials=true.')
+  partial: z.enum(['true', 'false']).optional().describe('true: for a sweep that has not succeeded (running, canceled, failed), the rows of the points finished so far, marked as partial (JSON: a `partial` member; CSV: the header `Memsweep-Partial: <points done>/<points>` and a file name ending in -partial). A succeeded sweep answers its full result. Not with trials=true.'),
+  series: z.enum(RESULT_SERIES).optional().describe(`Another series instead of the rows. trajectory: the mean overlap (and energy) trajectory of every grid point with its spread, as long-format CSV (one row per point and sweep: point, the varied parameters, neurons, patterns, alpha, sweep, running, overlap.mean|sd|se, energy.mean|sd|se) or JSON ({ specHash, series, padding, points: [{ point, values, params, overlap, energy }] }); needs measures.overlapTrajectory or energyTrajectory in the spec (else 400 naming \`series\`); not with trials=true. ${TRAJECTORY_PADDING}`)
 })
 
 interface Rendered { body: Buffer, etag: string }
@@ -61,6 +64,10 @@ function sendBytes (reply: FastifyReply, body: Buffer): FastifyReply {
   return reply.send(body)
 }
 
+function seriesProblem (message: string): ServiceError {
+  return new ServiceError('MEMSWEEP_MALFORMED_REQUEST', { reason: `invalid query parameter series: ${message}` }, { extensions: listedIssues([{ ...fieldIssue(['series'], message), path: 'querystring.series' }]) })
+}
+
 export const resultRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx) => {
   const cache = new RenderedCache(64 * 1024 * 1024)
 
@@ -68,7 +75,7 @@ export const resultRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
     schema: {
       operationId: 'getSweepResults',
       summary: 'Results of a succeeded sweep (JSON or CSV)',
-      description: 'JSON by default; CSV with `Accept: text/csv` or `?format=csv`. One row per grid point with the varied parameters, aggregated measures with uncertainties and the theory values that apply; `?trials=true` for per-trial rows. An analysis (threshold search) gives `searches` (and `scaling` when asked for) in JSON; its CSV has one row per search, or with `?trials=true` one row per evaluated step (searches keep per-step summaries, not per-trial records; scaling fits are JSON-only). A strong ETag (sha256 of the bytes) supports If-None-Match → 304. 409 while the sweep has not succeeded; 422 (limit maxTrialRows) for per-trial rows of sweeps over a million trials.',
+      description: 'JSON by default; CSV with `Accept: text/csv` or `?format=csv`. One row per grid point with the varied parameters, aggregated measures with uncertainties and the theory values that apply; `?trials=true` for per-trial rows; `?series=trajectory` for the mean trajectories per point (long-format CSV, or JSON). An analysis (threshold search) gives `searches` (and `scaling` when asked for) in JSON; its CSV has one row per search, or with `?trials=true` one row per evaluated step (searches keep per-step summaries, not per-trial records; scaling fits are JSON-only). A strong ETag (sha256 of the bytes) supports If-None-Match → 304. 409 while the sweep has not succeeded; 422 (limit maxTrialRows) for per-trial rows of sweeps over a million trials.',
       tags: ['sweeps'],
       params: z.object({ id: sweepIdSchema }),
       querystring: resultsQuery,
@@ -76,7 +83,7 @@ export const resultRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
         200: {
           description: 'The results.',
           content: {
-            'application/json': { schema: sweepResultSchema },
+            'application/json': { schema: z.union([sweepResultSchema, trajectorySeriesSchema]).describe('The result (SweepResult), or with ?series=trajectory the trajectory series (TrajectorySeries).') },
             'text/csv': { schema: z.string().describe('RFC 4180 CSV with a header row; CRLF line ends.') }
           }
         },
@@ -117,13 +124,19 @@ export const resultRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
       throw new ServiceError('MEMSWEEP_RESULTS_UNAVAILABLE', { id, status: record.status }, { extensions: { sweepId: id } })
     }
     const timing = request.query.timing === 'true'
-    const key = `${id}\u0000${format}\u0000${perTrial ? 1 : 0}\u0000${timing ? 1 : 0}`
+    const series = request.query.series ?? null
+    if (series !== null && perTrial) throw seriesProblem('a series replaces the rows, so it cannot be combined with trials=true')
+    const key = `${id}\u0000${format}\u0000${perTrial ? 1 : 0}\u0000${timing ? 1 : 0}\u0000${series ?? ''}`
     let rendered = cache.get(key)
     if (rendered === undefined) {
+      if (series !== null) {
+        const missing = trajectoryUnavailable(record.spec)
+        if (missing !== null) throw seriesProblem(missing)
+      }
       const stored = await ctx.queue.encodedResult(id, { trials: perTrial })
       if (stored === null) throw new Error(`sweep ${id} succeeded but the backend has no result for it`)
       // Decoding, rendering and hashing happen on the rendering thread: other requests go on meanwhile.
-      const outcome = await ctx.render.render({ kind: 'result', source: { kind: 'result', stored }, format, perTrial, timing })
+      const outcome = await ctx.render.render({ kind: 'result', source: { kind: 'result', stored }, format, perTrial, timing, series })
       if (outcome.kind !== 'rendered') throw new Error(`rendering sweep ${id} answered ${outcome.kind}`)
       rendered = { body: Buffer.from(outcome.body.buffer, outcome.body.byteOffset, outcome.body.byteLength), etag: outcome.etag }
       cache.set(key, rendered)
@@ -134,7 +147,7 @@ export const resultRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
       .header('cache-control', 'private, max-age=86400, immutable')
     if (ifNoneMatchHits(request.headers['if-none-match'], rendered.etag)) return reply.code(304).send()
     if (format === 'csv') {
-      const name = `memsweep-${id}${perTrial ? '-trials' : ''}.csv`
+      const name = `memsweep-${id}${perTrial ? '-trials' : ''}${series !== null ? `-${series}` : ''}.csv`
       reply.header('content-disposition', `attachment; filename="${name}"`)
       return sendBytes(reply.type('text/csv; charset=utf-8; header=present'), rendered.body)
     }
@@ -144,7 +157,7 @@ export const resultRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
     async function sendPartial (sweepId: string, as: Format): Promise<FastifyReply> {
       const progress = await ctx.queue.storedProgress(sweepId)
       if (progress === null) throw new ServiceError('MEMSWEEP_SWEEP_NOT_FOUND', { id: sweepId })
-      const outcome = await ctx.render.render({ kind: 'result', source: { kind: 'partial', progress }, format: as, perTrial: false, timing: false })
+      const outcome = await ctx.render.render({ kind: 'result', source: { kind: 'partial', progress }, format: as, perTrial: false, timing: false, series: null })
       if (outcome.kind !== 'rendered') throw new Error(`rendering sweep ${sweepId} answered ${outcome.kind}`)
       const body = Buffer.from(outcome.body.buffer, outcome.body.byteOffset, outcome.body.byteLength)
       const done = new Set(progress.chunks.map((chunk) => chunk.index))

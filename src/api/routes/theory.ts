@@ -5,13 +5,13 @@ import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod'
 import { theoryForPoint } from '../../engine/index.js'
 import { checkLimits, countPoints, normaliseSpec, pointsToCheck, specHash, SweepSpecSchema } from '../../spec/index.js'
 import { problemResponses } from '../schemas/problem.js'
-import { theoryUnavailableSchema } from '../schemas/result.js'
+import { axisValuesSchema, theoryUnavailableSchema } from '../schemas/result.js'
 import { specBodyValidator, type RouteContext } from './context.js'
 
 const theoryPointSchema = z.object({
   point: z.number().int().describe('Grid point index (the last axis varies fastest). For an analysis: the search, i.e. the point of the grid of the other varied parameters.'),
   end: z.enum(['from', 'to']).optional().describe('Analysis specs only: the end of the searched range this row is evaluated at (its realised value is in `values` under the searched parameter). Every step of the search lies between the two ends.'),
-  values: z.record(z.string(), z.number()).describe('The varied parameters at this point, by path.'),
+  values: axisValuesSchema,
   params: z.object({
     neurons: z.number().int(),
     patterns: z.number().int(),

@@ -21,7 +21,7 @@ const crossingFit = z.object({
 const fittedValue = z.object({ value: z.number(), se: stat.describe('Standard error (null when fixed).') })
 
 const scalingRow = z.object({
-  values: z.record(z.string(), z.number()).describe("The varied parameters other than neurons shared by this fit's searches ({} when only N varies)."),
+  values: z.record(z.string(), z.union([z.number(), z.string(), z.boolean()])).describe("The varied parameters other than neurons shared by this fit's searches ({} when only N varies); a rule axis gives the rule's label."),
   form: z.enum(['power', 'linear-inverse']),
   fit: z.object({
     form: z.enum(['power', 'linear-inverse']),
@@ -64,7 +64,7 @@ export function analysisResultSchemas (pointSummary: z.ZodType) {
 
   const searchRow = z.object({
     search: z.number().int().describe('Index of the search: its point in the grid of the other varied parameters.'),
-    values: z.record(z.string(), z.number()).describe('The other varied parameters of this search, by path.'),
+    values: z.record(z.string(), z.union([z.number(), z.string(), z.boolean()])).describe('The other varied parameters of this search, by path (a rule axis gives the rule\'s label).'),
     neurons: z.number().int(),
     estimate: stat.describe('The fitted value of the searched parameter at which the measure crosses the level; null when the range holds no crossing or no fit was possible (see note).'),
     low: stat.describe('Lower end of the confidence interval (analysis.confidence); null when the data do not bound it.'),

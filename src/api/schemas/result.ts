@@ -4,7 +4,7 @@
  * themselves come from the spec layer unchanged, so their hash is a stable ETag.
  */
 import { z } from 'zod'
-import { END_STATES, ENDINGS, UNAVAILABLE_REASONS, UNAVAILABLE_REASON_CODES } from '../../engine/index.js'
+import { END_STATE_DEFINITIONS, END_STATES, ENDINGS, UNAVAILABLE_REASONS, UNAVAILABLE_REASON_CODES } from '../../engine/index.js'
 import { analysisResultSchemas } from './analysis-result.js'
 
 const stat = z.number().nullable()
@@ -15,14 +15,55 @@ const meanWithError = z.object({
   se: stat.describe('Standard error of the mean.')
 }).meta({ id: 'MeanWithError' })
 
+/** The varied parameters at a point: numbers, a rule axis' labels, a self-coupling axis' flags. */
+export const axisValuesSchema = z.record(z.string(), z.union([z.number(), z.string(), z.boolean()]))
+  .describe('The varied parameters at this point, by path: numbers; a rule axis gives the rule\'s label (its kind, then its parameters not at their defaults, e.g. `dense-polynomial(degree=3)`), a self-coupling axis true or false.')
+
 const countsOf = (names: readonly string[]) => z.object(Object.fromEntries(names.map((n) => [n, z.number().int()])))
+
+const stabilityFractions = {
+  unstableFraction: stat.describe('Fraction of (pattern, neuron) pairs with ξ_i h_i < 0 when the network sits on the pattern.'),
+  tieFraction: stat.describe('Fraction with h_i = 0 exactly (kept by the tie rule).'),
+  fixedPatternFraction: stat.describe('Fraction of stored patterns that are exact fixed points.')
+}
 
 const stabilitySummary = z.object({
   networks: z.number().int(),
-  unstableFraction: stat,
-  tieFraction: stat,
-  fixedPatternFraction: stat
-})
+  ...stabilityFractions,
+  sd: z.object(stabilityFractions).describe('Sample standard deviation of each fraction over networks.'),
+  se: z.object(stabilityFractions).describe('Standard error of each mean over networks (sd/√networks).')
+}).describe('Means over the networks whose stability was measured.')
+
+/** The end-state classes with their rules (docs/end-states.md). */
+const endStateList = END_STATES.map((s) => `\`${s}\`: ${END_STATE_DEFINITIONS[s]}`).join('; ')
+
+const sharesOf = (names: readonly string[]) => z.object(Object.fromEntries(names.map((n) => [n, stat])))
+
+const trajectorySummary = z.object({
+  firstSweep: z.number().int().describe('The sweep of index 0 (0 for the overlap, whose sweep 0 is the cue; 1 for the energy).'),
+  mean: z.array(stat),
+  sd: z.array(stat),
+  se: z.array(stat),
+  running: z.array(z.number().int()).describe('Trials still running at each sweep.')
+}).describe('Mean trajectory over the point\'s trials, index k = sweep firstSweep + k. A trial that stopped before the longest one holds its last value from then on.')
+  .meta({ id: 'TrajectorySummary' })
+
+const patternOverlapExpectation = z.object({
+  mean: stat.describe('Expected mean C: (2a − 1)² for random patterns of activity a; for correlated families q² over same-parent pairs, 0 over the others, averaged over the pairs.'),
+  rms: stat.describe('√(expected mean C²): 1/√N for independent unbiased patterns.'),
+  meanAbs: stat.describe('Expected mean |C| (independent unbiased patterns only, exact binomial).'),
+  maxAbs: stat.describe('Median of the largest |C| over the pairs (independent unbiased patterns only; pairs treated as independent).')
+}).describe('What the pattern family implies; null where it implies nothing (supplied patterns) or no closed form is given.')
+
+const patternOverlapSummary = z.object({
+  networks: z.number().int(),
+  pairs: z.number().int().describe('Pairs μ < ν per network.'),
+  mean: meanWithError.describe('Mean of C_μν = (1/N) ξ^μ·ξ^ν over the pairs, averaged over networks.'),
+  meanAbs: meanWithError.describe('Mean |C| over the pairs.'),
+  rms: meanWithError.describe('Root mean square of C over the pairs.'),
+  maxAbs: meanWithError.describe('Largest |C| over the pairs.'),
+  expected: patternOverlapExpectation
+}).describe('Overlaps between the stored patterns of each network (measures.patternOverlaps).')
 
 export const pointSummarySchema = z.object({
   trials: z.number().int(),
@@ -37,8 +78,16 @@ export const pointSummarySchema = z.object({
   maxOtherOverlap: meanWithError,
   energy: meanWithError.describe('Energy per neuron of the final state.'),
   endings: countsOf(ENDINGS).describe('How the dynamics ended: fixed point, 2-cycle, sweep limit, or sampled (T > 0).'),
-  endStates: countsOf(END_STATES).describe('Where the final state sits: target, reversed target, another pattern, a mixture, or elsewhere.'),
-  stability: stabilitySummary.nullable().describe('One-step stability of the stored patterns (when measured).')
+  endStates: countsOf(END_STATES).describe(`Trials per end-state class of the final state (T > 0: of the time-averaged overlaps). ${endStateList}.`),
+  stability: stabilitySummary.nullable().describe('One-step stability of the stored patterns (when measured).'),
+  endStateShares: sharesOf(END_STATES).optional().describe('T > 0 only: the mean over trials of the fraction of measured sweeps (after burn-in) spent in each class.'),
+  finalEndStates: countsOf(END_STATES).optional().describe('T > 0 only: trials per class of the state after the last sweep.'),
+  finalMaxOtherOverlap: meanWithError.optional().describe('T > 0 only: the largest other overlap of the state after the last sweep (maxOtherOverlap is its time average).'),
+  finalEnergy: meanWithError.optional().describe('T > 0 only: the energy of the state after the last sweep (energy is its time average).'),
+  componentOverlaps: z.array(meanWithError).optional().describe('Mixture cues only: the overlap with each component, target first (final; T > 0: time-averaged).'),
+  overlapTrajectory: trajectorySummary.optional().describe('With measures.overlapTrajectory: the mean target overlap after each sweep, sweep 0 being the cue.'),
+  energyTrajectory: trajectorySummary.optional().describe('With measures.energyTrajectory: the mean energy after each sweep, from sweep 1.'),
+  patternOverlaps: patternOverlapSummary.optional()
 }).meta({ id: 'PointSummary' })
 
 /** Why a theory value is missing at a point: a stable code, each explained in the description. */
@@ -51,8 +100,13 @@ export const theoryUnavailableSchema = z.record(z.string(), unavailableReasonSch
 
 export const resultRowSchema = z.object({
   point: z.number().int(),
-  values: z.record(z.string(), z.number()).describe('The varied parameters at this point, by path.'),
-  params: z.object({ alpha: z.number(), neurons: z.number().int(), patterns: z.number().int() }),
+  values: axisValuesSchema,
+  params: z.object({
+    alpha: z.number().describe('Realised load per neuron P/N.'),
+    neurons: z.number().int(),
+    patterns: z.number().int(),
+    inDegreeLoad: z.number().optional().describe('Under a fixed in-degree K only: the realised load per input P/K, the load that matters there.')
+  }),
   summary: pointSummarySchema,
   theory: z.record(z.string(), stat).describe('Theory values that hold at this point, by name; {} when none does.'),
   theoryUnavailable: theoryUnavailableSchema
@@ -63,12 +117,19 @@ export const trialRecordSchema = z.object({
   target: z.number().int(),
   initialOverlap: stat,
   overlap: stat,
-  maxOtherOverlap: stat,
+  maxOtherOverlap: stat.describe('Largest |overlap| with another pattern (T > 0: time average over the measured sweeps).'),
   sweeps: z.number().int(),
   ending: z.enum(ENDINGS),
-  energy: stat,
-  endState: z.enum(END_STATES),
+  energy: stat.describe('Energy of the final state (T > 0: time average over the measured sweeps).'),
+  endState: z.enum(END_STATES).describe('End-state class of the final overlaps (T > 0: of the time-averaged overlaps).'),
+  endStateShares: sharesOf(END_STATES).optional().describe('T > 0 only: fraction of the measured sweeps in each class.'),
+  finalEndState: z.enum(END_STATES).optional().describe('T > 0 only: class of the state after the last sweep.'),
+  finalMaxOtherOverlap: stat.optional().describe('T > 0 only: largest other overlap after the last sweep.'),
+  finalEnergy: stat.optional().describe('T > 0 only: energy after the last sweep.'),
+  componentOverlaps: z.array(stat).optional().describe('Mixture cues only: overlap with each component, target first.'),
   stability: z.object({ unstableFraction: stat, tieFraction: stat, fixedPatternFraction: stat }).optional(),
+  patternOverlaps: z.object({ pairs: z.number().int(), mean: stat, meanAbs: stat, rms: stat, maxAbs: stat }).optional()
+    .describe('First trial of each network, with measures.patternOverlaps: the overlaps between its stored patterns.'),
   overlapTrajectory: z.array(stat).optional(),
   energyTrajectory: z.array(stat).optional()
 }).meta({ id: 'TrialRecord' })
@@ -89,6 +150,20 @@ export const provenanceSchema = z.looseObject({
   .meta({ id: 'Provenance' })
 
 const { searchRow: searchRowSchema, scalingRow: scalingRowSchema } = analysisResultSchemas(pointSummarySchema)
+
+/** `?series=trajectory` as JSON: the rows' mean trajectories, one entry per grid point. */
+export const trajectorySeriesSchema = z.object({
+  specHash: z.string(),
+  series: z.literal('trajectory'),
+  padding: z.string().describe('How a trial that stopped early is extended, in words.'),
+  points: z.array(z.object({
+    point: z.number().int(),
+    values: axisValuesSchema,
+    params: resultRowSchema.shape.params,
+    overlap: trajectorySummary.nullable().describe('The mean target overlap after each sweep (sweep 0: the cue); null when not recorded.'),
+    energy: trajectorySummary.nullable().describe('The mean energy after each sweep, from sweep 1; null when not recorded.')
+  })).describe('One entry per grid point, in grid order.')
+}).meta({ id: 'TrajectorySeries' })
 
 export const sweepResultSchema = z.object({
   specHash: z.string(),

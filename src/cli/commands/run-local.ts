@@ -14,7 +14,7 @@ import {
   assembleStored, makeProvenance, planSweep, progressCounters, runChunk, storedTrials, systemCauseOf, systemFailure, userFailure, type StoredChunk
 } from '../../sweep/index.js'
 import { runtimeFacts } from '../../runtime/facts.js'
-import { resultToCsv, resultToJson, type SweepResult } from '../../results/index.js'
+import { RESULT_SERIES, resultToCsv, resultToJson, trajectoryCsv, trajectoryJson, trajectoryUnavailable, type SweepResult } from '../../results/index.js'
 import { CliError, EXIT, say, type CliIo } from '../io.js'
 import { createProgressReporter, type ProgressReporter } from '../progress.js'
 import { outputFormat, readSpecFile } from '../spec-file.js'
@@ -26,6 +26,8 @@ export interface RunLocalOptions {
   output: string
   format?: string
   trials?: boolean
+  /** Write this series (`trajectory`) instead of the rows. */
+  series?: string
   threads?: number
   signal?: AbortSignal
 }
@@ -36,6 +38,7 @@ export function describeSpecProblems (error: SpecValidationError): string {
 
 export async function runLocal (io: CliIo, specPath: string, options: RunLocalOptions): Promise<number> {
   const format = outputFormat(options.output, options.format)
+  const series = checkSeries(options.series, options.trials)
   const threads = options.threads ?? availableParallelism()
   if (!Number.isInteger(threads) || threads < 1) throw new CliError(`--threads must be a positive integer, not ${String(options.threads)}.`, EXIT.refused)
   let spec: NormalisedSpec
@@ -45,6 +48,8 @@ export async function runLocal (io: CliIo, specPath: string, options: RunLocalOp
     if (error instanceof SpecValidationError) throw new CliError(describeSpecProblems(error), EXIT.refused)
     throw error
   }
+  const missing = series === null ? null : trajectoryUnavailable(spec)
+  if (missing !== null) throw new CliError(`No trajectory series: ${missing}.`, EXIT.refused)
   const work = estimateWork(spec)
   say(io, `${work.points} grid point(s) × ${work.trialsPerPoint} trials = ${work.trials} trials; about ${formatSeconds(work.cpuSeconds)} of CPU, ${formatBytes(work.peakBytes)} per thread; ${threads} thread(s).`)
   const progress = createProgressReporter(io, spec.label ?? 'sweep')
@@ -55,7 +60,7 @@ export async function runLocal (io: CliIo, specPath: string, options: RunLocalOp
     progress.stop()
   }
   const perTrial = options.trials === true
-  await writeFileAtomically(options.output, format === 'csv' ? resultToCsv(result, { perTrial }) : resultToJson(result, { perTrial }))
+  await writeFileAtomically(options.output, series !== null ? seriesText(result, format) : format === 'csv' ? resultToCsv(result, { perTrial }) : resultToJson(result, { perTrial }))
   say(io, `Results written to ${options.output}.`)
   return EXIT.ok
 }
@@ -129,6 +134,18 @@ async function runOnThreads (spec: NormalisedSpec, threads: number, progress: Pr
     await queue.close()
     await rm(dataDir, { recursive: true, force: true })
   }
+}
+
+/** The --series option, checked before any work: a known series, and not with --trials. */
+export function checkSeries (series: string | undefined, trials: boolean | undefined): 'trajectory' | null {
+  if (series === undefined) return null
+  if (!(RESULT_SERIES as readonly string[]).includes(series)) throw new CliError(`--series must be one of ${RESULT_SERIES.join(', ')}, not ${series}.`, EXIT.refused)
+  if (trials === true) throw new CliError('--series replaces the rows, so it cannot be combined with --trials.', EXIT.refused)
+  return 'trajectory'
+}
+
+function seriesText (result: SweepResult, format: 'csv' | 'json'): string {
+  return format === 'csv' ? trajectoryCsv(result) : trajectoryJson(result)
 }
 
 function formatSeconds (seconds: number): string {

@@ -18,6 +18,8 @@ export interface SubmitOptions {
   output?: string
   format?: string
   trials?: boolean
+  /** Download this series (`trajectory`) instead of the rows. */
+  series?: string
   reuse?: boolean
   idempotencyKey?: string
   /** Seconds between status reads when the event stream is unavailable. */
@@ -45,6 +47,7 @@ export async function submit (io: CliIo, specPath: string, options: SubmitOption
   if (options.output !== undefined && format !== null) {
     const query = new URLSearchParams({ format })
     if (options.trials === true) query.set('trials', 'true')
+    if (options.series !== undefined) query.set('series', options.series)
     const response = await client.fetch(`/v1/sweeps/${encodeURIComponent(final.id)}/results?${query.toString()}`)
     await writeFileAtomically(options.output, new Uint8Array(await response.arrayBuffer()))
     say(io, `Results written to ${options.output}.`)

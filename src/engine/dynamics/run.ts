@@ -19,6 +19,8 @@ export interface Observation {
   targetOverlap: () => number
   recordOverlap: boolean
   recordEnergy: boolean
+  /** T > 0: called after each measured sweep (after burn-in), for time averages of other measures. */
+  sample?: () => void
 }
 
 /**
@@ -60,6 +62,7 @@ export function runDynamics (net: Network, dynamics: Dynamics, rng: RandomSource
     if (sweep > dynamics.burnIn) {
       sampledSum += observe.targetOverlap()
       sampledCount++
+      observe.sample?.()
     }
   }
   // A fast path may run a whole asynchronous Glauber trial, stopping after each sweep to observe.

@@ -9,6 +9,8 @@ export interface Scratch {
   previous: Int8Array
   fields: Float64Array
   overlaps: Float64Array
+  /** T > 0: sums of every overlap over the measured sweeps (trial-measures.ts). */
+  overlapSums: Float64Array
 }
 
 export function createScratch (neurons: number, patterns: number): Scratch {
@@ -19,7 +21,8 @@ export function createScratch (neurons: number, patterns: number): Scratch {
     next: new Int8Array(neurons),
     previous: new Int8Array(neurons),
     fields: new Float64Array(neurons),
-    overlaps: new Float64Array(patterns)
+    overlaps: new Float64Array(patterns),
+    overlapSums: new Float64Array(patterns)
   }
 }
 

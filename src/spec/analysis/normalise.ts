@@ -5,7 +5,7 @@
  */
 import { roundToSignificant, domainViolation } from '../axis.js'
 import type { SpecIssue } from '../errors.js'
-import { gridAxes, pointAt, variedAt, type GridPoint } from '../grid.js'
+import { numericAxes, pointAt, variedAt, type GridPoint } from '../grid.js'
 import { domainOf, type VariedPath } from '../schema.js'
 import type { NormalisedSpec } from '../types.js'
 import { ANALYSIS_DEFAULTS } from './schema.js'
@@ -31,10 +31,12 @@ export function normaliseAnalysis (parsed: ParsedThresholdAnalysis): NormalisedA
   return { ...parsed, tolerance, scaling: parsed.scaling === null ? null : { ...parsed.scaling } }
 }
 
-/** Does the raw input ask for a search over the load (so neither patterns nor load may be given)? */
+/** Does the raw input ask for a search over a load, P/N or P/K (so no pattern count may be given)? */
 export function searchesLoad (input: Record<string, unknown>): boolean {
   const analysis = input.analysis
-  return analysis !== null && typeof analysis === 'object' && (analysis as Record<string, unknown>).parameter === 'load'
+  if (analysis === null || typeof analysis !== 'object') return false
+  const parameter = (analysis as Record<string, unknown>).parameter
+  return parameter === 'load' || parameter === 'inDegreeLoad'
 }
 
 /** Cross-field problems of a normalised spec's analysis, each at the field to change. */
@@ -44,13 +46,15 @@ export function analysisIssues (spec: NormalisedSpec): SpecIssue[] {
   const issues: SpecIssue[] = []
   const at = (field: string, message: string) => issues.push({ path: `analysis.${field}`, message })
   const path = a.parameter as VariedPath
-  const field = path === 'load' ? undefined : variedAt(spec, path)
-  if (path !== 'load' && (field === undefined || (field === null && path !== 'rule.threshold'))) {
+  const isLoad = path === 'load' || path === 'inDegreeLoad'
+  const field = isLoad ? undefined : variedAt(spec, path)
+  if (!isLoad && (field === undefined || (field === null && path !== 'rule.threshold'))) {
     at('parameter', `this spec has no ${path} to search (${describeMissing(path)})`)
   } else if (field !== undefined && field !== null && typeof field === 'object') {
     issues.push({ path, message: 'is searched by the analysis, so it cannot also be an axis; give its range as analysis.from … analysis.to' })
   }
-  if (path === 'load' && spec.family.kind === 'supplied') at('parameter', 'a load search draws its patterns; it cannot run on supplied patterns')
+  if (isLoad && spec.family.kind === 'supplied') at('parameter', 'a load search draws its patterns; it cannot run on supplied patterns')
+  if (path === 'inDegreeLoad' && (spec.dilution === null || !('inDegree' in spec.dilution))) at('parameter', 'the load per input P/K needs a fixed in-degree dilution; search load for P/N')
   if (!(a.from < a.to)) at('to', `must be greater than from (${a.from})`)
   for (const end of ['from', 'to'] as const) {
     const violation = domainViolation(a[end], domainOf(path))
@@ -59,7 +63,7 @@ export function analysisIssues (spec: NormalisedSpec): SpecIssue[] {
   if (a.from < a.to && !(a.tolerance < a.to - a.from)) at('tolerance', `must be smaller than the range to − from = ${roundToSignificant(a.to - a.from)}`)
   if (a.measure === 'success' && !(a.level > 0 && a.level < 1)) at('level', 'a success rate level must lie strictly between 0 and 1')
   if (a.scaling !== null) {
-    const sizes = gridAxes(spec).find((axis) => axis.path === 'neurons')?.values.length ?? 1
+    const sizes = numericAxes(spec).find((axis) => axis.path === 'neurons')?.values.length ?? 1
     const needed = a.scaling.form === 'power' && a.scaling.exponent === null ? 4 : 3
     if (sizes < needed) {
       at('scaling', `needs neurons as an axis of at least ${needed} sizes${needed === 4 ? ' (the exponent is fitted; fix it to need only 3)' : ''}; this spec has ${sizes}`)

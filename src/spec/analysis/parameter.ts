@@ -16,6 +16,7 @@ import { patternsForLoad } from '../grid.js'
  */
 export function realisedValue (parameter: string, params: PointParams, x: number): number {
   if (parameter === 'load') return patternsForLoad(x, params.neurons) / params.neurons
+  if (parameter === 'inDegreeLoad') return patternsForLoad(x, inDegreeOf(params)) / inDegreeOf(params)
   if (parameter === 'cue.fraction') return Math.round(x * params.neurons) / params.neurons
   return roundToSignificant(x)
 }
@@ -23,12 +24,14 @@ export function realisedValue (parameter: string, params: PointParams, x: number
 /**
  * The point's parameters with the searched one set to `x`. PointParams mirror the spec's
  * paths (family.activity, dilution.keep, cue.fraction, …), so any searchable path is set
- * by walking it, copying only the objects on the way; `load` sets the pattern count.
+ * by walking it, copying only the objects on the way; `load` and `inDegreeLoad` set the
+ * pattern count.
  *
  * @throws {Error} when the point has no field at `parameter` (validation rules that out).
  */
 export function withParameter (params: PointParams, parameter: string, x: number): PointParams {
   if (parameter === 'load') return { ...params, patterns: patternsForLoad(x, params.neurons) }
+  if (parameter === 'inDegreeLoad') return { ...params, patterns: patternsForLoad(x, inDegreeOf(params)) }
   const keys = parameter.split('.')
   const copy: Record<string, unknown> = { ...params }
   let node = copy
@@ -43,4 +46,10 @@ export function withParameter (params: PointParams, parameter: string, x: number
   if (typeof node[last] !== 'number' && node[last] !== null) throw new Error(`internal: the point has no numeric field ${parameter}`)
   node[last] = x
   return copy as unknown as PointParams
+}
+
+/** K of a fixed in-degree dilution (validation makes sure an inDegreeLoad point has one). */
+function inDegreeOf (params: PointParams): number {
+  if (params.dilution?.kind !== 'fixed-in-degree') throw new Error('internal: inDegreeLoad needs a fixed in-degree dilution')
+  return params.dilution.inDegree
 }

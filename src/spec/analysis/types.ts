@@ -1,4 +1,5 @@
 /** The normalised `analysis` member of a spec, and what a search chunk and an assembled search hold. */
+import type { AxisValue } from '../categorical.js'
 import type { CrossingEstimate, Direction, FiniteSizeFit, SearchMeasure, StopReason } from '../../engine/analysis/index.js'
 import type { PointSummary } from '../../engine/index.js'
 
@@ -47,8 +48,8 @@ export interface SearchPayload {
 export interface SearchRow extends SearchPayload {
   /** Index of the search = its point in the grid of the other varied parameters. */
   search: number
-  /** The other varied parameters of this search, by path. */
-  values: Record<string, number>
+  /** The other varied parameters of this search, by path (a rule axis gives the rule's label). */
+  values: Record<string, AxisValue>
   neurons: number
   stepsUsed: number
   trialsUsed: number
@@ -66,7 +67,7 @@ export interface ScalingReference {
 
 export interface ScalingRow {
   /** The varied parameters other than `neurons` shared by the searches of this fit ({} when only N varies). */
-  values: Record<string, number>
+  values: Record<string, AxisValue>
   form: NormalisedScaling['form']
   /** The fit, or null when too few searches gave a bounded estimate. */
   fit: (FiniteSizeFit & { limitInterval: { low: number, high: number, confidence: number } }) | null

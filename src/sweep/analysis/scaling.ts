@@ -33,7 +33,7 @@ export function scalingRows (spec: NormalisedSpec, analysis: NormalisedAnalysis,
   const scaling = analysis.scaling
   if (scaling === null) return []
   const z = normalQuantile(1 - (1 - analysis.confidence) / 2, 0, 1)
-  const groups = new Map<string, { values: Record<string, number>, members: SearchRow[] }>()
+  const groups = new Map<string, { values: SearchRow['values'], members: SearchRow[] }>()
   for (const row of searches) {
     const { neurons: _neurons, ...others } = row.values
     const key = canonicalJson(others)

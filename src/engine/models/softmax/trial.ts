@@ -3,7 +3,8 @@ import type { StabilityRecord, TrialRecord } from '../../results.js'
 import type { RandomSource } from '../../random/source.js'
 import { createScratch, type Scratch } from '../../dynamics/scratch.js'
 import { writeCue } from '../../dynamics/cue.js'
-import { classifyEndState, maxOtherOverlap } from '../../measures.js'
+import { maxOtherOverlap } from '../../measures.js'
+import { classifierFor, componentOverlaps } from '../../trial-measures.js'
 import type { SoftmaxMemory } from './memory.js'
 
 /** The iteration has converged (`fixed`) once an update moves the state by less than this (patterns have unit length). */
@@ -78,8 +79,9 @@ export function runSoftmaxTrial (mem: SoftmaxMemory, p: PointParams, trial: numb
     sweeps,
     ending,
     energy: mem.energy(state, overlaps),
-    endState: classifyEndState(overlaps, mem.patternCount, target, d)
+    endState: classifierFor(p).classify(overlaps, mem.patternCount, target)
   }
+  if (p.cue.kind === 'mixture') record.componentOverlaps = componentOverlaps(overlaps, mem.patternCount, target, p.cue.components)
   if (overlapTrajectory !== null) record.overlapTrajectory = overlapTrajectory
   if (energyTrajectory !== null) record.energyTrajectory = energyTrajectory
   return record

@@ -1,0 +1,121 @@
+/**
+ * CSV columns of the measures that apply to some sweeps only: the stability spread over
+ * networks, the T > 0 time averages with their final snapshots, a mixture cue's components,
+ * the stored patterns' overlap statistics, and the load per input under a fixed in-degree.
+ * A column group is present when the sweep has the measure (decided from the spec and the
+ * rows, so a sweep's header never depends on which point is read first); column names follow
+ * the JSON paths.
+ */
+import { END_STATES, type MeanWithError, type PointSummary, type TrialRecord } from '../engine/index.js'
+import type { CsvCell } from './csv.js'
+import type { ResultRow, SweepResult } from './types.js'
+
+/** Which optional groups a sweep's CSV holds. */
+export interface MeasureLayout {
+  stabilitySpread: boolean
+  thermal: boolean
+  /** Mixture-cue components (0 = none); component 0 is the target. */
+  components: number
+  patternOverlaps: boolean
+}
+
+const STABILITY_FIELDS = ['unstableFraction', 'tieFraction', 'fixedPatternFraction'] as const
+const PATTERN_OVERLAP_STATS = ['mean', 'meanAbs', 'rms', 'maxAbs'] as const
+
+// MAIN //
+
+export function measureLayout (result: SweepResult, summaries: readonly PointSummary[]): MeasureLayout {
+  return {
+    stabilitySpread: result.spec.measures.stability,
+    thermal: summaries.some((s) => s.endStateShares !== undefined),
+    components: summaries.reduce((most, s) => Math.max(most, s.componentOverlaps?.length ?? 0), 0),
+    patternOverlaps: result.spec.measures.patternOverlaps === true
+  }
+}
+
+/** Whether the sweep's rows state the load per input P/K (a fixed in-degree dilution). */
+export function hasInDegreeLoad (result: SweepResult): boolean {
+  return result.rows.some((row) => row.params.inDegreeLoad !== undefined)
+}
+
+/** Point columns: after the summary columns of summary-cells.ts. */
+export function measureHeader (layout: MeasureLayout): string[] {
+  return [
+    ...(layout.stabilitySpread ? STABILITY_FIELDS.flatMap((f) => [`stability.sd.${f}`, `stability.se.${f}`]) : []),
+    ...(layout.thermal
+      ? [
+          ...END_STATES.map((s) => `endStateShare.${s}`),
+          ...END_STATES.map((s) => `finalEndState.${s}`),
+          ...meanHeader('finalMaxOtherOverlap'),
+          ...meanHeader('finalEnergy')
+        ]
+      : []),
+    ...range(layout.components).flatMap((k) => meanHeader(`componentOverlap.${k}`)),
+    ...(layout.patternOverlaps
+      ? [
+          'patternOverlaps.networks', 'patternOverlaps.pairs',
+          ...PATTERN_OVERLAP_STATS.flatMap((stat) => meanHeader(`patternOverlaps.${stat}`)),
+          ...PATTERN_OVERLAP_STATS.map((stat) => `patternOverlaps.expected.${stat}`)
+        ]
+      : [])
+  ]
+}
+
+export function measureCells (s: PointSummary, layout: MeasureLayout): CsvCell[] {
+  const st = s.stability
+  const po = s.patternOverlaps
+  return [
+    ...(layout.stabilitySpread ? STABILITY_FIELDS.flatMap((f) => [st?.sd[f], st?.se[f]]) : []),
+    ...(layout.thermal
+      ? [
+          ...END_STATES.map((state) => s.endStateShares?.[state]),
+          ...END_STATES.map((state) => s.finalEndStates?.[state]),
+          ...meanCells(s.finalMaxOtherOverlap),
+          ...meanCells(s.finalEnergy)
+        ]
+      : []),
+    ...range(layout.components).flatMap((k) => meanCells(s.componentOverlaps?.[k])),
+    ...(layout.patternOverlaps
+      ? [
+          po?.networks, po?.pairs,
+          ...PATTERN_OVERLAP_STATS.flatMap((stat) => meanCells(po?.[stat])),
+          ...PATTERN_OVERLAP_STATS.map((stat) => po?.expected[stat])
+        ]
+      : [])
+  ]
+}
+
+/** Per-trial columns: after the trial record's own columns. */
+export function trialMeasureHeader (layout: MeasureLayout): string[] {
+  return [
+    ...(layout.thermal ? ['finalEndState', 'finalMaxOtherOverlap', 'finalEnergy', ...END_STATES.map((s) => `endStateShare.${s}`)] : []),
+    ...range(layout.components).map((k) => `componentOverlap.${k}`),
+    ...(layout.patternOverlaps ? ['patternOverlaps.pairs', ...PATTERN_OVERLAP_STATS.map((stat) => `patternOverlaps.${stat}`)] : [])
+  ]
+}
+
+export function trialMeasureCells (t: TrialRecord, layout: MeasureLayout): CsvCell[] {
+  const po = t.patternOverlaps
+  return [
+    ...(layout.thermal ? [t.finalEndState, t.finalMaxOtherOverlap, t.finalEnergy, ...END_STATES.map((s) => t.endStateShares?.[s])] : []),
+    ...range(layout.components).map((k) => t.componentOverlaps?.[k]),
+    ...(layout.patternOverlaps ? [po?.pairs, ...PATTERN_OVERLAP_STATS.map((stat) => po?.[stat])] : [])
+  ]
+}
+
+/** The load per input as a leading cell, when the sweep states it. */
+export function inDegreeLoadCells (row: ResultRow, shown: boolean): CsvCell[] {
+  return shown ? [row.params.inDegreeLoad] : []
+}
+
+function meanHeader (name: string): string[] {
+  return [`${name}.mean`, `${name}.sd`, `${name}.se`]
+}
+
+function meanCells (m: MeanWithError | undefined): CsvCell[] {
+  return [m?.mean, m?.sd, m?.se]
+}
+
+function range (n: number): number[] {
+  return Array.from({ length: n }, (_, k) => k)
+}

@@ -1,0 +1,85 @@
+/** CSV and JSON of the format-2 measures: column groups, the long-format trajectory series. */
+import { describe, expect, it } from 'vitest'
+import { END_STATES } from '../../src/engine/index.js'
+import { resultToCsv, resultToJson, trajectoryCsv, trajectoryJson } from '../../src/results/index.js'
+import { runSweep } from '../figures/helpers.js'
+
+const header = (csv: string): string[] => csv.split('\r\n')[0]!.split(',')
+const lines = (csv: string): string[][] => csv.trimEnd().split('\r\n').map((line) => line.split(','))
+
+describe('CSV columns of the measures that apply to some sweeps', () => {
+  it('T > 0: end-state shares, the final snapshots, and their per-trial columns; none at T = 0', () => {
+    const warm = runSweep({ neurons: 80, patterns: 4, dynamics: { temperature: 0.5, maxSweeps: 12, burnIn: 4 }, trials: 5, seed: 3 })
+    const columns = header(resultToCsv(warm, { perTrial: false }))
+    for (const state of END_STATES) {
+      expect(columns).toContain(`endStateShare.${state}`)
+      expect(columns).toContain(`finalEndState.${state}`)
+    }
+    expect(columns).toEqual(expect.arrayContaining(['finalMaxOtherOverlap.mean', 'finalEnergy.se']))
+    const [head, ...rows] = lines(resultToCsv(warm, { perTrial: false }))
+    const shares = END_STATES.map((state) => Number(rows[0]![head!.indexOf(`endStateShare.${state}`)]))
+    expect(shares.reduce((a, b) => a + b, 0)).toBeCloseTo(1, 12)
+    const trialColumns = header(resultToCsv(warm, { perTrial: true }))
+    expect(trialColumns).toEqual(expect.arrayContaining(['finalEndState', 'finalMaxOtherOverlap', 'finalEnergy', 'endStateShare.spinGlass']))
+    const cold = runSweep({ neurons: 80, patterns: 4, trials: 3, seed: 3 })
+    expect(header(resultToCsv(cold, { perTrial: false })).some((c) => c.startsWith('endStateShare') || c.startsWith('final'))).toBe(false)
+    expect(header(resultToCsv(cold, { perTrial: false }))).toEqual(expect.arrayContaining(END_STATES.map((s) => `endState.${s}`)))
+  })
+
+  it('mixture cues: one column group per component; stored-pattern overlaps with their expectations; stability spread', () => {
+    const result = runSweep({
+      neurons: 120,
+      patterns: 6,
+      cue: { kind: 'mixture', components: 3 },
+      measures: { stability: true, patternOverlaps: true },
+      trials: 4,
+      seed: 4
+    })
+    const csv = resultToCsv(result, { perTrial: false })
+    const columns = header(csv)
+    expect(columns).toEqual(expect.arrayContaining([
+      'componentOverlap.0.mean', 'componentOverlap.2.se', 'stability.se.unstableFraction', 'stability.sd.fixedPatternFraction',
+      'patternOverlaps.networks', 'patternOverlaps.pairs', 'patternOverlaps.maxAbs.mean', 'patternOverlaps.expected.rms'
+    ]))
+    expect(columns).not.toContain('componentOverlap.3.mean')
+    const [head, row] = lines(csv)
+    expect(Number(row![head!.indexOf('patternOverlaps.pairs')])).toBe(15)
+    expect(Number(row![head!.indexOf('patternOverlaps.expected.rms')])).toBeCloseTo(1 / Math.sqrt(120), 14)
+    expect(Number(row![head!.indexOf('componentOverlap.0.mean')])).toBe(result.rows[0]!.summary.overlap.mean)
+    const trials = header(resultToCsv(result, { perTrial: true }))
+    expect(trials).toEqual(expect.arrayContaining(['componentOverlap.0', 'componentOverlap.2', 'patternOverlaps.rms']))
+    // JSON keeps the same numbers under the row's summary.
+    const json = JSON.parse(resultToJson(result, { perTrial: false }))
+    expect(json.rows[0].summary.patternOverlaps.pairs).toBe(15)
+    expect(json.rows[0].summary.componentOverlaps).toHaveLength(3)
+  })
+})
+
+describe('the trajectory series', () => {
+  it('is long format: one row per point and sweep, held after a trial stops, energy empty at sweep 0', () => {
+    const result = runSweep({
+      neurons: 100,
+      load: { values: [0.05, 0.15] },
+      cue: { kind: 'flip', fraction: 0.25 },
+      measures: { overlapTrajectory: true, energyTrajectory: true },
+      trials: 6,
+      seed: 5
+    })
+    const table = lines(trajectoryCsv(result))
+    expect(table[0]).toEqual(['point', 'load', 'neurons', 'patterns', 'alpha', 'sweep', 'running', 'overlap.mean', 'overlap.sd', 'overlap.se', 'energy.mean', 'energy.sd', 'energy.se'])
+    const body = table.slice(1)
+    for (const row of result.rows) {
+      const band = row.summary.overlapTrajectory!
+      const mine = body.filter((cells) => Number(cells[0]) === row.point)
+      expect(mine.map((cells) => Number(cells[5]))).toEqual(band.mean.map((_, k) => k))
+      expect(mine.map((cells) => Number(cells[7]))).toEqual(band.mean)
+      expect(mine.map((cells) => Number(cells[6]))).toEqual(band.running)
+      expect(mine[0]![10]).toBe('')
+      expect(Number(mine[1]![10])).toBe(row.summary.energyTrajectory!.mean[0])
+    }
+    const json = JSON.parse(trajectoryJson(result))
+    expect(json.points).toHaveLength(2)
+    expect(json.points[1].overlap).toEqual(result.rows[1]!.summary.overlapTrajectory)
+    expect(json.points[1].values).toEqual({ load: 0.15 })
+  })
+})
