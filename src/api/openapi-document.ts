@@ -54,21 +54,27 @@ const FIGURE_HEADERS: Record<string, Record<string, HeaderObject>> = {
 }
 
 /** Response headers clients rely on, which route schemas cannot express. */
-const OPERATION_HEADERS: Record<string, Record<string, Record<string, HeaderObject>>> = {
-  submitSweep: {
-    200: {
-      Location: text('Path of the sweep\'s status.'),
-      'Content-Location': text('The same path: the body is that sweep\'s (final) status.')
-    },
-    202: { Location: text('Path of the new sweep\'s status.'), 'Retry-After': seconds('Suggested seconds before the first status poll.') }
+const SUBMISSION_HEADERS: Record<string, Record<string, HeaderObject>> = {
+  200: {
+    Location: text('Path of the sweep\'s status.'),
+    'Content-Location': text('The same path: the body is that sweep\'s (final) status.')
   },
+  202: { Location: text('Path of the new sweep\'s status.'), 'Retry-After': seconds('Suggested seconds before the first status poll.') }
+}
+
+const OPERATION_HEADERS: Record<string, Record<string, Record<string, HeaderObject>>> = {
+  submitSweep: SUBMISSION_HEADERS,
+  extendSweep: SUBMISSION_HEADERS,
+  resumeSweep: { 202: { Location: text('Path of the sweep\'s status.'), 'Retry-After': seconds('Suggested seconds before the next status poll.') } },
   getSweep: { 200: { ETag: text('Weak validator of the sweep\'s state; send it in If-None-Match to get 304 until the sweep changes.') }, 304: { ETag: text('The current validator.') } },
   listSweeps: { 200: { Link: text('`<…>; rel="next"` URL of the next page; absent on the last page.') } },
   getSweepResults: {
     200: {
       ETag: text('Strong validator: the sha256 of the bytes (base64url), one per representation.'),
       Vary: text('Accept.'),
-      'Content-Disposition': text('CSV only: attachment; filename="memsweep-<id>.csv".')
+      'Content-Disposition': text('CSV only: attachment; filename="memsweep-<id>.csv".'),
+      'Memsweep-Partial': text('Partial results only (?partial=true on a sweep that has not succeeded): `<points done>/<points>`; such answers carry Cache-Control: no-store and no ETag.'),
+      'Cache-Control': text('A finished result never changes: private, immutable. Partial results: no-store.')
     },
     304: { ETag: text('The current validator.'), Vary: text('Accept.') },
     409: {

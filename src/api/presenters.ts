@@ -30,7 +30,7 @@ export function presentSweep (record: SweepRecord, now: number = Date.now()): Sw
     finishedAt: record.finishedAt,
     progress: {
       ...p,
-      fraction: p.trialsTotal === 0 ? (record.status === 'succeeded' ? 1 : 0) : p.trialsDone / p.trialsTotal,
+      fraction: progressFraction(record),
       elapsedSeconds: elapsedSeconds === null ? null : round3(elapsedSeconds),
       estimatedSecondsLeft: estimatedSecondsLeft === null ? null : round3(estimatedSecondsLeft)
     },
@@ -43,6 +43,18 @@ export function presentSweep (record: SweepRecord, now: number = Date.now()): Sw
     replicateKey: record.replicateKey,
     links: { self, events: `${self}/events`, results: `${self}/results` }
   }
+}
+
+/**
+ * trialsDone / trialsTotal; with precision targets trialsTotal grows block by block, so the
+ * fraction is taken of the ceiling (points × trials) instead and is 1 once the sweep
+ * succeeded: it never goes back when a block is added.
+ */
+function progressFraction (record: SweepRecord): number {
+  const p = record.progress
+  if (record.status === 'succeeded') return 1
+  const ceiling = record.spec.precision === undefined ? p.trialsTotal : Math.max(p.trialsTotal, p.pointsTotal * record.spec.trials)
+  return ceiling === 0 ? 0 : Math.min(1, p.trialsDone / ceiling)
 }
 
 function round3 (x: number): number {

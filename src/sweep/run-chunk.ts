@@ -34,7 +34,7 @@ export type ChunkRunOutcome =
 // MAIN //
 
 export function runChunk (spec: NormalisedSpec, chunk: Chunk, hooks: ChunkRunHooks): ChunkRunOutcome {
-  if (hooks.shouldStop() || !passChunkGate(`c${chunk.index}`, hooks.shouldStop)) return { kind: 'stopped' }
+  if (hooks.shouldStop() || !passChunkGate(`s${spec.seed}-c${chunk.index}-n${chunk.count}`, hooks.shouldStop)) return { kind: 'stopped' }
   const interval = hooks.progressIntervalMs ?? 250
   const started = performance.now()
   let lastReport = started

@@ -10,6 +10,7 @@ import { sweepContract } from './contract/sweeps.js'
 import { tokensContract } from './contract/tokens.js'
 import { operationsContract } from './contract/operations.js'
 import { measuresContract } from './contract/measures.js'
+import { workflowContract } from './contract/workflow.js'
 
 export type { QueueFactory } from './helpers/harness.js'
 
@@ -21,4 +22,5 @@ export function defineApiContract (factory: QueueFactory): void {
   tokensContract(factory)
   operationsContract(factory)
   measuresContract(factory)
+  workflowContract(factory)
 }

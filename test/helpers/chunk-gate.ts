@@ -5,7 +5,7 @@
  * processors and worker processes alike; it must be installed (its directory named in the
  * environment) before they start.
  */
-import { existsSync, mkdtempSync, readdirSync, rmSync, writeFileSync } from 'node:fs'
+import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { setTimeout as sleep } from 'node:timers/promises'
@@ -25,6 +25,10 @@ export interface ChunkGate {
   waiting: () => number
   /** Resolves once at least `count` chunks wait at the gate. */
   untilWaiting: (count?: number, timeoutMs?: number) => Promise<void>
+  /** Labels (`s<seed>-c<chunk>-n<trials>`) of the chunks that passed the gate to run since it was installed, in order. */
+  ran: () => string[]
+  /** Chunks of sweeps with this seed that passed the gate to run, and the trials they held. */
+  ranForSeed: (seed: number) => { chunks: number, trials: number, labels: string[] }
   /** Opens the gate, uninstalls it from this process and removes its directory. */
   remove: () => void
 }
@@ -47,6 +51,11 @@ export function installChunkGate (): ChunkGate {
     },
     open: () => rmSync(closed, { force: true }),
     waiting,
+    ran: () => ranLabels(dir),
+    ranForSeed: (seed) => {
+      const labels = ranLabels(dir).filter((label) => label.startsWith(`s${seed}-c`))
+      return { chunks: labels.length, trials: labels.reduce((sum, label) => sum + Number(/-n(\d+)$/.exec(label)?.[1] ?? NaN), 0), labels }
+    },
     untilWaiting: async (count = 1, timeoutMs = 30_000) => {
       const deadline = Date.now() + timeoutMs
       while (waiting() < count) {
@@ -62,6 +71,11 @@ export function installChunkGate (): ChunkGate {
       setTimeout(() => rmSync(dir, { recursive: true, force: true }), 100).unref()
     }
   }
+}
+
+function ranLabels (dir: string): string[] {
+  const log = join(dir, 'ran.log')
+  return existsSync(log) ? readFileSync(log, 'utf8').split('\n').filter((line) => line !== '') : []
 }
 
 let shared: ChunkGate | null = null

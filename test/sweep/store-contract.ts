@@ -17,6 +17,8 @@ import {
 
 export interface StoreUnderTest {
   store: SweepStore
+  /** Where the storage still mentions this sweep id (test/helpers/traces.ts); the store may be closed by it, so a test calls it last. */
+  traces: (id: string) => Promise<string[]>
   close: () => Promise<void>
 }
 
@@ -312,7 +314,7 @@ export function storeContract (name: string, factory: StoreFactory): void {
     })
 
     it('removes a finished sweep with everything stored for it, never an active one', async () => {
-      await store.create(draft('p1'))
+      await store.create(draft('p1'), { idempotency: { key: 'purge-once', ttlSeconds: 600 } })
       expect(await store.purge('p1')).toBe(false)
       await recordAll(store, 'p1')
       await store.succeed('p1', new Uint8Array([1]), now())
@@ -325,8 +327,9 @@ export function storeContract (name: string, factory: StoreFactory): void {
       expect((await store.counts()).succeeded).toBe(before - 1)
       expect((await store.list({ owner: 'ana', limit: 10 })).items.map((record) => record.id)).not.toContain('p1')
       expect(await store.purge('p1')).toBe(false)
-      // Its trials no longer serve anyone.
+      // Its trials no longer serve anyone, and nothing in the storage mentions it.
       expect((await store.storedRanges('ana', REUSE_KEYS)).size).toBe(0)
+      expect(await subject.traces('p1')).toEqual([])
     })
 
     it('lets a canceled sweep run on: back to queued with its stored chunks and progress', async () => {

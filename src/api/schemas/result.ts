@@ -172,5 +172,9 @@ export const sweepResultSchema = z.object({
   trials: z.array(z.array(trialRecordSchema)).optional().describe('trials[point][trial], only with ?trials=true. Empty for an analysis, which keeps per-step summaries (in `searches`) instead.'),
   searches: z.array(searchRowSchema).optional().describe('Analysis specs only: one threshold search per point of the grid of the other varied parameters, in grid order.'),
   scaling: z.array(scalingRowSchema).optional().describe('Analysis specs with `analysis.scaling` only: one finite-size fit per combination of the varied parameters other than `neurons`.'),
-  provenance: provenanceSchema
+  provenance: provenanceSchema,
+  partial: z.object({
+    pointsDone: z.number().int().nonnegative(),
+    pointsTotal: z.number().int().nonnegative()
+  }).optional().describe('Only in partial results (?partial=true on a sweep that has not succeeded): the rows are those of the points finished so far.')
 }).meta({ id: 'SweepResult' })

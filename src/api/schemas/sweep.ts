@@ -17,10 +17,10 @@ export const progressSchema = z.object({
   pointsDone: z.number().int().nonnegative().describe('Grid points whose every trial is done.'),
   pointsTotal: z.number().int().nonnegative(),
   trialsDone: z.number().int().nonnegative(),
-  trialsTotal: z.number().int().nonnegative(),
+  trialsTotal: z.number().int().nonnegative().describe('Trials planned so far: all of them, or with precision targets the blocks given to each point so far (it grows; never shrinks).'),
   chunksDone: z.number().int().nonnegative(),
   chunksTotal: z.number().int().nonnegative(),
-  fraction: z.number().min(0).max(1).describe('trialsDone / trialsTotal.'),
+  fraction: z.number().min(0).max(1).describe('trialsDone / trialsTotal, 1 once succeeded. With precision targets trialsTotal grows block by block (a point takes another block until it meets its target), so the fraction is of the ceiling, pointsTotal × trials: it never goes back.'),
   elapsedSeconds: z.number().nonnegative().nullable().describe('Seconds since the sweep started running (until it finished); null while queued.'),
   estimatedSecondsLeft: z.number().nonnegative().nullable().describe('Rough estimate from the rate so far while running; 0 once finished; null when not yet known.')
 }).meta({ id: 'SweepProgress' })

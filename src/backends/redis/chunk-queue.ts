@@ -15,12 +15,15 @@ export interface ChunkJobData {
   specHash: string
   chunk: Chunk
   chunksTotal: number
+  /** The sweep's resume count when the job was added (absent: 0); follow-up jobs carry it on. */
+  run?: number
 }
 
 export interface AssembleJobData {
   sweepId: string
   specHash: string
   chunksTotal: number
+  run?: number
 }
 
 /** Precision targets: decide whether an open point whose planned trials end at `extent` takes another block. */
@@ -30,6 +33,7 @@ export interface DecideJobData {
   point: number
   extent: number
   chunksTotal: number
+  run?: number
 }
 
 export type SweepJobData = ChunkJobData | AssembleJobData | DecideJobData
@@ -83,38 +87,64 @@ export class ChunkQueue {
    * Adds the chunks' jobs costliest first (dispatchOrder): workers take jobs first in, first out.
    * `chunks` may be part of a plan (what is left to compute) of `chunksTotal` chunks in all.
    */
-  async enqueueChunks (sweepId: string, specHash: string, spec: NormalisedSpec, chunks: readonly Chunk[], chunksTotal = chunks.length): Promise<void> {
+  async enqueueChunks (sweepId: string, specHash: string, spec: NormalisedSpec, chunks: readonly Chunk[], chunksTotal = chunks.length, run = 0): Promise<void> {
     const byIndex = new Map(chunks.map((chunk) => [chunk.index, chunk]))
     const ordered = dispatchOrder(spec, chunks).map((index) => byIndex.get(index)!)
     for (let first = 0; first < ordered.length; first += ADD_BATCH) {
       const batch = ordered.slice(first, first + ADD_BATCH).map(chunk => ({
         name: 'chunk' as const,
-        data: { sweepId, specHash, chunk, chunksTotal } satisfies ChunkJobData,
-        opts: this.#jobOptions(chunkJobId(sweepId, chunk.index))
+        data: { sweepId, specHash, chunk, chunksTotal, ...(run === 0 ? {} : { run }) } satisfies ChunkJobData,
+        opts: this.#jobOptions(chunkJobId(sweepId, chunk.index, run))
       }))
       await this.queue.addBulk(batch)
     }
   }
 
   /** The decision on an open point at a given extent: its fixed id makes a repeat a no-op. */
-  async enqueueDecision (sweepId: string, specHash: string, point: number, extent: number, chunksTotal: number): Promise<void> {
-    await this.queue.add('decide', { sweepId, specHash, point, extent, chunksTotal } satisfies DecideJobData, this.#jobOptions(decideJobId(sweepId, point, extent)))
+  async enqueueDecision (sweepId: string, specHash: string, point: number, extent: number, chunksTotal: number, run = 0): Promise<void> {
+    const data: DecideJobData = { sweepId, specHash, point, extent, chunksTotal, ...(run === 0 ? {} : { run }) }
+    await this.queue.add('decide', data, this.#jobOptions(decideJobId(sweepId, point, extent, run)))
   }
 
-  async enqueueAssembly (sweepId: string, specHash: string, chunksTotal: number): Promise<void> {
-    await this.queue.add('assemble', { sweepId, specHash, chunksTotal } satisfies AssembleJobData, this.#jobOptions(assembleJobId(sweepId)))
+  async enqueueAssembly (sweepId: string, specHash: string, chunksTotal: number, run = 0): Promise<void> {
+    const data: AssembleJobData = { sweepId, specHash, chunksTotal, ...(run === 0 ? {} : { run }) }
+    await this.queue.add('assemble', data, this.#jobOptions(assembleJobId(sweepId, run)))
   }
 
   /** Removes a sweep's chunks that are not running (waiting or delayed for a retry); running ones are locked and stay. */
-  async removePending (sweepId: string, chunksTotal: number): Promise<number> {
+  async removePending (sweepId: string, chunksTotal: number, run = 0): Promise<number> {
     let removed = 0
     for (let first = 0; first < chunksTotal; first += REMOVE_BATCH) {
       const last = Math.min(chunksTotal, first + REMOVE_BATCH)
       const replies = await Promise.all(Array.from({ length: last - first }, (_unused, offset) =>
-        this.queue.remove(chunkJobId(sweepId, first + offset)).catch(() => 0)))
+        this.queue.remove(chunkJobId(sweepId, first + offset, run)).catch(() => 0)))
       removed += replies.reduce<number>((sum, reply) => sum + reply, 0)
     }
     return removed
+  }
+
+  /**
+   * Removes every job a finished sweep left in the queue (kept for inspection: completed or
+   * failed chunks, decisions, its assembly), so a purge leaves nothing of it behind.
+   */
+  async removeFinished (sweepId: string, plan: readonly Chunk[], lastRun = 0): Promise<void> {
+    for (let run = 0; run <= lastRun; run++) await this.#removeRun(sweepId, plan, run)
+  }
+
+  async #removeRun (sweepId: string, plan: readonly Chunk[], run: number): Promise<void> {
+    const ids = plan.map((chunk) => chunkJobId(sweepId, chunk.index, run))
+    // A decision ran at each block end of a point (precision targets); a repeat of an id is harmless.
+    const ends = new Map<number, Set<number>>()
+    for (const chunk of plan) {
+      const set = ends.get(chunk.point) ?? new Set<number>()
+      set.add(chunk.firstTrial + chunk.count)
+      ends.set(chunk.point, set)
+    }
+    for (const [point, extents] of ends) for (const extent of extents) ids.push(decideJobId(sweepId, point, extent, run))
+    ids.push(assembleJobId(sweepId, run))
+    for (let first = 0; first < ids.length; first += REMOVE_BATCH) {
+      await Promise.all(ids.slice(first, first + REMOVE_BATCH).map(async (id) => await this.queue.remove(id).catch(() => 0)))
+    }
   }
 
   async counts (): Promise<{ waiting: number, active: number, completed: number, failed: number }> {

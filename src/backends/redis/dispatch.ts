@@ -16,13 +16,14 @@ export async function enqueueRemaining (store: RedisSweepStore, chunks: ChunkQue
   const open = await store.openPoints(id)
   const pending = plan.chunks.filter((chunk) => !done.has(chunk.index))
   const total = plan.chunks.length
-  if (pending.length > 0) await chunks.enqueueChunks(id, specHash, spec, pending, total)
+  const run = await store.dispatchRun(id)
+  if (pending.length > 0) await chunks.enqueueChunks(id, specHash, spec, pending, total, run)
   for (const point of open) {
     const planned = plan.chunks.filter((chunk) => chunk.point === point)
     if (planned.every((chunk) => done.has(chunk.index))) {
-      await chunks.enqueueDecision(id, specHash, point, planned.reduce((end, chunk) => Math.max(end, chunk.firstTrial + chunk.count), 0), total)
+      await chunks.enqueueDecision(id, specHash, point, planned.reduce((end, chunk) => Math.max(end, chunk.firstTrial + chunk.count), 0), total, run)
     }
   }
-  if (pending.length === 0 && open.length === 0) await chunks.enqueueAssembly(id, specHash, total)
+  if (pending.length === 0 && open.length === 0) await chunks.enqueueAssembly(id, specHash, total, run)
   await store.markEnqueued(id)
 }

@@ -209,7 +209,10 @@ class RedisQueue implements SweepQueue {
   async purge (id: string): Promise<boolean> {
     this.#assertOpen()
     if (!isSweepId(id)) return false
-    return await this.store.purge(id)
+    const [plan, run] = await Promise.all([this.store.plan(id), this.store.dispatchRun(id)])
+    if (!await this.store.purge(id)) return false
+    if (plan !== null) await this.chunks.removeFinished(id, plan.chunks, run)
+    return true
   }
 
   async storedProgress (id: string): Promise<StoredProgress | null> {
@@ -246,7 +249,7 @@ class RedisQueue implements SweepQueue {
       // Running chunks stop on every worker; waiting ones are removed so no worker picks them up.
       await publishStop(this.producer, this.keys, id)
       await publishSweepEvent(this.producer, this.keys, id, 'state')
-      const removed = await this.chunks.removePending(id, record.progress.chunksTotal)
+      const removed = await this.chunks.removePending(id, record.progress.chunksTotal, await this.store.dispatchRun(id))
       this.logger.info({ sweepId: id, removedChunks: removed }, 'sweep canceled')
     }
     return await this.store.get(id)

@@ -102,17 +102,25 @@ export function idFromIndexMember (member: string): string {
   return member.slice(CREATED_MS_DIGITS + 1)
 }
 
-/** Job ids: deterministic, so enqueueing the same chunk twice is a no-op, and never integer-like. */
-export function chunkJobId (sweepId: string, chunkIndex: number): string {
-  return `sw-${sweepId}-c${chunkIndex}`
+/**
+ * Job ids: deterministic, so enqueueing the same work twice is a no-op, and never
+ * integer-like. `run` counts the sweep's resumes: a resumed sweep's jobs get fresh ids, since
+ * BullMQ keeps finished jobs for a while and would ignore a job added under an old id.
+ */
+export function chunkJobId (sweepId: string, chunkIndex: number, run = 0): string {
+  return `sw-${sweepId}${runPart(run)}-c${chunkIndex}`
 }
 
-export function decideJobId (sweepId: string, point: number, extent: number): string {
-  return `sw-${sweepId}-p${point}-t${extent}`
+export function decideJobId (sweepId: string, point: number, extent: number, run = 0): string {
+  return `sw-${sweepId}${runPart(run)}-p${point}-t${extent}`
 }
 
-export function assembleJobId (sweepId: string): string {
-  return `sw-${sweepId}-assemble`
+export function assembleJobId (sweepId: string, run = 0): string {
+  return `sw-${sweepId}${runPart(run)}-assemble`
+}
+
+function runPart (run: number): string {
+  return run === 0 ? '' : `-r${run}`
 }
 
 function sha256 (text: string): string {

@@ -314,6 +314,7 @@ if ARGV[3] ~= '' then
   if active >= tonumber(ARGV[3]) then return {0, status, active} end
 end
 redis.call('HSET', KEYS[1], 'status', 'queued', 'finishedMs', '', 'error', '', 'enqueued', '0')
+redis.call('HINCRBY', KEYS[1], 'run', 1)
 redis.call('HINCRBY', KEYS[2], status, -1)
 redis.call('HINCRBY', KEYS[2], 'queued', 1)
 for i = 1, 8 do if i ~= 2 and i ~= 7 then redis.call('PERSIST', KEYS[i]) end end

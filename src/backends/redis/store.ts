@@ -26,6 +26,8 @@ export interface SweepWorkView {
   specHash: string
   specJson: string
   chunksTotal: number
+  /** How often the sweep was resumed (jobs added before the last resume are superseded). */
+  run: number
 }
 
 /** How many index entries one listing round trip reads. */
@@ -68,7 +70,9 @@ export class RedisSweepStore implements SweepStore {
       'notes', JSON.stringify(draft.notes ?? null),
       'replicateKey', draft.replicateKey,
       'reusedPoints', '0',
-      'reusedTrials', '0'
+      'reusedTrials', '0',
+      // Purge removes the key's binding to this sweep, found from here.
+      'idempotencyRef', options.idempotency === undefined ? '' : idempotencyKey
     ]
     const pointsLeft: string[] = []
     for (const [point, count] of perPoint) pointsLeft.push(String(point), String(count))
@@ -136,8 +140,8 @@ export class RedisSweepStore implements SweepStore {
 
   /** The few fields a chunk processor reads, without parsing the spec twice. */
   async workView (id: string): Promise<SweepWorkView | null> {
-    const [status, owner, specHash, specJson, chunksTotal, startedMs, computeMs] = await this.redis.hmget(this.keys.sweep(id).record,
-      'status', 'owner', 'specHash', 'spec', 'chunksTotal', 'startedMs', 'computeMs')
+    const [status, owner, specHash, specJson, chunksTotal, startedMs, computeMs, run] = await this.redis.hmget(this.keys.sweep(id).record,
+      'status', 'owner', 'specHash', 'spec', 'chunksTotal', 'startedMs', 'computeMs', 'run')
     if (status == null || specHash == null || specJson == null) return null
     return {
       status: status as SweepStatus,
@@ -146,7 +150,8 @@ export class RedisSweepStore implements SweepStore {
       owner: owner == null ? null : JSON.parse(owner) as string | null,
       specHash,
       specJson,
-      chunksTotal: Number(chunksTotal)
+      chunksTotal: Number(chunksTotal),
+      run: Number(run ?? 0)
     }
   }
 
@@ -276,16 +281,45 @@ export class RedisSweepStore implements SweepStore {
     if (await this.redis.exists(record) === 1) await this.redis.hset(record, 'reusedPoints', String(reused.points), 'reusedTrials', String(reused.trials))
   }
 
+  /** How often the sweep was resumed: its jobs' ids carry it (keys.ts chunkJobId). */
+  async dispatchRun (id: string): Promise<number> {
+    return Number(await this.redis.hget(this.keys.sweep(id).record, 'run') ?? 0)
+  }
+
   async purge (id: string): Promise<boolean> {
     const record = await this.get(id)
     if (record === null) return false
     const keys = this.keys.sweep(id)
+    // Read before the script deletes them: what points at this sweep from keys of other sweeps.
+    const [reuseKeys, plan, idempotencyRef] = await Promise.all([
+      this.redis.hgetall(keys.reuseKeys), this.plan(id), this.redis.hget(keys.record, 'idempotencyRef')
+    ])
     const removed = await SCRIPTS.purge.run(this.redis, [
       keys.record, this.keys.counts, this.keys.index, record.owner === null ? this.keys.index : this.keys.ownerIndex(record.owner),
       keys.chunks, keys.chunkTrials, keys.pointsLeft, keys.plan, keys.result, keys.open, keys.reuseKeys
     ], [indexMember(Date.parse(record.createdAt), id)]) as number
-    if (removed === 1 && await this.redis.get(this.keys.reuse(record.owner, record.specHash)) === id) await this.redis.del(this.keys.reuse(record.owner, record.specHash))
-    return removed === 1
+    if (removed !== 1) return false
+    const pipeline = this.redis.pipeline()
+    for (const chunk of plan?.chunks ?? []) {
+      const reuseKey = reuseKeys[String(chunk.point)]
+      if (reuseKey !== undefined) pipeline.srem(this.keys.pointChunks(record.owner, reuseKey), `${id}:${chunk.index}:${chunk.firstTrial}:${chunk.count}`)
+    }
+    pipeline.zrem(this.keys.unenqueued, id)
+    await pipeline.exec()
+    await this.#deleteIfPointsAt(this.keys.reuse(record.owner, record.specHash), id)
+    if (idempotencyRef !== null && idempotencyRef !== '') await this.#deleteIfPointsAt(idempotencyRef, id)
+    return true
+  }
+
+  /** Deletes a string key whose value names this sweep (its id, or a binding holding it), and no other. */
+  async #deleteIfPointsAt (key: string, id: string): Promise<void> {
+    const value = await this.redis.get(key)
+    if (value === null) return
+    let names = value === id
+    if (!names && value.startsWith('{')) {
+      try { names = (JSON.parse(value) as { sweepId?: unknown }).sweepId === id } catch { names = false }
+    }
+    if (names) await this.redis.del(key)
   }
 
   async reopen (id: string, nowMs: number, maxActive?: number): Promise<Transition & { overCap?: number }> {

@@ -3,6 +3,7 @@ import { describe } from 'vitest'
 import { keyLayout } from '../../../src/backends/redis/keys.js'
 import { RedisSweepStore } from '../../../src/backends/redis/store.js'
 import { storeContract } from '../../sweep/store-contract.js'
+import { redisTraces } from '../../helpers/traces.js'
 import { REDIS_URL, redisAvailable, removePrefix, testPrefix } from '../../integration/helpers.js'
 
 const available = await redisAvailable()
@@ -14,6 +15,7 @@ describe.runIf(available)('Redis', () => {
     const store = new RedisSweepStore(redis, keyLayout(prefix), 3600)
     return {
       store,
+      traces: async (id) => await redisTraces(redis, prefix, id),
       close: async () => {
         redis.disconnect()
         await removePrefix(prefix)

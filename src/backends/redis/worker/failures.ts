@@ -28,6 +28,6 @@ export async function failSweep (deps: FailureDeps, sweepId: string, chunksTotal
   if (!transition.changed) return false
   await publishStop(deps.redis, deps.keys, sweepId)
   await publishSweepEvent(deps.redis, deps.keys, sweepId, 'state')
-  await deps.chunks.removePending(sweepId, chunksTotal)
+  await deps.chunks.removePending(sweepId, chunksTotal, await deps.store.dispatchRun(sweepId))
   return true
 }

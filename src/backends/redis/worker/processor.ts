@@ -122,10 +122,10 @@ async function decide (context: SandboxContext, job: SandboxedJob<DecideJobData>
   const decision = decidePoint(spec, point, pointRecords(spec, planned, stored, point))
   if (decision.kind === 'close') {
     const closed = await store.closePoint(sweepId, point)
-    if (closed.complete) await chunks.enqueueAssembly(sweepId, job.data.specHash, plan.chunks.length)
+    if (closed.complete) await chunks.enqueueAssembly(sweepId, job.data.specHash, plan.chunks.length, job.data.run)
   } else {
     const appended = await store.extendPoint(sweepId, point, decision.fromTrial, decision.pieces)
-    if (appended !== null) await chunks.enqueueChunks(sweepId, job.data.specHash, spec, appended, plan.chunks.length + appended.length)
+    if (appended !== null) await chunks.enqueueChunks(sweepId, job.data.specHash, spec, appended, plan.chunks.length + appended.length, job.data.run)
   }
   await publishSweepEvent(context.redis, context.keys, sweepId, 'progress')
   return { outcome: 'decided', point, close: decision.kind === 'close' }
@@ -134,9 +134,13 @@ async function decide (context: SandboxContext, job: SandboxedJob<DecideJobData>
 async function runChunkJob (context: SandboxContext, job: SandboxedJob<ChunkJobData>, token: string | undefined, signal: AbortSignal | undefined): Promise<ProcessorOutcome> {
   const { store, board, settings } = context
   const { sweepId, chunk, chunksTotal } = job.data
+  // Noted before the status is read: only a stop posted after a live status stops this chunk.
+  const stopsBefore = board.stopsPosted(sweepId)
   const view = await store.workView(sweepId)
   if (view === null) return { outcome: 'skipped', reason: 'sweep no longer stored' }
   if (isTerminal(view.status)) return { outcome: 'skipped', reason: `sweep is ${view.status}` }
+  // A job of a run before the sweep's last resume: the resume enqueued this chunk afresh if it was missing.
+  if ((job.data.run ?? 0) < view.run) return { outcome: 'skipped', reason: 'superseded by a resume' }
   await store.markRunning(sweepId, Date.now())
 
   let spec: NormalisedSpec | null = null
@@ -148,20 +152,23 @@ async function runChunkJob (context: SandboxContext, job: SandboxedJob<ChunkJobD
   }
   outcome ??= runChunk(spec!, chunk, {
     // Called between trials while this thread's event loop is blocked: only shared memory can answer.
-    shouldStop: () => board.isStopped(sweepId) || board.handBackRequested() || signal?.aborted === true,
+    shouldStop: () => board.stopsPosted(sweepId) > stopsBefore || board.handBackRequested() || signal?.aborted === true,
     progressIntervalMs: settings.progressIntervalMs,
     // Posted to the worker process at once (the message does not wait for this loop); it stores the progress.
     onProgress: (trialsDone) => { job.updateProgress({ chunk: chunk.index, trialsDone }).catch(() => {}) },
     reclaim: explicitCollector()
   })
   switch (outcome.kind) {
-    case 'stopped':
-      if (!board.isStopped(sweepId) && board.handBackRequested()) {
-        // The worker process is shutting down: give the chunk back without spending one of its attempts.
+    case 'stopped': {
+      const status = await store.status(sweepId)
+      // Shutting down, or a stop that was meant for an earlier run of a sweep resumed since (a
+      // late message): give the chunk back without spending one of its attempts.
+      if (status !== null && !isTerminal(status)) {
         await job.moveToWait(token)
         throw new WaitingError()
       }
       return { outcome: 'stopped', chunk: chunk.index }
+    }
     case 'failed': {
       if (outcome.error.kind === 'user') {
         await failSweep(context, sweepId, chunksTotal, userFailure(outcome.error.message))
@@ -178,8 +185,8 @@ async function runChunkJob (context: SandboxContext, job: SandboxedJob<ChunkJobD
       if (stored.status !== 'running') return { outcome: 'skipped', reason: `sweep is ${stored.status === '' ? 'gone' : stored.status}` }
       await publishSweepEvent(context.redis, context.keys, sweepId, 'progress')
       // Whichever attempt sees the plan complete enqueues the assembly (or a due decision); fixed ids make repeats no-ops.
-      if (stored.complete) await context.chunks.enqueueAssembly(sweepId, job.data.specHash, chunksTotal)
-      if (stored.pointDue) await context.chunks.enqueueDecision(sweepId, job.data.specHash, chunk.point, chunk.firstTrial + chunk.count, chunksTotal)
+      if (stored.complete) await context.chunks.enqueueAssembly(sweepId, job.data.specHash, chunksTotal, job.data.run)
+      if (stored.pointDue) await context.chunks.enqueueDecision(sweepId, job.data.specHash, chunk.point, chunk.firstTrial + chunk.count, chunksTotal, job.data.run)
       return { outcome: 'stored', chunk: chunk.index, trials: outcome.trials, computeMs: outcome.computeMs, completedSweep: stored.complete }
     }
   }

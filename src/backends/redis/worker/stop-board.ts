@@ -56,7 +56,8 @@ export class StopBoardReader {
   readonly #words: Int32Array
   readonly #bytes: Uint8Array
   #seen = 0
-  #stopped = new Set<string>()
+  /** Stops posted per sweep id since this reader started (a resumed sweep may be stopped again later). */
+  #posts = new Map<string, number>()
 
   constructor (buffer: SharedArrayBuffer) {
     this.#words = new Int32Array(buffer)
@@ -67,11 +68,15 @@ export class StopBoardReader {
     return Atomics.load(this.#words, 1) !== 0
   }
 
-  /** Cheap when nothing new was posted: one atomic load. */
-  isStopped (sweepId: string): boolean {
+  /**
+   * Stops posted for this sweep so far. A chunk notes the count when it starts and stops once
+   * it grows: stops posted before (for an earlier run of a sweep since resumed) do not stop it.
+   * Cheap when nothing new was posted: one atomic load.
+   */
+  stopsPosted (sweepId: string): number {
     const posted = Atomics.load(this.#words, 0)
     if (posted !== this.#seen) this.#readNew(posted)
-    return this.#stopped.has(sweepId)
+    return this.#posts.get(sweepId) ?? 0
   }
 
   #readNew (posted: number): void {
@@ -82,10 +87,13 @@ export class StopBoardReader {
       const base = HEADER_WORDS + (n % SLOTS) * SLOT_WORDS
       const length = Atomics.load(this.#words, base)
       const start = (base + 1) * 4
-      this.#stopped.add(Buffer.from(this.#bytes.subarray(start, start + length)).toString('utf8'))
+      const id = Buffer.from(this.#bytes.subarray(start, start + length)).toString('utf8')
+      const count = this.#posts.get(id) ?? 0
+      this.#posts.delete(id)
+      this.#posts.set(id, count + 1)
     }
     this.#seen = posted
-    // Bounded memory in a long-lived thread: the set only needs recent ids.
-    if (this.#stopped.size > 4 * SLOTS) this.#stopped = new Set([...this.#stopped].slice(-2 * SLOTS))
+    // Bounded memory in a long-lived thread: only recent ids matter (a Map keeps insertion order).
+    if (this.#posts.size > 4 * SLOTS) this.#posts = new Map([...this.#posts].slice(-2 * SLOTS))
   }
 }
