@@ -1,7 +1,7 @@
 import { defineConfig } from 'vitest/config'
 
 /**
- * Two tiers. `fast`: pure computation (engine, spec, figures), files in parallel on every
+ * Two tiers. `fast`: pure computation (engine, spec, lifecycle core, figures), files in parallel on every
  * core; `npm run test:fast` runs only this tier. `service`: everything that starts servers,
  * threads, worker processes, Redis or a browser; its files run one at a time after the fast
  * tier, so they never compete with each other for the cores or the shared Redis.
@@ -13,7 +13,7 @@ const shared = {
   setupFiles: ['test/setup/fast-check.ts']
 }
 
-const FAST = ['test/engine/**/*.test.ts', 'test/spec/**/*.test.ts', 'test/figures/**/*.test.ts', 'test/architecture.test.ts']
+const FAST = ['test/engine/**/*.test.ts', 'test/spec/**/*.test.ts', 'test/sweep/**/*.test.ts', 'test/figures/**/*.test.ts', 'test/architecture.test.ts']
 
 export default defineConfig({
   test: {
@@ -33,7 +33,7 @@ export default defineConfig({
           ...shared,
           name: 'service',
           include: ['test/**/*.test.ts'],
-          exclude: ['test/engine/**', 'test/spec/**', 'test/figures/!(route).test.ts', 'test/architecture.test.ts'],
+          exclude: ['test/engine/**', 'test/spec/**', 'test/sweep/**', 'test/figures/!(route).test.ts', 'test/architecture.test.ts'],
           fileParallelism: false,
           sequence: { groupOrder: 1 }
         }

@@ -82,10 +82,6 @@ export function computeInProcess (spec: NormalisedSpec): SweepResult {
   return assembleResult(spec, chunks, makeProvenance(spec, runtimeFacts(), { wallSeconds: 0, cpuSeconds: 0 }))
 }
 
-/**
- * The result's bytes, per-trial records included, with the run's timing zeroed: timing
- * describes the run, everything else must be bit-identical however the sweep was computed.
- */
 /** A succeeded sweep's result with its trial records attached (stores keep them in the chunks). */
 export async function fullResult (queue: SweepQueue, id: string): Promise<SweepResult> {
   const result = await queue.results(id)
@@ -93,6 +89,10 @@ export async function fullResult (queue: SweepQueue, id: string): Promise<SweepR
   return { ...result, trials: await queue.trials(id) ?? [] }
 }
 
+/**
+ * The result's bytes, per-trial records included, with the run's timing zeroed: timing
+ * describes the run, everything else must be bit-identical however the sweep was computed.
+ */
 export function resultBytes (result: SweepResult): string {
   const { wallSeconds: _wall, cpuSeconds: _cpu, workers: _workers, ...provenance } = result.provenance
   const normalised = { ...result, provenance: { ...provenance, wallSeconds: 0, cpuSeconds: 0 } }

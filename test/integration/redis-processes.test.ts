@@ -10,6 +10,7 @@ import { installChunkGate, type ChunkGate } from '../helpers/chunk-gate.js'
 import { Queue } from 'bullmq'
 import type { SweepQueue } from '../../src/backends/port.js'
 import { createRedisQueue } from '../../src/backends/redis/index.js'
+import type { SweepRecord } from '../../src/backends/port.js'
 import { CHUNK_QUEUE_NAME, chunkJobId, keyLayout } from '../../src/backends/redis/keys.js'
 import { normaliseSpec, type NormalisedSpec } from '../../src/spec/index.js'
 import { startWorker } from '../../src/backends/redis/worker/worker.js'
@@ -84,6 +85,9 @@ describe.runIf(available)('Redis backend: worker processes', () => {
     const spec = noisyRecallSpec()
     gate.hold()
     const submitted = await queue.submit({ spec, owner: null })
+    const seen: Array<SweepRecord['progress']> = []
+    const unsubscribe = queue.subscribe(submitted.id, (event) => { seen.push(event.sweep.progress) })
+    closers.push(async () => { unsubscribe() })
 
     // Mid-chunk: each worker holds one chunk of the sweep at the gate.
     const started = await victim.waitFor(isStartOf(submitted.id))
@@ -104,6 +108,15 @@ describe.runIf(available)('Redis backend: worker processes', () => {
     expect(done.progress.trialsDone).toBe(done.progress.trialsTotal)
     expect(done.progress.pointsDone).toBe(done.progress.pointsTotal)
     expect(resultBytes(await fullResult(queue, submitted.id))).toBe(resultBytes(computeInProcess(spec)))
+    // Each chunk ran once: the killed one had not passed the gate, the others were not redone.
+    const ran = gate.ranForSeed(spec.seed)
+    expect(new Set(ran.labels).size).toBe(ran.chunks)
+    expect(ran.chunks).toBe(done.progress.chunksTotal)
+    // No counter went down across the crash and the retry.
+    for (const counter of ['pointsDone', 'trialsDone', 'chunksDone'] as const) {
+      const values = seen.map((progress) => progress[counter])
+      expect(values, counter).toEqual([...values].sort((a, b) => a - b))
+    }
   })
 
   it('stops a chunk running in another worker process after a cancel sent to another API instance', async () => {

@@ -115,7 +115,12 @@ describe('embedded queue: resume after an interruption', () => {
       const reopened = await restarted.get(killed.id)
       expect(reopened?.status).toBe('running')
       expect(reopened?.progress.chunksDone).toBeGreaterThanOrEqual(killed.chunksDone)
-      expect((await waitForTerminal(restarted, killed.id)).status).toBe('succeeded')
+      const done = await waitForTerminal(restarted, killed.id)
+      expect(done.status).toBe('succeeded')
+      // The chunks stored before the kill were not computed again: every chunk passed the gate to run once.
+      const ran = gate.ranForSeed(spec.seed)
+      expect(new Set(ran.labels).size).toBe(ran.chunks)
+      expect(ran.chunks).toBe(done.progress.chunksTotal)
       const bytes = resultBytes(await fullResult(restarted, killed.id))
       expect(bytes.json).toBe(reference.json)
       expect(bytes.pointCsv).toBe(reference.pointCsv)
