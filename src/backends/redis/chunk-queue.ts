@@ -38,6 +38,9 @@ export interface DecideJobData {
 
 export type SweepJobData = ChunkJobData | AssembleJobData | DecideJobData
 
+/** The reason a job gives when its sweep was purged (or expired): the worker removes such a job once it ends. */
+export const SWEEP_GONE = 'sweep no longer stored'
+
 export type SweepJobName = 'chunk' | 'assemble' | 'decide'
 
 export interface ChunkRetryPolicy {

@@ -18,7 +18,7 @@ import {
   systemFailure, userFailure, type ChunkResult, type ChunkRunOutcome
 } from '../../../sweep/index.js'
 import type { SweepResult } from '../../../results/index.js'
-import { ChunkQueue, type AssembleJobData, type ChunkJobData, type ChunkRetryPolicy, type DecideJobData, type SweepJobData } from '../chunk-queue.js'
+import { ChunkQueue, SWEEP_GONE, type AssembleJobData, type ChunkJobData, type ChunkRetryPolicy, type DecideJobData, type SweepJobData } from '../chunk-queue.js'
 import { openConnection } from '../connections.js'
 import { publishSweepEvent } from '../events.js'
 import { keyLayout, type KeyLayout } from '../keys.js'
@@ -111,7 +111,7 @@ async function decide (context: SandboxContext, job: SandboxedJob<DecideJobData>
   const { store, chunks } = context
   const { sweepId, point, extent } = job.data
   const view = await store.workView(sweepId)
-  if (view === null) return { outcome: 'skipped', reason: 'sweep no longer stored' }
+  if (view === null) return { outcome: 'skipped', reason: SWEEP_GONE }
   if (isTerminal(view.status)) return { outcome: 'skipped', reason: `sweep is ${view.status}` }
   const spec = loadSpec(sweepId, job.data.specHash, view.specHash, view.specJson)
   const plan = await store.plan(sweepId)
@@ -137,7 +137,7 @@ async function runChunkJob (context: SandboxContext, job: SandboxedJob<ChunkJobD
   // Noted before the status is read: only a stop posted after a live status stops this chunk.
   const stopsBefore = board.stopsPosted(sweepId)
   const view = await store.workView(sweepId)
-  if (view === null) return { outcome: 'skipped', reason: 'sweep no longer stored' }
+  if (view === null) return { outcome: 'skipped', reason: SWEEP_GONE }
   if (isTerminal(view.status)) return { outcome: 'skipped', reason: `sweep is ${view.status}` }
   // A job of a run before the sweep's last resume: the resume enqueued this chunk afresh if it was missing.
   if ((job.data.run ?? 0) < view.run) return { outcome: 'skipped', reason: 'superseded by a resume' }
@@ -196,7 +196,7 @@ async function assemble (context: SandboxContext, job: SandboxedJob<AssembleJobD
   const { store } = context
   const { sweepId, chunksTotal } = job.data
   const view = await store.workView(sweepId)
-  if (view === null) return { outcome: 'skipped', reason: 'sweep no longer stored' }
+  if (view === null) return { outcome: 'skipped', reason: SWEEP_GONE }
   if (isTerminal(view.status)) return { outcome: 'skipped', reason: `sweep is ${view.status}` }
   let body: Uint8Array
   try {

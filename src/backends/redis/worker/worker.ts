@@ -13,7 +13,7 @@ import type { Redis } from 'ioredis'
 import type { Logger } from 'pino'
 import { systemFailure } from '../../../sweep/index.js'
 import { threadExecArgv } from '../../../runtime/node-flags.js'
-import { ChunkQueue, DEFAULT_RETRY_POLICY, type ChunkRetryPolicy, type SweepJobData, type SweepJobName } from '../chunk-queue.js'
+import { ChunkQueue, DEFAULT_RETRY_POLICY, SWEEP_GONE, type ChunkRetryPolicy, type SweepJobData, type SweepJobName } from '../chunk-queue.js'
 import { closeConnection, openConnection, redactUrl, workerConnectionOptions } from '../connections.js'
 import { EpochWatch } from '../data-loss.js'
 import { CHUNK_QUEUE_NAME, keyLayout } from '../keys.js'
@@ -200,8 +200,11 @@ export async function startWorker (options: WorkerProcessOptions): Promise<Runni
   })
   worker.on('completed', (job, result) => {
     running.remove(job.id ?? '')
-    const outcome = (result as ProcessorOutcome | null)?.outcome
+    const reply = result as ProcessorOutcome | null
+    const outcome = reply?.outcome
     observe(outcome === 'stored' || outcome === 'assembled' || outcome === 'stopped' ? outcome : 'skipped', job)
+    // A job that was in flight when its sweep was purged leaves nothing behind either.
+    if (reply?.outcome === 'skipped' && reply.reason === SWEEP_GONE) job.remove().catch(() => {})
   })
   worker.on('failed', (job, error) => {
     if (job === undefined) return
