@@ -12,6 +12,7 @@ import { figure } from './commands/figure.js'
 import { runLocal } from './commands/run-local.js'
 import { serve, worker } from './commands/services.js'
 import { submit } from './commands/submit.js'
+import { collect, extend, parseAddition, purge, resume } from './commands/workflow.js'
 import { CliError, EXIT, say, type CliIo } from './io.js'
 import { END_STATES } from '../engine/index.js'
 
@@ -82,6 +83,36 @@ export async function runCli (argv: readonly string[], io: CliIo): Promise<numbe
     .option('--reuse', 'reuse the results of an identical finished sweep instead of running again')
     .option('--idempotency-key <key>', 'makes retrying this submission safe')
     .action(async (spec: string, options) => { exitCode = await submit(io, spec, options) })
+
+  const serverOptions = (command: Command): Command => command
+    .option('--server <url>', 'server URL (MEMSWEEP_SERVER)', io.env.MEMSWEEP_SERVER ?? 'http://127.0.0.1:8080')
+    .option('--token <token>', 'bearer token (MEMSWEEP_TOKEN)', io.env.MEMSWEEP_TOKEN)
+  // extend's --trials is a count, so its per-trial download flag has another name.
+  const followOptions = (command: Command, perTrialFlag = '--trials'): Command => command
+    .option('--wait', 'follow the sweep until it ends; exit non-zero unless it succeeded')
+    .option('--output <file>', 'download the results here (.csv or .json); implies --wait')
+    .option('--format <format>', 'csv or json (default: from the file name)')
+    .option(perTrialFlag, 'per-trial rows')
+
+  followOptions(serverOptions(program.command('extend')
+    .description('extend a sweep with more trials per point and/or more values on an axis; its stored trials are reused, only the rest is computed; prints the new sweep\'s id')
+    .argument('<id>', 'the sweep to extend')
+    .option('--trials <n>', 'trials per point of the extension (at least the sweep\'s)', positiveInt)
+    .option('--add <parameter=values>', 'values to add on an axis, e.g. load=0.13,0.15 (repeatable)', parseAddition)
+    .option('--label <text>', 'label of the new sweep (default: the extended sweep\'s)')
+    .option('--tag <tag>', 'tag of the new sweep (repeatable; default: the extended sweep\'s tags)', collect)), '--trial-rows')
+    .action(async (id: string, options) => { exitCode = await extend(io, id, options) })
+
+  followOptions(serverOptions(program.command('resume')
+    .description('let a canceled or failed sweep run on under its id; the chunks it stored are kept')
+    .argument('<id>', 'the sweep to resume')))
+    .action(async (id: string, options) => { exitCode = await resume(io, id, options) })
+
+  serverOptions(program.command('purge')
+    .description('remove a finished sweep with its stored trials and results, for good (its owner only)')
+    .argument('<id>', 'the sweep to remove')
+    .option('--yes', 'confirm: without it nothing is removed'))
+    .action(async (id: string, options) => { exitCode = await purge(io, id, options) })
 
   program.command('figure')
     .description('draw results files (JSON) as an SVG figure; several files are overlaid, one series per sweep')

@@ -31,6 +31,21 @@ describe('memsweep run', () => {
     expect(one.stderr).toContain('3 grid point(s) × 30 trials = 90 trials')
   })
 
+  it('runs precision targets block by block in this process exactly as on worker threads', async () => {
+    const precise = { ...spec, load: { values: [0.03, 0.2] }, trials: 120, precision: { measure: 'success', halfWidth: 0.08, block: 30 } }
+    await writeFile(join(dir, 'precise.json'), JSON.stringify(precise))
+    const one = await cli(['run', join(dir, 'precise.json'), '-o', join(dir, 'precise-1.json'), '--threads', '1'])
+    expect(one.code, one.stderr).toBe(0)
+    const two = await cli(['run', join(dir, 'precise.json'), '-o', join(dir, 'precise-2.json'), '--threads', '2'])
+    expect(two.code, two.stderr).toBe(0)
+    const [a, b] = [JSON.parse(await readFile(join(dir, 'precise-1.json'), 'utf8')), JSON.parse(await readFile(join(dir, 'precise-2.json'), 'utf8'))]
+    expect(JSON.stringify(a.rows)).toBe(JSON.stringify(b.rows))
+    // The easy point stops after its first block; the one beyond capacity takes more.
+    expect(a.rows[0].summary.trials).toBe(30)
+    expect(a.rows[0].precision).toMatchObject({ measure: 'success', target: 0.08, met: true })
+    expect(a.rows[1].summary.trials).toBeGreaterThan(30)
+  })
+
   it('writes JSON, per-trial rows on request, from the file name', async () => {
     const res = await cli(['run', join(dir, 'spec.json'), '-o', join(dir, 'trials.json'), '--threads', '1', '--trials'])
     expect(res.code).toBe(0)

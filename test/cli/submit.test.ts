@@ -89,3 +89,63 @@ describe('memsweep submit', () => {
     expect(res.stderr).toContain('Cannot reach http://127.0.0.1:9')
   })
 })
+
+describe('memsweep extend, resume and purge', () => {
+  const auth = { authorization: `Bearer ${TOKEN}` }
+
+  it('extends a sweep with more trials and new loads, computing only what is missing, and downloads what a fresh run gives', async () => {
+    const first = await cli(['submit', join(dir, 'spec.json'), '--server', url, '--token', TOKEN, '--wait'])
+    expect(first.code, first.stderr).toBe(0)
+    const parent = first.stdout.trim()
+    const extended = await cli(['extend', parent, '--trials', '40', '--add', 'load=0.13,0.15', '--add', 'load=0.2', '--tag', 'museum', '--server', url, '--token', TOKEN, '--output', join(dir, 'extended.csv')])
+    expect(extended.code, extended.stderr).toBe(0)
+    const child = extended.stdout.trim()
+    // 2 loads × 20 trials of the parent are reused; 5 loads × 40 trials in all.
+    expect(extended.stderr).toContain(`Extended ${parent} as sweep ${child}`)
+    expect(extended.stderr).toContain('40 of its 200 trials taken from earlier sweeps, 160 to compute')
+    const record = (await h.app.inject({ method: 'GET', url: `/v1/sweeps/${child}`, headers: auth })).json()
+    expect(record).toMatchObject({ extends: parent, tags: ['museum'], spec: { trials: 40, load: { values: [0.05, 0.12, 0.13, 0.15, 0.2] } } })
+    const fresh = await h.app.inject({ method: 'POST', url: '/v1/sweeps?reusePoints=false', headers: auth, payload: record.spec })
+    await h.waitFor(fresh.json().id, isTerminal)
+    const freshRows = (await h.app.inject({ method: 'GET', url: `/v1/sweeps/${fresh.json().id as string}/results`, headers: auth })).json().rows
+    const childRows = (await h.app.inject({ method: 'GET', url: `/v1/sweeps/${child}/results`, headers: auth })).json().rows
+    expect(JSON.stringify(childRows)).toBe(JSON.stringify(freshRows))
+    const served = await h.app.inject({ method: 'GET', url: `/v1/sweeps/${child}/results?format=csv`, headers: auth })
+    expect(await readFile(join(dir, 'extended.csv'), 'utf8')).toBe(served.body)
+  })
+
+  it('refuses an extension with nothing to add, or an --add that is not parameter=numbers, before calling the server', async () => {
+    expect((await cli(['extend', 'some-sweep', '--server', 'http://127.0.0.1:9'])).code).toBe(2)
+    const malformed = await cli(['extend', 'some-sweep', '--add', 'load=high', '--server', 'http://127.0.0.1:9'])
+    expect(malformed.code).toBe(2)
+    expect(malformed.stderr).toContain('must be numbers')
+  })
+
+  it('resumes a canceled sweep and waits for it; purges it only with --yes', async () => {
+    gate.hold()
+    const submitted = await cli(['submit', join(dir, 'held.json'), '--server', url, '--token', TOKEN])
+    const id = submitted.stdout.trim()
+    try {
+      await gate.untilWaiting()
+      await h.app.inject({ method: 'DELETE', url: `/v1/sweeps/${id}`, headers: auth })
+      await h.waitFor(id, isTerminal)
+    } finally {
+      gate.open()
+    }
+    const resumed = await cli(['resume', id, '--server', url, '--token', TOKEN, '--wait'])
+    expect(resumed.code, resumed.stderr).toBe(0)
+    expect(resumed.stderr).toContain(`Resumed sweep ${id}`)
+    expect(resumed.stderr).toContain(`Sweep ${id} succeeded.`)
+
+    const unconfirmed = await cli(['purge', id, '--server', url, '--token', TOKEN])
+    expect(unconfirmed.code).toBe(2)
+    expect(unconfirmed.stderr).toContain('--yes')
+    expect((await h.app.inject({ method: 'GET', url: `/v1/sweeps/${id}`, headers: auth })).statusCode).toBe(200)
+    const purged = await cli(['purge', id, '--yes', '--server', url, '--token', TOKEN])
+    expect(purged.code, purged.stderr).toBe(0)
+    expect((await h.app.inject({ method: 'GET', url: `/v1/sweeps/${id}`, headers: auth })).statusCode).toBe(404)
+    const again = await cli(['purge', id, '--yes', '--server', url, '--token', TOKEN])
+    expect(again.code).toBe(2)
+    expect(again.stderr).toContain('404 MEMSWEEP_SWEEP_NOT_FOUND')
+  })
+})

@@ -9,9 +9,10 @@ import { availableParallelism, tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { setImmediate as yieldToEventLoop } from 'node:timers/promises'
 import { TERMINAL_STATUSES, type SweepRecord } from '../../backends/port.js'
-import { estimateWork, normaliseSpec, SpecValidationError, type NormalisedSpec } from '../../spec/index.js'
+import { countPoints, estimateWork, normaliseSpec, SpecValidationError, type NormalisedSpec } from '../../spec/index.js'
 import {
-  assembleStored, makeProvenance, planSweep, progressCounters, runChunk, storedTrials, systemCauseOf, systemFailure, userFailure, type StoredChunk
+  assembleStored, decidePoint, makeProvenance, planSweep, pointRecords, progressCounters, runChunk, storedTrials, systemCauseOf, systemFailure,
+  userFailure, type Chunk, type StoredChunk
 } from '../../sweep/index.js'
 import { runtimeFacts } from '../../runtime/facts.js'
 import { RESULT_SERIES, resultToCsv, resultToJson, trajectoryCsv, trajectoryJson, trajectoryUnavailable, type SweepResult } from '../../results/index.js'
@@ -67,7 +68,10 @@ export async function runLocal (io: CliIo, specPath: string, options: RunLocalOp
 
 async function runInProcess (spec: NormalisedSpec, progress: ProgressReporter, signal: AbortSignal | undefined): Promise<SweepResult> {
   compileKernelsOptimised()
-  const plan = planSweep(spec)
+  // With precision targets the plan grows: a point whose blocks are all run is decided on,
+  // exactly as the backends do, and either closed or given its next block.
+  const plan = { chunks: [...planSweep(spec).chunks] as Chunk[] }
+  const open = new Set(spec.precision === undefined ? [] : Array.from({ length: countPoints(spec) }, (_, point) => point))
   const stored: StoredChunk[] = []
   const done = new Set<number>()
   const started = performance.now()
@@ -79,7 +83,8 @@ async function runInProcess (spec: NormalisedSpec, progress: ProgressReporter, s
     progress.update({ ...counters, estimatedSecondsLeft: left })
   }
   show()
-  for (const chunk of plan.chunks) {
+  for (let next = 0; next < plan.chunks.length; next++) {
+    const chunk = plan.chunks[next]!
     const outcome = runChunk(spec, chunk, {
       shouldStop: () => signal?.aborted === true,
       onProgress: (trialsDone) => show(new Map([[chunk.index, trialsDone]])),
@@ -92,6 +97,12 @@ async function runInProcess (spec: NormalisedSpec, progress: ProgressReporter, s
     }
     stored.push({ index: chunk.index, body: outcome.body })
     done.add(chunk.index)
+    const planned = plan.chunks.filter((c) => c.point === chunk.point)
+    if (open.has(chunk.point) && planned.every((c) => done.has(c.index))) {
+      const decision = decidePoint(spec, chunk.point, pointRecords(spec, planned, stored, chunk.point))
+      if (decision.kind === 'close') open.delete(chunk.point)
+      else for (const piece of decision.pieces) plan.chunks.push({ index: plan.chunks.length, point: chunk.point, ...piece })
+    }
     show()
     // Lets the progress bar redraw and Ctrl-C land between chunks.
     await yieldToEventLoop()

@@ -27,7 +27,7 @@ export interface SubmitOptions {
 }
 
 export async function submit (io: CliIo, specPath: string, options: SubmitOptions): Promise<number> {
-  const format = options.output === undefined ? null : outputFormat(options.output, options.format)
+  if (options.output !== undefined) outputFormat(options.output, options.format)
   const client = new ApiClient({ server: options.server, token: options.token })
   const spec = await readSpecFile(specPath)
   const headers: Record<string, string> = { 'content-type': 'application/json' }
@@ -35,8 +35,26 @@ export async function submit (io: CliIo, specPath: string, options: SubmitOption
   const submitted = await client.json<SweepStatus>(`/v1/sweeps${options.reuse === true ? '?reuse=true' : ''}`, { method: 'POST', headers, body: JSON.stringify(spec) })
   io.stdout.write(`${submitted.id}\n`)
   say(io, `Submitted sweep ${submitted.id} (${submitted.status}) to ${options.server}.`)
-  if (options.wait !== true && options.output === undefined) return EXIT.ok
+  return await awaitAndDownload(io, client, submitted, options)
+}
 
+/** What to do once a sweep is accepted: nothing, or follow it and optionally download its results. */
+export interface FollowOptions {
+  wait?: boolean
+  output?: string
+  format?: string
+  trials?: boolean
+  series?: string
+  pollSeconds?: number
+}
+
+/**
+ * Follows an accepted sweep (with --wait or --output) to its end and downloads the results:
+ * shared by submit, extend and resume. Returns the exit code.
+ */
+export async function awaitAndDownload (io: CliIo, client: ApiClient, submitted: SweepStatus, options: FollowOptions): Promise<number> {
+  if (options.wait !== true && options.output === undefined) return EXIT.ok
+  const format = options.output === undefined ? null : outputFormat(options.output, options.format)
   const final = await follow(io, client, submitted, (options.pollSeconds ?? 2) * 1000)
   if (final.status !== 'succeeded') {
     const why = final.status === 'failed' ? `failed (${final.error?.kind ?? 'unknown'} error): ${final.error?.message ?? ''}` : 'was canceled'
