@@ -13,7 +13,7 @@ import type { RuntimeFacts } from '../runtime/facts.js'
 import { assembleSearches } from './analysis/assemble-searches.js'
 import { decodeValue } from './codec.js'
 import { POINT_KEYING, type ChunkResult } from './compute-chunk.js'
-import { IncompleteResultError } from './errors.js'
+import { EngineMixError, IncompleteResultError } from './errors.js'
 import { precisionOutcome } from './precision.js'
 import type { Chunk } from './plan.js'
 
@@ -58,7 +58,7 @@ export function assembleStored (spec: NormalisedSpec, plan: readonly Chunk[], st
   const bodies = new Map(stored.map((chunk) => [chunk.index, chunk.body]))
   const missing = plan.filter((chunk) => !bodies.has(chunk.index))
   if (missing.length > 0) throw new IncompleteResultError([`${missing.length} of ${plan.length} chunks are not stored (first: ${missing[0]!.index})`])
-  const decode = (chunk: Chunk): ChunkResult => ({ ...decodeValue<ChunkResult>(bodies.get(chunk.index)!), chunk: chunk.index, point: chunk.point })
+  const decode = (chunk: Chunk): ChunkResult => decodeChunk(bodies.get(chunk.index)!, chunk)
   // A search's chunk is its whole result; the canonical stream's one chunk holds every point.
   if (spec.analysis !== undefined || spec.streams === 'canonical') return { ...assembleResult(spec, plan.map(decode), provenance), trials: [] }
 
@@ -107,13 +107,13 @@ export function assemblePartial (spec: NormalisedSpec, plan: readonly Chunk[], s
     for (let point = 0; point < points; point++) {
       const planned = chunksOfPoint.get(point) ?? []
       if (open.has(point) || planned.length === 0 || !planned.every((chunk) => bodies.has(chunk.index))) continue
-      const results = planned.map((chunk) => ({ ...decodeValue<ChunkResult>(bodies.get(chunk.index)!), chunk: chunk.index, point }))
+      const results = planned.map((chunk) => decodeChunk(bodies.get(chunk.index)!, chunk))
       rows.push(resultRow(spec, point, placePointTrials(spec, point, results, trialsOf(planned))))
     }
     return { specHash: hash, spec, rows, trials: [], provenance: sortKeysDeep(provenance), partial: { pointsDone: rows.length, pointsTotal: points } }
   }
   // A search is finished when its one chunk is stored.
-  const done = plan.filter((chunk) => bodies.has(chunk.index)).map((chunk) => ({ ...decodeValue<ChunkResult>(bodies.get(chunk.index)!), chunk: chunk.index, point: chunk.point }))
+  const done = plan.filter((chunk) => bodies.has(chunk.index)).map((chunk) => decodeChunk(bodies.get(chunk.index)!, chunk))
   const searches = done.map((result) => {
     const { values, params } = pointAt(spec, result.point)
     const payload = result.search!
@@ -180,7 +180,7 @@ export function pointRecords (spec: NormalisedSpec, plan: readonly Chunk[], stor
   const results = planned.map((chunk) => {
     const body = bodies.get(chunk.index)
     if (body === undefined) throw new IncompleteResultError([`chunk ${chunk.index} of point ${point} is not stored`])
-    return { ...decodeValue<ChunkResult>(body), chunk: chunk.index, point }
+    return decodeChunk(body, chunk)
   })
   return placePointTrials(spec, point, results, trialsOf(planned))
 }
@@ -191,8 +191,20 @@ export function storedTrials (spec: NormalisedSpec, plan: readonly Chunk[], stor
   return placeTrials(spec, plan.map((chunk) => {
     const body = bodies.get(chunk.index)
     if (body === undefined) throw new IncompleteResultError([`chunk ${chunk.index} is not stored`])
-    return { ...decodeValue<ChunkResult>(body), chunk: chunk.index, point: chunk.point }
+    return decodeChunk(body, chunk)
   }))
+}
+
+/**
+ * A stored chunk's result, placed at its planned chunk. Chunks record the engine release that
+ * computed them (run-chunk.ts); one result never mixes two releases, whose records may differ.
+ *
+ * @throws {EngineMixError} for a chunk computed by another engine release than this one.
+ */
+function decodeChunk (body: Uint8Array, chunk: Chunk): ChunkResult {
+  const { engine, ...result } = decodeValue<ChunkResult & { engine?: string }>(body)
+  if (engine !== undefined && engine !== ENGINE_VERSION) throw new EngineMixError(chunk.index, engine, ENGINE_VERSION)
+  return { ...result, chunk: chunk.index, point: chunk.point }
 }
 
 /** The trials of one point from its chunks' results, in trial order (see placeTrials). */

@@ -25,3 +25,12 @@ export class IncompleteResultError extends Error {
     Object.setPrototypeOf(this, new.target.prototype)
   }
 }
+
+/** A stored chunk was computed by another engine release than the one assembling the sweep. */
+export class EngineMixError extends Error {
+  constructor (readonly chunk: number, readonly computedBy: string, readonly assembledBy: string) {
+    super(`Chunk ${chunk} was computed by engine ${computedBy}; this release runs engine ${assembledBy}.`)
+    this.name = 'EngineMixError'
+    Object.setPrototypeOf(this, new.target.prototype)
+  }
+}

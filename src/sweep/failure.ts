@@ -27,6 +27,7 @@ export const SYSTEM_CAUSES = {
   storage: { text: 'the result could not be stored', transient: true },
   'lost-worker': { text: 'the worker running it stopped answering (a crash or a lost lock)', transient: true },
   'unexpected-answer': { text: 'the compute thread answered unexpectedly', transient: true },
+  'engine-changed': { text: 'its chunks were computed by two engine releases (the service was upgraded while it ran), and one result never mixes two engines', transient: true },
   internal: { text: 'an internal error', transient: true }
 } as const satisfies Record<string, { text: string, transient: boolean }>
 
@@ -35,6 +36,8 @@ export type SystemCause = keyof typeof SYSTEM_CAUSES
 /** Names of the errors a compute thread's death is reported as (see the embedded scheduler). */
 export const THREAD_CRASH_ERROR_NAME = 'ThreadCrash'
 export const THREAD_OUT_OF_MEMORY_ERROR_NAME = 'ThreadOutOfMemory'
+/** Assembly found chunks of another engine release (errors.ts EngineMixError). */
+export const ENGINE_MIX_ERROR_NAME = 'EngineMixError'
 
 export interface ClassifiedError {
   kind: SweepFailure['kind'] | 'canceled'
@@ -68,6 +71,7 @@ export function classifyChunkError (error: unknown): ClassifiedError {
 export function systemCauseOf (errorName: string): SystemCause {
   if (errorName === THREAD_OUT_OF_MEMORY_ERROR_NAME) return 'out-of-memory'
   if (errorName === THREAD_CRASH_ERROR_NAME) return 'thread-crash'
+  if (errorName === ENGINE_MIX_ERROR_NAME) return 'engine-changed'
   return 'internal'
 }
 

@@ -17,7 +17,7 @@ export {
   type ClassifiedError, type SystemCause
 } from './failure.js'
 export { CODEC_NAME, encodeValue, decodeValue } from './codec.js'
-export { ChunkCanceledError, IncompleteResultError } from './errors.js'
+export { ChunkCanceledError, EngineMixError, IncompleteResultError } from './errors.js'
 export { searchStreamPoint, SEARCH_STREAM_OFFSET, SEARCH_STEP_STRIDE } from './analysis/run-search.js'
 export { SIMULATED_CAPACITY, RS_CAPACITY_SOURCE } from './analysis/scaling.js'
 export { ANY_OWNER } from './store.js'
