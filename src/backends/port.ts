@@ -7,7 +7,7 @@
 import type { TrialRecord } from '../engine/index.js'
 import type { NormalisedSpec } from '../spec/index.js'
 import type { SweepResult } from '../results/index.js'
-import type { Annotation, Chunk, ListQuery, StoredChunk, SweepPage, SweepRecord } from '../sweep/index.js'
+import type { Annotation, EncodedResult, ListQuery, StoredProgress, SweepPage, SweepRecord } from '../sweep/index.js'
 
 export {
   SWEEP_STATUSES, TERMINAL_STATUSES, ANY_OWNER, SWEEP_ID_MAX_LENGTH, SWEEP_ID_PATTERN,
@@ -37,21 +37,8 @@ export interface SubmitInput {
 }
 
 /** What is stored of a sweep so far, whatever its state: for partial results. */
-export interface StoredProgress {
-  spec: NormalisedSpec
-  plan: Chunk[]
-  chunks: StoredChunk[]
-  /** Points still taking trial blocks (precision targets): their rows are not final. */
-  openPoints: number[]
-}
-
-/** A succeeded sweep's result as stored, for rendering off the event loop. */
-export interface EncodedResult {
-  /** The V8-encoded SweepResult (rows or searches and provenance; `trials` empty unless stored by an earlier release). */
-  result: Uint8Array
-  /** The plan and the stored chunks that hold the trial records, when asked for. */
-  trials: { plan: Chunk[], chunks: StoredChunk[] } | null
-}
+/** What an unfinished sweep has stored, and a finished result's stored bytes: read alike by every backend (src/sweep/read.ts). */
+export type { EncodedResult, StoredProgress } from '../sweep/index.js'
 
 export interface QueueStats {
   queued: number

@@ -29,5 +29,6 @@ export { planWithReuse, pointPieces, initialTrials, type ReusableRange, type Pla
 export { reuseKeysOf } from './reuse.js'
 export { decidePoint, precisionHalfWidth, precisionOutcome, type PointDecision } from './precision.js'
 export { pointRecords } from './assemble.js'
+export { readChunks, readEncodedResult, readResult, readStoredProgress, readTrials, READ_SLICE_CHUNKS, type EncodedResult, type StoredProgress } from './read.js'
 export { submitToStore, type SubmitRequest, type SubmitOutcome } from './submit.js'
 export type { Annotation, StoredRange } from './store.js'

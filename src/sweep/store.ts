@@ -162,6 +162,13 @@ export interface SweepStore {
   recordChunk (id: string, chunk: Chunk, body: Uint8Array, computeMs: number, nowMs: number): Promise<ChunkOutcome>
   /** Every stored chunk, ascending by index, and the compute time they took. */
   storedChunks (id: string): Promise<{ chunks: StoredChunk[], computeMs: number }>
+  /**
+   * The stored chunks holding the sweep's trials with index in [from, from + count),
+   * ascending: one bounded read, so large sweeps are read in slices (src/sweep/read.ts).
+   */
+  chunksBetween (id: string, from: number, count: number): Promise<StoredChunk[]>
+  /** The plan of the chunks holding the sweep's trials: its own, or for a result reused by an earlier release, the original's. */
+  trialsPlan (id: string): Promise<SweepPlan | null>
   /** running (or queued) → succeeded with the assembled result; only when the plan is complete. */
   succeed (id: string, resultBody: Uint8Array, nowMs: number): Promise<Transition>
   /** queued or running → failed or canceled; a no-op on a finished sweep. */

@@ -132,6 +132,18 @@ export function storeContract (name: string, factory: StoreFactory): void {
       expect((await store.get('s1'))?.progress).toEqual({ pointsDone: 2, pointsTotal: 2, trialsDone: 20, trialsTotal: 20, chunksDone: 5, chunksTotal: 5 })
     })
 
+    it('reads stored chunks in bounded slices by index, skipping those not stored', async () => {
+      await store.create(draft('s1'))
+      for (const index of [0, 2, 3, 4]) await store.recordChunk('s1', PLAN.chunks[index]!, body(index), 2, now())
+      const indices = async (from: number, count: number): Promise<number[]> => (await store.chunksBetween('s1', from, count)).map((chunk) => chunk.index)
+      expect(await indices(0, 2)).toEqual([0])
+      expect(await indices(1, 3)).toEqual([2, 3])
+      expect(await indices(3, 10)).toEqual([3, 4])
+      expect(Array.from((await store.chunksBetween('s1', 2, 1))[0]!.body)).toEqual(Array.from(body(2)))
+      expect(await store.trialsPlan('s1')).toEqual(PLAN)
+      expect(await store.trialsPlan('unknown')).toBeNull()
+    })
+
     it('succeeds only once and only when complete; keeps the chunks and frees the active slot', async () => {
       await store.create(draft('s1'))
       await recordAll(store, 's1', PLAN.chunks.slice(0, 4))

@@ -4,14 +4,13 @@
  * process. Interrupted sweeps resume on the next start, keeping the chunks already stored.
  */
 import { randomUUID } from 'node:crypto'
-import { setImmediate as yieldToEventLoop } from 'node:timers/promises'
 import { availableParallelism } from 'node:os'
 import type { Logger } from 'pino'
 import type { ResourceLimits } from 'node:worker_threads'
 import type { TrialRecord } from '../../engine/index.js'
 import { specHash } from '../../spec/index.js'
 import type { SweepResult } from '../../results/index.js'
-import { checkPlan, decodeValue, planSweep, storedTrials, submitToStore, unresumableFailure, type Annotation, type ListQuery, type StoredChunk, type SweepPage, type SweepRecord } from '../../sweep/index.js'
+import { checkPlan, planSweep, readEncodedResult, readResult, readStoredProgress, readTrials, submitToStore, unresumableFailure, type Annotation, type ListQuery, type SweepPage, type SweepRecord } from '../../sweep/index.js'
 import { ActiveSweepCapError, IdempotencyConflictError, StorageUnavailableError } from '../errors.js'
 import type { EncodedResult, QueueStats, StoredProgress, SubmitInput, SweepEvent, SweepQueue } from '../port.js'
 import { ActiveSweep } from './active-sweep.js'
@@ -67,9 +66,6 @@ export interface EmbeddedQueueOptions {
    */
   workerEntry?: WorkerEntry
 }
-
-/** Stored chunks read from SQLite per event-loop turn when a result's trials are read. */
-const READ_BATCH_CHUNKS = 16
 
 const DEFAULT_TUNING: EmbeddedQueueTuning = {
   maxAttempts: 3,
@@ -234,10 +230,7 @@ class EmbeddedQueue implements SweepQueue {
 
   async storedProgress (id: string): Promise<StoredProgress | null> {
     this.#assertOpen()
-    const record = this.#store.getNow(id)
-    const plan = await this.#store.trialsPlan(id)
-    if (record === null || plan === null) return null
-    return { spec: record.spec, plan: plan.chunks, chunks: await this.#readChunks(id), openPoints: await this.#store.openPoints(id) }
+    return await readStoredProgress(this.#store, id)
   }
 
   /** Hands a stored queued sweep to the scheduler, with its stored plan, chunks and open points. */
@@ -255,20 +248,6 @@ class EmbeddedQueue implements SweepQueue {
       openPoints: this.#store.openPointsNow(id),
       startedMs: record.startedAt === null ? null : Date.parse(record.startedAt)
     }))
-  }
-
-  /** Every stored chunk of a sweep, read a batch per event-loop turn. */
-  async #readChunks (id: string): Promise<StoredChunk[]> {
-    const chunks: StoredChunk[] = []
-    for (let from = 0; ;) {
-      const batch = this.#store.storedChunksFrom(id, from, READ_BATCH_CHUNKS)
-      chunks.push(...batch)
-      if (batch.length < READ_BATCH_CHUNKS) break
-      from = batch[batch.length - 1]!.index + 1
-      // A long read in slices: requests keep being answered in between.
-      await yieldToEventLoop()
-    }
-    return chunks
   }
 
   async get (id: string): Promise<SweepRecord | null> {
@@ -291,28 +270,17 @@ class EmbeddedQueue implements SweepQueue {
 
   async results (id: string): Promise<SweepResult | null> {
     this.#assertOpen()
-    const body = await this.#store.resultBody(id)
-    return body === null ? null : decodeValue<SweepResult>(body)
+    return await readResult(this.#store, id)
   }
 
   async trials (id: string): Promise<TrialRecord[][] | null> {
     this.#assertOpen()
-    const encoded = await this.encodedResult(id, { trials: true })
-    if (encoded === null) return null
-    const result = decodeValue<SweepResult>(encoded.result)
-    // Results stored before chunks were kept hold their trials themselves.
-    if (result.trials.length > 0 || result.spec.analysis !== undefined || encoded.trials === null) return result.trials
-    return storedTrials(result.spec, encoded.trials.plan, encoded.trials.chunks)
+    return await readTrials(this.#store, id)
   }
 
   async encodedResult (id: string, options: { trials: boolean }): Promise<EncodedResult | null> {
     this.#assertOpen()
-    const result = await this.#store.resultBody(id)
-    if (result === null) return null
-    if (!options.trials) return { result, trials: null }
-    const plan = await this.#store.trialsPlan(id)
-    if (plan === null) return { result, trials: null }
-    return { result, trials: { plan: plan.chunks, chunks: await this.#readChunks(id) } }
+    return await readEncodedResult(this.#store, id, options)
   }
 
   subscribe (id: string, listener: (event: SweepEvent) => void): () => void {

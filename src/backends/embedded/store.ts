@@ -426,14 +426,12 @@ export class SqliteSweepStore implements SweepStore {
     return this.storedChunksNow(id)
   }
 
-  /** Up to `limit` stored chunks from index `fromIndex` on, ascending. */
-  storedChunksFrom (id: string, fromIndex: number, limit: number): StoredChunk[] {
-    const rows = this.#statements.chunkBodiesFrom.all(this.#dataOwner(id), fromIndex, limit) as Array<{ chunk_index: number, codec: string, body: Uint8Array }>
+  async chunksBetween (id: string, from: number, count: number): Promise<StoredChunk[]> {
+    const rows = this.#statements.chunkBodiesBetween.all(this.#dataOwner(id), from, from + count) as Array<{ chunk_index: number, codec: string, body: Uint8Array }>
     for (const row of rows) if (row.codec !== CODEC_NAME) throw new Error(`Unknown chunk codec '${row.codec}'.`)
     return rows.map((row) => ({ index: row.chunk_index, body: row.body }))
   }
 
-  /** The plan of the sweep whose chunks hold this sweep's trials (itself, or for a reuse stored by an earlier release, its original). */
   async trialsPlan (id: string): Promise<SweepPlan | null> {
     return await this.plan(this.#dataOwner(id))
   }
@@ -762,7 +760,7 @@ function prepareStatements (db: Database.Database) {
       SELECT @sweep_id, @chunk_index, @point, first_trial, trials, 0, codec, body, @finished_ms FROM chunk_results
       WHERE sweep_id = @from_sweep AND chunk_index = @from_chunk AND first_trial = @first_trial AND trials = @trials`),
     chunkBodies: db.prepare('SELECT chunk_index, codec, body, compute_ms FROM chunk_results WHERE sweep_id = ? ORDER BY chunk_index'),
-    chunkBodiesFrom: db.prepare('SELECT chunk_index, codec, body FROM chunk_results WHERE sweep_id = ? AND chunk_index >= ? ORDER BY chunk_index LIMIT ?'),
+    chunkBodiesBetween: db.prepare('SELECT chunk_index, codec, body FROM chunk_results WHERE sweep_id = ? AND chunk_index >= ? AND chunk_index < ? ORDER BY chunk_index'),
     copyChunks: db.prepare(`
       INSERT INTO chunk_results (sweep_id, chunk_index, point, first_trial, trials, compute_ms, codec, body, finished_ms)
       SELECT ?, chunk_index, point, first_trial, trials, 0, codec, body, ? FROM chunk_results WHERE sweep_id = ?`),

@@ -10,7 +10,7 @@ import type { TrialRecord } from '../../engine/index.js'
 import { specHash } from '../../spec/index.js'
 import type { SweepResult } from '../../results/index.js'
 import {
-  dataLossFailure, decodeValue, isSweepId, isTerminal, newSweepId, planSweep, storedTrials, submitToStore,
+  dataLossFailure, isSweepId, isTerminal, newSweepId, planSweep, readEncodedResult, readResult, readStoredProgress, readTrials, submitToStore,
   type Annotation, type ListQuery, type SweepPage, type SweepRecord
 } from '../../sweep/index.js'
 import { ActiveSweepCapError, IdempotencyConflictError } from '../errors.js'
@@ -218,9 +218,7 @@ class RedisQueue implements SweepQueue {
   async storedProgress (id: string): Promise<StoredProgress | null> {
     this.#assertOpen()
     if (!isSweepId(id)) return null
-    const [record, plan] = await Promise.all([this.store.get(id), this.store.plan(id)])
-    if (record === null || plan === null) return null
-    return { spec: record.spec, plan: plan.chunks, chunks: await this.store.chunksInBatches(id, plan.chunks.length), openPoints: await this.store.openPoints(id) }
+    return await readStoredProgress(this.store, id)
   }
 
   async get (id: string): Promise<SweepRecord | null> {
@@ -258,29 +256,19 @@ class RedisQueue implements SweepQueue {
   async results (id: string): Promise<SweepResult | null> {
     this.#assertOpen()
     if (!isSweepId(id)) return null
-    const body = await this.store.resultBody(id)
-    return body === null ? null : decodeValue<SweepResult>(body)
+    return await readResult(this.store, id)
   }
 
   async trials (id: string): Promise<TrialRecord[][] | null> {
     this.#assertOpen()
-    const encoded = await this.encodedResult(id, { trials: true })
-    if (encoded === null) return null
-    const result = decodeValue<SweepResult>(encoded.result)
-    // Results stored before chunks were kept hold their trials themselves.
-    if (result.trials.length > 0 || result.spec.analysis !== undefined || encoded.trials === null) return result.trials
-    return storedTrials(result.spec, encoded.trials.plan, encoded.trials.chunks)
+    if (!isSweepId(id)) return null
+    return await readTrials(this.store, id)
   }
 
   async encodedResult (id: string, options: { trials: boolean }): Promise<EncodedResult | null> {
     this.#assertOpen()
     if (!isSweepId(id)) return null
-    const result = await this.store.resultBody(id)
-    if (result === null) return null
-    if (!options.trials) return { result, trials: null }
-    const plan = await this.store.plan(id)
-    if (plan === null) return { result, trials: null }
-    return { result, trials: { plan: plan.chunks, chunks: await this.store.chunksInBatches(id, plan.chunks.length) } }
+    return await readEncodedResult(this.store, id, options)
   }
 
   subscribe (id: string, listener: (event: SweepEvent) => void): () => void {

@@ -212,18 +212,19 @@ export class RedisSweepStore implements SweepStore {
     return { chunks, computeMs: Number(computeMs ?? 0) }
   }
 
-  /** The stored chunks of a plan of `count` chunks, read a batch of fields at a time (no single reply of the whole hash). */
-  async chunksInBatches (id: string, count: number, batch = 64): Promise<StoredChunk[]> {
-    const key = this.keys.sweep(id).chunks
+  async chunksBetween (id: string, from: number, count: number): Promise<StoredChunk[]> {
+    if (count <= 0) return []
+    const fields = Array.from({ length: count }, (_, offset) => String(from + offset))
+    const bodies = await this.redis.hmgetBuffer(this.keys.sweep(id).chunks, ...fields)
     const chunks: StoredChunk[] = []
-    for (let first = 0; first < count; first += batch) {
-      const fields = Array.from({ length: Math.min(batch, count - first) }, (_, offset) => String(first + offset))
-      const bodies = await this.redis.hmgetBuffer(key, ...fields)
-      bodies.forEach((body, offset) => {
-        if (body !== null) chunks.push({ index: first + offset, body: new Uint8Array(body.buffer, body.byteOffset, body.byteLength) })
-      })
-    }
+    bodies.forEach((body, offset) => {
+      if (body !== null) chunks.push({ index: from + offset, body: new Uint8Array(body.buffer, body.byteOffset, body.byteLength) })
+    })
     return chunks
+  }
+
+  async trialsPlan (id: string): Promise<SweepPlan | null> {
+    return await this.plan(id)
   }
 
   /** The stored chunks among these indices (missing ones left out). */
