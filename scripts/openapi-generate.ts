@@ -1,23 +1,36 @@
 /**
- * Writes openapi/openapi.json from the route schemas (`npm run openapi:generate`), or with
- * --check fails when the committed file differs from what the code generates
- * (`npm run openapi:check`). The file is never edited by hand.
+ * Writes openapi/openapi.json from the route schemas and src/api-types/openapi.d.ts from that
+ * document (`npm run openapi:generate`), or with --check fails when a committed file differs
+ * from what the code generates (`npm run openapi:check`). Neither file is edited by hand.
  */
 import { readFile, writeFile } from 'node:fs/promises'
 import { fileURLToPath } from 'node:url'
 import { buildOpenApiDocument, serialiseOpenApiDocument } from '../src/api/openapi-build.js'
+import { generateApiTypes } from './openapi-types.js'
 
-const target = fileURLToPath(new URL('../openapi/openapi.json', import.meta.url))
-const text = serialiseOpenApiDocument(await buildOpenApiDocument())
+const documentPath = fileURLToPath(new URL('../openapi/openapi.json', import.meta.url))
+const typesPath = fileURLToPath(new URL('../src/api-types/openapi.d.ts', import.meta.url))
+const documentText = serialiseOpenApiDocument(await buildOpenApiDocument())
+const outputs = [
+  { path: documentPath, name: 'openapi/openapi.json', text: documentText, source: 'the route schemas' },
+  { path: typesPath, name: 'src/api-types/openapi.d.ts', text: await generateApiTypes(documentText), source: 'openapi/openapi.json' }
+]
 
 if (process.argv.includes('--check')) {
-  const committed = await readFile(target, 'utf8').catch(() => '')
-  if (committed !== text) {
-    console.error('openapi/openapi.json is out of date with the route schemas: run `npm run openapi:generate` and commit the result.')
-    process.exit(1)
+  let stale = false
+  for (const output of outputs) {
+    const committed = await readFile(output.path, 'utf8').catch(() => '')
+    if (committed === output.text) {
+      console.log(`${output.name} matches ${output.source}.`)
+    } else {
+      console.error(`${output.name} is out of date with ${output.source}: run \`npm run openapi:generate\` and commit the result.`)
+      stale = true
+    }
   }
-  console.log('openapi/openapi.json matches the route schemas.')
+  if (stale) process.exit(1)
 } else {
-  await writeFile(target, text)
-  console.log(`wrote ${target}`)
+  for (const output of outputs) {
+    await writeFile(output.path, output.text)
+    console.log(`wrote ${output.path}`)
+  }
 }

@@ -1,4 +1,5 @@
 /** The few HTTP calls the CLI makes to a memsweep server, with errors turned into exit codes. */
+import type { components } from '../api-types/openapi.js'
 import { CliError, EXIT } from './io.js'
 
 export interface ApiClientOptions {
@@ -6,17 +7,13 @@ export interface ApiClientOptions {
   token?: string | undefined
 }
 
-export interface SweepStatus {
-  id: string
-  status: 'queued' | 'running' | 'succeeded' | 'failed' | 'canceled'
-  label: string | null
-  progress: { trialsDone: number, trialsTotal: number, pointsDone: number, pointsTotal: number, estimatedSecondsLeft: number | null }
-  error: { kind: 'user' | 'system', message: string } | null
-}
+/** A sweep's status as the server sends it (generated from openapi/openapi.json). */
+export type SweepStatus = components['schemas']['Sweep']
 
-export const TERMINAL = new Set(['succeeded', 'failed', 'canceled'])
+export const TERMINAL: ReadonlySet<SweepStatus['status']> = new Set(['succeeded', 'failed', 'canceled'])
 
-interface Problem { title?: string, detail?: string, code?: string, errors?: Array<{ path: string, message: string }> }
+/** A problem document; a proxy in front of the server may send less than the server's full one. */
+type Problem = Partial<components['schemas']['Problem']>
 
 export class ApiClient {
   readonly #base: string

@@ -1,6 +1,6 @@
 /**
  * The OpenAPI document: generated from the route schemas and committed, so it must equal
- * what the code generates now; error codes agree between the registry, docs/errors.md and
+ * what the code generates now (and so must the TypeScript types generated from it); error codes agree between the registry, docs/errors.md and
  * the document; every operation documents its problems.
  */
 import { spawn } from 'node:child_process'
@@ -10,6 +10,7 @@ import { fileURLToPath } from 'node:url'
 import { describe, expect, it } from 'vitest'
 import { buildOpenApiDocument, serialiseOpenApiDocument } from '../../src/api/openapi-build.js'
 import { ERROR_CODES, ERRORS, problemType } from '../../src/errors.js'
+import { generateApiTypes } from '../../scripts/openapi-types.js'
 import { openApiDocument } from './helpers/openapi.js'
 
 const read = (path: string): string => readFileSync(fileURLToPath(new URL(path, import.meta.url)), 'utf8')
@@ -17,6 +18,10 @@ const read = (path: string): string => readFileSync(fileURLToPath(new URL(path, 
 describe('OpenAPI document', () => {
   it('is exactly what the route schemas generate (run `npm run openapi:generate` after changing a route)', async () => {
     expect(read('../../openapi/openapi.json')).toBe(serialiseOpenApiDocument(await buildOpenApiDocument()))
+  })
+
+  it('gives the web page and the CLI their types: src/api-types/openapi.d.ts is what openapi-typescript makes of it', async () => {
+    expect(read('../../src/api-types/openapi.d.ts')).toBe(await generateApiTypes(read('../../openapi/openapi.json')))
   })
 
   it('passes redocly lint (the recommended rules, see openapi/redocly.yaml)', async () => {

@@ -61,11 +61,11 @@ describe('spec paths', () => {
 
   it('puts each error at the closest field that shows it, and keeps the rest apart', () => {
     const { byField, others } = assignIssues([
-      { path: 'load', message: 'a generated axis needs exactly one of \'step\' or \'count\'' },
-      { path: 'cue.fraction', message: 'Too big: expected number to be <=1' },
-      { path: 'load.values.2', message: 'expected number' },
-      { path: 'family.data.3.17', message: 'must be -1 or 1' },
-      { path: '', message: 'unknown field \'colour\'' }
+      { path: 'load', pointer: '/load', message: 'a generated axis needs exactly one of \'step\' or \'count\'' },
+      { path: 'cue.fraction', pointer: '/cue/fraction', message: 'Too big: expected number to be <=1' },
+      { path: 'load.values.2', pointer: '/load/values/2', message: 'expected number' },
+      { path: 'family.data.3.17', pointer: '/family/data/3/17', message: 'must be -1 or 1' },
+      { path: '', pointer: '', message: 'unknown field \'colour\'' }
     ], ['load', 'cue', 'cue.fraction', 'neurons'])
     expect(Object.fromEntries(byField)).toEqual({
       load: ['a generated axis needs exactly one of \'step\' or \'count\'', 'values.2: expected number'],
@@ -139,16 +139,20 @@ function row (values: Record<string, number>, rate: number, overlap: number): Re
       sweeps: { mean: 3, sd: 1, se: 0.3 },
       maxOtherOverlap: { mean: 0.1, sd: 0.05, se: 0.01 },
       energy: { mean: -0.5, sd: 0.02, se: 0.006 },
-      endings: { fixed: 10 },
-      endStates: { target: 7, other: 3 },
+      endings: { fixed: 10, cycle2: 0, max: 0, sampled: 0 },
+      endStates: { target: 7, reversed: 0, otherPattern: 3, symmetricMixture: 0, partialTarget: 0, spurious: 0, spinGlass: 0 },
       stability: null
     },
-    theory: {}
+    theory: {},
+    theoryUnavailable: {}
   }
 }
 
+/** The provenance every result carries; the curves never read it. */
+const PROVENANCE: SweepResult['provenance'] = { specHash: 'h', engineVersion: '0.0.0', node: 'v20', v8: '11', rng: 'test', pointKeying: 'test', tieRule: 'keep' }
+
 describe('curves', () => {
-  const result = (rows: ResultRow[]): SweepResult => ({ specHash: 'h', spec: {}, rows, provenance: {} })
+  const result = (rows: ResultRow[]): SweepResult => ({ specHash: 'h', spec: {}, rows, provenance: PROVENANCE })
 
   it('reads each measure with its error bar', () => {
     const r = row({ load: 0.1 }, 0.8, 0.9)

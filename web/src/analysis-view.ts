@@ -4,7 +4,7 @@
  */
 import { measureAt, type Curve } from './curves.js'
 import { h } from './dom.js'
-import { formatCount, formatValue } from './format.js'
+import { formatCount, formatGridValue, formatValue } from './format.js'
 import { measureName, parameterName } from './labels.js'
 import { drawPlot } from './plot.js'
 import type { ScalingRow, SearchRow, SweepResult } from './types.js'
@@ -18,8 +18,8 @@ const STOPS: Record<string, string> = {
 }
 
 /** The other varied parameters of a search or fit; N has its own column. */
-function describeValues (values: Record<string, number>): string {
-  const parts = Object.entries(values).filter(([path]) => path !== 'neurons').map(([path, v]) => `${parameterName(path)} ${formatValue(v, 4)}`)
+function describeValues (values: SearchRow['values']): string {
+  const parts = Object.entries(values).filter(([path]) => path !== 'neurons').map(([path, v]) => `${parameterName(path)} ${formatGridValue(v, 4)}`)
   return parts.length === 0 ? '–' : parts.join(', ')
 }
 
@@ -84,7 +84,7 @@ function searchFigure (result: SweepResult, searches: SearchRow[], parameter: st
   const curves: Curve[] = searches.map((search) => ({
     name: searchName(search),
     points: search.steps
-      .map((step) => ({ x: step.value, value: measureAt({ point: step.step, values: {}, params: step.params, summary: step.summary, theory: {} }, measure) }))
+      .map((step) => ({ x: step.value, value: measureAt(step, measure) }))
       .filter((p): p is { x: number, value: NonNullable<typeof p.value> } => p.value !== null)
       .map((p) => ({ x: p.x, ...p.value }))
       .sort((a, b) => a.x - b.x)

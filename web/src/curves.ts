@@ -2,7 +2,7 @@
  * Curves for the page's own figures (the comparison overlay): result rows → series of points
  * with error bars, and axis ticks. Pure: no DOM.
  */
-import { formatValue } from './format.js'
+import { formatGridValue } from './format.js'
 import { parameterName } from './labels.js'
 import type { ResultRow, SweepResult } from './types.js'
 
@@ -23,7 +23,7 @@ export interface Curve {
  * The value of a measure at one row, with its error bar: Wilson 95 % interval for the success
  * rate (as the results give it), ± one standard error for means. Null when not measured.
  */
-export function measureAt (row: ResultRow, measure: string): { y: number, low: number | null, high: number | null } | null {
+export function measureAt (row: Pick<ResultRow, 'summary'>, measure: string): { y: number, low: number | null, high: number | null } | null {
   const s = row.summary
   const mean = (m: { mean: number | null, se: number | null }): { y: number, low: number | null, high: number | null } | null =>
     m.mean === null ? null : { y: m.mean, low: m.se === null ? null : m.mean - m.se, high: m.se === null ? null : m.mean + m.se }
@@ -65,12 +65,12 @@ export function curvesOf (results: ReadonlyArray<{ name: string, result: SweepRe
     for (const row of result.rows) {
       const xValue = row.values[x]
       const value = measureAt(row, measure)
-      if (xValue === undefined || value === null) continue
+      if (typeof xValue !== 'number' || value === null) continue
       const others = Object.entries(row.values).filter(([path]) => path !== x)
       const key = others.map(([path, v]) => `${path}=${v}`).join(',')
       let curve = groups.get(key)
       if (curve === undefined) {
-        const detail = others.map(([path, v]) => `${parameterName(path)} ${formatValue(v, 4)}`).join(', ')
+        const detail = others.map(([path, v]) => `${parameterName(path)} ${formatGridValue(v, 4)}`).join(', ')
         curve = { name: detail === '' ? name : `${name} · ${detail}`, points: [] }
         groups.set(key, curve)
         curves.push(curve)

@@ -16,6 +16,11 @@ export function formatValue (x: number | null | undefined, digits = 3): string {
   return String(Number(x.toPrecision(digits)))
 }
 
+/** A grid value: numbers as formatValue has them, names (a learning rule, an update scheme) as they are. */
+export function formatGridValue (x: number | string | boolean | null | undefined, digits = 3): string {
+  return typeof x === 'string' || typeof x === 'boolean' ? String(x) : formatValue(x, digits)
+}
+
 /** A duration in seconds, coarser as it grows: "0.4 s", "12 s", "3 min 05 s", "2 h 10 min". */
 export function formatDuration (seconds: number): string {
   if (!Number.isFinite(seconds) || seconds < 0) return '–'

@@ -1,6 +1,6 @@
 /** The results of a sweep as a table: one row per grid point, the main measures with their uncertainty. */
 import { h } from './dom.js'
-import { formatValue } from './format.js'
+import { formatGridValue, formatValue } from './format.js'
 import { parameterName } from './labels.js'
 import type { ResultRow, SweepResult } from './types.js'
 
@@ -15,7 +15,7 @@ interface Column {
 
 function columnsOf (result: SweepResult): Column[] {
   const varied = Object.keys(result.rows[0]?.values ?? {})
-  const columns: Column[] = varied.map((path) => ({ head: parameterName(path), cell: (row) => formatValue(row.values[path], 6) }))
+  const columns: Column[] = varied.map((path) => ({ head: parameterName(path), cell: (row) => formatGridValue(row.values[path], 6) }))
   if (!varied.includes('neurons')) columns.push({ head: 'N', title: 'neurons', cell: (row) => String(row.params.neurons) })
   if (!varied.includes('patterns')) columns.push({ head: 'P', title: 'stored patterns', cell: (row) => String(row.params.patterns) })
   columns.push(

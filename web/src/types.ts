@@ -1,150 +1,39 @@
-/** The API's shapes as the page reads them (openapi/openapi.json is the full description). */
+/**
+ * Names for the API's shapes as the page reads them. The shapes themselves are generated
+ * from openapi/openapi.json (src/api-types/openapi.d.ts, `npm run openapi:generate`): the
+ * page carries no copy of its own, so a changed route schema shows up here as a type error.
+ */
+import type { components } from '../../src/api-types/openapi.js'
 
-export type SweepStatusName = 'queued' | 'running' | 'succeeded' | 'failed' | 'canceled'
+type Schemas = components['schemas']
+
+export type SweepStatusName = Schemas['SweepStatus']
 
 export const STATUS_NAMES: readonly SweepStatusName[] = ['queued', 'running', 'succeeded', 'failed', 'canceled']
 
-export interface SweepProgress {
-  pointsDone: number
-  pointsTotal: number
-  trialsDone: number
-  trialsTotal: number
-  chunksDone: number
-  chunksTotal: number
-  fraction: number
-  elapsedSeconds: number | null
-  estimatedSecondsLeft: number | null
-}
-
-export interface SweepStatus {
-  id: string
-  status: SweepStatusName
-  label: string | null
-  owner: string | null
-  specHash: string
-  createdAt: string
-  startedAt: string | null
-  finishedAt: string | null
-  progress: SweepProgress
-  error: { kind: 'user' | 'system', message: string } | null
-  reusedFrom: string | null
-}
-
-export interface SweepDetail extends SweepStatus {
-  spec: Spec
-}
-
-export interface SweepList {
-  items: SweepStatus[]
-  nextCursor: string | null
-}
+export type SweepProgress = Schemas['SweepProgress']
+export type SweepStatus = Schemas['Sweep']
+export type SweepDetail = Schemas['SweepDetail']
+export type SweepList = Schemas['SweepList']
 
 /** A spec as JSON: the page edits it as a plain object. */
 export type Spec = Record<string, unknown>
 
-export interface FieldIssue {
-  path: string
-  pointer?: string
-  message: string
-}
+export type FieldIssue = Schemas['FieldIssue']
 
-export interface Problem {
-  type?: string
-  title?: string
-  status: number
-  detail?: string
-  code?: string
-  errors?: FieldIssue[]
-  retryAfter?: number
-  limit?: { name: string, value: number, max: number }
-}
+/**
+ * A problem document (RFC 9457) as the page may receive it: a proxy in front of the service
+ * can answer with less than the service's full problem, so only the status is certain.
+ */
+export type Problem = Partial<Schemas['Problem']> & Pick<Schemas['Problem'], 'status'>
 
-export interface WorkEstimate {
-  points: number
-  trialsPerPoint: number
-  trials: number
-  neuronUpdates: number
-  peakBytes: number
-  cpuSeconds: number
-}
-
-export interface Validation {
-  specHash: string
-  spec: Spec
-  work: WorkEstimate
-  limits: { maxNeurons: number, maxPoints: number, maxTrials: number, maxBytes: number, maxCpuSeconds: number | null }
-  exceeded: { name: string, value: number, max: number } | null
-}
-
-export interface MeanWithError { mean: number | null, sd: number | null, se: number | null }
-
-export interface ResultRow {
-  point: number
-  values: Record<string, number>
-  params: { alpha: number, neurons: number, patterns: number }
-  summary: {
-    trials: number
-    overlap: MeanWithError
-    success: { count: number, rate: number | null, low: number | null, high: number | null }
-    sweeps: MeanWithError
-    maxOtherOverlap: MeanWithError
-    energy: MeanWithError
-    endings: Record<string, number>
-    endStates: Record<string, number>
-    stability: { networks: number, unstableFraction: number | null, tieFraction: number | null, fixedPatternFraction: number | null } | null
-  }
-  theory: Record<string, number | null>
-}
-
-export interface SearchStep {
-  step: number
-  value: number
-  side: 'above' | 'below'
-  params: { alpha: number, neurons: number, patterns: number }
-  summary: ResultRow['summary']
-}
-
+export type WorkEstimate = Schemas['WorkEstimate']
+export type Validation = Schemas['SpecValidation']
+export type MeanWithError = Schemas['MeanWithError']
+export type ResultRow = Schemas['ResultRow']
+export type SearchStep = Schemas['SearchStep']
 /** One threshold search of an analysis spec. */
-export interface SearchRow {
-  search: number
-  values: Record<string, number>
-  neurons: number
-  estimate: number | null
-  low: number | null
-  high: number | null
-  stoppedBy: string
-  bracket: { low: number, high: number } | null
-  fit: { method: string, estimate: number | null, low: number | null, high: number | null, slope: number | null, separated: boolean, dispersion: number | null } | null
-  note: string | null
-  stepsUsed: number
-  trialsUsed: number
-  steps: SearchStep[]
-}
-
+export type SearchRow = Schemas['SearchRow']
 /** One finite-size fit of an analysis spec with `analysis.scaling`. */
-export interface ScalingRow {
-  values: Record<string, number>
-  form: string
-  fit: {
-    limit: { value: number, se: number | null }
-    limitInterval: { low: number, high: number, confidence: number }
-    amplitude: { value: number, se: number | null }
-    exponent: { value: number, se: number | null }
-    chiSquare: number
-    degreesOfFreedom: number
-  } | null
-  sizes: Array<{ search: number, neurons: number, estimate: number, se: number }>
-  excluded: Array<{ search: number, neurons: number, reason: string }>
-  references: Array<{ name: string, value: number, uncertainty: number | null, source: string, deviation: number | null }>
-  note: string | null
-}
-
-export interface SweepResult {
-  specHash: string
-  spec: Spec
-  /** One per grid point; empty for an analysis (see searches). */
-  rows: ResultRow[]
-  searches?: SearchRow[]
-  scaling?: ScalingRow[]
-  provenance: Record<string, string | number | undefined>
-}
+export type ScalingRow = Schemas['ScalingRow']
+export type SweepResult = Schemas['SweepResult']

@@ -53,7 +53,7 @@ export async function extend (io: CliIo, id: string, options: ExtendOptions): Pr
     ...(options.tag === undefined ? {} : { tags: options.tag })
   }
   const client = new ApiClient({ server: options.server, token: options.token })
-  const created = await client.json<SweepStatus & { reused: { points: number, trials: number }, progress: { trialsTotal: number } }>(`/v1/sweeps/${encodeURIComponent(id)}/extend`, {
+  const created = await client.json<SweepStatus>(`/v1/sweeps/${encodeURIComponent(id)}/extend`, {
     method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body)
   })
   io.stdout.write(`${created.id}\n`)
@@ -65,7 +65,7 @@ export async function extend (io: CliIo, id: string, options: ExtendOptions): Pr
 export async function resume (io: CliIo, id: string, options: ServerOptions & FollowOptions): Promise<number> {
   if (options.output !== undefined) outputFormat(options.output, options.format)
   const client = new ApiClient({ server: options.server, token: options.token })
-  const resumed = await client.json<SweepStatus & { progress: { chunksDone: number, chunksTotal: number } }>(`/v1/sweeps/${encodeURIComponent(id)}/resume`, { method: 'POST' })
+  const resumed = await client.json<SweepStatus>(`/v1/sweeps/${encodeURIComponent(id)}/resume`, { method: 'POST' })
   say(io, `Resumed sweep ${id} (${resumed.status}): ${resumed.progress.chunksDone} of ${resumed.progress.chunksTotal} chunks kept, the rest to compute.`)
   return await awaitAndDownload(io, client, resumed, options)
 }
