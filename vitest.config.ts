@@ -3,8 +3,10 @@ import { defineConfig } from 'vitest/config'
 /**
  * Two tiers. `fast`: pure computation (engine, spec, lifecycle core, figures), files in parallel on every
  * core; `npm run test:fast` runs only this tier. `service`: everything that starts servers,
- * threads, worker processes, Redis or a browser; its files run one at a time after the fast
- * tier, so they never compete with each other for the cores or the shared Redis.
+ * threads, worker processes, Redis or a browser; it runs after the fast tier, two files at a
+ * time: much of a service test is waiting (process start-up, Redis round trips, sockets), and no
+ * service test depends on the machine's speed or on being alone (each has its own data
+ * directory, port and Redis key prefix; sweeps in progress are held at the chunk gate).
  */
 const shared = {
   globals: false,
@@ -34,7 +36,7 @@ export default defineConfig({
           name: 'service',
           include: ['test/**/*.test.ts'],
           exclude: ['test/engine/**', 'test/spec/**', 'test/sweep/**', 'test/figures/!(route).test.ts', 'test/architecture.test.ts'],
-          fileParallelism: false,
+          maxWorkers: 2,
           sequence: { groupOrder: 1 }
         }
       }
