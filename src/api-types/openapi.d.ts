@@ -295,6 +295,26 @@ export type paths = {
         patch?: never;
         trace?: never;
     };
+    "/v1/sweeps/{id}/bundle.zip": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * Supplementary-material bundle of a succeeded sweep (zip)
+         * @description One zip with a folder `memsweep-<id>/` holding README.md (what each file is and how to reproduce the numbers with one command), `spec.json`, `spec.normalised.json`, `results.json`, `results.csv`, `trials.csv`, `trajectory.csv`, `figure.svg`, `provenance.json`. Files that do not apply to the sweep are left out and the README says why (per-trial rows above 200,000 trials, trajectories the spec does not record, the figure of a threshold search). A strong ETag (sha256 of the bytes) supports If-None-Match → 304. 409 while the sweep has not succeeded.
+         */
+        get: operations["getSweepBundle"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
 };
 export type webhooks = Record<string, never>;
 export type components = {
@@ -3741,6 +3761,124 @@ export interface operations {
                 headers: {
                     /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
                     "X-Request-Id"?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_RATE_LIMITED, MEMSWEEP_TOO_MANY_ACTIVE_SWEEPS, MEMSWEEP_TOO_MANY_AUTH_FAILURES. */
+            429: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    /** @description Seconds until the limit resets (or until a sweep may have finished). */
+                    "Retry-After"?: number;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_INTERNAL. */
+            500: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_NOT_READY. */
+            503: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    /** @description Seconds before trying again. */
+                    "Retry-After"?: number;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+        };
+    };
+    getSweepBundle: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                /** @description Sweep id, as returned by POST /v1/sweeps (1-64 letters, digits, - and _; anything else is a 400). */
+                id: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description The bundle. */
+            200: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    /** @description Strong validator: the sha256 of the bytes (base64url); it changes when the sweep's label, tags or notes (in the README and provenance) do. */
+                    ETag?: string;
+                    /** @description attachment; filename="memsweep-<id>.zip". */
+                    "Content-Disposition"?: string;
+                    /** @description private, no-cache: revalidate with If-None-Match (an annotation edit changes the bundle). */
+                    "Cache-Control"?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/zip": string;
+                };
+            };
+            /** @description Not modified: the ETag in If-None-Match is current. */
+            304: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    /** @description The current validator. */
+                    ETag?: string;
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+            /** @description Problem details: MEMSWEEP_UNAUTHENTICATED. */
+            401: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    /** @description Bearer challenge. */
+                    "WWW-Authenticate"?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_ROUTE_NOT_FOUND, MEMSWEEP_SWEEP_NOT_FOUND. */
+            404: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_RESULTS_NOT_READY, MEMSWEEP_RESULTS_UNAVAILABLE, MEMSWEEP_SWEEP_FINISHED, MEMSWEEP_SWEEP_ACTIVE, MEMSWEEP_NOT_RESUMABLE. */
+            409: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    /** @description While a sweep runs: suggested seconds before asking again. */
+                    "Retry-After"?: number;
+                    /** @description While a sweep runs: `<…>; rel="monitor"`, the status to follow. */
+                    Link?: string;
                     [name: string]: unknown;
                 };
                 content: {

@@ -21,6 +21,7 @@ import { problemsPlugin } from './plugins/problems.js'
 import { frameworkProblem, sendProblem } from './problem-reply.js'
 import { RequestLogController } from './request-log.js'
 import type { RouteContext } from './routes/context.js'
+import { bundleRoutes } from './routes/bundle.js'
 import { eventRoutes } from './routes/events.js'
 import { figureRoutes } from './routes/figure.js'
 import { healthRoutes } from './routes/health.js'
@@ -153,5 +154,6 @@ export function buildApp (deps: AppDependencies): FastifyInstance {
   app.register(theoryRoutes, context)
   app.register(webRoutes, { root: deps.webRoot === undefined ? DEFAULT_WEB_ROOT : deps.webRoot })
   app.register(figureRoutes, context)
+  app.register(bundleRoutes, context)
   return app as unknown as FastifyInstance
 }

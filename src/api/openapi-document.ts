@@ -83,7 +83,16 @@ const OPERATION_HEADERS: Record<string, Record<string, Record<string, HeaderObje
     }
   },
   getSweepFigure: FIGURE_HEADERS,
-  getOverlayFigure: FIGURE_HEADERS
+  getOverlayFigure: FIGURE_HEADERS,
+  getSweepBundle: {
+    200: {
+      ETag: text('Strong validator: the sha256 of the bytes (base64url); it changes when the sweep\'s label, tags or notes (in the README and provenance) do.'),
+      'Content-Disposition': text('attachment; filename="memsweep-<id>.zip".'),
+      'Cache-Control': text('private, no-cache: revalidate with If-None-Match (an annotation edit changes the bundle).')
+    },
+    304: { ETag: text('The current validator.') },
+    409: FIGURE_HEADERS[409]!
+  }
 }
 
 /** Headers any answer may carry, by status. */

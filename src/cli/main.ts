@@ -8,6 +8,7 @@ import { availableParallelism } from 'node:os'
 import { realpathSync } from 'node:fs'
 import { pathToFileURL } from 'node:url'
 import { Command, CommanderError, InvalidArgumentError } from 'commander'
+import { bundle } from './commands/bundle.js'
 import { figure } from './commands/figure.js'
 import { runLocal } from './commands/run-local.js'
 import { serve, worker } from './commands/services.js'
@@ -113,6 +114,12 @@ export async function runCli (argv: readonly string[], io: CliIo): Promise<numbe
     .argument('<id>', 'the sweep to remove')
     .option('--yes', 'confirm: without it nothing is removed'))
     .action(async (id: string, options) => { exitCode = await purge(io, id, options) })
+
+  serverOptions(program.command('bundle')
+    .description('download a succeeded sweep\'s bundle for supplementary material: spec, results, figure, provenance and a README saying how to reproduce them (zip)')
+    .argument('<id>', 'the sweep')
+    .option('-o, --output <file>', 'zip file to write, - for standard output (default: memsweep-<id>.zip)'))
+    .action(async (id: string, options) => { exitCode = await bundle(io, id, options) })
 
   program.command('figure')
     .description('draw results files (JSON) as an SVG figure; several files are overlaid, one series per sweep')

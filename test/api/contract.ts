@@ -11,6 +11,7 @@ import { tokensContract } from './contract/tokens.js'
 import { operationsContract } from './contract/operations.js'
 import { measuresContract } from './contract/measures.js'
 import { workflowContract } from './contract/workflow.js'
+import { bundleContract } from './contract/bundle.js'
 
 export type { QueueFactory } from './helpers/harness.js'
 
@@ -23,4 +24,5 @@ export function defineApiContract (factory: QueueFactory): void {
   operationsContract(factory)
   measuresContract(factory)
   workflowContract(factory)
+  bundleContract(factory)
 }

@@ -53,6 +53,7 @@ describe('OpenAPI document', () => {
       'GET /v1/figures/overlay.svg',
       'GET /v1/sweeps',
       'GET /v1/sweeps/{id}',
+      'GET /v1/sweeps/{id}/bundle.zip',
       'GET /v1/sweeps/{id}/events',
       'GET /v1/sweeps/{id}/figure.svg',
       'GET /v1/sweeps/{id}/results',

@@ -1,7 +1,8 @@
-/** `memsweep submit` against a real server (the app on the embedded backend, listening on a port). */
-import { mkdtemp, readFile, rm, writeFile } from 'node:fs/promises'
+/** `memsweep submit`, `extend`, `resume`, `purge` and `bundle` against a real server (the app on the embedded backend, listening on a port). */
+import { mkdir, mkdtemp, readFile, rm, writeFile } from 'node:fs/promises'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
+import { unzipSync } from 'fflate'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { createEmbeddedQueue } from '../../src/backends/embedded/index.js'
 import { createHarness, isTerminal, type Harness } from '../api/helpers/harness.js'
@@ -147,5 +148,39 @@ describe('memsweep extend, resume and purge', () => {
     const again = await cli(['purge', id, '--yes', '--server', url, '--token', TOKEN])
     expect(again.code).toBe(2)
     expect(again.stderr).toContain('404 MEMSWEEP_SWEEP_NOT_FOUND')
+  })
+})
+
+describe('memsweep bundle', () => {
+  const auth = { authorization: `Bearer ${TOKEN}` }
+
+  it('writes the server\'s zip, and the README\'s one command reproduces its results.csv byte for byte', async () => {
+    const created = await h.app.inject({ method: 'POST', url: '/v1/sweeps', headers: auth, payload: { ...spec, label: 'rooms of a gallery', seed: 23 } })
+    const id = created.json().id as string
+    await h.waitFor(id, isTerminal)
+    const zipPath = join(dir, 'supplement.zip')
+    const res = await cli(['bundle', id, '--server', url, '--token', TOKEN, '-o', zipPath])
+    expect(res.code, res.stderr).toBe(0)
+    expect(res.stderr).toContain(`Bundle of sweep ${id} written to ${zipPath}`)
+    const served = Buffer.from(await (await fetch(`${url}/v1/sweeps/${id}/bundle.zip`, { headers: auth })).arrayBuffer())
+    const written = await readFile(zipPath)
+    expect(Buffer.compare(written, served)).toBe(0)
+
+    const folder = join(dir, `memsweep-${id}`)
+    await mkdir(folder)
+    for (const [name, bytes] of Object.entries(unzipSync(new Uint8Array(written)))) await writeFile(join(dir, name), bytes)
+    const readme = await readFile(join(folder, 'README.md'), 'utf8')
+    const command = /```\n(memsweep run .+)\n```/.exec(readme)?.[1]
+    expect(command).toBe('memsweep run spec.json -o results.csv')
+    const args = command!.split(' ').slice(1).map((arg) => (arg === 'spec.json' ? join(folder, arg) : arg === 'results.csv' ? join(dir, 'again.csv') : arg))
+    const rerun = await cli([...args, '--threads', '1'])
+    expect(rerun.code, rerun.stderr).toBe(0)
+    expect(await readFile(join(dir, 'again.csv'), 'utf8')).toBe(await readFile(join(folder, 'results.csv'), 'utf8'))
+  })
+
+  it('exits 2 with the server\'s problem for an unknown sweep', async () => {
+    const res = await cli(['bundle', 'no-such-sweep', '--server', url, '--token', TOKEN])
+    expect(res.code).toBe(2)
+    expect(res.stderr).toContain('404 MEMSWEEP_SWEEP_NOT_FOUND')
   })
 })

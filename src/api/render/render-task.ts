@@ -6,6 +6,7 @@
 import type { EncodedResult, StoredProgress } from '../../backends/port.js'
 import type { FigureIssue, FigureOptions } from '../../figures/index.js'
 import type { ResultSeries } from '../../results/index.js'
+import type { BundleRecord } from './bundle.js'
 
 export type ResultFormat = 'json' | 'csv'
 
@@ -30,7 +31,14 @@ export interface RenderFigureTask {
   options: FigureOptions
 }
 
-export type RenderTask = RenderResultTask | RenderFigureTask
+/** The supplementary-material zip of a succeeded sweep (render/bundle.ts). */
+export interface RenderBundleTask {
+  kind: 'bundle'
+  stored: EncodedResult
+  record: BundleRecord
+}
+
+export type RenderTask = RenderResultTask | RenderFigureTask | RenderBundleTask
 
 export type RenderOutcome =
   | { kind: 'rendered', body: Uint8Array, etag: string }

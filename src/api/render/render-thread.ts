@@ -10,9 +10,14 @@ import { resultToCsv, resultToJson, trajectoryCsv, trajectoryJson, type SweepRes
 import { assemblePartial, decodeValue, makeProvenance, storedTrials } from '../../sweep/index.js'
 import { runtimeFacts } from '../../runtime/facts.js'
 import type { EncodedResult } from '../../backends/port.js'
+import { buildBundle } from './bundle.js'
 import type { RenderOutcome, RenderSource, RenderTask } from './render-task.js'
 
 export default function render (task: RenderTask): RenderOutcome {
+  if (task.kind === 'bundle') {
+    const { zip } = buildBundle(decode(task.stored), task.record)
+    return rendered(Buffer.from(zip.buffer, zip.byteOffset, zip.byteLength))
+  }
   if (task.kind === 'result') {
     const result = read(task.source)
     const text = task.series === 'trajectory'

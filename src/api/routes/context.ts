@@ -8,6 +8,7 @@ import type { EventStreamRegistry } from '../event-stream.js'
 import type { RenderPool } from '../render/render-pool.js'
 import { canSee } from '../plugins/auth.js'
 import type { Principal } from '../tokens.js'
+import { sweepPath } from '../presenters.js'
 
 export interface RouteContext {
   queue: SweepQueue
@@ -23,6 +24,21 @@ export interface RouteContext {
 export async function visibleSweep (queue: SweepQueue, principal: Principal, id: string): Promise<SweepRecord> {
   const record = await queue.get(id)
   if (record === null || !canSee(principal, record.owner)) throw new ServiceError('MEMSWEEP_SWEEP_NOT_FOUND', { id })
+  return record
+}
+
+/** The record of a visible sweep that has its result; refuses, with the problem that explains why, one that has none (yet). */
+export async function succeededSweep (queue: SweepQueue, principal: Principal, id: string): Promise<SweepRecord> {
+  const record = await visibleSweep(queue, principal, id)
+  if (record.status === 'queued' || record.status === 'running') {
+    throw new ServiceError('MEMSWEEP_RESULTS_NOT_READY', { id, status: record.status }, {
+      headers: { 'retry-after': '5', link: `<${sweepPath(id)}>; rel="monitor"` },
+      extensions: { sweepId: id, retryAfter: 5 }
+    })
+  }
+  if (record.status !== 'succeeded') {
+    throw new ServiceError('MEMSWEEP_RESULTS_UNAVAILABLE', { id, status: record.status }, { extensions: { sweepId: id } })
+  }
   return record
 }
 

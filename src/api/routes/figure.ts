@@ -12,13 +12,12 @@ import { SWEEP_ID_PATTERN } from '../../backends/port.js'
 import { ServiceError } from '../../errors.js'
 import { FigureOptionsSchema, type FigureIssue } from '../../figures/index.js'
 import { gridAxes, type NormalisedSpec } from '../../spec/index.js'
-import type { SweepRecord } from '../../backends/port.js'
 import type { RenderSource } from '../render/render-task.js'
-import { ifNoneMatchHits, sweepPath } from '../presenters.js'
+import { ifNoneMatchHits } from '../presenters.js'
 import { fieldIssue, listedIssues } from '../problem-reply.js'
 import { problemResponses } from '../schemas/problem.js'
 import { SWEEP_ID_RULE, sweepIdSchema } from '../schemas/sweep.js'
-import { visibleSweep, type RouteContext } from './context.js'
+import { succeededSweep, visibleSweep, type RouteContext } from './context.js'
 
 interface Rendered { body: Buffer, etag: string }
 
@@ -53,21 +52,6 @@ const svgResponses = {
 
 function sendBytes (reply: FastifyReply, body: Buffer): FastifyReply {
   return reply.send(body)
-}
-
-/** Refuses, with the problem that explains why, a sweep the caller may not see or that has no result (yet). */
-async function checkSucceeded (ctx: RouteContext, request: FastifyRequest, id: string): Promise<SweepRecord> {
-  const record = await visibleSweep(ctx.queue, request.principal, id)
-  if (record.status === 'queued' || record.status === 'running') {
-    throw new ServiceError('MEMSWEEP_RESULTS_NOT_READY', { id, status: record.status }, {
-      headers: { 'retry-after': '5', link: `<${sweepPath(id)}>; rel="monitor"` },
-      extensions: { sweepId: id, retryAfter: 5 }
-    })
-  }
-  if (record.status !== 'succeeded') {
-    throw new ServiceError('MEMSWEEP_RESULTS_UNAVAILABLE', { id, status: record.status }, { extensions: { sweepId: id } })
-  }
-  return record
 }
 
 /** Stability error bars are the spread over networks, read from the per-trial records. */
@@ -115,7 +99,7 @@ export const figureRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
       }
     }
     // Visibility is checked on every request; the result is only loaded when the figure is not cached.
-    const record = await checkSucceeded(ctx, request, id)
+    const record = await succeededSweep(ctx.queue, request.principal, id)
     refuseMisfit([record.spec], options)
     const rendered = await cached(`${id}\u0000${optionsKey(options)}`, async () => await render(ctx, [await loadResult(ctx, id, options.measure)], options))
     return sendSvg(request, reply, rendered, `memsweep-${id}-${options.measure}.svg`)
@@ -134,7 +118,7 @@ export const figureRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
     const { sweeps, ...options } = request.query
     const ids = sweeps.split(',')
     const specs: NormalisedSpec[] = []
-    for (const id of ids) specs.push((await checkSucceeded(ctx, request, id)).spec)
+    for (const id of ids) specs.push((await succeededSweep(ctx.queue, request.principal, id)).spec)
     refuseMisfit(specs, options)
     const rendered = await cached(`${ids.join(',')}\u0000${optionsKey(options)}`, async () => {
       const sources: RenderSource[] = []
