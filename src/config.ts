@@ -6,6 +6,7 @@
 import { BlockList, isIPv4, isIPv6 } from 'node:net'
 import { availableParallelism } from 'node:os'
 import { z } from 'zod'
+import { parseDuration } from './duration.js'
 import { LOG_FORMATS, type LogFormat } from './logger.js'
 import type { WorkLimitName } from './spec/errors.js'
 
@@ -16,6 +17,15 @@ const positiveInt = z.coerce.number().int().positive()
 const flag = z.enum(['true', 'false', '1', '0']).transform((value) => value === 'true' || value === '1')
 /** Unset and empty variables both mean "use the default": compose files often pass `VAR=`. */
 const emptyAsUnset = (value: unknown): unknown => (value === '' ? undefined : value)
+/** A duration (`90s`, `2h`, `1h30m`, `HH:MM:SS`, …) in milliseconds. */
+const duration = z.string().transform((text, context) => {
+  const ms = parseDuration(text)
+  if (ms === null || ms <= 0) {
+    context.addIssue({ code: 'custom', message: `not a positive duration: ${JSON.stringify(text)} (write e.g. 90s, 45m, 2h, 1h30m or HH:MM:SS)` })
+    return z.NEVER
+  }
+  return ms
+})
 
 const envSchema = z.object({
   PORT: z.preprocess(emptyAsUnset, port.default(8080)),
@@ -25,6 +35,10 @@ const envSchema = z.object({
   REDIS_PREFIX: z.preprocess(emptyAsUnset, z.string().regex(/^[A-Za-z0-9_-]+$/).default('memsweep')),
   SWEEP_RETENTION_DAYS: z.preprocess(emptyAsUnset, positiveInt.max(3650).default(7)),
   WORKER_THREADS: z.preprocess(emptyAsUnset, positiveInt.max(1024).optional()),
+  WORKER_MAX_RUNTIME: z.preprocess(emptyAsUnset, duration.optional()),
+  WORKER_EXIT_WHEN_IDLE: z.preprocess(emptyAsUnset, duration.optional()),
+  WORKER_SHUTDOWN_GRACE: z.preprocess(emptyAsUnset, duration.default(60_000)),
+  WORKER_HEALTH_PORT: z.preprocess(emptyAsUnset, port.optional()),
   TOKENS_FILE: z.preprocess(emptyAsUnset, z.string().min(1).optional()),
   ALLOW_ANONYMOUS: z.preprocess(emptyAsUnset, flag.default(false)),
   BODY_LIMIT: z.preprocess(emptyAsUnset, positiveInt.default(256 * 1024)),
@@ -62,6 +76,17 @@ export interface Config {
   retentionSeconds: number
   /** Worker threads of the embedded backend (and the default worker concurrency). */
   workerThreads: number
+  /** Redis workers inside a batch allocation or a container: when they stop on their own, and their probes. */
+  workerLifetime: {
+    /** Take no chunk that would not end within this many ms of the process's start; then exit. */
+    maxRuntimeMs: number | null
+    /** Exit after this many ms without a job. */
+    exitWhenIdleMs: number | null
+    /** After SIGTERM, how long running chunks may go on before they are handed back. */
+    shutdownGraceMs: number
+    /** Port of /livez and /readyz. */
+    healthPort: number | null
+  }
   tokensFile: string | null
   /** Serve without tokens although others can reach the server (a non-loopback HOST, or TRUST_PROXY). */
   allowAnonymous: boolean
@@ -109,6 +134,12 @@ export function loadConfig (env: Record<string, string | undefined>): Config {
     redisPrefix: e.REDIS_PREFIX,
     retentionSeconds: e.SWEEP_RETENTION_DAYS * 86400,
     workerThreads: e.WORKER_THREADS ?? availableParallelism(),
+    workerLifetime: {
+      maxRuntimeMs: e.WORKER_MAX_RUNTIME ?? null,
+      exitWhenIdleMs: e.WORKER_EXIT_WHEN_IDLE ?? null,
+      shutdownGraceMs: e.WORKER_SHUTDOWN_GRACE,
+      healthPort: e.WORKER_HEALTH_PORT ?? null
+    },
     tokensFile: e.TOKENS_FILE ?? null,
     allowAnonymous: e.ALLOW_ANONYMOUS,
     bodyLimit: e.BODY_LIMIT,

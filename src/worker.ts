@@ -1,7 +1,9 @@
 /**
  * `npm run worker`: one worker process of the Redis backend, configured from the
- * environment (REDIS_URL, REDIS_PREFIX, WORKER_THREADS for the concurrency, LOG_LEVEL).
- * Start as many as you like, on any machines that reach the same Redis.
+ * environment (REDIS_URL, REDIS_PREFIX, WORKER_THREADS for the concurrency, LOG_LEVEL, and
+ * for batch allocations and containers WORKER_MAX_RUNTIME, WORKER_EXIT_WHEN_IDLE,
+ * WORKER_SHUTDOWN_GRACE, WORKER_HEALTH_PORT). Start as many as you like, on any machines
+ * that reach the same Redis. It exits 0 once drained: on SIGTERM, when idle, or at its limit.
  */
 import { pathToFileURL } from 'node:url'
 import { loadConfig } from './config.js'
@@ -24,7 +26,18 @@ export async function runWorkerFromEnvironment (env: Record<string, string | und
   process.on('unhandledRejection', fatal)
   const missing = missingEngineFlags()
   if (missing.length > 0) logger.warn({ missing }, 'started without the recommended node flags: compute threads will share fewer cycles (see src/runtime/node-flags.ts)')
-  const worker = await startWorker({ url: config.redisUrl, prefix: config.redisPrefix, concurrency: config.workerThreads, logger })
+  const lifetime = config.workerLifetime
+  const worker = await startWorker({
+    url: config.redisUrl,
+    prefix: config.redisPrefix,
+    concurrency: config.workerThreads,
+    logger,
+    retentionSeconds: config.retentionSeconds,
+    shutdownGraceMs: lifetime.shutdownGraceMs,
+    ...(lifetime.maxRuntimeMs === null ? {} : { maxRuntimeMs: lifetime.maxRuntimeMs }),
+    ...(lifetime.exitWhenIdleMs === null ? {} : { exitWhenIdleMs: lifetime.exitWhenIdleMs }),
+    ...(lifetime.healthPort === null ? {} : { healthPort: lifetime.healthPort })
+  })
   await closeOnSignals(worker, logger)
 }
 

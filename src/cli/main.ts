@@ -57,6 +57,10 @@ export async function runCli (argv: readonly string[], io: CliIo): Promise<numbe
     .option('--redis-url <url>', 'the shared Redis (REDIS_URL)')
     .option('--prefix <prefix>', 'key prefix shared with the API (REDIS_PREFIX, default memsweep)')
     .option('--concurrency <n>', 'chunks run at once (WORKER_THREADS, default: cores)')
+    .option('--max-runtime <duration>', 'inside a batch allocation: take no chunk that would not end within this time of the start, hand back what still runs, exit 0 (WORKER_MAX_RUNTIME; e.g. 2h, 1h30m, 01:55:00)')
+    .option('--exit-when-idle <duration>', 'exit 0 after this long without a chunk to run (WORKER_EXIT_WHEN_IDLE; e.g. 5m)')
+    .option('--shutdown-grace <duration>', 'after SIGTERM, how long running chunks may go on before they are handed back (WORKER_SHUTDOWN_GRACE, default 60s)')
+    .option('--health-port <port>', 'serve /livez and /readyz on this port, for probes (WORKER_HEALTH_PORT)')
     .action(async (options) => { await worker(io, options) })
 
   program.command('run')

@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest'
 import { availableParallelism } from 'node:os'
 import { readFileSync } from 'node:fs'
 import { CONFIG_VARIABLES, ConfigError, decideAccess, isLoopbackHost, loadConfig } from '../../src/config.js'
+import { parseDuration } from '../../src/duration.js'
 
 describe('loadConfig', () => {
   it('fills documented defaults from an empty environment', () => {
@@ -54,6 +55,26 @@ describe('loadConfig', () => {
     expect(caught).toBeInstanceOf(ConfigError)
     const issues = (caught as ConfigError).issues.join('\n')
     for (const name of ['PORT', 'LOG_LEVEL', 'REDIS_URL', 'WORKER_THREADS']) expect(issues).toContain(name)
+  })
+})
+
+describe('worker lifetime settings', () => {
+  it('reads durations as people and batch schedulers write them', () => {
+    expect(parseDuration('90s')).toBe(90_000)
+    expect(parseDuration('1h30m')).toBe(5_400_000)
+    expect(parseDuration('500ms')).toBe(500)
+    expect(parseDuration('1.5h')).toBe(5_400_000)
+    expect(parseDuration('01:55:00')).toBe(6_900_000)
+    expect(parseDuration('2-00:00:00')).toBe(172_800_000)
+    expect(parseDuration('45:30')).toBe(2_730_000)
+    for (const bad of ['90', '1h 30m', 'soon', '00:61:00', '1:2:3', '']) expect(parseDuration(bad), bad).toBeNull()
+  })
+
+  it('has no limits by default and names a bad duration', () => {
+    expect(loadConfig({}).workerLifetime).toEqual({ maxRuntimeMs: null, exitWhenIdleMs: null, shutdownGraceMs: 60_000, healthPort: null })
+    expect(loadConfig({ WORKER_MAX_RUNTIME: '01:55:00', WORKER_EXIT_WHEN_IDLE: '5m', WORKER_HEALTH_PORT: '9090' }).workerLifetime)
+      .toEqual({ maxRuntimeMs: 6_900_000, exitWhenIdleMs: 300_000, shutdownGraceMs: 60_000, healthPort: 9090 })
+    expect(() => loadConfig({ WORKER_MAX_RUNTIME: '120' })).toThrow(/WORKER_MAX_RUNTIME: not a positive duration: "120"/)
   })
 })
 

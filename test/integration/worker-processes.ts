@@ -11,7 +11,7 @@ import { ENGINE_PROCESS_FLAGS } from '../../src/runtime/node-flags.js'
 const FIXTURE = fileURLToPath(new URL('./fixtures/worker-process.ts', import.meta.url))
 const REPO_ROOT = fileURLToPath(new URL('../../', import.meta.url))
 
-export type WorkerLine = WorkerActivity | { type: 'ready', name: string }
+export type WorkerLine = WorkerActivity | { type: 'ready', name: string, healthPort: number | null }
 
 export interface WorkerProcess {
   child: ChildProcess
@@ -68,7 +68,7 @@ export function spawnWorker (options: Omit<WorkerProcessOptions, 'logger' | 'obs
         if (!waiters.has(waiter)) return
         waiters.delete(waiter)
         clearTimeout(timer)
-        reject(new Error(`worker process ${child.pid} exited (code ${code}, signal ${signal}) before the expected line`))
+        reject(new Error(`worker process ${child.pid} exited (code ${code}, signal ${signal}) before the expected line (saw ${JSON.stringify(lines)})`))
       }).catch(() => {})
     })
   }

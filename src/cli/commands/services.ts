@@ -36,14 +36,22 @@ export interface WorkerOptions {
   redisUrl?: string
   prefix?: string
   concurrency?: string
+  maxRuntime?: string
+  exitWhenIdle?: string
+  shutdownGrace?: string
+  healthPort?: string
 }
 
-/** Starts a worker of the Redis backend; resolves after it has shut down on SIGTERM/SIGINT. */
+/** Starts a worker of the Redis backend; resolves after it has shut down (SIGTERM/SIGINT, idle, or its run-time limit). */
 export async function worker (io: CliIo, options: WorkerOptions): Promise<void> {
   const { runWorkerFromEnvironment } = await import('../../worker.js')
   await runWorkerFromEnvironment(withOverrides(io.env, {
     REDIS_URL: options.redisUrl,
     REDIS_PREFIX: options.prefix,
-    WORKER_THREADS: options.concurrency
+    WORKER_THREADS: options.concurrency,
+    WORKER_MAX_RUNTIME: options.maxRuntime,
+    WORKER_EXIT_WHEN_IDLE: options.exitWhenIdle,
+    WORKER_SHUTDOWN_GRACE: options.shutdownGrace,
+    WORKER_HEALTH_PORT: options.healthPort
   }))
 }

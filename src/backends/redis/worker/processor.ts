@@ -14,7 +14,7 @@ import { UnrecoverableError, WaitingError, type SandboxedJob } from 'bullmq'
 import type { Redis } from 'ioredis'
 import { specHash, type NormalisedSpec } from '../../../spec/index.js'
 import {
-  assembleResult, assembleStored, classifyChunkError, decidePoint, decodeValue, encodeValue, isTerminal, makeProvenance, pointRecords, runChunk, systemCauseOf,
+  assembleResult, assembleStored, chunkCpuSeconds, classifyChunkError, decidePoint, decodeValue, encodeValue, isTerminal, makeProvenance, pointRecords, runChunk, systemCauseOf,
   systemFailure, userFailure, type ChunkResult, type ChunkRunOutcome
 } from '../../../sweep/index.js'
 import type { SweepResult } from '../../../results/index.js'
@@ -24,7 +24,9 @@ import { publishSweepEvent } from '../events.js'
 import { keyLayout, type KeyLayout } from '../keys.js'
 import { RedisSweepStore } from '../store.js'
 import { failSweep } from './failures.js'
+import type { HandBackNotice } from './progress-relay.js'
 import { StopBoardReader } from './stop-board.js'
+import { TimeBudgetReader } from './time-budget.js'
 import { compileKernelsOptimised } from '../../../runtime/kernel-compilation.js'
 import { runtimeFacts } from '../../../runtime/facts.js'
 import { explicitCollector } from '../../../runtime/reclaim.js'
@@ -40,6 +42,8 @@ export interface SandboxSettings {
   progressIntervalMs: number
   /** Shared with the worker process: see stop-board.ts. */
   stopBoard: SharedArrayBuffer
+  /** Shared with the worker process: see time-budget.ts. */
+  timeBudget: SharedArrayBuffer
   /** Name of the worker process, for connection names. */
   workerName: string
 }
@@ -57,6 +61,7 @@ interface SandboxContext {
   store: RedisSweepStore
   chunks: ChunkQueue
   board: StopBoardReader
+  budget: TimeBudgetReader
   settings: SandboxSettings
 }
 
@@ -74,6 +79,7 @@ function sandboxContext (): Promise<SandboxContext> {
       store: new RedisSweepStore(redis, keys, settings.retentionSeconds),
       chunks: new ChunkQueue(redis, keys, settings.retry),
       board: new StopBoardReader(settings.stopBoard),
+      budget: new TimeBudgetReader(settings.timeBudget),
       settings
     }
   })()
@@ -132,7 +138,7 @@ async function decide (context: SandboxContext, job: SandboxedJob<DecideJobData>
 }
 
 async function runChunkJob (context: SandboxContext, job: SandboxedJob<ChunkJobData>, token: string | undefined, signal: AbortSignal | undefined): Promise<ProcessorOutcome> {
-  const { store, board, settings } = context
+  const { store, board, budget, settings } = context
   const { sweepId, chunk, chunksTotal } = job.data
   // Noted before the status is read: only a stop posted after a live status stops this chunk.
   const stopsBefore = board.stopsPosted(sweepId)
@@ -150,6 +156,11 @@ async function runChunkJob (context: SandboxContext, job: SandboxedJob<ChunkJobD
   } catch (error) {
     outcome = { kind: 'failed', error: classifyChunkError(error) }
   }
+  const estimatedSeconds = spec === null ? 0 : chunkCpuSeconds(spec, chunk)
+  if (spec !== null && !budget.fits(estimatedSeconds, Date.now())) {
+    // The worker's time runs out before this chunk would end: back to the queue unrun, no attempt spent.
+    return await handBack(job, token, { chunk: chunk.index, handedBack: 'out-of-time' })
+  }
   outcome ??= runChunk(spec!, chunk, {
     // Called between trials while this thread's event loop is blocked: only shared memory can answer.
     shouldStop: () => board.stopsPosted(sweepId) > stopsBefore || board.handBackRequested() || signal?.aborted === true,
@@ -163,10 +174,7 @@ async function runChunkJob (context: SandboxContext, job: SandboxedJob<ChunkJobD
       const status = await store.status(sweepId)
       // Shutting down, or a stop that was meant for an earlier run of a sweep resumed since (a
       // late message): give the chunk back without spending one of its attempts.
-      if (status !== null && !isTerminal(status)) {
-        await job.moveToWait(token)
-        throw new WaitingError()
-      }
+      if (status !== null && !isTerminal(status)) return await handBack(job, token, { chunk: chunk.index, handedBack: 'stopped' })
       return { outcome: 'stopped', chunk: chunk.index }
     }
     case 'failed': {
@@ -181,6 +189,7 @@ async function runChunkJob (context: SandboxContext, job: SandboxedJob<ChunkJobD
       throw new Error(`${outcome.error.name}: ${outcome.error.message}`)
     }
     case 'done': {
+      budget.recordRun(estimatedSeconds, outcome.computeMs)
       const stored = await store.recordChunk(sweepId, chunk, outcome.body, outcome.computeMs, Date.now())
       if (stored.status !== 'running') return { outcome: 'skipped', reason: `sweep is ${stored.status === '' ? 'gone' : stored.status}` }
       await publishSweepEvent(context.redis, context.keys, sweepId, 'progress')
@@ -190,6 +199,13 @@ async function runChunkJob (context: SandboxContext, job: SandboxedJob<ChunkJobD
       return { outcome: 'stored', chunk: chunk.index, trials: outcome.trials, computeMs: outcome.computeMs, completedSweep: stored.complete }
     }
   }
+}
+
+/** Returns the job to the queue without spending one of its attempts, telling the worker process first. */
+async function handBack (job: SandboxedJob<ChunkJobData>, token: string | undefined, notice: HandBackNotice): Promise<never> {
+  await job.updateProgress(notice).catch(() => {})
+  await job.moveToWait(token)
+  throw new WaitingError()
 }
 
 async function assemble (context: SandboxContext, job: SandboxedJob<AssembleJobData>): Promise<ProcessorOutcome> {

@@ -21,6 +21,21 @@ export function isProgressReport (value: unknown): value is ChunkProgressReport 
   return typeof report?.chunk === 'number' && typeof report.trialsDone === 'number'
 }
 
+/**
+ * A sandbox gives a chunk back to the queue unrun or unfinished (BullMQ emits no event for a
+ * job moved back to wait): out of time before the worker's limit, or told to stop (shutdown,
+ * or a stop meant for an earlier run of a resumed sweep). Posted like progress, just before.
+ */
+export interface HandBackNotice {
+  chunk: number
+  handedBack: 'out-of-time' | 'stopped'
+}
+
+export function isHandBackNotice (value: unknown): value is HandBackNotice {
+  const notice = value as Partial<HandBackNotice> | null
+  return typeof notice?.chunk === 'number' && (notice.handedBack === 'out-of-time' || notice.handedBack === 'stopped')
+}
+
 export async function storeProgress (
   deps: { redis: Redis, keys: KeyLayout, store: RedisSweepStore, logger: Logger, stop: (sweepId: string, why: string) => void },
   sweepId: string,

@@ -4,24 +4,26 @@ import type { RunningWorker } from './worker.js'
 
 /**
  * Closes the worker on the first SIGTERM or SIGINT (running chunks finish within the grace
- * period or go back to the queue); a second signal exits at once. Resolves once closed.
+ * period or go back to the queue); a second signal exits at once. Resolves once the worker
+ * has closed, on a signal or on its own (idle, or at its run-time limit).
  */
-export function closeOnSignals (worker: RunningWorker, logger: Logger): Promise<void> {
-  return new Promise((resolve, reject) => {
-    let received = 0
-    const onSignal = (signal: NodeJS.Signals): void => {
-      received++
-      if (received > 1) {
-        logger.warn({ signal }, 'second signal: exiting without waiting for running chunks (they return to the queue when their locks expire)')
-        process.exit(1)
-      }
-      logger.info({ signal }, 'shutting down: no new chunks; running chunks finish or are handed back')
-      worker.close().then(resolve, reject).finally(() => {
-        process.off('SIGTERM', onSignal)
-        process.off('SIGINT', onSignal)
-      })
+export async function closeOnSignals (worker: RunningWorker, logger: Logger): Promise<void> {
+  let received = 0
+  const onSignal = (signal: NodeJS.Signals): void => {
+    received++
+    if (received > 1) {
+      logger.warn({ signal }, 'second signal: exiting without waiting for running chunks (they return to the queue when their locks expire)')
+      process.exit(1)
     }
-    process.on('SIGTERM', onSignal)
-    process.on('SIGINT', onSignal)
-  })
+    logger.info({ signal }, 'shutting down: no new chunks; running chunks finish or are handed back')
+    worker.close().catch((err: unknown) => logger.error({ err }, 'cannot close the worker'))
+  }
+  process.on('SIGTERM', onSignal)
+  process.on('SIGINT', onSignal)
+  try {
+    await worker.closed
+  } finally {
+    process.off('SIGTERM', onSignal)
+    process.off('SIGINT', onSignal)
+  }
 }

@@ -21,10 +21,12 @@ import { checkRedisSettings } from '../settings.js'
 import { RedisSweepStore } from '../store.js'
 import { failSweep, type FailureDeps } from './failures.js'
 import type { ProcessorOutcome, SandboxSettings } from './processor.js'
-import { isProgressReport, storeProgress } from './progress-relay.js'
+import { isHandBackNotice, isProgressReport, storeProgress } from './progress-relay.js'
 import { enqueueForgotten, UNENQUEUED_REPAIR_AGE_MS } from './repair.js'
 import { createStopBoardBuffer, StopBoardWriter } from './stop-board.js'
 import { RunningChunks, StopRelay } from './stop-relay.js'
+import { createTimeBudgetBuffer, TimeBudgetWriter } from './time-budget.js'
+import { startHealthServer, type HealthServer } from './health.js'
 
 export { closeOnSignals } from './signals.js'
 
@@ -79,6 +81,28 @@ export interface WorkerProcessOptions {
   requireNoEviction?: boolean
   /** Told when this process starts and ends a job (for supervisors and tests). */
   observer?: (activity: WorkerActivity) => void
+  /**
+   * A batch allocation's limit: the worker takes no chunk it cannot finish (by the chunk's
+   * cost estimate at this machine's measured speed) before `maxRuntimeMs` after `startedAtMs`
+   * less `drainReserveMs`, hands back what still runs then, and closes. Unset: no limit.
+   */
+  maxRuntimeMs?: number
+  /**
+   * Time kept at the end of `maxRuntimeMs` for handing running chunks back and closing.
+   * @defaultValue 10 % of maxRuntimeMs, between 1 s and 60 s
+   */
+  drainReserveMs?: number
+  /**
+   * When the run time counts from (a batch job's limit counts from its process's start).
+   * @defaultValue the process's start
+   */
+  startedAtMs?: number
+  /** Close once no job has run for this long (a batch allocation with nothing left to do). Unset: never. */
+  exitWhenIdleMs?: number
+  /** Serve `/livez` and `/readyz` on this port (0: any free port; unset: none), for an orchestrator's probes. */
+  healthPort?: number
+  /** @defaultValue '0.0.0.0' (probes come from outside the container) */
+  healthHost?: string
 }
 
 export interface WorkerActivity {
@@ -86,7 +110,7 @@ export interface WorkerActivity {
    * `progress`: a running chunk reported its trials done; `stopped`: the chunk was abandoned
    * because its sweep was canceled or failed; `skipped`: the sweep had ended before the job ran.
    */
-  type: 'started' | 'progress' | 'stored' | 'assembled' | 'stopped' | 'skipped' | 'failed'
+  type: 'started' | 'progress' | 'stored' | 'assembled' | 'stopped' | 'skipped' | 'failed' | 'handed-back'
   jobId: string
   sweepId: string
   job: SweepJobName
@@ -98,6 +122,18 @@ export interface RunningWorker {
   readonly name: string
   /** Stops taking chunks, lets running ones finish within the grace period, hands back the rest, then closes. */
   close: () => Promise<void>
+  /** Resolves once the worker has closed, whether told to (close, a signal) or on its own (idle, out of time). */
+  readonly closed: Promise<void>
+  /** The port of the health server, when one was asked for. */
+  readonly healthPort: number | null
+}
+
+/** Why a worker closes; logged, and what decides how long running chunks may go on. */
+export type CloseReason = 'asked' | 'idle' | 'out-of-time'
+
+/** The default `drainReserveMs` for a run-time limit. */
+export function defaultDrainReserveMs (maxRuntimeMs: number): number {
+  return Math.min(60_000, Math.max(1000, Math.round(maxRuntimeMs / 10)))
 }
 
 const DEFAULT_RETENTION_SECONDS = 7 * 24 * 3600
@@ -133,6 +169,12 @@ export async function startWorker (options: WorkerProcessOptions): Promise<Runni
   const failureDeps: FailureDeps = { redis, keys, store, chunks: chunkQueue }
   const stopBuffer = createStopBoardBuffer()
   const board = new StopBoardWriter(stopBuffer)
+  const budgetBuffer = createTimeBudgetBuffer()
+  const budget = new TimeBudgetWriter(budgetBuffer)
+  const takeUntil = options.maxRuntimeMs === undefined
+    ? null
+    : (options.startedAtMs ?? Date.now() - process.uptime() * 1000) + options.maxRuntimeMs - (options.drainReserveMs ?? defaultDrainReserveMs(options.maxRuntimeMs))
+  if (takeUntil !== null) budget.limitTo(takeUntil)
   const sandbox: SandboxSettings = {
     url: options.url,
     prefix: options.prefix,
@@ -140,6 +182,7 @@ export async function startWorker (options: WorkerProcessOptions): Promise<Runni
     retry,
     progressIntervalMs: options.progressIntervalMs ?? 1000,
     stopBoard: stopBuffer,
+    timeBudget: budgetBuffer,
     workerName: name
   }
 
@@ -194,12 +237,27 @@ export async function startWorker (options: WorkerProcessOptions): Promise<Runni
     }
   }
 
+  let closing: Promise<void> | null = null
+  let resolveClosed!: () => void
+  let rejectClosed!: (error: unknown) => void
+  const closed = new Promise<void>((resolve, reject) => {
+    resolveClosed = resolve
+    rejectClosed = reject
+  })
+  // Awaited by whoever runs the process (closeOnSignals); a close that fails is reported there, not as an unhandled rejection.
+  closed.catch(() => {})
+  let lastBusyMs = Date.now()
+  const finished = (job: SweepJob): void => {
+    running.remove(job.id ?? '')
+    lastBusyMs = Date.now()
+  }
   worker.on('active', (job) => {
     running.add(job.id ?? '', job.data.sweepId)
+    lastBusyMs = Date.now()
     observe('started', job)
   })
   worker.on('completed', (job, result) => {
-    running.remove(job.id ?? '')
+    finished(job)
     const reply = result as ProcessorOutcome | null
     const outcome = reply?.outcome
     observe(outcome === 'stored' || outcome === 'assembled' || outcome === 'stopped' ? outcome : 'skipped', job)
@@ -208,13 +266,22 @@ export async function startWorker (options: WorkerProcessOptions): Promise<Runni
   })
   worker.on('failed', (job, error) => {
     if (job === undefined) return
-    running.remove(job.id ?? '')
+    finished(job)
     observe('failed', job)
-    if (error.name === 'WaitingError') return
     logger.warn({ jobId: job.id, sweepId: job.data.sweepId, attemptsMade: job.attemptsMade, err: error.message }, 'chunk attempt failed')
     if (job.finishedOn !== undefined && job.id !== undefined) failFromJob(job.id).catch((err: unknown) => logger.error({ err }, 'cannot record a failed sweep'))
   })
   worker.on('progress', (job, progress) => {
+    if (isHandBackNotice(progress)) {
+      finished(job)
+      observe('handed-back', job)
+      // A chunk that would not end in time: later ones would not either, so take no more.
+      if (progress.handedBack === 'out-of-time' && closing === null) {
+        logger.info({ jobId: job.id }, 'the next chunk would not end before the run-time limit: handed back, taking no more')
+        close('out-of-time').catch((err: unknown) => logger.error({ err }, 'cannot close'))
+      }
+      return
+    }
     if (!isProgressReport(progress)) return
     observe('progress', job, progress.trialsDone)
     storeProgress({ redis, keys, store, logger, stop: (sweepId, why) => stops.stop(sweepId, why) }, job.data.sweepId, progress).catch(() => {})
@@ -238,15 +305,28 @@ export async function startWorker (options: WorkerProcessOptions): Promise<Runni
   worker.run().catch((err: unknown) => logger.error({ err }, 'worker loop stopped'))
   logger.info({ redis: redactUrl(options.url), prefix: options.prefix, concurrency }, 'worker started')
 
-  let closing: Promise<void> | null = null
-  const close = (): Promise<void> => {
+  let limitTimer: NodeJS.Timeout | undefined
+  let idleTimer: NodeJS.Timeout | undefined
+  let health: HealthServer | null = null
+  /**
+   * Stops taking chunks and closes once the running ones are stored or handed back. Asked
+   * (a signal): they have the grace period. Out of time: until the limit. Idle: none runs.
+   */
+  const close = (reason: CloseReason = 'asked'): Promise<void> => {
     closing ??= (async () => {
+      clearTimeout(limitTimer)
+      clearTimeout(idleTimer)
       stops.close()
       clearInterval(repair)
+      const graceMs = reason === 'out-of-time' && takeUntil !== null
+        ? Math.max(0, takeUntil - Date.now())
+        : options.shutdownGraceMs ?? 60_000
+      if (takeUntil === null || Date.now() + graceMs < takeUntil) budget.limitTo(Date.now() + graceMs)
+      logger.info({ reason, running: running.size, graceMs, slowness: budget.slowness() }, 'closing: taking no more chunks')
       const grace = setTimeout(() => {
-        logger.warn({ running: running.size }, 'shutdown grace period over: handing running chunks back to the queue')
+        logger.warn({ running: running.size }, 'grace period over: handing running chunks back to the queue')
         board.requestHandBack()
-      }, options.shutdownGraceMs ?? 60_000)
+      }, graceMs)
       try {
         await worker.close()
       } finally {
@@ -254,11 +334,58 @@ export async function startWorker (options: WorkerProcessOptions): Promise<Runni
       }
       await failures.close()
       await chunkQueue.close()
+      if (health !== null) await health.close()
       if (subscriber !== null) await closeConnection(subscriber)
       await closeConnection(redis)
-      logger.info('worker stopped')
+      logger.info({ reason }, 'worker stopped')
     })()
+    closing.then(resolveClosed, rejectClosed)
     return closing
   }
-  return { name, close }
+  if (takeUntil !== null) {
+    limitTimer = setTimeout(() => {
+      logger.info('run-time limit reached: handing running chunks back')
+      close('out-of-time').catch((err: unknown) => logger.error({ err }, 'cannot close'))
+    }, Math.max(0, takeUntil - Date.now()))
+  }
+  if (options.exitWhenIdleMs !== undefined) {
+    const idleMs = options.exitWhenIdleMs
+    const checkIdle = (): void => {
+      const quietFor = Date.now() - lastBusyMs
+      if (running.size === 0 && quietFor >= idleMs) {
+        logger.info({ idleMs }, 'idle: no chunk to run')
+        close('idle').catch((err: unknown) => logger.error({ err }, 'cannot close'))
+        return
+      }
+      idleTimer = setTimeout(checkIdle, Math.max(50, Math.min(1000, running.size > 0 ? idleMs : idleMs - quietFor)))
+    }
+    idleTimer = setTimeout(checkIdle, Math.max(50, Math.min(1000, idleMs)))
+  }
+  if (options.healthPort !== undefined) {
+    health = await startHealthServer({
+      port: options.healthPort,
+      host: options.healthHost ?? '0.0.0.0',
+      logger,
+      readiness: async () => {
+        if (closing !== null) return { ready: false, reason: 'draining' }
+        try {
+          await withTimeout(redis.ping(), 2000)
+          return { ready: true, reason: 'taking chunks' }
+        } catch {
+          return { ready: false, reason: 'Redis does not answer' }
+        }
+      }
+    }).catch(async (error: unknown) => {
+      await close('asked')
+      throw error
+    })
+  }
+  return { name, close: () => close('asked'), closed, healthPort: health === null ? null : health.port }
+}
+
+function withTimeout<T> (promise: Promise<T>, ms: number): Promise<T> {
+  return new Promise((resolve, reject) => {
+    const timer = setTimeout(() => reject(new Error(`no answer within ${ms} ms`)), ms)
+    promise.then((value) => { clearTimeout(timer); resolve(value) }, (error: unknown) => { clearTimeout(timer); reject(error) })
+  })
 }
