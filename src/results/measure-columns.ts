@@ -8,7 +8,7 @@
  */
 import { END_STATES, type MeanWithError, type PointSummary, type TrialRecord } from '../engine/index.js'
 import type { CsvCell } from './csv.js'
-import type { ResultRow, SweepResult } from './types.js'
+import type { NormalisedSpec } from '../spec/types.js'
 
 /** Which optional groups a sweep's CSV holds. */
 export interface MeasureLayout {
@@ -24,18 +24,13 @@ const PATTERN_OVERLAP_STATS = ['mean', 'meanAbs', 'rms', 'maxAbs'] as const
 
 // MAIN //
 
-export function measureLayout (result: SweepResult, summaries: readonly PointSummary[]): MeasureLayout {
+export function measureLayout (spec: NormalisedSpec, summaries: readonly PointSummary[]): MeasureLayout {
   return {
-    stabilitySpread: result.spec.measures.stability,
+    stabilitySpread: spec.measures.stability,
     thermal: summaries.some((s) => s.endStateShares !== undefined),
     components: summaries.reduce((most, s) => Math.max(most, s.componentOverlaps?.length ?? 0), 0),
-    patternOverlaps: result.spec.measures.patternOverlaps === true
+    patternOverlaps: spec.measures.patternOverlaps === true
   }
-}
-
-/** Whether the sweep's rows state the load per input P/K (a fixed in-degree dilution). */
-export function hasInDegreeLoad (result: SweepResult): boolean {
-  return result.rows.some((row) => row.params.inDegreeLoad !== undefined)
 }
 
 /** Point columns: after the summary columns of summary-cells.ts. */
@@ -101,11 +96,6 @@ export function trialMeasureCells (t: TrialRecord, layout: MeasureLayout): CsvCe
     ...range(layout.components).map((k) => t.componentOverlaps?.[k]),
     ...(layout.patternOverlaps ? [po?.pairs, ...PATTERN_OVERLAP_STATS.map((stat) => po?.[stat])] : [])
   ]
-}
-
-/** The load per input as a leading cell, when the sweep states it. */
-export function inDegreeLoadCells (row: ResultRow, shown: boolean): CsvCell[] {
-  return shown ? [row.params.inDegreeLoad] : []
 }
 
 function meanHeader (name: string): string[] {

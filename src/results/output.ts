@@ -6,10 +6,11 @@ import type { TrialRecord } from '../engine/index.js'
 import { searchCsv } from './search-output.js'
 import type { ResultRow, SweepResult } from './types.js'
 import { canonicalJson } from '../spec/canonical.js'
+import { atPublishedPrecision, roundCell } from './precision.js'
+import { pointLeadingCells, pointLeadingHeader, type RowSource } from './parameter-columns.js'
 import { toCsv, type CsvCell } from './csv.js'
-import { gridAxes } from '../spec/grid.js'
 import { summaryCells, summaryHeader } from './summary-cells.js'
-import { hasInDegreeLoad, measureCells, measureHeader, measureLayout, trialMeasureCells, trialMeasureHeader, type MeasureLayout } from './measure-columns.js'
+import { measureCells, measureHeader, measureLayout, trialMeasureCells, trialMeasureHeader, type MeasureLayout } from './measure-columns.js'
 
 export interface OutputOptions {
   /** Include every trial's record (JSON: the `trials` member; CSV: one row per trial). */
@@ -20,6 +21,8 @@ export interface OutputOptions {
    * however often it was interrupted. @defaultValue false
    */
   timing?: boolean
+  /** CSV and Arrow: the sweep's id for the `sweepId` column (null or absent: a local run, an empty cell). */
+  sweepId?: string | null
 }
 
 /** Provenance members that describe one run rather than the result. */
@@ -28,12 +31,12 @@ const RUN_TIMING = ['wallSeconds', 'cpuSeconds', 'workers'] as const
 // MAIN //
 
 /**
- * The result as canonical JSON (sorted keys, no whitespace, one trailing newline).
- * Without perTrial the `trials` member is left out; without timing the run's timing is.
- * Non-finite numbers become null.
+ * The result as canonical JSON (sorted keys, no whitespace, one trailing newline), its
+ * measures at the published precision (precision.ts). Without perTrial the `trials` member is
+ * left out; without timing the run's timing is. Non-finite numbers become null.
  */
 export function resultToJson (result: SweepResult, opts: OutputOptions): string {
-  const { trials, provenance, ...rest } = result
+  const { trials, provenance, ...rest } = atPublishedPrecision(result)
   const kept: Record<string, unknown> = { ...provenance }
   if (opts.timing !== true) for (const key of RUN_TIMING) delete kept[key]
   const body = { ...rest, provenance: kept }
@@ -41,54 +44,40 @@ export function resultToJson (result: SweepResult, opts: OutputOptions): string 
 }
 
 /**
- * The result as tidy CSV. Per point: point, the varied parameters (by path), neurons,
- * patterns and alpha (= P/N; unless already varied), trials, overlap/sweeps/maxOtherOverlap/energy mean·sd·se, success
- * count·rate·low·high (Wilson 95 %), ending and end-state counts, stability (when measured)
- * and one `theory.<name>` column per theory value of the model (empty where the value is
- * unavailable: the JSON says why, in `theoryUnavailable`).
- * Per trial: point, varied parameters, neurons, patterns, alpha, then the trial record
- * (trajectories are JSON-only). An analysis gives one row per search, or with perTrial one
- * per evaluated step (see analysis/output.ts).
+ * The result as tidy CSV, measures at the published precision. Every row starts with the
+ * same columns whatever the sweep varies (parameter-columns.ts): sweepId, specHash, seed,
+ * point, every model parameter (varied or fixed) and alpha, alphaK.
+ * Per point, then: trials, overlap/sweeps/maxOtherOverlap/energy mean·sd·se, success
+ * count·rate·low·high (Wilson 95 %), ending and end-state counts, stability (when measured),
+ * the optional measure groups (measure-columns.ts) and one `theory.<name>` column per theory
+ * value of the model (empty where the value is unavailable: the JSON says why, in
+ * `theoryUnavailable`).
+ * Per trial, then: the trial record (trajectories are JSON-only). An analysis gives one row per
+ * search, or with perTrial one per evaluated step (see search-output.ts).
+ * docs/data-dictionary.md describes every column.
  */
 export function resultToCsv (result: SweepResult, opts: OutputOptions): string {
-  if (result.searches !== undefined) return searchCsv(result, result.searches, opts.perTrial)
-  return opts.perTrial ? trialCsv(result) : pointCsv(result)
+  const rounded = atPublishedPrecision(result)
+  const source: RowSource = { sweepId: opts.sweepId ?? null, specHash: result.specHash, spec: result.spec }
+  if (rounded.searches !== undefined) return searchCsv(source, rounded.searches, opts.perTrial)
+  // Per trial from the exact records, so `success` agrees with the counts whatever the rounding.
+  return opts.perTrial ? trialCsv(source, result) : pointCsv(source, rounded)
 }
 
-const PARAM_COLUMNS = ['neurons', 'patterns', 'alpha', 'inDegreeLoad'] as const
-
-/**
- * N, P, α = P/N and (under a fixed in-degree) the load per input P/K follow the varied
- * columns, except those already among them (a varied N or P).
- */
-function paramColumns (result: SweepResult): Array<typeof PARAM_COLUMNS[number]> {
-  const varied = new Set<string>(gridAxes(result.spec).map((axis) => axis.path))
-  const perInput = hasInDegreeLoad(result)
-  return PARAM_COLUMNS.filter((name) => !varied.has(name) && (name !== 'inDegreeLoad' || perInput))
-}
-
-function leadingHeader (result: SweepResult): string[] {
-  return ['point', ...gridAxes(result.spec).map((axis) => axis.path), ...paramColumns(result)]
-}
-
-function leadingCells (result: SweepResult, row: ResultRow): CsvCell[] {
-  return [row.point, ...gridAxes(result.spec).map((axis) => row.values[axis.path]), ...paramColumns(result).map((name) => row.params[name])]
-}
-
-function pointCsv (result: SweepResult): string {
+function pointCsv (source: RowSource, result: SweepResult): string {
   // One column per theory value of the sweep's model, available or not (a stable set of
   // columns for a model); a value unavailable at a point is an empty cell there.
   const theoryNames = [...new Set(result.rows.flatMap((row) => [...Object.keys(row.theory), ...Object.keys(row.theoryUnavailable ?? {})]))].sort()
   const stability = result.spec.measures.stability
-  const layout = measureLayout(result, result.rows.map((row) => row.summary))
+  const layout = measureLayout(result.spec, result.rows.map((row) => row.summary))
   const header = [
-    ...leadingHeader(result),
+    ...pointLeadingHeader(),
     ...summaryHeader(stability),
     ...measureHeader(layout),
     ...theoryNames.map((name) => `theory.${name}`)
   ]
   const rows = result.rows.map((row) => [
-    ...leadingCells(result, row),
+    ...pointLeadingCells(source, row),
     ...summaryCells(row.summary, stability),
     ...measureCells(row.summary, layout),
     ...theoryNames.map((name) => row.theory[name])
@@ -96,24 +85,23 @@ function pointCsv (result: SweepResult): string {
   return toCsv(header, rows)
 }
 
-function trialCsv (result: SweepResult): string {
+function trialCsv (source: RowSource, result: SweepResult): string {
   const stability = result.spec.measures.stability
-  const layout: MeasureLayout = measureLayout(result, result.rows.map((row) => row.summary))
+  const layout: MeasureLayout = measureLayout(result.spec, result.rows.map((row) => row.summary))
   const header = [
-    ...leadingHeader(result),
+    ...pointLeadingHeader(),
     'trial', 'target', 'initialOverlap', 'overlap', 'success', 'maxOtherOverlap', 'sweeps', 'ending', 'energy', 'endState',
     ...(stability ? ['stability.unstableFraction', 'stability.tieFraction', 'stability.fixedPatternFraction'] : []),
     ...trialMeasureHeader(layout)
   ]
   const rows: CsvCell[][] = []
   for (const row of result.rows) {
-    const lead = leadingCells(result, row)
+    const lead = pointLeadingCells(source, row)
     const threshold = successThresholdAt(result, row)
-    for (const t of result.trials[row.point] ?? []) rows.push([...lead, ...trialCells(t, threshold, stability), ...trialMeasureCells(t, layout)])
+    for (const t of result.trials[row.point] ?? []) rows.push([...lead, ...[...trialCells(t, threshold, stability), ...trialMeasureCells(t, layout)].map(roundCell)])
   }
   return toCsv(header, rows)
 }
-
 function trialCells (t: TrialRecord, threshold: number, stability: boolean): CsvCell[] {
   return [
     t.trial, t.target, t.initialOverlap, t.overlap, t.overlap >= threshold ? 1 : 0, t.maxOtherOverlap, t.sweeps, t.ending, t.energy, t.endState,

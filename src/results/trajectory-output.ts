@@ -6,7 +6,8 @@
  */
 import type { TrajectorySummary } from '../engine/index.js'
 import { canonicalJson } from '../spec/canonical.js'
-import { gridAxes } from '../spec/grid.js'
+import { atPublishedPrecision } from './precision.js'
+import { pointLeadingCells, pointLeadingHeader } from './parameter-columns.js'
 import type { NormalisedSpec } from '../spec/types.js'
 import { toCsv, type CsvCell } from './csv.js'
 import type { ResultRow, SweepResult } from './types.js'
@@ -29,16 +30,17 @@ export function trajectoryUnavailable (spec: NormalisedSpec): string | null {
 }
 
 /**
- * Long-format CSV: `point`, the varied parameters, `neurons`, `patterns`, `alpha`, then
- * `sweep`, `running`, and `overlap.mean|sd|se` and/or `energy.mean|sd|se` for whichever
- * trajectories were recorded (the energy has no sweep 0: empty there).
+ * Long-format CSV: the leading columns of every table (sweepId, specHash, seed, point, every
+ * model parameter, alpha, alphaK), then `sweep`, `running`, and `overlap.mean|sd|se` and/or
+ * `energy.mean|sd|se` for whichever trajectories were recorded (the energy has no sweep 0:
+ * empty there), at the published precision.
  */
-export function trajectoryCsv (result: SweepResult): string {
-  const axes = gridAxes(result.spec).map((axis) => axis.path as string)
-  const params = (['neurons', 'patterns', 'alpha'] as const).filter((name) => !axes.includes(name))
+export function trajectoryCsv (exact: SweepResult, sweepId: string | null = null): string {
+  const result = atPublishedPrecision(exact)
+  const source = { sweepId, specHash: result.specHash, spec: result.spec }
   const { overlapTrajectory: withOverlap, energyTrajectory: withEnergy } = result.spec.measures
   const header = [
-    'point', ...axes, ...params, 'sweep', 'running',
+    ...pointLeadingHeader(), 'sweep', 'running',
     ...(withOverlap ? ['overlap.mean', 'overlap.sd', 'overlap.se'] : []),
     ...(withEnergy ? ['energy.mean', 'energy.sd', 'energy.se'] : [])
   ]
@@ -47,9 +49,10 @@ export function trajectoryCsv (result: SweepResult): string {
     const overlap = row.summary.overlapTrajectory
     const energy = row.summary.energyTrajectory
     const [first, last] = sweepRange([overlap, energy])
+    const lead = pointLeadingCells(source, row)
     for (let sweep = first; sweep <= last; sweep++) {
       rows.push([
-        row.point, ...axes.map((path) => row.values[path]), ...params.map((name) => row.params[name]), sweep,
+        ...lead, sweep,
         (overlap !== undefined ? at(overlap, 'running', sweep) : undefined) ?? (energy !== undefined ? at(energy, 'running', sweep) : undefined),
         ...(withOverlap ? statCells(overlap, sweep) : []),
         ...(withEnergy ? statCells(energy, sweep) : [])
@@ -60,7 +63,8 @@ export function trajectoryCsv (result: SweepResult): string {
 }
 
 /** JSON: the spec hash, the padding rule, and per grid point its values and trajectories (null where not recorded). */
-export function trajectoryJson (result: SweepResult): string {
+export function trajectoryJson (exact: SweepResult): string {
+  const result = atPublishedPrecision(exact)
   return canonicalJson({
     specHash: result.specHash,
     series: 'trajectory',

@@ -9,6 +9,7 @@ import { createEmbeddedQueue } from '../../src/backends/embedded/index.js'
 import type { SweepRecord } from '../../src/backends/port.js'
 import { createHarness, isTerminal, type Harness } from './helpers/harness.js'
 import { expectProblem } from './helpers/problems.js'
+import { csvRecords } from '../helpers/tables.js'
 
 const example = JSON.parse(readFileSync(new URL('../../examples/room-capacity-search.json', import.meta.url), 'utf8')) as Record<string, any>
 
@@ -65,10 +66,10 @@ describe('threshold search through the API (embedded backend)', () => {
     expect(search.steps[0].summary.success.rate).toBe(1)
 
     const csv = await h.request({ method: 'GET', url: `/v1/sweeps/${id}/results?format=csv` })
-    const lines = csv.body.trimEnd().split('\r\n')
-    expect(lines).toHaveLength(2)
-    expect(lines[0]!.startsWith('search,neurons,parameter,measure,level,estimate,low,high,')).toBe(true)
-    expect(lines[1]!.startsWith(`0,1000,load,success,0.5,${search.estimate},${search.low},${search.high},0.95,`)).toBe(true)
+    const records = csvRecords(csv.body)
+    expect(records).toHaveLength(1)
+    expect(records[0]).toMatchObject({ sweepId: id, search: '0', neurons: '1000', load: '', parameter: 'load', measure: 'success', level: '0.5', confidence: '0.95' })
+    expect([records[0]!.estimate, records[0]!.low, records[0]!.high].map(Number)).toEqual([search.estimate, search.low, search.high])
     const steps = await h.request({ method: 'GET', url: `/v1/sweeps/${id}/results?format=csv&trials=true` })
     expect(steps.body.trimEnd().split('\r\n')).toHaveLength(1 + search.stepsUsed)
 

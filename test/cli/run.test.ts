@@ -6,6 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { normaliseSpec, specHash } from '../../src/spec/index.js'
 import { cli } from './helpers.js'
 import { C_REFERENCE, CANONICAL_WORKLOADS } from '../api/contract/measures.js'
+import { csvRecords } from '../helpers/tables.js'
 
 /** Place-cell population codes of the rooms of a flat, recalled from noisy cues. */
 const spec = { label: 'rooms of a flat', neurons: 120, load: { values: [0.05, 0.1, 0.15] }, cue: { kind: 'flip', fraction: 0.15 }, trials: 30, seed: 8 }
@@ -105,8 +106,8 @@ describe('memsweep run, format-2 options', () => {
     const res = await cli(['run', join(dir, 'traj.json'), '-o', join(dir, 'traj.csv'), '--threads', '1', '--series', 'trajectory'])
     expect(res.code, res.stderr).toBe(0)
     const lines = (await readFile(join(dir, 'traj.csv'), 'utf8')).trimEnd().split('\r\n')
-    expect(lines[0]).toBe('point,load,neurons,patterns,alpha,sweep,running,overlap.mean,overlap.sd,overlap.se')
-    expect(lines[1]).toMatch(/^0,0\.05,120,6,0\.05,0,6,0\.70*1?,/)
+    expect(lines[0]).toMatch(/^sweepId,specHash,seed,point,.*,alpha,alphaK,sweep,running,overlap\.mean,overlap\.sd,overlap\.se$/)
+    expect(csvRecords(lines.join('\r\n'))[0]).toMatchObject({ sweepId: '', point: '0', load: '0.05', neurons: '120', patterns: '6', alpha: '0.05', sweep: '0', running: '6', 'overlap.mean': '0.7' })
     const none = await cli(['run', join(dir, 'spec.json'), '-o', join(dir, 'none.csv'), '--series', 'trajectory'])
     expect(none.code).toBe(2)
     expect(none.stderr).toMatch(/No trajectory series: .*measures\.overlapTrajectory/)

@@ -186,11 +186,20 @@ describe('analysis spec: assembly and output', () => {
   it('writes CSV with one row per search, or one per step with perTrial', () => {
     const result = assembleResult(spec, chunks, provenanceOf(spec))
     const perSearch = resultToCsv(result, { perTrial: false }).trimEnd().split('\r\n')
-    expect(perSearch[0]).toBe('search,neurons,parameter,measure,level,estimate,low,high,confidence,stoppedBy,bracket.low,bracket.high,steps,trials,fit.method,fit.slope,fit.dispersion,fit.separated,note')
+    const header = perSearch[0]!.split(',')
+    expect(header.slice(0, 6)).toEqual(['sweepId', 'specHash', 'seed', 'search', 'neurons', 'patterns'])
+    expect(header.slice(header.indexOf('alphaK') + 1)).toEqual(['parameter', 'measure', 'level', 'estimate', 'low', 'high', 'confidence', 'stoppedBy', 'bracket.low', 'bracket.high', 'steps', 'trials', 'fit.method', 'fit.slope', 'fit.dispersion', 'fit.separated', 'note'])
     expect(perSearch).toHaveLength(3)
-    expect(perSearch[1]!.startsWith(`0,60,load,success,0.5,${result.searches![0]!.estimate},`)).toBe(true)
+    const first = perSearch[1]!.split(',')
+    const at = (name: string): string => first[header.indexOf(name)]!
+    expect([at('search'), at('neurons'), at('patterns'), at('load'), at('parameter'), at('measure'), at('level')]).toEqual(['0', '60', '', '', 'load', 'success', '0.5'])
+    expect(Number(at('estimate'))).toBeCloseTo(result.searches![0]!.estimate!, 9)
     const perStep = resultToCsv(result, { perTrial: true }).trimEnd().split('\r\n')
-    expect(perStep[0]!.startsWith('search,neurons,step,load,patterns,alpha,side,trials,overlap.mean,')).toBe(true)
+    const stepHeader = perStep[0]!.split(',')
+    expect(stepHeader.slice(0, 7)).toEqual(['sweepId', 'specHash', 'seed', 'search', 'step', 'neurons', 'patterns'])
+    expect(stepHeader.slice(stepHeader.indexOf('alphaK') + 1, stepHeader.indexOf('alphaK') + 4)).toEqual(['side', 'trials', 'overlap.mean'])
+    const step = perStep[1]!.split(',')
+    expect(Number(step[stepHeader.indexOf('load')])).toBeCloseTo(result.searches![0]!.steps[0]!.value, 9)
     expect(perStep).toHaveLength(1 + result.searches!.reduce((n, s) => n + s.steps.length, 0))
     const json = JSON.parse(resultToJson(result, { perTrial: true })) as { trials: unknown[], searches: unknown[] }
     expect(json.trials).toEqual([])

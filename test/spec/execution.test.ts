@@ -160,37 +160,44 @@ describe('output', () => {
     expect(JSON.parse(resultToJson(rerun, { perTrial: false })).provenance.wallSeconds).toBeUndefined()
   })
 
-  it('writes one tidy CSV row per point, varied parameters first', () => {
-    const csv = resultToCsv(reference, { perTrial: false })
+  it('writes one tidy CSV row per point, identity and every parameter first', () => {
+    const csv = resultToCsv(reference, { perTrial: false, sweepId: 'sw_test' })
     const lines = csv.split('\r\n')
     expect(lines).toHaveLength(6)
     expect(lines.at(-1)).toBe('')
     const header = lines[0]!.split(',')
-    expect(header.slice(0, 7)).toEqual(['point', 'load', 'cue.fraction', 'neurons', 'patterns', 'alpha', 'trials'])
-    expect(header).toEqual(expect.arrayContaining(['overlap.mean', 'success.rate', 'success.low', 'endState.target', 'stability.unstableFraction']))
+    expect(header.slice(0, 8)).toEqual(['sweepId', 'specHash', 'seed', 'point', 'neurons', 'patterns', 'load', 'inDegreeLoad'])
+    expect(header).toEqual(expect.arrayContaining(['cue.fraction', 'alpha', 'trials', 'overlap.mean', 'success.rate', 'success.low', 'endState.target', 'stability.unstableFraction']))
     expect(header.some((h) => h.startsWith('theory.'))).toBe(true)
     const cells = lines[4]!.split(',')
-    expect(cells.slice(0, 7)).toEqual(['3', '0.15', '0.3', '48', '7', String(7 / 48), '9'])
-    expect(Number(cells[header.indexOf('success.count')])).toBe(reference.rows[3]!.summary.success.count)
+    const at = (name: string): string => cells[header.indexOf(name)]!
+    expect([at('sweepId'), at('specHash'), at('seed'), at('point')]).toEqual(['sw_test', reference.specHash, String(reference.spec.seed), '3'])
+    expect([at('load'), at('cue.fraction'), at('neurons'), at('patterns'), at('alpha'), at('trials')]).toEqual(['0.15', '0.3', '48', '7', String(Number((7 / 48).toPrecision(10))), '9'])
+    expect(Number(at('success.count'))).toBe(reference.rows[3]!.summary.success.count)
   })
 
   it('writes one CSV row per trial on request', () => {
     const lines = resultToCsv(reference, { perTrial: true }).trimEnd().split('\r\n')
     expect(lines).toHaveLength(1 + 4 * 9)
     const header = lines[0]!.split(',')
-    expect(header.slice(0, 8)).toEqual(['point', 'load', 'cue.fraction', 'neurons', 'patterns', 'alpha', 'trial', 'target'])
+    expect(header.slice(0, 4)).toEqual(['sweepId', 'specHash', 'seed', 'point'])
+    expect(header.indexOf('trial')).toBe(header.indexOf('alphaK') + 1)
     const last = lines.at(-1)!.split(',')
-    expect(last[0]).toBe('3')
-    expect(last[6]).toBe('8')
+    expect(last[header.indexOf('sweepId')]).toBe('')
+    expect(last[header.indexOf('point')]).toBe('3')
+    expect(last[header.indexOf('trial')]).toBe('8')
     const trial = reference.trials[3]![8]!
     expect(last[header.indexOf('overlap')]).toBe(String(trial.overlap))
     expect(last[header.indexOf('success')]).toBe(trial.overlap >= 0.9 ? '1' : '0')
   })
 
-  it('does not repeat N or P when they are themselves varied', () => {
+  it('states N and P once, where they stand in every table, when they are themselves varied', () => {
     const sizes = normaliseSpec({ neurons: { values: [20, 30] }, patterns: { values: [2, 3] }, trials: 2 })
     const result = assembleResult(sizes, runAll(sizes, planSweep(sizes).chunks), makeProvenance(sizes, runtimeFacts(), { wallSeconds: 0, cpuSeconds: 0 }))
-    expect(resultToCsv(result, { perTrial: false }).split('\r\n')[0]!.split(',').slice(0, 5)).toEqual(['point', 'neurons', 'patterns', 'alpha', 'trials'])
-    expect(resultToCsv(result, { perTrial: true }).split('\r\n')[1]!.split(',').slice(0, 5)).toEqual(['0', '20', '2', '0.1', '0'])
+    const header = resultToCsv(result, { perTrial: false }).split('\r\n')[0]!.split(',')
+    expect(header.slice(3, 7)).toEqual(['point', 'neurons', 'patterns', 'load'])
+    expect(header.filter((h) => h === 'neurons')).toHaveLength(1)
+    const first = resultToCsv(result, { perTrial: true }).split('\r\n')[1]!.split(',')
+    expect([first[3], first[4], first[5], first[header.indexOf('alpha')]]).toEqual(['0', '20', '2', '0.1'])
   })
 })

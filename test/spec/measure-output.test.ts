@@ -1,7 +1,7 @@
 /** CSV and JSON of the format-2 measures: column groups, the long-format trajectory series. */
 import { describe, expect, it } from 'vitest'
 import { END_STATES } from '../../src/engine/index.js'
-import { resultToCsv, resultToJson, trajectoryCsv, trajectoryJson } from '../../src/results/index.js'
+import { resultToCsv, resultToJson, roundMeasure, trajectoryCsv, trajectoryJson } from '../../src/results/index.js'
 import { runSweep } from '../figures/helpers.js'
 
 const header = (csv: string): string[] => csv.split('\r\n')[0]!.split(',')
@@ -44,8 +44,8 @@ describe('CSV columns of the measures that apply to some sweeps', () => {
     expect(columns).not.toContain('componentOverlap.3.mean')
     const [head, row] = lines(csv)
     expect(Number(row![head!.indexOf('patternOverlaps.pairs')])).toBe(15)
-    expect(Number(row![head!.indexOf('patternOverlaps.expected.rms')])).toBeCloseTo(1 / Math.sqrt(120), 14)
-    expect(Number(row![head!.indexOf('componentOverlap.0.mean')])).toBe(result.rows[0]!.summary.overlap.mean)
+    expect(Number(row![head!.indexOf('patternOverlaps.expected.rms')])).toBe(roundMeasure(1 / Math.sqrt(120)))
+    expect(Number(row![head!.indexOf('componentOverlap.0.mean')])).toBe(roundMeasure(result.rows[0]!.summary.overlap.mean))
     const trials = header(resultToCsv(result, { perTrial: true }))
     expect(trials).toEqual(expect.arrayContaining(['componentOverlap.0', 'componentOverlap.2', 'patternOverlaps.rms']))
     // JSON keeps the same numbers under the row's summary.
@@ -66,20 +66,24 @@ describe('the trajectory series', () => {
       seed: 5
     })
     const table = lines(trajectoryCsv(result))
-    expect(table[0]).toEqual(['point', 'load', 'neurons', 'patterns', 'alpha', 'sweep', 'running', 'overlap.mean', 'overlap.sd', 'overlap.se', 'energy.mean', 'energy.sd', 'energy.se'])
+    const head = table[0]!
+    expect(head.slice(0, 4)).toEqual(['sweepId', 'specHash', 'seed', 'point'])
+    expect(head.slice(head.indexOf('alphaK') + 1)).toEqual(['sweep', 'running', 'overlap.mean', 'overlap.sd', 'overlap.se', 'energy.mean', 'energy.sd', 'energy.se'])
+    const col = (name: string): number => head.indexOf(name)
     const body = table.slice(1)
     for (const row of result.rows) {
       const band = row.summary.overlapTrajectory!
-      const mine = body.filter((cells) => Number(cells[0]) === row.point)
-      expect(mine.map((cells) => Number(cells[5]))).toEqual(band.mean.map((_, k) => k))
-      expect(mine.map((cells) => Number(cells[7]))).toEqual(band.mean)
-      expect(mine.map((cells) => Number(cells[6]))).toEqual(band.running)
-      expect(mine[0]![10]).toBe('')
-      expect(Number(mine[1]![10])).toBe(row.summary.energyTrajectory!.mean[0])
+      const mine = body.filter((cells) => Number(cells[col('point')]) === row.point)
+      expect(mine.map((cells) => Number(cells[col('sweep')]))).toEqual(band.mean.map((_, k) => k))
+      expect(mine.map((cells) => Number(cells[col('overlap.mean')]))).toEqual(band.mean.map(roundMeasure))
+      expect(mine.map((cells) => Number(cells[col('running')]))).toEqual(band.running)
+      expect(mine.every((cells) => cells[col('load')] === String(row.values.load))).toBe(true)
+      expect(mine[0]![col('energy.mean')]).toBe('')
+      expect(Number(mine[1]![col('energy.mean')])).toBe(roundMeasure(row.summary.energyTrajectory!.mean[0]!))
     }
     const json = JSON.parse(trajectoryJson(result))
     expect(json.points).toHaveLength(2)
-    expect(json.points[1].overlap).toEqual(result.rows[1]!.summary.overlapTrajectory)
+    expect(json.points[1].overlap.mean).toEqual(result.rows[1]!.summary.overlapTrajectory!.mean.map(roundMeasure))
     expect(json.points[1].values).toEqual({ load: 0.15 })
   })
 })

@@ -17,6 +17,8 @@ export type RenderSource =
 
 export interface RenderResultTask {
   kind: 'result'
+  /** The sweep's id, for the tables' `sweepId` column. */
+  sweepId: string
   source: RenderSource
   format: ResultFormat
   perTrial: boolean

@@ -21,9 +21,9 @@ export default function render (task: RenderTask): RenderOutcome {
   if (task.kind === 'result') {
     const result = read(task.source)
     const text = task.series === 'trajectory'
-      ? (task.format === 'csv' ? trajectoryCsv(result) : trajectoryJson(result))
+      ? (task.format === 'csv' ? trajectoryCsv(result, task.sweepId) : trajectoryJson(result))
       : task.format === 'csv'
-        ? resultToCsv(result, { perTrial: task.perTrial })
+        ? resultToCsv(result, { perTrial: task.perTrial, sweepId: task.sweepId })
         : resultToJson(result, { perTrial: task.perTrial, timing: task.timing })
     return rendered(Buffer.from(text, 'utf8'))
   }

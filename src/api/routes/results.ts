@@ -136,7 +136,7 @@ export const resultRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
       const stored = await ctx.queue.encodedResult(id, { trials: perTrial })
       if (stored === null) throw new Error(`sweep ${id} succeeded but the backend has no result for it`)
       // Decoding, rendering and hashing happen on the rendering thread: other requests go on meanwhile.
-      const outcome = await ctx.render.render({ kind: 'result', source: { kind: 'result', stored }, format, perTrial, timing, series })
+      const outcome = await ctx.render.render({ kind: 'result', sweepId: id, source: { kind: 'result', stored }, format, perTrial, timing, series })
       if (outcome.kind !== 'rendered') throw new Error(`rendering sweep ${id} answered ${outcome.kind}`)
       rendered = { body: Buffer.from(outcome.body.buffer, outcome.body.byteOffset, outcome.body.byteLength), etag: outcome.etag }
       cache.set(key, rendered)
@@ -157,7 +157,7 @@ export const resultRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
     async function sendPartial (sweepId: string, as: Format): Promise<FastifyReply> {
       const progress = await ctx.queue.storedProgress(sweepId)
       if (progress === null) throw new ServiceError('MEMSWEEP_SWEEP_NOT_FOUND', { id: sweepId })
-      const outcome = await ctx.render.render({ kind: 'result', source: { kind: 'partial', progress }, format: as, perTrial: false, timing: false, series: null })
+      const outcome = await ctx.render.render({ kind: 'result', sweepId, source: { kind: 'partial', progress }, format: as, perTrial: false, timing: false, series: null })
       if (outcome.kind !== 'rendered') throw new Error(`rendering sweep ${sweepId} answered ${outcome.kind}`)
       const body = Buffer.from(outcome.body.buffer, outcome.body.byteOffset, outcome.body.byteLength)
       const done = new Set(progress.chunks.map((chunk) => chunk.index))

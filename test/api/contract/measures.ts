@@ -6,6 +6,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { createHarness, isTerminal, type Harness, type QueueFactory } from '../helpers/harness.js'
 import { expectProblem } from '../helpers/problems.js'
+import { csvRecords } from '../../helpers/tables.js'
 
 /**
  * The shared benchmark's workloads (WORKLOADS.md §5) as sweep specs on the canonical stream
@@ -79,7 +80,7 @@ export function measuresContract (factory: QueueFactory): void {
       expect(csv.statusCode).toBe(200)
       expect(csv.headers['content-disposition']).toContain(`memsweep-${id}-trajectory.csv`)
       const lines = csv.body.trimEnd().split('\r\n')
-      expect(lines[0]).toBe('point,load,neurons,patterns,alpha,sweep,running,overlap.mean,overlap.sd,overlap.se')
+      expect(lines[0]).toMatch(/^sweepId,specHash,seed,point,neurons,patterns,load,.*,alpha,alphaK,sweep,running,overlap\.mean,overlap\.sd,overlap\.se$/)
       const json = (await h.request({ method: 'GET', url: `/v1/sweeps/${id}/results?series=trajectory` })).json()
       expect(json.series).toBe('trajectory')
       expect(json.padding).toMatch(/holds its last value/)
@@ -87,7 +88,7 @@ export function measuresContract (factory: QueueFactory): void {
       expect(json.points.map((p: { overlap: unknown }) => p.overlap)).toEqual(rows.map((r: { summary: { overlapTrajectory: unknown } }) => r.summary.overlapTrajectory))
       const lengths = json.points.map((p: { overlap: { mean: unknown[] } }) => p.overlap.mean.length)
       expect(lines).toHaveLength(1 + lengths[0] + lengths[1])
-      expect(lines[1]).toMatch(/^0,0\.05,120,6,0\.05,0,6,0\.6,0,0$/)
+      expect(csvRecords(csv.body)[0]).toMatchObject({ sweepId: id, point: '0', load: '0.05', neurons: '120', patterns: '6', alpha: '0.05', sweep: '0', running: '6', 'overlap.mean': '0.6', 'overlap.sd': '0', 'overlap.se': '0' })
       const both = await h.request({ method: 'GET', url: `/v1/sweeps/${id}/results?series=trajectory&trials=true` })
       expect(expectProblem(both, 400, 'MEMSWEEP_MALFORMED_REQUEST').errors[0].path).toBe('querystring.series')
 
@@ -108,9 +109,8 @@ export function measuresContract (factory: QueueFactory): void {
       })
       const body = (await h.request({ method: 'GET', url: `/v1/sweeps/${rules}/results` })).json()
       expect(body.rows.map((r: { values: unknown }) => r.values)).toEqual([{ rule: 'hebbian' }, { rule: 'storkey' }, { rule: 'pseudo-inverse' }])
-      const csv = (await h.request({ method: 'GET', url: `/v1/sweeps/${rules}/results?format=csv` })).body.split('\r\n')
-      expect(csv[0]).toMatch(/^point,rule,neurons,patterns,alpha,/)
-      expect(csv[2]).toMatch(/^1,storkey,100,12,0\.12,/)
+      const csv = csvRecords((await h.request({ method: 'GET', url: `/v1/sweeps/${rules}/results?format=csv` })).body)
+      expect(csv[1]).toMatchObject({ point: '1', 'rule.kind': 'storkey', 'rule.selfCoupling': 'false', neurons: '100', patterns: '12', alpha: '0.12' })
 
       const sparse = await run({
         label: 'sparse inputs',
@@ -127,7 +127,10 @@ export function measuresContract (factory: QueueFactory): void {
         { alpha: 10 / 400, inDegreeLoad: 0.25, neurons: 400, patterns: 10 }
       ])
       const sparseCsv = (await h.request({ method: 'GET', url: `/v1/sweeps/${sparse}/results?format=csv` })).body
-      expect(sparseCsv.split('\r\n')[0]).toMatch(/^point,dilution\.inDegree,neurons,patterns,alpha,inDegreeLoad,trials,/)
+      expect(csvRecords(sparseCsv).map((row) => [row['dilution.kind'], row['dilution.inDegree'], row.inDegreeLoad, row.patterns, row.alpha, row.alphaK])).toEqual([
+        ['fixed-in-degree', '20', '0.25', '5', '0.0125', '0.25'],
+        ['fixed-in-degree', '40', '0.25', '10', '0.025', '0.25']
+      ])
     })
   })
 }

@@ -44,7 +44,8 @@ export function resultsContract (factory: QueueFactory): void {
       expect(byQuery.body).toBe(byAccept.body)
       const lines = byAccept.body.trimEnd().split('\r\n')
       expect(lines).toHaveLength(3)
-      expect(lines[0]).toMatch(/^point,load,neurons,patterns,alpha,trials,overlap\.mean/)
+      expect(lines[0]).toMatch(/^sweepId,specHash,seed,point,neurons,patterns,load,.*,alpha,alphaK,trials,overlap\.mean/)
+      expect(lines[1]!.startsWith(`${id},`)).toBe(true)
       // q-values decide: CSV preferred over JSON.
       const weighted = await h.request({ method: 'GET', url: `/v1/sweeps/${id}/results`, headers: { accept: 'application/json;q=0.5, text/csv' } })
       expect(weighted.headers['content-type']).toMatch(/^text\/csv/)
