@@ -63,21 +63,21 @@ export const BUNDLE_MEMBERS: readonly BundleMember[] = [
   {
     name: 'results.csv',
     what: 'The same rows as CSV (RFC 4180, CRLF line ends), as ?format=csv answers it.',
-    produce: ({ result }) => resultToCsv(result, { perTrial: false })
+    produce: ({ result, record }) => resultToCsv(result, { perTrial: false, sweepId: record.id })
   },
   {
     name: 'trials.csv',
     what: `One row per trial (as ?format=csv&trials=true answers it), for sweeps of at most ${BUNDLE_MAX_TRIAL_ROWS.toLocaleString('en-US')} trials.`,
-    produce: ({ result }) => result.trials.length === 0
+    produce: ({ result, record }) => result.trials.length === 0
       ? { omitted: result.searches !== undefined ? 'a threshold search keeps per-step summaries, not per-trial records (they are in results.json)' : `more than ${BUNDLE_MAX_TRIAL_ROWS.toLocaleString('en-US')} trials: download them with GET /v1/sweeps/{id}/results?format=csv&trials=true` }
-      : resultToCsv(result, { perTrial: true })
+      : resultToCsv(result, { perTrial: true, sweepId: record.id })
   },
   {
     name: 'trajectory.csv',
     what: 'Mean overlap and energy trajectories per grid point (long format), as ?series=trajectory answers it.',
-    produce: ({ result }) => {
+    produce: ({ result, record }) => {
       const missing = trajectoryUnavailable(result.spec)
-      return missing === null ? trajectoryCsv(result) : { omitted: 'the spec records no trajectories' }
+      return missing === null ? trajectoryCsv(result, record.id) : { omitted: 'the spec records no trajectories' }
     }
   },
   {
@@ -165,7 +165,8 @@ function bundleReadme (result: SweepResult, record: BundleRecord, members: Reado
     'memsweep run spec.json -o results.csv',
     '```',
     '',
-    'writes a `results.csv` identical to the one here. Or submit the spec to a memsweep server:',
+    'writes a `results.csv` identical to the one here except its `sweepId` column, which is empty for a',
+    'local run. Or submit the spec to a memsweep server:',
     '',
     '```',
     `curl -sS -X POST ${record.serverUrl}/v1/sweeps -H 'content-type: application/json' -H "authorization: Bearer $MEMSWEEP_TOKEN" --data-binary @spec.json`,
