@@ -139,7 +139,18 @@ export async function runCli (argv: readonly string[], io: CliIo): Promise<numbe
     .option('--no-theory', 'leave theory curves out')
     .option('--width <px>', 'width in px (default 640)')
     .option('--height <px>', 'height in px (default 440)')
+    .option('--column <single|double>', 'print size of a journal column: single (85 mm) or double (180 mm); laid out in pt')
+    .option('--width-mm <mm>', 'width in mm (print)')
+    .option('--height-mm <mm>', 'height in mm (print; default three quarters of the width)')
+    .option('--font-size <size>', 'body type size, px (screen) or pt (print); titles and notes scale with it')
     .option('--title <text>', 'title (default: the sweep label)')
+    .option('--subtitle <text>', 'line under the title (default: the model conditions)')
+    .option('--footnote <text>', 'note under the plot (default: error bars and provenance)')
+    .option('--hide-title', 'draw no title')
+    .option('--hide-subtitle', 'draw no subtitle')
+    .option('--hide-footnote', 'draw no footnote')
+    .option('--series-name <name>', 'name of the next series, in the order drawn (repeatable; "" keeps the generated one; no |)', collect)
+    .option('--sweep-name <name>', 'overlays: short name of the next sweep, in the order of the files (repeatable)', collect)
     .action(async (files: string[], options) => { exitCode = await figure(io, files, options) })
 
   try {

@@ -20,7 +20,7 @@ export interface AxisScale {
   label: (value: number) => string
 }
 
-/** Pixels kept free between the axis ends and the first and last data values, so markers never sit on an axis line. */
+/** Units kept free between the plot's edges and the first and last data values by default, so markers never sit on an edge. */
 export const AXIS_INSET = 9
 
 // MAIN //
@@ -66,13 +66,13 @@ export function xDomain (extent: readonly [number, number], kind: 'linear' | 'lo
 }
 
 /**
- * A scale from `domain` onto the pixel interval [start, end] (end < start for a y axis),
- * with about one labelled tick per `spacing` px. Linear domains are widened to nice values
- * unless `exactEnds` holds (fixed ranges such as [0, 1]).
+ * A scale from `domain` onto the interval [start, end] (end < start for a y axis), less
+ * `inset` at each end, with about one labelled tick per `spacing` units. Linear domains are
+ * widened to nice values unless `exactEnds` holds (fixed ranges such as [0, 1]).
  */
-export function makeScale (kind: 'linear' | 'log', domain: readonly [number, number], start: number, end: number, spacing: number, exactEnds = false): AxisScale {
+export function makeScale (kind: 'linear' | 'log', domain: readonly [number, number], start: number, end: number, spacing: number, exactEnds = false, inset = AXIS_INSET): AxisScale {
   const direction = end >= start ? 1 : -1
-  const range: [number, number] = [start + direction * AXIS_INSET, end - direction * AXIS_INSET]
+  const range: [number, number] = [start + direction * inset, end - direction * inset]
   const count = Math.max(2, Math.round(Math.abs(end - start) / spacing))
   if (kind === 'linear') {
     const scale = scaleLinear().domain([domain[0], domain[1]]).range(range)

@@ -1,113 +1,195 @@
 /**
- * Lays a planned figure out on the page and writes the SVG: title and model line at the
- * top, the plot with its axes, the legend, and the note (error bars, provenance) at the
- * bottom. Every plotted point carries its data as attributes (data-x, data-y, data-low,
- * data-high, data-series, data-point), so a reader or a test can check the drawing against
- * the result.
+ * Lays a planned figure out in the house style (docs/figures.md) and writes the SVG: title and
+ * subtitle at the top left, the y axis title above the plot, the plot on detached axes with
+ * crosses at the tick intersections for a grid, lines named at their ends (or a frameless
+ * legend outside the plot), the x axis title under the right end of its axis, the footnote
+ * at the bottom. Every plotted point carries its data as attributes (data-x, data-y,
+ * data-low, data-high, data-series, data-point), so a reader or a test can check the drawing
+ * against the result.
  */
 import { makeScale, yDomain, xDomain, type AxisScale } from './axes.js'
-import { drawLegend, legendEntries, measureLegend, placeInside, type LegendBox, type Rect } from './legend.js'
+import { columnLayout, drawEntries, entryWidth, legendEntries, rowLayout, sampleWidth, type LegendEntry, type PlacedEntry, type Rect } from './legend.js'
 import { isRate } from './measures.js'
 import type { FigurePlan } from './plan.js'
 import { plainText, richText, richTextWidth } from './rich-text.js'
-import { marker, seriesStyle, THEORY_STYLE } from './styles.js'
+import { marker, seriesStyle, THEME, THEORY_STYLE } from './styles.js'
 import { element, escapeXml, exactNumber, polylinePath, px } from './svg.js'
 import type { TheoryOverlay } from './theory.js'
 import { textWidth, wrapText } from './text-metrics.js'
 
-const FONT_FAMILY = "'DejaVu Sans', 'Helvetica Neue', Helvetica, Arial, sans-serif"
-const OUTER = 14
-const TITLE_FONT = 16
-const CONDITIONS_FONT = 11.5
-const AXIS_TITLE_FONT = 13
-const TICK_FONT = 12
-const NOTE_FONT = 10.5
-const MARKER_SIZE = 8
-const CAP = 3.5
-const ANNOTATION_FONT = 11
+/** Type sizes and spacings of one figure, from its body size. */
+interface Type {
+  body: number
+  title: number
+  subtitle: number
+  axisTitle: number
+  tick: number
+  label: number
+  note: number
+  annotation: number
+  pad: number
+  gap: number
+  tickLength: number
+  marker: number
+  cap: number
+}
+
+function typeScale (fontSize: number): Type {
+  const t = THEME.type
+  return {
+    body: fontSize,
+    title: fontSize * t.title,
+    subtitle: fontSize * t.subtitle,
+    axisTitle: fontSize * t.axisTitle,
+    tick: fontSize * t.tick,
+    label: fontSize * t.label,
+    note: fontSize * t.note,
+    annotation: fontSize * t.annotation,
+    pad: Math.max(4, fontSize * 0.8),
+    gap: fontSize * 0.45,
+    tickLength: fontSize * 0.35,
+    marker: fontSize * 0.62,
+    cap: fontSize * 0.28
+  }
+}
+
+/** Most of the width the names of the lines may take beside the plot. */
+const SIDE_SHARE = 0.36
 
 // MAIN //
 
 export function drawFigure (plan: FigurePlan): string {
-  const { width, height } = plan.options
+  const { width, height } = plan.frame
+  const type = typeScale(plan.frame.fontSize)
   const id = `msfig-${fingerprint(plan)}`
-  const innerWidth = width - 2 * OUTER
+  const o = plan.options
+  const inner = width - 2 * type.pad
+  const lh = THEME.lineHeight
 
-  // Small figures (thumbnails, a side panel) keep the plot and drop the model line.
-  const compact = width < 480 || height < 320
-  const titleLines = wrapText(plan.title, TITLE_FONT * 1.12, innerWidth, compact ? 1 : 3)
-  const conditionLines = plan.conditions === '' || compact ? [] : wrapText(plainText(plan.conditions), CONDITIONS_FONT, innerWidth, 2)
-  const noteLines = wrapText(plan.note, NOTE_FONT, innerWidth, compact ? 1 : 2)
-  let cursor = OUTER + TITLE_FONT
+  // Small figures keep the plot: one line each for the title and the footnote, no subtitle.
+  const compact = width < type.body * 30 || height < type.body * 21
+  const titleLines = o.showTitle ? wrapText(plan.title, type.title, inner, compact ? 1 : 2, 'semibold') : []
+  const subtitleLines = o.showSubtitle && plan.subtitle !== '' && !(compact && o.subtitle === undefined) ? wrapText(plainText(plan.subtitle), type.subtitle, inner, compact ? 1 : 2) : []
+  const noteLines = o.showFootnote && plan.note !== '' ? wrapText(plan.note, type.note, inner, compact ? 1 : 3) : []
+
   const header: string[] = []
+  let cursor = type.pad
   for (const line of titleLines) {
-    header.push(element('text', { x: OUTER, y: cursor, 'font-size': TITLE_FONT, 'font-weight': 'bold', fill: '#111111' }, escapeXml(line)))
-    cursor += TITLE_FONT * 1.25
+    header.push(element('text', { class: 'title', x: type.pad, y: cursor + type.title * 0.8, 'font-size': type.title, 'font-weight': 600, fill: THEME.ink }, escapeXml(line)))
+    cursor += type.title * lh
   }
-  cursor += 1
-  for (const line of conditionLines) {
-    header.push(element('text', { x: OUTER, y: cursor, 'font-size': CONDITIONS_FONT, fill: '#444444' }, escapeXml(line)))
-    cursor += CONDITIONS_FONT * 1.3
+  for (const line of subtitleLines) {
+    header.push(element('text', { class: 'subtitle', x: type.pad, y: cursor + type.subtitle * 0.8, 'font-size': type.subtitle, fill: THEME.muted }, escapeXml(line)))
+    cursor += type.subtitle * lh
   }
-  // Reference lines are named just above the plot, where no data can hide the name.
-  const annotated = plan.theory.some((o) => o.annotation !== undefined)
-  const plotTop = cursor + 6 + (annotated ? ANNOTATION_FONT + 4 : 0)
-  const noteTop = height - OUTER - noteLines.length * NOTE_FONT * 1.3 + NOTE_FONT
-  const plotBottom = noteTop - NOTE_FONT - 10 - AXIS_TITLE_FONT - 10 - TICK_FONT - 8
+  if (header.length > 0) cursor += type.gap
+  // The y axis title reads horizontally above the plot, where it has the whole width.
+  const yTitle = fitLabel(plan.yTitle, inner, type.axisTitle)
+  const yTitleBaseline = cursor + yTitle.size * 0.8
+  cursor += yTitle.size * lh + type.gap * 0.5
+  const annotated = plan.theory.some((t) => t.annotation !== undefined)
+  const plotTop = cursor + (annotated ? type.annotation * lh : 0) + type.gap * 0.5
 
-  // The y scale fixes the tick labels, whose width fixes where the plot starts.
-  const yScale = makeYScale(plan, plotBottom, plotTop)
-  const yLabelWidth = Math.max(...yScale.ticks.map((t) => textWidth(yScale.label(t), TICK_FONT)), 10)
-  const plotLeft = OUTER + AXIS_TITLE_FONT + 10 + yLabelWidth + 7
+  // From the bottom up: footnote, x axis title, tick labels.
+  const footBlock = noteLines.length * type.note * lh
+  const noteTop = height - type.pad - footBlock
+  const bottom = noteTop - (noteLines.length > 0 ? type.gap : 0)
+  const axisDrop = type.gap * 0.7
+  const tickBlock = axisDrop + type.tickLength + type.gap * 0.5 + type.tick * 1.05
 
-  const theoryColour = theoryColours(plan.theory)
+  const theoryColour = theoryColours(plan)
   const entries = legendEntries(plan.series, plan.theory, theoryColour)
-  let legend: { box: LegendBox, left: number, top: number } | null = null
-  let plot: Rect = { left: plotLeft, top: plotTop, right: width - OUTER, bottom: plotBottom }
-  let xScale = makeXScale(plan, plot)
-  if (entries.length > 0) {
-    const inside = measureLegend(entries, Math.min(260, (plot.right - plot.left) * 0.6))
-    const spot = placeInside(inside, plot, obstacles(plan, xScale, yScale))
-    const outsideBox = measureLegend(entries, Math.min(220, width * 0.3))
-    if (spot.covered === 0 || compact || outsideBox.width > width * 0.38) {
-      // A legend taller than the plot would hide the axes too; the description still names every series.
-      legend = inside.height > plot.bottom - plot.top - 8 ? null : { box: inside, left: spot.left, top: spot.top }
+  // Reference lines named at the top of the plot need no legend entry.
+  const inLegend = (shownAnnotations: ReadonlySet<string>) => entries.filter((e) => e.theory === null || e.theory.kind !== 'reference' || !shownAnnotations.has(e.theory.key))
+
+  // Under the plot, top down: tick labels, x axis title, legend rows (when the legend goes there), footnote.
+  const layout = (right: number, below: number): { plot: Rect, xs: AxisScale, ys: AxisScale, xTitleBaseline: number, rowsTop: number } => {
+    const rowsTop = bottom - below
+    const xTitleBaseline = rowsTop - type.axisTitle * 0.3
+    const plotBottom = rowsTop - type.axisTitle * lh - tickBlock
+    const ys = makeYScale(plan, plotBottom, plotTop, type)
+    const yLabelWidth = Math.max(...ys.ticks.map((t) => textWidth(ys.label(t), type.tick)), type.tick)
+    const plotLeft = type.pad + yLabelWidth + type.gap * 0.6 + type.tickLength + axisDrop
+    const plot = { left: plotLeft, top: plotTop, right: width - type.pad - right, bottom: plotBottom }
+    return { plot, xs: makeXScale(plan, plot, type), ys, xTitleBaseline, rowsTop }
+  }
+
+  // First choice: names at the line ends.
+  let mode: 'none' | 'direct' | 'side' | 'below' = entries.length === 0 ? 'none' : 'direct'
+  let frame = layout(0, 0)
+  let direct: PlacedEntry[] = []
+  let legend: { placed: PlacedEntry[], more: number, moreAt: { x: number, y: number } | null } = { placed: [], more: 0, moreAt: null }
+  let annotations = placeAnnotations(plan.theory, frame.xs, frame.plot, type, theoryColour)
+  if (mode === 'direct') {
+    const margin = Math.max(...inLegend(annotations.keys).map((e) => entryWidth(e, type.label, 'marker'))) + type.gap
+    if (margin <= width * SIDE_SHARE) {
+      frame = layout(margin, 0)
+      annotations = placeAnnotations(plan.theory, frame.xs, frame.plot, type, theoryColour)
+      const placed = directLabels(plan, inLegend(annotations.keys), frame, type)
+      if (placed !== null) direct = placed
+      else mode = 'side'
     } else {
-      plot = { ...plot, right: width - OUTER - outsideBox.width - 10 }
-      xScale = makeXScale(plan, plot)
-      legend = { box: outsideBox, left: plot.right + 10, top: plot.top }
+      mode = 'side'
     }
   }
+  if (mode === 'side') {
+    const natural = Math.max(...entries.map((e) => entryWidth(e, type.label)))
+    // Long names go under the plot when there is height to spare; otherwise they are cut to fit beside it.
+    const rowsBelow = rowLayout(entries, type.pad, 0, inner, type.label)
+    const plotHeightBelow = bottom - rowsBelow.height - type.gap - type.axisTitle * lh - tickBlock - plotTop
+    if (natural > width * SIDE_SHARE && plotHeightBelow >= (height - 2 * type.pad) * 0.42) mode = 'below'
+    if (mode === 'below') {
+      frame = layout(0, rowsBelow.height + type.gap)
+      annotations = placeAnnotations(plan.theory, frame.xs, frame.plot, type, theoryColour)
+      const shown = inLegend(annotations.keys)
+      const rows = rowLayout(shown, type.pad, frame.rowsTop + type.gap * 0.5, inner, type.label)
+      legend = { placed: rows.placed, more: 0, moreAt: null }
+    } else {
+      const columnWidth = Math.min(natural, width * SIDE_SHARE)
+      frame = layout(columnWidth + type.gap * 2, 0)
+      annotations = placeAnnotations(plan.theory, frame.xs, frame.plot, type, theoryColour)
+      const shown = inLegend(annotations.keys)
+      const left = frame.plot.right + type.gap * 2
+      const textRoom = columnWidth - sampleWidth(type.label) - type.label * 0.45
+      const column = columnLayout(shown, left, frame.plot.top, textRoom, frame.plot.bottom - frame.plot.top, type.label)
+      legend = { placed: column.placed, more: column.more, moreAt: column.more > 0 ? { x: left, y: column.moreY } : null }
+    }
+  }
+  const { plot, xs, ys, xTitleBaseline } = frame
 
   const body = [
-    element('rect', { x: 0, y: 0, width, height, fill: '#ffffff' }),
+    element('rect', { x: 0, y: 0, width, height, fill: THEME.paper }),
     ...header,
-    drawGrid(plot, xScale, yScale),
+    element('text', { class: 'y-title', x: type.pad, y: yTitleBaseline, 'font-size': yTitle.size, fill: THEME.ink }, richText(yTitle.text, yTitle.size)),
+    drawGrid(plot, xs, ys, type),
     element('defs', {}, element('clipPath', { id: `${id}-clip` }, element('rect', { x: plot.left, y: plot.top, width: plot.right - plot.left, height: plot.bottom - plot.top }))),
-    element('g', { class: 'theory-lines', 'clip-path': `url(#${id}-clip)` }, plan.theory.map((o) => drawTheory(o, xScale, yScale, plot, theoryColour(o)))),
-    element('g', { class: 'data', 'clip-path': `url(#${id}-clip)` }, plan.series.map((s) => drawSeries(plan, s.index, xScale, yScale, plan.dodge[s.index] ?? 0))),
-    drawAxes(plot, xScale, yScale),
-    drawAnnotations(plan.theory, xScale, plot, theoryColour),
-    drawAxisTitles(plan, plot, noteTop),
-    legend === null ? '' : drawLegend(entries, legend.box, legend.left, legend.top),
-    element('g', { class: 'note' }, noteLines.map((line, k) =>
-      element('text', { x: OUTER, y: noteTop + k * NOTE_FONT * 1.3, 'font-size': NOTE_FONT, fill: '#555555' }, escapeXml(line))))
+    element('g', { class: 'theory-lines', 'clip-path': `url(#${id}-clip)` }, plan.theory.map((t) => drawTheory(t, xs, ys, plot, theoryColour(t)))),
+    element('g', { class: 'data', 'clip-path': `url(#${id}-clip)` }, plan.series.map((s) => drawSeries(plan, s.index, xs, ys, plan.dodge[s.index] ?? 0, type))),
+    drawAxes(plot, xs, ys, type, axisDrop, width),
+    annotations.markup,
+    drawXTitle(plan.xTitle, plot, xTitleBaseline, type, width),
+    mode === 'direct' ? drawEntries(direct, type.label, 'direct-labels', 'marker') : '',
+    mode === 'side' || mode === 'below' ? drawEntries(legend.placed, type.label, 'legend', 'line', legend.more, legend.moreAt) : '',
+    noteLines.length === 0
+      ? ''
+      : element('g', { class: 'note' }, noteLines.map((line, k) =>
+        element('text', { x: type.pad, y: noteTop + type.note * (0.8 + k * lh), 'font-size': type.note, fill: THEME.muted }, escapeXml(line))))
   ]
-  const o = plan.options
   const root = {
     xmlns: 'http://www.w3.org/2000/svg',
-    width,
-    height,
-    viewBox: `0 0 ${width} ${height}`,
+    width: plan.frame.widthAttr,
+    height: plan.frame.heightAttr,
+    viewBox: `0 0 ${px(width)} ${px(height)}`,
     role: 'img',
     'aria-labelledby': `${id}-title ${id}-desc`,
-    'font-family': FONT_FAMILY,
+    'font-family': THEME.fontFamily,
     'data-measure': o.measure,
     'data-x': plan.x,
     'data-series-by': plan.seriesBy ?? '',
     'data-x-scale': o.xScale,
     'data-y-scale': o.yScale,
-    'data-error-bars': o.errorBars
+    'data-error-bars': o.errorBars,
+    'data-legend': mode
   }
   return `<?xml version="1.0" encoding="UTF-8"?>\n${element('svg', root, [
     element('title', { id: `${id}-title` }, escapeXml(plan.title)),
@@ -116,7 +198,76 @@ export function drawFigure (plan: FigurePlan): string {
   ])}\n`
 }
 
-function makeYScale (plan: FigurePlan, bottom: number, top: number): AxisScale {
+/**
+ * Names at the line ends, in a margin right of the plot: each line must reach the right end
+ * of the x range (a name beside a line that stops short would point at another), and the
+ * names, pushed apart so they do not touch, must stay within a line height and a half of
+ * their line's end. Null when that is not possible.
+ */
+function directLabels (plan: FigurePlan, entries: readonly LegendEntry[], frame: { plot: Rect, xs: AxisScale, ys: AxisScale }, type: Type): PlacedEntry[] | null {
+  const { plot, xs, ys } = frame
+  const xMax = Math.max(...plan.series.flatMap((s) => s.points.map((p) => p.x)))
+  const ends: Array<{ entry: LegendEntry, y: number }> = []
+  for (const entry of entries) {
+    let end: readonly [number, number] | undefined
+    if (entry.series !== null) {
+      const last = plan.series[entry.series]!.points.at(-1)
+      end = last === undefined ? undefined : [last.x, last.y]
+    } else {
+      const lines = plan.theory.filter((t) => t.key === entry.theory!.key && t.kind === entry.theory!.kind && t.kind !== 'reference')
+      if (lines.length !== 1) return null
+      end = lines[0]!.segments.at(-1)?.at(-1)
+    }
+    if (end === undefined || !(Math.abs(xs.toPx(end[0]) - xs.toPx(xMax)) < 1)) return null
+    ends.push({ entry, y: ys.toPx(clampToDomain(end[1], ys)) })
+  }
+  if (ends.length === 0) return null
+  const step = type.label * THEME.lineHeight
+  const ys0 = spreadApart(ends.map((e) => e.y), step, plot.top + step / 2, plot.bottom - step / 2)
+  if (ys0 === null) return null
+  if (ends.some((e, i) => Math.abs(ys0[i]! - e.y) > step * 1.5)) return null
+  const x = plot.right + type.gap
+  return ends.map((e, i) => ({ entry: e.entry, x, y: ys0[i]!, lines: [e.entry.label] }))
+}
+
+function clampToDomain (v: number, ys: AxisScale): number {
+  const [lo, hi] = ys.domain
+  if (ys.kind === 'log' && !(v > 0)) return lo
+  return Math.min(Math.max(v, Math.min(lo, hi)), Math.max(lo, hi))
+}
+
+/**
+ * Positions as close to `wanted` as possible, at least `step` apart, within [lo, hi]: the
+ * order is kept and overlapping runs are centred on their mean (a few passes converge for
+ * the handful of lines a figure names). Null when they cannot fit.
+ */
+export function spreadApart (wanted: readonly number[], step: number, lo: number, hi: number): number[] | null {
+  const n = wanted.length
+  if ((n - 1) * step > hi - lo) return null
+  const order = wanted.map((y, i) => ({ y, i })).sort((a, b) => a.y - b.y || a.i - b.i)
+  const pos = order.map((o) => Math.min(Math.max(o.y, lo), hi))
+  for (let pass = 0; pass < 50; pass++) {
+    let moved = false
+    for (let k = 1; k < n; k++) {
+      const overlap = pos[k - 1]! + step - pos[k]!
+      if (overlap > 1e-9) {
+        pos[k - 1]! -= overlap / 2
+        pos[k]! += overlap / 2
+        moved = true
+      }
+    }
+    if (pos[0]! < lo) { const d = lo - pos[0]!; for (let k = 0; k < n; k++) pos[k]! += d }
+    if (pos[n - 1]! > hi) { const d = pos[n - 1]! - hi; for (let k = 0; k < n; k++) pos[k]! -= d }
+    for (let k = 1; k < n; k++) if (pos[k]! < pos[k - 1]! + step) pos[k] = pos[k - 1]! + step
+    if (!moved) break
+  }
+  if (pos[n - 1]! > hi + 1e-6) return null
+  const out = new Array<number>(n)
+  order.forEach((o, k) => { out[o.i] = pos[k]! })
+  return out
+}
+
+function makeYScale (plan: FigurePlan, bottom: number, top: number, type: Type): AxisScale {
   const o = plan.options
   const values: number[] = []
   for (const s of plan.series) {
@@ -131,114 +282,109 @@ function makeYScale (plan: FigurePlan, bottom: number, top: number): AxisScale {
   const extent: [number, number] | null = usable.length === 0 ? null : [Math.min(...usable), Math.max(...usable)]
   const domain = yDomain(o.measure, extent, o.yScale)
   const fixed = o.yScale === 'linear' && (isRate(o.measure) && o.measure !== 'unstableFraction')
-  return makeScale(o.yScale, domain, bottom, top, 46, fixed)
+  return makeScale(o.yScale, domain, bottom, top, type.body * 4.5, fixed, type.marker * 1.1)
 }
 
-function makeXScale (plan: FigurePlan, plot: Rect): AxisScale {
+function makeXScale (plan: FigurePlan, plot: Rect, type: Type): AxisScale {
   const xs = plan.series.flatMap((s) => s.rows.map((row) => row.values[plan.x] as number))
   const extent: [number, number] = xs.length === 0 ? [0, 1] : [Math.min(...xs), Math.max(...xs)]
   const domain = xDomain(extent, plan.options.xScale)
   // Fewer ticks until neighbouring labels keep a gap between them.
-  let spacing = 70
-  let scale = makeScale(plan.options.xScale, domain, plot.left, plot.right, spacing)
-  for (let attempt = 0; attempt < 6 && crowded(scale); attempt++) {
+  let spacing = type.body * 5.5
+  let scale = makeScale(plan.options.xScale, domain, plot.left, plot.right, spacing, false, type.marker * 1.1)
+  for (let attempt = 0; attempt < 8 && crowded(scale, type); attempt++) {
     spacing *= 1.4
-    scale = makeScale(plan.options.xScale, domain, plot.left, plot.right, spacing)
+    scale = makeScale(plan.options.xScale, domain, plot.left, plot.right, spacing, false, type.marker * 1.1)
   }
   return scale
 }
 
-function crowded (scale: AxisScale): boolean {
+function crowded (scale: AxisScale, type: Type): boolean {
   for (let i = 1; i < scale.ticks.length; i++) {
     const [a, b] = [scale.ticks[i - 1]!, scale.ticks[i]!]
     const room = Math.abs(scale.toPx(b) - scale.toPx(a))
-    const need = (textWidth(scale.label(a), TICK_FONT) + textWidth(scale.label(b), TICK_FONT)) / 2 + 18
+    const need = (textWidth(scale.label(a), type.tick) + textWidth(scale.label(b), type.tick)) / 2 + type.body
     if (room < need) return true
   }
   return false
 }
 
-/** Where the data are, in px: what a legend inside the plot must not cover. */
-function obstacles (plan: FigurePlan, xs: AxisScale, ys: AxisScale): Array<[number, number]> {
-  const out: Array<[number, number]> = []
-  const clampY = (v: number): number => ys.toPx(ys.kind === 'log' && !(v > 0) ? ys.domain[0] : v)
-  for (const s of plan.series) {
-    let previous: [number, number] | null = null
-    for (const p of s.points) {
-      const here: [number, number] = [xs.toPx(p.x), ys.toPx(p.y)]
-      out.push(here)
-      if (p.low !== null && p.high !== null) {
-        const [top, bottom] = [clampY(p.high), clampY(p.low)]
-        for (let k = 0; k <= 4; k++) out.push([here[0], bottom + (top - bottom) * (k / 4)])
-      }
-      if (previous !== null) for (let k = 1; k < 8; k++) out.push([previous[0] + (here[0] - previous[0]) * (k / 8), previous[1] + (here[1] - previous[1]) * (k / 8)])
-      previous = here
+/** Small crosses where the ticks meet: the grid, without lines running through the data. */
+function drawGrid (plot: Rect, xs: AxisScale, ys: AxisScale, type: Type): string {
+  const arm = type.body * 0.22
+  const marks: string[] = []
+  for (const x of xs.ticks.map((t) => xs.toPx(t))) {
+    for (const y of ys.ticks.map((t) => ys.toPx(t))) {
+      if (x < plot.left - 0.5 || x > plot.right + 0.5 || y < plot.top - 0.5 || y > plot.bottom + 0.5) continue
+      marks.push(`M${px(x - arm)} ${px(y)}h${px(2 * arm)}M${px(x)} ${px(y - arm)}v${px(2 * arm)}`)
     }
   }
-  for (const t of plan.theory) {
-    if (t.kind === 'reference' && t.at !== null) {
-      for (let k = 0; k <= 20; k++) out.push([xs.toPx(t.at), ys.toPx(ys.domain[0]) + (ys.toPx(ys.domain[1]) - ys.toPx(ys.domain[0])) * (k / 20)])
-    }
-    for (const seg of t.segments) for (const [x, y] of seg) out.push([xs.toPx(x), ys.toPx(y)])
-  }
-  return out
+  return element('g', { class: 'grid' }, marks.length === 0 ? '' : element('path', { d: marks.join(''), stroke: THEME.grid, 'stroke-width': 0.8, fill: 'none' }))
 }
 
-function drawGrid (plot: Rect, xs: AxisScale, ys: AxisScale): string {
-  const lines: string[] = []
-  const grid = { stroke: '#e6e6e6', 'stroke-width': 1 }
-  for (const t of ys.ticks) lines.push(element('line', { x1: plot.left, x2: plot.right, y1: ys.toPx(t), y2: ys.toPx(t), ...grid }))
-  for (const t of xs.ticks) lines.push(element('line', { x1: xs.toPx(t), x2: xs.toPx(t), y1: plot.top, y2: plot.bottom, ...grid }))
-  return element('g', { class: 'grid' }, lines)
-}
-
-function drawAxes (plot: Rect, xs: AxisScale, ys: AxisScale): string {
-  const ink = { stroke: '#222222', 'stroke-width': 1 }
-  const parts: string[] = [
-    element('line', { x1: plot.left, x2: plot.right, y1: plot.bottom, y2: plot.bottom, ...ink }),
-    element('line', { x1: plot.left, x2: plot.left, y1: plot.top, y2: plot.bottom, ...ink })
+/**
+ * Axes set off from the plot by a small gap, each line running from its first tick to its
+ * last (the range of the scale, not a box around the data).
+ */
+function drawAxes (plot: Rect, xs: AxisScale, ys: AxisScale, type: Type, drop: number, width: number): string {
+  const ink = { stroke: THEME.axis, 'stroke-width': 0.9, 'stroke-linecap': 'square' }
+  const xAxisY = plot.bottom + drop
+  const yAxisX = plot.left - drop
+  const xEnds = [xs.ticks[0], xs.ticks.at(-1)].map((t) => (t === undefined ? null : xs.toPx(t)))
+  const yEnds = [ys.ticks[0], ys.ticks.at(-1)].map((t) => (t === undefined ? null : ys.toPx(t)))
+  const lines = [
+    xEnds[0] === null ? '' : element('line', { x1: xEnds[0]!, x2: xEnds[1]!, y1: xAxisY, y2: xAxisY, ...ink }),
+    yEnds[0] === null ? '' : element('line', { x1: yAxisX, x2: yAxisX, y1: yEnds[0]!, y2: yEnds[1]!, ...ink })
   ]
-  const xTicks = xs.ticks.map((t) => element('g', { class: 'tick', 'data-value': exactNumber(t) }, [
-    element('line', { x1: xs.toPx(t), x2: xs.toPx(t), y1: plot.bottom, y2: plot.bottom + 5, ...ink }),
-    element('text', { x: xs.toPx(t), y: plot.bottom + 8 + TICK_FONT * 0.8, 'text-anchor': 'middle', 'font-size': TICK_FONT, fill: '#222222' }, escapeXml(xs.label(t)))
-  ]))
-  const xMinor = xs.minor.map((t) => element('line', { x1: xs.toPx(t), x2: xs.toPx(t), y1: plot.bottom, y2: plot.bottom + 3, ...ink }))
+  const labelY = xAxisY + type.tickLength + type.gap * 0.5 + type.tick * 0.8
+  const xTicks = xs.ticks.map((t) => {
+    const at = xs.toPx(t)
+    const label = xs.label(t)
+    const half = textWidth(label, type.tick) / 2
+    // A label at either end keeps inside the page.
+    const centre = Math.min(Math.max(at, type.pad + half), width - type.pad - half)
+    return element('g', { class: 'tick', 'data-value': exactNumber(t) }, [
+      element('line', { x1: at, x2: at, y1: xAxisY, y2: xAxisY + type.tickLength, ...ink }),
+      element('text', { x: centre, y: labelY, 'text-anchor': 'middle', 'font-size': type.tick, fill: THEME.ink }, escapeXml(label))
+    ])
+  })
+  const xMinor = xs.minor.map((t) => element('line', { x1: xs.toPx(t), x2: xs.toPx(t), y1: xAxisY, y2: xAxisY + type.tickLength * 0.6, ...ink }))
   const yTicks = ys.ticks.map((t) => element('g', { class: 'tick', 'data-value': exactNumber(t) }, [
-    element('line', { x1: plot.left - 5, x2: plot.left, y1: ys.toPx(t), y2: ys.toPx(t), ...ink }),
-    element('text', { x: plot.left - 8, y: ys.toPx(t), 'text-anchor': 'end', 'dominant-baseline': 'central', 'font-size': TICK_FONT, fill: '#222222' }, escapeXml(ys.label(t)))
+    element('line', { x1: yAxisX - type.tickLength, x2: yAxisX, y1: ys.toPx(t), y2: ys.toPx(t), ...ink }),
+    element('text', { x: yAxisX - type.tickLength - type.gap * 0.6, y: ys.toPx(t) + type.tick * 0.33, 'text-anchor': 'end', 'font-size': type.tick, fill: THEME.ink }, escapeXml(ys.label(t)))
   ]))
-  const yMinor = ys.minor.map((t) => element('line', { x1: plot.left - 3, x2: plot.left, y1: ys.toPx(t), y2: ys.toPx(t), ...ink }))
+  const yMinor = ys.minor.map((t) => element('line', { x1: yAxisX - type.tickLength * 0.6, x2: yAxisX, y1: ys.toPx(t), y2: ys.toPx(t), ...ink }))
   return element('g', { class: 'axes' }, [
-    ...parts,
+    ...lines,
     element('g', { class: 'x-axis', 'data-scale': xs.kind }, [...xTicks, ...xMinor]),
     element('g', { class: 'y-axis', 'data-scale': ys.kind }, [...yTicks, ...yMinor])
   ])
 }
 
-function drawAxisTitles (plan: FigurePlan, plot: Rect, noteTop: number): string {
-  const xTitleY = noteTop - NOTE_FONT - 10
-  const yTitleX = OUTER + AXIS_TITLE_FONT * 0.8
-  const yMid = (plot.top + plot.bottom) / 2
-  const x = fitLabel(plan.xTitle, plot.right - plot.left + 40)
-  const y = fitLabel(plan.yTitle, plot.bottom - plot.top + 20)
-  return element('g', { class: 'axis-titles', fill: '#111111' }, [
-    element('text', { class: 'x-title', x: (plot.left + plot.right) / 2, y: xTitleY, 'text-anchor': 'middle', 'font-size': x.size }, richText(x.text, x.size)),
-    element('text', { class: 'y-title', x: yTitleX, y: yMid, 'text-anchor': 'middle', 'font-size': y.size, transform: `rotate(-90 ${px(yTitleX)} ${px(yMid)})` }, richText(y.text, y.size))
-  ])
+/** The x axis title ends under the right end of the plot, or starts at its left when it is longer than the plot is wide. */
+function drawXTitle (title: string, plot: Rect, baseline: number, type: Type, width: number): string {
+  const room = width - 2 * type.pad
+  const fitted = fitLabel(title, room, type.axisTitle)
+  const w = richTextWidth(fitted.text, fitted.size)
+  const right = Math.min(plot.right, width - type.pad)
+  const anchorEnd = right - w >= type.pad
+  return element('g', { class: 'axis-titles', fill: THEME.ink }, element('text', {
+    class: 'x-title', x: anchorEnd ? right : type.pad, y: baseline, 'text-anchor': anchorEnd ? 'end' : 'start', 'font-size': fitted.size
+  }, richText(fitted.text, fitted.size)))
 }
 
-/** An axis title that fits its room: a smaller font first, then cut with an ellipsis. */
-function fitLabel (label: string, room: number): { text: string, size: number } {
-  for (let size = AXIS_TITLE_FONT; size >= AXIS_TITLE_FONT - 2; size -= 0.5) {
-    if (richTextWidth(label, size) <= room) return { text: label, size }
+/** An axis title that fits its room: a smaller size first, then cut with an ellipsis. */
+function fitLabel (label: string, room: number, size: number): { text: string, size: number } {
+  for (let s = size; s >= size * 0.85; s -= size * 0.05) {
+    if (richTextWidth(label, s) <= room) return { text: label, size: s }
   }
-  const size = AXIS_TITLE_FONT - 2
-  return { text: wrapText(label, size, room, 1)[0] ?? label, size }
+  const s = size * 0.85
+  return { text: wrapText(plainText(label), s, room, 1)[0] ?? label, size: s }
 }
 
-function drawSeries (plan: FigurePlan, index: number, xs: AxisScale, ys: AxisScale, shift: number): string {
+function drawSeries (plan: FigurePlan, index: number, xs: AxisScale, ys: AxisScale, shift: number, type: Type): string {
   const s = plan.series[index]!
-  const style = seriesStyle(index)
+  const style = seriesStyle(s.look, s.colour)
   const byPoint = new Map(s.points.map((p) => [p.point, p]))
   // A row without a value leaves a gap in the line rather than a bridge over it.
   const path = polylinePath(s.rows.map((row) => {
@@ -256,11 +402,13 @@ function drawSeries (plan: FigurePlan, index: number, xs: AxisScale, ys: AxisSca
     if (p.low !== null && p.high !== null) {
       const y1 = ys.toPx(ys.kind === 'log' && !(p.low > 0) ? bottom : p.low)
       const y2 = ys.toPx(p.high)
-      const ink = { stroke: style.colour, 'stroke-width': 1.1 }
+      const ink = { stroke: style.colour, 'stroke-width': 1 }
+      // No caps: a bar is a plain stroke, ended by a short cross-line only when it is long enough to need one.
+      const cap = Math.abs(y2 - y1) > type.marker * 2 ? type.cap : 0
       bar = element('g', { class: 'error-bar', 'data-y1': px(y1), 'data-y2': px(y2) }, [
         element('line', { x1: cx, x2: cx, y1, y2, ...ink }),
-        element('line', { x1: cx - CAP, x2: cx + CAP, y1, y2: y1, ...ink }),
-        element('line', { x1: cx - CAP, x2: cx + CAP, y1: y2, y2, ...ink })
+        cap === 0 ? '' : element('line', { x1: cx - cap, x2: cx + cap, y1, y2: y1, ...ink }),
+        cap === 0 ? '' : element('line', { x1: cx - cap, x2: cx + cap, y1: y2, y2, ...ink })
       ])
     }
     return element('g', {
@@ -275,7 +423,7 @@ function drawSeries (plan: FigurePlan, index: number, xs: AxisScale, ys: AxisSca
       'data-n': p.n,
       'data-cx': px(cx),
       'data-cy': px(cy)
-    }, bar + marker(style, cx, cy, MARKER_SIZE))
+    }, bar + marker(style, cx, cy, type.marker))
   })
   return element('g', {
     class: 'series',
@@ -309,37 +457,56 @@ function drawTheory (o: TheoryOverlay, xs: AxisScale, ys: AxisScale, plot: Rect,
   return element('g', data, paths)
 }
 
-function drawAnnotations (theory: readonly TheoryOverlay[], xs: AxisScale, plot: Rect, colour: (o: TheoryOverlay) => string): string {
+/**
+ * Names of the reference lines, just above the plot where no data can hide them. Several
+ * lines close together: their values alone (the legend names them), and any that would
+ * still overlap its left neighbour is left out rather than drawn over it.
+ */
+function placeAnnotations (theory: readonly TheoryOverlay[], xs: AxisScale, plot: Rect, type: Type, colour: (o: TheoryOverlay) => string): { markup: string, keys: Set<string> } {
   const lines = theory.filter((o) => o.kind === 'reference' && o.at !== null && o.annotation !== undefined).sort((a, b) => a.at! - b.at!)
-  // Several lines close together: their values alone (the legend names them), and any that
-  // would still overlap its left neighbour is left out rather than drawn over it.
+  const size = type.annotation
   const place = (text: (o: TheoryOverlay) => string) => lines.map((o) => {
-    const half = richTextWidth(text(o), ANNOTATION_FONT) / 2
+    const half = richTextWidth(text(o), size) / 2
     return { o, text: text(o), left: Math.min(Math.max(xs.toPx(o.at!), plot.left + half), plot.right - half) - half, width: 2 * half }
   })
-  const overlapping = (boxes: ReturnType<typeof place>) => boxes.some((b, i) => i > 0 && b.left < boxes[i - 1]!.left + boxes[i - 1]!.width + 4)
+  const space = size * 0.35
+  const overlapping = (boxes: ReturnType<typeof place>) => boxes.some((b, i) => i > 0 && b.left < boxes[i - 1]!.left + boxes[i - 1]!.width + space)
   let boxes = place((o) => o.annotation!)
-  if (overlapping(boxes)) boxes = place((o) => o.annotation!.split(' = ').pop()!)
+  let full = true
+  if (overlapping(boxes)) { boxes = place((o) => o.annotation!.split(' = ').pop()!); full = false }
   const kept: typeof boxes = []
-  for (const box of boxes) if (kept.length === 0 || box.left >= kept[kept.length - 1]!.left + kept[kept.length - 1]!.width + 4) kept.push(box)
+  for (const box of boxes) if (kept.length === 0 || box.left >= kept[kept.length - 1]!.left + kept[kept.length - 1]!.width + space) kept.push(box)
   const texts = kept.map(({ o, text, left, width }) => element('text', {
     class: 'annotation',
     'data-theory': o.key,
     'data-label': plainText(text),
     x: left + width / 2,
-    y: plot.top - 5,
+    y: plot.top - type.gap * 0.8,
     'text-anchor': 'middle',
-    'font-size': ANNOTATION_FONT,
+    'font-size': size,
     fill: colour(o)
-  }, richText(text, ANNOTATION_FONT)))
-  return texts.length === 0 ? '' : element('g', { class: 'annotations' }, texts)
+  }, richText(text, size)))
+  // A line is named by its annotation only when the annotation says what it is, and every line of that theory has one.
+  const keys = new Set<string>()
+  if (full) {
+    for (const key of new Set(lines.map((o) => o.key))) {
+      if (lines.filter((o) => o.key === key).every((o) => kept.some((k) => k.o === o))) keys.add(key)
+    }
+  }
+  return { markup: texts.length === 0 ? '' : element('g', { class: 'annotations' }, texts), keys }
 }
 
-/** One theory line per key is black; several lines of one theory take their series' colours. */
-function theoryColours (theory: readonly TheoryOverlay[]): (o: TheoryOverlay) => string {
+/** One theory line per key is dark; several lines of one theory take their series' colours. */
+function theoryColours (plan: FigurePlan): (o: TheoryOverlay) => string {
   const count = new Map<string, number>()
-  for (const o of theory) count.set(`${o.key}|${o.kind}`, (count.get(`${o.key}|${o.kind}`) ?? 0) + 1)
-  return (o) => (count.get(`${o.key}|${o.kind}`)! > 1 && o.series.length === 1 ? seriesStyle(o.series[0]!).colour : THEORY_STYLE[o.kind].colour)
+  for (const o of plan.theory) count.set(`${o.key}|${o.kind}`, (count.get(`${o.key}|${o.kind}`) ?? 0) + 1)
+  return (o) => {
+    if (count.get(`${o.key}|${o.kind}`)! > 1 && o.series.length === 1) {
+      const s = plan.series[o.series[0]!]!
+      return seriesStyle(s.look, s.colour).colour
+    }
+    return THEORY_STYLE[o.kind].colour
+  }
 }
 
 /** A short deterministic id prefix, so several figures can share one page without id clashes. */

@@ -6,7 +6,7 @@
 import type { SweepResult } from '../results/index.js'
 import { drawFigure } from './draw.js'
 import { FigureOptionsError } from './errors.js'
-import type { FigureOptionsInput } from './options.js'
+import type { FigureOptions, FigureOptionsInput } from './options.js'
 import { parseFigureOptions, planFigure } from './plan.js'
 
 export { FigureOptionsSchema, FIGURE_MEASURES, FIGURE_SIZE, type FigureMeasure, type FigureOptions, type FigureOptionsInput } from './options.js'
@@ -23,11 +23,16 @@ export { MARKER_SHAPES, SERIES_DASHES } from './styles.js'
  * @throws {FigureOptionsError} when the options are invalid or do not fit the results.
  */
 export function renderFigure (results: SweepResult | readonly SweepResult[], options: FigureOptionsInput = {}): string {
+  return renderParsedFigure(results, parseFigureOptions(options))
+}
+
+/** renderFigure for options already validated (FigureOptionsSchema's output, as a route's query arrives). */
+export function renderParsedFigure (results: SweepResult | readonly SweepResult[], options: FigureOptions): string {
   const list: readonly SweepResult[] = Array.isArray(results) ? results : [results as SweepResult]
   const searches = list.filter((r) => r.searches !== undefined && r.rows.length === 0)
   if (searches.length > 0) {
     // A threshold search has no grid rows to plot; its crossings are in the results (JSON, CSV) and on the web page.
     throw new FigureOptionsError([{ path: '', message: `sweep ${searches.map((r) => r.specHash.slice(0, 12)).join(', ')} is a threshold search: it has crossings with intervals, not grid rows, so it has no figure here; read its searches and scaling fit from the results` }])
   }
-  return drawFigure(planFigure(list, parseFigureOptions(options)))
+  return drawFigure(planFigure(list, options))
 }

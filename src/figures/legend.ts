@@ -1,104 +1,145 @@
 /**
- * The legend: one entry per series (marker on its line style) and per theory line, in a
- * box placed where it hides the fewest data; outside the plot, to the right, when every
- * place inside would hide some and there is room.
+ * Naming the lines. The house way is a direct label at the end of each line, in a margin to
+ * the right of the plot, when every line ends at the right edge and the labels can sit near
+ * their line ends without touching; otherwise a legend without a frame outside the data
+ * area, in a column to the right of the plot or in rows under it. Reference lines are named
+ * at the top of the plot (annotations) and enter the legend only when their name could not be written there.
  */
 import { richText, richTextWidth } from './rich-text.js'
-import { marker, seriesStyle, THEORY_STYLE, type SeriesStyle } from './styles.js'
+import { marker, seriesStyle, THEME, THEORY_STYLE, type SeriesStyle } from './styles.js'
 import { element } from './svg.js'
 import type { TheoryKind, TheoryOverlay } from './theory.js'
 import type { PlotSeries } from './series.js'
-import { wrapText } from './text-metrics.js'
+import { truncate, wrapText } from './text-metrics.js'
 
 export interface LegendEntry {
   label: string
+  /** Index of the series, or null for a theory line. */
   series: number | null
+  style: SeriesStyle | null
   theory: { key: string, kind: TheoryKind, colour: string } | null
 }
 
-export interface LegendBox { width: number, height: number, lines: string[][] }
+export interface Rect { left: number, top: number, right: number, bottom: number }
 
-export const LEGEND_FONT = 12
-const LINE_HEIGHT = 15
-const ENTRY_GAP = 3
-const PAD = 7
-const SAMPLE = 30
+/** A legend entry placed: its sample at (x, y) (the middle of its first line), its text lines after it. */
+export interface PlacedEntry { entry: LegendEntry, x: number, y: number, lines: string[] }
 
 export function legendEntries (series: readonly PlotSeries[], theory: readonly TheoryOverlay[], theoryColour: (o: TheoryOverlay) => string): LegendEntry[] {
-  const entries: LegendEntry[] = series.map((s) => ({ label: s.label, series: s.index, theory: null }))
+  const entries: LegendEntry[] = series.map((s) => ({ label: s.label, series: s.index, style: seriesStyle(s.look, s.colour), theory: null }))
+  // One theory drawn once per series, each line in its series' colour: one entry says so, in the neutral ink.
+  const perSeries = new Map<string, number>()
+  for (const o of theory) if (o.baseLabel !== undefined && o.series.length === 1) perSeries.set(`${o.key}|${o.kind}`, (perSeries.get(`${o.key}|${o.kind}`) ?? 0) + 1)
   const sharing = new Map<string, number>()
   for (const o of theory) sharing.set(o.label, (sharing.get(o.label) ?? 0) + 1)
   const seen = new Set<string>()
   for (const o of theory) {
-    if (seen.has(o.label)) continue
-    seen.add(o.label)
-    // One entry stands for several lines of different colours: draw it in the neutral ink.
-    const colour = sharing.get(o.label)! > 1 ? THEORY_STYLE[o.kind].colour : theoryColour(o)
-    entries.push({ label: o.label, series: null, theory: { key: o.key, kind: o.kind, colour } })
+    const grouped = (perSeries.get(`${o.key}|${o.kind}`) ?? 0) > 1 && o.baseLabel !== undefined
+    const label = grouped ? `${o.baseLabel!}, one per series in its colour` : o.label
+    if (seen.has(label)) continue
+    seen.add(label)
+    const colour = grouped || sharing.get(o.label)! > 1 ? THEORY_STYLE[o.kind].colour : theoryColour(o)
+    entries.push({ label, series: null, style: null, theory: { key: o.key, kind: o.kind, colour } })
   }
   // A single series with no theory needs no legend: the axes say everything.
   return entries.length === 1 && theory.length === 0 ? [] : entries
 }
 
-export function measureLegend (entries: readonly LegendEntry[], maxTextWidth: number): LegendBox {
-  const lines = entries.map((e) => wrapText(e.label, LEGEND_FONT, maxTextWidth, 2))
-  const textWidth = Math.max(0, ...lines.flat().map((l) => richTextWidth(l, LEGEND_FONT)))
-  const rows = lines.reduce((n, l) => n + l.length, 0)
-  return {
-    width: PAD * 2 + SAMPLE + 8 + textWidth,
-    height: PAD * 2 + rows * LINE_HEIGHT + Math.max(0, entries.length - 1) * ENTRY_GAP,
-    lines
-  }
+/**
+ * What stands before an entry's text: a stretch of the line with its marker (legend), or the
+ * marker alone (a direct label, which sits at its line's end already).
+ */
+export type SampleKind = 'line' | 'marker'
+
+export function sampleWidth (fontSize: number, kind: SampleKind = 'line'): number {
+  return fontSize * (kind === 'line' ? 2.2 : 0.75)
 }
 
-export function drawLegend (entries: readonly LegendEntry[], box: LegendBox, left: number, top: number): string {
-  const parts: string[] = [element('rect', {
-    x: left, y: top, width: box.width, height: box.height, fill: '#ffffff', 'fill-opacity': 0.9, stroke: '#999999', 'stroke-width': 0.8, rx: 2
-  })]
-  let y = top + PAD
-  entries.forEach((entry, i) => {
-    const lines = box.lines[i]!
-    const mid = y + LINE_HEIGHT / 2
-    const x0 = left + PAD
+/** The natural width of an entry: sample, gap, text. */
+export function entryWidth (entry: LegendEntry, fontSize: number, kind: SampleKind = 'line'): number {
+  return sampleWidth(fontSize, kind) + fontSize * 0.45 + richTextWidth(entry.label, fontSize)
+}
+
+/**
+ * A column of entries from (left, top), each text cut to `textWidth`; entries that do not
+ * fit in `height` are left out and counted in a last line.
+ */
+export function columnLayout (entries: readonly LegendEntry[], left: number, top: number, textWidth: number, height: number, fontSize: number): { placed: PlacedEntry[], more: number, moreY: number } {
+  const step = fontSize * THEME.lineHeight
+  const rows = Math.max(1, Math.floor(height / step))
+  // Long names wrap to up to three lines, while the column has room for every entry.
+  const wrapped = entries.map((entry) => wrapLabel(entry.label, fontSize, textWidth, 3))
+  const lines = wrapped.reduce((n, l) => n + l.length, 0) + Math.max(0, entries.length - 1) * 0.3
+  const all = lines <= rows ? wrapped : entries.map((entry) => [cutLabel(entry.label, fontSize, textWidth)])
+  const placed: PlacedEntry[] = []
+  let y = top + step / 2
+  for (const [i, entry] of entries.entries()) {
+    const entryLines = all[i]!
+    const last = i === entries.length - 1
+    // Keep a row for the count of those left out.
+    if (y + step * (entryLines.length - 1) > top + height - (last ? 0 : step)) break
+    placed.push({ entry, x: left, y, lines: entryLines })
+    y += step * (entryLines.length + 0.3)
+  }
+  return { placed, more: entries.length - placed.length, moreY: y }
+}
+
+/** A label wrapped to at most `maxLines` lines of `width`, each cut to fit. */
+function wrapLabel (label: string, fontSize: number, width: number, maxLines: number): string[] {
+  if (richTextWidth(label, fontSize) <= width) return [label]
+  return wrapText(label, fontSize, width, maxLines).map((line) => cutLabel(line, fontSize, width))
+}
+
+/** Rows of entries flowing left to right within `width`, from (left, top): the placed entries and the height used. */
+export function rowLayout (entries: readonly LegendEntry[], left: number, top: number, width: number, fontSize: number): { placed: PlacedEntry[], height: number } {
+  const step = fontSize * THEME.lineHeight
+  const gap = fontSize * 1.2
+  const placed: PlacedEntry[] = []
+  let x = left
+  let row = 0
+  for (const entry of entries) {
+    const textRoom = width - sampleWidth(fontSize) - fontSize * 0.45
+    const label = cutLabel(entry.label, fontSize, textRoom)
+    const w = sampleWidth(fontSize) + fontSize * 0.45 + richTextWidth(label, fontSize)
+    if (x > left && x + w > left + width) { row++; x = left }
+    placed.push({ entry, x, y: top + step * (row + 0.5), lines: [label] })
+    x += w + gap
+  }
+  return { placed, height: entries.length === 0 ? 0 : step * (row + 1) }
+}
+
+/** A label cut to `width`, keeping its subscripts whole when it fits. */
+function cutLabel (label: string, fontSize: number, width: number): string {
+  if (richTextWidth(label, fontSize) <= width) return label
+  // Cutting inside `_{…}` would break the markup: cut the plain text instead.
+  return truncate(label.replace(/_\{([^}]*)\}/g, '_$1'), fontSize, width)
+}
+
+/** Draws placed entries (legend or direct labels): a line sample with the series marker, then the text. */
+export function drawEntries (placed: readonly PlacedEntry[], fontSize: number, className: string, kind: SampleKind = 'line', more = 0, moreAt: { x: number, y: number } | null = null): string {
+  const markerSize = fontSize * 0.62
+  const parts = placed.map(({ entry, x, y, lines }) => {
+    const x1 = x + sampleWidth(fontSize, kind)
     let sample: string
     let data: Record<string, string | number>
-    if (entry.series !== null) {
-      const style: SeriesStyle = seriesStyle(entry.series)
-      sample = element('line', { x1: x0, y1: mid, x2: x0 + SAMPLE, y2: mid, stroke: style.colour, 'stroke-width': 1.2, 'stroke-dasharray': style.dash === '' ? null : style.dash }) +
-        marker(style, x0 + SAMPLE / 2, mid, 8)
-      data = { 'data-series': entry.series, 'data-marker': style.shape, 'data-filled': String(style.filled), 'data-dash': style.dash === '' ? 'solid' : style.dash }
+    if (entry.style !== null) {
+      const style = entry.style
+      sample = (kind === 'line' ? element('line', { x1: x, y1: y, x2: x1, y2: y, stroke: style.colour, 'stroke-width': 1.2, 'stroke-dasharray': style.dash === '' ? null : style.dash }) : '') +
+        marker(style, (x + x1) / 2, y, markerSize)
+      data = { 'data-series': entry.series!, 'data-marker': style.shape, 'data-filled': String(style.filled), 'data-dash': style.dash === '' ? 'solid' : style.dash }
     } else {
       const t = entry.theory!
       const look = THEORY_STYLE[t.kind]
-      sample = element('line', { x1: x0, y1: mid, x2: x0 + SAMPLE, y2: mid, stroke: t.colour, 'stroke-width': look.width, 'stroke-dasharray': look.dash === '' ? null : look.dash })
+      sample = element('line', { x1: x, y1: y, x2: x1, y2: y, stroke: t.colour, 'stroke-width': look.width, 'stroke-dasharray': kind === 'marker' || look.dash === '' ? null : look.dash })
       data = { 'data-theory': t.key, 'data-kind': t.kind }
     }
-    const text = lines.map((line, k) => element('text', { x: x0 + SAMPLE + 8, y: mid + k * LINE_HEIGHT, 'dominant-baseline': 'central', 'font-size': LEGEND_FONT, fill: '#111111' }, richText(line, LEGEND_FONT))).join('')
-    parts.push(element('g', { class: 'legend-entry', ...data }, sample + text))
-    y += lines.length * LINE_HEIGHT + ENTRY_GAP
+    const text = lines.map((line, k) => element('text', {
+      x: x1 + fontSize * 0.45, y: y + fontSize * 0.32 + k * fontSize * THEME.lineHeight, 'font-size': fontSize, fill: THEME.ink
+    }, richText(line, fontSize))).join('')
+    return element('g', { class: 'legend-entry', ...data }, sample + text)
   })
-  return element('g', { class: 'legend' }, parts)
-}
-
-export interface Rect { left: number, top: number, right: number, bottom: number }
-
-/**
- * The inside position (corners first, then edge middles) covering the fewest obstacles, with
- * how many it covers.
- */
-export function placeInside (box: LegendBox, plot: Rect, obstacles: ReadonlyArray<readonly [number, number]>): { left: number, top: number, covered: number } {
-  const m = 8
-  const xs = { l: plot.left + m, c: (plot.left + plot.right - box.width) / 2, r: plot.right - m - box.width }
-  const ys = { t: plot.top + m, m: (plot.top + plot.bottom - box.height) / 2, b: plot.bottom - m - box.height }
-  const candidates: Array<[number, number]> = [[xs.r, ys.t], [xs.l, ys.t], [xs.r, ys.b], [xs.l, ys.b], [xs.c, ys.t], [xs.c, ys.b], [xs.r, ys.m], [xs.l, ys.m]]
-  let best = { left: candidates[0]![0], top: candidates[0]![1], covered: Infinity }
-  for (const [left, top] of candidates) {
-    if (left < plot.left || top < plot.top) continue
-    let covered = 0
-    for (const [x, y] of obstacles) {
-      if (x >= left - 4 && x <= left + box.width + 4 && y >= top - 4 && y <= top + box.height + 4) covered++
-    }
-    if (covered < best.covered) best = { left, top, covered }
+  if (more > 0 && moreAt !== null) {
+    parts.push(element('text', { class: 'legend-more', x: moreAt.x, y: moreAt.y + fontSize * 0.32, 'font-size': fontSize, fill: THEME.muted }, `+ ${more} more`))
   }
-  return best
+  return element('g', { class: className }, parts)
 }

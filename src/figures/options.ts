@@ -20,7 +20,21 @@ export type FigureMeasure = typeof FIGURE_MEASURES[number]
 const VARIED_PATHS = VARIED_PARAMETERS.map((p) => p.path) as [VariedPath, ...VariedPath[]]
 const AXIS_PATHS = [...AXIS_ORDER] as [AxisPath, ...AxisPath[]]
 
-export const FIGURE_SIZE = { minWidth: 320, maxWidth: 4000, minHeight: 240, maxHeight: 3000, width: 640, height: 440 } as const
+export const FIGURE_SIZE = { minWidth: 240, maxWidth: 4000, minHeight: 180, maxHeight: 3000, width: 640, height: 440 } as const
+
+/**
+ * Print sizes: journal column widths in mm, with the height each gets by default. A figure
+ * sized in mm is laid out in points (1/72 in), its type in pt.
+ */
+export const FIGURE_COLUMNS = {
+  single: { widthMm: 85, heightMm: 64 },
+  double: { widthMm: 180, heightMm: 112 }
+} as const
+
+export const FIGURE_MM = { min: 30, max: 500 } as const
+export const FIGURE_FONT = { min: 5, max: 32, screen: 12, print: 7.5 } as const
+/** Most names one list of series or sweep names holds. */
+const MAX_NAMES = 32
 
 // MAIN //
 
@@ -30,6 +44,13 @@ const flag = z.union([
 ])
 
 const scale = z.enum(['linear', 'log'])
+
+/**
+ * Names, one per series (or sweep) in order, in one string separated by `|` (as a query
+ * parameter or a flag carries them). An empty name keeps the generated one.
+ */
+const names = z.string().max(MAX_NAMES * 121).transform((s) => s.split('|'))
+  .pipe(z.array(z.string().max(120, 'each name has at most 120 characters')).max(MAX_NAMES, `at most ${MAX_NAMES} names`))
 
 export const FigureOptionsSchema = z.strictObject({
   measure: z.enum(FIGURE_MEASURES).default('success').describe(
@@ -49,11 +70,26 @@ export const FigureOptionsSchema = z.strictObject({
     'ci: 95 % confidence intervals (Wilson score for rates, Student t for means); se: ± one standard error; sd: ± one ' +
     'standard deviation of single trials (rates: √(p(1−p))); none. Rates stay within [0, 1]. Default: ci.'),
   theory: flag.default(true).describe('Overlay theory where it applies to the measure, x and model (curves, per-point values or reference lines). Default: true.'),
-  width: z.coerce.number().int().min(FIGURE_SIZE.minWidth).max(FIGURE_SIZE.maxWidth).default(FIGURE_SIZE.width)
-    .describe(`Width in px. Default: ${FIGURE_SIZE.width}.`),
-  height: z.coerce.number().int().min(FIGURE_SIZE.minHeight).max(FIGURE_SIZE.maxHeight).default(FIGURE_SIZE.height)
-    .describe(`Height in px. Default: ${FIGURE_SIZE.height}.`),
-  title: z.string().max(300).optional().describe('Title. Default: the sweep label, or the measure against x.')
+  width: z.coerce.number().int().min(FIGURE_SIZE.minWidth).max(FIGURE_SIZE.maxWidth).optional()
+    .describe(`Width in px (screen figures). Default: ${FIGURE_SIZE.width}, unless the size is given in mm.`),
+  height: z.coerce.number().int().min(FIGURE_SIZE.minHeight).max(FIGURE_SIZE.maxHeight).optional()
+    .describe(`Height in px (screen figures). Default: ${FIGURE_SIZE.height}.`),
+  column: z.enum(['single', 'double']).optional().describe(
+    `Print size of a journal column: single (${FIGURE_COLUMNS.single.widthMm} × ${FIGURE_COLUMNS.single.heightMm} mm) or double ` +
+    `(${FIGURE_COLUMNS.double.widthMm} × ${FIGURE_COLUMNS.double.heightMm} mm). widthMm and heightMm override either side. The figure is laid out in points and its type sized in pt.`),
+  widthMm: z.coerce.number().min(FIGURE_MM.min).max(FIGURE_MM.max).optional().describe('Width in mm (print figures; not with width or height in px).'),
+  heightMm: z.coerce.number().min(FIGURE_MM.min).max(FIGURE_MM.max).optional().describe('Height in mm (print figures). Default: three quarters of the width, or the column\'s height.'),
+  fontSize: z.coerce.number().min(FIGURE_FONT.min).max(FIGURE_FONT.max).optional().describe(
+    `Size of the body type (tick labels, legend) in px, or in pt for a size in mm; titles and notes scale with it. Default: ${FIGURE_FONT.screen} px, ${FIGURE_FONT.print} pt.`),
+  title: z.string().max(300).optional().describe('Title. Default: the sweep label, or the measure against x.'),
+  showTitle: flag.default(true).describe('Draw the title. Default: true.'),
+  subtitle: z.string().max(300).optional().describe('Line under the title. Default: the model conditions every sweep shares (rule, cue, dynamics, trials).'),
+  showSubtitle: flag.default(true).describe('Draw the subtitle. Default: true.'),
+  footnote: z.string().max(600).optional().describe('Note under the plot. Default: what the error bars are, what was left out, and the spec hash and engine.'),
+  showFootnote: flag.default(true).describe('Draw the footnote. Default: true.'),
+  seriesNames: names.optional().describe('Names of the series in the order drawn, separated by | (an empty name keeps the generated one).'),
+  sweepNames: names.optional().describe(
+    'Overlays: a short name per sweep, in the order of the sweeps, separated by |; each series is named by it and its parameter values. Default: the sweep label, shortened.')
 })
 
 /** Options as a caller may write them (every field optional). */

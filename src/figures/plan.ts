@@ -4,6 +4,7 @@
  */
 import type { SweepResult } from '../results/index.js'
 import { FigureOptionsError } from './errors.js'
+import { figureFrame, type FigureFrame } from './frame.js'
 import {
   anyWarm, formatValue, measureAxisTitle, measureShortName, modelConditions, parameterAxisTitle, parameterShortName, plainText
 } from './labels.js'
@@ -16,12 +17,16 @@ export interface FigurePlan extends SeriesPlan {
   options: FigureOptions
   results: readonly SweepResult[]
   theory: TheoryOverlay[]
+  /** The page: size, unit and body type size. */
+  frame: FigureFrame
   title: string
-  /** Model conditions shared by every sweep, for the line under the title ('' when none). */
+  /** Model conditions shared by every sweep ('' when none). */
   conditions: string
+  /** The line under the title: the caller's, or the model conditions. */
+  subtitle: string
   xTitle: string
   yTitle: string
-  /** What the error bars are, what was left out, where the data come from. */
+  /** The footnote: the caller's, or what the error bars are, what was left out, where the data come from. */
   note: string
   /** The text of <desc>: the figure in words, for screen readers and search. */
   description: string
@@ -54,6 +59,7 @@ export function parseFigureOptions (input: unknown): FigureOptions {
  *   axis over values ≤ 0, a measure the sweep did not record, too many series or points).
  */
 export function planFigure (results: readonly SweepResult[], options: FigureOptions): FigurePlan {
+  const frame = figureFrame(options)
   const plan = planSeries(results, options)
   const { x, series } = plan
   if (options.xScale === 'log') {
@@ -74,18 +80,21 @@ export function planFigure (results: readonly SweepResult[], options: FigureOpti
   const xTitle = parameterAxisTitle(x, specs)
   const yTitle = measureAxisTitle(options.measure, specs, options.endState)
   const dodge = dodgeOffsets(plan, options)
-  const note = describeNote(plan, results, options, dodge)
+  const generatedNote = describeNote(plan, results, options, dodge)
+  const note = options.footnote ?? generatedNote
   return {
     ...plan,
     options,
     results,
     theory,
+    frame,
     title,
     conditions,
+    subtitle: options.subtitle ?? conditions,
     xTitle,
     yTitle,
     note,
-    description: describeFigure(plan, theory, options, xTitle, yTitle, note),
+    description: describeFigure(plan, theory, options, xTitle, yTitle, generatedNote),
     dodge
   }
 }

@@ -33,6 +33,10 @@ export interface PlotSeries {
   sweep: number
   /** Legend label (may hold `_{…}` subscripts). */
   label: string
+  /** Marker and dash of the series (seriesStyle's `look`). */
+  look: number
+  /** Colour of the series: its sweep's in an overlay, else the same as `look`. */
+  colour: number
   /** The varied parameters other than x, fixed along the series. */
   fixed: Record<string, AxisValue>
   /** Rows of the series, in increasing x. */
@@ -78,8 +82,20 @@ export function planSeries (results: readonly SweepResult[], options: FigureOpti
   }
   checkMeasureAvailable(results, options)
 
-  const sweepLabels = uniqueLabels(results.map((r, s) => r.spec.label ?? `sweep ${s + 1} (${r.specHash.slice(0, 8)})`))
+  const overlay = results.length > 1
+  const sweepNames = options.sweepNames ?? []
+  if (sweepNames.length > results.length) {
+    throw new FigureOptionsError([{ path: 'sweepNames', message: `${sweepNames.length} names for ${results.length} sweep(s)` }])
+  }
+  const sweepLabels = uniqueLabels(results.map((r, s) => {
+    const given = sweepNames[s]
+    if (given !== undefined && given.trim() !== '') return given.trim()
+    const label = r.spec.label ?? `sweep ${s + 1} (${r.specHash.slice(0, 8)})`
+    return overlay ? shortenLabel(label) : label
+  }))
   const series: PlotSeries[] = []
+  // In an overlay the colour says the sweep and the marker the parameter values, the same values the same marker in every sweep.
+  const looks = new Map<string, number>()
   results.forEach((result, s) => {
     const axes = axesOf[s]!
     const splitBy = axes.filter((a) => a.path !== x)
@@ -97,12 +113,24 @@ export function planSeries (results: readonly SweepResult[], options: FigureOpti
       const rows = groups.get(key)!.sort((a, b) => (a.values[x] as number) - (b.values[x] as number))
       const fixed = Object.fromEntries(splitBy.map((a) => [a.path, rows[0]!.values[a.path]!]))
       const parts = splitBy.filter((a) => a.values.length > 1).map((a) => legendEntry(a.path, fixed[a.path]!))
-      const label = results.length > 1
+      const label = overlay
         ? [sweepLabels[s]!, ...parts].join(' · ')
         : parts.length > 0 ? parts.join(', ') : 'Simulation'
-      series.push(buildSeries(series.length, s, label, fixed, rows, x, result.trials, options))
+      const partsKey = parts.join(', ')
+      if (!looks.has(partsKey)) looks.set(partsKey, looks.size)
+      const style = overlay ? { look: looks.get(partsKey)!, colour: s } : { look: series.length, colour: series.length }
+      series.push(buildSeries(series.length, s, label, style, fixed, rows, x, result.trials, options))
     }
   })
+  if (overlay && looks.size === 1) {
+    // Every sweep draws one kind of series: the marker follows the sweep too, so print in grey still tells them apart.
+    for (const one of series) one.look = one.sweep
+  }
+  const seriesNames = options.seriesNames ?? []
+  if (seriesNames.length > series.length) {
+    throw new FigureOptionsError([{ path: 'seriesNames', message: `${seriesNames.length} names for ${series.length} series` }])
+  }
+  seriesNames.forEach((name, i) => { if (name.trim() !== '') series[i]!.label = name.trim() })
   if (series.length > MAX_SERIES) {
     throw new FigureOptionsError([{
       path: options.series === undefined ? 'x' : 'series',
@@ -120,6 +148,7 @@ function buildSeries (
   index: number,
   sweep: number,
   label: string,
+  style: { look: number, colour: number },
   fixed: Record<string, AxisValue>,
   rows: ResultRow[],
   x: VariedPath,
@@ -135,7 +164,7 @@ function buildSeries (
     if (options.yScale === 'log' && !(value.y > 0)) { belowLogAxis++; continue }
     points.push({ x: row.values[x] as number, ...value, point: row.point })
   }
-  return { index, sweep, label, fixed, rows, points, missing, belowLogAxis }
+  return { index, sweep, label, ...style, fixed, rows, points, missing, belowLogAxis }
 }
 
 /** The numeric axis with the most values; on a tie the later one in canonical order (it varies faster in the grid). */
@@ -182,6 +211,19 @@ function compareIndexLists (a: string, b: string): number {
     if (left[i] !== right[i]) return left[i]! - right[i]!
   }
   return left.length - right.length
+}
+
+/** Sweep labels in overlay series names are cut to this many characters, at a word boundary. */
+export const SHORT_LABEL = 28
+
+/** A sweep label short enough to share a legend line with parameter values. */
+export function shortenLabel (label: string): string {
+  const chars = [...label.trim()]
+  if (chars.length <= SHORT_LABEL) return label.trim()
+  const head = chars.slice(0, SHORT_LABEL - 1).join('')
+  const space = head.lastIndexOf(' ')
+  const cut = space >= SHORT_LABEL / 2 ? head.slice(0, space) : head
+  return `${cut.replace(/[\s,;:·–-]+$/, '')}…`
 }
 
 function uniqueLabels (labels: string[]): string[] {

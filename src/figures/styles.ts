@@ -1,7 +1,8 @@
 /**
- * How series and theory lines look. Series differ in marker shape, filled or open marker,
- * and dash pattern, so a figure printed in grey still tells them apart; colour (a palette
- * safe for the common colour-vision deficiencies, Okabe & Ito 2008) only helps on screen.
+ * The house style (docs/figures.md): how series, theory lines, text and axes look. Series
+ * differ in marker shape, filled or open marker, and dash pattern, so a figure printed in
+ * grey still tells them apart; colour (a palette safe for the common colour-vision
+ * deficiencies, Okabe & Ito 2008, in our own order) only helps on screen.
  */
 import { element, px } from './svg.js'
 
@@ -11,7 +12,20 @@ export type MarkerShape = typeof MARKER_SHAPES[number]
 /** Dash arrays; '' is a solid line. */
 export const SERIES_DASHES = ['', '6 3', '2 2', '8 3 2 3', '12 4', '4 2 1 2 1 2', '1 3', '12 3 3 3'] as const
 
-export const PALETTE = ['#0072B2', '#D55E00', '#009E73', '#CC79A7', '#E69F00', '#56B4E9', '#000000'] as const
+export const PALETTE = ['#0072B2', '#D55E00', '#009E73', '#CC79A7', '#56B4E9', '#E69F00', '#3B3B3B'] as const
+
+/** Inks and type of the house style. Type sizes are multiples of the body size. */
+export const THEME = {
+  fontFamily: "'Source Sans 3', 'Source Sans Pro', 'Segoe UI', 'Noto Sans', 'Helvetica Neue', Arial, sans-serif",
+  paper: '#ffffff',
+  ink: '#1c2128',
+  muted: '#59616b',
+  /** The crosses that stand for a grid at the tick intersections. */
+  grid: '#b9b3a6',
+  axis: '#3a4048',
+  type: { title: 1.3, subtitle: 0.92, axisTitle: 1, tick: 0.9, label: 0.92, note: 0.8, annotation: 0.85 },
+  lineHeight: 1.22
+} as const
 
 export interface SeriesStyle {
   shape: MarkerShape
@@ -21,30 +35,31 @@ export interface SeriesStyle {
 }
 
 /**
- * Style of series i: shapes cycle fastest, then filled/open alternates, so the first 16
- * series have distinct markers; dash patterns cycle on their own period.
+ * Style of a series: the marker and dash follow `look` (shapes cycle fastest, then
+ * filled/open alternates, so the first 16 have distinct markers; dashes cycle on their own
+ * period), the colour follows `colour` (the same as `look` unless an overlay colours by sweep).
  */
-export function seriesStyle (i: number): SeriesStyle {
+export function seriesStyle (look: number, colour = look): SeriesStyle {
   const shapes = MARKER_SHAPES.length
   return {
-    shape: MARKER_SHAPES[i % shapes]!,
-    filled: Math.floor(i / shapes) % 2 === 0,
-    dash: SERIES_DASHES[i % SERIES_DASHES.length]!,
-    colour: PALETTE[i % PALETTE.length]!
+    shape: MARKER_SHAPES[look % shapes]!,
+    filled: Math.floor(look / shapes) % 2 === 0,
+    dash: SERIES_DASHES[look % SERIES_DASHES.length]!,
+    colour: PALETTE[colour % PALETTE.length]!
   }
 }
 
 /** Theory lines: darker and heavier than data lines, no markers. */
 export const THEORY_STYLE = {
-  curve: { dash: '', width: 2, colour: '#222222' },
-  'per-point': { dash: '7 3 2 3', width: 1.6, colour: '#222222' },
-  reference: { dash: '3 3', width: 1.2, colour: '#555555' }
+  curve: { dash: '', width: 1.9, colour: '#2b2f36' },
+  'per-point': { dash: '7 3 2 3', width: 1.5, colour: '#2b2f36' },
+  reference: { dash: '2 3', width: 1.1, colour: '#59616b' }
 } as const
 
 /** A marker of `size` px (its bounding width) centred at (cx, cy). */
 export function marker (style: SeriesStyle, cx: number, cy: number, size: number): string {
   const r = size / 2
-  const paint = { fill: style.filled ? style.colour : '#ffffff', stroke: style.colour, 'stroke-width': 1.3 }
+  const paint = { fill: style.filled ? style.colour : THEME.paper, stroke: style.colour, 'stroke-width': Math.max(0.8, size * 0.16) }
   const polygon = (points: ReadonlyArray<readonly [number, number]>): string =>
     element('polygon', { points: points.map(([x, y]) => `${px(cx + x * r)},${px(cy + y * r)}`).join(' '), ...paint })
   switch (style.shape) {

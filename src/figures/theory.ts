@@ -23,6 +23,8 @@ export interface TheoryOverlay {
   kind: TheoryKind
   /** Legend label (may hold `_{…}` subscripts). */
   label: string
+  /** The label without the series it names, when it names some. */
+  baseLabel?: string
   /** The series it applies to. */
   series: number[]
   /** Curves and per-point lines, in data coordinates; a new segment after each gap or jump. */
@@ -69,6 +71,13 @@ const LABELS: Record<string, string> = {
   crosstalkErrorGaussian: 'Crosstalk error, Gaussian (N → ∞)',
   crosstalkErrorExact: 'Crosstalk error, exact at this N'
 }
+
+/**
+ * Retrieval overlaps are positive wherever the retrieval state exists; a row's 0 stands for
+ * the states left past the retrieval boundary (spin glass, paramagnet), so the line breaks there
+ * instead of running along zero.
+ */
+const NO_SOLUTION_AT_ZERO = new Set(['retrievalOverlapRS'])
 
 const isNumber = (v: unknown): v is number => typeof v === 'number' && Number.isFinite(v)
 
@@ -130,7 +139,11 @@ function closedForm (key: string, x: VariedPath, p: PointParams): ClosedForm | n
     case 'retrievalOverlapRS':
       // The closed form is the T = 0 branch; at T > 0 the rows' own values are joined instead.
       if (toLoad === null || p.dynamics.temperature > 0) return null
-      return { f: (v) => rsRetrievalOverlap(toLoad(v)), breaks: [rsCriticalLoad().alphaC * loadScale] }
+      {
+        // Drawn only where the retrieval state exists: past α_c the theory has no retrieval solution (the m = 0 states left are not this curve).
+        const { alphaC } = rsCriticalLoad()
+        return { f: (v) => (toLoad(v) > alphaC ? NaN : rsRetrievalOverlap(toLoad(v))), breaks: [alphaC * loadScale] }
+      }
     case 'curieWeissOverlap':
       return x === 'dynamics.temperature' ? { f: curieWeissOverlap, breaks: [1] } : null
     case 'firstStepOverlap': {
@@ -185,7 +198,7 @@ function perPointSegments (rows: readonly ResultRow[], key: string, x: VariedPat
   let current: Array<readonly [number, number]> = []
   for (const row of rows) {
     const y = row.theory[key]
-    if (!isNumber(y) || (yScale === 'log' && !(y > 0))) {
+    if (!isNumber(y) || (yScale === 'log' && !(y > 0)) || (NO_SOLUTION_AT_ZERO.has(key) && y === 0)) {
       if (current.length > 0) segments.push(current)
       current = []
       continue
@@ -261,6 +274,6 @@ function labelDistinct (overlays: TheoryOverlay[], series: readonly PlotSeries[]
     const several = perKey.get(`${o.key}|${o.kind}`)! > 1 && o.kind !== 'reference'
     if (!partial && !several) return o
     const names = o.series.map((i) => series[i]!.label)
-    return { ...o, label: `${o.label}, ${names.join('; ')}` }
+    return { ...o, label: `${o.label}, ${names.join('; ')}`, baseLabel: o.label }
   })
 }

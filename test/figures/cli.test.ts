@@ -45,6 +45,20 @@ describe('memsweep figure', () => {
     expect(res.code, res.stderr).toBe(0)
     const labels = byClass(parseSvg(res.stdout), 'series', 'g').map((g) => g.getAttribute('data-label'))
     expect(labels).toEqual(['rooms of a cottage · N = 40', 'rooms of a cottage · N = 60', 'cottage, Storkey rule'])
+    const mixed = await cli(['figure', join(dir, 'spec-results.json'), '-o', '-', '--width', '400', '--column', 'double'])
+    expect(mixed.code).toBe(2)
+    expect(mixed.stderr).toContain('--width: give the size either in px')
+  })
+
+  it('draws at a journal column width with custom names and without the footnote', async () => {
+    const res = await cli(['figure', join(dir, 'spec-results.json'), join(dir, 'storkey-results.json'), '-o', '-', '--column', 'single', '--font-size', '8',
+      '--sweep-name', 'Hebbian', '--sweep-name', 'Storkey', '--hide-footnote', '--subtitle', 'Cottage rooms'])
+    expect(res.code, res.stderr).toBe(0)
+    const doc = parseSvg(res.stdout)
+    expect(doc.documentElement!.getAttribute('width')).toBe('85mm')
+    expect(byClass(doc, 'note')).toHaveLength(0)
+    expect(byClass(doc, 'subtitle').map((e) => e.textContent)).toEqual(['Cottage rooms'])
+    expect(byClass(doc, 'series', 'g').map((g) => g.getAttribute('data-label'))).toEqual(['Hebbian · N = 40', 'Hebbian · N = 60', 'Storkey'])
   })
 
   it('exits 2 naming the flag when the options do not fit, and for files that are not results', async () => {

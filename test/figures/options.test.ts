@@ -20,7 +20,7 @@ function issuesOf (action: () => unknown): Array<{ path: string, message: string
 describe('figure options', () => {
   it('fill defaults and accept query strings for numbers and switches', () => {
     expect(parseFigureOptions({})).toEqual({
-      measure: 'success', endState: 'target', xScale: 'linear', yScale: 'linear', errorBars: 'ci', theory: true, width: 640, height: 440
+      measure: 'success', endState: 'target', xScale: 'linear', yScale: 'linear', errorBars: 'ci', theory: true, showTitle: true, showSubtitle: true, showFootnote: true
     })
     const fromQuery = parseFigureOptions({ measure: 'overlap', width: '800', height: '500', theory: 'false', x: 'load', errorBars: 'se' })
     expect(fromQuery).toMatchObject({ measure: 'overlap', width: 800, height: 500, theory: false, x: 'load', errorBars: 'se' })

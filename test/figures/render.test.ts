@@ -216,7 +216,8 @@ describe('overlaid sweeps', () => {
     const other = runSweep({ ...roomsSpec, label: 'Storkey rooms', neurons: 40, rule: { kind: 'storkey' } })
     const doc = parseSvg(renderFigure([rooms, other], { measure: 'success', x: 'load' }))
     const labels = byClass(doc, 'series', 'g').map((g) => g.getAttribute('data-label'))
-    expect(labels).toEqual([`${roomsSpec.label} · N = 80`, `${roomsSpec.label} · N = 40`, 'Storkey rooms'])
+    // The sweep label shortened at a word boundary, then the parameter values.
+    expect(labels).toEqual(['Rooms of a flat <small> &… · N = 80', 'Rooms of a flat <small> &… · N = 40', 'Storkey rooms'])
     const points = drawnPoints(doc)
     expect(points).toHaveLength(rooms.rows.length + other.rows.length)
     for (const p of points) {

@@ -27,24 +27,28 @@ function curvePoints (group: Element): Array<Array<[number, number]>> {
 }
 
 describe('theory overlays', () => {
-  it('draw the replica-symmetric overlap densely over load, broken at α_c, with α_c as a reference line', () => {
+  it('draw the replica-symmetric overlap densely over load up to α_c (where its solution ends), with α_c as a reference line', () => {
     const doc = parseSvg(renderFigure(runSweep(hebbianRooms), { measure: 'overlap', x: 'load' }))
     const curve = overlays(doc).find((g) => g.getAttribute('data-theory') === 'retrievalOverlapRS')!
     expect(curve.getAttribute('data-kind')).toBe('curve')
     const segments = curvePoints(curve)
     const { alphaC } = rsCriticalLoad()
-    expect(segments).toHaveLength(2)
+    // Past α_c the theory has no retrieval state: no line along m = 0 there.
+    expect(segments).toHaveLength(1)
     expect(segments[0]![0]![0]).toBe(0.05)
     expect(segments[0]!.at(-1)![0]).toBe(alphaC)
-    expect(segments[1]!.at(-1)![0]).toBe(0.2)
-    expect(segments[0]!.length + segments[1]!.length).toBeGreaterThan(200)
-    for (const [x, y] of segments.flat()) expect(y).toBe(rsRetrievalOverlap(x))
-    expect(segments[1]!.every(([, y]) => y === 0)).toBe(true)
+    expect(segments[0]!.length).toBeGreaterThan(100)
+    for (const [x, y] of segments.flat()) {
+      expect(x).toBeLessThanOrEqual(alphaC)
+      expect(y).toBe(rsRetrievalOverlap(x))
+      expect(y).toBeGreaterThan(0.9)
+    }
     const reference = overlays(doc).find((g) => g.getAttribute('data-theory') === 'criticalLoad')!
     expect(Number(reference.getAttribute('data-at'))).toBe(alphaC)
     expect(byClass(doc, 'annotation')[0]!.getAttribute('data-label')).toBe('α_c = 0.138')
+    // The reference line is named by its annotation, so the legend does not repeat it.
     const legend = byClass(doc, 'legend-entry', 'g').map((e) => e.getAttribute('data-theory')).filter((t) => t !== null)
-    expect(legend).toEqual(['retrievalOverlapRS', 'criticalLoad'])
+    expect(legend).toEqual(['retrievalOverlapRS'])
   })
 
   it('are absent where the theory does not hold: Storkey rule, 0/1 neurons, measures without theory, or when turned off', () => {
@@ -108,10 +112,11 @@ describe('theory overlays', () => {
     expect(points[0]).toEqual([0, 1])
     for (const [x, y] of points) expect(y).toBe(curieWeissOverlap(x))
     expect(points.some(([x, y]) => x === 1 && y === 0)).toBe(true)
-    // Not at a load where the α → 0 result does not apply: there the finite-load RS overlap
-    // (0 at α = 0.1 for T = 0.5 and 1, both above T_M(0.1) = 0.315) is drawn instead.
+    // Not at a load where the α → 0 result does not apply; there the finite-load RS theory
+    // holds, but T = 0.5 and 1 are both above T_M(0.1) = 0.315: no retrieval state, so no line.
     const loaded = runSweep({ neurons: 100, patterns: 10, dynamics: { temperature: { values: [0.5, 1] }, maxSweeps: 4 }, trials: 2, seed: 7 })
-    expect(overlays(parseSvg(renderFigure(loaded, { measure: 'overlap' }))).map((g) => g.getAttribute('data-theory'))).toEqual(['retrievalOverlapRS'])
+    expect(loaded.rows.map((row) => row.theory.retrievalOverlapRS)).toEqual([0, 0])
+    expect(overlays(parseSvg(renderFigure(loaded, { measure: 'overlap' }))).map((g) => g.getAttribute('data-theory'))).toEqual([])
   })
 
   it('give the first parallel step only for sweeps that stop after one step', () => {
@@ -150,13 +155,15 @@ describe('theory overlays', () => {
     const expected = result.rows.filter((row) => row.values['dynamics.temperature'] === 0.4).map((row) => row.theory.retrievalTemperature)
     expect(lines.map((g) => g.getAttribute('data-series'))).toEqual(['0', '1', '2'])
     expect(new Set(expected).size).toBe(3)
-    // Three lines about 0.06 apart on a 0.6-wide axis: values only, none drawn over another.
+    // Three lines about 0.1 apart on a 0.6-wide axis: named in full when they fit, by value when not, never one over another.
     const annotations = byClass(doc, 'annotation').map((a) => {
       const width = richTextWidth(a.getAttribute('data-label')!, Number(a.getAttribute('font-size')))
       return { left: Number(a.getAttribute('x')) - width / 2, right: Number(a.getAttribute('x')) + width / 2, text: a.getAttribute('data-label')! }
     })
     expect(annotations.length).toBeGreaterThan(0)
-    for (const a of annotations) expect(a.text).toMatch(/^0\.\d+$/)
+    for (const a of annotations) expect(a.text).toMatch(/^(T_M = )?0\.\d+$/)
+    const narrow = byClass(parseSvg(renderFigure(result, { measure: 'success', x: 'dynamics.temperature', width: 320, height: 240 })), 'annotation')
+    expect(narrow.every((a) => /^0\.\d+$/.test(a.getAttribute('data-label')!))).toBe(true)
     for (let i = 1; i < annotations.length; i++) expect(annotations[i]!.left).toBeGreaterThan(annotations[i - 1]!.right)
     // On a load axis the same sweep gets no temperature line.
     expect(overlays(parseSvg(renderFigure(result, { measure: 'success', x: 'load' }))).some((g) => g.getAttribute('data-theory') === 'retrievalTemperature')).toBe(false)

@@ -5,7 +5,7 @@
  * while a large result is rendered.
  */
 import { createHash } from 'node:crypto'
-import { FigureOptionsError, renderFigure } from '../../figures/index.js'
+import { FigureOptionsError, renderParsedFigure } from '../../figures/index.js'
 import { resultToCsv, resultToJson, trajectoryCsv, trajectoryJson, type SweepResult } from '../../results/index.js'
 import { assemblePartial, decodeValue, makeProvenance, storedTrials } from '../../sweep/index.js'
 import { runtimeFacts } from '../../runtime/facts.js'
@@ -28,7 +28,7 @@ export default function render (task: RenderTask): RenderOutcome {
     return rendered(Buffer.from(text, 'utf8'))
   }
   try {
-    return rendered(Buffer.from(renderFigure(task.sources.map(read), task.options), 'utf8'))
+    return rendered(Buffer.from(renderParsedFigure(task.sources.map(read), task.options), 'utf8'))
   } catch (error) {
     if (error instanceof FigureOptionsError) return { kind: 'figure-misfit', issues: error.issues }
     throw error

@@ -21,7 +21,18 @@ export interface FigureCommandOptions {
   theory?: boolean
   width?: string
   height?: string
+  column?: string
+  widthMm?: string
+  heightMm?: string
+  fontSize?: string
   title?: string
+  subtitle?: string
+  footnote?: string
+  hideTitle?: boolean
+  hideSubtitle?: boolean
+  hideFootnote?: boolean
+  seriesName?: string[]
+  sweepName?: string[]
 }
 
 /** The flag that sets each option, for error messages. */
@@ -36,13 +47,31 @@ const FLAGS: Record<string, string> = {
   theory: '--no-theory',
   width: '--width',
   height: '--height',
-  title: '--title'
+  column: '--column',
+  widthMm: '--width-mm',
+  heightMm: '--height-mm',
+  fontSize: '--font-size',
+  title: '--title',
+  subtitle: '--subtitle',
+  footnote: '--footnote',
+  showTitle: '--hide-title',
+  showSubtitle: '--hide-subtitle',
+  showFootnote: '--hide-footnote',
+  seriesNames: '--series-name',
+  sweepNames: '--sweep-name'
 }
 
 export async function figure (io: CliIo, files: readonly string[], options: FigureCommandOptions): Promise<number> {
   const results = await Promise.all(files.map(readResultFile))
-  const { output, ...rest } = options
-  const figureOptions = Object.fromEntries(Object.entries(rest).filter(([, v]) => v !== undefined)) as FigureOptionsInput
+  const { output, hideTitle, hideSubtitle, hideFootnote, seriesName, sweepName, ...rest } = options
+  const figureOptions = Object.fromEntries(Object.entries({
+    ...rest,
+    showTitle: hideTitle === true ? false : undefined,
+    showSubtitle: hideSubtitle === true ? false : undefined,
+    showFootnote: hideFootnote === true ? false : undefined,
+    seriesNames: seriesName?.join('|'),
+    sweepNames: sweepName?.join('|')
+  }).filter(([, v]) => v !== undefined)) as FigureOptionsInput
   let svg: string
   try {
     svg = renderFigure(results, figureOptions)
