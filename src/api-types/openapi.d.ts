@@ -3498,12 +3498,34 @@ export interface operations {
                 errorBars?: "ci" | "se" | "sd" | "none";
                 /** @description Overlay theory where it applies to the measure, x and model (curves, per-point values or reference lines). Default: true. */
                 theory?: boolean;
-                /** @description Width in px. Default: 640. */
+                /** @description Width in px (screen figures). Default: 640, unless the size is given in mm. */
                 width?: number;
-                /** @description Height in px. Default: 440. */
+                /** @description Height in px (screen figures). Default: 440. */
                 height?: number;
+                /** @description Print size of a journal column: single (85 × 64 mm) or double (180 × 112 mm). widthMm and heightMm override either side. The figure is laid out in points and its type sized in pt. */
+                column?: "single" | "double";
+                /** @description Width in mm (print figures; not with width or height in px). */
+                widthMm?: number;
+                /** @description Height in mm (print figures). Default: three quarters of the width, or the column's height. */
+                heightMm?: number;
+                /** @description Size of the body type (tick labels, legend) in px, or in pt for a size in mm; titles and notes scale with it. Default: 12 px, 7.5 pt. */
+                fontSize?: number;
                 /** @description Title. Default: the sweep label, or the measure against x. */
                 title?: string;
+                /** @description Draw the title. Default: true. */
+                showTitle?: boolean;
+                /** @description Line under the title. Default: the model conditions every sweep shares (rule, cue, dynamics, trials). */
+                subtitle?: string;
+                /** @description Draw the subtitle. Default: true. */
+                showSubtitle?: boolean;
+                /** @description Note under the plot. Default: what the error bars are, what was left out, and the spec hash and engine. */
+                footnote?: string;
+                /** @description Draw the footnote. Default: true. */
+                showFootnote?: boolean;
+                /** @description Names of the series in the order drawn, separated by | (an empty name keeps the generated one). */
+                seriesNames?: string;
+                /** @description Overlays: a short name per sweep, in the order of the sweeps, separated by |; each series is named by it and its parameter values. Default: the sweep label, shortened. */
+                sweepNames?: string;
                 /** @description true: for a sweep that has not succeeded, the figure of the points finished so far (drawn afresh each time, never cached). A succeeded sweep answers its full figure. */
                 partial?: "true" | "false";
             };
@@ -3665,12 +3687,34 @@ export interface operations {
                 errorBars?: "ci" | "se" | "sd" | "none";
                 /** @description Overlay theory where it applies to the measure, x and model (curves, per-point values or reference lines). Default: true. */
                 theory?: boolean;
-                /** @description Width in px. Default: 640. */
+                /** @description Width in px (screen figures). Default: 640, unless the size is given in mm. */
                 width?: number;
-                /** @description Height in px. Default: 440. */
+                /** @description Height in px (screen figures). Default: 440. */
                 height?: number;
+                /** @description Print size of a journal column: single (85 × 64 mm) or double (180 × 112 mm). widthMm and heightMm override either side. The figure is laid out in points and its type sized in pt. */
+                column?: "single" | "double";
+                /** @description Width in mm (print figures; not with width or height in px). */
+                widthMm?: number;
+                /** @description Height in mm (print figures). Default: three quarters of the width, or the column's height. */
+                heightMm?: number;
+                /** @description Size of the body type (tick labels, legend) in px, or in pt for a size in mm; titles and notes scale with it. Default: 12 px, 7.5 pt. */
+                fontSize?: number;
                 /** @description Title. Default: the sweep label, or the measure against x. */
                 title?: string;
+                /** @description Draw the title. Default: true. */
+                showTitle?: boolean;
+                /** @description Line under the title. Default: the model conditions every sweep shares (rule, cue, dynamics, trials). */
+                subtitle?: string;
+                /** @description Draw the subtitle. Default: true. */
+                showSubtitle?: boolean;
+                /** @description Note under the plot. Default: what the error bars are, what was left out, and the spec hash and engine. */
+                footnote?: string;
+                /** @description Draw the footnote. Default: true. */
+                showFootnote?: boolean;
+                /** @description Names of the series in the order drawn, separated by | (an empty name keeps the generated one). */
+                seriesNames?: string;
+                /** @description Overlays: a short name per sweep, in the order of the sweeps, separated by |; each series is named by it and its parameter values. Default: the sweep label, shortened. */
+                sweepNames?: string;
             };
             header?: never;
             path?: never;
