@@ -31,6 +31,7 @@ def test_service_routes(client: MemsweepClient, server: str, admin_token: str) -
     assert "# TYPE" in MemsweepClient(server, admin_token).metrics()
 
 
+@pytest.mark.backend_agnostic
 def test_validate_theory_and_problems(client: MemsweepClient, spec: Spec) -> None:
     validation = client.validate(spec())
     assert validation["work"]["trials"] == 16
@@ -71,7 +72,8 @@ def test_follow_read_and_draw(client: MemsweepClient, spec: Spec, tmp_path: Path
     result = client.results(sweep["id"])
     assert [row["values"]["load"] for row in result["rows"]] == [0.05, 0.15]
     csv = client.results_csv(sweep["id"])
-    assert csv.splitlines()[0].startswith("point,load,")
+    header = csv.splitlines()[0].split(",")
+    assert header[0] == "sweepId" and "point" in header and "load" in header
     assert len(csv.strip().splitlines()) == 3
     trials = client.trials(sweep["id"])
     assert [len(point) for point in trials] == [8, 8]
@@ -101,16 +103,16 @@ def test_frames_keep_sweeps_apart_with_numbers_as_numbers(client: MemsweepClient
         client.wait(sweep["id"])
     frame = client.results_frame(by_load["id"], by_size["id"])
     assert len(frame) == 4
-    assert list(frame.columns[:2]) == ["sweep", "label"]
-    assert frame.groupby("sweep").size().to_dict() == {by_load["id"]: 2, by_size["id"]: 2}
-    assert frame.set_index("sweep").loc[by_size["id"], "label"].tolist() == ["west wing", "west wing"]
+    assert list(frame.columns[:2]) == ["sweepId", "label"]
+    assert frame.groupby("sweepId").size().to_dict() == {by_load["id"]: 2, by_size["id"]: 2}
+    assert frame.set_index("sweepId").loc[by_size["id"], "label"].tolist() == ["west wing", "west wing"]
     for column in ("load", "neurons", "trials", "success.rate", "overlap.mean"):
         assert pd.api.types.is_numeric_dtype(frame[column]), column
-    assert frame.loc[frame["sweep"] == by_load["id"], "load"].tolist() == [0.05, 0.15]
-    assert frame.loc[frame["sweep"] == by_size["id"], "neurons"].tolist() == [48, 80]
+    assert frame.loc[frame["sweepId"] == by_load["id"], "load"].tolist() == [0.05, 0.15]
+    assert frame.loc[frame["sweepId"] == by_size["id"], "neurons"].tolist() == [48, 80]
 
     trials = client.trials_frame(by_load["id"], by_size["id"])
-    assert trials.groupby("sweep").size().to_dict() == {by_load["id"]: 16, by_size["id"]: 8}
+    assert trials.groupby("sweepId").size().to_dict() == {by_load["id"]: 16, by_size["id"]: 8}
     assert pd.api.types.is_numeric_dtype(trials["load"])
 
 
@@ -179,10 +181,9 @@ def test_partial_results_cancel_resume_and_purge(client: MemsweepClient, spec: S
     assert gone.value.status == 404
 
 
+@pytest.mark.backend_agnostic
 def test_retries_honour_retry_after(token: str) -> None:
-    throttled = os.environ.get("MEMSWEEP_TEST_THROTTLED_SERVER")
-    if not throttled:
-        pytest.skip("the throttled server runs with the embedded backend only")
+    throttled = os.environ["MEMSWEEP_TEST_THROTTLED_SERVER"]
     waits: List[float] = []
 
     def sleep(seconds: float) -> None:
@@ -201,6 +202,7 @@ def test_retries_honour_retry_after(token: str) -> None:
     assert limited.value.status == 429
 
 
+@pytest.mark.backend_agnostic
 def test_command_line(server: str, token: str, spec: Spec, tmp_path: Path) -> None:
     spec_file = tmp_path / "spec.json"
     spec_file.write_text(requests.compat.json.dumps(spec(label="rooms of a port")))

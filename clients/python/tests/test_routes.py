@@ -8,10 +8,14 @@ import json
 import time
 from typing import Any, Dict, Set
 
+import pytest
+
 from conftest import REPO
 from memsweep_client import ROUTES, MemsweepClient
 from memsweep_client.client import _retry_after_seconds
 from memsweep_client.events import parse_event_stream
+
+pytestmark = pytest.mark.backend_agnostic
 
 HTTP_METHODS = {"get", "put", "post", "delete", "patch", "head", "options", "trace"}
 

@@ -359,8 +359,8 @@ class MemsweepClient:
     # -- data frames (the `pandas` extra) -----------------------------------------------
 
     def results_frame(self, *sweep_ids: str, partial: bool = False) -> Any:
-        """One pandas DataFrame of the sweeps' rows: a `sweep` and a `label` column, then one
-        row per grid point with the grid parameters as columns and numbers as numbers."""
+        """One pandas DataFrame of the sweeps' rows: `sweepId` and `label` columns, then one
+        row per grid point with the model parameters as columns and numbers as numbers."""
         from .frames import frame_of_sweeps
 
         return frame_of_sweeps(self, sweep_ids, trials=False, partial=partial)

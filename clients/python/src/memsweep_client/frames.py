@@ -15,7 +15,8 @@ if TYPE_CHECKING:
 
 
 def frame_of_sweeps(client: "MemsweepClient", sweep_ids: Sequence[str], *, trials: bool, partial: bool) -> Any:
-    """The sweeps' CSV results in one frame, each row marked by its sweep's id and label.
+    """The sweeps' CSV results in one frame, each row marked by its sweep's id (`sweepId`, the
+    first column, as the server's tables have it) and label.
 
     The server's CSV is already tidy (one row per grid point or per trial, the grid
     parameters and every measure as columns), so pandas parses numbers as numbers; the
@@ -27,10 +28,12 @@ def frame_of_sweeps(client: "MemsweepClient", sweep_ids: Sequence[str], *, trial
     for sweep_id in sweep_ids:
         label = client.get(sweep_id).get("label")
         frame = pd.read_csv(io.StringIO(client.results_csv(sweep_id, trials=trials, partial=partial)))
-        frame.insert(0, "sweep", sweep_id)
+        if "sweepId" in frame.columns:
+            frame.pop("sweepId")
+        frame.insert(0, "sweepId", sweep_id)
         frame.insert(1, "label", label)
         frames.append(frame)
     combined = pd.concat(frames, ignore_index=True, sort=False) if len(frames) > 1 else frames[0]
-    combined["sweep"] = combined["sweep"].astype("string")
+    combined["sweepId"] = combined["sweepId"].astype("string")
     combined["label"] = combined["label"].astype("string")
     return combined
