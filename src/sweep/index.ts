@@ -31,5 +31,10 @@ export { decidePoint, precisionHalfWidth, precisionOutcome, type PointDecision }
 export { pointRecords } from './assemble.js'
 export { readChunks, readEncodedResult, readResult, readStoredProgress, readTrials, READ_SLICE_CHUNKS, type EncodedResult, type StoredProgress } from './read.js'
 export { chunkCpuSeconds } from './chunk-cost.js'
+export {
+  CALLBACK_STATES, DEFAULT_CALLBACK_RETRY, CallbackDispatcher, callbackEvent, callbackRetryDelayMs,
+  type CallbackDelivery, type CallbackEvent, type CallbackOutbox, type CallbackRetryPolicy, type CallbackSender, type CallbackSettlement,
+  type CallbackState, type CallbackStatus, type CallbackDispatcherOptions
+} from './callbacks.js'
 export { submitToStore, type SubmitRequest, type SubmitOutcome } from './submit.js'
 export type { Annotation, StoredRange } from './store.js'

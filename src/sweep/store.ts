@@ -14,6 +14,7 @@ import type { NormalisedSpec } from '../spec/index.js'
 import type { Chunk, SweepPlan } from './plan.js'
 import type { SweepFailure, SweepProgress, SweepStatus } from './state.js'
 import type { StoredChunk } from './assemble.js'
+import type { CallbackOutbox, CallbackStatus } from './callbacks.js'
 
 export interface SweepRecord {
   id: string
@@ -39,6 +40,8 @@ export interface SweepRecord {
   notes: string | null
   /** Hash of the spec without its seed and label: sweeps that differ only in those are replicates of each other. */
   replicateKey: string
+  /** The completion callback, if one was asked for (src/sweep/callbacks.ts). */
+  callback: CallbackStatus | null
 }
 
 /** A sweep as the lifecycle stores it on submission. */
@@ -65,6 +68,8 @@ export interface SweepDraft {
    * is complete only when every one of them is closed. Absent: every point is closed.
    */
   openPoints?: number[]
+  /** POST an event here on each terminal state (src/sweep/callbacks.ts). */
+  callbackUrl?: string | null
 }
 
 /** What a caller may change of a stored sweep's description. */
@@ -140,7 +145,13 @@ export interface SweepPage {
   nextCursor: string | null
 }
 
-export interface SweepStore {
+/**
+ * Besides the moves below, the outbox of completion callbacks (CallbackOutbox): every move to
+ * a terminal state (succeed, stop, a create that reuses a finished result) arms the sweep's
+ * callback, if it has one, in the same atomic change: state pending, attempts 0, generation
+ * one more, due at once. Purge removes it with the sweep.
+ */
+export interface SweepStore extends CallbackOutbox {
   create (draft: SweepDraft, options?: CreateOptions): Promise<CreateOutcome>
   get (id: string): Promise<SweepRecord | null>
   list (query: ListQuery): Promise<SweepPage>

@@ -23,6 +23,7 @@ export interface SubmitRequest {
   extends?: string | null
   tags?: string[]
   notes?: string | null
+  callbackUrl?: string | null
 }
 
 export type SubmitOutcome =
@@ -62,6 +63,7 @@ export async function submitToStore (store: SweepStore, request: SubmitRequest):
     ...(request.extends === undefined ? {} : { extends: request.extends }),
     ...(request.tags === undefined ? {} : { tags: request.tags }),
     ...(request.notes === undefined ? {} : { notes: request.notes }),
+    ...(request.callbackUrl === undefined ? {} : { callbackUrl: request.callbackUrl }),
     ...(spec.precision === undefined ? {} : { openPoints: Array.from({ length: countPoints(spec) }, (_, point) => point) })
   }, {
     ...(request.idempotency === undefined ? {} : { idempotency: request.idempotency }),

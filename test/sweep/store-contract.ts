@@ -415,5 +415,69 @@ export function storeContract (name: string, factory: StoreFactory): void {
       await store.create(draft('p', { plan }))
       expect(await store.plan('p')).toEqual(plan)
     })
+
+    it('arms a completion callback when a sweep ends, leases it to one caller at a time, and records every attempt', async () => {
+      const url = 'https://lab.example/hooks/memsweep'
+      await store.create(draft('c1', { callbackUrl: url }))
+      await store.create(draft('c0'))
+      expect((await store.get('c1'))!.callback).toEqual({ url, state: 'waiting', attempts: 0, lastError: null })
+      expect((await store.get('c0'))!.callback).toBeNull()
+      expect(await store.claimCallbacks(now(), 30_000, 10)).toEqual([])
+
+      await recordAll(store, 'c1')
+      await recordAll(store, 'c0')
+      const finishedMs = now()
+      expect((await store.succeed('c1', new Uint8Array([1]), finishedMs)).changed).toBe(true)
+      await store.succeed('c0', new Uint8Array([1]), now())
+      // A repeated move arms nothing more.
+      expect((await store.succeed('c1', new Uint8Array([1]), now())).changed).toBe(false)
+      const at = now()
+      const delivery = { sweepId: 'c1', owner: 'ana', url, generation: 1, status: 'succeeded', finishedMs, attempts: 0 }
+      expect(await store.claimCallbacks(at, 30_000, 10)).toEqual([delivery])
+      expect((await store.get('c1'))!.callback!.state).toBe('pending')
+      // Leased: another instance does not get it, until the lease runs out (its sender died).
+      expect(await store.claimCallbacks(at + 1, 30_000, 10)).toEqual([])
+      expect(await store.claimCallbacks(at + 30_001, 30_000, 10)).toEqual([delivery])
+
+      const retryAt = at + 60_000
+      await store.settleCallback('c1', 1, { delivered: false, error: 'the receiver answered 500', retryAtMs: retryAt })
+      expect((await store.get('c1'))!.callback).toEqual({ url, state: 'pending', attempts: 1, lastError: 'the receiver answered 500' })
+      expect(await store.claimCallbacks(retryAt - 1, 30_000, 10)).toEqual([])
+      expect(await store.claimCallbacks(retryAt, 30_000, 10)).toEqual([{ ...delivery, attempts: 1 }])
+      await store.settleCallback('c1', 1, { delivered: true })
+      expect((await store.get('c1'))!.callback).toEqual({ url, state: 'delivered', attempts: 2, lastError: null })
+      // Settled: a late settle of the same event changes nothing, and nothing is due.
+      await store.settleCallback('c1', 1, { delivered: false, error: 'late', retryAtMs: null })
+      expect((await store.get('c1'))!.callback!.state).toBe('delivered')
+      expect(await store.claimCallbacks(retryAt + 10 ** 9, 30_000, 10)).toEqual([])
+
+      // A sweep stored succeeded at once (a reused result) has its event due at once.
+      const reusedMs = now()
+      await store.create(draft('c2', { callbackUrl: url, createdMs: reusedMs }), { reuseFrom: 'c1' })
+      expect(await store.claimCallbacks(reusedMs, 30_000, 10)).toEqual([{ sweepId: 'c2', owner: 'ana', url, generation: 1, status: 'succeeded', finishedMs: reusedMs, attempts: 0 }])
+    })
+
+    it('sends one event per terminal state: canceled, then after a resume succeeded; purge leaves none due', async () => {
+      const url = 'https://lab.example/hooks/memsweep'
+      await store.create(draft('c3', { callbackUrl: url }))
+      const canceledMs = now()
+      await store.stop('c3', 'canceled', null, canceledMs)
+      const [first] = await store.claimCallbacks(now(), 30_000, 10)
+      expect(first).toMatchObject({ sweepId: 'c3', generation: 1, status: 'canceled', finishedMs: canceledMs })
+      await store.settleCallback('c3', 1, { delivered: false, error: 'connection refused', retryAtMs: null })
+      expect((await store.get('c3'))!.callback).toEqual({ url, state: 'failed', attempts: 1, lastError: 'connection refused' })
+
+      expect((await store.reopen('c3', now())).changed).toBe(true)
+      expect((await store.get('c3'))!.callback!.state).toBe('waiting')
+      await recordAll(store, 'c3')
+      await store.succeed('c3', new Uint8Array([2]), now())
+      const [second] = await store.claimCallbacks(now(), 30_000, 10)
+      expect(second).toMatchObject({ sweepId: 'c3', generation: 2, status: 'succeeded', attempts: 0 })
+      // The first event's settle, arriving late, does not touch the second.
+      await store.settleCallback('c3', 1, { delivered: true })
+      expect((await store.get('c3'))!.callback).toEqual({ url, state: 'pending', attempts: 0, lastError: null })
+      expect(await store.purge('c3')).toBe(true)
+      expect(await store.claimCallbacks(now() + 10 ** 9, 30_000, 10)).toEqual([])
+    })
   })
 }

@@ -94,6 +94,23 @@ const MIGRATIONS: readonly string[] = [
     PRIMARY KEY (sweep_id, point)
   ) WITHOUT ROWID;
   CREATE INDEX point_keys_by_key ON point_keys (reuse_key, owner);
+  `,
+  // Version 4: the outbox of completion callbacks (src/sweep/callbacks.ts), one row per sweep
+  // that asked for one. A terminal move arms it in its own transaction; due_ms is also the
+  // lease of a claimed delivery.
+  `
+  CREATE TABLE sweep_callbacks (
+    sweep_id     TEXT PRIMARY KEY REFERENCES sweeps (id),
+    url          TEXT NOT NULL,
+    state        TEXT NOT NULL DEFAULT 'waiting',
+    attempts     INTEGER NOT NULL DEFAULT 0,
+    last_error   TEXT,
+    generation   INTEGER NOT NULL DEFAULT 0,
+    event_status TEXT,
+    finished_ms  INTEGER,
+    due_ms       INTEGER
+  ) WITHOUT ROWID;
+  CREATE INDEX sweep_callbacks_due ON sweep_callbacks (due_ms) WHERE state = 'pending';
   `
 ]
 

@@ -15,7 +15,8 @@ import type { NormalisedSpec } from '../../spec/index.js'
 import {
   ANY_OWNER, chunksPerPoint, CODEC_NAME, decodePlan, encodePlan, isTerminal, SWEEP_STATUSES,
   type Annotation, type Chunk, type ChunkOutcome, type CreateOptions, type CreateOutcome, type ListQuery, type StoredChunk, type StoredRange,
-  type SweepDraft, type SweepFailure, type SweepPage, type SweepPlan, type SweepRecord, type SweepStatus, type SweepStore, type Transition
+  type SweepDraft, type SweepFailure, type SweepPage, type SweepPlan, type SweepRecord, type SweepStatus, type SweepStore, type Transition,
+  type CallbackDelivery, type CallbackSettlement, type CallbackState
 } from '../../sweep/index.js'
 import { decodeCursor, encodeCursor } from './cursor.js'
 import { migrate } from './schema.js'
@@ -53,6 +54,10 @@ interface SweepRow {
   reused_points: number
   reused_trials: number
   open_points_json: string
+  callback_url: string | null
+  callback_state: CallbackState | null
+  callback_attempts: number | null
+  callback_error: string | null
 }
 
 /** An active sweep as stored: what the scheduler needs to pick it up after a restart. */
@@ -219,6 +224,10 @@ export class SqliteSweepStore implements SweepStore {
         // Its own copy of the data: either sweep can be removed without the other losing anything.
         this.#statements.copyResult.run(draft.id, draft.createdMs, reusedFrom)
         this.#statements.copyChunks.run(draft.id, draft.createdMs, reusedFrom)
+      }
+      if (draft.callbackUrl !== undefined && draft.callbackUrl !== null) {
+        this.#statements.insertCallback.run(draft.id, draft.callbackUrl)
+        if (done) this.#statements.armCallback.run({ id: draft.id, status: 'succeeded', now: draft.createdMs })
       }
       draft.reuseKeys.forEach((key, point) => this.#statements.insertPointKey.run(draft.id, point, draft.owner, key))
       if (options.idempotency !== undefined) {
@@ -459,6 +468,7 @@ export class SqliteSweepStore implements SweepStore {
       if (!this.#complete(id)) throw new Error(`Sweep ${id} is not complete: cannot store its result.`)
       this.#statements.markSucceeded.run(nowMs, nowMs, id)
       this.#statements.insertResult.run(id, CODEC_NAME, resultBody, nowMs)
+      this.#statements.armCallback.run({ id, status: 'succeeded', now: nowMs })
       this.#forget(id)
       return { changed: true, status: 'succeeded' }
     })()
@@ -470,13 +480,17 @@ export class SqliteSweepStore implements SweepStore {
 
   /** Ends an active sweep; its stored chunks stay (partial results, resume). */
   stopNow (id: string, to: 'failed' | 'canceled', failure: SweepFailure | null, nowMs: number): Transition {
-    const changes = this.#statements.markStopped.run({
-      id,
-      status: to,
-      finished_ms: nowMs,
-      error_kind: failure?.kind ?? null,
-      error_message: failure?.message ?? null
-    }).changes
+    const changes = this.#db.transaction((): number => {
+      const changed = this.#statements.markStopped.run({
+        id,
+        status: to,
+        finished_ms: nowMs,
+        error_kind: failure?.kind ?? null,
+        error_message: failure?.message ?? null
+      }).changes
+      if (changed === 1) this.#statements.armCallback.run({ id, status: to, now: nowMs })
+      return changed
+    })()
     if (changes === 1) {
       this.#forget(id)
       return { changed: true, status: to }
@@ -494,6 +508,7 @@ export class SqliteSweepStore implements SweepStore {
         if (active >= maxActive) return { changed: false, status: row.status, overCap: active }
       }
       this.#statements.reopen.run(id)
+      this.#statements.rewaitCallback.run(id)
       return { changed: true, status: 'queued' }
     })()
   }
@@ -544,12 +559,34 @@ export class SqliteSweepStore implements SweepStore {
         }
       }
       this.#statements.unlinkReusers.run(id)
-      for (const statement of [this.#statements.deleteChunks, this.#statements.deleteResult, this.#statements.deletePointKeys, this.#statements.deleteIdempotency, this.#statements.deleteSweep]) {
+      for (const statement of [this.#statements.deleteChunks, this.#statements.deleteResult, this.#statements.deletePointKeys, this.#statements.deleteIdempotency, this.#statements.deleteCallback, this.#statements.deleteSweep]) {
         statement.run(id)
       }
       this.#forget(id)
       return true
     })()
+  }
+
+  async claimCallbacks (nowMs: number, leaseMs: number, limit: number): Promise<CallbackDelivery[]> {
+    return this.#db.transaction((): CallbackDelivery[] => {
+      const rows = this.#statements.dueCallbacks.all(nowMs, limit) as Array<{
+        sweep_id: string, owner: string | null, url: string, generation: number, event_status: CallbackDelivery['status'], finished_ms: number, attempts: number
+      }>
+      for (const row of rows) this.#statements.leaseCallback.run(nowMs + leaseMs, row.sweep_id)
+      return rows.map((row) => ({
+        sweepId: row.sweep_id, owner: row.owner, url: row.url, generation: row.generation, status: row.event_status, finishedMs: row.finished_ms, attempts: row.attempts
+      }))
+    })()
+  }
+
+  async settleCallback (sweepId: string, generation: number, settlement: CallbackSettlement): Promise<void> {
+    if (settlement.delivered) {
+      this.#statements.settleCallback.run({ id: sweepId, generation, state: 'delivered', error: null, due: null })
+      return
+    }
+    this.#statements.settleCallback.run({
+      id: sweepId, generation, state: settlement.retryAtMs === null ? 'failed' : 'pending', error: settlement.error, due: settlement.retryAtMs
+    })
   }
 
   async storedRanges (owner: string | null, reuseKeys: readonly string[]): Promise<Map<string, StoredRange[]>> {
@@ -689,10 +726,18 @@ export class SqliteSweepStore implements SweepStore {
       reused: { points: row.reused_points, trials: row.reused_trials },
       tags: JSON.parse(row.tags_json) as string[],
       notes: row.notes,
-      replicateKey: row.replicate_key
+      replicateKey: row.replicate_key,
+      callback: row.callback_url === null || row.callback_url === undefined
+        ? null
+        : { url: row.callback_url, state: row.callback_state ?? 'waiting', attempts: row.callback_attempts ?? 0, lastError: row.callback_error }
     }
   }
 }
+
+/** A sweep row with its callback's columns (NULL when it has none). */
+const SWEEP_WITH_CALLBACK = `
+  SELECT s.*, c.url AS callback_url, c.state AS callback_state, c.attempts AS callback_attempts, c.last_error AS callback_error
+  FROM sweeps s LEFT JOIN sweep_callbacks c ON c.sweep_id = s.id`
 
 function prepareStatements (db: Database.Database) {
   return {
@@ -703,7 +748,23 @@ function prepareStatements (db: Database.Database) {
       VALUES (@id, @owner, @label, @spec_hash, @spec_json, @plan_json, @status, @created_ms, @started_ms, @finished_ms,
         @points_total, @trials_total, @chunks_total, @points_done, @trials_done, @chunks_done, @reused_from,
         @extends, @tags_json, @notes, @replicate_key, @reused_points, @reused_trials, @open_points_json)`),
-    getSweep: db.prepare('SELECT * FROM sweeps WHERE id = ?'),
+    getSweep: db.prepare(`${SWEEP_WITH_CALLBACK} WHERE s.id = ?`),
+    insertCallback: db.prepare('INSERT INTO sweep_callbacks (sweep_id, url) VALUES (?, ?)'),
+    armCallback: db.prepare(`
+      UPDATE sweep_callbacks SET state = 'pending', attempts = 0, last_error = NULL, generation = generation + 1,
+        event_status = @status, finished_ms = @now, due_ms = @now
+      WHERE sweep_id = @id`),
+    dueCallbacks: db.prepare(`
+      SELECT c.sweep_id, s.owner, c.url, c.generation, c.event_status, c.finished_ms, c.attempts
+      FROM sweep_callbacks c JOIN sweeps s ON s.id = c.sweep_id
+      WHERE c.state = 'pending' AND c.due_ms <= ? ORDER BY c.due_ms LIMIT ?`),
+    leaseCallback: db.prepare('UPDATE sweep_callbacks SET due_ms = ? WHERE sweep_id = ?'),
+    settleCallback: db.prepare(`
+      UPDATE sweep_callbacks SET state = @state, attempts = attempts + 1, last_error = @error, due_ms = @due
+      WHERE sweep_id = @id AND generation = @generation AND state = 'pending'`),
+    deleteCallback: db.prepare('DELETE FROM sweep_callbacks WHERE sweep_id = ?'),
+    // A resumed sweep waits for its next end; an event of the last one still due is sent all the same.
+    rewaitCallback: db.prepare("UPDATE sweep_callbacks SET state = 'waiting' WHERE sweep_id = ? AND state <> 'pending'"),
     status: db.prepare('SELECT status FROM sweeps WHERE id = ?'),
     planOf: db.prepare('SELECT plan_json, status FROM sweeps WHERE id = ?'),
     openPoints: db.prepare('SELECT open_points_json FROM sweeps WHERE id = ?'),
@@ -711,7 +772,7 @@ function prepareStatements (db: Database.Database) {
     reusedFrom: db.prepare('SELECT reused_from FROM sweeps WHERE id = ?'),
     // Newest first; `owner IS @owner` matches NULL (tokens off) as well as a name.
     list: db.prepare(`
-      SELECT * FROM sweeps
+      ${SWEEP_WITH_CALLBACK}
       WHERE (@any_owner = 1 OR owner IS @owner)
         AND (@status IS NULL OR status = @status)
         AND (@tag IS NULL OR EXISTS (SELECT 1 FROM json_each(tags_json) WHERE value = @tag))

@@ -44,6 +44,8 @@ export interface KeyLayout {
   active: string
   /** Sorted set: id → createdAt ms of sweeps whose chunk jobs are not yet known to be enqueued. */
   unenqueued: string
+  /** Sorted set: sweep id → ms when its completion callback is due (or its claim's lease ends). */
+  callbacksDue: string
   /** Pub/sub channel: ids of sweeps whose running chunks must stop (canceled or failed). */
   stopChannel: string
   /** String: a random id shared by every process; its loss means Redis lost its data. */
@@ -65,6 +67,7 @@ export function keyLayout (prefix: string): KeyLayout {
     counts: `${prefix}:counts`,
     active: `${prefix}:active`,
     unenqueued: `${prefix}:unenqueued`,
+    callbacksDue: `${prefix}:callbacks:due`,
     stopChannel: `${prefix}:stop`,
     epoch: `${prefix}:epoch`,
     sweep: (id) => ({

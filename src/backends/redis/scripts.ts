@@ -26,6 +26,21 @@ local function release_active(record, active)
 end
 `
 
+/**
+ * Arms a sweep's completion callback on a terminal move (src/sweep/callbacks.ts): the event
+ * of this end is due now, its attempts start again, its generation is one more.
+ */
+const ARM_CALLBACK = `
+local function arm_callback(record, due, id, status, now_ms)
+  local url = redis.call('HGET', record, 'callbackUrl')
+  if not url or url == '' then return end
+  redis.call('HSET', record, 'callbackState', 'pending', 'callbackAttempts', 0, 'callbackError', '',
+    'callbackStatus', status, 'callbackFinishedMs', now_ms)
+  redis.call('HINCRBY', record, 'callbackGen', 1)
+  redis.call('ZADD', due, now_ms, id)
+end
+`
+
 /** HSET of a flat [field, value, ...] list, in slices: unpack() of a long list overflows Lua's stack. */
 const SET_FIELDS = `
 local function set_fields(key, flat)
@@ -51,14 +66,15 @@ end
  * Creates a sweep record with its stored plan, or answers with the sweep an idempotency key
  * already names, or refuses when the owner is at the active cap (checked here, atomically).
  * KEYS: record, index, owner index, counts, idempotency, unenqueued, points-left, reuse source
- *       result, result, plan, active, reuse source chunks, chunks, reuse source plan, open points
+ *       result, result, plan, active, reuse source chunks, chunks, reuse source plan, open points,
+ *       callbacks due
  * ARGV: use idempotency ('1'/'0'), idempotency value, idempotency ttl s, record fields (JSON flat
  *       list), index member, createdAt ms, points-left (JSON flat list), reuse source id ('' =
  *       none), retention s, id, plan (JSON flat list), max active ('' = no cap), owner JSON,
  *       open points (JSON flat list point → planned extent)
  * Returns {'existing', idempotency value} | {'over-cap', active} | {'queued', ''} | {'succeeded', ''} (reused).
  */
-export const SUBMIT = SET_FIELDS + `
+export const SUBMIT = SET_FIELDS + ARM_CALLBACK + `
 if ARGV[1] == '1' then
   local existing = redis.call('GET', KEYS[5])
   if existing then return {'existing', existing} end
@@ -83,6 +99,7 @@ if reusing then
     'reusedPoints', redis.call('HGET', KEYS[1], 'pointsTotal'),
     'reusedTrials', redis.call('HGET', KEYS[1], 'trialsTotal'))
   for _, key in ipairs({KEYS[1], KEYS[9], KEYS[10], KEYS[13]}) do redis.call('EXPIRE', key, ARGV[9]) end
+  arm_callback(KEYS[1], KEYS[16], ARGV[10], 'succeeded', ARGV[6])
 else
   redis.call('HSET', KEYS[1], 'status', status, 'enqueued', '0')
   set_fields(KEYS[7], cjson.decode(ARGV[7]))
@@ -254,11 +271,11 @@ return {1, is_complete(KEYS[1], KEYS[2]) and 1 or 0}
  * Stores the assembled result and marks the sweep succeeded: only once, only from an active
  * sweep whose every chunk is stored. The chunks stay (they hold the trial records) and
  * start their retention countdown with the record.
- * KEYS: record, result, counts, reuse, chunks, chunk-trials, points-left, plan, active, open points.
+ * KEYS: record, result, counts, reuse, chunks, chunk-trials, points-left, plan, active, open points, callbacks due.
  * ARGV: encoded result, now ms, retention s, id.
  * Returns {1, 'succeeded'} when this call made the change, else {0, status} ('' if gone).
  */
-export const SUCCEED = RELEASE_ACTIVE + IS_COMPLETE + `
+export const SUCCEED = RELEASE_ACTIVE + IS_COMPLETE + ARM_CALLBACK + `
 local status = redis.call('HGET', KEYS[1], 'status')
 if not status then return {0, ''} end
 if status ~= 'queued' and status ~= 'running' then return {0, status} end
@@ -274,17 +291,18 @@ redis.call('SET', KEYS[4], ARGV[4], 'EX', ARGV[3])
 redis.call('DEL', KEYS[6], KEYS[7])
 for _, key in ipairs({KEYS[1], KEYS[5], KEYS[8]}) do redis.call('EXPIRE', key, ARGV[3]) end
 release_active(KEYS[1], KEYS[9])
+arm_callback(KEYS[1], KEYS[11], ARGV[4], 'succeeded', ARGV[2])
 return {1, 'succeeded'}
 `
 
 /**
  * Ends a queued or running sweep as canceled or failed; a no-op on a finished one. Its
  * keys, stored chunks included, start their retention countdown.
- * KEYS: record, counts, chunks, chunk-trials, points-left, unenqueued, plan, active, open points.
+ * KEYS: record, counts, chunks, chunk-trials, points-left, unenqueued, plan, active, open points, callbacks due.
  * ARGV: new status, now ms, error JSON ('' = none), retention s, id.
  * Returns {1, new status} when this call made the change, else {0, status} ('' if gone).
  */
-export const STOP = RELEASE_ACTIVE + `
+export const STOP = RELEASE_ACTIVE + ARM_CALLBACK + `
 local status = redis.call('HGET', KEYS[1], 'status')
 if not status then return {0, ''} end
 if status ~= 'queued' and status ~= 'running' then return {0, status} end
@@ -295,6 +313,7 @@ redis.call('HINCRBY', KEYS[2], ARGV[1], 1)
 redis.call('ZREM', KEYS[6], ARGV[5])
 for _, key in ipairs({KEYS[1], KEYS[3], KEYS[4], KEYS[5], KEYS[7], KEYS[9]}) do redis.call('EXPIRE', key, ARGV[4]) end
 release_active(KEYS[1], KEYS[8])
+arm_callback(KEYS[1], KEYS[10], ARGV[5], ARGV[1], ARGV[2])
 return {1, ARGV[1]}
 `
 
@@ -315,12 +334,45 @@ if ARGV[3] ~= '' then
 end
 redis.call('HSET', KEYS[1], 'status', 'queued', 'finishedMs', '', 'error', '', 'enqueued', '0')
 redis.call('HINCRBY', KEYS[1], 'run', 1)
+local callback = redis.call('HGET', KEYS[1], 'callbackState')
+if callback and callback ~= '' and callback ~= 'pending' then redis.call('HSET', KEYS[1], 'callbackState', 'waiting') end
 redis.call('HINCRBY', KEYS[2], status, -1)
 redis.call('HINCRBY', KEYS[2], 'queued', 1)
 for i = 1, 8 do if i ~= 2 and i ~= 7 then redis.call('PERSIST', KEYS[i]) end end
 redis.call('HINCRBY', KEYS[7], redis.call('HGET', KEYS[1], 'owner') or 'null', 1)
 redis.call('ZADD', KEYS[9], ARGV[1], ARGV[2])
 return {1, 'queued'}
+`
+
+/**
+ * Leases one due completion callback to the caller: only if it is still due (another API
+ * instance has not claimed it) and pending; a stale entry (the sweep gone or its event
+ * settled) is dropped.
+ * KEYS: callbacks due, record. ARGV: id, now ms, lease end ms.
+ * Returns [owner JSON, url, generation, status, finished ms, attempts], or nil.
+ */
+export const CLAIM_CALLBACK = `
+local score = redis.call('ZSCORE', KEYS[1], ARGV[1])
+if not score or tonumber(score) > tonumber(ARGV[2]) then return nil end
+if redis.call('HGET', KEYS[2], 'callbackState') ~= 'pending' then
+  redis.call('ZREM', KEYS[1], ARGV[1])
+  return nil
+end
+redis.call('ZADD', KEYS[1], ARGV[3], ARGV[1])
+return redis.call('HMGET', KEYS[2], 'owner', 'callbackUrl', 'callbackGen', 'callbackStatus', 'callbackFinishedMs', 'callbackAttempts')
+`
+
+/**
+ * Records an attempt at a callback of this generation: delivered, failed for good, or pending
+ * again until the retry time; ignored for an older generation or a settled event.
+ * KEYS: callbacks due, record. ARGV: id, generation, new state, error ('' = none), retry at ms ('' = none).
+ */
+export const SETTLE_CALLBACK = `
+if redis.call('HGET', KEYS[2], 'callbackGen') ~= ARGV[2] or redis.call('HGET', KEYS[2], 'callbackState') ~= 'pending' then return 0 end
+redis.call('HSET', KEYS[2], 'callbackState', ARGV[3], 'callbackError', ARGV[4])
+redis.call('HINCRBY', KEYS[2], 'callbackAttempts', 1)
+if ARGV[5] == '' then redis.call('ZREM', KEYS[1], ARGV[1]) else redis.call('ZADD', KEYS[1], ARGV[5], ARGV[1]) end
+return 1
 `
 
 /**
@@ -373,5 +425,7 @@ export const SCRIPTS = {
   reopen: new LuaScript('reopen', REOPEN),
   purge: new LuaScript('purge', PURGE),
   succeed: new LuaScript('succeed', SUCCEED),
+  claimCallback: new LuaScript('claimCallback', CLAIM_CALLBACK),
+  settleCallback: new LuaScript('settleCallback', SETTLE_CALLBACK),
   stop: new LuaScript('stop', STOP)
 }

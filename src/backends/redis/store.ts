@@ -10,7 +10,8 @@ import type { NormalisedSpec } from '../../spec/index.js'
 import {
   ANY_OWNER, chunksPerPoint, SWEEP_STATUSES,
   type Annotation, type Chunk, type ChunkOutcome, type CreateOptions, type CreateOutcome, type IdempotencyBinding, type ListQuery, type StoredChunk,
-  type StoredRange, type SweepDraft, type SweepFailure, type SweepPage, type SweepPlan, type SweepRecord, type SweepStatus, type SweepStore, type Transition
+  type StoredRange, type SweepDraft, type SweepFailure, type SweepPage, type SweepPlan, type SweepRecord, type SweepStatus, type SweepStore, type Transition,
+  type CallbackDelivery, type CallbackSettlement, type CallbackState
 } from '../../sweep/index.js'
 import { InvalidCursorError } from '../errors.js'
 import { idFromIndexMember, indexMember, isIndexMember, type KeyLayout } from './keys.js'
@@ -72,7 +73,8 @@ export class RedisSweepStore implements SweepStore {
       'reusedPoints', '0',
       'reusedTrials', '0',
       // Purge removes the key's binding to this sweep, found from here.
-      'idempotencyRef', options.idempotency === undefined ? '' : idempotencyKey
+      'idempotencyRef', options.idempotency === undefined ? '' : idempotencyKey,
+      ...(draft.callbackUrl === undefined || draft.callbackUrl === null ? [] : ['callbackUrl', draft.callbackUrl, 'callbackState', 'waiting', 'callbackAttempts', '0', 'callbackGen', '0'])
     ]
     const pointsLeft: string[] = []
     for (const [point, count] of perPoint) pointsLeft.push(String(point), String(count))
@@ -84,7 +86,7 @@ export class RedisSweepStore implements SweepStore {
     const reply = await SCRIPTS.submit.run(this.redis, [
       keys.record, this.keys.index, owner === null ? this.keys.index : this.keys.ownerIndex(owner), this.keys.counts,
       idempotencyKey, this.keys.unenqueued, keys.pointsLeft, source.result, keys.result, keys.plan, this.keys.active,
-      source.chunks, keys.chunks, source.plan, keys.open
+      source.chunks, keys.chunks, source.plan, keys.open, this.keys.callbacksDue
     ], [
       options.idempotency === undefined ? '0' : '1',
       JSON.stringify({ specHash: draft.specHash, sweepId: draft.id } satisfies IdempotencyBinding),
@@ -240,7 +242,7 @@ export class RedisSweepStore implements SweepStore {
     const specHash = await this.redis.hget(keys.record, 'specHash')
     if (owner === null || specHash === null) return { changed: false, status: '' }
     const [changed, status] = await SCRIPTS.succeed.run(this.redis,
-      [keys.record, keys.result, this.keys.counts, this.keys.reuse(JSON.parse(owner) as string | null, specHash), keys.chunks, keys.chunkTrials, keys.pointsLeft, keys.plan, this.keys.active, keys.open],
+      [keys.record, keys.result, this.keys.counts, this.keys.reuse(JSON.parse(owner) as string | null, specHash), keys.chunks, keys.chunkTrials, keys.pointsLeft, keys.plan, this.keys.active, keys.open, this.keys.callbacksDue],
       [asBuffer(resultBody), nowMs, this.retentionSeconds, id]) as [number, string]
     return { changed: changed === 1, status: status as Transition['status'] }
   }
@@ -249,7 +251,7 @@ export class RedisSweepStore implements SweepStore {
   async stop (id: string, to: 'canceled' | 'failed', failure: SweepFailure | null, nowMs: number): Promise<Transition> {
     const keys = this.keys.sweep(id)
     const [changed, status] = await SCRIPTS.stop.run(this.redis,
-      [keys.record, this.keys.counts, keys.chunks, keys.chunkTrials, keys.pointsLeft, this.keys.unenqueued, keys.plan, this.keys.active, keys.open],
+      [keys.record, this.keys.counts, keys.chunks, keys.chunkTrials, keys.pointsLeft, this.keys.unenqueued, keys.plan, this.keys.active, keys.open, this.keys.callbacksDue],
       [to, nowMs, failure === null ? '' : JSON.stringify(failure), this.retentionSeconds, id]) as [number, string]
     return { changed: changed === 1, status: status as Transition['status'] }
   }
@@ -306,6 +308,7 @@ export class RedisSweepStore implements SweepStore {
       if (reuseKey !== undefined) pipeline.srem(this.keys.pointChunks(record.owner, reuseKey), `${id}:${chunk.index}:${chunk.firstTrial}:${chunk.count}`)
     }
     pipeline.zrem(this.keys.unenqueued, id)
+    pipeline.zrem(this.keys.callbacksDue, id)
     await pipeline.exec()
     await this.#deleteIfPointsAt(this.keys.reuse(record.owner, record.specHash), id)
     if (idempotencyRef !== null && idempotencyRef !== '') await this.#deleteIfPointsAt(idempotencyRef, id)
@@ -321,6 +324,33 @@ export class RedisSweepStore implements SweepStore {
       try { names = (JSON.parse(value) as { sweepId?: unknown }).sweepId === id } catch { names = false }
     }
     if (names) await this.redis.del(key)
+  }
+
+  async claimCallbacks (nowMs: number, leaseMs: number, limit: number): Promise<CallbackDelivery[]> {
+    const due = await this.redis.zrangebyscore(this.keys.callbacksDue, '-inf', nowMs, 'LIMIT', 0, limit)
+    const claimed: CallbackDelivery[] = []
+    for (const sweepId of due) {
+      const reply = await SCRIPTS.claimCallback.run(this.redis, [this.keys.callbacksDue, this.keys.sweep(sweepId).record], [sweepId, nowMs, nowMs + leaseMs]) as Array<string | null> | null
+      if (reply === null) continue
+      const [owner, url, generation, status, finishedMs, attempts] = reply
+      claimed.push({
+        sweepId,
+        owner: JSON.parse(owner ?? 'null') as string | null,
+        url: url ?? '',
+        generation: Number(generation),
+        status: status as CallbackDelivery['status'],
+        finishedMs: Number(finishedMs),
+        attempts: Number(attempts ?? 0)
+      })
+    }
+    return claimed
+  }
+
+  async settleCallback (sweepId: string, generation: number, settlement: CallbackSettlement): Promise<void> {
+    const [state, error, retryAt] = settlement.delivered
+      ? ['delivered', '', '']
+      : [settlement.retryAtMs === null ? 'failed' : 'pending', settlement.error, settlement.retryAtMs === null ? '' : String(settlement.retryAtMs)]
+    await SCRIPTS.settleCallback.run(this.redis, [this.keys.callbacksDue, this.keys.sweep(sweepId).record], [sweepId, String(generation), state, error, retryAt])
   }
 
   async reopen (id: string, nowMs: number, maxActive?: number): Promise<Transition & { overCap?: number }> {
@@ -491,7 +521,15 @@ export function parseRecord (fields: Record<string, string> | null | undefined):
     reused: { points: Number(fields.reusedPoints ?? 0), trials: Number(fields.reusedTrials ?? 0) },
     tags: JSON.parse(fields.tags ?? '[]') as string[],
     notes: JSON.parse(fields.notes ?? 'null') as string | null,
-    replicateKey: fields.replicateKey ?? ''
+    replicateKey: fields.replicateKey ?? '',
+    callback: fields.callbackUrl === undefined || fields.callbackUrl === ''
+      ? null
+      : {
+          url: fields.callbackUrl,
+          state: (fields.callbackState ?? 'waiting') as CallbackState,
+          attempts: Number(fields.callbackAttempts ?? 0),
+          lastError: fields.callbackError === undefined || fields.callbackError === '' ? null : fields.callbackError
+        }
   }
 }
 
