@@ -262,7 +262,7 @@ describe('web page in Chromium', () => {
     expect(record.status).toBe('succeeded')
     expect(spec.seed).not.toBe(original.seed)
     expect({ ...spec, seed: 0, label: '' }).toEqual({ ...original, seed: 0, label: '' })
-    expect(record.label).toBe(`Room codes, Hebbian rule · seed ${String(spec.seed)}`)
+    expect(record.label).toBe(`Room codes, Hebbian rule (seed ${String(spec.seed)})`)
     await page.close()
   })
 
@@ -286,6 +286,76 @@ describe('web page in Chromium', () => {
     await page.close()
   })
 
+  it('refines a sweep from its page: the figure so far while it runs, tags, an extension; the list shows model, seed, tags and curve', async () => {
+    gate.hold()
+    const spec = { label: 'Rooms of the west wing', neurons: 120, load: { values: [0.06, 0.1, 0.14, 0.18] }, trials: 40, seed: 5 }
+    const id = await submit(open, spec)
+    gate.release(2)
+    await waitFor(open, id, (r) => r.progress.pointsDone >= 2)
+    const page = await context.newPage()
+    await page.goto(`${open.url}/#/sweeps/${id}`)
+    // Drawn from the finished points, marked partial, while the rest wait at the gate.
+    const badge = page.locator('.live-figure .partial-badge')
+    await badge.filter({ hasText: /^partial · [23] of 4 points$/ }).waitFor()
+    await expect.poll(async () => await page.evaluate<boolean>("(() => { const img = document.querySelector('.partial-figure img'); return img !== null && img.src.startsWith('blob:') && img.complete && img.naturalWidth > 0 })()"), POLL).toBe(true)
+    expect(await page.locator('.partial-figure img').getAttribute('alt')).toMatch(/^Partial figure, [23] of 4 grid points/)
+    await shot(page, 'sweep-partial-figure')
+    gate.open()
+    await page.locator('.page-head .status[data-status="succeeded"]').waitFor()
+    await page.locator('img.figure-image[src^="blob:"]').waitFor()
+    expect(await page.locator('.live-figure').count()).toBe(0)
+    // The table: the varied parameter pinned, theory headers that say which theory, ± that says SD or SE, a column chooser.
+    expect(await page.locator('table.results thead th.pinned').allTextContents()).toEqual(['load α = P/N'])
+    const critical = page.locator('table.results thead th.col-theory', { hasText: 'critical load α_c (MF)' })
+    expect(await critical.getAttribute('title')).toMatch(/^Mean-field theory \(the N → ∞ limit\)/)
+    expect(await page.locator('table.results thead th', { hasText: 'final overlap ± SD' }).count()).toBe(1)
+    const withSe = page.locator('table.results thead th[data-col="overlap-se"]')
+    expect(await withSe.isHidden()).toBe(true)
+    await page.locator('.column-chooser > summary').click()
+    await page.getByRole('checkbox', { name: 'final overlap ± SE' }).check()
+    await withSe.waitFor()
+    await shot(page, 'sweep-results-table')
+
+    await page.locator('details.describe > summary').click()
+    await page.getByLabel('Tags').fill('west-wing, draft')
+    await page.getByRole('button', { name: 'Save' }).click()
+    await page.locator('.sweep-subhead .tags a', { hasText: 'west-wing' }).waitFor()
+    expect((await open.queue.get(id))?.tags).toEqual(['west-wing', 'draft'])
+
+    await page.locator('details.refine > summary').click()
+    await page.getByLabel('Trials per point').fill('60')
+    await page.getByLabel('Add values to').selectOption('load')
+    await page.getByLabel('New values').fill('0.22')
+    await shot(page, 'sweep-extend-form')
+    await page.getByRole('button', { name: 'Extend sweep' }).click()
+    await page.waitForURL((url) => url.hash.startsWith('#/sweeps/') && !url.hash.endsWith(id))
+    const child = decodeURIComponent(page.url().split('#/sweeps/')[1] ?? '')
+    const extended = await waitFor(open, child, (r) => TERMINAL_STATUSES.has(r.status))
+    expect(extended).toMatchObject({ status: 'succeeded', extends: id, reused: { points: 0, trials: 160 } })
+    await page.locator('.sweep-subhead', { hasText: 'Extends' }).waitFor()
+
+    await page.goto(`${open.url}/#/`)
+    const entry = page.locator(`li.sweep-entry[data-id="${id}"]`)
+    await entry.locator('.model-line', { hasText: 'N 120 · Hebbian · α 0.06–0.18 (4)' }).waitFor()
+    expect(await entry.locator('.seed').textContent()).toBe('seed 5')
+    expect(await entry.locator('.tags a').allTextContents()).toEqual(['west-wing', 'draft'])
+    await entry.locator('.entry-thumb svg.thumb path.thumb-line').first().waitFor()
+    await shot(page, 'list-entries')
+
+    // Filters by tag go to the server and into the URL.
+    await page.fill('#tag-filter', 'draft')
+    await expect.poll(async () => new URL(page.url()).hash, POLL).toBe('#/?tag=draft')
+    await expect.poll(async () => await page.locator('.sweep-list > li').evaluateAll((items) => items.map((li) => li.getAttribute('data-id')).sort()), POLL).toEqual([id, child].sort())
+
+    // Removing a finished sweep asks first, then it is gone for good.
+    await page.goto(`${open.url}/#/sweeps/${child}`)
+    await page.getByRole('button', { name: 'Remove…' }).click()
+    await page.getByRole('dialog', { name: 'Remove this sweep for good?' }).getByRole('button', { name: 'Remove for good' }).click()
+    await page.waitForURL((url) => url.hash === '#/')
+    expect(await open.queue.get(child)).toBeNull()
+    await page.close()
+  })
+
   it('cancels a running sweep from the list, only after confirmation', async () => {
     gate.hold()
     const id = await submit(open, { ...example('room-capacity'), label: 'Large capacity sweep to cancel' })
@@ -300,7 +370,7 @@ describe('web page in Chromium', () => {
     await page.keyboard.press('Enter')
     expect(await page.evaluate<string>('document.activeElement.id')).toBe('main')
     expect(new URL(page.url()).hash).toBe('')
-    const row = page.locator(`tr[data-id="${id}"]`)
+    const row = page.locator(`li.sweep-entry[data-id="${id}"]`)
     await row.locator('.status[data-status="running"]').waitFor()
     // Progress arrives live and says how long is left.
     await row.locator('.bar-text', { hasText: 'left' }).waitFor()
@@ -325,9 +395,9 @@ describe('web page in Chromium', () => {
 
     // The status filter asks the server for one status only.
     await page.selectOption('#status-filter', 'canceled')
-    await expect.poll(async () => await page.locator('table.sweeps tbody tr').evaluateAll((rows) => rows.map((r) => r.getAttribute('data-status'))), POLL).toEqual(['canceled'])
+    await expect.poll(async () => await page.locator('.sweep-list > li').evaluateAll((rows) => rows.map((r) => r.getAttribute('data-status'))), POLL).toEqual(['canceled'])
     await page.selectOption('#status-filter', '')
-    await page.locator('table.sweeps tbody tr[data-status="succeeded"] >> nth=0').waitFor()
+    await page.locator('.sweep-list > li[data-status="succeeded"] >> nth=0').waitFor()
 
     await page.setViewportSize(NARROW)
     await shot(page, 'list-narrow')
@@ -359,14 +429,14 @@ describe('web page in Chromium', () => {
     await page.fill('#token-input', token)
     await dialog.getByRole('button', { name: 'Use token' }).click()
 
-    const row = page.locator(`tr[data-id="${id}"]`)
+    const row = page.locator(`li.sweep-entry[data-id="${id}"]`)
     await row.waitFor()
-    expect((await row.locator('td.col-owner').textContent())?.trim()).toBe('ada')
+    expect((await row.locator('.entry-owner').textContent())?.trim()).toBe('· ada')
     expect(await page.locator('#token-state').isVisible()).toBe(true)
     await shot(page, 'list-with-owner', false)
 
     // The sweep page reads everything with the token too (status, results, figure).
-    await row.getByRole('link').click()
+    await row.locator('a.entry-label').click()
     await page.locator('img.figure-image[src^="blob:"]').waitFor()
 
     expect(await page.evaluate<string | null>('sessionStorage.getItem("memsweep.token")')).toBe(token)

@@ -4,10 +4,13 @@
  */
 import { readFileSync } from 'node:fs'
 import { describe, expect, it } from 'vitest'
-import { curvesOf, extentOf, linearTicks, logTicks, measureAt } from '../../web/src/curves.js'
+import { curvesOf, extentOf, linearTicks, logTicks, measureAt, thumbnailOf } from '../../web/src/curves.js'
+import { rerunLabel } from '../../web/src/labels.js'
 import { EventStreamParser } from '../../web/src/event-stream.js'
 import { formatBytes, formatDuration, formatPercent, formatValue } from '../../web/src/format.js'
+import { modelLine, rangeText } from '../../web/src/model-line.js'
 import { parseRoute, routeHref, type Route } from '../../web/src/router.js'
+import { theoryKind, theoryName, theoryTooltip } from '../../web/src/theory-names.js'
 import { assignIssues, axisModeOf, convertAxis, getAt, lineAndColumn, lineOfPath, parseList, parseNumber, setAt } from '../../web/src/spec-paths.js'
 import type { ResultRow, SweepResult } from '../../web/src/types.js'
 
@@ -114,6 +117,8 @@ describe('routes', () => {
   it('reads every page from the fragment and writes it back', () => {
     const routes: Route[] = [
       { page: 'list' },
+      { page: 'list', tag: 'west wing', q: 'draft 2' },
+      { page: 'list', replicatesOf: 'a1b2-c3' },
       { page: 'sweep', id: 'a1b2-c3' },
       { page: 'submit', from: null },
       { page: 'submit', from: 'room-capacity' },
@@ -150,6 +155,55 @@ function row (values: Record<string, number>, rate: number, overlap: number): Re
 
 /** The provenance every result carries; the curves never read it. */
 const PROVENANCE: SweepResult['provenance'] = { specHash: 'h', engineVersion: '0.0.0', node: 'v20', v8: '11', rng: 'test', pointKeying: 'test', tieRule: 'keep' }
+
+describe('what the list shows of a sweep', () => {
+  it('writes the model in one line: size, rule, load range, cue, other axes, trials', () => {
+    const spec = {
+      version: 2,
+      coding: 'pm1',
+      neurons: { values: [200, 400, 800] },
+      load: { values: [0.02, 0.04, 0.06, 0.24] },
+      rule: { kind: 'hebbian', selfCoupling: false },
+      cue: { kind: 'flip', fraction: 0.05 },
+      dynamics: { update: 'async-random', temperature: 0, maxSweeps: 50, burnIn: 0 },
+      trials: 100,
+      seed: 7
+    }
+    expect(modelLine(spec)).toBe('N 200–800 (3) · Hebbian · α 0.02–0.24 (4) · cue 5 % flipped · 100 trials')
+    const noisy = { ...spec, neurons: 500, rule: { kind: 'storkey' }, cue: { kind: 'flip', fraction: { values: [0, 0.1, 0.2] } }, dynamics: { temperature: 0.2 }, load: 0.1, trials: 2000 }
+    expect(modelLine(noisy)).toBe('N 500 · Storkey · α 0.1 · cue 0–0.2 (3) flip · T 0.2 · 2,000 trials')
+    expect(rangeText(['hebbian', 'storkey'])).toBe('hebbian / storkey')
+  })
+
+  it('labels a re-run with its seed, replacing an earlier seed note of either form', () => {
+    expect(rerunLabel('West wing', 8)).toBe('West wing (seed 8)')
+    expect(rerunLabel('West wing (seed 8)', 12)).toBe('West wing (seed 12)')
+    expect(rerunLabel('West wing · seed 8', 12)).toBe('West wing (seed 12)')
+    expect(rerunLabel(null, 3)).toBe('Untitled sweep (seed 3)')
+  })
+
+  it('draws the thumbnail along the axis with the most values, one line per other value, x ascending', () => {
+    const rows = [0.2, 0.1, 0.3].flatMap((load) => [100, 200].map((neurons) => row({ neurons, load }, 1 - load, 0.9)))
+    const thumb = thumbnailOf({ rows } as unknown as SweepResult)
+    expect(thumb).toMatchObject({ x: 'load', xMin: 0.1, xMax: 0.3 })
+    expect(thumb?.lines).toHaveLength(2)
+    expect(thumb?.lines[0]?.map(([x]) => x)).toEqual([0.1, 0.2, 0.3])
+    expect(thumbnailOf({ rows: rows.slice(0, 1) } as unknown as SweepResult)).toBeNull()
+  })
+})
+
+describe('theory column names', () => {
+  it('reads theory names and says which theory each is', () => {
+    expect(theoryName('criticalLoad')).toBe('critical load α_c')
+    expect(theoryName('crosstalkErrorExactTiesRandom')).toBe('bit error, ties random')
+    expect(theoryName('dilutedFirstStepOverlapExactTiesKeep')).toBe('diluted overlap after one step, ties kept')
+    expect(theoryName('someNewValue')).toBe('some new value')
+    expect(theoryKind('retrievalOverlapRS')).toBe('mean-field')
+    expect(theoryKind('firstStepOverlapExactTiesRandom')).toBe('exact finite-N')
+    expect(theoryKind('loadAlpha')).toBe('definition')
+    expect(theoryTooltip('crosstalkErrorExact')).toMatch(/^Exact at this point's finite N/)
+  })
+})
 
 describe('curves', () => {
   const result = (rows: ResultRow[]): SweepResult => ({ specHash: 'h', spec: {}, rows, provenance: PROVENANCE })

@@ -68,9 +68,20 @@ export function sweepPath (id: string): string {
   return `v1/sweeps/${encodeURIComponent(id)}`
 }
 
-export async function listSweeps (query: { status?: SweepStatusName | null, cursor?: string | null, limit?: number }, signal?: AbortSignal): Promise<SweepList> {
+export interface ListFilter {
+  status?: SweepStatusName | null
+  tag?: string | null
+  q?: string | null
+  replicatesOf?: string | null
+}
+
+export async function listSweeps (query: ListFilter & { cursor?: string | null, limit?: number }, signal?: AbortSignal): Promise<SweepList> {
   const params = new URLSearchParams({ limit: String(query.limit ?? 25) })
   if (query.status !== undefined && query.status !== null) params.set('status', query.status)
+  for (const key of ['tag', 'q', 'replicatesOf'] as const) {
+    const value = query[key]
+    if (value !== undefined && value !== null && value !== '') params.set(key, value)
+  }
   if (query.cursor !== undefined && query.cursor !== null) params.set('cursor', query.cursor)
   return await getJson<SweepList>(`v1/sweeps?${params.toString()}`, signal === undefined ? {} : { signal })
 }
@@ -81,6 +92,31 @@ export async function getSweep (id: string, signal?: AbortSignal): Promise<Sweep
 
 export async function cancelSweep (id: string): Promise<SweepDetail> {
   const response = await call(sweepPath(id), { method: 'DELETE' })
+  return await response.json() as SweepDetail
+}
+
+export async function resumeSweep (id: string): Promise<SweepDetail> {
+  const response = await call(`${sweepPath(id)}/resume`, { method: 'POST' })
+  return await response.json() as SweepDetail
+}
+
+/** Removes a finished sweep with everything stored for it (owner only, irreversible). */
+export async function purgeSweep (id: string): Promise<void> {
+  await call(`${sweepPath(id)}?purge=true`, { method: 'DELETE' })
+}
+
+export interface Extension { trials?: number, add?: Record<string, number[]>, label?: string | null, tags?: string[] }
+
+/** A new sweep with more trials and/or more axis values; its parent's stored trials are reused. */
+export async function extendSweep (id: string, extension: Extension): Promise<SweepDetail> {
+  const response = await call(`${sweepPath(id)}/extend`, { method: 'POST', json: extension })
+  return await response.json() as SweepDetail
+}
+
+export interface Annotation { label?: string | null, tags?: string[], notes?: string | null }
+
+export async function annotateSweep (id: string, patch: Annotation): Promise<SweepDetail> {
+  const response = await call(sweepPath(id), { method: 'PATCH', json: patch })
   return await response.json() as SweepDetail
 }
 

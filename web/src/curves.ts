@@ -4,6 +4,7 @@
  */
 import { formatGridValue } from './format.js'
 import { parameterName } from './labels.js'
+import { axisSymbol } from './model-line.js'
 import type { ResultRow, SweepResult } from './types.js'
 
 export interface CurvePoint {
@@ -123,4 +124,51 @@ export function extentOf (curves: readonly Curve[], axis: 'x' | 'y'): [number, n
     }
   }
   return low <= high ? [low, high] : null
+}
+
+/**
+ * A sweep's main curve for the list's thumbnail: recall success against the varied parameter
+ * with the most values, one line per value of the others (at most four).
+ */
+export interface Thumbnail {
+  x: string
+  xMin: number
+  xMax: number
+  /** Points (x, success rate) per line, x ascending. */
+  lines: Array<Array<[number, number]>>
+}
+
+const MAX_LINES = 4
+
+/** The thumbnail's data, or null when the result has no curve (one point, a threshold search). Pure. */
+export function thumbnailOf (result: SweepResult): Thumbnail | null {
+  const rows = result.rows
+  if (rows.length < 2) return null
+  const paths = Object.keys(rows[0]?.values ?? {})
+  let x: string | null = null
+  let most = 1
+  for (const path of paths) {
+    const distinct = new Set(rows.map((row) => row.values[path]))
+    if ([...distinct].every((value) => typeof value === 'number') && distinct.size > most) { x = path; most = distinct.size }
+  }
+  if (x === null) return null
+  const xPath = x
+  const groups = new Map<string, Array<[number, number]>>()
+  for (const row of rows) {
+    const rate = row.summary.success.rate
+    if (rate === null) continue
+    const key = paths.filter((path) => path !== xPath).map((path) => String(row.values[path])).join('|')
+    const line = groups.get(key) ?? []
+    line.push([row.values[xPath] as number, rate])
+    groups.set(key, line)
+  }
+  const lines = [...groups.values()].slice(0, MAX_LINES).map((line) => line.sort((a, b) => a[0] - b[0]))
+  const xs = lines.flat().map(([value]) => value)
+  if (xs.length < 2) return null
+  return { x: xPath, xMin: Math.min(...xs), xMax: Math.max(...xs), lines }
+}
+
+/** What the thumbnail shows, in a few characters: "success vs α". */
+export function thumbnailCaption (thumb: Thumbnail): string {
+  return `success vs ${axisSymbol(thumb.x)}`
 }

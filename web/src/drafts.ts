@@ -26,10 +26,3 @@ export function loadDraft (): Spec | null {
 export function freshSeed (): number {
   return crypto.getRandomValues(new Uint32Array(1))[0] ?? 1
 }
-
-/** The label of a re-run: the original label with its seed, replacing an earlier seed note. */
-export function rerunLabel (label: string | null, seed: number): string {
-  const base = (label ?? 'Untitled sweep').replace(/ · seed \d+$/, '')
-  const suffix = ` · seed ${seed}`
-  return base.slice(0, 200 - suffix.length) + suffix
-}

@@ -50,3 +50,10 @@ export const MEASURES: readonly MeasureInfo[] = [
 export function measureName (value: string): string {
   return MEASURES.find((m) => m.value === value)?.name ?? value
 }
+
+/** The label of a re-run: the original label with its seed, replacing an earlier seed note. */
+export function rerunLabel (label: string | null, seed: number): string {
+  const base = (label ?? 'Untitled sweep').replace(/( · seed \d+| \(seed \d+\))$/, '')
+  const suffix = ` (seed ${seed})`
+  return base.slice(0, 200 - suffix.length) + suffix
+}

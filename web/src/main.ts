@@ -19,7 +19,7 @@ function renderMissing (main: HTMLElement, hash: string): Dispose {
 
 function renderRoute (main: HTMLElement, route: Route): Dispose {
   switch (route.page) {
-    case 'list': return renderList(main)
+    case 'list': return renderList(main, route)
     case 'sweep': return renderSweep(main, route.id)
     case 'submit': return renderSubmit(main, route.from)
     case 'compare': return renderCompare(main, route.ids)

@@ -2,14 +2,17 @@
  * One sweep: what it is (normalised spec, provenance), how far it is (live), and what came out
  * (figure, table, downloads), with copy, re-run and cancel.
  */
-import { ApiProblem, cancelSweep, download, followSweep, getJson, getSweep, submitSweep, sweepPath, TERMINAL } from '../api.js'
+import { ApiProblem, cancelSweep, download, followSweep, getJson, getSweep, purgeSweep, resumeSweep, submitSweep, sweepPath, TERMINAL } from '../api.js'
 import { copyText } from '../clipboard.js'
 import { fill, h } from '../dom.js'
-import { freshSeed, rerunLabel, saveDraft } from '../drafts.js'
+import { freshSeed, saveDraft } from '../drafts.js'
 import { analysisView } from '../analysis-view.js'
 import { figurePanel } from '../figure-panel.js'
+import { liveFigure, type LiveFigure } from '../live-figure.js'
+import { modelLine } from '../model-line.js'
+import { describeForm, extendForm, tagMarks } from '../sweep-workflow.js'
 import { formatAgo, formatCount, formatStamp } from '../format.js'
-import { parameterName } from '../labels.js'
+import { parameterName, rerunLabel } from '../labels.js'
 import type { Dispose } from '../main.js'
 import { resultsTable } from '../results-table.js'
 import { routeHref } from '../router.js'
@@ -52,8 +55,12 @@ export function renderSweep (main: HTMLElement, id: string): Dispose {
   const actions = h('div', { class: 'actions sweep-actions' })
   const failure = h('div', { class: 'failure', role: 'alert', hidden: true })
   const resultsSlot = h('div', { class: 'results-slot' })
+  const liveSlot = h('div', { class: 'live-slot' })
+  const workflowSlot = h('div', { class: 'workflow-slot' })
+  const subhead = h('div', { class: 'sweep-subhead' })
   let current: SweepDetail | null = null
   let resultsShown = false
+  let live: LiveFigure | null = null
 
   const rerun = async (detail: SweepDetail): Promise<void> => {
     const seed = freshSeed()
@@ -72,9 +79,40 @@ export function renderSweep (main: HTMLElement, id: string): Dispose {
     }
   }
 
+  const resume = async (detail: SweepDetail): Promise<void> => {
+    try {
+      const resumed = await resumeSweep(detail.id)
+      notify(`Resumed: ${formatCount(resumed.progress.chunksDone)} of ${formatCount(resumed.progress.chunksTotal)} chunks were kept, the rest is computed now.`)
+      live = null
+      renderDetail(resumed)
+    } catch (error) {
+      notify(`Could not resume: ${messageOf(error)}`, 'error')
+    }
+  }
+
+  const purge = async (detail: SweepDetail): Promise<void> => {
+    const sure = await confirmAction({
+      title: 'Remove this sweep for good?',
+      body: `“${detail.label ?? detail.id}” is removed with its stored trials and its results. This cannot be undone; sweeps that copied its trials keep their copies.`,
+      confirm: 'Remove for good',
+      keep: 'Keep it'
+    })
+    if (!sure) return
+    try {
+      await purgeSweep(detail.id)
+      notify(`Removed “${detail.label ?? detail.id}”.`)
+      location.hash = routeHref({ page: 'list' })
+    } catch (error) {
+      notify(`Could not remove: ${messageOf(error)}`, 'error')
+    }
+  }
+
   const renderActions = (detail: SweepDetail): void => {
     const label = detail.label ?? detail.id
+    const finished = TERMINAL.has(detail.status)
+    const resumable = detail.status === 'canceled' || detail.status === 'failed'
     fill(actions,
+      resumable ? h('button', { type: 'button', class: 'primary', onclick: () => { inBackground(resume(detail)) } }, 'Resume') : null,
       h('button', {
         type: 'button',
         class: 'secondary',
@@ -92,15 +130,16 @@ export function renderSweep (main: HTMLElement, id: string): Dispose {
           location.hash = routeHref({ page: 'submit', from: null })
         }
       }, 'Edit a copy'),
-      TERMINAL.has(detail.status)
-        ? null
+      h('a', { class: 'button secondary', href: routeHref({ page: 'list', replicatesOf: detail.id }) }, 'Replicates'),
+      finished
+        ? h('button', { type: 'button', class: 'danger-outline', onclick: () => { inBackground(purge(detail)) } }, 'Remove…')
         : h('button', {
           type: 'button',
           class: 'danger-outline',
           onclick: async () => {
             const sure = await confirmAction({
               title: 'Cancel this sweep?',
-              body: `“${label}” stops within about a second. Trials already run are not kept, and there will be no results.`,
+              body: `“${label}” stops within about a second. The points it finished are kept: you can resume it later, and nothing finished is computed again.`,
               confirm: 'Cancel sweep',
               keep: 'Keep it running'
             })
@@ -112,6 +151,35 @@ export function renderSweep (main: HTMLElement, id: string): Dispose {
             }
           }
         }, 'Cancel sweep'))
+  }
+
+  /** Extend (finished sweeps) and the description form. */
+  const renderWorkflow = (detail: SweepDetail): void => {
+    const finished = TERMINAL.has(detail.status)
+    fill(workflowSlot,
+      finished
+        ? h('details', { class: 'panel fold refine' }, h('summary', {}, h('h2', {}, 'Extend: more trials or more values')), extendForm(detail))
+        : null,
+      h('details', { class: 'panel fold describe' }, h('summary', {}, h('h2', {}, 'Label, tags and notes')), describeForm(detail, (updated) => {
+        if (current === null) return
+        current = { ...current, ...updated }
+        renderHead(current)
+        renderWorkflow(current)
+      })))
+  }
+
+  /** The partial figure of a sweep that has not succeeded, fed by its progress events. */
+  const showLive = (detail: SweepStatus): void => {
+    if (detail.status === 'succeeded') {
+      live = null
+      fill(liveSlot)
+      return
+    }
+    if (live === null) {
+      live = liveFigure(detail.id, stop.signal)
+      fill(liveSlot, live.el)
+    }
+    live.update(detail)
   }
 
   const showResults = async (detail: SweepDetail): Promise<void> => {
@@ -157,10 +225,11 @@ export function renderSweep (main: HTMLElement, id: string): Dispose {
       h('div', { class: 'actions' },
         h('button', { type: 'button', class: 'secondary', 'data-download': 'csv', onclick: () => { inBackground(save(`${sweepPath(detail.id)}/results?format=csv`, `memsweep-${detail.id}.csv`, 'text/csv')) } }, 'Results (CSV)'),
         h('button', { type: 'button', class: 'secondary', 'data-download': 'json', onclick: () => { inBackground(save(`${sweepPath(detail.id)}/results?format=json`, `memsweep-${detail.id}.json`, 'application/json')) } }, 'Results (JSON)'),
-        h('button', { type: 'button', class: 'secondary', 'data-download': 'svg', onclick: () => { saveFigure().catch((error: unknown) => notify(`Could not download the figure: ${messageOf(error)}`, 'error')) } }, 'Figure (SVG)')),
+        h('button', { type: 'button', class: 'secondary', 'data-download': 'svg', onclick: () => { saveFigure().catch((error: unknown) => notify(`Could not download the figure: ${messageOf(error)}`, 'error')) } }, 'Figure (SVG)'),
+        h('button', { type: 'button', class: 'secondary', 'data-download': 'bundle', onclick: () => { inBackground(save(`${sweepPath(detail.id)}/bundle.zip`, `memsweep-${detail.id}.zip`, 'application/zip')) } }, 'Bundle for a paper (zip)')),
       h('p', { class: 'hint' }, isAnalysis
         ? 'The JSON holds every search with all its steps and fits; the CSV one row per search.'
-        : 'CSV and JSON hold one row per grid point with every measure, its uncertainty and the theory values; the per-trial rows are in the API (?trials=true).'))
+        : 'CSV and JSON hold one row per grid point with every measure, its uncertainty and the theory values; the per-trial rows are in the API (?trials=true). The bundle holds the spec, results, figure and provenance with a README saying how to reproduce them.'))
     const provenance = h('section', { class: 'panel', 'aria-labelledby': 'provenance-heading' },
       h('h2', { id: 'provenance-heading' }, 'Provenance'),
       metaList(Object.entries(result.provenance).map(([key, value]): [string, string] => [key, String(value)])))
@@ -184,10 +253,12 @@ export function renderSweep (main: HTMLElement, id: string): Dispose {
     const moved = current.startedAt !== status.startedAt || current.finishedAt !== status.finishedAt
     current = { ...current, ...status }
     progress.update(current)
+    showLive(current)
     if (changed || moved) renderRecord(current)
     if (!changed) return
     fill(statusSlot, statusBadge(current.status))
     renderActions(current)
+    renderWorkflow(current)
     showFailure(current)
     if (current.status === 'succeeded') inBackground(showResults(current))
   }
@@ -216,18 +287,30 @@ export function renderSweep (main: HTMLElement, id: string): Dispose {
       ]))
   }
 
-  const renderDetail = (detail: SweepDetail): void => {
-    current = detail
+  function renderHead (detail: SweepDetail): void {
     const label = detail.label ?? 'Untitled sweep'
     document.title = `${label} · memsweep`
     fill(head, h('h1', {}, label), statusSlot)
+    fill(subhead,
+      h('p', { class: 'model-line' }, modelLine(detail.spec)),
+      tagMarks(detail.tags),
+      detail.notes === null ? null : h('p', { class: 'notes' }, detail.notes),
+      detail.extends === null ? null : h('p', { class: 'hint' }, 'Extends ', h('a', { href: routeHref({ page: 'sweep', id: detail.extends }) }, detail.extends.slice(0, 8)), `: ${formatCount(detail.reused.trials)} trials reused.`))
+  }
+
+  function renderDetail (detail: SweepDetail): void {
+    current = detail
+    renderHead(detail)
     fill(statusSlot, statusBadge(detail.status))
     progress.update(detail)
     renderActions(detail)
+    renderWorkflow(detail)
     showFailure(detail)
     renderRecord(detail)
     const seed = typeof detail.spec.seed === 'number' ? String(detail.spec.seed) : '–'
+    resultsShown = false
     fill(body,
+      subhead,
       h('section', { class: 'panel live', 'aria-labelledby': 'progress-heading' },
         h('h2', { id: 'progress-heading', class: 'visually-hidden' }, 'Progress'),
         progress.el,
@@ -235,13 +318,16 @@ export function renderSweep (main: HTMLElement, id: string): Dispose {
           `${formatCount(detail.progress.pointsTotal)} grid points (${describeGrid(detail.spec)}), ${formatCount(detail.progress.trialsTotal)} trials, seed ${seed}.`),
         actions),
       failure,
+      liveSlot,
       resultsSlot,
+      workflowSlot,
       h('div', { class: 'two-up' },
         recordPanel,
         h('section', { class: 'panel', 'aria-labelledby': 'spec-heading' },
           h('h2', { id: 'spec-heading' }, 'Normalised spec'),
           h('p', { class: 'hint' }, 'Every default filled in and every axis written out; it can be submitted again as it is.'),
           h('pre', { class: 'spec-json', tabindex: 0, 'aria-label': 'Normalised spec as JSON' }, JSON.stringify(detail.spec, null, 2)))))
+    showLive(detail)
     if (detail.status === 'succeeded') inBackground(showResults(detail))
     if (!TERMINAL.has(detail.status)) {
       followSweep(detail.id, applyStatus, stop.signal).catch((error: unknown) => {
