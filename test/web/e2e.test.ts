@@ -131,7 +131,7 @@ describe('web page in Chromium', () => {
     const csv = readFileSync(await download.path(), 'utf8')
     const fromApi = await (await fetch(`${open.url}/v1/sweeps/${id}/results?format=csv`)).text()
     expect(csv).toBe(fromApi)
-    expect(csv.split('\r\n')[0]).toMatch(/^point,neurons,load,/)
+    expect(csv.split('\r\n')[0]).toMatch(/^sweepId,specHash,seed,point,neurons,/)
     expect(csv.trimEnd().split('\r\n')).toHaveLength(37)
 
     await page.setViewportSize(NARROW)
