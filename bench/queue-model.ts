@@ -2,26 +2,28 @@
  * How many workers one Redis can feed: a model built from what bench/queue-ceiling.ts
  * measures. Pure functions, no I/O (test/sweep/queue-model.test.ts).
  *
- * Redis is one single-threaded server. Every chunk costs it `c` seconds of CPU (moving the
- * job to active and to finished, the lock, our store scripts, progress, the events): its
- * service time per chunk. The measured `c` may grow with the number of workers W (every
- * idle worker blocks on the queue, every running chunk renews its lock), so it is fitted as
- * c(W) = base + perWorker·W over the measured worker counts.
+ * Redis is one single-threaded server. It spends CPU in two ways: `perChunk` seconds for
+ * every chunk (moving the job to active and to finished, our store scripts, the events),
+ * and `perWorkerPerSecond` for every attached worker whether it computes or not (lock
+ * renewals, stalled checks, blocking reads that time out and are reissued). Both come from
+ * one fit over runs with different worker counts: Redis's CPU rate = perChunk·λ +
+ * perWorkerPerSecond·W, λ the chunks per second of that run.
  *
  * A worker runs a chunk for T seconds, then pays its own per-chunk overhead `o` (sandbox
  * messages, reading the spec, storing the chunk, the round trips) and waits in Redis's
- * queue. W workers offer Redis a utilisation ρ = W·c(W)/T; the wait is that of an M/M/1
- * queue, ρ·c/(1 − ρ): an open queue with exponential service, which overstates the wait of
- * this closed system with near-constant service times, so the ceiling errs low. A worker's
- * efficiency is the share of its time spent computing, T / (T + o + wait); the ceiling is the
- * largest W whose efficiency is at least the target.
+ * queue. W busy workers give Redis the utilisation ρ = W·(perChunk/T + perWorkerPerSecond):
+ * with `perChunk` as the service time c, W·c/T plus the workers' standing cost. The wait is
+ * that of an M/M/1 queue, ρ·c/(1 − ρ): an open queue with exponential service, which
+ * overstates the wait of this closed system with near-constant service times, so the
+ * ceiling errs low. A worker's efficiency is the share of its time spent computing,
+ * T / (T + o + wait); the ceiling is the largest W whose efficiency is at least the target.
  */
 
 export interface ServiceTime {
-  /** Redis CPU seconds per chunk at no workers (the intercept). */
-  base: number
-  /** Extra Redis CPU seconds per chunk for every worker attached. */
-  perWorker: number
+  /** Redis CPU seconds per chunk: the service time c. */
+  perChunk: number
+  /** Redis CPU seconds per second for every attached worker, busy or idle. */
+  perWorkerPerSecond: number
 }
 
 export interface QueueModel {
@@ -35,6 +37,7 @@ export interface QueueModel {
 /** One measured run: W worker processes on tiny chunks. */
 export interface QueueMeasurement {
   workers: number
+  chunksPerSecond: number
   /** Redis CPU seconds (user + sys) per chunk, the server's own. */
   redisCpuPerChunk: number
 }
@@ -42,42 +45,47 @@ export interface QueueMeasurement {
 // MAIN //
 
 /**
- * Least-squares line c(W) = base + perWorker·W through the measurements; a negative slope
- * (noise) is taken as flat at the largest measured cost, so the model never extrapolates a
- * cheaper Redis than was seen.
+ * Least squares (no intercept) of Redis's CPU rate r = c·λ + s·W over the runs, for c =
+ * perChunk and s = perWorkerPerSecond, both kept non-negative: when the joint fit gives a
+ * negative one, it is zero and the other is fitted alone. One run (or runs that cannot tell
+ * the two apart) charges everything to the chunks.
  *
  * @throws {RangeError} without measurements.
  */
 export function fitServiceTime (measurements: readonly QueueMeasurement[]): ServiceTime {
   if (measurements.length === 0) throw new RangeError('invalid argument. At least one measurement is needed.')
-  const n = measurements.length
-  const meanW = measurements.reduce((s, m) => s + m.workers, 0) / n
-  const meanC = measurements.reduce((s, m) => s + m.redisCpuPerChunk, 0) / n
-  let sxx = 0
-  let sxy = 0
+  let ll = 0
+  let lw = 0
+  let ww = 0
+  let lr = 0
+  let wr = 0
   for (const m of measurements) {
-    sxx += (m.workers - meanW) ** 2
-    sxy += (m.workers - meanW) * (m.redisCpuPerChunk - meanC)
+    const rate = m.redisCpuPerChunk * m.chunksPerSecond
+    ll += m.chunksPerSecond ** 2
+    lw += m.chunksPerSecond * m.workers
+    ww += m.workers ** 2
+    lr += m.chunksPerSecond * rate
+    wr += m.workers * rate
   }
-  const slope = sxx > 0 ? sxy / sxx : 0
-  if (slope <= 0) return { base: Math.max(...measurements.map((m) => m.redisCpuPerChunk)), perWorker: 0 }
-  return { base: Math.max(0, meanC - slope * meanW), perWorker: slope }
+  const det = ll * ww - lw * lw
+  const chunksOnly = { perChunk: ll > 0 ? Math.max(0, lr / ll) : 0, perWorkerPerSecond: 0 }
+  if (measurements.length < 2 || Math.abs(det) <= 1e-12 * ll * ww) return chunksOnly
+  const perChunk = (lr * ww - wr * lw) / det
+  const perWorkerPerSecond = (ll * wr - lw * lr) / det
+  if (perChunk < 0) return { perChunk: 0, perWorkerPerSecond: Math.max(0, wr / ww) }
+  if (perWorkerPerSecond < 0) return chunksOnly
+  return { perChunk, perWorkerPerSecond }
 }
 
-/** Redis CPU seconds per chunk with `workers` workers attached. */
-export function serviceSeconds (service: ServiceTime, workers: number): number {
-  return service.base + service.perWorker * workers
-}
-
-/** Share of Redis's time that `workers` busy workers take: W·c(W)/T. */
+/** Share of Redis's time that `workers` busy workers take: W·(c/T + s). */
 export function utilisation (model: QueueModel, workers: number): number {
-  return workers * serviceSeconds(model.service, workers) / model.chunkSeconds
+  return workers * (model.service.perChunk / model.chunkSeconds + model.service.perWorkerPerSecond)
 }
 
 /** Mean wait per chunk in Redis's queue (M/M/1), seconds; infinite at or past saturation. */
 export function queueingWait (model: QueueModel, workers: number): number {
   const rho = utilisation(model, workers)
-  return rho >= 1 ? Infinity : rho * serviceSeconds(model.service, workers) / (1 - rho)
+  return rho >= 1 ? Infinity : rho * model.service.perChunk / (1 - rho)
 }
 
 /** Share of a worker's time spent computing: T / (T + o + wait). */

@@ -1,5 +1,7 @@
 import { median, type Run } from './measure.js'
 import type { MemoryMeasurement } from './memory.js'
+import type { EstimateMeasurement } from './estimate-error.js'
+import type { HealthzReport } from './healthz.js'
 
 /** Everything the report needs besides the runs. */
 export interface Context {
@@ -332,7 +334,7 @@ function memoryEstimateSection (memory: MemoryMeasurement[] | null): string[] {
   ]
 }
 
-export function renderReport (runs: Run[], extra: { scale: Run | null, baseline: Run[], scaling: ScalingReport | null, memory: MemoryMeasurement[] | null, ctx: Context }): string {
+export function renderReport (runs: Run[], extra: { scale: Run | null, baseline: Run[], scaling: ScalingReport | null, memory: MemoryMeasurement[] | null, overhead: ServiceOverheadReport | null, queueCeiling: QueueCeilingReport | null, estimates: EstimateMeasurement[] | null, healthz: HealthzReport | null, ctx: Context }): string {
   const { ctx, scale, baseline, scaling, memory } = extra
   const baselineKb = baseline.length > 0 ? median(baseline.map((r) => r.maxrss_kb)) : Number.NaN
   const w3 = runs.filter((r) => r.workload === 'W3' && r.label === 'memsweep' && r.variant === 'fast')
@@ -399,6 +401,128 @@ export function renderReport (runs: Run[], extra: { scale: Run | null, baseline:
       `- Representation ${(Number(scale.representation_bytes) / 1e6).toFixed(0)} MB; peak RSS ${mib(scale.maxrss_kb)}; process wall time ${(scale.proc_wall_s).toFixed(1)} s.`
     )
   }
-  out.push('', ...memoryEstimateSection(memory), ...scalingSection(scaling))
+  out.push('', ...memoryEstimateSection(memory), ...scalingSection(scaling), ...serviceOverheadSection(extra.overhead), ...queueCeilingSection(extra.queueCeiling), ...estimateSection(extra.estimates), ...healthzSection(extra.healthz))
   return out.join('\n')
+}
+
+/** What bench/service-overhead.ts prints. */
+export interface ServiceOverheadReport {
+  trialsPerLoad: number
+  threads: number
+  reps: number
+  engine: { seconds: number[], median: number }
+  embedded?: { seconds: number[], median: number, ratio: number }
+  redis?: { seconds: number[], median: number, ratio: number }
+  notes: string[]
+}
+
+export function serviceOverheadSection (overhead: ServiceOverheadReport | null): string[] {
+  const out = ['## Service overhead: POST to succeeded against the engine alone', '']
+  if (overhead === null) return [...out, 'Not run (SKIP_SERVICE_OVERHEAD set, or the run failed: see the notes above).', '']
+  const s = (x: number): string => `${x.toFixed(2)} s`
+  const spread = (xs: number[]): string => `${s(Math.min(...xs))}..${s(Math.max(...xs))}`
+  const row = (name: string, side: ServiceOverheadReport['embedded']): string => side === undefined
+    ? `| ${name} | not measured | - | - |`
+    : `| ${name} | ${s(side.median)} | ${spread(side.seconds)} | ${ratio(side.ratio)} (${side.ratio <= 1.1 ? 'met' : 'missed'}) |`
+  return [
+    ...out,
+    `The capacity curve of W2 at ${overhead.trialsPerLoad} trials per load (N = 500, 12 loads, ${(12 * overhead.trialsPerLoad).toLocaleString('en')} trials, a new network per trial),`,
+    `on ${overhead.threads} compute threads, median of ${overhead.reps} (a new seed each time, so no stored point is reused). Service: a real server process,`,
+    'timed by the client from `POST /v1/sweeps` to the `succeeded` event on `/v1/sweeps/{id}/events`; embedded with `WORKER_THREADS` =',
+    `${overhead.threads}, Redis with an API process and ${overhead.threads} worker processes of one compute thread each. Engine alone: the same plan's chunks,`,
+    'costliest first, through the lifecycle core\'s chunk runner on the embedded backend\'s compute-thread pool of the same size, then',
+    'assembled on one of its threads: every computation the service does (trials, chunk encoding, assembly, theory) without HTTP,',
+    'store, queue or events. Target: service ÷ engine alone ≤ 1.1×.',
+    '',
+    '| run | median | min..max | ÷ engine alone |',
+    '|---|---|---|---|',
+    `| engine alone (${overhead.threads} threads) | ${s(overhead.engine.median)} | ${spread(overhead.engine.seconds)} | 1.00× |`,
+    row('embedded server', overhead.embedded),
+    row('Redis: API + worker processes', overhead.redis),
+    ...overhead.notes.map((n) => `- Note: ${n}`),
+    ''
+  ]
+}
+
+/** What bench/queue-ceiling.ts prints. */
+export interface QueueCeilingReport {
+  runs: Array<{ workers: number, chunks: number, seconds: number, chunksPerSecond: number, redisCpuPerChunk: number, backgroundRate: number }>
+  computePerChunk: number
+  model: { service: { perChunk: number, perWorkerPerSecond: number }, workerOverheadSeconds: number, chunkSeconds: number }
+  ceiling: number
+  efficiencyAt256: number
+  /** Infinity (null in JSON) when no chunk duration is enough. */
+  chunkSecondsFor256: number | null
+  notes: string[]
+}
+
+export function queueCeilingSection (queue: QueueCeilingReport | null): string[] {
+  const out = ['## Many workers on one Redis', '']
+  if (queue === null) return [...out, 'Not run (SKIP_QUEUE_CEILING set, or the run failed: see the notes above).', '']
+  const msec = (x: number): string => `${(x * 1000).toFixed(3)} ms`
+  const { model } = queue
+  return [
+    ...out,
+    'Worker processes (one chunk at a time each, sharing this machine\'s cores) run a sweep of tiny chunks (N = 16, one pattern,',
+    '4 trials per grid point, one chunk per point) on a key prefix of their own; workers are added between runs. Measured: chunks per',
+    'second, and the Redis server\'s CPU per chunk (INFO cpu, used_cpu_user + used_cpu_sys, less its background rate measured just',
+    'before each run: the Redis is shared).',
+    '',
+    '| worker processes | chunks | wall | chunks/s | Redis CPU per chunk | Redis background |',
+    '|---|---|---|---|---|---|',
+    ...queue.runs.map((r) => `| ${r.workers} | ${r.chunks} | ${r.seconds.toFixed(2)} s | ${r.chunksPerSecond.toFixed(1)} | ${msec(r.redisCpuPerChunk)} | ${(100 * r.backgroundRate).toFixed(2)} % of a core |`),
+    '',
+    'Model (bench/queue-model.ts): Redis is one server. Its CPU rate is c·λ + s·W (c per chunk, s per attached worker per second,',
+    'fitted over the runs, both ≥ 0); W busy workers with chunks of T seconds load it to ρ = W·(c/T + s), and a chunk waits',
+    'ρ·c/(1 − ρ) (M/M/1, which overstates the wait of this closed system, so the ceiling errs low). A worker\'s efficiency is',
+    'T / (T + o + wait), o its own per-chunk overhead: one worker\'s period on tiny chunks less their compute time (measured in',
+    'this process) and Redis\'s time.',
+    '',
+    `- Fitted: c = ${msec(model.service.perChunk)} per chunk, s = ${msec(model.service.perWorkerPerSecond)} per worker per second; o = ${msec(model.workerOverheadSeconds)} (tiny chunk compute ${msec(queue.computePerChunk)}).`,
+    `- At the planner's target chunk duration T = ${model.chunkSeconds} s (TARGET_CHUNK_SECONDS): efficiency with 256 workers ${(100 * queue.efficiencyAt256).toFixed(1)} %; the largest worker count with ≥ 90 % efficiency is **${queue.ceiling.toLocaleString('en')}** (target ≥ 256: ${queue.ceiling >= 256 ? 'met' : 'missed'}). ${typeof queue.chunkSecondsFor256 === 'number' && Number.isFinite(queue.chunkSecondsFor256) ? `256 workers need chunks of at least ${queue.chunkSecondsFor256.toFixed(2)} s.` : 'No chunk duration gives 256 workers 90 %: their standing cost alone, 256·s, fills Redis.'}`,
+    ...queue.notes.map((n) => `- Note: ${n}`),
+    ''
+  ]
+}
+
+export function estimateSection (estimates: EstimateMeasurement[] | null): string[] {
+  const out = ['## CPU estimate against measured CPU time', '']
+  if (estimates === null) return [...out, 'Not run (SKIP_ESTIMATE set, or the run failed: see the notes above).', '']
+  const ratios = estimates.map((e) => e.ratio).sort((a, b) => a - b)
+  return [
+    ...out,
+    'For each spec, the validator\'s `cpuSeconds` (what `MAX_CPU_SECONDS` is checked against and the planner cuts chunks by) against',
+    'the CPU time (user + system) of running every chunk of the sweep through the lifecycle core in one thread of one process, after',
+    'a tenth of the case has warmed the engine up. Ratio = estimate ÷ measured: above 1 the estimate errs towards more work.',
+    '',
+    '| case | trials | estimate | measured | estimate ÷ measured |',
+    '|---|---|---|---|---|',
+    ...estimates.map((e) => `| ${e.name} | ${e.trials.toLocaleString('en')} | ${e.estimatedCpuSeconds.toFixed(3)} s | ${e.measuredCpuSeconds.toFixed(3)} s | ${e.ratio.toFixed(2)} |`),
+    '',
+    `- Estimate ÷ measured over ${ratios.length} cases: min ${ratios[0]!.toFixed(2)}, median ${median(ratios).toFixed(2)}, max ${ratios.at(-1)!.toFixed(2)}.`,
+    ''
+  ]
+}
+
+export function healthzSection (healthz: HealthzReport | null): string[] {
+  const out = ['## /healthz while large results are downloaded', '']
+  if (healthz === null) return [...out, 'Not run (SKIP_HEALTHZ set, or the run failed: see the notes above).', '']
+  const msec = (x: number): string => `${x.toFixed(1)} ms`
+  const row = (name: string, s: HealthzReport['idle']): string => `| ${name} | ${s.count} | ${msec(s.p50)} | ${msec(s.p99)} | ${msec(s.max)} |`
+  return [
+    ...out,
+    `A real embedded server process (2 compute threads) holds a ${healthz.trials.toLocaleString('en')}-trial result (N = 10, one and two patterns, trial rows`,
+    'stored) and a trajectory result (N = 400, four loads, 100 trials, overlap and energy after each of up to 60 sweeps), computed in',
+    `${healthz.computeSeconds.toFixed(1)} s. For ${healthz.seconds} s one client downloads them back to back, each request with options not asked before (JSON and`,
+    'CSV with trial rows, timing, the trajectory series, figures of a new width every time, and a figure the server must refuse),',
+    'while a sequential prober times `GET /healthz` every 10 ms; the prober alone first gives the baseline.',
+    '',
+    '| phase | probes | p50 | p99 | max |',
+    '|---|---|---|---|---|',
+    row('idle', healthz.idle),
+    row('during downloads', healthz.loaded),
+    '',
+    `- Downloads: ${healthz.downloads.count} (${(healthz.downloads.bytes / 1e6).toFixed(1)} MB), by status ${Object.entries(healthz.downloads.byStatus).map(([k, v]) => `${k}: ${v}`).join(', ')}.`,
+    ''
+  ]
 }

@@ -8,7 +8,9 @@
  * Environment: ENGINE_REPS (5), PLAIN_REPS (3), C_REPS (5), NP_REPS (3), WARM_REPEATS (5),
  * DENSE_REPS (3), MODEL_REPS (5), MODEL_PLAIN_REPS (3), PEERS_DIR (../shared/bench), SKIP_PEERS,
  * SKIP_PLAIN, SKIP_DENSE, SKIP_MODELS, SKIP_SCALE,
- * SKIP_SCALING, SKIP_MEMORY, TRIALS, REPS and CEILING_TRIALS (for bench/scaling.ts), RESULTS (bench/RESULTS.md).
+ * SKIP_SCALING, SKIP_MEMORY, SKIP_SERVICE_OVERHEAD, SKIP_QUEUE_CEILING, SKIP_ESTIMATE, SKIP_HEALTHZ,
+ * TRIALS, REPS and CEILING_TRIALS (for bench/scaling.ts), and the variables of each part
+ * (bench/README.md), RESULTS (bench/RESULTS.md).
  */
 import { cpus, freemem, loadavg, totalmem } from 'node:os'
 import { readFileSync, rmSync, writeFileSync } from 'node:fs'
@@ -16,7 +18,9 @@ import { dirname, join, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { measure, median, type Run } from './measure.js'
 import { preparePeers } from './peers.js'
-import { renderReport, timeOf, type Context, type ScalingReport } from './report.js'
+import { renderReport, timeOf, type Context, type QueueCeilingReport, type ScalingReport, type ServiceOverheadReport } from './report.js'
+import type { EstimateMeasurement } from './estimate-error.js'
+import type { HealthzReport } from './healthz.js'
 import { spawnSync } from 'node:child_process'
 import type { MemoryMeasurement } from './memory.js'
 import { ENGINE_PROCESS_FLAGS } from '../src/runtime/node-flags.js'
@@ -96,16 +100,21 @@ if (!env.SKIP_SCALE) {
   process.stderr.write('[bench] scale run: N = 100000, P = 5000\n')
   scale = measure('memsweep', engine('SCALE', 'fast'))
 }
+/** Runs one part of the bench in a fresh process with the engine's flags; its last stdout line is its JSON report (null and a note when it fails). */
+function runPart<T> (script: string, what: string, extraEnv: NodeJS.ProcessEnv = {}): T | null {
+  const out = spawnSync(process.execPath, [...ENGINE_PROCESS_FLAGS, '--import', 'tsx', join(here, script)], { cwd: root, encoding: 'utf8', env: { ...env, ...extraEnv }, maxBuffer: 1 << 24 })
+  try {
+    return JSON.parse(out.stdout.trim().split('\n').at(-1) ?? '') as T
+  } catch {
+    notes.push(`${what} run failed: ${out.stderr.trim().split('\n').at(-1) ?? `exit ${String(out.status)}`}`)
+    return null
+  }
+}
+
 let scaling: ScalingReport | null = null
 if (!env.SKIP_SCALING) {
   process.stderr.write('[bench] multi-core scaling: W2 curve through the embedded and Redis backends, 1 and 2 cores, and the two-process ceiling\n')
-  const out = spawnSync(process.execPath, [...ENGINE_PROCESS_FLAGS, '--import', 'tsx', join(here, 'scaling.ts')], { cwd: root, encoding: 'utf8', env: { ...env, ...(peers?.cBinary ? { C_PEER: peers.cBinary } : {}) } })
-  const line = out.stdout.trim().split('\n').at(-1) ?? ''
-  try {
-    scaling = JSON.parse(line) as ScalingReport
-  } catch {
-    notes.push(`multi-core scaling run failed: ${out.stderr.trim().split('\n').at(-1) ?? `exit ${String(out.status)}`}`)
-  }
+  scaling = runPart<ScalingReport>('scaling.ts', 'multi-core scaling', peers?.cBinary ? { C_PEER: peers.cBinary } : {})
 }
 
 if (peers?.dir) rmSync(dirname(peers.dir), { recursive: true, force: true })
@@ -113,12 +122,27 @@ if (peers?.dir) rmSync(dirname(peers.dir), { recursive: true, force: true })
 let memory: MemoryMeasurement[] | null = null
 if (!env.SKIP_MEMORY) {
   process.stderr.write('[bench] memory: estimate against measured peak, one fresh process per case\n')
-  const out = spawnSync(process.execPath, [...ENGINE_PROCESS_FLAGS, '--import', 'tsx', join(here, 'memory.ts')], { cwd: root, encoding: 'utf8', env: { ...env }, maxBuffer: 1 << 22 })
-  try {
-    memory = JSON.parse(out.stdout.trim().split('\n').at(-1) ?? '') as MemoryMeasurement[]
-  } catch {
-    notes.push(`memory estimate run failed: ${out.stderr.trim().split('\n').at(-1) ?? `exit ${String(out.status)}`}`)
-  }
+  memory = runPart<MemoryMeasurement[]>('memory.ts', 'memory estimate')
+}
+let overhead: ServiceOverheadReport | null = null
+if (!env.SKIP_SERVICE_OVERHEAD) {
+  process.stderr.write('[bench] service overhead: the 24,000-trial curve through both backends against the engine alone\n')
+  overhead = runPart<ServiceOverheadReport>('service-overhead.ts', 'service overhead')
+}
+let queueCeiling: QueueCeilingReport | null = null
+if (!env.SKIP_QUEUE_CEILING) {
+  process.stderr.write('[bench] many workers: 1, 4, 16 worker processes on tiny chunks, Redis CPU per chunk\n')
+  queueCeiling = runPart<QueueCeilingReport>('queue-ceiling.ts', 'many-workers ceiling')
+}
+let estimates: EstimateMeasurement[] | null = null
+if (!env.SKIP_ESTIMATE) {
+  process.stderr.write('[bench] CPU estimate against measured CPU time\n')
+  estimates = runPart<EstimateMeasurement[]>('estimate-error.ts', 'CPU estimate error')
+}
+let healthz: HealthzReport | null = null
+if (!env.SKIP_HEALTHZ) {
+  process.stderr.write('[bench] /healthz latency while large results are downloaded\n')
+  healthz = runPart<HealthzReport>('healthz.ts', '/healthz under downloads')
 }
 
 const cpuLine = readFileSync('/proc/cpuinfo', 'utf8').split('\n').find((l) => l.startsWith('model name'))?.split(':')[1]?.trim() ?? cpus()[0]?.model ?? 'unknown'
@@ -138,7 +162,7 @@ const ctx: Context = {
   seconds: (Date.now() - started) / 1000
 }
 const target = resolve(env.RESULTS ?? join(here, 'RESULTS.md'))
-writeFileSync(target, renderReport(runs, { scale, baseline, scaling, memory, ctx }))
+writeFileSync(target, renderReport(runs, { scale, baseline, scaling, memory, overhead, queueCeiling, estimates, healthz, ctx }))
 process.stderr.write(`[bench] wrote ${target} in ${ctx.seconds.toFixed(0)} s\n`)
 for (const w of ['W1', 'W2', 'W3', 'W4']) {
   const ours = runs.filter((r) => r.workload === w && r.label === 'memsweep' && r.variant === 'fast')

@@ -24,14 +24,13 @@ import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { randomUUID } from 'node:crypto'
 import { pino } from 'pino'
-import { Redis } from 'ioredis'
 import { normaliseSpec, type NormalisedSpec } from '../src/spec/index.js'
-import { resultToJson } from '../src/results/index.js'
-import { TERMINAL_STATUSES, type SweepQueue, type SweepRecord } from '../src/backends/port.js'
+import type { SweepQueue } from '../src/backends/port.js'
 import { createEmbeddedQueue } from '../src/backends/embedded/index.js'
 import { createRedisQueue } from '../src/backends/redis/index.js'
 import { spawnWorker, stopWorker } from '../test/integration/worker-processes.js'
 import { median } from './measure.js'
+import { dropPrefix, finishSweep, redisAnswers } from './sweep-clock.js'
 import { ENGINE_PROCESS_FLAGS } from '../src/runtime/node-flags.js'
 
 const TRIALS = Number(process.env.TRIALS ?? 2000)
@@ -51,40 +50,12 @@ const curve = (trials: number, seed: number): NormalisedSpec => normaliseSpec({
   trials
 })
 
-/**
- * Submits and waits for the end through the queue's event subscription, as the API's event
- * stream does, so the measuring client costs the two cores next to nothing; a slow poll
- * guards against a missed event.
- */
-async function finish (queue: SweepQueue, spec: NormalisedSpec): Promise<{ seconds: number, bytes: string }> {
-  const started = performance.now()
-  const record = await queue.submit({ spec, owner: null })
-  await new Promise<void>((resolve, reject) => {
-    let settled = false
-    const settle = (sweep: SweepRecord | null): void => {
-      if (settled || (sweep !== null && !TERMINAL_STATUSES.has(sweep.status))) return
-      settled = true
-      unsubscribe()
-      clearInterval(poll)
-      if (sweep?.status === 'succeeded') resolve()
-      else reject(new Error(sweep === null ? 'sweep vanished' : `sweep ${sweep.status}: ${sweep.error?.message ?? ''}`))
-    }
-    const unsubscribe = queue.subscribe(record.id, (event) => settle(event.sweep))
-    const check = (): void => { queue.get(record.id).then(settle, reject) }
-    const poll = setInterval(check, 500)
-    check()
-  })
-  const seconds = (performance.now() - started) / 1000
-  const result = await queue.results(record.id)
-  return { seconds, bytes: resultToJson(result!, { perTrial: true }) }
-}
-
 async function timeRuns (queue: SweepQueue): Promise<{ seconds: number[], bytes: string }> {
-  await finish(queue, curve(4, 99))
+  await finishSweep(queue, curve(4, 99))
   const seconds: number[] = []
   let bytes = ''
   for (let rep = 0; rep < REPS; rep++) {
-    const run = await finish(queue, curve(TRIALS, 1))
+    const run = await finishSweep(queue, curve(TRIALS, 1))
     seconds.push(run.seconds)
     bytes = run.bytes
   }
@@ -102,18 +73,6 @@ async function embedded (threads: number): Promise<{ seconds: number[], bytes: s
   }
 }
 
-async function redisAnswers (): Promise<boolean> {
-  const client = new Redis(REDIS_URL, { lazyConnect: true, maxRetriesPerRequest: 1, enableOfflineQueue: false })
-  try {
-    await client.connect()
-    return (await client.ping()) === 'PONG'
-  } catch {
-    return false
-  } finally {
-    client.disconnect()
-  }
-}
-
 async function redis (workers: number): Promise<{ seconds: number[], bytes: string }> {
   const prefix = `bench-${randomUUID()}`
   const queue = await createRedisQueue({ url: REDIS_URL, prefix, logger })
@@ -124,10 +83,7 @@ async function redis (workers: number): Promise<{ seconds: number[], bytes: stri
   } finally {
     await Promise.all(processes.map((p) => stopWorker(p)))
     await queue.close()
-    const client = new Redis(REDIS_URL)
-    const keys = await client.keys(`${prefix}:*`)
-    if (keys.length > 0) await client.del(...keys)
-    client.disconnect()
+    await dropPrefix(REDIS_URL, prefix)
   }
 }
 
@@ -164,7 +120,7 @@ if (process.env.C_PEER !== undefined) {
 const e1 = await embedded(1)
 const e2 = await embedded(2)
 report.embedded = { one: median(e1.seconds), two: median(e2.seconds), speedup: median(e1.seconds) / median(e2.seconds), identical: e1.bytes === e2.bytes, runs: { one: e1.seconds, two: e2.seconds } }
-if (await redisAnswers()) {
+if (await redisAnswers(REDIS_URL)) {
   const r1 = await redis(1)
   const r2 = await redis(2)
   report.redis = { one: median(r1.seconds), two: median(r2.seconds), speedup: median(r1.seconds) / median(r2.seconds), identical: r1.bytes === r2.bytes && r1.bytes === e1.bytes, runs: { one: r1.seconds, two: r2.seconds } }

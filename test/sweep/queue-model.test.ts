@@ -6,18 +6,24 @@
 import { describe, expect, it } from 'vitest'
 import { chunkSecondsFor, efficiency, fitServiceTime, queueingWait, utilisation, workerCeiling, type QueueModel } from '../../bench/queue-model.js'
 
-const flat = (base: number, overhead: number, chunkSeconds: number): QueueModel => ({ service: { base, perWorker: 0 }, workerOverheadSeconds: overhead, chunkSeconds })
+const flat = (base: number, overhead: number, chunkSeconds: number): QueueModel => ({ service: { perChunk: base, perWorkerPerSecond: 0 }, workerOverheadSeconds: overhead, chunkSeconds })
 
 describe('queue model', () => {
-  it('fits c(W) = base + perWorker·W exactly through points on a line', () => {
-    const fit = fitServiceTime([1, 4, 16].map((workers) => ({ workers, redisCpuPerChunk: 0.002 + 0.0001 * workers })))
-    expect(fit.base).toBeCloseTo(0.002, 12)
-    expect(fit.perWorker).toBeCloseTo(0.0001, 12)
+  it('separates the per-chunk cost from the per-worker standing cost', () => {
+    // Redis CPU rate = 0.002·λ + 0.0005·W, measured as CPU per chunk at each run's own rate.
+    const runs = [[1, 30], [4, 20], [16, 12]].map(([workers, chunksPerSecond]) => ({ workers: workers!, chunksPerSecond: chunksPerSecond!, redisCpuPerChunk: 0.002 + 0.0005 * workers! / chunksPerSecond! }))
+    const fit = fitServiceTime(runs)
+    expect(fit.perChunk).toBeCloseTo(0.002, 12)
+    expect(fit.perWorkerPerSecond).toBeCloseTo(0.0005, 12)
   })
 
-  it('takes a falling fit as flat at the largest measured cost', () => {
-    expect(fitServiceTime([{ workers: 1, redisCpuPerChunk: 0.004 }, { workers: 16, redisCpuPerChunk: 0.003 }])).toEqual({ base: 0.004, perWorker: 0 })
-    expect(fitServiceTime([{ workers: 4, redisCpuPerChunk: 0.005 }])).toEqual({ base: 0.005, perWorker: 0 })
+  it('never fits a negative cost, and charges a single run to its chunks', () => {
+    // Per-chunk CPU falling fast with the workers: the joint fit's per-chunk cost is negative.
+    const falling = [{ workers: 1, chunksPerSecond: 10, redisCpuPerChunk: 0.001 }, { workers: 16, chunksPerSecond: 10, redisCpuPerChunk: 0.01 }, { workers: 4, chunksPerSecond: 40, redisCpuPerChunk: 0.0001 }]
+    const fit = fitServiceTime(falling)
+    expect(fit.perChunk).toBeGreaterThanOrEqual(0)
+    expect(fit.perWorkerPerSecond).toBeGreaterThanOrEqual(0)
+    expect(fitServiceTime([{ workers: 4, chunksPerSecond: 20, redisCpuPerChunk: 0.005 }])).toEqual({ perChunk: 0.005, perWorkerPerSecond: 0 })
     expect(() => fitServiceTime([])).toThrow(RangeError)
   })
 
@@ -40,17 +46,17 @@ describe('queue model', () => {
     expect(workerCeiling(flat(0.01, 0.4, 3))).toBe(0)
   })
 
-  it('agrees with a brute-force scan when the service time grows with the workers', () => {
-    const model: QueueModel = { service: { base: 0.003, perWorker: 0.00002 }, workerOverheadSeconds: 0.05, chunkSeconds: 3 }
+  it('agrees with a brute-force scan when workers have a standing cost', () => {
+    const model: QueueModel = { service: { perChunk: 0.003, perWorkerPerSecond: 0.0004 }, workerOverheadSeconds: 0.05, chunkSeconds: 3 }
     let brute = 0
     for (let w = 1; w < 5000; w++) if (efficiency(model, w) >= 0.9) brute = w
     expect(workerCeiling(model)).toBe(brute)
     expect(brute).toBeGreaterThan(1)
-    expect(workerCeiling({ ...model, service: { base: 0, perWorker: 0 } }, 0.9, 1000)).toBe(1000)
+    expect(workerCeiling({ ...model, service: { perChunk: 0, perWorkerPerSecond: 0 } }, 0.9, 1000)).toBe(1000)
   })
 
   it('finds the chunk duration that keeps a worker count at the target', () => {
-    const rest = { service: { base: 0.01, perWorker: 0 }, workerOverheadSeconds: 0 }
+    const rest = { service: { perChunk: 0.01, perWorkerPerSecond: 0 }, workerOverheadSeconds: 0 }
     const seconds = chunkSecondsFor(rest, 291)
     expect(efficiency({ ...rest, chunkSeconds: seconds }, 291)).toBeGreaterThanOrEqual(0.9)
     expect(efficiency({ ...rest, chunkSeconds: seconds - 0.01 }, 291)).toBeLessThan(0.9)

@@ -13,8 +13,9 @@ export interface ServerProcess {
   logLines: Array<Record<string, unknown>>
 }
 
-export async function startServerProcess (env: Record<string, string>, timeoutMs = 30_000): Promise<ServerProcess> {
-  const child = spawn(process.execPath, ['--import', 'tsx', SERVER], {
+/** `nodeFlags` go before the loader (the benchmarks pass the engine processes' flags, src/runtime/node-flags.ts). */
+export async function startServerProcess (env: Record<string, string>, timeoutMs = 30_000, nodeFlags: readonly string[] = []): Promise<ServerProcess> {
+  const child = spawn(process.execPath, [...nodeFlags, '--import', 'tsx', SERVER], {
     env: { ...process.env, PORT: '0', HOST: '127.0.0.1', LOG_LEVEL: 'info', ...env },
     stdio: ['ignore', 'pipe', 'pipe']
   })
