@@ -29,6 +29,7 @@ import { resultRoutes } from './routes/results.js'
 import { sweepRoutes } from './routes/sweeps.js'
 import { theoryRoutes } from './routes/theory.js'
 import { DEFAULT_WEB_ROOT, webRoutes } from './routes/web.js'
+import { docsRoutes } from './routes/docs.js'
 import type { TokenTable } from './tokens.js'
 import { API_DOCUMENT_INFO } from './openapi-info.js'
 import { transformDocument } from './openapi-document.js'
@@ -153,6 +154,7 @@ export function buildApp (deps: AppDependencies): FastifyInstance {
   app.register(eventRoutes, context)
   app.register(theoryRoutes, context)
   app.register(webRoutes, { root: deps.webRoot === undefined ? DEFAULT_WEB_ROOT : deps.webRoot })
+  app.register(docsRoutes)
   app.register(figureRoutes, context)
   app.register(bundleRoutes, context)
   return app as unknown as FastifyInstance

@@ -7,7 +7,7 @@ export const API_DOCUMENT_INFO = {
       'Simulation sweeps of Hopfield-type associative-memory networks: submit a sweep spec, follow its progress, fetch results as JSON or CSV.',
       '',
       'Errors are RFC 9457 problem documents (`application/problem+json`) with a stable `code`; docs/errors.md lists every code.',
-      'When the server is configured with tokens, every route except /healthz and /readyz needs `Authorization: Bearer <token>`, and each token sees only its owner\'s sweeps.'
+      'When the server is configured with tokens, every route except /healthz, /readyz and the pages (the lab\'s page at /, this reference at /docs) needs `Authorization: Bearer <token>`, and each token sees only its owner\'s sweeps.'
     ].join('\n'),
     license: { name: 'MIT', identifier: 'MIT' }
   },

@@ -11,6 +11,7 @@ import { readdir, readFile } from 'node:fs/promises'
 import { extname, join, relative, sep } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import type { FastifyPluginAsync, FastifyReply } from 'fastify'
+import { PAGE_CONTENT_SECURITY_POLICY } from '../page-security.js'
 
 /** dist/web from the repository root: the same three levels up from src/api/routes and from dist/api/routes. */
 export const DEFAULT_WEB_ROOT = fileURLToPath(new URL('../../../dist/web/', import.meta.url))
@@ -31,22 +32,6 @@ const MEDIA_TYPES: Record<string, string> = {
   '.map': 'application/json; charset=utf-8',
   '.txt': 'text/plain; charset=utf-8'
 }
-
-/**
- * Only our own files may run or style the page; API calls and figures stay on this origin;
- * figures arrive as blob: images. Nothing may frame the page.
- */
-const CONTENT_SECURITY_POLICY = [
-  "default-src 'none'",
-  "script-src 'self'",
-  "style-src 'self'",
-  "img-src 'self' blob: data:",
-  "connect-src 'self'",
-  "manifest-src 'self'",
-  "base-uri 'none'",
-  "form-action 'none'",
-  "frame-ancestors 'none'"
-].join('; ')
 
 const NOT_BUILT_PAGE = `<!doctype html>
 <html lang="en"><head><meta charset="utf-8"><title>memsweep: page not built</title></head>
@@ -102,7 +87,7 @@ export const webRoutes: FastifyPluginAsync<WebRoutesOptions> = async (app, { roo
 
   app.get('/', routeOptions, async (request, reply) => {
     reply
-      .header('content-security-policy', CONTENT_SECURITY_POLICY)
+      .header('content-security-policy', PAGE_CONTENT_SECURITY_POLICY)
       .header('referrer-policy', 'no-referrer')
       .header('x-frame-options', 'DENY')
     const page = files?.get('index.html')
