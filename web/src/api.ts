@@ -5,7 +5,9 @@
  */
 import { EventStreamParser } from './event-stream.js'
 import { askForToken, currentToken, forgetToken } from './token.js'
-import type { Problem, SweepDetail, SweepList, SweepStatus, SweepStatusName, Validation } from './types.js'
+import type { Annotation, Extension, Problem, SweepDetail, SweepList, SweepStatus, SweepStatusName, Validation } from './types.js'
+
+export type { Annotation, Extension } from './types.js'
 
 export class ApiProblem extends Error {
   constructor (readonly status: number, readonly problem: Problem) {
@@ -105,15 +107,11 @@ export async function purgeSweep (id: string): Promise<void> {
   await call(`${sweepPath(id)}?purge=true`, { method: 'DELETE' })
 }
 
-export interface Extension { trials?: number, add?: Record<string, number[]>, label?: string | null, tags?: string[] }
-
 /** A new sweep with more trials and/or more axis values; its parent's stored trials are reused. */
 export async function extendSweep (id: string, extension: Extension): Promise<SweepDetail> {
   const response = await call(`${sweepPath(id)}/extend`, { method: 'POST', json: extension })
   return await response.json() as SweepDetail
 }
-
-export interface Annotation { label?: string | null, tags?: string[], notes?: string | null }
 
 export async function annotateSweep (id: string, patch: Annotation): Promise<SweepDetail> {
   const response = await call(sweepPath(id), { method: 'PATCH', json: patch })

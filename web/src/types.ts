@@ -15,6 +15,10 @@ export type SweepProgress = Schemas['SweepProgress']
 export type SweepStatus = Schemas['Sweep']
 export type SweepDetail = Schemas['SweepDetail']
 export type SweepList = Schemas['SweepList']
+/** The body of POST /v1/sweeps/{id}/extend. */
+export type Extension = Schemas['SweepExtensionInput']
+/** The body of PATCH /v1/sweeps/{id}. */
+export type Annotation = Schemas['SweepAnnotationInput']
 
 /** A spec as JSON: the page edits it as a plain object. */
 export type Spec = Record<string, unknown>
