@@ -22,14 +22,14 @@ export const ESTIMATE_CASES: EstimateCase[] = [
   { name: 'tiny with stability and trajectories: N = 16, P = 2', spec: { neurons: 16, patterns: 2, trials: 20_000, measures: { stability: true, overlapTrajectory: true, energyTrajectory: true } } },
   { name: 'small: N = 100, P = 5', spec: { neurons: 100, patterns: 5, trials: 10_000 } },
   { name: 'W2 point: N = 500, α = 0.14, async', spec: { neurons: 500, load: 0.14, trials: 600, cue: { kind: 'flip', fraction: 0.05 } } },
-  { name: 'N = 2000, P = 100, sync', spec: { neurons: 2000, patterns: 100, trials: 60, dynamics: { update: 'sync' } } },
-  { name: 'N = 4000, P = 400, one network', spec: { neurons: 4000, patterns: 400, trials: 20, trialsPerNetwork: 20 } },
-  { name: 'Glauber T = 0.3, N = 500, P = 25', spec: { neurons: 500, patterns: 25, trials: 100, dynamics: { temperature: 0.3, maxSweeps: 20 } } },
+  { name: 'N = 2000, P = 100, sync', spec: { neurons: 2000, patterns: 100, trials: 400, dynamics: { update: 'sync' } } },
+  { name: 'N = 4000, P = 400, 20 trials per network', spec: { neurons: 4000, patterns: 400, trials: 200, trialsPerNetwork: 20 } },
+  { name: 'Glauber T = 0.3, N = 500, P = 25', spec: { neurons: 500, patterns: 25, trials: 400, dynamics: { temperature: 0.3, maxSweeps: 20 } } },
   { name: 'pseudo-inverse N = 400, P = 40', spec: { neurons: 400, patterns: 40, trials: 30, rule: { kind: 'pseudo-inverse' } } },
   { name: 'Storkey N = 300, P = 20', spec: { neurons: 300, patterns: 20, trials: 30, rule: { kind: 'storkey' } } },
   { name: 'diluted 0.5, N = 800, P = 20', spec: { neurons: 800, patterns: 20, trials: 40, dilution: { keep: 0.5, symmetric: true } } },
-  { name: 'dense polynomial n = 3, N = 200, P = 400', spec: { neurons: 200, patterns: 400, trials: 40, rule: { kind: 'dense-polynomial', degree: 3 } } },
-  { name: 'modern softmax β = 8, N = 400, P = 500', spec: { neurons: 400, patterns: 500, trials: 100, rule: { kind: 'modern-softmax', beta: 8 } } },
+  { name: 'dense polynomial n = 3, N = 200, P = 400', spec: { neurons: 200, patterns: 400, trials: 200, rule: { kind: 'dense-polynomial', degree: 3 } } },
+  { name: 'modern softmax β = 8, N = 400, P = 500', spec: { neurons: 400, patterns: 500, trials: 300, rule: { kind: 'modern-softmax', beta: 8 } } },
   { name: 'fixed in-degree K = 50, N = 5000, P = 5', spec: { neurons: 5000, patterns: 5, trials: 20, dilution: { kind: 'fixed-in-degree', inDegree: 50 } } }
 ]
 

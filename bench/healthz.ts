@@ -10,7 +10,7 @@
  *
  * Environment: HEALTHZ_TRIALS (1,000,000), HEALTHZ_SECONDS (10).
  */
-import { mkdtempSync, rmSync } from 'node:fs'
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { ENGINE_PROCESS_FLAGS } from '../src/runtime/node-flags.js'
@@ -46,6 +46,18 @@ export interface HealthzReport {
   idle: LatencySummary
   loaded: LatencySummary
   downloads: { count: number, bytes: number, byStatus: Record<string, number> }
+  /** Peak resident set of the server process over its life (computing, storing, rendering), bytes; null off Linux. */
+  serverPeakRssBytes: number | null
+}
+
+/** VmHWM of a process: its peak resident set so far. */
+function peakRss (pid: number | undefined): number | null {
+  try {
+    const kb = /^VmHWM:\s+(\d+) kB/m.exec(readFileSync(`/proc/${pid}/status`, 'utf8'))?.[1]
+    return kb === undefined ? null : Number(kb) * 1024
+  } catch {
+    return null
+  }
 }
 
 function summary (ms: number[]): LatencySummary {
@@ -101,7 +113,9 @@ function download (n: number, big: string, traj: string): string {
 }
 
 const dataDir = mkdtempSync(join(tmpdir(), 'memsweep-healthz-'))
-const server = await startServerProcess({ DATA_DIR: dataDir, WORKER_THREADS: '2', RATE_LIMIT_MAX: '1000000' }, 120_000, ENGINE_PROCESS_FLAGS)
+// HEALTHZ_NODE_FLAGS: extra flags for the server (e.g. --cpu-prof to find what holds its event loop).
+const extraFlags = (process.env.HEALTHZ_NODE_FLAGS ?? '').split(' ').filter((flag) => flag !== '')
+const server = await startServerProcess({ DATA_DIR: dataDir, WORKER_THREADS: '2', RATE_LIMIT_MAX: '1000000' }, 120_000, [...ENGINE_PROCESS_FLAGS, ...extraFlags])
 try {
   const base = server.url
   const started = performance.now()
@@ -126,7 +140,7 @@ try {
   const loaded = await probe(base, () => performance.now() > loadEnd)
   state.done = true
   await downloader
-  const report: HealthzReport = { trials: TRIALS, seconds: SECONDS, computeSeconds, idle: summary(idle), loaded: summary(loaded), downloads: { count, bytes, byStatus } }
+  const report: HealthzReport = { trials: TRIALS, seconds: SECONDS, computeSeconds, idle: summary(idle), loaded: summary(loaded), downloads: { count, bytes, byStatus }, serverPeakRssBytes: peakRss(server.child.pid) }
   process.stdout.write(`${JSON.stringify(report)}\n`)
 } finally {
   server.child.kill('SIGTERM')

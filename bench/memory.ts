@@ -15,7 +15,7 @@
 import { spawnSync } from 'node:child_process'
 import { fileURLToPath } from 'node:url'
 import { isMainThread, parentPort, Worker, workerData } from 'node:worker_threads'
-import { estimateWork, normaliseSpec } from '../src/spec/index.js'
+import { DEFAULT_LIMITS, estimateWork, normaliseSpec, type WorkLimits } from '../src/spec/index.js'
 import { planSweep, computeChunk } from '../src/sweep/index.js'
 import { compileKernelsOptimised } from '../src/runtime/kernel-compilation.js'
 import { explicitCollector } from '../src/runtime/reclaim.js'
@@ -42,6 +42,30 @@ export const MEMORY_CASES: MemoryCase[] = [
   { name: 'dense polynomial n = 3, N = 20,000, P = 2000', representation: 'dense memory', spec: { ...base, neurons: 20_000, patterns: 2000, rule: { kind: 'dense-polynomial', degree: 3 }, dynamics: { update: 'sync', maxSweeps: 1 } } },
   { name: 'modern softmax β = 8, N = 20,000, P = 2000', representation: 'softmax', spec: { ...base, neurons: 20_000, patterns: 2000, rule: { kind: 'modern-softmax', beta: 8 }, dynamics: { maxSweeps: 2 } } }
 ]
+
+/**
+ * The largest point the default limits allow: N at maxNeurons (Hebbian, overlap space, the
+ * default model) with the most patterns whose estimated peak stays within maxBytes. It is
+ * the memory a worker of a default install may be asked to hold.
+ */
+export function largestAllowedCase (limits: Pick<WorkLimits, 'maxNeurons' | 'maxBytes'> = DEFAULT_LIMITS): MemoryCase {
+  const neurons = limits.maxNeurons
+  const fits = (patterns: number): boolean => estimateWork(normaliseSpec({ ...base, neurons, patterns, trials: 1 })).peakBytes <= limits.maxBytes
+  let low = 1
+  let high = 2
+  while (fits(high)) {
+    low = high
+    high *= 2
+  }
+  while (high - low > 1) {
+    const mid = Math.floor((low + high) / 2)
+    if (fits(mid)) low = mid
+    else high = mid
+  }
+  return { name: `largest the default limits allow: Hebbian, N = ${neurons.toLocaleString('en')}, P = ${low.toLocaleString('en')}`, representation: 'overlap space', spec: { ...base, neurons, patterns: low, trials: 1 } }
+}
+
+MEMORY_CASES.push(largestAllowedCase())
 
 export interface MemoryMeasurement {
   name: string

@@ -523,6 +523,7 @@ export function healthzSection (healthz: HealthzReport | null): string[] {
     row('during downloads', healthz.loaded),
     '',
     `- Downloads: ${healthz.downloads.count} (${(healthz.downloads.bytes / 1e6).toFixed(1)} MB), by status ${Object.entries(healthz.downloads.byStatus).map(([k, v]) => `${k}: ${v}`).join(', ')}.`,
+    `- Peak resident set of the server process (VmHWM: computing both sweeps on its compute threads, storing them, rendering every download): ${healthz.serverPeakRssBytes === null ? 'not measured' : `${(healthz.serverPeakRssBytes / 2 ** 20).toFixed(0)} MiB`}.`,
     ''
   ]
 }

@@ -29,7 +29,7 @@ export { planWithReuse, pointPieces, initialTrials, type ReusableRange, type Pla
 export { reuseKeysOf } from './reuse.js'
 export { decidePoint, precisionHalfWidth, precisionOutcome, type PointDecision } from './precision.js'
 export { pointRecords } from './assemble.js'
-export { readChunks, readEncodedResult, readResult, readStoredProgress, readTrials, READ_SLICE_CHUNKS, type EncodedResult, type StoredProgress } from './read.js'
+export { readChunks, readEncodedResult, readResult, readStoredProgress, readTrials, READ_SLICE_BYTES, READ_SLICE_CHUNKS, type EncodedResult, type StoredProgress } from './read.js'
 export { chunkCpuSeconds } from './chunk-cost.js'
 export {
   CALLBACK_STATES, DEFAULT_CALLBACK_RETRY, CallbackDispatcher, callbackEvent, callbackRetryDelayMs,

@@ -14,8 +14,16 @@ import type { Chunk } from './plan.js'
 import type { StoredChunk } from './assemble.js'
 import type { SweepStore } from './store.js'
 
-/** Chunks read per slice. */
+/** Most chunks read per slice. */
 export const READ_SLICE_CHUNKS = 64
+
+/**
+ * Bytes a slice aims at: reading is synchronous in the embedded store and copies what it
+ * reads, so a slice of 64 chunks of a per-trial sweep (up to ~16 MB each) held the event loop
+ * for hundreds of milliseconds. The first slice is one chunk; later slices take as many chunks
+ * as fit this budget at the sizes seen so far (between 1 and READ_SLICE_CHUNKS).
+ */
+export const READ_SLICE_BYTES = 16 * 1024 * 1024
 
 /** A finished result's stored bytes, with the plan and chunks that hold its trials when asked for. */
 export interface EncodedResult {
@@ -34,11 +42,22 @@ export interface StoredProgress {
 }
 
 /** Every stored chunk of a plan of `planLength` chunks, ascending, read a slice at a time. */
-export async function readChunks (store: SweepStore, id: string, planLength: number): Promise<StoredChunk[]> {
+export async function readChunks (store: Pick<SweepStore, 'chunksBetween'>, id: string, planLength: number): Promise<StoredChunk[]> {
   const chunks: StoredChunk[] = []
-  for (let from = 0; from < planLength; from += READ_SLICE_CHUNKS) {
-    if (from > 0) await yieldToEventLoop()
-    chunks.push(...await store.chunksBetween(id, from, Math.min(READ_SLICE_CHUNKS, planLength - from)))
+  let count = 1
+  let seenChunks = 0
+  let seenBytes = 0
+  for (let from = 0; from < planLength; from += count) {
+    if (from > 0) {
+      await yieldToEventLoop()
+      count = seenChunks === 0 ? READ_SLICE_CHUNKS : Math.max(1, Math.min(READ_SLICE_CHUNKS, Math.floor(READ_SLICE_BYTES * seenChunks / Math.max(1, seenBytes))))
+    }
+    const slice = await store.chunksBetween(id, from, Math.min(count, planLength - from))
+    for (const chunk of slice) {
+      seenBytes += chunk.body.byteLength
+      chunks.push(chunk)
+    }
+    seenChunks += slice.length
   }
   return chunks
 }
