@@ -264,7 +264,7 @@ export type paths = {
         };
         /**
          * A figure of a succeeded sweep (SVG)
-         * @description A measure against one varied parameter, one series per value of the others, 95 % error bars, theory overlaid where it applies, legend; readable in black and white. Every point carries its numbers as data-x, data-y, data-low, data-high attributes. A strong ETag (sha256 of the bytes) supports If-None-Match → 304. 409 while the sweep has not succeeded; 400 naming the option when an option is malformed, 422 naming it when the options do not fit this sweep (for example an x it does not vary).
+         * @description A measure against one varied parameter, one series per value of the others, 95 % error bars, theory overlaid where it applies, lines named at their ends or in a legend; readable in black and white (house style and options: docs/figures.md). A standalone SVG document; every point carries its numbers as data-x, data-y, data-low, data-high attributes. A strong ETag (sha256 of the bytes) supports If-None-Match → 304. 409 while the sweep has not succeeded; 400 naming the option when an option is malformed, 422 naming it when the options do not fit this sweep (for example an x it does not vary).
          */
         get: operations["getSweepFigure"];
         put?: never;
@@ -284,9 +284,89 @@ export type paths = {
         };
         /**
          * Several succeeded sweeps overlaid in one figure (SVG)
-         * @description The figure of /v1/sweeps/{id}/figure.svg for up to 8 sweeps at once, one series per sweep (and per value of its other varied parameters), labelled by sweep label; x must be varied by every sweep. For comparing, for example, two learning rules' capacity curves. 404 if any sweep is unknown, 409 if any has not succeeded, 422 naming the option if the options do not fit them.
+         * @description The figure of /v1/sweeps/{id}/figure.svg for up to 8 sweeps at once: each sweep in its own colour, each combination of its other varied parameters with its own marker, named by the sweep label shortened (or sweepNames) and the parameter values; x must be varied by every sweep. For comparing, for example, two learning rules' capacity curves. 404 if any sweep is unknown, 409 if any has not succeeded, 422 naming the option if the options do not fit them.
          */
         get: operations["getOverlayFigure"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/v1/sweeps/{id}/figure.png": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * A figure of a succeeded sweep (PNG)
+         * @description A measure against one varied parameter, one series per value of the others, 95 % error bars, theory overlaid where it applies, lines named at their ends or in a legend; readable in black and white (house style and options: docs/figures.md). The SVG figure drawn as PNG by resvg with the shipped typeface (Source Sans 3), the same pixels on every machine; dpi sets the resolution. A strong ETag (sha256 of the bytes) supports If-None-Match → 304. 409 while the sweep has not succeeded; 400 naming the option when an option is malformed, 422 naming it when the options do not fit this sweep (for example an x it does not vary).
+         */
+        get: operations["getSweepFigurePng"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/v1/figures/overlay.png": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * Several succeeded sweeps overlaid in one figure (PNG)
+         * @description The figure of /v1/sweeps/{id}/figure.png for up to 8 sweeps at once: each sweep in its own colour, each combination of its other varied parameters with its own marker, named by the sweep label shortened (or sweepNames) and the parameter values; x must be varied by every sweep. For comparing, for example, two learning rules' capacity curves. 404 if any sweep is unknown, 409 if any has not succeeded, 422 naming the option if the options do not fit them.
+         */
+        get: operations["getOverlayFigurePng"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/v1/sweeps/{id}/figure.pdf": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * A figure of a succeeded sweep (PDF)
+         * @description A measure against one varied parameter, one series per value of the others, 95 % error bars, theory overlaid where it applies, lines named at their ends or in a legend; readable in black and white (house style and options: docs/figures.md). The SVG figure as a vector PDF (pdfkit with svg-to-pdfkit) with the shipped typeface embedded; the page is the figure's size. A strong ETag (sha256 of the bytes) supports If-None-Match → 304. 409 while the sweep has not succeeded; 400 naming the option when an option is malformed, 422 naming it when the options do not fit this sweep (for example an x it does not vary).
+         */
+        get: operations["getSweepFigurePdf"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/v1/figures/overlay.pdf": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * Several succeeded sweeps overlaid in one figure (PDF)
+         * @description The figure of /v1/sweeps/{id}/figure.pdf for up to 8 sweeps at once: each sweep in its own colour, each combination of its other varied parameters with its own marker, named by the sweep label shortened (or sweepNames) and the parameter values; x must be varied by every sweep. For comparing, for example, two learning rules' capacity curves. 404 if any sweep is unknown, 409 if any has not succeeded, 422 naming the option if the options do not fit them.
+         */
+        get: operations["getOverlayFigurePdf"];
         put?: never;
         post?: never;
         delete?: never;
@@ -3545,7 +3625,7 @@ export interface operations {
                     "X-Request-Id"?: string;
                     /** @description Strong validator: the sha256 of the bytes (base64url), one per set of options. */
                     ETag?: string;
-                    /** @description inline; filename="memsweep-<id>-<measure>.svg" (overlays: memsweep-overlay-<measure>.svg). */
+                    /** @description inline; filename="memsweep-<id>-<measure>.<svg, png or pdf>" (overlays: memsweep-overlay-<measure>.<format>). */
                     "Content-Disposition"?: string;
                     /** @description default-src 'none': the figure runs and loads nothing. */
                     "Content-Security-Policy"?: string;
@@ -3729,7 +3809,7 @@ export interface operations {
                     "X-Request-Id"?: string;
                     /** @description Strong validator: the sha256 of the bytes (base64url), one per set of options. */
                     ETag?: string;
-                    /** @description inline; filename="memsweep-<id>-<measure>.svg" (overlays: memsweep-overlay-<measure>.svg). */
+                    /** @description inline; filename="memsweep-<id>-<measure>.<svg, png or pdf>" (overlays: memsweep-overlay-<measure>.<format>). */
                     "Content-Disposition"?: string;
                     /** @description default-src 'none': the figure runs and loads nothing. */
                     "Content-Security-Policy"?: string;
@@ -3737,6 +3817,752 @@ export interface operations {
                 };
                 content: {
                     "image/svg+xml": string;
+                };
+            };
+            /** @description Not modified: the ETag in If-None-Match is current. */
+            304: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    /** @description The current validator. */
+                    ETag?: string;
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+            /** @description Problem details: MEMSWEEP_MALFORMED_REQUEST. */
+            400: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_UNAUTHENTICATED. */
+            401: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    /** @description Bearer challenge. */
+                    "WWW-Authenticate"?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_ROUTE_NOT_FOUND, MEMSWEEP_SWEEP_NOT_FOUND. */
+            404: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_RESULTS_NOT_READY, MEMSWEEP_RESULTS_UNAVAILABLE, MEMSWEEP_SWEEP_FINISHED, MEMSWEEP_SWEEP_ACTIVE, MEMSWEEP_NOT_RESUMABLE. */
+            409: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    /** @description While a sweep runs: suggested seconds before asking again. */
+                    "Retry-After"?: number;
+                    /** @description While a sweep runs: `<…>; rel="monitor"`, the status to follow. */
+                    Link?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_SPEC_INVALID, MEMSWEEP_WORK_LIMIT_EXCEEDED, MEMSWEEP_IDEMPOTENCY_KEY_REUSED, MEMSWEEP_FIGURE_OPTIONS_UNFIT. */
+            422: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_RATE_LIMITED, MEMSWEEP_TOO_MANY_ACTIVE_SWEEPS, MEMSWEEP_TOO_MANY_AUTH_FAILURES. */
+            429: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    /** @description Seconds until the limit resets (or until a sweep may have finished). */
+                    "Retry-After"?: number;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_INTERNAL. */
+            500: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_NOT_READY. */
+            503: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    /** @description Seconds before trying again. */
+                    "Retry-After"?: number;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+        };
+    };
+    getSweepFigurePng: {
+        parameters: {
+            query?: {
+                /** @description What the y axis shows: success (recall success rate), overlap (mean final target overlap), sweeps (mean sweeps run), maxOtherOverlap (mean largest |overlap| with another pattern), energy (mean energy per neuron), endState (fraction of trials ending in the class chosen by `endState`), unstableFraction and fixedPatternFraction (one-step stability of the stored patterns; needs measures.stability in the spec), patternOverlapMeanAbs and patternOverlapMaxAbs (mean and largest |overlap| between the stored patterns of a network, mean over networks; needs measures.patternOverlaps in the spec). Default: success. */
+                measure?: "success" | "overlap" | "sweeps" | "maxOtherOverlap" | "energy" | "endState" | "unstableFraction" | "fixedPatternFraction" | "patternOverlapMeanAbs" | "patternOverlapMaxAbs";
+                /** @description With measure=endState: the class of final state counted. Default: target. */
+                endState?: "target" | "reversed" | "otherPattern" | "symmetricMixture" | "partialTarget" | "spurious" | "spinGlass";
+                /** @description Varied parameter on the x axis. Default: the varied parameter with the most values (the later one in canonical order on a tie). */
+                x?: "neurons" | "patterns" | "load" | "inDegreeLoad" | "family.activity" | "family.parents" | "family.parentOverlap" | "rule.threshold" | "rule.degree" | "rule.beta" | "dilution.keep" | "dilution.inDegree" | "cue.fraction" | "cue.components" | "dynamics.temperature" | "dynamics.maxSweeps" | "dynamics.burnIn" | "successThreshold" | "trialsPerNetwork";
+                /** @description Varied parameter that names the series (one per value) and orders the legend, numeric or categorical (rule, rule.selfCoupling). Any other varied parameter still splits series, so no line ever joins points that differ in more than x. Default: every varied parameter but x. */
+                series?: "neurons" | "patterns" | "load" | "inDegreeLoad" | "family.activity" | "family.parents" | "family.parentOverlap" | "rule" | "rule.selfCoupling" | "rule.threshold" | "rule.degree" | "rule.beta" | "dilution.keep" | "dilution.inDegree" | "cue.fraction" | "cue.components" | "dynamics.temperature" | "dynamics.maxSweeps" | "dynamics.burnIn" | "successThreshold" | "trialsPerNetwork";
+                /** @description x axis scale; log needs positive x values. Default: linear. */
+                xScale?: "linear" | "log";
+                /** @description y axis scale; on log, values ≤ 0 are left out (and counted in the description). Default: linear. */
+                yScale?: "linear" | "log";
+                /** @description ci: 95 % confidence intervals (Wilson score for rates, Student t for means); se: ± one standard error; sd: ± one standard deviation of single trials (rates: √(p(1−p))); none. Rates stay within [0, 1]. Default: ci. */
+                errorBars?: "ci" | "se" | "sd" | "none";
+                /** @description Overlay theory where it applies to the measure, x and model (curves, per-point values or reference lines). Default: true. */
+                theory?: boolean;
+                /** @description Width in px (screen figures). Default: 640, unless the size is given in mm. */
+                width?: number;
+                /** @description Height in px (screen figures). Default: 440. */
+                height?: number;
+                /** @description Print size of a journal column: single (85 × 64 mm) or double (180 × 112 mm). widthMm and heightMm override either side. The figure is laid out in points and its type sized in pt. */
+                column?: "single" | "double";
+                /** @description Width in mm (print figures; not with width or height in px). */
+                widthMm?: number;
+                /** @description Height in mm (print figures). Default: three quarters of the width, or the column's height. */
+                heightMm?: number;
+                /** @description Size of the body type (tick labels, legend) in px, or in pt for a size in mm; titles and notes scale with it. Default: 12 px, 7.5 pt. */
+                fontSize?: number;
+                /** @description Title. Default: the sweep label, or the measure against x. */
+                title?: string;
+                /** @description Draw the title. Default: true. */
+                showTitle?: boolean;
+                /** @description Line under the title. Default: the model conditions every sweep shares (rule, cue, dynamics, trials). */
+                subtitle?: string;
+                /** @description Draw the subtitle. Default: true. */
+                showSubtitle?: boolean;
+                /** @description Note under the plot. Default: what the error bars are, what was left out, and the spec hash and engine. */
+                footnote?: string;
+                /** @description Draw the footnote. Default: true. */
+                showFootnote?: boolean;
+                /** @description Names of the series in the order drawn, separated by | (an empty name keeps the generated one). */
+                seriesNames?: string;
+                /** @description Overlays: a short name per sweep, in the order of the sweeps, separated by |; each series is named by it and its parameter values. Default: the sweep label, shortened. */
+                sweepNames?: string;
+                /** @description Resolution of the PNG in dots per inch (72–1200). Default: 300 for a size in mm; 192 for a size in px (2 pixels per px). */
+                dpi?: number;
+                /** @description true: for a sweep that has not succeeded, the figure of the points finished so far (drawn afresh each time, never cached). A succeeded sweep answers its full figure. */
+                partial?: "true" | "false";
+            };
+            header?: never;
+            path: {
+                /** @description Sweep id, as returned by POST /v1/sweeps (1-64 letters, digits, - and _; anything else is a 400). */
+                id: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description The figure. */
+            200: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    /** @description Strong validator: the sha256 of the bytes (base64url), one per set of options. */
+                    ETag?: string;
+                    /** @description inline; filename="memsweep-<id>-<measure>.<svg, png or pdf>" (overlays: memsweep-overlay-<measure>.<format>). */
+                    "Content-Disposition"?: string;
+                    /** @description default-src 'none': the figure runs and loads nothing. */
+                    "Content-Security-Policy"?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "image/png": string;
+                };
+            };
+            /** @description Not modified: the ETag in If-None-Match is current. */
+            304: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    /** @description The current validator. */
+                    ETag?: string;
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+            /** @description Problem details: MEMSWEEP_MALFORMED_REQUEST. */
+            400: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_UNAUTHENTICATED. */
+            401: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    /** @description Bearer challenge. */
+                    "WWW-Authenticate"?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_ROUTE_NOT_FOUND, MEMSWEEP_SWEEP_NOT_FOUND. */
+            404: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_RESULTS_NOT_READY, MEMSWEEP_RESULTS_UNAVAILABLE, MEMSWEEP_SWEEP_FINISHED, MEMSWEEP_SWEEP_ACTIVE, MEMSWEEP_NOT_RESUMABLE. */
+            409: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    /** @description While a sweep runs: suggested seconds before asking again. */
+                    "Retry-After"?: number;
+                    /** @description While a sweep runs: `<…>; rel="monitor"`, the status to follow. */
+                    Link?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_SPEC_INVALID, MEMSWEEP_WORK_LIMIT_EXCEEDED, MEMSWEEP_IDEMPOTENCY_KEY_REUSED, MEMSWEEP_FIGURE_OPTIONS_UNFIT. */
+            422: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_RATE_LIMITED, MEMSWEEP_TOO_MANY_ACTIVE_SWEEPS, MEMSWEEP_TOO_MANY_AUTH_FAILURES. */
+            429: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    /** @description Seconds until the limit resets (or until a sweep may have finished). */
+                    "Retry-After"?: number;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_INTERNAL. */
+            500: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_NOT_READY. */
+            503: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    /** @description Seconds before trying again. */
+                    "Retry-After"?: number;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+        };
+    };
+    getOverlayFigurePng: {
+        parameters: {
+            query: {
+                /** @description Ids of the succeeded sweeps to overlay, separated by commas (at most 8); series are labelled by each sweep's label. */
+                sweeps: string;
+                /** @description What the y axis shows: success (recall success rate), overlap (mean final target overlap), sweeps (mean sweeps run), maxOtherOverlap (mean largest |overlap| with another pattern), energy (mean energy per neuron), endState (fraction of trials ending in the class chosen by `endState`), unstableFraction and fixedPatternFraction (one-step stability of the stored patterns; needs measures.stability in the spec), patternOverlapMeanAbs and patternOverlapMaxAbs (mean and largest |overlap| between the stored patterns of a network, mean over networks; needs measures.patternOverlaps in the spec). Default: success. */
+                measure?: "success" | "overlap" | "sweeps" | "maxOtherOverlap" | "energy" | "endState" | "unstableFraction" | "fixedPatternFraction" | "patternOverlapMeanAbs" | "patternOverlapMaxAbs";
+                /** @description With measure=endState: the class of final state counted. Default: target. */
+                endState?: "target" | "reversed" | "otherPattern" | "symmetricMixture" | "partialTarget" | "spurious" | "spinGlass";
+                /** @description Varied parameter on the x axis. Default: the varied parameter with the most values (the later one in canonical order on a tie). */
+                x?: "neurons" | "patterns" | "load" | "inDegreeLoad" | "family.activity" | "family.parents" | "family.parentOverlap" | "rule.threshold" | "rule.degree" | "rule.beta" | "dilution.keep" | "dilution.inDegree" | "cue.fraction" | "cue.components" | "dynamics.temperature" | "dynamics.maxSweeps" | "dynamics.burnIn" | "successThreshold" | "trialsPerNetwork";
+                /** @description Varied parameter that names the series (one per value) and orders the legend, numeric or categorical (rule, rule.selfCoupling). Any other varied parameter still splits series, so no line ever joins points that differ in more than x. Default: every varied parameter but x. */
+                series?: "neurons" | "patterns" | "load" | "inDegreeLoad" | "family.activity" | "family.parents" | "family.parentOverlap" | "rule" | "rule.selfCoupling" | "rule.threshold" | "rule.degree" | "rule.beta" | "dilution.keep" | "dilution.inDegree" | "cue.fraction" | "cue.components" | "dynamics.temperature" | "dynamics.maxSweeps" | "dynamics.burnIn" | "successThreshold" | "trialsPerNetwork";
+                /** @description x axis scale; log needs positive x values. Default: linear. */
+                xScale?: "linear" | "log";
+                /** @description y axis scale; on log, values ≤ 0 are left out (and counted in the description). Default: linear. */
+                yScale?: "linear" | "log";
+                /** @description ci: 95 % confidence intervals (Wilson score for rates, Student t for means); se: ± one standard error; sd: ± one standard deviation of single trials (rates: √(p(1−p))); none. Rates stay within [0, 1]. Default: ci. */
+                errorBars?: "ci" | "se" | "sd" | "none";
+                /** @description Overlay theory where it applies to the measure, x and model (curves, per-point values or reference lines). Default: true. */
+                theory?: boolean;
+                /** @description Width in px (screen figures). Default: 640, unless the size is given in mm. */
+                width?: number;
+                /** @description Height in px (screen figures). Default: 440. */
+                height?: number;
+                /** @description Print size of a journal column: single (85 × 64 mm) or double (180 × 112 mm). widthMm and heightMm override either side. The figure is laid out in points and its type sized in pt. */
+                column?: "single" | "double";
+                /** @description Width in mm (print figures; not with width or height in px). */
+                widthMm?: number;
+                /** @description Height in mm (print figures). Default: three quarters of the width, or the column's height. */
+                heightMm?: number;
+                /** @description Size of the body type (tick labels, legend) in px, or in pt for a size in mm; titles and notes scale with it. Default: 12 px, 7.5 pt. */
+                fontSize?: number;
+                /** @description Title. Default: the sweep label, or the measure against x. */
+                title?: string;
+                /** @description Draw the title. Default: true. */
+                showTitle?: boolean;
+                /** @description Line under the title. Default: the model conditions every sweep shares (rule, cue, dynamics, trials). */
+                subtitle?: string;
+                /** @description Draw the subtitle. Default: true. */
+                showSubtitle?: boolean;
+                /** @description Note under the plot. Default: what the error bars are, what was left out, and the spec hash and engine. */
+                footnote?: string;
+                /** @description Draw the footnote. Default: true. */
+                showFootnote?: boolean;
+                /** @description Names of the series in the order drawn, separated by | (an empty name keeps the generated one). */
+                seriesNames?: string;
+                /** @description Overlays: a short name per sweep, in the order of the sweeps, separated by |; each series is named by it and its parameter values. Default: the sweep label, shortened. */
+                sweepNames?: string;
+                /** @description Resolution of the PNG in dots per inch (72–1200). Default: 300 for a size in mm; 192 for a size in px (2 pixels per px). */
+                dpi?: number;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description The figure. */
+            200: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    /** @description Strong validator: the sha256 of the bytes (base64url), one per set of options. */
+                    ETag?: string;
+                    /** @description inline; filename="memsweep-<id>-<measure>.<svg, png or pdf>" (overlays: memsweep-overlay-<measure>.<format>). */
+                    "Content-Disposition"?: string;
+                    /** @description default-src 'none': the figure runs and loads nothing. */
+                    "Content-Security-Policy"?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "image/png": string;
+                };
+            };
+            /** @description Not modified: the ETag in If-None-Match is current. */
+            304: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    /** @description The current validator. */
+                    ETag?: string;
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+            /** @description Problem details: MEMSWEEP_MALFORMED_REQUEST. */
+            400: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_UNAUTHENTICATED. */
+            401: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    /** @description Bearer challenge. */
+                    "WWW-Authenticate"?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_ROUTE_NOT_FOUND, MEMSWEEP_SWEEP_NOT_FOUND. */
+            404: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_RESULTS_NOT_READY, MEMSWEEP_RESULTS_UNAVAILABLE, MEMSWEEP_SWEEP_FINISHED, MEMSWEEP_SWEEP_ACTIVE, MEMSWEEP_NOT_RESUMABLE. */
+            409: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    /** @description While a sweep runs: suggested seconds before asking again. */
+                    "Retry-After"?: number;
+                    /** @description While a sweep runs: `<…>; rel="monitor"`, the status to follow. */
+                    Link?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_SPEC_INVALID, MEMSWEEP_WORK_LIMIT_EXCEEDED, MEMSWEEP_IDEMPOTENCY_KEY_REUSED, MEMSWEEP_FIGURE_OPTIONS_UNFIT. */
+            422: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_RATE_LIMITED, MEMSWEEP_TOO_MANY_ACTIVE_SWEEPS, MEMSWEEP_TOO_MANY_AUTH_FAILURES. */
+            429: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    /** @description Seconds until the limit resets (or until a sweep may have finished). */
+                    "Retry-After"?: number;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_INTERNAL. */
+            500: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_NOT_READY. */
+            503: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    /** @description Seconds before trying again. */
+                    "Retry-After"?: number;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+        };
+    };
+    getSweepFigurePdf: {
+        parameters: {
+            query?: {
+                /** @description What the y axis shows: success (recall success rate), overlap (mean final target overlap), sweeps (mean sweeps run), maxOtherOverlap (mean largest |overlap| with another pattern), energy (mean energy per neuron), endState (fraction of trials ending in the class chosen by `endState`), unstableFraction and fixedPatternFraction (one-step stability of the stored patterns; needs measures.stability in the spec), patternOverlapMeanAbs and patternOverlapMaxAbs (mean and largest |overlap| between the stored patterns of a network, mean over networks; needs measures.patternOverlaps in the spec). Default: success. */
+                measure?: "success" | "overlap" | "sweeps" | "maxOtherOverlap" | "energy" | "endState" | "unstableFraction" | "fixedPatternFraction" | "patternOverlapMeanAbs" | "patternOverlapMaxAbs";
+                /** @description With measure=endState: the class of final state counted. Default: target. */
+                endState?: "target" | "reversed" | "otherPattern" | "symmetricMixture" | "partialTarget" | "spurious" | "spinGlass";
+                /** @description Varied parameter on the x axis. Default: the varied parameter with the most values (the later one in canonical order on a tie). */
+                x?: "neurons" | "patterns" | "load" | "inDegreeLoad" | "family.activity" | "family.parents" | "family.parentOverlap" | "rule.threshold" | "rule.degree" | "rule.beta" | "dilution.keep" | "dilution.inDegree" | "cue.fraction" | "cue.components" | "dynamics.temperature" | "dynamics.maxSweeps" | "dynamics.burnIn" | "successThreshold" | "trialsPerNetwork";
+                /** @description Varied parameter that names the series (one per value) and orders the legend, numeric or categorical (rule, rule.selfCoupling). Any other varied parameter still splits series, so no line ever joins points that differ in more than x. Default: every varied parameter but x. */
+                series?: "neurons" | "patterns" | "load" | "inDegreeLoad" | "family.activity" | "family.parents" | "family.parentOverlap" | "rule" | "rule.selfCoupling" | "rule.threshold" | "rule.degree" | "rule.beta" | "dilution.keep" | "dilution.inDegree" | "cue.fraction" | "cue.components" | "dynamics.temperature" | "dynamics.maxSweeps" | "dynamics.burnIn" | "successThreshold" | "trialsPerNetwork";
+                /** @description x axis scale; log needs positive x values. Default: linear. */
+                xScale?: "linear" | "log";
+                /** @description y axis scale; on log, values ≤ 0 are left out (and counted in the description). Default: linear. */
+                yScale?: "linear" | "log";
+                /** @description ci: 95 % confidence intervals (Wilson score for rates, Student t for means); se: ± one standard error; sd: ± one standard deviation of single trials (rates: √(p(1−p))); none. Rates stay within [0, 1]. Default: ci. */
+                errorBars?: "ci" | "se" | "sd" | "none";
+                /** @description Overlay theory where it applies to the measure, x and model (curves, per-point values or reference lines). Default: true. */
+                theory?: boolean;
+                /** @description Width in px (screen figures). Default: 640, unless the size is given in mm. */
+                width?: number;
+                /** @description Height in px (screen figures). Default: 440. */
+                height?: number;
+                /** @description Print size of a journal column: single (85 × 64 mm) or double (180 × 112 mm). widthMm and heightMm override either side. The figure is laid out in points and its type sized in pt. */
+                column?: "single" | "double";
+                /** @description Width in mm (print figures; not with width or height in px). */
+                widthMm?: number;
+                /** @description Height in mm (print figures). Default: three quarters of the width, or the column's height. */
+                heightMm?: number;
+                /** @description Size of the body type (tick labels, legend) in px, or in pt for a size in mm; titles and notes scale with it. Default: 12 px, 7.5 pt. */
+                fontSize?: number;
+                /** @description Title. Default: the sweep label, or the measure against x. */
+                title?: string;
+                /** @description Draw the title. Default: true. */
+                showTitle?: boolean;
+                /** @description Line under the title. Default: the model conditions every sweep shares (rule, cue, dynamics, trials). */
+                subtitle?: string;
+                /** @description Draw the subtitle. Default: true. */
+                showSubtitle?: boolean;
+                /** @description Note under the plot. Default: what the error bars are, what was left out, and the spec hash and engine. */
+                footnote?: string;
+                /** @description Draw the footnote. Default: true. */
+                showFootnote?: boolean;
+                /** @description Names of the series in the order drawn, separated by | (an empty name keeps the generated one). */
+                seriesNames?: string;
+                /** @description Overlays: a short name per sweep, in the order of the sweeps, separated by |; each series is named by it and its parameter values. Default: the sweep label, shortened. */
+                sweepNames?: string;
+                /** @description true: for a sweep that has not succeeded, the figure of the points finished so far (drawn afresh each time, never cached). A succeeded sweep answers its full figure. */
+                partial?: "true" | "false";
+            };
+            header?: never;
+            path: {
+                /** @description Sweep id, as returned by POST /v1/sweeps (1-64 letters, digits, - and _; anything else is a 400). */
+                id: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description The figure. */
+            200: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    /** @description Strong validator: the sha256 of the bytes (base64url), one per set of options. */
+                    ETag?: string;
+                    /** @description inline; filename="memsweep-<id>-<measure>.<svg, png or pdf>" (overlays: memsweep-overlay-<measure>.<format>). */
+                    "Content-Disposition"?: string;
+                    /** @description default-src 'none': the figure runs and loads nothing. */
+                    "Content-Security-Policy"?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/pdf": string;
+                };
+            };
+            /** @description Not modified: the ETag in If-None-Match is current. */
+            304: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    /** @description The current validator. */
+                    ETag?: string;
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+            /** @description Problem details: MEMSWEEP_MALFORMED_REQUEST. */
+            400: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_UNAUTHENTICATED. */
+            401: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    /** @description Bearer challenge. */
+                    "WWW-Authenticate"?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_ROUTE_NOT_FOUND, MEMSWEEP_SWEEP_NOT_FOUND. */
+            404: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_RESULTS_NOT_READY, MEMSWEEP_RESULTS_UNAVAILABLE, MEMSWEEP_SWEEP_FINISHED, MEMSWEEP_SWEEP_ACTIVE, MEMSWEEP_NOT_RESUMABLE. */
+            409: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    /** @description While a sweep runs: suggested seconds before asking again. */
+                    "Retry-After"?: number;
+                    /** @description While a sweep runs: `<…>; rel="monitor"`, the status to follow. */
+                    Link?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_SPEC_INVALID, MEMSWEEP_WORK_LIMIT_EXCEEDED, MEMSWEEP_IDEMPOTENCY_KEY_REUSED, MEMSWEEP_FIGURE_OPTIONS_UNFIT. */
+            422: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_RATE_LIMITED, MEMSWEEP_TOO_MANY_ACTIVE_SWEEPS, MEMSWEEP_TOO_MANY_AUTH_FAILURES. */
+            429: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    /** @description Seconds until the limit resets (or until a sweep may have finished). */
+                    "Retry-After"?: number;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_INTERNAL. */
+            500: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+            /** @description Problem details: MEMSWEEP_NOT_READY. */
+            503: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    /** @description Seconds before trying again. */
+                    "Retry-After"?: number;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/problem+json": components["schemas"]["Problem"];
+                };
+            };
+        };
+    };
+    getOverlayFigurePdf: {
+        parameters: {
+            query: {
+                /** @description Ids of the succeeded sweeps to overlay, separated by commas (at most 8); series are labelled by each sweep's label. */
+                sweeps: string;
+                /** @description What the y axis shows: success (recall success rate), overlap (mean final target overlap), sweeps (mean sweeps run), maxOtherOverlap (mean largest |overlap| with another pattern), energy (mean energy per neuron), endState (fraction of trials ending in the class chosen by `endState`), unstableFraction and fixedPatternFraction (one-step stability of the stored patterns; needs measures.stability in the spec), patternOverlapMeanAbs and patternOverlapMaxAbs (mean and largest |overlap| between the stored patterns of a network, mean over networks; needs measures.patternOverlaps in the spec). Default: success. */
+                measure?: "success" | "overlap" | "sweeps" | "maxOtherOverlap" | "energy" | "endState" | "unstableFraction" | "fixedPatternFraction" | "patternOverlapMeanAbs" | "patternOverlapMaxAbs";
+                /** @description With measure=endState: the class of final state counted. Default: target. */
+                endState?: "target" | "reversed" | "otherPattern" | "symmetricMixture" | "partialTarget" | "spurious" | "spinGlass";
+                /** @description Varied parameter on the x axis. Default: the varied parameter with the most values (the later one in canonical order on a tie). */
+                x?: "neurons" | "patterns" | "load" | "inDegreeLoad" | "family.activity" | "family.parents" | "family.parentOverlap" | "rule.threshold" | "rule.degree" | "rule.beta" | "dilution.keep" | "dilution.inDegree" | "cue.fraction" | "cue.components" | "dynamics.temperature" | "dynamics.maxSweeps" | "dynamics.burnIn" | "successThreshold" | "trialsPerNetwork";
+                /** @description Varied parameter that names the series (one per value) and orders the legend, numeric or categorical (rule, rule.selfCoupling). Any other varied parameter still splits series, so no line ever joins points that differ in more than x. Default: every varied parameter but x. */
+                series?: "neurons" | "patterns" | "load" | "inDegreeLoad" | "family.activity" | "family.parents" | "family.parentOverlap" | "rule" | "rule.selfCoupling" | "rule.threshold" | "rule.degree" | "rule.beta" | "dilution.keep" | "dilution.inDegree" | "cue.fraction" | "cue.components" | "dynamics.temperature" | "dynamics.maxSweeps" | "dynamics.burnIn" | "successThreshold" | "trialsPerNetwork";
+                /** @description x axis scale; log needs positive x values. Default: linear. */
+                xScale?: "linear" | "log";
+                /** @description y axis scale; on log, values ≤ 0 are left out (and counted in the description). Default: linear. */
+                yScale?: "linear" | "log";
+                /** @description ci: 95 % confidence intervals (Wilson score for rates, Student t for means); se: ± one standard error; sd: ± one standard deviation of single trials (rates: √(p(1−p))); none. Rates stay within [0, 1]. Default: ci. */
+                errorBars?: "ci" | "se" | "sd" | "none";
+                /** @description Overlay theory where it applies to the measure, x and model (curves, per-point values or reference lines). Default: true. */
+                theory?: boolean;
+                /** @description Width in px (screen figures). Default: 640, unless the size is given in mm. */
+                width?: number;
+                /** @description Height in px (screen figures). Default: 440. */
+                height?: number;
+                /** @description Print size of a journal column: single (85 × 64 mm) or double (180 × 112 mm). widthMm and heightMm override either side. The figure is laid out in points and its type sized in pt. */
+                column?: "single" | "double";
+                /** @description Width in mm (print figures; not with width or height in px). */
+                widthMm?: number;
+                /** @description Height in mm (print figures). Default: three quarters of the width, or the column's height. */
+                heightMm?: number;
+                /** @description Size of the body type (tick labels, legend) in px, or in pt for a size in mm; titles and notes scale with it. Default: 12 px, 7.5 pt. */
+                fontSize?: number;
+                /** @description Title. Default: the sweep label, or the measure against x. */
+                title?: string;
+                /** @description Draw the title. Default: true. */
+                showTitle?: boolean;
+                /** @description Line under the title. Default: the model conditions every sweep shares (rule, cue, dynamics, trials). */
+                subtitle?: string;
+                /** @description Draw the subtitle. Default: true. */
+                showSubtitle?: boolean;
+                /** @description Note under the plot. Default: what the error bars are, what was left out, and the spec hash and engine. */
+                footnote?: string;
+                /** @description Draw the footnote. Default: true. */
+                showFootnote?: boolean;
+                /** @description Names of the series in the order drawn, separated by | (an empty name keeps the generated one). */
+                seriesNames?: string;
+                /** @description Overlays: a short name per sweep, in the order of the sweeps, separated by |; each series is named by it and its parameter values. Default: the sweep label, shortened. */
+                sweepNames?: string;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description The figure. */
+            200: {
+                headers: {
+                    /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
+                    "X-Request-Id"?: string;
+                    /** @description Strong validator: the sha256 of the bytes (base64url), one per set of options. */
+                    ETag?: string;
+                    /** @description inline; filename="memsweep-<id>-<measure>.<svg, png or pdf>" (overlays: memsweep-overlay-<measure>.<format>). */
+                    "Content-Disposition"?: string;
+                    /** @description default-src 'none': the figure runs and loads nothing. */
+                    "Content-Security-Policy"?: string;
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/pdf": string;
                 };
             };
             /** @description Not modified: the ETag in If-None-Match is current. */

@@ -43,7 +43,7 @@ const seconds = (description: string): HeaderObject => ({ description, schema: {
 const FIGURE_HEADERS: Record<string, Record<string, HeaderObject>> = {
   200: {
     ETag: text('Strong validator: the sha256 of the bytes (base64url), one per set of options.'),
-    'Content-Disposition': text('inline; filename="memsweep-<id>-<measure>.svg" (overlays: memsweep-overlay-<measure>.svg).'),
+    'Content-Disposition': text('inline; filename="memsweep-<id>-<measure>.<svg, png or pdf>" (overlays: memsweep-overlay-<measure>.<format>).'),
     'Content-Security-Policy': text('default-src \'none\': the figure runs and loads nothing.')
   },
   304: { ETag: text('The current validator.') },
@@ -84,6 +84,10 @@ const OPERATION_HEADERS: Record<string, Record<string, Record<string, HeaderObje
   },
   getSweepFigure: FIGURE_HEADERS,
   getOverlayFigure: FIGURE_HEADERS,
+  getSweepFigurePng: FIGURE_HEADERS,
+  getOverlayFigurePng: FIGURE_HEADERS,
+  getSweepFigurePdf: FIGURE_HEADERS,
+  getOverlayFigurePdf: FIGURE_HEADERS,
   getSweepBundle: {
     200: {
       ETag: text('Strong validator: the sha256 of the bytes (base64url); it changes when the sweep\'s label, tags or notes (in the README and provenance) do.'),

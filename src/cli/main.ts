@@ -126,9 +126,11 @@ export async function runCli (argv: readonly string[], io: CliIo): Promise<numbe
     .action(async (id: string, options) => { exitCode = await bundle(io, id, options) })
 
   program.command('figure')
-    .description('draw results files (JSON) as an SVG figure; several files are overlaid, one series per sweep')
+    .description('draw results files (JSON) as a figure (SVG, PNG or PDF); several files are overlaid, one colour per sweep')
     .argument('<results...>', 'results files written by run or downloaded from /results (JSON)')
-    .requiredOption('-o, --output <file>', 'SVG file to write (- for standard output)')
+    .requiredOption('-o, --output <file>', 'file to write: .svg, .png or .pdf (- for standard output)')
+    .option('--format <format>', 'svg, png or pdf (default: from the output file\'s extension, else svg)')
+    .option('--dpi <dpi>', 'PNG resolution (default 300 for a size in mm, 192 for a size in px)')
     .option('--measure <measure>', 'success, overlap, sweeps, maxOtherOverlap, energy, endState, unstableFraction or fixedPatternFraction (default success)')
     .option('--end-state <class>', `with --measure endState: ${END_STATES.join(', ')}`)
     .option('--x <parameter>', 'varied parameter on the x axis, e.g. load (default: the one with the most values)')

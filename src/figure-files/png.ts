@@ -29,12 +29,11 @@ export function resvgOptions (): ResvgRenderOptions {
 export function pngSize (svg: string, dpi?: number): { width: number, height: number, zoom: number } {
   const root = /<svg\b[^>]*>/.exec(svg)?.[0] ?? ''
   const attr = (name: string): string => new RegExp(`\\s${name}="([^"]*)"`).exec(root)?.[1] ?? ''
-  const [, , vbWidth, vbHeight] = attr('viewBox').split(/\s+/).map(Number) as [number, number, number, number]
-  const width = attr('width')
-  const inches = width.endsWith('mm') ? Number(width.slice(0, -2)) / 25.4 : Number(width) / 96
-  const chosen = dpi ?? (width.endsWith('mm') ? PNG_DPI.print : PNG_DPI.screen)
-  const zoom = inches * chosen / vbWidth
-  return { width: Math.round(vbWidth * zoom), height: Math.round(vbHeight * zoom), zoom }
+  // resvg sizes the image from the width and height attributes at 96 px per inch; the zoom scales that.
+  const inches = (value: string): number => (value.endsWith('mm') ? Number(value.slice(0, -2)) / 25.4 : Number(value) / 96)
+  const print = attr('width').endsWith('mm')
+  const zoom = (dpi ?? (print ? PNG_DPI.print : PNG_DPI.screen)) / 96
+  return { width: Math.round(inches(attr('width')) * 96 * zoom), height: Math.round(inches(attr('height')) * 96 * zoom), zoom }
 }
 
 export function svgToPng (svg: string, dpi?: number): Buffer {

@@ -61,6 +61,20 @@ describe('memsweep figure', () => {
     expect(byClass(doc, 'series', 'g').map((g) => g.getAttribute('data-label'))).toEqual(['Hebbian · N = 40', 'Hebbian · N = 60', 'Storkey'])
   })
 
+  it('writes PNG and PDF by the output file\'s extension', async () => {
+    const png = await cli(['figure', join(dir, 'spec-results.json'), '-o', join(dir, 'f.png'), '--column', 'single', '--dpi', '120'])
+    expect(png.code, png.stderr).toBe(0)
+    const bytes = await readFile(join(dir, 'f.png'))
+    expect(bytes.subarray(1, 4).toString('latin1')).toBe('PNG')
+    expect(bytes.readUInt32BE(16)).toBe(Math.round(85 / 25.4 * 120))
+    const pdf = await cli(['figure', join(dir, 'spec-results.json'), '-o', join(dir, 'f.pdf')])
+    expect(pdf.code, pdf.stderr).toBe(0)
+    expect((await readFile(join(dir, 'f.pdf'))).subarray(0, 5).toString('latin1')).toBe('%PDF-')
+    const bad = await cli(['figure', join(dir, 'spec-results.json'), '-o', join(dir, 'f.png'), '--dpi', '5'])
+    expect(bad.code).toBe(2)
+    expect(bad.stderr).toContain('--dpi')
+  })
+
   it('exits 2 naming the flag when the options do not fit, and for files that are not results', async () => {
     const misfit = await cli(['figure', join(dir, 'spec-results.json'), '-o', join(dir, 'x.svg'), '--x', 'cue.fraction'])
     expect(misfit.code).toBe(2)

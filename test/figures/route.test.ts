@@ -38,11 +38,30 @@ describe('GET /v1/sweeps/{id}/figure.svg', () => {
     for (const p of points) {
       const row = result.rows[p.point]
       expect(p.x).toBe(row.values.load)
-      expect(p.y).toBe(row.summary.overlap.mean)
-      expect(p.low).toBeCloseTo(row.summary.overlap.mean - row.summary.overlap.se, 12)
+      // The figure draws the stored values; the downloaded JSON writes them at its documented precision.
+      expect(p.y).toBeCloseTo(row.summary.overlap.mean, 9)
+      expect(p.low).toBeCloseTo(row.summary.overlap.mean - row.summary.overlap.se, 9)
     }
-    // The same bytes as rendering the downloaded result locally.
-    expect(res.body).toBe(renderFigure(result, { measure: 'overlap', x: 'load', errorBars: 'se', width: 720 }))
+    // The same drawing as rendering the downloaded result locally.
+    const local = drawnPoints(parseSvg(renderFigure(result, { measure: 'overlap', x: 'load', errorBars: 'se', width: 720 })))
+    expect(local.map((p) => [p.point, p.cx, p.cy])).toEqual(points.map((p) => [p.point, p.cx, p.cy]))
+  })
+
+  it('answers the same figure as PNG and PDF, rendered on the rendering thread with the shipped typeface', async () => {
+    const png = await h.request({ method: 'GET', url: `/v1/sweeps/${id}/figure.png?measure=overlap&column=single&dpi=100` })
+    expect(png.statusCode).toBe(200)
+    expect(png.headers['content-type']).toBe('image/png')
+    expect(png.headers['content-disposition']).toBe(`inline; filename="memsweep-${id}-overlap.png"`)
+    expect(png.rawPayload.subarray(1, 4).toString('latin1')).toBe('PNG')
+    expect(png.rawPayload.readUInt32BE(16)).toBe(Math.round(85 / 25.4 * 100))
+    const pdf = await h.request({ method: 'GET', url: `/v1/sweeps/${id}/figure.pdf?measure=overlap&column=single` })
+    expect(pdf.headers['content-type']).toBe('application/pdf')
+    expect(pdf.rawPayload.toString('latin1')).toMatch(/^%PDF-[\s\S]*SourceSans3-Regular/)
+    const overlay = await h.request({ method: 'GET', url: `/v1/figures/overlay.pdf?sweeps=${id}&measure=success` })
+    expect(overlay.headers['content-type']).toBe('application/pdf')
+    const tooLarge = expectProblem(await h.request({ method: 'GET', url: `/v1/sweeps/${id}/figure.png?widthMm=500&heightMm=500&dpi=1200` }), 422, 'MEMSWEEP_FIGURE_OPTIONS_UNFIT')
+    expect(tooLarge.errors[0].path).toBe('querystring.dpi')
+    expect(expectProblem(await h.request({ method: 'GET', url: `/v1/sweeps/${id}/figure.svg?dpi=100` }), 400, 'MEMSWEEP_MALFORMED_REQUEST').errors[0].message).toMatch(/dpi/)
   })
 
   it('sets a strong ETag per set of options and answers If-None-Match with 304', async () => {

@@ -5,6 +5,7 @@
  */
 import type { EncodedResult, StoredProgress } from '../../backends/port.js'
 import type { FigureIssue, FigureOptions } from '../../figures/index.js'
+import type { FigureFormat } from '../../figure-files/index.js'
 import type { ResultSeries } from '../../results/index.js'
 import type { BundleRecord } from './bundle.js'
 
@@ -31,6 +32,10 @@ export interface RenderFigureTask {
   kind: 'figure'
   sources: RenderSource[]
   options: FigureOptions
+  /** The SVG itself, or its PNG or PDF rendering. */
+  format: FigureFormat
+  /** PNG resolution (undefined: the default for the figure's size). */
+  dpi?: number
 }
 
 /** The supplementary-material zip of a succeeded sweep (render/bundle.ts). */

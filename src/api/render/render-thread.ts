@@ -6,6 +6,7 @@
  */
 import { createHash } from 'node:crypto'
 import { FigureOptionsError, renderParsedFigure } from '../../figures/index.js'
+import { figureBytes, MAX_PNG_PIXELS, pngSize } from '../../figure-files/index.js'
 import { resultToCsv, resultToJson, trajectoryCsv, trajectoryJson, type SweepResult } from '../../results/index.js'
 import { assemblePartial, decodeValue, makeProvenance, storedTrials } from '../../sweep/index.js'
 import { runtimeFacts } from '../../runtime/facts.js'
@@ -13,7 +14,7 @@ import type { EncodedResult } from '../../backends/port.js'
 import { buildBundle } from './bundle.js'
 import type { RenderOutcome, RenderSource, RenderTask } from './render-task.js'
 
-export default function render (task: RenderTask): RenderOutcome {
+export default async function render (task: RenderTask): Promise<RenderOutcome> {
   if (task.kind === 'bundle') {
     const { zip } = buildBundle(decode(task.stored), task.record)
     return rendered(Buffer.from(zip.buffer, zip.byteOffset, zip.byteLength))
@@ -27,12 +28,20 @@ export default function render (task: RenderTask): RenderOutcome {
         : resultToJson(result, { perTrial: task.perTrial, timing: task.timing })
     return rendered(Buffer.from(text, 'utf8'))
   }
+  let svg: string
   try {
-    return rendered(Buffer.from(renderParsedFigure(task.sources.map(read), task.options), 'utf8'))
+    svg = renderParsedFigure(task.sources.map(read), task.options)
   } catch (error) {
     if (error instanceof FigureOptionsError) return { kind: 'figure-misfit', issues: error.issues }
     throw error
   }
+  if (task.format === 'png') {
+    const size = pngSize(svg, task.dpi)
+    if (size.width * size.height > MAX_PNG_PIXELS) {
+      return { kind: 'figure-misfit', issues: [{ path: 'dpi', message: `the PNG would be ${size.width} × ${size.height} px, more than the ${MAX_PNG_PIXELS / 1e6} Mpx allowed: choose a lower dpi or a smaller size` }] }
+    }
+  }
+  return rendered(await figureBytes(svg, task.format, { dpi: task.dpi, title: /<title[^>]*>([^<]*)</.exec(svg)?.[1] }))
 }
 
 function read (source: RenderSource): SweepResult {

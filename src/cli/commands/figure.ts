@@ -8,9 +8,22 @@ import { FigureOptionsError, renderFigure, type FigureOptionsInput } from '../..
 import type { SweepResult } from '../../results/index.js'
 import { CliError, EXIT, say, type CliIo } from '../io.js'
 import { writeFileAtomically } from '../write-file.js'
+import { figureBytes, MAX_PNG_PIXELS, PNG_DPI, pngSize, type FigureFormat } from '../../figure-files/index.js'
+
+/** The format asked for, or the one the output file's extension names (SVG by default). */
+function fileFormat (output: string, flag: string | undefined): FigureFormat {
+  if (flag !== undefined) {
+    if (flag === 'svg' || flag === 'png' || flag === 'pdf') return flag
+    throw new CliError('--format: svg, png or pdf', EXIT.refused)
+  }
+  const extension = /\.([a-z]+)$/i.exec(output)?.[1]?.toLowerCase()
+  return extension === 'png' || extension === 'pdf' ? extension : 'svg'
+}
 
 export interface FigureCommandOptions {
   output: string
+  format?: string
+  dpi?: string
   measure?: string
   endState?: string
   x?: string
@@ -63,7 +76,12 @@ const FLAGS: Record<string, string> = {
 
 export async function figure (io: CliIo, files: readonly string[], options: FigureCommandOptions): Promise<number> {
   const results = await Promise.all(files.map(readResultFile))
-  const { output, hideTitle, hideSubtitle, hideFootnote, seriesName, sweepName, ...rest } = options
+  const { output, format: formatFlag, dpi: dpiFlag, hideTitle, hideSubtitle, hideFootnote, seriesName, sweepName, ...rest } = options
+  const format = fileFormat(output, formatFlag)
+  const dpi = dpiFlag === undefined ? undefined : Number(dpiFlag)
+  if (dpi !== undefined && !(Number.isInteger(dpi) && dpi >= PNG_DPI.min && dpi <= PNG_DPI.max)) {
+    throw new CliError(`--dpi: a whole number from ${PNG_DPI.min} to ${PNG_DPI.max}`, EXIT.refused)
+  }
   const figureOptions = Object.fromEntries(Object.entries({
     ...rest,
     showTitle: hideTitle === true ? false : undefined,
@@ -80,11 +98,16 @@ export async function figure (io: CliIo, files: readonly string[], options: Figu
     const lines = error.issues.map((i) => `  ${i.path === '' ? '(figure)' : FLAGS[i.path] ?? i.path}: ${i.message}`)
     throw new CliError(['The figure cannot be drawn:', ...lines].join('\n'), EXIT.refused)
   }
+  if (format === 'png') {
+    const size = pngSize(svg, dpi)
+    if (size.width * size.height > MAX_PNG_PIXELS) throw new CliError(`--dpi: the PNG would be ${size.width} × ${size.height} px, more than the ${MAX_PNG_PIXELS / 1e6} Mpx allowed`, EXIT.refused)
+  }
+  const bytes = await figureBytes(svg, format, { dpi, title: /<title[^>]*>([^<]*)</.exec(svg)?.[1] })
   if (output === '-') {
-    io.stdout.write(svg)
+    io.stdout.write(format === 'svg' ? svg : bytes)
     return EXIT.ok
   }
-  await writeFileAtomically(output, svg)
+  await writeFileAtomically(output, bytes)
   say(io, `Figure written to ${output}.`)
   return EXIT.ok
 }
