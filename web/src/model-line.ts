@@ -69,7 +69,8 @@ export function specAxes (spec: Spec): Array<{ path: string, values: unknown[] }
   return found
 }
 
-function constant (spec: Spec, path: string): unknown {
+/** The member of a spec at a dotted path, or undefined. */
+export function valueAt (spec: Spec, path: string): unknown {
   return path.split('.').reduce<unknown>((node, key) => (node !== null && typeof node === 'object' ? (node as Record<string, unknown>)[key] : undefined), spec)
 }
 
@@ -79,7 +80,7 @@ export function modelLine (spec: Spec): string {
   const quantity = (path: string): string | null => {
     const values = axis(path)
     if (values !== null) return `${SYMBOLS[path] ?? path} ${rangeText(values)}`
-    const value = constant(spec, path)
+    const value = valueAt(spec, path)
     return typeof value === 'number' ? `${SYMBOLS[path] ?? path} ${formatGridValue(value, 4)}` : null
   }
   const parts: string[] = []
@@ -94,7 +95,7 @@ export function modelLine (spec: Spec): string {
   if (cueValues !== null) parts.push(`cue ${rangeText(cueValues)}${typeof cue?.kind === 'string' ? ` ${cue.kind}` : ''}`)
   else if (typeof cue?.fraction === 'number' && cue.fraction > 0) parts.push(`cue ${formatGridValue(cue.fraction * 100, 3)} % ${cue.kind === 'flip' ? 'flipped' : String(cue.kind ?? '')}`.trim())
   const temperature = axis('dynamics.temperature')
-  const fixedT = constant(spec, 'dynamics.temperature')
+  const fixedT = valueAt(spec, 'dynamics.temperature')
   if (temperature !== null) parts.push(`T ${rangeText(temperature)}`)
   else if (typeof fixedT === 'number' && fixedT > 0) parts.push(`T ${formatGridValue(fixedT, 3)}`)
   const named = new Set(['neurons', 'load', 'patterns', 'cue.fraction', 'dynamics.temperature', 'rule'])

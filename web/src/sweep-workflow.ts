@@ -7,6 +7,7 @@ import { annotateSweep, ApiProblem, extendSweep, type Extension } from './api.js
 import { h, uid } from './dom.js'
 import { formatCount, formatGridValue } from './format.js'
 import { parameterName } from './labels.js'
+import { specAxes, valueAt } from './model-line.js'
 import { routeHref } from './router.js'
 import { parseList } from './spec-paths.js'
 import type { Spec, SweepDetail } from './types.js'
@@ -15,25 +16,12 @@ import { messageOf, notify } from './widgets.js'
 /** Parameters that can take more values when the spec holds them constant. */
 const EXTENDABLE_CONSTANTS = ['neurons', 'load', 'patterns', 'cue.fraction', 'dynamics.temperature', 'dilution.keep', 'dilution.inDegree', 'family.activity']
 
-function at (spec: Spec, path: string): unknown {
-  return path.split('.').reduce<unknown>((node, key) => (node !== null && typeof node === 'object' ? (node as Record<string, unknown>)[key] : undefined), spec)
-}
-
 /** Numeric axes of a spec (path and values) and numeric constants that could become axes. */
 export function extendableParameters (spec: Spec): Array<{ path: string, values: number[] }> {
-  const found: Array<{ path: string, values: number[] }> = []
-  const visit = (node: unknown, path: string): void => {
-    if (node === null || typeof node !== 'object' || Array.isArray(node)) return
-    const values = (node as { values?: unknown }).values
-    if (Array.isArray(values) && path !== '' && path !== 'family.data') {
-      if (values.every((v) => typeof v === 'number')) found.push({ path, values: values as number[] })
-      return
-    }
-    for (const [key, child] of Object.entries(node)) visit(child, path === '' ? key : `${path}.${key}`)
-  }
-  visit(spec, '')
+  const found = specAxes(spec)
+    .filter((axis): axis is { path: string, values: number[] } => axis.values.every((value) => typeof value === 'number'))
   for (const path of EXTENDABLE_CONSTANTS) {
-    const value = at(spec, path)
+    const value = valueAt(spec, path)
     if (typeof value === 'number' && !found.some((entry) => entry.path === path)) found.push({ path, values: [value] })
   }
   return found

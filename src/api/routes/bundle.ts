@@ -43,6 +43,7 @@ export const bundleRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
     const outcome = await ctx.render.render({
       kind: 'bundle',
       stored,
+      // Named one by one: a bundle is shared, so nothing else of the record (a callback URL) goes in.
       record: {
         id: record.id,
         label: record.label,

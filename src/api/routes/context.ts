@@ -27,18 +27,22 @@ export async function visibleSweep (queue: SweepQueue, principal: Principal, id:
   return record
 }
 
-/** The record of a visible sweep that has its result; refuses, with the problem that explains why, one that has none (yet). */
-export async function succeededSweep (queue: SweepQueue, principal: Principal, id: string): Promise<SweepRecord> {
-  const record = await visibleSweep(queue, principal, id)
-  if (record.status === 'queued' || record.status === 'running') {
-    throw new ServiceError('MEMSWEEP_RESULTS_NOT_READY', { id, status: record.status }, {
+/** Refuses, with the problem that explains why, a sweep that has no result (yet). */
+export function requireSucceeded (record: SweepRecord): void {
+  const { id, status } = record
+  if (status === 'queued' || status === 'running') {
+    throw new ServiceError('MEMSWEEP_RESULTS_NOT_READY', { id, status }, {
       headers: { 'retry-after': '5', link: `<${sweepPath(id)}>; rel="monitor"` },
       extensions: { sweepId: id, retryAfter: 5 }
     })
   }
-  if (record.status !== 'succeeded') {
-    throw new ServiceError('MEMSWEEP_RESULTS_UNAVAILABLE', { id, status: record.status }, { extensions: { sweepId: id } })
-  }
+  if (status !== 'succeeded') throw new ServiceError('MEMSWEEP_RESULTS_UNAVAILABLE', { id, status }, { extensions: { sweepId: id } })
+}
+
+/** The record of a visible sweep that has its result. */
+export async function succeededSweep (queue: SweepQueue, principal: Principal, id: string): Promise<SweepRecord> {
+  const record = await visibleSweep(queue, principal, id)
+  requireSucceeded(record)
   return record
 }
 

@@ -6,11 +6,11 @@ import { ServiceError } from '../../errors.js'
 import { RESULT_SERIES, TRAJECTORY_PADDING, trajectoryUnavailable } from '../../results/index.js'
 import { negotiate } from '../negotiate.js'
 import { fieldIssue, listedIssues } from '../problem-reply.js'
-import { ifNoneMatchHits, sweepPath } from '../presenters.js'
+import { ifNoneMatchHits } from '../presenters.js'
 import { problemResponses } from '../schemas/problem.js'
 import { sweepResultSchema, trajectorySeriesSchema } from '../schemas/result.js'
 import { sweepIdSchema } from '../schemas/sweep.js'
-import { visibleSweep, type RouteContext } from './context.js'
+import { requireSucceeded, visibleSweep, type RouteContext } from './context.js'
 
 const MEDIA = { json: 'application/json', csv: 'text/csv' } as const
 
@@ -114,15 +114,7 @@ export const resultRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
       if (perTrial) throw new ServiceError('MEMSWEEP_MALFORMED_REQUEST', { reason: 'partial results hold rows only: leave out trials=true' }, { extensions: { errors: [{ path: 'querystring.trials', message: 'not with partial=true' }] } })
       return await sendPartial(id, format)
     }
-    if (record.status === 'queued' || record.status === 'running') {
-      throw new ServiceError('MEMSWEEP_RESULTS_NOT_READY', { id, status: record.status }, {
-        headers: { 'retry-after': '5', link: `<${sweepPath(id)}>; rel="monitor"` },
-        extensions: { sweepId: id, retryAfter: 5 }
-      })
-    }
-    if (record.status !== 'succeeded') {
-      throw new ServiceError('MEMSWEEP_RESULTS_UNAVAILABLE', { id, status: record.status }, { extensions: { sweepId: id } })
-    }
+    requireSucceeded(record)
     const timing = request.query.timing === 'true'
     const series = request.query.series ?? null
     if (series !== null && perTrial) throw seriesProblem('a series replaces the rows, so it cannot be combined with trials=true')

@@ -9,7 +9,7 @@ import { freshSeed, saveDraft } from '../drafts.js'
 import { analysisView } from '../analysis-view.js'
 import { figurePanel } from '../figure-panel.js'
 import { liveFigure, type LiveFigure } from '../live-figure.js'
-import { modelLine } from '../model-line.js'
+import { modelLine, specAxes } from '../model-line.js'
 import { describeForm, extendForm, tagMarks } from '../sweep-workflow.js'
 import { formatAgo, formatCount, formatStamp } from '../format.js'
 import { parameterName, rerunLabel } from '../labels.js'
@@ -20,17 +20,7 @@ import type { Spec, SweepDetail, SweepResult, SweepStatus } from '../types.js'
 import { inBackground, confirmAction, messageOf, notify, progressView, statusBadge } from '../widgets.js'
 
 function describeGrid (spec: Spec): string {
-  const axes: string[] = []
-  const visit = (node: unknown, path: string): void => {
-    if (node === null || typeof node !== 'object' || Array.isArray(node)) return
-    const values = (node as { values?: unknown }).values
-    if (Array.isArray(values) && path !== '' && path !== 'family.data') {
-      axes.push(`${parameterName(path)} (${values.length})`)
-      return
-    }
-    for (const [key, child] of Object.entries(node)) visit(child, path === '' ? key : `${path}.${key}`)
-  }
-  visit(spec, '')
+  const axes = specAxes(spec).map(({ path, values }) => `${parameterName(path)} (${values.length})`)
   return axes.length === 0 ? 'a single point' : axes.join(' × ')
 }
 
