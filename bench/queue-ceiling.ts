@@ -18,7 +18,8 @@ import { createRedisQueue } from '../src/backends/redis/index.js'
 import { planSweep, runChunk } from '../src/sweep/index.js'
 import { spawnWorker, stopWorker, type WorkerProcess } from '../test/integration/worker-processes.js'
 import { chunkSecondsFor, efficiency, fitServiceTime, workerCeiling, type QueueModel } from './queue-model.js'
-import { dropPrefix, finishSweep, redisAnswers, redisCpuSeconds } from './sweep-clock.js'
+import { finishSweep, redisAnswers, redisCpuSeconds } from './sweep-clock.js'
+import { removePrefix } from '../test/integration/helpers.js'
 import type { QueueCeilingReport } from './report.js'
 
 const REDIS_URL = process.env.REDIS_URL ?? 'redis://127.0.0.1:6379'
@@ -71,7 +72,7 @@ async function measureAll (client: Redis): Promise<QueueRun[]> {
   } finally {
     await Promise.all(processes.map((p) => stopWorker(p)))
     await queue.close()
-    await dropPrefix(REDIS_URL, prefix)
+    await removePrefix(prefix, REDIS_URL)
   }
 }
 

@@ -30,7 +30,8 @@ import { createEmbeddedQueue } from '../src/backends/embedded/index.js'
 import { createRedisQueue } from '../src/backends/redis/index.js'
 import { spawnWorker, stopWorker } from '../test/integration/worker-processes.js'
 import { median } from './measure.js'
-import { dropPrefix, finishSweep, redisAnswers } from './sweep-clock.js'
+import { capacityCurve, finishSweep, redisAnswers } from './sweep-clock.js'
+import { removePrefix } from '../test/integration/helpers.js'
 import { ENGINE_PROCESS_FLAGS } from '../src/runtime/node-flags.js'
 
 const TRIALS = Number(process.env.TRIALS ?? 2000)
@@ -39,16 +40,7 @@ const REPS = Number(process.env.REPS ?? 5)
 const REDIS_URL = process.env.REDIS_URL ?? 'redis://127.0.0.1:6379'
 const logger = pino({ level: 'silent' })
 
-const curve = (trials: number, seed: number): NormalisedSpec => normaliseSpec({
-  label: `W2 capacity curve, ${trials} trials per load`,
-  seed,
-  neurons: 500,
-  load: { from: 0.02, to: 0.24, step: 0.02 },
-  cue: { kind: 'flip', fraction: 0.05 },
-  dynamics: { update: 'async-random', temperature: 0, maxSweeps: 50 },
-  successThreshold: 0.95,
-  trials
-})
+const curve = (trials: number, seed: number): NormalisedSpec => normaliseSpec(capacityCurve(trials, seed))
 
 async function timeRuns (queue: SweepQueue): Promise<{ seconds: number[], bytes: string }> {
   await finishSweep(queue, curve(4, 99))
@@ -83,7 +75,7 @@ async function redis (workers: number): Promise<{ seconds: number[], bytes: stri
   } finally {
     await Promise.all(processes.map((p) => stopWorker(p)))
     await queue.close()
-    await dropPrefix(REDIS_URL, prefix)
+    await removePrefix(prefix, REDIS_URL)
   }
 }
 

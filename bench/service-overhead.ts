@@ -27,7 +27,8 @@ import { ENGINE_PROCESS_FLAGS } from '../src/runtime/node-flags.js'
 import { startServerProcess, type ServerProcess } from '../test/api/helpers/server-process.js'
 import { spawnWorker, stopWorker } from '../test/integration/worker-processes.js'
 import { median } from './measure.js'
-import { dropPrefix, redisAnswers } from './sweep-clock.js'
+import { capacityCurve, redisAnswers } from './sweep-clock.js'
+import { removePrefix } from '../test/integration/helpers.js'
 import type { ServiceOverheadReport } from './report.js'
 
 const TRIALS = Number(process.env.SERVICE_TRIALS ?? 2000)
@@ -35,16 +36,7 @@ const REPS = Number(process.env.SERVICE_REPS ?? 3)
 const THREADS = Number(process.env.THREADS ?? 2)
 const REDIS_URL = process.env.REDIS_URL ?? 'redis://127.0.0.1:6379'
 
-const curve = (trials: number, seed: number): Record<string, unknown> => ({
-  label: `capacity curve, ${trials} trials per load`,
-  seed,
-  neurons: 500,
-  load: { from: 0.02, to: 0.24, step: 0.02 },
-  cue: { kind: 'flip', fraction: 0.05 },
-  dynamics: { update: 'async-random', temperature: 0, maxSweeps: 50 },
-  successThreshold: 0.95,
-  trials
-})
+const curve = capacityCurve
 
 type OverheadSide = NonNullable<ServiceOverheadReport['embedded']>
 
@@ -143,7 +135,7 @@ if (await redisAnswers(REDIS_URL)) {
   } finally {
     await Promise.all(workers.map((w) => stopWorker(w)))
     await stopServer(server)
-    await dropPrefix(REDIS_URL, prefix)
+    await removePrefix(prefix, REDIS_URL)
   }
 } else {
   report.notes.push(`Redis at ${REDIS_URL} did not answer: the Redis backend was not measured`)

@@ -1,12 +1,27 @@
 /**
- * What the service benchmarks share: timing a sweep through a queue to its end, and the
- * shared Redis (is it there, and removing a benchmark's own keys; never FLUSHDB: other
- * programs use the same server).
+ * What the service benchmarks share: the W2 capacity curve as a spec, timing a sweep through
+ * a queue to its end, and the shared Redis (is it there, its CPU so far). A benchmark removes
+ * only its own keys (test/integration/helpers.ts removePrefix), never FLUSHDB: other programs
+ * use the same server.
  */
 import { Redis } from 'ioredis'
 import { resultToJson } from '../src/results/index.js'
 import { TERMINAL_STATUSES, type SweepQueue, type SweepRecord } from '../src/backends/port.js'
 import type { NormalisedSpec } from '../src/spec/index.js'
+
+/** The W2 capacity curve (N = 500, α = 0.02 … 0.24, 5 % flipped, a new network per trial) with `trials` trials per load. */
+export function capacityCurve (trials: number, seed: number): Record<string, unknown> {
+  return {
+    label: `W2 capacity curve, ${trials} trials per load`,
+    seed,
+    neurons: 500,
+    load: { from: 0.02, to: 0.24, step: 0.02 },
+    cue: { kind: 'flip', fraction: 0.05 },
+    dynamics: { update: 'async-random', temperature: 0, maxSweeps: 50 },
+    successThreshold: 0.95,
+    trials
+  }
+}
 
 /**
  * Submits and waits for the end through the queue's event subscription, as the API's event
@@ -44,21 +59,6 @@ export async function redisAnswers (url: string): Promise<boolean> {
     return (await client.ping()) === 'PONG'
   } catch {
     return false
-  } finally {
-    client.disconnect()
-  }
-}
-
-/** Deletes every key under `prefix:` (SCAN, so a large shared keyspace is not blocked). */
-export async function dropPrefix (url: string, prefix: string): Promise<void> {
-  const client = new Redis(url)
-  try {
-    let cursor = '0'
-    do {
-      const [next, keys] = await client.scan(cursor, 'MATCH', `${prefix}:*`, 'COUNT', 1000)
-      cursor = next
-      if (keys.length > 0) await client.del(...keys)
-    } while (cursor !== '0')
   } finally {
     client.disconnect()
   }
