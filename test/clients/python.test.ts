@@ -1,12 +1,12 @@
 /**
  * The Python package in clients/python against live servers: its pytest suite runs once
- * against the embedded backend (with a second, rate-limited server for the retry test) and
- * once against the Redis backend (a key prefix of its own, one worker in this process; the
- * tests marked backend_agnostic only once), in
- * the shared test environment of scripts/ensure-python-venv.sh. Then a fresh virtual
- * environment installs the package from the repository, offline, and runs the README's
- * notebook example. The servers run in this process, so Python runs as a child process that
- * never blocks it.
+ * against the embedded backend (with a second, rate-limited app on the same backend for the
+ * retry test) and once against the Redis backend (a key prefix of its own, one worker in
+ * this process), leaving out there the tests marked backend_agnostic; one compute thread
+ * each, as the sweeps are tiny. The suite runs in the shared test environment of
+ * scripts/ensure-python-venv.sh. Then a fresh virtual environment installs the package from
+ * the repository, offline, and runs the README's notebook example. The servers run in this
+ * process, so Python runs as a child process that never blocks it.
  */
 import { spawn } from 'node:child_process'
 import { existsSync, readFileSync } from 'node:fs'
@@ -14,10 +14,14 @@ import { cp, mkdtemp, rm } from 'node:fs/promises'
 import { homedir, tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { fileURLToPath } from 'node:url'
+import type { FastifyInstance } from 'fastify'
+import { pino } from 'pino'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { buildApp } from '../../src/api/app.js'
 import { createEmbeddedQueue } from '../../src/backends/embedded/index.js'
 import { createRedisQueue } from '../../src/backends/redis/index.js'
 import { startWorker } from '../../src/backends/redis/worker/worker.js'
+import { loadConfig } from '../../src/config.js'
 import { createHarness, type Harness } from '../api/helpers/harness.js'
 import { installChunkGate, type ChunkGate } from '../helpers/chunk-gate.js'
 import { withOverrides } from '../helpers/queue-overrides.js'
@@ -69,22 +73,21 @@ afterAll(() => gate?.remove())
 
 describe('Python package against the embedded backend', () => {
   let h: Harness
-  let throttled: Harness
+  let throttled: FastifyInstance
   let url = ''
   let throttledUrl = ''
 
   beforeAll(async () => {
-    h = await createHarness(async ({ dataDir }) => await createEmbeddedQueue({ dataDir, threads: 2 }), { tokens: TOKENS })
+    h = await createHarness(async ({ dataDir }) => await createEmbeddedQueue({ dataDir, threads: 1 }), { tokens: TOKENS })
     url = await h.app.listen({ port: 0, host: '127.0.0.1' })
-    throttled = await createHarness(async ({ dataDir }) => await createEmbeddedQueue({ dataDir, threads: 1 }), {
-      tokens: TOKENS,
-      env: { RATE_LIMIT_MAX: '2', RATE_LIMIT_WINDOW: '1' }
-    })
-    throttledUrl = await throttled.app.listen({ port: 0, host: '127.0.0.1' })
+    // The same backend behind a second app that allows two requests a second.
+    const config = loadConfig({ DATA_DIR: h.dataDir, TOKENS_FILE: join(h.dataDir, 'tokens.txt'), RATE_LIMIT_MAX: '2', RATE_LIMIT_WINDOW: '1', LOG_LEVEL: 'silent' })
+    throttled = buildApp({ config, queue: h.queue, logger: pino({ level: 'silent' }) })
+    throttledUrl = await throttled.listen({ port: 0, host: '127.0.0.1' })
   })
   afterAll(async () => {
-    await h?.close()
     await throttled?.close()
+    await h?.close()
   })
 
   it('passes the pytest suite', async () => {
@@ -137,7 +140,7 @@ describe.runIf(redisReady)('Python package against the Redis backend', () => {
       const logger = quietLogger()
       const prefix = testPrefix()
       const queue = await createRedisQueue({ url: REDIS_URL, prefix, logger })
-      const worker = await startWorker({ url: REDIS_URL, prefix, logger, concurrency: 2 })
+      const worker = await startWorker({ url: REDIS_URL, prefix, logger, concurrency: 1 })
       return withOverrides(queue, {
         close: async () => {
           await queue.close()

@@ -61,7 +61,7 @@ def test_submission_is_idempotent_and_always_keyed(client: MemsweepClient, spec:
         assert client.wait(sweep_id)["status"] == "succeeded"
 
 
-def test_follow_read_and_draw(client: MemsweepClient, spec: Spec, tmp_path: Path, capsys: pytest.CaptureFixture[str]) -> None:
+def test_follow_and_read(client: MemsweepClient, spec: Spec, tmp_path: Path, capsys: pytest.CaptureFixture[str]) -> None:
     sweep = client.submit(spec(label="rooms of a library"))
     seen: List[Dict[str, Any]] = []
     final = client.wait(sweep["id"], on_progress=seen.append, progress=True)
@@ -82,18 +82,21 @@ def test_follow_read_and_draw(client: MemsweepClient, spec: Spec, tmp_path: Path
     client.download(sweep["id"], str(target))
     assert target.read_bytes().decode() == csv
 
-    bundle = tmp_path / "library.zip"
-    client.bundle(sweep["id"], str(bundle))
-    with zipfile.ZipFile(bundle) as archive:
-        assert any(name.endswith(".csv") for name in archive.namelist())
-
-    svg = client.figure(sweep["id"], measure="overlap", errorBars="se")
-    assert "<svg" in svg
     events = list(client.events(sweep["id"]))
     assert events[-1][1]["status"] == "succeeded"
-    second = client.submit(spec(label="rooms of a museum"))
-    client.wait(second["id"])
-    assert "<svg" in client.overlay_figure([sweep["id"], second["id"]], measure="success")
+
+
+@pytest.mark.backend_agnostic
+def test_figures_and_bundle(client: MemsweepClient, spec: Spec, tmp_path: Path) -> None:
+    sweeps = [client.submit(spec(label=label)) for label in ("rooms of a museum", "rooms of a gallery")]
+    for sweep in sweeps:
+        client.wait(sweep["id"])
+    assert "<svg" in client.figure(sweeps[0]["id"], measure="overlap", errorBars="se")
+    assert "<svg" in client.overlay_figure([sweep["id"] for sweep in sweeps], measure="success")
+    bundle = tmp_path / "museum.zip"
+    client.bundle(sweeps[0]["id"], str(bundle))
+    with zipfile.ZipFile(bundle) as archive:
+        assert any(name.endswith(".csv") for name in archive.namelist())
 
 
 def test_frames_keep_sweeps_apart_with_numbers_as_numbers(client: MemsweepClient, spec: Spec) -> None:
