@@ -93,6 +93,10 @@ def test_figures_and_bundle(client: MemsweepClient, spec: Spec, tmp_path: Path) 
         client.wait(sweep["id"])
     assert "<svg" in client.figure(sweeps[0]["id"], measure="overlap", errorBars="se")
     assert "<svg" in client.overlay_figure([sweep["id"] for sweep in sweeps], measure="success")
+    assert client.figure(sweeps[0]["id"], fmt="png")[:8] == b"\x89PNG\r\n\x1a\n"
+    assert client.overlay_figure([sweep["id"] for sweep in sweeps], fmt="pdf")[:5] == b"%PDF-"
+    with pytest.raises(ValueError):
+        client.figure(sweeps[0]["id"], fmt="gif")
     bundle = tmp_path / "museum.zip"
     client.bundle(sweeps[0]["id"], str(bundle))
     with zipfile.ZipFile(bundle) as archive:

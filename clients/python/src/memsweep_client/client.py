@@ -298,16 +298,17 @@ class MemsweepClient:
         provenance and how to reproduce them) to `path`, via a temporary file and a rename."""
         return _save(self.request("GET", self._sweep_path(sweep_id, "/bundle.zip")), path)
 
-    def figure(self, sweep_id: str, **options: Any) -> str:
-        """The sweep's figure as SVG text; options are the route's query parameters
-        (measure, x, series, xScale, yScale, errorBars, theory, width, height, title, partial)."""
-        return self.request("GET", self._sweep_path(sweep_id, "/figure.svg"), params=_query(options)).text
+    def figure(self, sweep_id: str, *, fmt: str = "svg", **options: Any) -> Union[str, bytes]:
+        """The sweep's figure: SVG text (fmt="svg"), or PNG or PDF bytes (fmt="png", "pdf").
+        Options are the route's query parameters (measure, x, series, xScale, yScale,
+        errorBars, theory, width, height, title, partial, …)."""
+        return _figure(self.request("GET", self._sweep_path(sweep_id, "/figure." + _figure_format(fmt)), params=_query(options)))
 
-    def overlay_figure(self, sweep_ids: Sequence[str], **options: Any) -> str:
-        """Several succeeded sweeps on one figure (at most 8), as SVG text."""
+    def overlay_figure(self, sweep_ids: Sequence[str], *, fmt: str = "svg", **options: Any) -> Union[str, bytes]:
+        """Several succeeded sweeps on one figure (at most 8): SVG text, or PNG or PDF bytes."""
         params = _query(options)
         params["sweeps"] = ",".join(sweep_ids)
-        return self.request("GET", "/v1/figures/overlay.svg", params=params).text
+        return _figure(self.request("GET", "/v1/figures/overlay." + _figure_format(fmt), params=params))
 
     # -- following a sweep --------------------------------------------------------------
 
@@ -370,6 +371,20 @@ class MemsweepClient:
         from .frames import frame_of_sweeps
 
         return frame_of_sweeps(self, sweep_ids, trials=True, partial=partial)
+
+
+FIGURE_FORMATS = ("svg", "png", "pdf")
+
+
+def _figure_format(fmt: str) -> str:
+    if fmt not in FIGURE_FORMATS:
+        raise ValueError("fmt must be one of %s, not %r" % (", ".join(FIGURE_FORMATS), fmt))
+    return fmt
+
+
+def _figure(response: requests.Response) -> Union[str, bytes]:
+    """SVG as text, the raster and print formats as bytes."""
+    return response.text if response.headers.get("content-type", "").startswith("image/svg") else response.content
 
 
 def _save(response: requests.Response, path: str) -> str:

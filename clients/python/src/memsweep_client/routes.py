@@ -19,7 +19,11 @@ ROUTES: Dict[str, str] = {
     "GET /v1/sweeps/{id}/results": "results",
     "GET /v1/sweeps/{id}/events": "events",
     "GET /v1/sweeps/{id}/figure.svg": "figure",
+    "GET /v1/sweeps/{id}/figure.png": "figure",
+    "GET /v1/sweeps/{id}/figure.pdf": "figure",
     "GET /v1/sweeps/{id}/bundle.zip": "bundle",
     "GET /v1/figures/overlay.svg": "overlay_figure",
+    "GET /v1/figures/overlay.png": "overlay_figure",
+    "GET /v1/figures/overlay.pdf": "overlay_figure",
     "POST /v1/theory": "theory",
 }
