@@ -21,7 +21,7 @@ for package in python3 python3-venv python3-pip $(printf 'python3-%s ' $names); 
 done
 if [ -n "$missing" ]; then
   echo "installing from the OS packages:$missing" >&2
-  apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq $missing >/dev/null
+  apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq --no-install-recommends $missing >/dev/null
 fi
 
 rm -rf "$VENV"
