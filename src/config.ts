@@ -52,6 +52,11 @@ const envSchema = z.object({
   LOG_LEVEL: z.preprocess(emptyAsUnset, z.enum(LOG_LEVELS).default('info')),
   LOG_FORMAT: z.preprocess(emptyAsUnset, z.enum(LOG_FORMATS).default('auto')),
   LOG_REQUESTS: z.preprocess(emptyAsUnset, flag.default(false)),
+  PUBLIC_URL: z.preprocess(emptyAsUnset, z.url({ protocol: /^https?$/ }).optional()),
+  CALLBACK_ALLOWED_HOSTS: z.preprocess(emptyAsUnset, z.string().default('')),
+  CALLBACK_SECRET: z.preprocess(emptyAsUnset, z.string().min(16, 'at least 16 characters').optional()),
+  CALLBACK_ATTEMPTS: z.preprocess(emptyAsUnset, positiveInt.max(50).default(8)),
+  CALLBACK_RETRY_DELAY: z.preprocess(emptyAsUnset, duration.default(2000)),
   MAX_NEURONS: z.preprocess(emptyAsUnset, positiveInt.optional()),
   MAX_GRID_POINTS: z.preprocess(emptyAsUnset, positiveInt.optional()),
   MAX_TRIALS: z.preprocess(emptyAsUnset, positiveInt.optional()),
@@ -103,6 +108,17 @@ export interface Config {
   /** Log every request at info (an access log); by default request lines are debug. */
   logRequests: boolean
   limits: WorkLimitOverrides
+  /** The server's address as clients reach it (links in callback events); null: links are paths. */
+  publicUrl: string | null
+  callbacks: {
+    /** CALLBACK_ALLOWED_HOSTS as written: host names, addresses and networks callbacks may reach although private. */
+    allowedTargets: string
+    /** Signing secret of a server without tokens (owners with tokens have theirs in the tokens file). */
+    anonymousSecret: string | null
+    attempts: number
+    /** Wait after the first failed attempt; doubled after each further one. */
+    firstRetryDelayMs: number
+  }
 }
 
 export class ConfigError extends Error {
@@ -151,7 +167,14 @@ export function loadConfig (env: Record<string, string | undefined>): Config {
     logLevel: e.LOG_LEVEL,
     logFormat: e.LOG_FORMAT,
     logRequests: e.LOG_REQUESTS,
-    limits
+    limits,
+    publicUrl: e.PUBLIC_URL === undefined ? null : e.PUBLIC_URL.replace(/\/+$/, ''),
+    callbacks: {
+      allowedTargets: e.CALLBACK_ALLOWED_HOSTS,
+      anonymousSecret: e.CALLBACK_SECRET ?? null,
+      attempts: e.CALLBACK_ATTEMPTS,
+      firstRetryDelayMs: e.CALLBACK_RETRY_DELAY
+    }
   })
 }
 

@@ -101,6 +101,11 @@ export const ERRORS = {
     title: 'Idempotency-Key reused with a different body',
     detail: "Idempotency-Key '{key}' was first used with a different sweep spec."
   },
+  MEMSWEEP_CALLBACK_REFUSED: {
+    status: 422,
+    title: 'Callback URL refused',
+    detail: 'The callback URL cannot be used: {reason}.'
+  },
   MEMSWEEP_FIGURE_OPTIONS_UNFIT: {
     status: 422,
     title: 'Figure options do not fit the sweep',

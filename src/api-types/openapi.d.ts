@@ -565,7 +565,7 @@ export type components = {
              * @description Stable machine-readable code; see docs/errors.md.
              * @enum {string}
              */
-            code: "MEMSWEEP_MALFORMED_REQUEST" | "MEMSWEEP_UNAUTHENTICATED" | "MEMSWEEP_FORBIDDEN" | "MEMSWEEP_OWNER_ONLY" | "MEMSWEEP_ROUTE_NOT_FOUND" | "MEMSWEEP_SWEEP_NOT_FOUND" | "MEMSWEEP_NOT_ACCEPTABLE" | "MEMSWEEP_RESULTS_NOT_READY" | "MEMSWEEP_RESULTS_UNAVAILABLE" | "MEMSWEEP_SWEEP_FINISHED" | "MEMSWEEP_SWEEP_ACTIVE" | "MEMSWEEP_NOT_RESUMABLE" | "MEMSWEEP_BODY_TOO_LARGE" | "MEMSWEEP_UNSUPPORTED_MEDIA_TYPE" | "MEMSWEEP_SPEC_INVALID" | "MEMSWEEP_WORK_LIMIT_EXCEEDED" | "MEMSWEEP_IDEMPOTENCY_KEY_REUSED" | "MEMSWEEP_FIGURE_OPTIONS_UNFIT" | "MEMSWEEP_RATE_LIMITED" | "MEMSWEEP_TOO_MANY_ACTIVE_SWEEPS" | "MEMSWEEP_TOO_MANY_AUTH_FAILURES" | "MEMSWEEP_INTERNAL" | "MEMSWEEP_NOT_READY";
+            code: "MEMSWEEP_MALFORMED_REQUEST" | "MEMSWEEP_UNAUTHENTICATED" | "MEMSWEEP_FORBIDDEN" | "MEMSWEEP_OWNER_ONLY" | "MEMSWEEP_ROUTE_NOT_FOUND" | "MEMSWEEP_SWEEP_NOT_FOUND" | "MEMSWEEP_NOT_ACCEPTABLE" | "MEMSWEEP_RESULTS_NOT_READY" | "MEMSWEEP_RESULTS_UNAVAILABLE" | "MEMSWEEP_SWEEP_FINISHED" | "MEMSWEEP_SWEEP_ACTIVE" | "MEMSWEEP_NOT_RESUMABLE" | "MEMSWEEP_BODY_TOO_LARGE" | "MEMSWEEP_UNSUPPORTED_MEDIA_TYPE" | "MEMSWEEP_SPEC_INVALID" | "MEMSWEEP_WORK_LIMIT_EXCEEDED" | "MEMSWEEP_IDEMPOTENCY_KEY_REUSED" | "MEMSWEEP_CALLBACK_REFUSED" | "MEMSWEEP_FIGURE_OPTIONS_UNFIT" | "MEMSWEEP_RATE_LIMITED" | "MEMSWEEP_TOO_MANY_ACTIVE_SWEEPS" | "MEMSWEEP_TOO_MANY_AUTH_FAILURES" | "MEMSWEEP_INTERNAL" | "MEMSWEEP_NOT_READY";
             /** @description Request id, also sent as the X-Request-Id header; quote it in bug reports. */
             requestId: string;
             /** @description One entry per invalid field (validation problems only), at most 100. */
@@ -807,6 +807,8 @@ export type components = {
             notes: string | null;
             /** @description sha256 of the spec without its seed and label: sweeps with the same key are replicates (list them with ?replicatesOf=<id>). */
             replicateKey: string;
+            /** @description The completion callback asked for at submission (?callbackUrl=), and how its delivery goes; null without one. */
+            callback: components["schemas"]["SweepCallback"] | null;
             links: {
                 self: string;
                 events: string;
@@ -820,6 +822,18 @@ export type components = {
             tags?: string[];
             /** @description Free notes; null clears them. */
             notes?: string | null;
+        };
+        SweepCallback: {
+            url: string;
+            /**
+             * @description waiting: the sweep has not ended; pending: the event of its end is due or being retried; delivered: the receiver answered 2xx; failed: every attempt failed.
+             * @enum {string}
+             */
+            state: "waiting" | "pending" | "delivered" | "failed";
+            /** @description Attempts made for the event of the last end. */
+            attempts: number;
+            /** @description What went wrong at the last failed attempt (e.g. "the receiver answered 500"); null after a success. */
+            lastError: string | null;
         };
         SweepDetail: {
             id: string;
@@ -853,6 +867,8 @@ export type components = {
             notes: string | null;
             /** @description sha256 of the spec without its seed and label: sweeps with the same key are replicates (list them with ?replicatesOf=<id>). */
             replicateKey: string;
+            /** @description The completion callback asked for at submission (?callbackUrl=), and how its delivery goes; null without one. */
+            callback: components["schemas"]["SweepCallback"] | null;
             links: {
                 self: string;
                 events: string;
@@ -2178,6 +2194,8 @@ export interface operations {
                 reuse?: "true" | "false";
                 /** @description true (default): grid points whose trials your earlier sweeps already computed (same model parameters, seed and trial range: exactly the records a fresh run computes) are taken from them instead of computed; the status says how many (`reused`). false: compute everything. */
                 reusePoints?: "true" | "false";
+                /** @description An http(s) URL that gets a signed POST (a small JSON event: sweep id, status, links, finishedAt) each time the sweep ends: succeeded, failed or canceled. Retried with backoff; delivery shows in the status (`callback`). Private, loopback and link-local targets are refused (422) unless the operator allows them. See docs/callbacks.md for the signature. */
+                callbackUrl?: string;
             };
             header?: {
                 /** @description Makes a retried submission safe: the same key with the same spec returns the first sweep; with a different spec, 422. Kept 24 h. */
@@ -2279,7 +2297,7 @@ export interface operations {
                     "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Problem details: MEMSWEEP_SPEC_INVALID, MEMSWEEP_WORK_LIMIT_EXCEEDED, MEMSWEEP_IDEMPOTENCY_KEY_REUSED, MEMSWEEP_FIGURE_OPTIONS_UNFIT. */
+            /** @description Problem details: MEMSWEEP_SPEC_INVALID, MEMSWEEP_WORK_LIMIT_EXCEEDED, MEMSWEEP_IDEMPOTENCY_KEY_REUSED, MEMSWEEP_CALLBACK_REFUSED, MEMSWEEP_FIGURE_OPTIONS_UNFIT. */
             422: {
                 headers: {
                     /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
@@ -2399,7 +2417,7 @@ export interface operations {
                     "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Problem details: MEMSWEEP_SPEC_INVALID, MEMSWEEP_WORK_LIMIT_EXCEEDED, MEMSWEEP_IDEMPOTENCY_KEY_REUSED, MEMSWEEP_FIGURE_OPTIONS_UNFIT. */
+            /** @description Problem details: MEMSWEEP_SPEC_INVALID, MEMSWEEP_WORK_LIMIT_EXCEEDED, MEMSWEEP_IDEMPOTENCY_KEY_REUSED, MEMSWEEP_CALLBACK_REFUSED, MEMSWEEP_FIGURE_OPTIONS_UNFIT. */
             422: {
                 headers: {
                     /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
@@ -2807,7 +2825,7 @@ export interface operations {
                     "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Problem details: MEMSWEEP_SPEC_INVALID, MEMSWEEP_WORK_LIMIT_EXCEEDED, MEMSWEEP_IDEMPOTENCY_KEY_REUSED, MEMSWEEP_FIGURE_OPTIONS_UNFIT. */
+            /** @description Problem details: MEMSWEEP_SPEC_INVALID, MEMSWEEP_WORK_LIMIT_EXCEEDED, MEMSWEEP_IDEMPOTENCY_KEY_REUSED, MEMSWEEP_CALLBACK_REFUSED, MEMSWEEP_FIGURE_OPTIONS_UNFIT. */
             422: {
                 headers: {
                     /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
@@ -2971,7 +2989,7 @@ export interface operations {
                     "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Problem details: MEMSWEEP_SPEC_INVALID, MEMSWEEP_WORK_LIMIT_EXCEEDED, MEMSWEEP_IDEMPOTENCY_KEY_REUSED, MEMSWEEP_FIGURE_OPTIONS_UNFIT. */
+            /** @description Problem details: MEMSWEEP_SPEC_INVALID, MEMSWEEP_WORK_LIMIT_EXCEEDED, MEMSWEEP_IDEMPOTENCY_KEY_REUSED, MEMSWEEP_CALLBACK_REFUSED, MEMSWEEP_FIGURE_OPTIONS_UNFIT. */
             422: {
                 headers: {
                     /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
@@ -3285,7 +3303,7 @@ export interface operations {
                     "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Problem details: MEMSWEEP_SPEC_INVALID, MEMSWEEP_WORK_LIMIT_EXCEEDED, MEMSWEEP_IDEMPOTENCY_KEY_REUSED, MEMSWEEP_FIGURE_OPTIONS_UNFIT. */
+            /** @description Problem details: MEMSWEEP_SPEC_INVALID, MEMSWEEP_WORK_LIMIT_EXCEEDED, MEMSWEEP_IDEMPOTENCY_KEY_REUSED, MEMSWEEP_CALLBACK_REFUSED, MEMSWEEP_FIGURE_OPTIONS_UNFIT. */
             422: {
                 headers: {
                     /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
@@ -3509,7 +3527,7 @@ export interface operations {
                     "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Problem details: MEMSWEEP_SPEC_INVALID, MEMSWEEP_WORK_LIMIT_EXCEEDED, MEMSWEEP_IDEMPOTENCY_KEY_REUSED, MEMSWEEP_FIGURE_OPTIONS_UNFIT. */
+            /** @description Problem details: MEMSWEEP_SPEC_INVALID, MEMSWEEP_WORK_LIMIT_EXCEEDED, MEMSWEEP_IDEMPOTENCY_KEY_REUSED, MEMSWEEP_CALLBACK_REFUSED, MEMSWEEP_FIGURE_OPTIONS_UNFIT. */
             422: {
                 headers: {
                     /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
@@ -3696,7 +3714,7 @@ export interface operations {
                     "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Problem details: MEMSWEEP_SPEC_INVALID, MEMSWEEP_WORK_LIMIT_EXCEEDED, MEMSWEEP_IDEMPOTENCY_KEY_REUSED, MEMSWEEP_FIGURE_OPTIONS_UNFIT. */
+            /** @description Problem details: MEMSWEEP_SPEC_INVALID, MEMSWEEP_WORK_LIMIT_EXCEEDED, MEMSWEEP_IDEMPOTENCY_KEY_REUSED, MEMSWEEP_CALLBACK_REFUSED, MEMSWEEP_FIGURE_OPTIONS_UNFIT. */
             422: {
                 headers: {
                     /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
@@ -3880,7 +3898,7 @@ export interface operations {
                     "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Problem details: MEMSWEEP_SPEC_INVALID, MEMSWEEP_WORK_LIMIT_EXCEEDED, MEMSWEEP_IDEMPOTENCY_KEY_REUSED, MEMSWEEP_FIGURE_OPTIONS_UNFIT. */
+            /** @description Problem details: MEMSWEEP_SPEC_INVALID, MEMSWEEP_WORK_LIMIT_EXCEEDED, MEMSWEEP_IDEMPOTENCY_KEY_REUSED, MEMSWEEP_CALLBACK_REFUSED, MEMSWEEP_FIGURE_OPTIONS_UNFIT. */
             422: {
                 headers: {
                     /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
@@ -4069,7 +4087,7 @@ export interface operations {
                     "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Problem details: MEMSWEEP_SPEC_INVALID, MEMSWEEP_WORK_LIMIT_EXCEEDED, MEMSWEEP_IDEMPOTENCY_KEY_REUSED, MEMSWEEP_FIGURE_OPTIONS_UNFIT. */
+            /** @description Problem details: MEMSWEEP_SPEC_INVALID, MEMSWEEP_WORK_LIMIT_EXCEEDED, MEMSWEEP_IDEMPOTENCY_KEY_REUSED, MEMSWEEP_CALLBACK_REFUSED, MEMSWEEP_FIGURE_OPTIONS_UNFIT. */
             422: {
                 headers: {
                     /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
@@ -4255,7 +4273,7 @@ export interface operations {
                     "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Problem details: MEMSWEEP_SPEC_INVALID, MEMSWEEP_WORK_LIMIT_EXCEEDED, MEMSWEEP_IDEMPOTENCY_KEY_REUSED, MEMSWEEP_FIGURE_OPTIONS_UNFIT. */
+            /** @description Problem details: MEMSWEEP_SPEC_INVALID, MEMSWEEP_WORK_LIMIT_EXCEEDED, MEMSWEEP_IDEMPOTENCY_KEY_REUSED, MEMSWEEP_CALLBACK_REFUSED, MEMSWEEP_FIGURE_OPTIONS_UNFIT. */
             422: {
                 headers: {
                     /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
@@ -4442,7 +4460,7 @@ export interface operations {
                     "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Problem details: MEMSWEEP_SPEC_INVALID, MEMSWEEP_WORK_LIMIT_EXCEEDED, MEMSWEEP_IDEMPOTENCY_KEY_REUSED, MEMSWEEP_FIGURE_OPTIONS_UNFIT. */
+            /** @description Problem details: MEMSWEEP_SPEC_INVALID, MEMSWEEP_WORK_LIMIT_EXCEEDED, MEMSWEEP_IDEMPOTENCY_KEY_REUSED, MEMSWEEP_CALLBACK_REFUSED, MEMSWEEP_FIGURE_OPTIONS_UNFIT. */
             422: {
                 headers: {
                     /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */
@@ -4626,7 +4644,7 @@ export interface operations {
                     "application/problem+json": components["schemas"]["Problem"];
                 };
             };
-            /** @description Problem details: MEMSWEEP_SPEC_INVALID, MEMSWEEP_WORK_LIMIT_EXCEEDED, MEMSWEEP_IDEMPOTENCY_KEY_REUSED, MEMSWEEP_FIGURE_OPTIONS_UNFIT. */
+            /** @description Problem details: MEMSWEEP_SPEC_INVALID, MEMSWEEP_WORK_LIMIT_EXCEEDED, MEMSWEEP_IDEMPOTENCY_KEY_REUSED, MEMSWEEP_CALLBACK_REFUSED, MEMSWEEP_FIGURE_OPTIONS_UNFIT. */
             422: {
                 headers: {
                     /** @description The request id (the client's, when it sent a plain one); also in problem documents and in the server log. */

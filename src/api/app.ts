@@ -31,6 +31,7 @@ import { theoryRoutes } from './routes/theory.js'
 import { DEFAULT_WEB_ROOT, webRoutes } from './routes/web.js'
 import { docsRoutes } from './routes/docs.js'
 import type { TokenTable } from './tokens.js'
+import { setUpCallbacks } from './callbacks/setup.js'
 import { API_DOCUMENT_INFO } from './openapi-info.js'
 import { transformDocument } from './openapi-document.js'
 
@@ -94,7 +95,8 @@ export function buildApp (deps: AppDependencies): FastifyInstance {
     maxActiveSweepsPerOwner: config.maxActiveSweepsPerOwner,
     heartbeatMs: config.sseHeartbeatSeconds * 1000,
     streams,
-    render
+    render,
+    callbacks: setUpCallbacks(app as unknown as FastifyInstance, config, queue, deps.tokens)
   }
 
   let shuttingDown = false

@@ -11,7 +11,8 @@ import { buildApp } from './app.js'
 /** A queue that refuses every call: building the document must never reach a backend. */
 function documentOnlyQueue (): SweepQueue {
   const refuse = (): never => { throw new Error('the OpenAPI build has no queue backend') }
-  return new Proxy({ kind: 'embedded', close: async () => {} } as unknown as SweepQueue, {
+  // It sends no callbacks either: starting them is the one call every app makes when ready.
+  return new Proxy({ kind: 'embedded', close: async () => {}, startCallbacks: () => {} } as unknown as SweepQueue, {
     get: (target, property) => Reflect.get(target, property) ?? refuse
   })
 }

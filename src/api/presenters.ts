@@ -41,6 +41,7 @@ export function presentSweep (record: SweepRecord, now: number = Date.now()): Sw
     tags: record.tags,
     notes: record.notes,
     replicateKey: record.replicateKey,
+    callback: record.callback,
     links: { self, events: `${self}/events`, results: `${self}/results` }
   }
 }

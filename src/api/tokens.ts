@@ -8,6 +8,8 @@
  *   - `submit` (default): submit, read and cancel one's own sweeps;
  *   - `read`: read one's own sweeps only (dashboards, monitoring scripts);
  *   - `admin`: read, list and cancel every owner's sweeps, and read /metrics (the lab admin).
+ * A line `owner:secret:callback-secret` is no token: it sets the secret the owner's completion
+ * callbacks are signed with (docs/callbacks.md), at most one per owner.
  */
 import { createHash, timingSafeEqual } from 'node:crypto'
 import { readFile } from 'node:fs/promises'
@@ -25,7 +27,11 @@ export interface TokenTable {
   /** The principal a presented token belongs to, or null. */
   lookup (token: string): Principal | null
   readonly size: number
+  /** The secret an owner's completion callbacks are signed with, or null. */
+  callbackSecret (owner: string): string | null
 }
+
+const CALLBACK_SECRET_ROLE = 'callback-secret'
 
 /** Owner names: in the tokens file, and wherever a request names an owner. */
 export const OWNER_NAME = /^[A-Za-z0-9._-]{1,64}$/
@@ -46,6 +52,7 @@ function digest (token: string): Buffer {
 export function parseTokens (text: string, file = 'TOKENS_FILE'): TokenTable {
   // Keyed by the token's sha256 so the lookup time says nothing about the token's characters.
   const byDigest = new Map<string, { digest: Buffer, principal: Principal }>()
+  const secrets = new Map<string, string>()
   const lines = text.split(/\r?\n/)
   lines.forEach((raw, index) => {
     const line = raw.trim()
@@ -57,7 +64,12 @@ export function parseTokens (text: string, file = 'TOKENS_FILE'): TokenTable {
     const [owner = '', token = '', role = 'submit'] = fields
     if (!OWNER_NAME.test(owner)) throw new TokenFileError(file, index + 1, `owner '${owner}' must be 1-64 letters, digits, '.', '_' or '-'`)
     if (!TOKEN.test(token)) throw new TokenFileError(file, index + 1, 'token must be 16-512 characters of letters, digits and -._~+/=')
-    if (!(ROLES as readonly string[]).includes(role)) throw new TokenFileError(file, index + 1, `role '${role}' must be one of ${ROLES.join(', ')}`)
+    if (role === CALLBACK_SECRET_ROLE) {
+      if (secrets.has(owner)) throw new TokenFileError(file, index + 1, `owner '${owner}' has a callback secret already`)
+      secrets.set(owner, token)
+      return
+    }
+    if (!(ROLES as readonly string[]).includes(role)) throw new TokenFileError(file, index + 1, `role '${role}' must be one of ${ROLES.join(', ')} (or ${CALLBACK_SECRET_ROLE})`)
     const d = digest(token)
     const key = d.toString('hex')
     if (byDigest.has(key)) throw new TokenFileError(file, index + 1, 'the same token appears twice')
@@ -65,6 +77,7 @@ export function parseTokens (text: string, file = 'TOKENS_FILE'): TokenTable {
   })
   return {
     size: byDigest.size,
+    callbackSecret: (owner: string) => secrets.get(owner) ?? null,
     lookup (token: string): Principal | null {
       const d = digest(token)
       const entry = byDigest.get(d.toString('hex'))

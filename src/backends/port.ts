@@ -7,10 +7,10 @@
 import type { TrialRecord } from '../engine/index.js'
 import type { NormalisedSpec } from '../spec/index.js'
 import type { SweepResult } from '../results/index.js'
-import type { Annotation, EncodedResult, ListQuery, StoredProgress, SweepPage, SweepRecord } from '../sweep/index.js'
+import type { Annotation, CallbackDispatcherOptions, CallbackSender, EncodedResult, ListQuery, StoredProgress, SweepPage, SweepRecord } from '../sweep/index.js'
 
 export {
-  SWEEP_STATUSES, TERMINAL_STATUSES, ANY_OWNER, SWEEP_ID_MAX_LENGTH, SWEEP_ID_PATTERN,
+  SWEEP_STATUSES, TERMINAL_STATUSES, ANY_OWNER, SWEEP_ID_MAX_LENGTH, SWEEP_ID_PATTERN, CALLBACK_STATES,
   type SweepStatus, type SweepProgress, type SweepFailure, type SweepRecord, type ListQuery, type Annotation
 } from '../sweep/index.js'
 export { IdempotencyConflictError, ActiveSweepCapError, InvalidCursorError, StorageUnavailableError } from './errors.js'
@@ -34,6 +34,8 @@ export interface SubmitInput {
   extends?: string
   tags?: string[]
   notes?: string | null
+  /** POST a signed event here when the sweep ends (checked by the API before). */
+  callbackUrl?: string
 }
 
 /** What is stored of a sweep so far, whatever its state: for partial results. */
@@ -87,6 +89,11 @@ export interface SweepQueue {
   /** Listen to one sweep's progress and state changes; returns the unsubscribe function. */
   subscribe (id: string, listener: (event: SweepEvent) => void): () => void
   stats (): Promise<QueueStats>
+  /**
+   * Starts sending due completion callbacks through `send` (src/sweep/callbacks.ts) until the
+   * queue closes; any number of API instances may, each delivery goes to one at a time.
+   */
+  startCallbacks (send: CallbackSender, options?: CallbackDispatcherOptions): void
   /** Readiness: storage and (Redis) connections answer. */
   ready (): Promise<{ ok: boolean, detail?: string }>
   close (): Promise<void>

@@ -12,6 +12,7 @@ import { operationsContract } from './contract/operations.js'
 import { measuresContract } from './contract/measures.js'
 import { workflowContract } from './contract/workflow.js'
 import { bundleContract } from './contract/bundle.js'
+import { callbacksContract } from './contract/callbacks.js'
 
 export type { QueueFactory } from './helpers/harness.js'
 
@@ -25,4 +26,5 @@ export function defineApiContract (factory: QueueFactory): void {
   measuresContract(factory)
   workflowContract(factory)
   bundleContract(factory)
+  callbacksContract(factory)
 }

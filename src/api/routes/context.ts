@@ -6,6 +6,7 @@ import { ServiceError } from '../../errors.js'
 import type { WorkLimits } from '../../spec/index.js'
 import type { EventStreamRegistry } from '../event-stream.js'
 import type { RenderPool } from '../render/render-pool.js'
+import type { CallbackTargets } from '../callbacks/setup.js'
 import { canSee } from '../plugins/auth.js'
 import type { Principal } from '../tokens.js'
 import { sweepPath } from '../presenters.js'
@@ -18,6 +19,8 @@ export interface RouteContext {
   streams: EventStreamRegistry
   /** Renders results and figures on a thread of its own. */
   render: RenderPool
+  /** Completion callbacks: the target guard and the owners' secrets. */
+  callbacks: CallbackTargets
 }
 
 /** The record of a sweep the caller may see; anything else is a 404 (never a 403, so ids reveal nothing). */

@@ -26,7 +26,9 @@ const submitQuery = z.object({
   reuse: z.enum(['true', 'false']).optional()
     .describe('true: if you already have a succeeded sweep with the same spec hash, the new sweep reuses its results at once instead of running again. Default: false (a fresh run).'),
   reusePoints: z.enum(['true', 'false']).optional()
-    .describe('true (default): grid points whose trials your earlier sweeps already computed (same model parameters, seed and trial range: exactly the records a fresh run computes) are taken from them instead of computed; the status says how many (`reused`). false: compute everything.')
+    .describe('true (default): grid points whose trials your earlier sweeps already computed (same model parameters, seed and trial range: exactly the records a fresh run computes) are taken from them instead of computed; the status says how many (`reused`). false: compute everything.'),
+  callbackUrl: z.string().min(1).max(2048).optional()
+    .describe('An http(s) URL that gets a signed POST (a small JSON event: sweep id, status, links, finishedAt) each time the sweep ends: succeeded, failed or canceled. Retried with backoff; delivery shows in the status (`callback`). Private, loopback and link-local targets are refused (422) unless the operator allows them. See docs/callbacks.md for the signature.')
 })
 
 /** A tag: short, plain, to filter a list by. */
@@ -128,12 +130,14 @@ export const sweepRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx)
     const spec = normaliseSpec(request.body)
     checkLimits(spec, ctx.limits)
     const idempotencyKey = request.headers['idempotency-key']
+    const callbackUrl = request.query.callbackUrl === undefined ? undefined : await ctx.callbacks.accept(request.query.callbackUrl, principal.owner)
     let record
     try {
       // The backend checks the cap atomically with storing the sweep (across API instances too).
       record = await queue.submit({
         spec,
         owner: principal.owner,
+        ...(callbackUrl === undefined ? {} : { callbackUrl }),
         reuse: request.query.reuse === 'true',
         reusePoints: request.query.reusePoints !== 'false',
         maxActive: ctx.maxActiveSweepsPerOwner,

@@ -1,6 +1,6 @@
 /** Public shapes of sweeps as the API shows them: status, progress, lists. */
 import { z } from 'zod'
-import { SWEEP_ID_MAX_LENGTH, SWEEP_ID_PATTERN, SWEEP_STATUSES } from '../../backends/port.js'
+import { CALLBACK_STATES, SWEEP_ID_MAX_LENGTH, SWEEP_ID_PATTERN, SWEEP_STATUSES } from '../../backends/port.js'
 
 export const sweepStatusEnum = z.enum(SWEEP_STATUSES).meta({
   id: 'SweepStatus',
@@ -36,6 +36,13 @@ export const sweepLinksSchema = z.object({
   results: z.string()
 })
 
+const callbackSchema = z.object({
+  url: z.string(),
+  state: z.enum(CALLBACK_STATES).describe('waiting: the sweep has not ended; pending: the event of its end is due or being retried; delivered: the receiver answered 2xx; failed: every attempt failed.'),
+  attempts: z.number().int().nonnegative().describe('Attempts made for the event of the last end.'),
+  lastError: z.string().nullable().describe('What went wrong at the last failed attempt (e.g. "the receiver answered 500"); null after a success.')
+}).meta({ id: 'SweepCallback' })
+
 export const sweepSchema = z.object({
   id: z.string(),
   status: sweepStatusEnum,
@@ -56,6 +63,7 @@ export const sweepSchema = z.object({
   tags: z.array(z.string()).describe('Tags to find the sweep by (PATCH to change; list with ?tag=).'),
   notes: z.string().nullable().describe('Free notes (PATCH to change; searched by ?q=).'),
   replicateKey: z.string().describe('sha256 of the spec without its seed and label: sweeps with the same key are replicates (list them with ?replicatesOf=<id>).'),
+  callback: callbackSchema.nullable().describe('The completion callback asked for at submission (?callbackUrl=), and how its delivery goes; null without one.'),
   links: sweepLinksSchema
 }).meta({ id: 'Sweep' })
 

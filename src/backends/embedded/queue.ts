@@ -10,6 +10,7 @@ import type { ResourceLimits } from 'node:worker_threads'
 import type { TrialRecord } from '../../engine/index.js'
 import { specHash } from '../../spec/index.js'
 import type { SweepResult } from '../../results/index.js'
+import { CallbackDispatcher, type CallbackDispatcherOptions, type CallbackSender } from '../../sweep/index.js'
 import { checkPlan, planSweep, readEncodedResult, readResult, readStoredProgress, readTrials, submitToStore, unresumableFailure, type Annotation, type ListQuery, type SweepPage, type SweepRecord } from '../../sweep/index.js'
 import { ActiveSweepCapError, IdempotencyConflictError, StorageUnavailableError } from '../errors.js'
 import type { EncodedResult, QueueStats, StoredProgress, SubmitInput, SweepEvent, SweepQueue } from '../port.js'
@@ -112,6 +113,7 @@ class EmbeddedQueue implements SweepQueue {
   /** What is wrong with the data directory, once noticed; the service needs a restart then. */
   #storageProblem: string | null = null
   #closed: Promise<void> | null = null
+  #callbacks: CallbackDispatcher | null = null
 
   constructor (store: SqliteSweepStore, pool: ChunkThreadPool, tuning: EmbeddedQueueTuning, logger: Logger | undefined) {
     this.#store = store
@@ -194,7 +196,8 @@ class EmbeddedQueue implements SweepQueue {
       ...(input.maxActive === undefined ? {} : { maxActive: input.maxActive }),
       ...(input.extends === undefined ? {} : { extends: input.extends }),
       ...(input.tags === undefined ? {} : { tags: input.tags }),
-      ...(input.notes === undefined ? {} : { notes: input.notes })
+      ...(input.notes === undefined ? {} : { notes: input.notes }),
+      ...(input.callbackUrl === undefined ? {} : { callbackUrl: input.callbackUrl })
     })
     if (outcome.kind === 'existing') {
       if (outcome.binding.specHash !== hash) throw new IdempotencyConflictError(input.idempotencyKey ?? '')
@@ -304,12 +307,20 @@ class EmbeddedQueue implements SweepQueue {
     }
   }
 
+  startCallbacks (send: CallbackSender, options: CallbackDispatcherOptions = {}): void {
+    this.#assertOpen()
+    if (this.#callbacks !== null) return
+    this.#callbacks = new CallbackDispatcher(this.#store, send, options)
+    this.#callbacks.start()
+  }
+
   close (): Promise<void> {
     this.#closed ??= this.#shutDown()
     return this.#closed
   }
 
   async #shutDown (): Promise<void> {
+    await this.#callbacks?.stop()
     clearInterval(this.#storageCheck)
     await this.#scheduler.close(this.#tuning.closeGraceMs)
     this.#events.close()

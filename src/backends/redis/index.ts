@@ -13,6 +13,7 @@ import {
   dataLossFailure, isSweepId, isTerminal, newSweepId, planSweep, readEncodedResult, readResult, readStoredProgress, readTrials, submitToStore,
   type Annotation, type ListQuery, type SweepPage, type SweepRecord
 } from '../../sweep/index.js'
+import { CallbackDispatcher, type CallbackDispatcherOptions, type CallbackSender } from '../../sweep/index.js'
 import { ActiveSweepCapError, IdempotencyConflictError } from '../errors.js'
 import type { EncodedResult, QueueStats, StoredProgress, SubmitInput, SweepEvent, SweepQueue } from '../port.js'
 import { enqueueRemaining } from './dispatch.js'
@@ -92,6 +93,7 @@ export async function createRedisQueue (options: RedisQueueOptions): Promise<Swe
 class RedisQueue implements SweepQueue {
   readonly kind = 'redis' as const
   #closed: Promise<void> | null = null
+  #callbacks: CallbackDispatcher | null = null
 
   constructor (
     readonly producer: Redis,
@@ -163,7 +165,8 @@ class RedisQueue implements SweepQueue {
       ...(input.maxActive === undefined ? {} : { maxActive: input.maxActive }),
       ...(input.extends === undefined ? {} : { extends: input.extends }),
       ...(input.tags === undefined ? {} : { tags: input.tags }),
-      ...(input.notes === undefined ? {} : { notes: input.notes })
+      ...(input.notes === undefined ? {} : { notes: input.notes }),
+      ...(input.callbackUrl === undefined ? {} : { callbackUrl: input.callbackUrl })
     })
     if (outcome.kind === 'over-cap') throw new ActiveSweepCapError(input.owner, outcome.active, input.maxActive ?? outcome.active)
     if (outcome.kind === 'existing') {
@@ -301,8 +304,16 @@ class RedisQueue implements SweepQueue {
     }
   }
 
+  startCallbacks (send: CallbackSender, options: CallbackDispatcherOptions = {}): void {
+    this.#assertOpen()
+    if (this.#callbacks !== null) return
+    this.#callbacks = new CallbackDispatcher(this.store, send, options)
+    this.#callbacks.start()
+  }
+
   close (): Promise<void> {
     this.#closed ??= (async () => {
+      await this.#callbacks?.stop()
       this.hub.close()
       await this.chunks.close()
       await closeConnection(this.subscriber)
