@@ -19,7 +19,8 @@ import { buildWebOnce } from './helpers/server.js'
 /** The page's routes never reach the backend: any call would be a bug. */
 function untouchableQueue (): SweepQueue {
   const refuse = (): never => { throw new Error('the web routes must not use the queue') }
-  return new Proxy({ kind: 'embedded', close: async () => {} } as unknown as SweepQueue, {
+  // Every app starts its completion callbacks when ready: the one call that is not a web route's.
+  return new Proxy({ kind: 'embedded', close: async () => {}, startCallbacks: () => {} } as unknown as SweepQueue, {
     get: (target, property) => Reflect.get(target, property) ?? refuse
   })
 }
