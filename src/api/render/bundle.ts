@@ -7,6 +7,7 @@
  * sweep gives the same bytes (and the same ETag) whenever it is bundled.
  */
 import { zipSync, type Zippable } from 'fflate'
+import { figureBytes, type FigureFormat } from '../../figure-files/index.js'
 import { FigureOptionsError, renderFigure } from '../../figures/index.js'
 import { resultToCsv, resultToJson, trajectoryCsv, trajectoryUnavailable, type SweepResult } from '../../results/index.js'
 import { canonicalJson, gridAxes } from '../../spec/index.js'
@@ -38,7 +39,26 @@ interface MemberContext { result: SweepResult, record: BundleRecord }
 export interface BundleMember {
   name: string
   what: string
-  produce: (context: MemberContext) => string | Uint8Array | { omitted: string }
+  produce: (context: MemberContext) => Produced | Promise<Produced>
+}
+
+type Produced = string | Uint8Array | { omitted: string }
+
+/** The default figure of the result, at `options` (a screen size by default), or why it has none. */
+function figureOf (result: SweepResult, options: { column?: 'single' } = {}): string | { omitted: string } {
+  try {
+    return renderFigure(result, options)
+  } catch (error) {
+    if (error instanceof FigureOptionsError) return { omitted: error.issues.map((issue) => issue.message).join('; ') }
+    throw error
+  }
+}
+
+/** The single-column print figure as the figure routes render it (`?column=single`), the SVG's title as the PDF's. */
+async function printFigure (result: SweepResult, format: FigureFormat): Promise<Produced> {
+  const svg = figureOf(result, { column: 'single' })
+  if (typeof svg !== 'string') return svg
+  return await figureBytes(svg, format, { title: /<title[^>]*>([^<]*)</.exec(svg)?.[1] })
 }
 
 export const BUNDLE_MEMBERS: readonly BundleMember[] = [
@@ -83,14 +103,17 @@ export const BUNDLE_MEMBERS: readonly BundleMember[] = [
   {
     name: 'figure.svg',
     what: 'The default figure of the main measure with 95 % intervals and the theory that applies, as GET /v1/sweeps/{id}/figure.svg draws it.',
-    produce: ({ result }) => {
-      try {
-        return renderFigure(result)
-      } catch (error) {
-        if (error instanceof FigureOptionsError) return { omitted: error.issues.map((issue) => issue.message).join('; ') }
-        throw error
-      }
-    }
+    produce: ({ result }) => figureOf(result)
+  },
+  {
+    name: 'figure.pdf',
+    what: 'The same figure sized for a single journal column (85 mm), as vector PDF with its typeface embedded (figure.pdf?column=single).',
+    produce: async ({ result }) => await printFigure(result, 'pdf')
+  },
+  {
+    name: 'figure.png',
+    what: 'The single-column figure as PNG at 300 dpi (figure.png?column=single).',
+    produce: async ({ result }) => await printFigure(result, 'png')
   },
   {
     name: 'provenance.json',
@@ -103,12 +126,12 @@ export const BUNDLE_MEMBERS: readonly BundleMember[] = [
 ]
 
 /** The zip's bytes, and the names of its members in order (README.md first). */
-export function buildBundle (result: SweepResult, record: BundleRecord): { zip: Uint8Array, members: string[] } {
+export async function buildBundle (result: SweepResult, record: BundleRecord): Promise<{ zip: Uint8Array, members: string[] }> {
   const mtime = new Date(record.finishedAt ?? record.createdAt)
   const files: Array<[string, Uint8Array]> = []
   const listed: Array<{ name: string, what: string, omitted: string | null }> = []
   for (const member of BUNDLE_MEMBERS) {
-    const produced = member.produce({ result, record })
+    const produced = await member.produce({ result, record })
     if (typeof produced === 'object' && !(produced instanceof Uint8Array)) {
       listed.push({ name: member.name, what: member.what, omitted: produced.omitted })
       continue

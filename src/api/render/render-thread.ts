@@ -16,7 +16,7 @@ import type { RenderOutcome, RenderSource, RenderTask } from './render-task.js'
 
 export default async function render (task: RenderTask): Promise<RenderOutcome> {
   if (task.kind === 'bundle') {
-    const { zip } = buildBundle(decode(task.stored), task.record)
+    const { zip } = await buildBundle(decode(task.stored), task.record)
     return rendered(Buffer.from(zip.buffer, zip.byteOffset, zip.byteLength))
   }
   if (task.kind === 'result') {
