@@ -198,8 +198,8 @@ export type paths = {
             cookie?: never;
         };
         /**
-         * Results of a succeeded sweep (JSON or CSV)
-         * @description JSON by default; CSV with `Accept: text/csv` or `?format=csv`. One row per grid point with the varied parameters, aggregated measures with uncertainties and the theory values that apply; `?trials=true` for per-trial rows; `?series=trajectory` for the mean trajectories per point (long-format CSV, or JSON). An analysis (threshold search) gives `searches` (and `scaling` when asked for) in JSON; its CSV has one row per search, or with `?trials=true` one row per evaluated step (searches keep per-step summaries, not per-trial records; scaling fits are JSON-only). A strong ETag (sha256 of the bytes) supports If-None-Match → 304. 409 while the sweep has not succeeded; 422 (limit maxTrialRows) for per-trial rows of sweeps over a million trials.
+         * Results of a succeeded sweep (JSON, CSV or Apache Arrow)
+         * @description JSON by default; CSV with `Accept: text/csv` or `?format=csv`; an Apache Arrow IPC file with `Accept: application/vnd.apache.arrow.file` or `?format=arrow` (the CSV's table with typed columns; docs/data-dictionary.md lists every column). Every CSV and Arrow row starts with sweepId, specHash, seed, the point and every model parameter, varied or fixed, in one column order. One row per grid point with the varied parameters, aggregated measures with uncertainties and the theory values that apply; `?trials=true` for per-trial rows; `?series=trajectory` for the mean trajectories per point (long-format CSV, or JSON). An analysis (threshold search) gives `searches` (and `scaling` when asked for) in JSON; its CSV has one row per search, or with `?trials=true` one row per evaluated step (searches keep per-step summaries, not per-trial records; scaling fits are JSON-only). A strong ETag (sha256 of the bytes) supports If-None-Match → 304. 409 while the sweep has not succeeded; 422 (limit maxTrialRows) for per-trial rows of sweeps over a million trials.
          */
         get: operations["getSweepResults"];
         put?: never;
@@ -3187,9 +3187,9 @@ export interface operations {
     getSweepResults: {
         parameters: {
             query?: {
-                /** @description Overrides the Accept header. */
-                format?: "json" | "csv";
-                /** @description true: one record per trial (JSON: a `trials` member; CSV: one row per trial). Default: false (one row per grid point). */
+                /** @description Overrides the Accept header. arrow: an Apache Arrow IPC file (application/vnd.apache.arrow.file) with the CSV's columns, typed (int64 counts, float64 measures, utf8 names, bool flags; empty cells are nulls). */
+                format?: "json" | "csv" | "arrow";
+                /** @description true: one record per trial (JSON: a `trials` member; CSV and Arrow: one row per trial). Default: false (one row per grid point). */
                 trials?: "true" | "false";
                 /** @description JSON only. true: include the run timing (wallSeconds, cpuSeconds, workers) in the provenance. Default false, so the bytes depend on the spec and the code only. */
                 timing?: "true" | "false";
@@ -3227,6 +3227,7 @@ export interface operations {
                 content: {
                     "application/json": components["schemas"]["SweepResult"] | components["schemas"]["TrajectorySeries"];
                     "text/csv": string;
+                    "application/vnd.apache.arrow.file": string;
                 };
             };
             /** @description Not modified: the ETag in If-None-Match is current. */

@@ -6,6 +6,12 @@
 
 export type CsvCell = string | number | boolean | null | undefined
 
+/** A table as the CSV and Arrow writers take it: column names and rows of cells. */
+export interface Table {
+  header: string[]
+  rows: CsvCell[][]
+}
+
 export function csvField (cell: CsvCell): string {
   if (cell === null || cell === undefined) return ''
   if (typeof cell === 'number') return Number.isFinite(cell) ? String(cell) : ''

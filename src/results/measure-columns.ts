@@ -39,13 +39,13 @@ export function measureHeader (layout: MeasureLayout): string[] {
     ...(layout.stabilitySpread ? STABILITY_FIELDS.flatMap((f) => [`stability.sd.${f}`, `stability.se.${f}`]) : []),
     ...(layout.thermal
       ? [
-          ...END_STATES.map((s) => `endStateShare.${s}`),
-          ...END_STATES.map((s) => `finalEndState.${s}`),
+          ...END_STATES.map((s) => `endStateShares.${s}`),
+          ...END_STATES.map((s) => `finalEndStates.${s}`),
           ...meanHeader('finalMaxOtherOverlap'),
           ...meanHeader('finalEnergy')
         ]
       : []),
-    ...range(layout.components).flatMap((k) => meanHeader(`componentOverlap.${k}`)),
+    ...range(layout.components).flatMap((k) => meanHeader(`componentOverlaps.${k}`)),
     ...(layout.patternOverlaps
       ? [
           'patternOverlaps.networks', 'patternOverlaps.pairs',
@@ -83,8 +83,8 @@ export function measureCells (s: PointSummary, layout: MeasureLayout): CsvCell[]
 /** Per-trial columns: after the trial record's own columns. */
 export function trialMeasureHeader (layout: MeasureLayout): string[] {
   return [
-    ...(layout.thermal ? ['finalEndState', 'finalMaxOtherOverlap', 'finalEnergy', ...END_STATES.map((s) => `endStateShare.${s}`)] : []),
-    ...range(layout.components).map((k) => `componentOverlap.${k}`),
+    ...(layout.thermal ? ['finalEndState', 'finalMaxOtherOverlap', 'finalEnergy', ...END_STATES.map((s) => `endStateShares.${s}`)] : []),
+    ...range(layout.components).map((k) => `componentOverlaps.${k}`),
     ...(layout.patternOverlaps ? ['patternOverlaps.pairs', ...PATTERN_OVERLAP_STATS.map((stat) => `patternOverlaps.${stat}`)] : [])
   ]
 }

@@ -3,12 +3,12 @@
  * per trial). Both depend on the result's content only, never on how it was computed.
  */
 import type { TrialRecord } from '../engine/index.js'
-import { searchCsv } from './search-output.js'
+import { searchTable } from './search-output.js'
 import type { ResultRow, SweepResult } from './types.js'
 import { canonicalJson } from '../spec/canonical.js'
 import { atPublishedPrecision, roundCell } from './precision.js'
 import { pointLeadingCells, pointLeadingHeader, type RowSource } from './parameter-columns.js'
-import { toCsv, type CsvCell } from './csv.js'
+import { toCsv, type CsvCell, type Table } from './csv.js'
 import { summaryCells, summaryHeader } from './summary-cells.js'
 import { measureCells, measureHeader, measureLayout, trialMeasureCells, trialMeasureHeader, type MeasureLayout } from './measure-columns.js'
 
@@ -57,17 +57,24 @@ export function resultToJson (result: SweepResult, opts: OutputOptions): string 
  * docs/data-dictionary.md describes every column.
  */
 export function resultToCsv (result: SweepResult, opts: OutputOptions): string {
-  const rounded = atPublishedPrecision(result)
-  const source: RowSource = { sweepId: opts.sweepId ?? null, specHash: result.specHash, spec: result.spec }
-  if (rounded.searches !== undefined) return searchCsv(source, rounded.searches, opts.perTrial)
-  // Per trial from the exact records, so `success` agrees with the counts whatever the rounding.
-  return opts.perTrial ? trialCsv(source, result) : pointCsv(source, rounded)
+  const { header, rows } = resultTable(result, opts)
+  return toCsv(header, rows)
 }
 
-function pointCsv (source: RowSource, result: SweepResult): string {
+/** The table the CSV (and the Arrow file) holds: its header and rows of cells. */
+export function resultTable (result: SweepResult, opts: OutputOptions): Table {
+  const rounded = atPublishedPrecision(result)
+  const source: RowSource = { sweepId: opts.sweepId ?? null, specHash: result.specHash, spec: result.spec }
+  if (rounded.searches !== undefined) return searchTable(source, rounded.searches, opts.perTrial)
+  // Per trial from the exact records, so `success` agrees with the counts whatever the rounding.
+  return opts.perTrial ? trialTable(source, result) : pointTable(source, rounded)
+}
+
+function pointTable (source: RowSource, result: SweepResult): Table {
   // One column per theory value of the sweep's model, available or not (a stable set of
   // columns for a model); a value unavailable at a point is an empty cell there.
-  const theoryNames = [...new Set(result.rows.flatMap((row) => [...Object.keys(row.theory), ...Object.keys(row.theoryUnavailable ?? {})]))].sort()
+  // theory.loadAlpha (= P/N) is left out: the `alpha` column states it once.
+  const theoryNames = [...new Set(result.rows.flatMap((row) => [...Object.keys(row.theory), ...Object.keys(row.theoryUnavailable ?? {})]))].filter((name) => name !== 'loadAlpha').sort()
   const stability = result.spec.measures.stability
   const layout = measureLayout(result.spec, result.rows.map((row) => row.summary))
   const header = [
@@ -82,10 +89,10 @@ function pointCsv (source: RowSource, result: SweepResult): string {
     ...measureCells(row.summary, layout),
     ...theoryNames.map((name) => row.theory[name])
   ])
-  return toCsv(header, rows)
+  return { header, rows }
 }
 
-function trialCsv (source: RowSource, result: SweepResult): string {
+function trialTable (source: RowSource, result: SweepResult): Table {
   const stability = result.spec.measures.stability
   const layout: MeasureLayout = measureLayout(result.spec, result.rows.map((row) => row.summary))
   const header = [
@@ -100,7 +107,7 @@ function trialCsv (source: RowSource, result: SweepResult): string {
     const threshold = successThresholdAt(result, row)
     for (const t of result.trials[row.point] ?? []) rows.push([...lead, ...[...trialCells(t, threshold, stability), ...trialMeasureCells(t, layout)].map(roundCell)])
   }
-  return toCsv(header, rows)
+  return { header, rows }
 }
 function trialCells (t: TrialRecord, threshold: number, stability: boolean): CsvCell[] {
   return [

@@ -3,7 +3,7 @@
  * since a search keeps per-step summaries rather than per-trial records. Scaling fits are
  * in the JSON only: a fit is not a row of the same table.
  */
-import { toCsv, type CsvCell } from './csv.js'
+import type { CsvCell, Table } from './csv.js'
 import { summaryCells, summaryHeader } from './summary-cells.js'
 import { measureCells, measureHeader, measureLayout } from './measure-columns.js'
 import { identityCells, leadingHeader, parameterCells, parameterHeader, type ParameterColumn, type RowSource } from './parameter-columns.js'
@@ -23,7 +23,7 @@ import type { SearchRow } from '../spec/analysis/types.js'
  * Per step, then: `side` (of the level) and the step's summary columns as in a grid sweep's
  * point rows. Rows come with their measures at the published precision.
  */
-export function searchCsv (source: RowSource, searches: readonly SearchRow[], perStep: boolean): string {
+export function searchTable (source: RowSource, searches: readonly SearchRow[], perStep: boolean): Table {
   const spec = source.spec
   const analysis = spec.analysis!
   const searched = analysis.parameter as ParameterColumn
@@ -40,7 +40,7 @@ export function searchCsv (source: RowSource, searches: readonly SearchRow[], pe
         rows.push([...lead([row.search, step.step], row, override), step.side, ...summaryCells(step.summary, stability), ...measureCells(step.summary, layout)])
       }
     }
-    return toCsv(header, rows)
+    return { header, rows }
   }
   // What a row per search does not know: the searched parameter, and P when N or the load is searched.
   const unknown: Partial<Record<ParameterColumn, CsvCell>> = ['neurons', 'patterns', 'load', 'inDegreeLoad'].includes(searched) ? { patterns: undefined } : {}
@@ -54,5 +54,5 @@ export function searchCsv (source: RowSource, searches: readonly SearchRow[], pe
     row.bracket?.low, row.bracket?.high, row.stepsUsed, row.trialsUsed,
     row.fit?.method, row.fit?.slope, row.fit?.dispersion, row.fit?.separated, row.note
   ])
-  return toCsv(header, rows)
+  return { header, rows }
 }

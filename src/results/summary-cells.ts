@@ -13,7 +13,7 @@ export function summaryHeader (stability: boolean): string[] {
     ...MEAN_FIELDS.flatMap((f) => [`${f}.mean`, `${f}.sd`, `${f}.se`]),
     'success.count', 'success.rate', 'success.low', 'success.high',
     ...ENDINGS.map((e) => `ending.${e}`),
-    ...END_STATES.map((s) => `endState.${s}`),
+    ...END_STATES.map((s) => `endStates.${s}`),
     ...(stability ? ['stability.networks', 'stability.unstableFraction', 'stability.tieFraction', 'stability.fixedPatternFraction'] : [])
   ]
 }

@@ -9,7 +9,7 @@ import { canonicalJson } from '../spec/canonical.js'
 import { atPublishedPrecision } from './precision.js'
 import { pointLeadingCells, pointLeadingHeader } from './parameter-columns.js'
 import type { NormalisedSpec } from '../spec/types.js'
-import { toCsv, type CsvCell } from './csv.js'
+import { toCsv, type CsvCell, type Table } from './csv.js'
 import type { ResultRow, SweepResult } from './types.js'
 
 /** The series a result offers besides its rows. */
@@ -36,6 +36,12 @@ export function trajectoryUnavailable (spec: NormalisedSpec): string | null {
  * empty there), at the published precision.
  */
 export function trajectoryCsv (exact: SweepResult, sweepId: string | null = null): string {
+  const { header, rows } = trajectoryTable(exact, sweepId)
+  return toCsv(header, rows)
+}
+
+/** The trajectory series as a table (what the CSV and the Arrow file hold). */
+export function trajectoryTable (exact: SweepResult, sweepId: string | null = null): Table {
   const result = atPublishedPrecision(exact)
   const source = { sweepId, specHash: result.specHash, spec: result.spec }
   const { overlapTrajectory: withOverlap, energyTrajectory: withEnergy } = result.spec.measures
@@ -59,7 +65,7 @@ export function trajectoryCsv (exact: SweepResult, sweepId: string | null = null
       ])
     }
   }
-  return toCsv(header, rows)
+  return { header, rows }
 }
 
 /** JSON: the spec hash, the padding rule, and per grid point its values and trajectories (null where not recorded). */

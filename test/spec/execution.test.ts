@@ -167,7 +167,7 @@ describe('output', () => {
     expect(lines.at(-1)).toBe('')
     const header = lines[0]!.split(',')
     expect(header.slice(0, 8)).toEqual(['sweepId', 'specHash', 'seed', 'point', 'neurons', 'patterns', 'load', 'inDegreeLoad'])
-    expect(header).toEqual(expect.arrayContaining(['cue.fraction', 'alpha', 'trials', 'overlap.mean', 'success.rate', 'success.low', 'endState.target', 'stability.unstableFraction']))
+    expect(header).toEqual(expect.arrayContaining(['cue.fraction', 'alpha', 'trials', 'overlap.mean', 'success.rate', 'success.low', 'endStates.target', 'stability.unstableFraction']))
     expect(header.some((h) => h.startsWith('theory.'))).toBe(true)
     const cells = lines[4]!.split(',')
     const at = (name: string): string => cells[header.indexOf(name)]!

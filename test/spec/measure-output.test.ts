@@ -12,18 +12,18 @@ describe('CSV columns of the measures that apply to some sweeps', () => {
     const warm = runSweep({ neurons: 80, patterns: 4, dynamics: { temperature: 0.5, maxSweeps: 12, burnIn: 4 }, trials: 5, seed: 3 })
     const columns = header(resultToCsv(warm, { perTrial: false }))
     for (const state of END_STATES) {
-      expect(columns).toContain(`endStateShare.${state}`)
-      expect(columns).toContain(`finalEndState.${state}`)
+      expect(columns).toContain(`endStateShares.${state}`)
+      expect(columns).toContain(`finalEndStates.${state}`)
     }
     expect(columns).toEqual(expect.arrayContaining(['finalMaxOtherOverlap.mean', 'finalEnergy.se']))
     const [head, ...rows] = lines(resultToCsv(warm, { perTrial: false }))
-    const shares = END_STATES.map((state) => Number(rows[0]![head!.indexOf(`endStateShare.${state}`)]))
+    const shares = END_STATES.map((state) => Number(rows[0]![head!.indexOf(`endStateShares.${state}`)]))
     expect(shares.reduce((a, b) => a + b, 0)).toBeCloseTo(1, 12)
     const trialColumns = header(resultToCsv(warm, { perTrial: true }))
-    expect(trialColumns).toEqual(expect.arrayContaining(['finalEndState', 'finalMaxOtherOverlap', 'finalEnergy', 'endStateShare.spinGlass']))
+    expect(trialColumns).toEqual(expect.arrayContaining(['finalEndState', 'finalMaxOtherOverlap', 'finalEnergy', 'endStateShares.spinGlass']))
     const cold = runSweep({ neurons: 80, patterns: 4, trials: 3, seed: 3 })
     expect(header(resultToCsv(cold, { perTrial: false })).some((c) => c.startsWith('endStateShare') || c.startsWith('final'))).toBe(false)
-    expect(header(resultToCsv(cold, { perTrial: false }))).toEqual(expect.arrayContaining(END_STATES.map((s) => `endState.${s}`)))
+    expect(header(resultToCsv(cold, { perTrial: false }))).toEqual(expect.arrayContaining(END_STATES.map((s) => `endStates.${s}`)))
   })
 
   it('mixture cues: one column group per component; stored-pattern overlaps with their expectations; stability spread', () => {
@@ -38,16 +38,16 @@ describe('CSV columns of the measures that apply to some sweeps', () => {
     const csv = resultToCsv(result, { perTrial: false })
     const columns = header(csv)
     expect(columns).toEqual(expect.arrayContaining([
-      'componentOverlap.0.mean', 'componentOverlap.2.se', 'stability.se.unstableFraction', 'stability.sd.fixedPatternFraction',
+      'componentOverlaps.0.mean', 'componentOverlaps.2.se', 'stability.se.unstableFraction', 'stability.sd.fixedPatternFraction',
       'patternOverlaps.networks', 'patternOverlaps.pairs', 'patternOverlaps.maxAbs.mean', 'patternOverlaps.expected.rms'
     ]))
-    expect(columns).not.toContain('componentOverlap.3.mean')
+    expect(columns).not.toContain('componentOverlaps.3.mean')
     const [head, row] = lines(csv)
     expect(Number(row![head!.indexOf('patternOverlaps.pairs')])).toBe(15)
     expect(Number(row![head!.indexOf('patternOverlaps.expected.rms')])).toBe(roundMeasure(1 / Math.sqrt(120)))
-    expect(Number(row![head!.indexOf('componentOverlap.0.mean')])).toBe(roundMeasure(result.rows[0]!.summary.overlap.mean))
+    expect(Number(row![head!.indexOf('componentOverlaps.0.mean')])).toBe(roundMeasure(result.rows[0]!.summary.overlap.mean))
     const trials = header(resultToCsv(result, { perTrial: true }))
-    expect(trials).toEqual(expect.arrayContaining(['componentOverlap.0', 'componentOverlap.2', 'patternOverlaps.rms']))
+    expect(trials).toEqual(expect.arrayContaining(['componentOverlaps.0', 'componentOverlaps.2', 'patternOverlaps.rms']))
     // JSON keeps the same numbers under the row's summary.
     const json = JSON.parse(resultToJson(result, { perTrial: false }))
     expect(json.rows[0].summary.patternOverlaps.pairs).toBe(15)

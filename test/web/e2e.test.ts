@@ -305,7 +305,7 @@ describe('web page in Chromium', () => {
     await page.locator('img.figure-image[src^="blob:"]').waitFor()
     expect(await page.locator('.live-figure').count()).toBe(0)
     // The table: the varied parameter pinned, theory headers that say which theory, ± that says SD or SE, a column chooser.
-    expect(await page.locator('table.results thead th.pinned').allTextContents()).toEqual(['load α = P/N'])
+    expect(await page.locator('table.results thead th.pinned').allTextContents()).toEqual(['load α'])
     const critical = page.locator('table.results thead th.col-theory', { hasText: 'critical load α_c (MF)' })
     expect(await critical.getAttribute('title')).toMatch(/^Mean-field theory \(the N → ∞ limit\)/)
     expect(await page.locator('table.results thead th', { hasText: 'final overlap ± SD' }).count()).toBe(1)

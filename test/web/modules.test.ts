@@ -221,7 +221,7 @@ describe('curves', () => {
     const b = result([row({ load: 0.1 }, 0.9, 0.95), row({ load: 0.2 }, 0.3, 0.6)])
     const c = result([row({ neurons: 100 }, 1, 1)])
     const curves = curvesOf([{ name: 'Hebbian', result: a }, { name: 'Storkey', result: b }, { name: 'no load axis', result: c }], 'success', 'load')
-    expect(curves.map((curve) => curve.name)).toEqual(['Hebbian · neurons N 100', 'Hebbian · neurons N 200', 'Storkey'])
+    expect(curves.map((curve) => curve.name)).toEqual(['Hebbian · network size N 100', 'Hebbian · network size N 200', 'Storkey'])
     expect(curves[0]?.points.map((p) => [p.x, p.y])).toEqual([[0.1, 1], [0.2, 0.5]])
     expect(extentOf(curves, 'x')).toEqual([0.1, 0.2])
   })

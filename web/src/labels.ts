@@ -1,22 +1,24 @@
 /** Names of parameters and measures as the page shows them. Pure: no DOM. */
 
+/** The glossary's labels (docs/glossary.md, src/results/vocabulary.ts; a test keeps them equal). */
 const PARAMETERS: Record<string, string> = {
-  neurons: 'neurons N',
-  patterns: 'patterns P',
-  load: 'load α = P/N',
-  'family.activity': 'pattern activity',
+  neurons: 'network size N',
+  patterns: 'stored patterns P',
+  load: 'load α',
+  inDegreeLoad: 'load per input α_K',
+  'family.activity': 'pattern activity a',
   'family.parents': 'parent patterns',
-  'family.parentOverlap': 'overlap with parent',
-  'rule.threshold': 'covariance threshold',
-  'rule.degree': 'interaction degree n',
-  'rule.beta': 'softmax β',
-  'dilution.keep': 'couplings kept',
+  'family.parentOverlap': 'parent overlap b',
+  'rule.threshold': 'threshold θ',
+  'rule.degree': 'degree n',
+  'rule.beta': 'inverse temperature β',
+  'dilution.keep': 'couplings kept c',
   'dilution.inDegree': 'inputs per neuron K',
-  'cue.fraction': 'cue corruption',
+  'cue.fraction': 'cue noise f',
   'cue.components': 'mixture components',
   'dynamics.temperature': 'temperature T',
   'dynamics.maxSweeps': 'sweep limit',
-  'dynamics.burnIn': 'burn-in sweeps',
+  'dynamics.burnIn': 'burn-in',
   successThreshold: 'success threshold',
   trialsPerNetwork: 'trials per network'
 }

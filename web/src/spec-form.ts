@@ -353,7 +353,7 @@ export function buildSpecForm (spec: Spec, view: FormView, onEdit: EditHandler, 
     section('Cue', 'How recall starts: from a damaged version of one stored pattern.',
       f.select('cue.kind', 'Cue', 'What is done to the stored pattern.', [['flip', 'flip a fraction of states'], ['erase', 'erase a fraction of states'], ['random', 'a random state'], ['mixture', 'a mixture of patterns']], 'flip',
         kindSwitch(spec, 'cue', { flip: ['fraction'], erase: ['fraction', 'fill'], random: [], mixture: ['components'] })),
-      cue === 'flip' || cue === 'erase' ? f.axis('cue.fraction', 'Fraction changed', 'Share of the neurons flipped or erased, 0 to 1.', '0.1') : null,
+      cue === 'flip' || cue === 'erase' ? f.axis('cue.fraction', 'Cue noise f', 'Share of the neurons flipped or erased, 0 to 1.', '0.1') : null,
       cue === 'erase' ? f.select('cue.fill', 'Erased states become', 'What an erased neuron holds.', [['zero', 'zero'], ['random', 'random']], 'zero') : null,
       cue === 'mixture' ? f.axis('cue.components', 'Components', 'Patterns mixed into the cue.', '3') : null),
     section('Dynamics', null,
@@ -391,13 +391,13 @@ export function buildSpecForm (spec: Spec, view: FormView, onEdit: EditHandler, 
 
 /** Parameters a threshold search may move (continuous ones; see src/spec/analysis/schema.ts). */
 const SEARCHABLE: Array<[string, string]> = [
-  ['load', 'load α = P/N'],
-  ['cue.fraction', 'cue corruption'],
+  ['load', 'load α'],
+  ['cue.fraction', 'cue noise f'],
   ['dynamics.temperature', 'temperature T'],
-  ['family.activity', 'pattern activity'],
-  ['family.parentOverlap', 'overlap with parent'],
-  ['dilution.keep', 'fraction of couplings kept'],
-  ['rule.threshold', 'covariance threshold']
+  ['family.activity', 'pattern activity a'],
+  ['family.parentOverlap', 'parent overlap b'],
+  ['dilution.keep', 'couplings kept c'],
+  ['rule.threshold', 'threshold θ']
 ]
 
 /** The search's own parameter takes its value from the search: a load leaves neither load nor patterns. */

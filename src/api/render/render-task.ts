@@ -9,7 +9,7 @@ import type { FigureFormat } from '../../figure-files/index.js'
 import type { ResultSeries } from '../../results/index.js'
 import type { BundleRecord } from './bundle.js'
 
-export type ResultFormat = 'json' | 'csv'
+export type ResultFormat = 'json' | 'csv' | 'arrow'
 
 /** What a rendering reads: a finished result, or what an unfinished sweep has stored so far (its finished points). */
 export type RenderSource =

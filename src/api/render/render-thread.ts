@@ -8,6 +8,7 @@ import { createHash } from 'node:crypto'
 import { FigureOptionsError, renderParsedFigure } from '../../figures/index.js'
 import { figureBytes, MAX_PNG_PIXELS, pngSize } from '../../figure-files/index.js'
 import { resultToCsv, resultToJson, trajectoryCsv, trajectoryJson, type SweepResult } from '../../results/index.js'
+import { resultToArrow, trajectoryArrow } from '../../results/arrow-output.js'
 import { assemblePartial, decodeValue, makeProvenance, storedTrials } from '../../sweep/index.js'
 import { runtimeFacts } from '../../runtime/facts.js'
 import type { EncodedResult } from '../../backends/port.js'
@@ -21,6 +22,10 @@ export default async function render (task: RenderTask): Promise<RenderOutcome> 
   }
   if (task.kind === 'result') {
     const result = read(task.source)
+    if (task.format === 'arrow') {
+      const bytes = task.series === 'trajectory' ? trajectoryArrow(result, task.sweepId) : resultToArrow(result, { perTrial: task.perTrial, sweepId: task.sweepId })
+      return rendered(Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength))
+    }
     const text = task.series === 'trajectory'
       ? (task.format === 'csv' ? trajectoryCsv(result, task.sweepId) : trajectoryJson(result))
       : task.format === 'csv'

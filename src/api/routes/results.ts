@@ -12,7 +12,7 @@ import { sweepResultSchema, trajectorySeriesSchema } from '../schemas/result.js'
 import { sweepIdSchema } from '../schemas/sweep.js'
 import { requireSucceeded, visibleSweep, type RouteContext } from './context.js'
 
-const MEDIA = { json: 'application/json', csv: 'text/csv' } as const
+const MEDIA = { json: 'application/json', csv: 'text/csv', arrow: 'application/vnd.apache.arrow.file' } as const
 
 /**
  * Most per-trial rows one download may hold. A result is rendered as one string, and about
@@ -22,8 +22,8 @@ export const MAX_TRIAL_ROWS = 1_000_000
 type Format = keyof typeof MEDIA
 
 const resultsQuery = z.object({
-  format: z.enum(['json', 'csv']).optional().describe('Overrides the Accept header.'),
-  trials: z.enum(['true', 'false']).optional().describe('true: one record per trial (JSON: a `trials` member; CSV: one row per trial). Default: false (one row per grid point).'),
+  format: z.enum(['json', 'csv', 'arrow']).optional().describe('Overrides the Accept header. arrow: an Apache Arrow IPC file (application/vnd.apache.arrow.file) with the CSV\'s columns, typed (int64 counts, float64 measures, utf8 names, bool flags; empty cells are nulls).'),
+  trials: z.enum(['true', 'false']).optional().describe('true: one record per trial (JSON: a `trials` member; CSV and Arrow: one row per trial). Default: false (one row per grid point).'),
   timing: z.enum(['true', 'false']).optional().describe('JSON only. true: include the run timing (wallSeconds, cpuSeconds, workers) in the provenance. Default false, so the bytes depend on the spec and the code only.'),
   partial: z.enum(['true', 'false']).optional().describe('true: for a sweep that has not succeeded (running, canceled, failed), the rows of the points finished so far, marked as partial (JSON: a `partial` member; CSV: the header `Memsweep-Partial: <points done>/<points>` and a file name ending in -partial). A succeeded sweep answers its full result. Not with trials=true.'),
   series: z.enum(RESULT_SERIES).optional().describe(`Another series instead of the rows. trajectory: the mean overlap (and energy) trajectory of every grid point with its spread, as long-format CSV (one row per point and sweep: point, the varied parameters, neurons, patterns, alpha, sweep, running, overlap.mean|sd|se, energy.mean|sd|se) or JSON ({ specHash, series, padding, points: [{ point, values, params, overlap, energy }] }); needs measures.overlapTrajectory or energyTrajectory in the spec (else 400 naming \`series\`); not with trials=true. ${TRAJECTORY_PADDING}`)
@@ -74,8 +74,8 @@ export const resultRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
   app.get('/v1/sweeps/:id/results', {
     schema: {
       operationId: 'getSweepResults',
-      summary: 'Results of a succeeded sweep (JSON or CSV)',
-      description: 'JSON by default; CSV with `Accept: text/csv` or `?format=csv`. One row per grid point with the varied parameters, aggregated measures with uncertainties and the theory values that apply; `?trials=true` for per-trial rows; `?series=trajectory` for the mean trajectories per point (long-format CSV, or JSON). An analysis (threshold search) gives `searches` (and `scaling` when asked for) in JSON; its CSV has one row per search, or with `?trials=true` one row per evaluated step (searches keep per-step summaries, not per-trial records; scaling fits are JSON-only). A strong ETag (sha256 of the bytes) supports If-None-Match → 304. 409 while the sweep has not succeeded; 422 (limit maxTrialRows) for per-trial rows of sweeps over a million trials.',
+      summary: 'Results of a succeeded sweep (JSON, CSV or Apache Arrow)',
+      description: 'JSON by default; CSV with `Accept: text/csv` or `?format=csv`; an Apache Arrow IPC file with `Accept: application/vnd.apache.arrow.file` or `?format=arrow` (the CSV\'s table with typed columns; docs/data-dictionary.md lists every column). Every CSV and Arrow row starts with sweepId, specHash, seed, the point and every model parameter, varied or fixed, in one column order. One row per grid point with the varied parameters, aggregated measures with uncertainties and the theory values that apply; `?trials=true` for per-trial rows; `?series=trajectory` for the mean trajectories per point (long-format CSV, or JSON). An analysis (threshold search) gives `searches` (and `scaling` when asked for) in JSON; its CSV has one row per search, or with `?trials=true` one row per evaluated step (searches keep per-step summaries, not per-trial records; scaling fits are JSON-only). A strong ETag (sha256 of the bytes) supports If-None-Match → 304. 409 while the sweep has not succeeded; 422 (limit maxTrialRows) for per-trial rows of sweeps over a million trials.',
       tags: ['sweeps'],
       params: z.object({ id: sweepIdSchema }),
       querystring: resultsQuery,
@@ -84,7 +84,8 @@ export const resultRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
           description: 'The results.',
           content: {
             'application/json': { schema: z.union([sweepResultSchema, trajectorySeriesSchema]).describe('The result (SweepResult), or with ?series=trajectory the trajectory series (TrajectorySeries).') },
-            'text/csv': { schema: z.string().describe('RFC 4180 CSV with a header row; CRLF line ends.') }
+            'text/csv': { schema: z.string().describe('RFC 4180 CSV with a header row; CRLF line ends.') },
+            'application/vnd.apache.arrow.file': { schema: z.string().describe('Apache Arrow IPC file (binary): the CSV\'s columns, typed; the schema metadata holds memsweep.specHash.') }
           }
         },
         304: z.undefined().describe('Not modified: the ETag in If-None-Match is current.'),
@@ -96,11 +97,11 @@ export const resultRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
     const record = await visibleSweep(ctx.queue, request.principal, id)
     let format: Format | null = request.query.format ?? null
     if (format === null) {
-      const media = negotiate(request.headers.accept, [MEDIA.json, MEDIA.csv])
+      const media = negotiate(request.headers.accept, [MEDIA.json, MEDIA.csv, MEDIA.arrow])
       if (media === null) {
-        throw new ServiceError('MEMSWEEP_NOT_ACCEPTABLE', { accept: request.headers.accept ?? '', available: `${MEDIA.json}, ${MEDIA.csv}` })
+        throw new ServiceError('MEMSWEEP_NOT_ACCEPTABLE', { accept: request.headers.accept ?? '', available: `${MEDIA.json}, ${MEDIA.csv}, ${MEDIA.arrow}` })
       }
-      format = media === MEDIA.csv ? 'csv' : 'json'
+      format = media === MEDIA.csv ? 'csv' : media === MEDIA.arrow ? 'arrow' : 'json'
     }
     // Known from submission on, so refused before the sweep even finishes.
     const perTrial = request.query.trials === 'true'
@@ -138,12 +139,14 @@ export const resultRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
       .header('vary', 'Accept')
       .header('cache-control', 'private, max-age=86400, immutable')
     if (ifNoneMatchHits(request.headers['if-none-match'], rendered.etag)) return reply.code(304).send()
-    if (format === 'csv') {
-      const name = `memsweep-${id}${perTrial ? '-trials' : ''}${series !== null ? `-${series}` : ''}.csv`
-      reply.header('content-disposition', `attachment; filename="${name}"`)
-      return sendBytes(reply.type('text/csv; charset=utf-8; header=present'), rendered.body)
+    return sendAs(format, `memsweep-${id}${perTrial ? '-trials' : ''}${series !== null ? `-${series}` : ''}`, rendered.body)
+
+    /** The bytes with their media type; CSV and Arrow as attachments named `base`.csv|.arrow. */
+    function sendAs (as: Format, base: string, body: Buffer): FastifyReply {
+      if (as === 'json') return sendBytes(reply.type('application/json; charset=utf-8'), body)
+      reply.header('content-disposition', `attachment; filename="${base}.${as}"`)
+      return sendBytes(reply.type(as === 'csv' ? 'text/csv; charset=utf-8; header=present' : MEDIA.arrow), body)
     }
-    return sendBytes(reply.type('application/json; charset=utf-8'), rendered.body)
 
     /** The finished points of an unfinished sweep: rendered afresh each time (they change), never cached. */
     async function sendPartial (sweepId: string, as: Format): Promise<FastifyReply> {
@@ -157,11 +160,7 @@ export const resultRoutes: FastifyPluginAsyncZod<RouteContext> = async (app, ctx
       const open = new Set(progress.openPoints)
       const finished = [...points].filter((point) => !open.has(point) && progress.plan.every((chunk) => chunk.point !== point || done.has(chunk.index))).length
       reply.header('cache-control', 'no-store').header('memsweep-partial', `${finished}/${points.size}`)
-      if (as === 'csv') {
-        reply.header('content-disposition', `attachment; filename="memsweep-${sweepId}-partial.csv"`)
-        return sendBytes(reply.type('text/csv; charset=utf-8; header=present'), body)
-      }
-      return sendBytes(reply.type('application/json; charset=utf-8'), body)
+      return sendAs(as, `memsweep-${sweepId}-partial`, body)
     }
   })
 }
