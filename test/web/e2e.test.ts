@@ -315,6 +315,13 @@ describe('web page in Chromium', () => {
     await page.getByRole('checkbox', { name: 'final overlap ± SE' }).check()
     await withSe.waitFor()
     await shot(page, 'sweep-results-table')
+    // The figure as shown, sized for a journal column, as PDF; and the bundle for a paper.
+    const [pdf] = await Promise.all([page.waitForEvent('download'), page.locator('button[data-download="pdf"]').click()])
+    expect(pdf.suggestedFilename()).toBe(`memsweep-${id}-success.pdf`)
+    expect(readFileSync(await pdf.path()).subarray(0, 5).toString('latin1')).toBe('%PDF-')
+    const [bundle] = await Promise.all([page.waitForEvent('download'), page.locator('button[data-download="bundle"]').click()])
+    expect(bundle.suggestedFilename()).toBe(`memsweep-${id}.zip`)
+    expect(readFileSync(await bundle.path()).subarray(0, 2).toString('latin1')).toBe('PK')
 
     await page.locator('details.describe > summary').click()
     await page.getByLabel('Tags').fill('west-wing, draft')

@@ -81,6 +81,8 @@ function defaultX (results: FigureSource['results'], candidates: string[]): stri
 export interface FigurePanel {
   el: HTMLElement
   downloadSvg: () => Promise<void>
+  /** Saves the figure as shown, sized for a single journal column (85 mm), as PDF or PNG (300 dpi). */
+  downloadPrint: (format: 'pdf' | 'png') => Promise<void>
 }
 
 export function figurePanel (source: FigureSource, signal: AbortSignal): FigurePanel {
@@ -93,7 +95,7 @@ export function figurePanel (source: FigureSource, signal: AbortSignal): FigureP
     el.append(h('p', {}, source.results.length === 1
       ? 'This sweep has a single grid point, so there is no curve to draw: the table below holds its values.'
       : 'None of these sweeps varies a parameter, so there is no curve to overlay.'))
-    return { el, downloadSvg: async () => {} }
+    return { el, downloadSvg: async () => {}, downloadPrint: async () => {} }
   }
   let drawHere = source.drawHere === true || shared.length === 0
   const xChoices = drawHere ? anyVaried : shared
@@ -228,6 +230,15 @@ export function figurePanel (source: FigureSource, signal: AbortSignal): FigureP
     link.remove()
   }
 
+  const downloadPrint = async (format: 'pdf' | 'png'): Promise<void> => {
+    if (drawHere) throw new Error('this server draws no figure files, so only the SVG drawn here can be saved')
+    const params = new URLSearchParams(figureQuery(choice, ...size(), source.query))
+    params.delete('width')
+    params.delete('height')
+    params.set('column', 'single')
+    await download(`${source.route.replace(/\.svg$/, `.${format}`)}?${params.toString()}`, `${source.fileStem}-${choice.measure}.${format}`, format === 'pdf' ? 'application/pdf' : 'image/png')
+  }
+
   el.append(h('div', { class: 'figure-layout' }, h('div', { class: 'figure-main' }, problem, status, figure), controls))
   queueMicrotask(() => { inBackground(load()) })
   // A window made much wider or narrower gets a figure drawn for its width (text stays legible).
@@ -241,5 +252,5 @@ export function figurePanel (source: FigureSource, signal: AbortSignal): FigureP
   })
   resized.observe(figure)
   signal.addEventListener('abort', () => resized.disconnect())
-  return { el, downloadSvg }
+  return { el, downloadSvg, downloadPrint }
 }

@@ -216,6 +216,8 @@ export function renderSweep (main: HTMLElement, id: string): Dispose {
         h('button', { type: 'button', class: 'secondary', 'data-download': 'csv', onclick: () => { inBackground(save(`${sweepPath(detail.id)}/results?format=csv`, `memsweep-${detail.id}.csv`, 'text/csv')) } }, 'Results (CSV)'),
         h('button', { type: 'button', class: 'secondary', 'data-download': 'json', onclick: () => { inBackground(save(`${sweepPath(detail.id)}/results?format=json`, `memsweep-${detail.id}.json`, 'application/json')) } }, 'Results (JSON)'),
         h('button', { type: 'button', class: 'secondary', 'data-download': 'svg', onclick: () => { saveFigure().catch((error: unknown) => notify(`Could not download the figure: ${messageOf(error)}`, 'error')) } }, 'Figure (SVG)'),
+        figure === null ? null : h('button', { type: 'button', class: 'secondary', 'data-download': 'pdf', onclick: () => { figure.downloadPrint('pdf').catch((error: unknown) => notify(`Could not download the figure: ${messageOf(error)}`, 'error')) } }, 'Figure (PDF, one column)'),
+        figure === null ? null : h('button', { type: 'button', class: 'secondary', 'data-download': 'png', onclick: () => { figure.downloadPrint('png').catch((error: unknown) => notify(`Could not download the figure: ${messageOf(error)}`, 'error')) } }, 'Figure (PNG, 300 dpi)'),
         h('button', { type: 'button', class: 'secondary', 'data-download': 'bundle', onclick: () => { inBackground(save(`${sweepPath(detail.id)}/bundle.zip`, `memsweep-${detail.id}.zip`, 'application/zip')) } }, 'Bundle for a paper (zip)')),
       h('p', { class: 'hint' }, isAnalysis
         ? 'The JSON holds every search with all its steps and fits; the CSV one row per search.'
