@@ -3595,6 +3595,8 @@ export interface operations {
                 yScale?: "linear" | "log";
                 /** @description ci: 95 % confidence intervals (Wilson score for rates, Student t for means); se: ± one standard error; sd: ± one standard deviation of single trials (rates: √(p(1−p))); none. Rates stay within [0, 1]. Default: ci. */
                 errorBars?: "ci" | "se" | "sd" | "none";
+                /** @description Threshold searches only: crossings (each crossing with its interval against another varied parameter) or scaling (crossings against N with the fitted curve and the extrapolated value with its interval). Default: scaling when the search has a scaling fit. */
+                analysis?: "crossings" | "scaling";
                 /** @description Overlay theory where it applies to the measure, x and model (curves, per-point values or reference lines). Default: true. */
                 theory?: boolean;
                 /** @description Width in px (screen figures). Default: 640, unless the size is given in mm. */
@@ -3784,6 +3786,8 @@ export interface operations {
                 yScale?: "linear" | "log";
                 /** @description ci: 95 % confidence intervals (Wilson score for rates, Student t for means); se: ± one standard error; sd: ± one standard deviation of single trials (rates: √(p(1−p))); none. Rates stay within [0, 1]. Default: ci. */
                 errorBars?: "ci" | "se" | "sd" | "none";
+                /** @description Threshold searches only: crossings (each crossing with its interval against another varied parameter) or scaling (crossings against N with the fitted curve and the extrapolated value with its interval). Default: scaling when the search has a scaling fit. */
+                analysis?: "crossings" | "scaling";
                 /** @description Overlay theory where it applies to the measure, x and model (curves, per-point values or reference lines). Default: true. */
                 theory?: boolean;
                 /** @description Width in px (screen figures). Default: 640, unless the size is given in mm. */
@@ -3966,6 +3970,8 @@ export interface operations {
                 yScale?: "linear" | "log";
                 /** @description ci: 95 % confidence intervals (Wilson score for rates, Student t for means); se: ± one standard error; sd: ± one standard deviation of single trials (rates: √(p(1−p))); none. Rates stay within [0, 1]. Default: ci. */
                 errorBars?: "ci" | "se" | "sd" | "none";
+                /** @description Threshold searches only: crossings (each crossing with its interval against another varied parameter) or scaling (crossings against N with the fitted curve and the extrapolated value with its interval). Default: scaling when the search has a scaling fit. */
+                analysis?: "crossings" | "scaling";
                 /** @description Overlay theory where it applies to the measure, x and model (curves, per-point values or reference lines). Default: true. */
                 theory?: boolean;
                 /** @description Width in px (screen figures). Default: 640, unless the size is given in mm. */
@@ -4157,6 +4163,8 @@ export interface operations {
                 yScale?: "linear" | "log";
                 /** @description ci: 95 % confidence intervals (Wilson score for rates, Student t for means); se: ± one standard error; sd: ± one standard deviation of single trials (rates: √(p(1−p))); none. Rates stay within [0, 1]. Default: ci. */
                 errorBars?: "ci" | "se" | "sd" | "none";
+                /** @description Threshold searches only: crossings (each crossing with its interval against another varied parameter) or scaling (crossings against N with the fitted curve and the extrapolated value with its interval). Default: scaling when the search has a scaling fit. */
+                analysis?: "crossings" | "scaling";
                 /** @description Overlay theory where it applies to the measure, x and model (curves, per-point values or reference lines). Default: true. */
                 theory?: boolean;
                 /** @description Width in px (screen figures). Default: 640, unless the size is given in mm. */
@@ -4341,6 +4349,8 @@ export interface operations {
                 yScale?: "linear" | "log";
                 /** @description ci: 95 % confidence intervals (Wilson score for rates, Student t for means); se: ± one standard error; sd: ± one standard deviation of single trials (rates: √(p(1−p))); none. Rates stay within [0, 1]. Default: ci. */
                 errorBars?: "ci" | "se" | "sd" | "none";
+                /** @description Threshold searches only: crossings (each crossing with its interval against another varied parameter) or scaling (crossings against N with the fitted curve and the extrapolated value with its interval). Default: scaling when the search has a scaling fit. */
+                analysis?: "crossings" | "scaling";
                 /** @description Overlay theory where it applies to the measure, x and model (curves, per-point values or reference lines). Default: true. */
                 theory?: boolean;
                 /** @description Width in px (screen figures). Default: 640, unless the size is given in mm. */
@@ -4530,6 +4540,8 @@ export interface operations {
                 yScale?: "linear" | "log";
                 /** @description ci: 95 % confidence intervals (Wilson score for rates, Student t for means); se: ± one standard error; sd: ± one standard deviation of single trials (rates: √(p(1−p))); none. Rates stay within [0, 1]. Default: ci. */
                 errorBars?: "ci" | "se" | "sd" | "none";
+                /** @description Threshold searches only: crossings (each crossing with its interval against another varied parameter) or scaling (crossings against N with the fitted curve and the extrapolated value with its interval). Default: scaling when the search has a scaling fit. */
+                analysis?: "crossings" | "scaling";
                 /** @description Overlay theory where it applies to the measure, x and model (curves, per-point values or reference lines). Default: true. */
                 theory?: boolean;
                 /** @description Width in px (screen figures). Default: 640, unless the size is given in mm. */

@@ -214,7 +214,7 @@ function directLabels (plan: FigurePlan, entries: readonly LegendEntry[], frame:
       const last = plan.series[entry.series]!.points.at(-1)
       end = last === undefined ? undefined : [last.x, last.y]
     } else {
-      const lines = plan.theory.filter((t) => t.key === entry.theory!.key && t.kind === entry.theory!.kind && t.kind !== 'reference')
+      const lines = plan.theory.filter((t) => t.key === entry.theory!.key && t.kind === entry.theory!.kind && (t.kind !== 'reference' || t.horizontal === true))
       if (lines.length !== 1) return null
       end = lines[0]!.segments.at(-1)?.at(-1)
     }
@@ -277,11 +277,17 @@ function makeYScale (plan: FigurePlan, bottom: number, top: number, type: Type):
       if (p.high !== null) values.push(p.high)
     }
   }
-  for (const t of plan.theory) for (const seg of t.segments) for (const [, y] of seg) values.push(y)
+  for (const t of plan.theory) {
+    for (const seg of t.segments) for (const [, y] of seg) values.push(y)
+    if (t.band !== undefined) values.push(t.band.low, t.band.high)
+  }
   const usable = o.yScale === 'log' ? values.filter((v) => v > 0) : values
   const extent: [number, number] | null = usable.length === 0 ? null : [Math.min(...usable), Math.max(...usable)]
-  const domain = yDomain(o.measure, extent, o.yScale)
-  const fixed = o.yScale === 'linear' && (isRate(o.measure) && o.measure !== 'unstableFraction')
+  const follows = plan.yFollowsData === true && extent !== null && o.yScale === 'linear'
+  const domain: [number, number] = follows
+    ? (extent[0] === extent[1] ? [extent[0] - 0.05, extent[1] + 0.05] : extent)
+    : yDomain(o.measure, extent, o.yScale)
+  const fixed = !follows && o.yScale === 'linear' && (isRate(o.measure) && o.measure !== 'unstableFraction')
   return makeScale(o.yScale, domain, bottom, top, type.body * 4.5, fixed, type.marker * 1.1)
 }
 
@@ -330,8 +336,13 @@ function drawAxes (plot: Rect, xs: AxisScale, ys: AxisScale, type: Type, drop: n
   const ink = { stroke: THEME.axis, 'stroke-width': 0.9, 'stroke-linecap': 'square' }
   const xAxisY = plot.bottom + drop
   const yAxisX = plot.left - drop
-  const xEnds = [xs.ticks[0], xs.ticks.at(-1)].map((t) => (t === undefined ? null : xs.toPx(t)))
-  const yEnds = [ys.ticks[0], ys.ticks.at(-1)].map((t) => (t === undefined ? null : ys.toPx(t)))
+  // From the first tick or the start of the range, whichever comes first, to the last tick or its end.
+  const span = (scale: AxisScale): [number, number] | [null, null] => {
+    const at = [...scale.ticks, ...scale.domain].map((v) => scale.toPx(v))
+    return scale.ticks.length === 0 ? [null, null] : [Math.min(...at), Math.max(...at)]
+  }
+  const xEnds = span(xs)
+  const yEnds = span(ys)
   const lines = [
     xEnds[0] === null ? '' : element('line', { x1: xEnds[0]!, x2: xEnds[1]!, y1: xAxisY, y2: xAxisY, ...ink }),
     yEnds[0] === null ? '' : element('line', { x1: yAxisX, x2: yAxisX, y1: yEnds[0]!, y2: yEnds[1]!, ...ink })
@@ -441,12 +452,30 @@ function drawTheory (o: TheoryOverlay, xs: AxisScale, ys: AxisScale, plot: Rect,
   const look = THEORY_STYLE[o.kind]
   const stroke = { fill: 'none', stroke: colour, 'stroke-width': look.width, 'stroke-dasharray': look.dash === '' ? null : look.dash }
   const data = { class: 'theory', 'data-theory': o.key, 'data-kind': o.kind, 'data-series': o.series.join(' '), 'data-label': plainText(o.label) }
+  if (o.kind === 'reference' && o.horizontal === true) {
+    const y = ys.toPx(o.segments[0]![0]![1])
+    if (y < plot.top || y > plot.bottom) return ''
+    return element('g', { ...data, 'data-y': exactNumber(o.segments[0]![0]![1]) }, element('line', { x1: plot.left, x2: plot.right, y1: y, y2: y, ...stroke }))
+  }
   if (o.kind === 'reference') {
     const x = xs.toPx(o.at!)
     if (x < plot.left || x > plot.right) return ''
     const line = element('line', { x1: x, x2: x, y1: plot.top, y2: plot.bottom, ...stroke })
     return element('g', { ...data, 'data-at': exactNumber(o.at!) }, line)
   }
+  const band = o.band === undefined
+    ? ''
+    : element('rect', {
+      class: 'band',
+      x: plot.left,
+      width: plot.right - plot.left,
+      y: ys.toPx(Math.max(o.band.low, o.band.high)),
+      height: Math.abs(ys.toPx(o.band.low) - ys.toPx(o.band.high)),
+      fill: colour,
+      'fill-opacity': 0.12,
+      'data-low': exactNumber(o.band.low),
+      'data-high': exactNumber(o.band.high)
+    })
   const paths = o.segments.map((seg) => element('path', {
     d: polylinePath(seg.map(([x, y]) => [xs.toPx(x), ys.toPx(y)] as const)),
     'data-xs': seg.map(([x]) => exactNumber(x)).join(' '),
@@ -454,7 +483,7 @@ function drawTheory (o: TheoryOverlay, xs: AxisScale, ys: AxisScale, plot: Rect,
     'stroke-linejoin': 'round',
     ...stroke
   }))
-  return element('g', data, paths)
+  return element('g', data, [band, ...paths])
 }
 
 /**

@@ -4,6 +4,7 @@
  * where it applies. Pure functions of their arguments; no I/O.
  */
 import type { SweepResult } from '../results/index.js'
+import { planAnalysisFigure } from './analysis.js'
 import { drawFigure } from './draw.js'
 import { FigureOptionsError } from './errors.js'
 import type { FigureOptions, FigureOptionsInput } from './options.js'
@@ -29,10 +30,8 @@ export function renderFigure (results: SweepResult | readonly SweepResult[], opt
 /** renderFigure for options already validated (FigureOptionsSchema's output, as a route's query arrives). */
 export function renderParsedFigure (results: SweepResult | readonly SweepResult[], options: FigureOptions): string {
   const list: readonly SweepResult[] = Array.isArray(results) ? results : [results as SweepResult]
-  const searches = list.filter((r) => r.searches !== undefined && r.rows.length === 0)
-  if (searches.length > 0) {
-    // A threshold search has no grid rows to plot; its crossings are in the results (JSON, CSV) and on the web page.
-    throw new FigureOptionsError([{ path: '', message: `sweep ${searches.map((r) => r.specHash.slice(0, 12)).join(', ')} is a threshold search: it has crossings with intervals, not grid rows, so it has no figure here; read its searches and scaling fit from the results` }])
-  }
+  const searches = list.filter((r) => r.spec.analysis !== undefined)
+  if (searches.length > 0) return drawFigure(planAnalysisFigure(list, options))
+  if (options.analysis !== undefined) throw new FigureOptionsError([{ path: 'analysis', message: 'only a threshold search (a spec with analysis) has crossings or a scaling fit to draw' }])
   return drawFigure(planFigure(list, options))
 }

@@ -69,6 +69,8 @@ export const FigureOptionsSchema = z.strictObject({
   errorBars: z.enum(['ci', 'se', 'sd', 'none']).default('ci').describe(
     'ci: 95 % confidence intervals (Wilson score for rates, Student t for means); se: ± one standard error; sd: ± one ' +
     'standard deviation of single trials (rates: √(p(1−p))); none. Rates stay within [0, 1]. Default: ci.'),
+  analysis: z.enum(['crossings', 'scaling']).optional().describe(
+    'Threshold searches only: crossings (each crossing with its interval against another varied parameter) or scaling (crossings against N with the fitted curve and the extrapolated value with its interval). Default: scaling when the search has a scaling fit.'),
   theory: flag.default(true).describe('Overlay theory where it applies to the measure, x and model (curves, per-point values or reference lines). Default: true.'),
   width: z.coerce.number().int().min(FIGURE_SIZE.minWidth).max(FIGURE_SIZE.maxWidth).optional()
     .describe(`Width in px (screen figures). Default: ${FIGURE_SIZE.width}, unless the size is given in mm.`),

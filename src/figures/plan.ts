@@ -32,6 +32,8 @@ export interface FigurePlan extends SeriesPlan {
   description: string
   /** Sideways shift of each series' markers in px, so error bars at a shared x stay apart. */
   dodge: number[]
+  /** The y range follows the data (analysis figures), whatever the measure's natural range. */
+  yFollowsData?: boolean
 }
 
 /** Most sideways shift between neighbouring series, and over all series, in px. */

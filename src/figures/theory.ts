@@ -33,6 +33,10 @@ export interface TheoryOverlay {
   at: number | null
   /** Reference lines: the short text written beside the line (`α_{c} = 0.138`). */
   annotation?: string
+  /** A band drawn under the line, from low to high in y (an interval of the value the line marks). */
+  band?: { low: number, high: number }
+  /** A reference line across the plot at a y value (its one segment), not a vertical one at `at`. */
+  horizontal?: boolean
 }
 
 /** Samples of a dense curve over the full x range. */

@@ -25,6 +25,23 @@ export function figureKinds (): FigureKind[] {
   const stability = runSweep({ label: 'Stable rooms', neurons: { values: [40, 80] }, load: { values: [0.1, 0.2, 0.3] }, measures: { stability: true }, dynamics: { maxSweeps: 1 }, trials: 4, seed: 25 })
   const warm = runSweep({ label: 'Rooms at a temperature', neurons: 100, load: { values: [0.03, 0.05, 0.07] }, cue: { kind: 'flip', fraction: 0 }, dynamics: { temperature: { values: [0.1, 0.4, 0.7] }, maxSweeps: 4, burnIn: 1 }, trials: 3, seed: 26 })
   const grow = runSweep({ label: 'Growing the network', neurons: { values: [25, 50, 100, 200] }, patterns: 3, trials: 4, seed: 27 })
+  const scaling = runSweep({
+    label: 'Capacity of rooms as the network grows',
+    neurons: { values: [60, 120, 240] },
+    cue: { kind: 'flip', fraction: 0 },
+    trials: 40,
+    seed: 3,
+    analysis: { kind: 'threshold', parameter: 'load', measure: 'success', level: 0.5, from: 0.05, to: 0.3, maxSteps: 6, tolerance: 0.01, scaling: { form: 'power', exponent: 0.5 } }
+  })
+  const basinSearch = runSweep({
+    label: 'How far off may the view of a room be?',
+    neurons: 100,
+    load: { values: [0.04, 0.08, 0.12] },
+    cue: { kind: 'flip' },
+    trials: 30,
+    seed: 4,
+    analysis: { kind: 'threshold', parameter: 'cue.fraction', measure: 'success', level: 0.5, from: 0, to: 0.5, direction: 'decreasing', maxSteps: 5, tolerance: 0.02 }
+  })
   cached = [
     { name: 'success-vs-load', results: [sizes], options: { measure: 'success', x: 'load' } },
     { name: 'overlap-vs-load-theory', results: [sizes], options: { measure: 'overlap', x: 'load' } },
@@ -34,7 +51,9 @@ export function figureKinds (): FigureKind[] {
     { name: 'end-state-fraction', results: [basin], options: { measure: 'endState', endState: 'target' } },
     { name: 'stability-theory', results: [stability], options: { measure: 'unstableFraction' } },
     { name: 'temperature-references', results: [warm], options: { measure: 'success', x: 'dynamics.temperature' } },
-    { name: 'log-x-sweeps', results: [grow], options: { measure: 'sweeps', x: 'neurons', xScale: 'log' } }
+    { name: 'log-x-sweeps', results: [grow], options: { measure: 'sweeps', x: 'neurons', xScale: 'log' } },
+    { name: 'threshold-crossings', results: [basinSearch], options: {} },
+    { name: 'scaling-fit', results: [scaling], options: {} }
   ]
   return cached
 }

@@ -87,13 +87,3 @@ describe('a real example', () => {
     }
   })
 })
-
-describe('threshold searches', () => {
-  it('refuses to draw a search result (no grid rows) and says where its crossings are', async () => {
-    const { normaliseSpec, specHash } = await import('../../src/spec/index.js')
-    const spec = normaliseSpec({ neurons: 100, trials: 10, cue: { kind: 'flip', fraction: 0.05 }, analysis: { kind: 'threshold', parameter: 'load', from: 0.05, to: 0.3 } })
-    const result = { specHash: specHash(spec), spec, rows: [], trials: [], searches: [], provenance: { specHash: specHash(spec), engineVersion: '0', node: 'x', v8: 'x', rng: 'x', wallSeconds: 0, cpuSeconds: 0 } }
-    expect(() => renderFigure(result as never, {})).toThrow(FigureOptionsError)
-    expect(() => renderFigure(result as never, {})).toThrow(/threshold search/)
-  })
-})

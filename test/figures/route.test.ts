@@ -64,6 +64,24 @@ describe('GET /v1/sweeps/{id}/figure.svg', () => {
     expect(expectProblem(await h.request({ method: 'GET', url: `/v1/sweeps/${id}/figure.svg?dpi=100` }), 400, 'MEMSWEEP_MALFORMED_REQUEST').errors[0].message).toMatch(/dpi/)
   })
 
+  it('draws a threshold search: its crossings with their intervals', async () => {
+    const search = (await h.request({
+      method: 'POST',
+      url: '/v1/sweeps',
+      payload: {
+        label: 'corridor basins', neurons: 80, load: { values: [0.05, 0.1] }, cue: { kind: 'flip' }, trials: 20, seed: 5,
+        analysis: { kind: 'threshold', parameter: 'cue.fraction', measure: 'success', level: 0.5, from: 0, to: 0.5, direction: 'decreasing', maxSteps: 4, tolerance: 0.03 }
+      }
+    })).json()
+    await h.waitFor(search.id, isTerminal)
+    const res = await h.request({ method: 'GET', url: `/v1/sweeps/${search.id as string}/figure.svg` })
+    expect(res.statusCode).toBe(200)
+    const result = (await h.request({ method: 'GET', url: `/v1/sweeps/${search.id as string}/results` })).json()
+    const points = drawnPoints(parseSvg(res.body))
+    expect(points.map((p) => p.x)).toEqual([0.05, 0.1])
+    for (const p of points) expect(p.y).toBeCloseTo(result.searches[p.point].estimate, 9)
+  })
+
   it('sets a strong ETag per set of options and answers If-None-Match with 304', async () => {
     const first = await h.request({ method: 'GET', url: `/v1/sweeps/${id}/figure.svg` })
     expect(first.headers.etag).toBe(`"${createHash('sha256').update(first.rawPayload).digest('base64url')}"`)
