@@ -384,7 +384,7 @@ export type paths = {
         };
         /**
          * Supplementary-material bundle of a succeeded sweep (zip)
-         * @description One zip with a folder `memsweep-<id>/` holding README.md (what each file is and how to reproduce the numbers with one command), `spec.json`, `spec.normalised.json`, `results.json`, `results.csv`, `trials.csv`, `trajectory.csv`, `figure.svg`, `figure.pdf`, `figure.png`, `provenance.json`. Files that do not apply to the sweep are left out and the README says why (per-trial rows above 200,000 trials, trajectories the spec does not record, the figure of a threshold search). A strong ETag (sha256 of the bytes) supports If-None-Match → 304. 409 while the sweep has not succeeded.
+         * @description One zip with a folder `memsweep-<id>/` holding README.md (what each file is and how to reproduce the numbers with one command), `spec.json`, `spec.normalised.json`, `results.json`, `results.csv`, `results.arrow`, `trials.csv`, `trajectory.csv`, `figure.svg`, `figure.pdf`, `figure.png`, `provenance.json`. Files that do not apply to the sweep are left out and the README says why (per-trial rows above 200,000 trials, trajectories the spec does not record, the figure of a threshold search). A strong ETag (sha256 of the bytes) supports If-None-Match → 304. 409 while the sweep has not succeeded.
          */
         get: operations["getSweepBundle"];
         put?: never;

@@ -11,6 +11,7 @@ import { figureBytes, type FigureFormat } from '../../figure-files/index.js'
 import { FigureOptionsError, renderFigure } from '../../figures/index.js'
 import { resultToCsv, resultToJson, trajectoryCsv, trajectoryUnavailable, type SweepResult } from '../../results/index.js'
 import { canonicalJson, gridAxes } from '../../spec/index.js'
+import { resultToArrow } from '../../results/arrow-output.js'
 
 /** What the API knows of the sweep besides its result: its record, and where it was served from. */
 export interface BundleRecord {
@@ -84,6 +85,11 @@ export const BUNDLE_MEMBERS: readonly BundleMember[] = [
     name: 'results.csv',
     what: 'The same rows as CSV (RFC 4180, CRLF line ends), as ?format=csv answers it.',
     produce: ({ result, record }) => resultToCsv(result, { perTrial: false, sweepId: record.id })
+  },
+  {
+    name: 'results.arrow',
+    what: 'The same rows as an Apache Arrow IPC file (pandas: `pyarrow.ipc.open_file`), as ?format=arrow answers it.',
+    produce: ({ result, record }) => resultToArrow(result, { perTrial: false, sweepId: record.id })
   },
   {
     name: 'trials.csv',

@@ -28,7 +28,7 @@ export function bundleContract (factory: QueueFactory): void {
       expect(res.headers['content-disposition']).toBe(`attachment; filename="memsweep-${id}.zip"`)
       const files = unzipSync(new Uint8Array(res.rawPayload))
       const folder = `memsweep-${id}/`
-      expect(Object.keys(files)).toEqual(['README.md', 'spec.json', 'spec.normalised.json', 'results.json', 'results.csv', 'trials.csv', 'figure.svg', 'figure.pdf', 'figure.png', 'provenance.json'].map((name) => folder + name))
+      expect(Object.keys(files)).toEqual(['README.md', 'spec.json', 'spec.normalised.json', 'results.json', 'results.csv', 'results.arrow', 'trials.csv', 'figure.svg', 'figure.pdf', 'figure.png', 'provenance.json'].map((name) => folder + name))
       const read = (name: string): string => Buffer.from(files[folder + name]!).toString('utf8')
       const served = async (url: string): Promise<string> => (await h.request({ method: 'GET', url })).body
 
@@ -39,6 +39,8 @@ export function bundleContract (factory: QueueFactory): void {
       expect(read('results.csv')).toBe(await served(`/v1/sweeps/${id}/results?format=csv`))
       expect(read('trials.csv')).toBe(await served(`/v1/sweeps/${id}/results?format=csv&trials=true`))
       expect(read('figure.svg')).toBe(await served(`/v1/sweeps/${id}/figure.svg`))
+      const arrow = await h.request({ method: 'GET', url: `/v1/sweeps/${id}/results?format=arrow` })
+      expect(Buffer.compare(Buffer.from(files[`${folder}results.arrow`]!), arrow.rawPayload), 'results.arrow').toBe(0)
       for (const format of ['pdf', 'png']) {
         const print = await h.request({ method: 'GET', url: `/v1/sweeps/${id}/figure.${format}?column=single` })
         expect(Buffer.compare(Buffer.from(files[`${folder}figure.${format}`]!), print.rawPayload), `figure.${format}`).toBe(0)
