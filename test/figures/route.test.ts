@@ -69,7 +69,12 @@ describe('GET /v1/sweeps/{id}/figure.svg', () => {
       method: 'POST',
       url: '/v1/sweeps',
       payload: {
-        label: 'corridor basins', neurons: 80, load: { values: [0.05, 0.1] }, cue: { kind: 'flip' }, trials: 20, seed: 5,
+        label: 'corridor basins',
+        neurons: 80,
+        load: { values: [0.05, 0.1] },
+        cue: { kind: 'flip' },
+        trials: 20,
+        seed: 5,
         analysis: { kind: 'threshold', parameter: 'cue.fraction', measure: 'success', level: 0.5, from: 0, to: 0.5, direction: 'decreasing', maxSteps: 4, tolerance: 0.03 }
       }
     })).json()
