@@ -30,7 +30,8 @@ export function capacityCurve (trials: number, seed: number): Record<string, unk
  */
 export async function finishSweep (queue: SweepQueue, spec: NormalisedSpec, options: { bytes?: boolean } = {}): Promise<{ seconds: number, bytes: string }> {
   const started = performance.now()
-  const record = await queue.submit({ spec, owner: null })
+  // Every run computes all its trials: a repeated spec would otherwise take the stored points.
+  const record = await queue.submit({ spec, owner: null, reusePoints: false })
   await new Promise<void>((resolve, reject) => {
     let settled = false
     const settle = (sweep: SweepRecord | null): void => {

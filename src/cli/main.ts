@@ -86,6 +86,7 @@ export async function runCli (argv: readonly string[], io: CliIo): Promise<numbe
     .option('--trials', 'per-trial rows')
     .option('--series <series>', 'download another series instead of the rows: trajectory (mean trajectories, long format)')
     .option('--reuse', 'reuse the results of an identical finished sweep instead of running again')
+    .option('--callback-url <url>', 'ask the server to POST a signed event to this address when the sweep ends (docs/callbacks.md)')
     .option('--idempotency-key <key>', 'makes retrying this submission safe')
     .action(async (spec: string, options) => { exitCode = await submit(io, spec, options) })
 

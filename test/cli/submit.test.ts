@@ -75,7 +75,7 @@ describe('memsweep submit', () => {
     expect(res.stderr).toContain('was canceled')
   })
 
-  it('exits 2 with the server\'s reasons for a refused spec or a missing token', async () => {
+  it('exits 2 with the server\'s reasons for a refused spec, a missing token or a refused callback address', async () => {
     const bad = await cli(['submit', join(dir, 'bad.json'), '--server', url, '--token', TOKEN, '--wait'])
     expect(bad.code).toBe(2)
     expect(bad.stderr).toContain('422 MEMSWEEP_SPEC_INVALID')
@@ -83,6 +83,9 @@ describe('memsweep submit', () => {
     const anonymous = await cli(['submit', join(dir, 'spec.json'), '--server', url])
     expect(anonymous.code).toBe(2)
     expect(anonymous.stderr).toContain('401 MEMSWEEP_UNAUTHENTICATED')
+    const loopback = await cli(['submit', join(dir, 'spec.json'), '--server', url, '--token', TOKEN, '--callback-url', 'http://127.0.0.1:9/done'])
+    expect(loopback.code).toBe(2)
+    expect(loopback.stderr).toContain('422 MEMSWEEP_CALLBACK_REFUSED')
   })
 
   it('exits 3 when the server cannot be reached', async () => {

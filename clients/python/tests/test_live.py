@@ -44,6 +44,11 @@ def test_validate_theory_and_problems(client: MemsweepClient, spec: Spec) -> Non
     with pytest.raises(MemsweepError) as missing:
         client.get("no-such-sweep")
     assert missing.value.status == 404
+    # The callback target reaches the server: a loopback address is refused by its SSRF guard.
+    with pytest.raises(MemsweepError) as loopback:
+        client.submit(spec(), callback_url="http://127.0.0.1:9/done")
+    assert loopback.value.status == 422
+    assert loopback.value.code == "MEMSWEEP_CALLBACK_REFUSED"
 
 
 def test_submission_is_idempotent_and_always_keyed(client: MemsweepClient, spec: Spec) -> None:

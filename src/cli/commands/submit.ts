@@ -21,6 +21,8 @@ export interface SubmitOptions {
   /** Download this series (`trajectory`) instead of the rows. */
   series?: string
   reuse?: boolean
+  /** Where the server POSTs a signed event when the sweep ends (docs/callbacks.md). */
+  callbackUrl?: string
   idempotencyKey?: string
   /** Seconds between status reads when the event stream is unavailable. */
   pollSeconds?: number
@@ -32,7 +34,11 @@ export async function submit (io: CliIo, specPath: string, options: SubmitOption
   const spec = await readSpecFile(specPath)
   const headers: Record<string, string> = { 'content-type': 'application/json' }
   if (options.idempotencyKey !== undefined) headers['idempotency-key'] = options.idempotencyKey
-  const submitted = await client.json<SweepStatus>(`/v1/sweeps${options.reuse === true ? '?reuse=true' : ''}`, { method: 'POST', headers, body: JSON.stringify(spec) })
+  const query = new URLSearchParams()
+  if (options.reuse === true) query.set('reuse', 'true')
+  if (options.callbackUrl !== undefined) query.set('callbackUrl', options.callbackUrl)
+  const search = query.size > 0 ? `?${query.toString()}` : ''
+  const submitted = await client.json<SweepStatus>(`/v1/sweeps${search}`, { method: 'POST', headers, body: JSON.stringify(spec) })
   io.stdout.write(`${submitted.id}\n`)
   say(io, `Submitted sweep ${submitted.id} (${submitted.status}) to ${options.server}.`)
   return await awaitAndDownload(io, client, submitted, options)

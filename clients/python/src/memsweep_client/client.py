@@ -162,13 +162,18 @@ class MemsweepClient:
         idempotency_key: Optional[str] = None,
         reuse: bool = False,
         reuse_points: Optional[bool] = None,
+        callback_url: Optional[str] = None,
     ) -> Status:
         """Queues a sweep and returns its status (with `id`).
 
         Every submission carries an Idempotency-Key (a fresh one unless given), so a retry
         after a lost answer returns the first sweep instead of queuing a second one.
+        `callback_url` asks the server to POST a signed event there when the sweep ends
+        (docs/callbacks.md).
         """
         params: Dict[str, str] = {}
+        if callback_url is not None:
+            params["callbackUrl"] = callback_url
         if reuse:
             params["reuse"] = "true"
         if reuse_points is not None:
