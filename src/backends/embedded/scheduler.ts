@@ -204,14 +204,23 @@ export class ChunkScheduler {
       return this.#pump()
     }
     const decision = outcome.decision
-    if (decision.kind === 'close') {
-      this.#store.closePointNow(sweep.id, point)
-      sweep.decided(point, true)
-    } else {
-      const appended = await this.#store.extendPoint(sweep.id, point, decision.fromTrial, decision.pieces)
-      if (appended !== null) sweep.append(appended)
-      // Nothing appended: the point was closed meanwhile (or its plan moved on); never ask again for it then.
-      sweep.decided(point, appended === null && !(await this.#store.openPoints(sweep.id)).includes(point))
+    try {
+      if (decision.kind === 'close') {
+        this.#store.closePointNow(sweep.id, point)
+        sweep.decided(point, true)
+      } else {
+        const appended = await this.#store.extendPoint(sweep.id, point, decision.fromTrial, decision.pieces)
+        if (appended !== null) sweep.append(appended)
+        // Nothing appended: the point was closed meanwhile (or its plan moved on); never ask again for it then.
+        sweep.decided(point, appended === null && !(await this.#store.openPoints(sweep.id)).includes(point))
+      }
+    } catch (error) {
+      // Storing a decision failed: left as it was, the point would stay marked as being decided
+      // and the sweep would never end; decide it again (it stays marked) or fail the sweep.
+      this.#logger?.error({ err: error, sweepId: sweep.id, point }, 'storing a decision on a point failed')
+      if (attempt >= this.#options.maxAttempts) this.#fail(sweep, systemFailure({ chunkIndex: null, chunksTotal: sweep.plan.length }, attempt, 'storage'))
+      else this.#decide(sweep, point, attempt + 1)
+      return this.#pump()
     }
     this.#events.progress(sweep.id)
     this.#pump()
