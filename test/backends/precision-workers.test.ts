@@ -43,10 +43,7 @@ async function runOn (queue: SweepQueue): Promise<string> {
 
 describe('precision targets give the same rows whatever the parallelism', () => {
   for (const threads of [1, 2, 4]) {
-    // One hang of the 2-thread run was seen under a loaded full suite (not reproduced alone; an
-    // open race in the embedded backend's block decisions, see issue 11's note): a retry keeps it
-    // visible in the report without rejecting good work, until it is found.
-    it(`embedded, ${threads} compute thread(s)`, { retry: 1, timeout: 30_000 }, async () => {
+    it(`embedded, ${threads} compute thread(s)`, async () => {
       const data = makeDataDir()
       const queue = await createEmbeddedQueue({ dataDir: data.dir, threads })
       cleanups.push(async () => { await queue.close(); data.remove() })

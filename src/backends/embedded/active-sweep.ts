@@ -62,17 +62,20 @@ export class ActiveSweep {
     return this.#open.size === 0 && this.plan.every((chunk) => this.#done.has(chunk.index))
   }
 
-  /** Open points whose planned chunks are all stored and that wait for a decision nobody has asked for yet. */
-  takeDuePoints (): number[] {
-    const due: number[] = []
+  /**
+   * One open point whose planned chunks are all stored and that waits for a decision nobody has
+   * asked for yet, marked as being decided. One at a time: a point marked here must be decided
+   * by the caller, or it would stay marked and the sweep would never end.
+   */
+  takeDuePoint (): number | undefined {
     for (const point of this.#open) {
       if (this.#deciding.has(point)) continue
       if (this.plan.every((chunk) => chunk.point !== point || this.#done.has(chunk.index))) {
         this.#deciding.add(point)
-        due.push(point)
+        return point
       }
     }
-    return due
+    return undefined
   }
 
   /** The decision on a point was applied (or failed and may be asked again). */

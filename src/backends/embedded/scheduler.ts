@@ -168,7 +168,7 @@ export class ChunkScheduler {
   /** One due decision of any active sweep (precision targets), marked as asked for. */
   #nextDecision (): { sweep: ActiveSweep, point: number } | undefined {
     for (const sweep of this.#active.values()) {
-      const [point] = sweep.takeDuePoints().slice(0, 1)
+      const point = sweep.takeDuePoint()
       if (point !== undefined) return { sweep, point }
     }
     return undefined
