@@ -19,6 +19,8 @@ const FAST = ['test/engine/**/*.test.ts', 'test/spec/**/*.test.ts', 'test/sweep/
 
 export default defineConfig({
   test: {
+    // Threads start from bundles built once per run instead of loading through tsx (see the file).
+    globalSetup: ['test/setup/thread-bundles.ts'],
     projects: [
       {
         test: {

@@ -13,6 +13,7 @@ import type { Redis } from 'ioredis'
 import type { Logger } from 'pino'
 import { systemFailure } from '../../../sweep/index.js'
 import { threadExecArgv } from '../../../runtime/node-flags.js'
+import { prebuiltThreadBundle } from '../../../runtime/worker-entry.js'
 import { ChunkQueue, DEFAULT_RETRY_POLICY, SWEEP_GONE, type ChunkRetryPolicy, type SweepJobData, type SweepJobName } from '../chunk-queue.js'
 import { closeConnection, openConnection, redactUrl, workerConnectionOptions } from '../connections.js'
 import { EpochWatch } from '../data-loss.js'
@@ -140,10 +141,14 @@ const DEFAULT_RETENTION_SECONDS = 7 * 24 * 3600
 
 type SweepJob = Job<SweepJobData, unknown, SweepJobName>
 
-/** The processor module: compiled JavaScript beside this file, or a loader that runs the TypeScript source through tsx. */
+/**
+ * The processor module: compiled JavaScript beside this file; from source, a prebuilt bundle
+ * when the environment names one (src/runtime/worker-entry.ts), else a loader that runs the
+ * TypeScript source through tsx.
+ */
 function processorFile (): URL {
-  const fromSource = import.meta.url.endsWith('.ts')
-  return new URL(fromSource ? './processor-from-source.mjs' : './processor.js', import.meta.url)
+  if (!import.meta.url.endsWith('.ts')) return new URL('./processor.js', import.meta.url)
+  return prebuiltThreadBundle(new URL('./processor.ts', import.meta.url)) ?? new URL('./processor-from-source.mjs', import.meta.url)
 }
 
 export async function startWorker (options: WorkerProcessOptions): Promise<RunningWorker> {
