@@ -125,7 +125,7 @@ export function measureAxisTitle (measure: FigureMeasure, specs: readonly Normal
     case 'endState':
       return `Fraction ending ${END_STATE_WORDS[endState]}`
     case 'unstableFraction':
-      return 'Fraction of unstable bits'
+      return 'Fraction of unstable neurons in stored patterns'
     case 'fixedPatternFraction':
       return 'Stored patterns that are fixed points (fraction)'
     case 'patternOverlapMeanAbs':
@@ -137,14 +137,14 @@ export function measureAxisTitle (measure: FigureMeasure, specs: readonly Normal
 
 export function measureShortName (measure: FigureMeasure, endState: EndState): string {
   switch (measure) {
-    case 'success': return 'Recall success'
-    case 'overlap': return 'Overlap with the target'
+    case 'success': return 'Recall success rate'
+    case 'overlap': return 'Final overlap with the cued pattern'
     case 'sweeps': return 'Sweeps run'
     case 'maxOtherOverlap': return 'Largest overlap with another pattern'
     case 'energy': return 'Energy per neuron'
     case 'endState': return `Trials ending ${END_STATE_WORDS[endState]}`
-    case 'unstableFraction': return 'Unstable bits'
-    case 'fixedPatternFraction': return 'Patterns that are fixed points'
+    case 'unstableFraction': return 'Unstable neurons in stored patterns'
+    case 'fixedPatternFraction': return 'Stored patterns that are fixed points'
     case 'patternOverlapMeanAbs': return 'Mean overlap between stored patterns'
     case 'patternOverlapMaxAbs': return 'Largest overlap between stored patterns'
   }

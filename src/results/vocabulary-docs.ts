@@ -14,6 +14,7 @@ const GROUPS: ReadonlyArray<[TermGroup, string]> = [
   ['identity', 'Which sweep, spec and row'],
   ['parameter', 'Model parameters (every table states all of them, varied or fixed)'],
   ['derived', 'What the parameters imply'],
+  ['setting', 'Other spec settings (spec fields and error paths; no table column)'],
   ['point measure', 'Measures of a grid point (or a search step)'],
   ['trial measure', 'Measures of a trial (per-trial tables)'],
   ['series', 'Trajectory series'],
@@ -70,7 +71,8 @@ export function dataDictionaryMarkdown (): string {
     '- `<stat>` is one of `mean`, `sd` (standard deviation over trials), `se` (standard error of the mean); `<class>` an end state (docs/end-states.md); `<kind>` an ending (fixed, cycle2, max, sampled); `<k>` a mixture component (0 = the target); `<name>` a theory value (docs/theory.md).',
     ''
   ]
-  for (const [group, title] of GROUPS) {
+  // Spec settings are no column of any table: the glossary lists them, the dictionary does not.
+  for (const [group, title] of GROUPS.filter(([group]) => group !== 'setting')) {
     lines.push(`## ${title}`, '', '| Column | Type | Unit | Meaning | Defined by |', '| --- | --- | --- | --- | --- |')
     for (const term of VOCABULARY.filter((entry) => entry.group === group)) {
       lines.push(`| \`${term.name}\` | ${typeOf(term.name)} | ${cell(term.unit)} | ${cell(term.meaning)} | ${cell(term.source)} |`)

@@ -22,7 +22,7 @@ export interface Term {
   source: string
 }
 
-export type TermGroup = 'identity' | 'parameter' | 'derived' | 'point measure' | 'trial measure' | 'series' | 'search'
+export type TermGroup = 'identity' | 'parameter' | 'derived' | 'setting' | 'point measure' | 'trial measure' | 'series' | 'search'
 
 export const VOCABULARY: ReadonlyArray<Term & { group: TermGroup }> = [
   // identity
@@ -66,11 +66,30 @@ export const VOCABULARY: ReadonlyArray<Term & { group: TermGroup }> = [
   // derived
   t('derived', 'alpha', 'realised load α = P/N', 'α', 'patterns per neuron', 'P/N at this point (JSON `params.alpha`).', 'computed'),
   t('derived', 'alphaK', 'realised load per input α_K = P/K', 'α_K', 'patterns per input', 'P/K under a fixed in-degree, else empty (JSON `params.inDegreeLoad`).', 'computed'),
+  // spec settings that are not model parameters (no table column; spec fields and error paths use these names)
+  t('setting', 'label', 'label', '', '', 'Free text naming the sweep for people; not part of the spec hash.', 'spec `label`'),
+  t('setting', 'version', 'spec format', '', '', 'Spec format version; 2 classifies end states with the success threshold as pattern level, 1 with 0.9.', 'spec `version`'),
+  t('setting', 'family.data', 'supplied patterns', 'ξ', '', 'The patterns of a supplied family, data[μ][i] in the chosen coding.', 'spec `family.data`'),
+  t('setting', 'measures.overlapTrajectory', 'record overlap trajectories', '', '', 'Record the target overlap after every sweep.', 'spec `measures.overlapTrajectory`'),
+  t('setting', 'measures.energyTrajectory', 'record energy trajectories', '', '', 'Record the energy per neuron after every sweep.', 'spec `measures.energyTrajectory`'),
+  t('setting', 'measures.stability', 'measure pattern stability', '', '', 'Measure the one-step stability of every stored pattern, once per network.', 'spec `measures.stability`'),
+  t('setting', 'measures.patternOverlaps', 'measure stored-pattern overlaps', '', '', 'Measure the overlaps between the stored patterns of every network.', 'spec `measures.patternOverlaps`'),
+  t('setting', 'precision.measure', 'precision measure', '', '', 'The measure whose 95 % interval a precision target narrows: success or overlap.', 'spec `precision.measure`'),
+  t('setting', 'precision.halfWidth', 'target half-width', '', 'measure units', 'A point stops taking trial blocks once its 95 % interval is this narrow on each side.', 'spec `precision.halfWidth`; Wilson 1927 for success'),
+  t('setting', 'precision.block', 'trial block', '', 'trials', 'Trials per block of a precision target; `trials` is the ceiling.', 'spec `precision.block`'),
+  t('setting', 'analysis.kind', 'analysis', '', '', 'threshold: a search for where a measure crosses a level.', 'spec `analysis.kind`'),
+  t('setting', 'analysis.from', 'searched range, low end', '', 'parameter units', 'Low end of the range a threshold search moves the parameter over.', 'spec `analysis.from`'),
+  t('setting', 'analysis.to', 'searched range, high end', '', 'parameter units', 'High end of that range.', 'spec `analysis.to`'),
+  t('setting', 'analysis.direction', 'direction of the measure', '', '', 'decreasing or increasing: how the measure moves as the parameter grows.', 'spec `analysis.direction`'),
+  t('setting', 'analysis.maxSteps', 'most search steps', '', 'steps', 'Most parameter values evaluated per search, both ends included.', 'spec `analysis.maxSteps`'),
+  t('setting', 'analysis.tolerance', 'search tolerance', '', 'parameter units', 'The search stops once the bracket around the crossing is at most this wide.', 'spec `analysis.tolerance`'),
+  t('setting', 'analysis.scaling.form', 'scaling form', '', '', 'power (x_c(N) = x_∞ + a·N^(−b)) or linear-inverse (x_∞ + a/N): the finite-size fit of the crossings over N.', 'spec `analysis.scaling`'),
+  t('setting', 'analysis.scaling.exponent', 'scaling exponent b', 'b', '', 'The exponent of the power form, fixed or fitted (null).', 'spec `analysis.scaling.exponent`'),
   // point measures
   t('point measure', 'trials', 'trials', '', 'trials', 'Trials run at the point (with a search: per row, all steps).', 'src/engine/aggregate.ts'),
-  t('point measure', 'overlap.<stat>', 'final overlap m', 'm', '', 'Final overlap with the cued pattern, (1/N) Σ ξ_i s_i (T > 0: time average): mean, standard deviation and standard error over trials.', 'src/engine/measures.ts'),
+  t('point measure', 'overlap.<stat>', 'final overlap with the cued pattern', 'm', '', 'Final overlap with the cued pattern, (1/N) Σ ξ_i s_i (T > 0: time average): mean, standard deviation and standard error over trials.', 'src/engine/measures.ts'),
   t('point measure', 'sweeps.<stat>', 'sweeps run', '', 'sweeps', 'Sweeps until the dynamics stopped.', 'src/engine/dynamics'),
-  t('point measure', 'maxOtherOverlap.<stat>', 'largest other overlap', 'max|m_ν|', '', 'Largest |overlap| with a stored pattern other than the target.', 'src/engine/measures.ts'),
+  t('point measure', 'maxOtherOverlap.<stat>', 'largest overlap with another pattern', 'max|m_ν|', '', 'Largest |overlap| with a stored pattern other than the target.', 'src/engine/measures.ts'),
   t('point measure', 'energy.<stat>', 'energy per neuron', 'E/N', '', 'Energy of the final state per neuron.', 'src/engine/measures.ts'),
   t('point measure', 'success.count', 'successes', '', 'trials', 'Trials whose final overlap reached the success threshold.', 'src/engine/aggregate.ts'),
   t('point measure', 'success.rate', 'recall success rate', '', 'fraction', 'success.count / trials.', 'src/engine/aggregate.ts'),
@@ -85,7 +104,7 @@ export const VOCABULARY: ReadonlyArray<Term & { group: TermGroup }> = [
   t('point measure', 'stability.<stat>.<field>', 'stability spread', '', 'fraction', 'Standard deviation and standard error over networks of a stability fraction.', 'src/engine/aggregate.ts'),
   t('point measure', 'endStateShares.<class>', 'share of sweeps per end state', '', 'fraction', 'T > 0: fraction of measured sweeps spent in each class, mean over trials.', 'docs/end-states.md'),
   t('point measure', 'finalEndStates.<class>', 'end-state counts after the last sweep', '', 'trials', 'T > 0: class of the state after the last sweep, counted.', 'docs/end-states.md'),
-  t('point measure', 'finalMaxOtherOverlap.<stat>', 'largest other overlap after the last sweep', '', '', 'T > 0: maxOtherOverlap of the last state.', 'docs/end-states.md'),
+  t('point measure', 'finalMaxOtherOverlap.<stat>', 'largest overlap with another pattern after the last sweep', '', '', 'T > 0: maxOtherOverlap of the last state.', 'docs/end-states.md'),
   t('point measure', 'finalEnergy.<stat>', 'energy after the last sweep', '', '', 'T > 0: energy per neuron of the last state.', 'docs/end-states.md'),
   t('point measure', 'componentOverlaps.<k>.<stat>', 'overlap with mixture component k', 'm_k', '', 'Mixture cues: overlap with component k (0 = target).', 'docs/end-states.md'),
   t('point measure', 'patternOverlaps.networks', 'networks measured', '', 'networks', 'Networks whose stored patterns were compared.', 'docs/measures.md'),
@@ -96,15 +115,15 @@ export const VOCABULARY: ReadonlyArray<Term & { group: TermGroup }> = [
   // trial measures
   t('trial measure', 'target', 'cued pattern', '', '', 'Index of the cued pattern.', 'src/engine/trial.ts'),
   t('trial measure', 'initialOverlap', 'cue overlap m₀', 'm₀', '', 'Overlap of the cue with the target.', 'src/engine/trial.ts'),
-  t('trial measure', 'overlap', 'final overlap m', 'm', '', 'The trial\'s final overlap (T > 0: time average).', 'src/engine/measures.ts'),
+  t('trial measure', 'overlap', 'final overlap with the cued pattern', 'm', '', 'The trial\'s final overlap (T > 0: time average).', 'src/engine/measures.ts'),
   t('trial measure', 'success', 'success', '', '0/1', '1 when overlap ≥ successThreshold.', 'src/engine/aggregate.ts'),
-  t('trial measure', 'maxOtherOverlap', 'largest other overlap', '', '', 'The trial\'s largest |overlap| with another pattern.', 'src/engine/measures.ts'),
+  t('trial measure', 'maxOtherOverlap', 'largest overlap with another pattern', '', '', 'The trial\'s largest |overlap| with another pattern.', 'src/engine/measures.ts'),
   t('trial measure', 'sweeps', 'sweeps run', '', 'sweeps', 'Sweeps the trial ran.', 'src/engine/dynamics'),
   t('trial measure', 'ending', 'ending', '', '', 'fixed, cycle2, max or sampled.', 'src/engine/results.ts'),
   t('trial measure', 'energy', 'energy per neuron', 'E/N', '', 'The trial\'s final energy per neuron.', 'src/engine/measures.ts'),
   t('trial measure', 'endState', 'end state', '', '', 'The trial\'s end-state class.', 'docs/end-states.md'),
   t('trial measure', 'finalEndState', 'end state after the last sweep', '', '', 'T > 0: class of the last state.', 'docs/end-states.md'),
-  t('trial measure', 'finalMaxOtherOverlap', 'largest other overlap after the last sweep', '', '', 'T > 0.', 'docs/end-states.md'),
+  t('trial measure', 'finalMaxOtherOverlap', 'largest overlap with another pattern after the last sweep', '', '', 'T > 0.', 'docs/end-states.md'),
   t('trial measure', 'finalEnergy', 'energy after the last sweep', '', '', 'T > 0.', 'docs/end-states.md'),
   t('trial measure', 'componentOverlaps.<k>', 'overlap with mixture component k', 'm_k', '', 'Mixture cues.', 'docs/end-states.md'),
   t('trial measure', 'patternOverlaps.<field>', 'stored-pattern overlaps', 'C_μν', '', 'First trial of each network.', 'docs/measures.md'),

@@ -41,7 +41,7 @@ export interface MeasureInfo {
 export const MEASURES: readonly MeasureInfo[] = [
   { value: 'success', short: 'success rate', name: 'recall success rate' },
   { value: 'overlap', short: 'final overlap', name: 'final overlap with the cued pattern' },
-  { value: 'sweeps', short: 'sweeps run', name: 'sweeps until the dynamics stopped' },
+  { value: 'sweeps', short: 'sweeps run', name: 'sweeps run' },
   { value: 'maxOtherOverlap', short: 'largest other overlap', name: 'largest overlap with another pattern' },
   { value: 'energy', short: 'energy per neuron', name: 'energy per neuron' },
   { value: 'endState', short: 'ended at the cue', name: 'fraction ending in the cued pattern' },

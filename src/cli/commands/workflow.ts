@@ -4,6 +4,7 @@
  * DELETE …?purge=true). Extend and resume follow the sweep and download results like submit.
  */
 import { InvalidArgumentError } from 'commander'
+import { VARIED_PARAMETERS } from '../../spec/index.js'
 import { ApiClient, type SweepStatus } from '../api-client.js'
 import { CliError, EXIT, say, type CliIo } from '../io.js'
 import { outputFormat } from '../spec-file.js'
@@ -29,6 +30,10 @@ export interface ExtendOptions extends ServerOptions, Omit<FollowOptions, 'trial
 export function parseAddition (text: string, previous: string[] = []): string[] {
   const match = /^([A-Za-z][A-Za-z0-9.]*)=(.+)$/.exec(text)
   if (match === null) throw new InvalidArgumentError('expected <parameter>=<value>,<value>…, e.g. load=0.13,0.15')
+  // Parameters by their glossary names (docs/glossary.md), as in specs, CSV columns and error paths.
+  if (!VARIED_PARAMETERS.some((parameter) => parameter.path === match[1])) {
+    throw new InvalidArgumentError(`${match[1]!} is not a parameter that takes values; one of ${VARIED_PARAMETERS.map((parameter) => parameter.path).join(', ')} (docs/glossary.md)`)
+  }
   const values = match[2]!.split(',')
   if (values.some((value) => value.trim() === '' || !Number.isFinite(Number(value)))) throw new InvalidArgumentError(`the values of ${match[1]!} must be numbers separated by commas`)
   return [...previous, text]
