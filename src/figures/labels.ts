@@ -212,6 +212,10 @@ function dynamicsConditions (spec: NormalisedSpec, constant: (path: VariedPath, 
   if (constant('dynamics.maxSweeps', d.maxSweeps)) out.push(`≤ ${formatValue(d.maxSweeps)} ${d.update === 'sync' ? 'step' : 'sweep'}${d.maxSweeps === 1 ? '' : 's'}`)
   if (constant('dynamics.burnIn', d.burnIn) && d.burnIn > 0) out.push(`burn-in ${formatValue(d.burnIn)}`)
   const perNetwork = constant('trialsPerNetwork', spec.trialsPerNetwork) && spec.trialsPerNetwork > 1 ? ` (${formatValue(spec.trialsPerNetwork)} per network)` : ''
-  out.push(`${spec.trials} trials per point${perNetwork}`)
+  // With a precision target, `trials` is a ceiling: points take blocks until their interval is narrow enough.
+  const precision = spec.precision
+  out.push(precision === undefined
+    ? `${spec.trials} trials per point${perNetwork}`
+    : `${formatValue(precision.block)}–${spec.trials} trials per point${perNetwork}, until ${precision.measure === 'success' ? 'success rate' : 'overlap'} ± ${formatValue(precision.halfWidth)}`)
   return out
 }

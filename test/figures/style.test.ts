@@ -34,6 +34,13 @@ describe('titles and notes', () => {
     expect(texts(own, 'subtitle')).toEqual(['Two sizes'])
     expect(noteText(parseSvg(own))).toBe('Simulated with memsweep.')
   })
+
+  it('state a precision target\'s trials as a range and name the target, not the ceiling as if every point took it', () => {
+    const precise = runSweep({ ...flat, neurons: 60, trials: 40, precision: { measure: 'success', halfWidth: 0.2, block: 10 } })
+    const subtitle = texts(renderFigure(precise, { measure: 'success' }), 'subtitle').join(' ').replaceAll('\u00a0', ' ')
+    expect(subtitle).toContain('10–40 trials per point, until success rate ± 0.2')
+    expect(subtitle).not.toMatch(/· 40 trials per point/)
+  })
 })
 
 describe('sizes', () => {

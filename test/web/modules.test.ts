@@ -170,6 +170,8 @@ describe('what the list shows of a sweep', () => {
       seed: 7
     }
     expect(modelLine(spec)).toBe('N 200–800 (3) · Hebbian · α 0.02–0.24 (4) · cue 5 % flipped · 100 trials')
+    // A precision target: the trials are a range (first block to ceiling) and the target is named.
+    expect(modelLine({ ...spec, trials: 480, precision: { measure: 'success', halfWidth: 0.05, block: 60 } })).toBe('N 200–800 (3) · Hebbian · α 0.02–0.24 (4) · cue 5 % flipped · 60–480 trials to success ± 0.05')
     const noisy = { ...spec, neurons: 500, rule: { kind: 'storkey' }, cue: { kind: 'flip', fraction: { values: [0, 0.1, 0.2] } }, dynamics: { temperature: 0.2 }, load: 0.1, trials: 2000 }
     expect(modelLine(noisy)).toBe('N 500 · Storkey · α 0.1 · cue 0–0.2 (3) flip · T 0.2 · 2,000 trials')
     expect(rangeText(['hebbian', 'storkey'])).toBe('hebbian / storkey')

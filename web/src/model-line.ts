@@ -103,7 +103,11 @@ export function modelLine (spec: Spec): string {
     if (named.has(path)) continue
     parts.push(`${SYMBOLS[path] ?? path} ${rangeText(values)}`)
   }
-  if (typeof spec.trials === 'number') parts.push(`${formatCount(spec.trials)} trials`)
+  const precision = spec.precision as { measure?: unknown, halfWidth?: unknown, block?: unknown } | undefined | null
+  if (typeof spec.trials === 'number' && precision !== undefined && precision !== null && typeof precision.halfWidth === 'number' && typeof precision.block === 'number') {
+    // A precision target: `trials` is the ceiling of blocks that stop once the interval is narrow enough.
+    parts.push(`${formatCount(precision.block)}–${formatCount(spec.trials)} trials to ${precision.measure === 'overlap' ? 'overlap' : 'success'} ± ${formatGridValue(precision.halfWidth, 3)}`)
+  } else if (typeof spec.trials === 'number') parts.push(`${formatCount(spec.trials)} trials`)
   if (spec.analysis !== undefined && spec.analysis !== null) parts.push('threshold search')
   return parts.join(' · ')
 }

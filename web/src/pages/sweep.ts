@@ -287,7 +287,9 @@ export function renderSweep (main: HTMLElement, id: string): Dispose {
       h('p', { class: 'model-line' }, modelLine(detail.spec)),
       tagMarks(detail.tags),
       detail.notes === null ? null : h('p', { class: 'notes' }, detail.notes),
-      detail.extends === null ? null : h('p', { class: 'hint' }, 'Extends ', h('a', { href: routeHref({ page: 'sweep', id: detail.extends }) }, detail.extends.slice(0, 8)), `: ${formatCount(detail.reused.trials)} trials reused.`))
+      detail.extends === null
+        ? (detail.reused.trials > 0 ? h('p', { class: 'hint' }, `${formatCount(detail.reused.trials)} of its trials were taken from earlier sweeps of the same model and seed, not computed again.`) : null)
+        : h('p', { class: 'hint' }, 'Extends ', h('a', { href: routeHref({ page: 'sweep', id: detail.extends }) }, detail.extends.slice(0, 8)), `: ${formatCount(detail.reused.trials)} trials reused.`))
   }
 
   function renderDetail (detail: SweepDetail): void {
