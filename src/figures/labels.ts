@@ -34,7 +34,7 @@ const PARAMETERS: Record<VariedPath, ParameterWords> = {
   'dynamics.temperature': { symbol: 'T', axis: 'Temperature T', short: 'temperature T' },
   'dynamics.maxSweeps': { symbol: 'sweep limit', axis: 'Sweep limit', short: 'sweep limit' },
   'dynamics.burnIn': { symbol: 'burn-in', axis: 'Burn-in sweeps', short: 'burn-in' },
-  successThreshold: { symbol: 'm_{s}', axis: 'Success threshold m_{s} (final overlap)', short: 'success threshold' },
+  successThreshold: { symbol: 'q', axis: 'Success threshold q (final overlap)', short: 'success threshold' },
   trialsPerNetwork: { symbol: 'trials/network', axis: 'Trials per network', short: 'trials per network' }
 }
 
@@ -110,7 +110,7 @@ export function measureAxisTitle (measure: FigureMeasure, specs: readonly Normal
       const [only] = [...thresholds]
       return thresholds.size === 1 && only !== undefined && Number.isFinite(only)
         ? `Recall success rate (final m ≥ ${formatValue(only)})`
-        : 'Recall success rate (final m ≥ m_{s})'
+        : 'Recall success rate (final m ≥ q)'
     }
     case 'overlap':
       return anyWarm(specs)

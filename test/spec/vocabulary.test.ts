@@ -13,7 +13,7 @@ import { VOCABULARY, parameterLabel, termOf } from '../../src/results/vocabulary
 import { dataDictionaryMarkdown, glossaryMarkdown } from '../../src/results/vocabulary-docs.js'
 import { normaliseSpec, SpecValidationError, VARIED_PARAMETERS } from '../../src/spec/index.js'
 import { FIGURE_MEASURES } from '../../src/figures/index.js'
-import { measureShortName, parameterShortName } from '../../src/figures/labels.js'
+import { measureShortName, parameterShortName, parameterSymbol } from '../../src/figures/labels.js'
 import { MEASURES, parameterName } from '../../web/src/labels.js'
 import { parseAddition } from '../../src/cli/commands/workflow.js'
 import { runSweep } from '../figures/helpers.js'
@@ -56,6 +56,14 @@ describe('the vocabulary', () => {
       expect(parameterShortName(path), path).toBe(parameterLabel(path))
     }
     expect(parameterLabel('cue.fraction')).toBe('cue noise f')
+  })
+
+  it('gives the figures the glossary\'s symbol of every parameter that has one (q for the success threshold)', () => {
+    for (const { path } of VARIED_PARAMETERS) {
+      const symbol = termOf(path)!.symbol
+      if (symbol !== '') expect(parameterSymbol(path).replace(/_\{(\w+)\}/g, '_$1'), path).toBe(symbol)
+    }
+    expect(parameterSymbol('successThreshold')).toBe('q')
   })
 })
 
