@@ -18,7 +18,7 @@ const repoRoot = fileURLToPath(new URL('..', import.meta.url))
 /** Folders and files whose contents decide the build's output. */
 export const BUILD_INPUTS = ['src', 'web', 'examples', 'scripts/build-web.mjs', 'scripts/build-if-changed.mjs', 'tsconfig.json', 'tsconfig.build.json', 'package.json', 'package-lock.json']
 /** Files a complete build leaves; if one is missing the build runs whatever the stamp says. */
-export const BUILD_OUTPUTS = ['dist/server.js', 'dist/worker/run.js', 'dist/cli/main.js', 'dist/web/index.html']
+export const BUILD_OUTPUTS = ['dist/server.js', 'dist/worker.js', 'dist/cli/main.js', 'dist/web/index.html']
 export const STAMP = 'dist/.build-stamp.json'
 
 function listFiles (root, entry) {

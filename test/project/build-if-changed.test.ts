@@ -6,6 +6,8 @@
 import { mkdir, mkdtemp, rm, utimes, writeFile } from 'node:fs/promises'
 import { tmpdir } from 'node:os'
 import { dirname, join } from 'node:path'
+import { existsSync } from 'node:fs'
+import { fileURLToPath } from 'node:url'
 import { afterEach, beforeEach, describe, expect, it } from 'vitest'
 import { BUILD_INPUTS, BUILD_OUTPUTS, buildFingerprint, buildIfChanged } from '../../scripts/build-if-changed.mjs'
 
@@ -13,6 +15,16 @@ async function put (root: string, file: string, text: string): Promise<void> {
   await mkdir(dirname(join(root, file)), { recursive: true })
   await writeFile(join(root, file), text)
 }
+
+describe('the outputs a complete build leaves', () => {
+  it('are files the build writes: each compiled entry has its source (a wrong name rebuilt on every start)', () => {
+    const project = (file: string): string => fileURLToPath(new URL(`../../${file}`, import.meta.url))
+    for (const output of BUILD_OUTPUTS) {
+      const source = output === 'dist/web/index.html' ? 'web/static/index.html' : output.replace(/^dist\//, 'src/').replace(/\.js$/, '.ts')
+      expect(existsSync(project(source)), `${output} comes from ${source}`).toBe(true)
+    }
+  })
+})
 
 describe('build only when something changed', () => {
   let root: string
