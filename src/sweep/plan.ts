@@ -99,17 +99,27 @@ export interface ReusableRange {
   count: number
 }
 
+/** Where an inherited chunk's trials are stored: a whole stored chunk, or (with `skip`) a run of trials inside one. */
+export interface InheritSource {
+  sweepId: string
+  chunkIndex: number
+  /** Trials of the stored chunk before the inherited ones; absent when the whole stored chunk is taken. */
+  skip?: number
+}
+
 export interface PlanWithReuse {
   plan: SweepPlan
   /** Chunks of the plan whose trials an earlier sweep holds already: copy, do not compute. */
-  inherit: Array<{ chunk: Chunk, from: { sweepId: string, chunkIndex: number } }>
+  inherit: Array<{ chunk: Chunk, from: InheritSource }>
 }
 
 /**
  * The plan of a grid sweep that takes every trial it can from earlier sweeps: for each point,
- * walking from trial 0, a stored range that starts exactly there (the longest that fits) is
- * inherited as one chunk; trials no stored range starts at are planned as usual up to the
- * next stored range. Every trial is covered exactly once, so the result is that of a fresh run.
+ * walking from trial 0, the stored range that holds the trial reached and runs furthest is
+ * inherited, whole or (when it starts earlier or ends beyond the sweep's trials) the part of
+ * it from there on, as one chunk; trials no stored range holds are planned as usual up to the
+ * next stored range. Every trial is covered exactly once, and a trial's record depends on its
+ * index only, so the result is that of a fresh run.
  */
 export function planWithReuse (spec: NormalisedSpec, available: (point: number) => readonly ReusableRange[]): PlanWithReuse {
   if (spec.analysis !== undefined || spec.streams === 'canonical') return { plan: planSweep(spec), inherit: [] }
@@ -117,15 +127,19 @@ export function planWithReuse (spec: NormalisedSpec, available: (point: number) 
   const inherit: PlanWithReuse['inherit'] = []
   const trials = initialTrials(spec)
   for (let point = 0; point < countPoints(spec); point++) {
-    const ranges = available(point).filter((range) => range.count >= 1 && range.firstTrial >= 0 && range.firstTrial + range.count <= trials)
+    const ranges = available(point).filter((range) => Number.isSafeInteger(range.count) && range.count >= 1 && Number.isSafeInteger(range.firstTrial) && range.firstTrial >= 0)
+    const end = (range: ReusableRange): number => Math.min(trials, range.firstTrial + range.count)
     let at = 0
     while (at < trials) {
-      const here = ranges.filter((range) => range.firstTrial === at).sort((a, b) => b.count - a.count || a.sweepId.localeCompare(b.sweepId) || a.chunkIndex - b.chunkIndex)[0]
+      // A whole stored chunk before a part of one (a copy is cheaper than a slice), then the furthest reaching.
+      const whole = (range: ReusableRange): boolean => range.firstTrial === at && range.firstTrial + range.count <= trials
+      const here = ranges.filter((range) => range.firstTrial <= at && at < range.firstTrial + range.count)
+        .sort((a, b) => end(b) - end(a) || Number(whole(b)) - Number(whole(a)) || a.sweepId.localeCompare(b.sweepId) || a.chunkIndex - b.chunkIndex)[0]
       if (here !== undefined) {
-        const chunk = { index: chunks.length, point, firstTrial: at, count: here.count }
+        const chunk = { index: chunks.length, point, firstTrial: at, count: end(here) - at }
         chunks.push(chunk)
-        inherit.push({ chunk, from: { sweepId: here.sweepId, chunkIndex: here.chunkIndex } })
-        at += here.count
+        inherit.push({ chunk, from: whole(here) ? { sweepId: here.sweepId, chunkIndex: here.chunkIndex } : { sweepId: here.sweepId, chunkIndex: here.chunkIndex, skip: at - here.firstTrial } })
+        at = end(here)
         continue
       }
       const next = Math.min(trials, ...ranges.filter((range) => range.firstTrial > at).map((range) => range.firstTrial))

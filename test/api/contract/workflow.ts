@@ -93,6 +93,24 @@ export function workflowContract (factory: QueueFactory): void {
       expect(gate.ranForSeed(seed).trials).toBe(16 + 8)
     })
 
+    it('a new sweep with fewer trials takes them from inside the stored chunks, with the rows of a fresh run', async () => {
+      const seed = 7108
+      const first = await submit({ ...wingSpec(seed), trials: 20 })
+      await h.waitFor(first, succeeded)
+      expect(gate.ranForSeed(seed).trials).toBe(2 * 20)
+      const fewer = await submit({ ...wingSpec(seed), trials: 6 })
+      const done = await h.waitFor(fewer, succeeded)
+      expect(done.reused).toEqual({ points: 2, trials: 12 })
+      expect(gate.ranForSeed(seed).trials).toBe(2 * 20)
+      const fresh = await submit({ ...wingSpec(seed), trials: 6 }, '?reusePoints=false')
+      await h.waitFor(fresh, succeeded)
+      expect(gate.ranForSeed(seed).trials).toBe(2 * 20 + 2 * 6)
+      expect(await rowsOf(fewer)).toBe(await rowsOf(fresh))
+      // The slices are this sweep's own chunks: a later sweep takes them like any other.
+      const again = await submit({ ...wingSpec(seed), trials: 6, label: 'rooms of the east wing, again' })
+      expect((await h.waitFor(again, succeeded)).reused).toEqual({ points: 2, trials: 12 })
+    })
+
     it('serves the finished points of a running sweep, then of the canceled sweep; resume computes only what is left, with monotone progress throughout', async () => {
       const seed = 7104
       const seen: Array<SweepRecord['progress']> = []
