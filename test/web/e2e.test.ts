@@ -3,7 +3,7 @@
  * (buildApp + the embedded backend on 127.0.0.1). Submits an example and follows it to 100 %,
  * reads the figure, downloads the CSV, cancels a running sweep, shows a validation error at
  * its field, overlays two sweeps, and asks for a token that never reaches a URL or a log.
- * Screenshots go to test/artifacts/web/ (git-ignored) for people to look at.
+ * Screenshots go to <MEMSWEEP_TEST_ARTIFACTS>/web/ for people to look at (helpers/browser.ts).
  */
 import { mkdirSync, readFileSync } from 'node:fs'
 import { join } from 'node:path'
