@@ -635,6 +635,20 @@ export type components = {
             theoryUnavailable: {
                 [key: string]: components["schemas"]["TheoryUnavailableReason"];
             };
+            /** @description With precision targets only (docs/workflow.md): how far this point's interval narrowed. */
+            precision?: {
+                /**
+                 * @description The measure whose 95 % interval the target narrows.
+                 * @enum {string}
+                 */
+                measure: "success" | "overlap";
+                /** @description The half-width asked for (spec `precision.halfWidth`). */
+                target: number;
+                /** @description The half-width this point reached with its trials (`summary.trials`): Wilson's interval for success, 1.96·se for the overlap. */
+                halfWidth: number;
+                /** @description Whether the point reached the target; false when it stopped at the trial ceiling. */
+                met: boolean;
+            };
         };
         ScalingRow: {
             /** @description The varied parameters other than neurons shared by this fit's searches ({} when only N varies); a rule axis gives the rule's label. */
@@ -796,9 +810,9 @@ export type components = {
             extends: string | null;
             /** @description What this sweep took from the owner's earlier sweeps (its parent, for an extension) instead of computing. */
             reused: {
-                /** @description Grid points whose every trial was taken from earlier sweeps of the owner instead of computed. */
+                /** @description Grid points whose every trial planned at submission was taken from earlier sweeps of the owner instead of computed (with precision targets: the first block). */
                 points: number;
-                /** @description Trials taken from earlier sweeps of the owner (same model parameters, seed and trial index: exactly the records a fresh run computes). */
+                /** @description Trials taken from earlier sweeps of the owner (same model parameters, seed and trial index: exactly the records a fresh run computes), at submission and, with precision targets, in later blocks. */
                 trials: number;
             };
             /** @description Tags to find the sweep by (PATCH to change; list with ?tag=). */
@@ -856,9 +870,9 @@ export type components = {
             extends: string | null;
             /** @description What this sweep took from the owner's earlier sweeps (its parent, for an extension) instead of computing. */
             reused: {
-                /** @description Grid points whose every trial was taken from earlier sweeps of the owner instead of computed. */
+                /** @description Grid points whose every trial planned at submission was taken from earlier sweeps of the owner instead of computed (with precision targets: the first block). */
                 points: number;
-                /** @description Trials taken from earlier sweeps of the owner (same model parameters, seed and trial index: exactly the records a fresh run computes). */
+                /** @description Trials taken from earlier sweeps of the owner (same model parameters, seed and trial index: exactly the records a fresh run computes), at submission and, with precision targets, in later blocks. */
                 trials: number;
             };
             /** @description Tags to find the sweep by (PATCH to change; list with ?tag=). */

@@ -28,6 +28,7 @@ export { SWEEP_ID_MAX_LENGTH, SWEEP_ID_PATTERN, isSweepId, newSweepId } from './
 export { planWithReuse, pointPieces, initialTrials, type ReusableRange, type PlanWithReuse } from './plan.js'
 export { reuseKeysOf } from './reuse.js'
 export { decidePoint, precisionHalfWidth, precisionOutcome, type PointDecision } from './precision.js'
+export { applyBlock, type AppliedBlock } from './blocks.js'
 export { pointRecords } from './assemble.js'
 export { readChunks, readEncodedResult, readResult, readStoredProgress, readTrials, READ_SLICE_BYTES, READ_SLICE_CHUNKS, type EncodedResult, type StoredProgress } from './read.js'
 export { chunkCpuSeconds } from './chunk-cost.js'

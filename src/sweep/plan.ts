@@ -114,12 +114,9 @@ export interface PlanWithReuse {
 }
 
 /**
- * The plan of a grid sweep that takes every trial it can from earlier sweeps: for each point,
- * walking from trial 0, the stored range that holds the trial reached and runs furthest is
- * inherited, whole or (when it starts earlier or ends beyond the sweep's trials) the part of
- * it from there on, as one chunk; trials no stored range holds are planned as usual up to the
- * next stored range. Every trial is covered exactly once, and a trial's record depends on its
- * index only, so the result is that of a fresh run.
+ * The plan of a grid sweep that takes every trial it can from earlier sweeps: each point's
+ * trials are covered by coverWithReuse. Every trial is covered exactly once, and a trial's
+ * record depends on its index only, so the result is that of a fresh run.
  */
 export function planWithReuse (spec: NormalisedSpec, available: (point: number) => readonly ReusableRange[]): PlanWithReuse {
   if (spec.analysis !== undefined || spec.streams === 'canonical') return { plan: planSweep(spec), inherit: [] }
@@ -127,27 +124,45 @@ export function planWithReuse (spec: NormalisedSpec, available: (point: number) 
   const inherit: PlanWithReuse['inherit'] = []
   const trials = initialTrials(spec)
   for (let point = 0; point < countPoints(spec); point++) {
-    const ranges = available(point).filter((range) => Number.isSafeInteger(range.count) && range.count >= 1 && Number.isSafeInteger(range.firstTrial) && range.firstTrial >= 0)
-    const end = (range: ReusableRange): number => Math.min(trials, range.firstTrial + range.count)
-    let at = 0
-    while (at < trials) {
-      // A whole stored chunk before a part of one (a copy is cheaper than a slice), then the furthest reaching.
-      const whole = (range: ReusableRange): boolean => range.firstTrial === at && range.firstTrial + range.count <= trials
-      const here = ranges.filter((range) => range.firstTrial <= at && at < range.firstTrial + range.count)
-        .sort((a, b) => end(b) - end(a) || Number(whole(b)) - Number(whole(a)) || a.sweepId.localeCompare(b.sweepId) || a.chunkIndex - b.chunkIndex)[0]
-      if (here !== undefined) {
-        const chunk = { index: chunks.length, point, firstTrial: at, count: end(here) - at }
-        chunks.push(chunk)
-        inherit.push({ chunk, from: whole(here) ? { sweepId: here.sweepId, chunkIndex: here.chunkIndex } : { sweepId: here.sweepId, chunkIndex: here.chunkIndex, skip: at - here.firstTrial } })
-        at = end(here)
-        continue
-      }
-      const next = Math.min(trials, ...ranges.filter((range) => range.firstTrial > at).map((range) => range.firstTrial))
-      for (const piece of pointPieces(spec, point, at, next)) chunks.push({ index: chunks.length, point, ...piece })
-      at = next
+    for (const { from, ...piece } of coverWithReuse(spec, point, 0, trials, available(point))) {
+      const chunk = { index: chunks.length, point, ...piece }
+      chunks.push(chunk)
+      if (from !== undefined) inherit.push({ chunk, from })
     }
   }
   return { plan: { version: PLAN_VERSION, chunks }, inherit }
+}
+
+/**
+ * Runs of trials covering [from, to) of a point, in order, taking stored trials where there are
+ * some: walking from `from`, the stored range that holds the trial reached and runs furthest is
+ * taken, whole or (when it starts earlier or ends beyond `to`) the part of it from there on;
+ * trials no stored range holds are cut as usual (pointPieces) up to the next stored range.
+ */
+export function coverWithReuse (spec: NormalisedSpec, point: number, from: number, to: number, available: readonly ReusableRange[]): Array<{ firstTrial: number, count: number, from?: InheritSource }> {
+  const ranges = available.filter((range) => Number.isSafeInteger(range.count) && range.count >= 1 && Number.isSafeInteger(range.firstTrial) && range.firstTrial >= 0)
+  const end = (range: ReusableRange): number => Math.min(to, range.firstTrial + range.count)
+  const pieces: Array<{ firstTrial: number, count: number, from?: InheritSource }> = []
+  let at = from
+  while (at < to) {
+    // The furthest reaching first, then a whole stored chunk before a part of one (a copy is cheaper than a slice).
+    const whole = (range: ReusableRange): boolean => range.firstTrial === at && range.firstTrial + range.count <= to
+    const here = ranges.filter((range) => range.firstTrial <= at && at < range.firstTrial + range.count)
+      .sort((a, b) => end(b) - end(a) || Number(whole(b)) - Number(whole(a)) || a.sweepId.localeCompare(b.sweepId) || a.chunkIndex - b.chunkIndex)[0]
+    if (here !== undefined) {
+      pieces.push({
+        firstTrial: at,
+        count: end(here) - at,
+        from: whole(here) ? { sweepId: here.sweepId, chunkIndex: here.chunkIndex } : { sweepId: here.sweepId, chunkIndex: here.chunkIndex, skip: at - here.firstTrial }
+      })
+      at = end(here)
+      continue
+    }
+    const next = Math.min(to, ...ranges.filter((range) => range.firstTrial > at).map((range) => range.firstTrial))
+    pieces.push(...pointPieces(spec, point, at, next))
+    at = next
+  }
+  return pieces
 }
 
 function searchChunks (spec: NormalisedSpec): Chunk[] {

@@ -70,6 +70,11 @@ export interface SweepDraft {
   openPoints?: number[]
   /** POST an event here on each terminal state (src/sweep/callbacks.ts). */
   callbackUrl?: string | null
+  /**
+   * Whether the sweep takes stored trials of the owner's earlier sweeps, at submission and for
+   * the later blocks of a precision target (`?reusePoints=false` says no). @defaultValue true
+   */
+  reusePoints?: boolean
 }
 
 /** What a caller may change of a stored sweep's description. */
@@ -190,8 +195,10 @@ export interface SweepStore extends CallbackOutbox {
 
   /** Changes the label, tags or notes; returns the record after the change (null: unknown sweep). */
   annotate (id: string, patch: Annotation): Promise<SweepRecord | null>
-  /** Records what submission took from earlier sweeps (after its chunks were inherited). */
+  /** Adds what the sweep took from earlier sweeps (at submission, and with each precision block) to its counts. */
   recordReuse (id: string, reused: { points: number, trials: number }): Promise<void>
+  /** Whether the sweep takes stored trials of earlier sweeps (SweepDraft.reusePoints); false for an unknown sweep. */
+  reusesPoints (id: string): Promise<boolean>
   /** Removes a finished sweep and everything stored for it; false (and nothing removed) for an active or unknown one. */
   purge (id: string): Promise<boolean>
   /**

@@ -5,9 +5,8 @@
  * (its scheduler, or chunk jobs).
  */
 import { countPoints, replicateKey, specHash, type NormalisedSpec } from '../spec/index.js'
-import { decodeValue, encodeValue } from './codec.js'
-import type { ChunkResult } from './compute-chunk.js'
-import { planWithReuse, type Chunk, type InheritSource, type SweepPlan } from './plan.js'
+import { inheritStored } from './inherit.js'
+import { planWithReuse, type Chunk, type SweepPlan } from './plan.js'
 import { reuseKeysOf } from './reuse.js'
 import type { CreateOutcome, IdempotencyBinding, SweepStore } from './store.js'
 
@@ -66,6 +65,7 @@ export async function submitToStore (store: SweepStore, request: SubmitRequest):
     ...(request.tags === undefined ? {} : { tags: request.tags }),
     ...(request.notes === undefined ? {} : { notes: request.notes }),
     ...(request.callbackUrl === undefined ? {} : { callbackUrl: request.callbackUrl }),
+    ...(request.reusePoints === false ? { reusePoints: false } : {}),
     ...(spec.precision === undefined ? {} : { openPoints: Array.from({ length: countPoints(spec) }, (_, point) => point) })
   }, {
     ...(request.idempotency === undefined ? {} : { idempotency: request.idempotency }),
@@ -82,9 +82,7 @@ export async function submitToStore (store: SweepStore, request: SubmitRequest):
   const inheritedOfPoint = new Map<number, number>()
   let trials = 0
   for (const { chunk, from } of inherit) {
-    const outcome = from.skip === undefined
-      ? await store.inheritChunk(request.id, chunk, from, request.createdMs)
-      : await inheritSlice(store, request.id, chunk, from, request.createdMs)
+    const outcome = await inheritStored(store, request.id, chunk, from, request.createdMs)
     if (outcome === null || !outcome.stored) continue
     trials += chunk.count
     inheritedOfPoint.set(chunk.point, (inheritedOfPoint.get(chunk.point) ?? 0) + 1)
@@ -107,20 +105,4 @@ export async function submitToStore (store: SweepStore, request: SubmitRequest):
     duePoints: [...dueAfterInherit].filter((point) => open.has(point)).sort((a, b) => a - b),
     reused
   }
-}
-
-/**
- * Stores, as this sweep's chunk, the run of trials it needs from inside another sweep's stored
- * chunk: that chunk's records from `skip` on, as many as the chunk holds, re-encoded under the
- * new chunk's index. Null when the source is gone or holds other trials (left to compute).
- */
-async function inheritSlice (store: SweepStore, id: string, chunk: Chunk, from: InheritSource, nowMs: number): Promise<Awaited<ReturnType<SweepStore['recordChunk']>> | null> {
-  const [stored] = await store.chunksBetween(from.sweepId, from.chunkIndex, 1)
-  if (stored === undefined || stored.index !== from.chunkIndex) return null
-  const source = decodeValue<ChunkResult>(stored.body)
-  const skip = from.skip ?? 0
-  const trials = source.trials.slice(skip, skip + chunk.count)
-  if (source.point === undefined || trials.length !== chunk.count || source.search !== undefined) return null
-  const slice: ChunkResult = { ...source, chunk: chunk.index, point: chunk.point, trials }
-  return await store.recordChunk(id, chunk, encodeValue(slice), 0, nowMs)
 }

@@ -382,6 +382,20 @@ export function storeContract (name: string, factory: StoreFactory): void {
       expect((await store.get('dst'))!.progress).toMatchObject({ chunksDone: 1, trialsDone: 4 })
       await store.recordReuse('dst', { points: 0, trials: 4 })
       expect((await store.get('dst'))!.reused).toEqual({ points: 0, trials: 4 })
+      // Later precision blocks add to the counts.
+      await store.recordReuse('dst', { points: 1, trials: 3 })
+      expect((await store.get('dst'))!.reused).toEqual({ points: 1, trials: 7 })
+      // Counting on a sweep that is gone brings nothing back.
+      await store.recordReuse('gone', { points: 0, trials: 5 })
+      expect(await store.get('gone')).toBeNull()
+    })
+
+    it('keeps whether a sweep takes stored trials of earlier sweeps, for its later precision blocks', async () => {
+      await store.create(draft('takes'))
+      await store.create({ ...draft('fresh'), reusePoints: false })
+      expect(await store.reusesPoints('takes')).toBe(true)
+      expect(await store.reusesPoints('fresh')).toBe(false)
+      expect(await store.reusesPoints('missing')).toBe(false)
     })
 
     it('grows an open point\'s plan block by block and completes only when every point is closed', async () => {

@@ -109,7 +109,13 @@ export const resultRowSchema = z.object({
   }),
   summary: pointSummarySchema,
   theory: z.record(z.string(), stat).describe('Theory values that hold at this point, by name; {} when none does.'),
-  theoryUnavailable: theoryUnavailableSchema
+  theoryUnavailable: theoryUnavailableSchema,
+  precision: z.object({
+    measure: z.enum(['success', 'overlap']).describe('The measure whose 95 % interval the target narrows.'),
+    target: z.number().describe('The half-width asked for (spec `precision.halfWidth`).'),
+    halfWidth: z.number().describe('The half-width this point reached with its trials (`summary.trials`): Wilson\'s interval for success, 1.96·se for the overlap.'),
+    met: z.boolean().describe('Whether the point reached the target; false when it stopped at the trial ceiling.')
+  }).optional().describe('With precision targets only (docs/workflow.md): how far this point\'s interval narrowed.')
 }).meta({ id: 'ResultRow' })
 
 export const trialRecordSchema = z.object({

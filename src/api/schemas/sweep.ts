@@ -57,8 +57,8 @@ export const sweepSchema = z.object({
   reusedFrom: z.string().nullable().describe('Id of the earlier identical sweep whose results this one reuses, if any.'),
   extends: z.string().nullable().describe('Id of the sweep this one extends (POST /v1/sweeps/{id}/extend), if any.'),
   reused: z.object({
-    points: z.number().int().nonnegative().describe('Grid points whose every trial was taken from earlier sweeps of the owner instead of computed.'),
-    trials: z.number().int().nonnegative().describe('Trials taken from earlier sweeps of the owner (same model parameters, seed and trial index: exactly the records a fresh run computes).')
+    points: z.number().int().nonnegative().describe('Grid points whose every trial planned at submission was taken from earlier sweeps of the owner instead of computed (with precision targets: the first block).'),
+    trials: z.number().int().nonnegative().describe('Trials taken from earlier sweeps of the owner (same model parameters, seed and trial index: exactly the records a fresh run computes), at submission and, with precision targets, in later blocks.')
   }).describe('What this sweep took from the owner\'s earlier sweeps (its parent, for an extension) instead of computing.'),
   tags: z.array(z.string()).describe('Tags to find the sweep by (PATCH to change; list with ?tag=).'),
   notes: z.string().nullable().describe('Free notes (PATCH to change; searched by ?q=).'),

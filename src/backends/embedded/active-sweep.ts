@@ -84,11 +84,15 @@ export class ActiveSweep {
     if (closed) this.#open.delete(point)
   }
 
-  /** Chunks appended to the stored plan for an open point: they wait after everything planned before. */
-  append (chunks: readonly Chunk[]): void {
+  /**
+   * Chunks appended to the stored plan for an open point: they wait after everything planned
+   * before, except those stored already (`stored`: trials taken from earlier sweeps).
+   */
+  append (chunks: readonly Chunk[], stored: readonly number[] = []): void {
     for (const chunk of chunks) {
       this.plan[chunk.index] = chunk
-      this.#pending.push(chunk.index)
+      if (stored.includes(chunk.index)) this.#done.add(chunk.index)
+      else this.#pending.push(chunk.index)
     }
   }
 

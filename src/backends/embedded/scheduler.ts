@@ -7,7 +7,7 @@
  */
 import type { Logger } from 'pino'
 import {
-  systemCauseOf, systemFailure, userFailure, THREAD_CRASH_ERROR_NAME, THREAD_OUT_OF_MEMORY_ERROR_NAME,
+  applyBlock, systemCauseOf, systemFailure, userFailure, THREAD_CRASH_ERROR_NAME, THREAD_OUT_OF_MEMORY_ERROR_NAME,
   type SweepFailure, type SystemCause
 } from '../../sweep/index.js'
 import { ActiveSweep } from './active-sweep.js'
@@ -209,10 +209,11 @@ export class ChunkScheduler {
         this.#store.closePointNow(sweep.id, point)
         sweep.decided(point, true)
       } else {
-        const appended = await this.#store.extendPoint(sweep.id, point, decision.fromTrial, decision.pieces)
-        if (appended !== null) sweep.append(appended)
+        // The block's trials that earlier sweeps hold are taken (stored already), the rest computed.
+        const block = await applyBlock(this.#store, sweep.id, sweep.spec, point, decision, Date.now())
+        if (block.appended !== null) sweep.append(block.appended, block.taken.map((chunk) => chunk.index))
         // Nothing appended: the point was closed meanwhile (or its plan moved on); never ask again for it then.
-        sweep.decided(point, appended === null && !(await this.#store.openPoints(sweep.id)).includes(point))
+        sweep.decided(point, block.appended === null && !(await this.#store.openPoints(sweep.id)).includes(point))
       }
     } catch (error) {
       // Storing a decision failed: left as it was, the point would stay marked as being decided

@@ -111,6 +111,11 @@ const MIGRATIONS: readonly string[] = [
     due_ms       INTEGER
   ) WITHOUT ROWID;
   CREATE INDEX sweep_callbacks_due ON sweep_callbacks (due_ms) WHERE state = 'pending';
+  `,
+  // Version 5: whether a sweep takes stored trials of earlier sweeps, kept for the later blocks
+  // of its precision targets (decided while it runs). Sweeps stored before: yes, the default.
+  `
+  ALTER TABLE sweeps ADD COLUMN reuse_points INTEGER NOT NULL DEFAULT 1;
   `
 ]
 

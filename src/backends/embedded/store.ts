@@ -218,7 +218,8 @@ export class SqliteSweepStore implements SweepStore {
         replicate_key: draft.replicateKey,
         reused_points: done ? points : 0,
         reused_trials: done ? trialsTotal : 0,
-        open_points_json: JSON.stringify(done ? [] : draft.openPoints ?? [])
+        open_points_json: JSON.stringify(done ? [] : draft.openPoints ?? []),
+        reuse_points: draft.reusePoints === false ? 0 : 1
       })
       if (done) {
         // Its own copy of the data: either sweep can be removed without the other losing anything.
@@ -547,6 +548,11 @@ export class SqliteSweepStore implements SweepStore {
     this.#statements.recordReuse.run(reused.points, reused.trials, id)
   }
 
+  async reusesPoints (id: string): Promise<boolean> {
+    const row = this.#statements.reusesPoints.get(id) as { reuse_points: number } | undefined
+    return row !== undefined && row.reuse_points === 1
+  }
+
   async purge (id: string): Promise<boolean> {
     return this.#db.transaction((): boolean => {
       const status = this.#status(id)
@@ -744,10 +750,11 @@ function prepareStatements (db: Database.Database) {
     insertSweep: db.prepare(`
       INSERT INTO sweeps (id, owner, label, spec_hash, spec_json, plan_json, status, created_ms, started_ms, finished_ms,
         points_total, trials_total, chunks_total, points_done, trials_done, chunks_done, reused_from,
-        extends, tags_json, notes, replicate_key, reused_points, reused_trials, open_points_json)
+        extends, tags_json, notes, replicate_key, reused_points, reused_trials, open_points_json, reuse_points)
       VALUES (@id, @owner, @label, @spec_hash, @spec_json, @plan_json, @status, @created_ms, @started_ms, @finished_ms,
         @points_total, @trials_total, @chunks_total, @points_done, @trials_done, @chunks_done, @reused_from,
-        @extends, @tags_json, @notes, @replicate_key, @reused_points, @reused_trials, @open_points_json)`),
+        @extends, @tags_json, @notes, @replicate_key, @reused_points, @reused_trials, @open_points_json, @reuse_points)`),
+    reusesPoints: db.prepare('SELECT reuse_points FROM sweeps WHERE id = ?'),
     getSweep: db.prepare(`${SWEEP_WITH_CALLBACK} WHERE s.id = ?`),
     insertCallback: db.prepare('INSERT INTO sweep_callbacks (sweep_id, url) VALUES (?, ?)'),
     armCallback: db.prepare(`
@@ -850,7 +857,7 @@ function prepareStatements (db: Database.Database) {
         tags_json = CASE WHEN @set_tags = 1 THEN @tags_json ELSE tags_json END,
         notes = CASE WHEN @set_notes = 1 THEN @notes ELSE notes END
       WHERE id = @id`),
-    recordReuse: db.prepare('UPDATE sweeps SET reused_points = ?, reused_trials = ? WHERE id = ?'),
+    recordReuse: db.prepare('UPDATE sweeps SET reused_points = reused_points + ?, reused_trials = reused_trials + ? WHERE id = ?'),
     // Its own result first; a reuse stored by an earlier release has none and reads its original's.
     resultFor: db.prepare(`
       SELECT r.codec, r.body FROM sweep_results r JOIN sweeps s ON s.id = r.sweep_id

@@ -34,6 +34,13 @@ export interface SweepWorkView {
 /** How many index entries one listing round trip reads. */
 const LIST_BATCH = 100
 
+const ADD_REUSE = `
+if redis.call('EXISTS', KEYS[1]) == 1 then
+  redis.call('HINCRBY', KEYS[1], 'reusedPoints', ARGV[1])
+  redis.call('HINCRBY', KEYS[1], 'reusedTrials', ARGV[2])
+end
+return 0`
+
 export class RedisSweepStore implements SweepStore {
   constructor (
     readonly redis: Redis,
@@ -72,6 +79,7 @@ export class RedisSweepStore implements SweepStore {
       'replicateKey', draft.replicateKey,
       'reusedPoints', '0',
       'reusedTrials', '0',
+      'reusePoints', draft.reusePoints === false ? '0' : '1',
       // Purge removes the key's binding to this sweep, found from here.
       'idempotencyRef', options.idempotency === undefined ? '' : idempotencyKey,
       ...(draft.callbackUrl === undefined || draft.callbackUrl === null ? [] : ['callbackUrl', draft.callbackUrl, 'callbackState', 'waiting', 'callbackAttempts', '0', 'callbackGen', '0'])
@@ -281,7 +289,14 @@ export class RedisSweepStore implements SweepStore {
 
   async recordReuse (id: string, reused: { points: number, trials: number }): Promise<void> {
     const record = this.keys.sweep(id).record
-    if (await this.redis.exists(record) === 1) await this.redis.hset(record, 'reusedPoints', String(reused.points), 'reusedTrials', String(reused.trials))
+    // In one script: a sweep purged meanwhile must not come back as a stub record.
+    await this.redis.eval(ADD_REUSE, 1, record, String(reused.points), String(reused.trials))
+  }
+
+  async reusesPoints (id: string): Promise<boolean> {
+    // Sweeps stored before the field existed took stored trials.
+    const value = await this.redis.hget(this.keys.sweep(id).record, 'reusePoints')
+    return value === '1' || (value === null && await this.redis.exists(this.keys.sweep(id).record) === 1)
   }
 
   /** How often the sweep was resumed: its jobs' ids carry it (keys.ts chunkJobId). */

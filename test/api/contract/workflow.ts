@@ -111,6 +111,27 @@ export function workflowContract (factory: QueueFactory): void {
       expect((await h.waitFor(again, succeeded)).reused).toEqual({ points: 2, trials: 12 })
     })
 
+    it('a precision-targeted sweep takes every block an earlier sweep computed, with the rows of a fresh run', async () => {
+      const seed = 7109
+      const coarse = await submit({ ...wingSpec(seed), trials: 50 })
+      await h.waitFor(coarse, succeeded)
+      expect(gate.ranForSeed(seed).trials).toBe(2 * 50)
+      const target = { ...wingSpec(seed), label: 'rooms of the east wing to ±0.08', trials: 50, precision: { measure: 'success', halfWidth: 0.08, block: 10 } }
+      const precise = await submit(target)
+      const done = await h.waitFor(precise, succeeded)
+      const rows = (await h.request({ method: 'GET', url: `/v1/sweeps/${precise}/results` })).json().rows as Array<{ summary: { trials: number } }>
+      const trials = rows.map((row) => row.summary.trials)
+      // Later blocks were decided on and taken too, not only the first.
+      expect(Math.max(...trials)).toBeGreaterThan(10)
+      expect(done.reused.trials).toBe(trials.reduce((a, b) => a + b, 0))
+      expect(gate.ranForSeed(seed).trials).toBe(2 * 50)
+      // A sweep that opts out computes every block, and both have the same rows.
+      const fresh = await submit(target, '?reusePoints=false')
+      expect((await h.waitFor(fresh, succeeded)).reused.trials).toBe(0)
+      expect(gate.ranForSeed(seed).trials).toBe(2 * 50 + trials.reduce((a, b) => a + b, 0))
+      expect(await rowsOf(precise)).toBe(await rowsOf(fresh))
+    })
+
     it('serves the finished points of a running sweep, then of the canceled sweep; resume computes only what is left, with monotone progress throughout', async () => {
       const seed = 7104
       const seen: Array<SweepRecord['progress']> = []

@@ -14,7 +14,7 @@ import { UnrecoverableError, WaitingError, type SandboxedJob } from 'bullmq'
 import type { Redis } from 'ioredis'
 import { specHash, type NormalisedSpec } from '../../../spec/index.js'
 import {
-  assembleResult, assembleStored, chunkCpuSeconds, classifyChunkError, decidePoint, decodeValue, encodeValue, isTerminal, makeProvenance, pointRecords, runChunk, systemCauseOf,
+  applyBlock, assembleResult, assembleStored, chunkCpuSeconds, classifyChunkError, decidePoint, decodeValue, encodeValue, isTerminal, makeProvenance, pointRecords, runChunk, systemCauseOf,
   systemFailure, userFailure, type ChunkResult, type ChunkRunOutcome
 } from '../../../sweep/index.js'
 import type { SweepResult } from '../../../results/index.js'
@@ -130,8 +130,15 @@ async function decide (context: SandboxContext, job: SandboxedJob<DecideJobData>
     const closed = await store.closePoint(sweepId, point)
     if (closed.complete) await chunks.enqueueAssembly(sweepId, job.data.specHash, plan.chunks.length, job.data.run)
   } else {
-    const appended = await store.extendPoint(sweepId, point, decision.fromTrial, decision.pieces)
-    if (appended !== null) await chunks.enqueueChunks(sweepId, job.data.specHash, spec, appended, plan.chunks.length + appended.length, job.data.run)
+    // The block's trials that earlier sweeps hold are taken (stored already), the rest computed.
+    const block = await applyBlock(store, sweepId, spec, point, decision, Date.now())
+    if (block.appended !== null) {
+      const chunksTotal = plan.chunks.length + block.appended.length
+      if (block.toCompute.length > 0) await chunks.enqueueChunks(sweepId, job.data.specHash, spec, block.toCompute, chunksTotal, job.data.run)
+      const extent = block.appended.reduce((end, chunk) => Math.max(end, chunk.firstTrial + chunk.count), 0)
+      // The whole block was taken: nothing will run to ask for the next decision, so ask now.
+      if (block.pointDue) await chunks.enqueueDecision(sweepId, job.data.specHash, point, extent, chunksTotal, job.data.run)
+    }
   }
   await publishSweepEvent(context.redis, context.keys, sweepId, 'progress')
   return { outcome: 'decided', point, close: decision.kind === 'close' }
