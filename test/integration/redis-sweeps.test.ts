@@ -9,7 +9,8 @@ import { createRedisQueue } from '../../src/backends/redis/index.js'
 import { keyLayout } from '../../src/backends/redis/keys.js'
 import { RedisSweepStore } from '../../src/backends/redis/store.js'
 import { replicateKey, specHash, type NormalisedSpec } from '../../src/spec/index.js'
-import { planSweep, type SweepDraft } from '../../src/sweep/index.js'
+import { decidePoint, planSweep, pointRecords, runChunk, type StoredChunk, type SweepDraft } from '../../src/sweep/index.js'
+import { ChunkQueue } from '../../src/backends/redis/chunk-queue.js'
 import { startWorker, type RunningWorker } from '../../src/backends/redis/worker/worker.js'
 import {
   computeInProcess, corridorSpec, quietLogger, REDIS_URL, redisAvailable, removePrefix, fullResult, resultBytes, roomCodesSpec,
@@ -180,6 +181,47 @@ describe.runIf(available)('Redis backend: sweeps through the queue port', () => 
       expect((await waitForTerminal(queue, retried)).status).toBe('succeeded')
       expect(resultBytes(await fullResult(queue, retried))).toBe(resultBytes(computeInProcess(retriedSpec)))
     } finally {
+      redis.disconnect()
+    }
+  })
+
+  it('finishes a precision sweep whose worker died after applying a decision and before queueing its block', async () => {
+    const redis = new Redis(REDIS_URL)
+    const store = new RedisSweepStore(redis, keyLayout(prefix), 3600)
+    const chunkQueue = new ChunkQueue(redis, keyLayout(prefix))
+    try {
+      // Room codes to a target no point meets before the ceiling: three blocks each.
+      const spec = roomCodesSpec({ seed: 44, trials: 60, precision: { measure: 'success', halfWidth: 0.001, block: 20 } })
+      const { id } = await queue.submit({ spec, owner: null, reusePoints: false })
+      // What the dying worker left: the first blocks stored, each point's decision applied to the
+      // stored plan, its block's jobs never added; BullMQ then runs the stalled decision again.
+      const plan = (await store.plan(id))!
+      const stored: StoredChunk[] = []
+      for (const chunk of plan.chunks) {
+        const outcome = runChunk(spec, chunk, { shouldStop: () => false })
+        if (outcome.kind !== 'done') throw new Error(`chunk ${chunk.index}: ${outcome.kind}`)
+        await store.recordChunk(id, chunk, outcome.body, 1, Date.now())
+        stored.push({ index: chunk.index, body: outcome.body })
+      }
+      for (const point of [0, 1, 2]) {
+        const planned = plan.chunks.filter((chunk) => chunk.point === point)
+        const decision = decidePoint(spec, point, pointRecords(spec, planned, stored, point))
+        expect(decision.kind).toBe('extend')
+        if (decision.kind !== 'extend') continue
+        expect(await store.extendPoint(id, point, decision.fromTrial, decision.pieces)).not.toBeNull()
+        await chunkQueue.enqueueDecision(id, specHash(spec), point, decision.fromTrial, plan.chunks.length)
+      }
+
+      await worker()
+      const done = await waitForTerminal(queue, id)
+      expect(done.status).toBe('succeeded')
+      expect(done.progress.trialsTotal).toBe(3 * 60)
+      // The same rows as a sweep no worker died in.
+      const reference = await queue.submit({ spec, owner: null, reusePoints: false })
+      expect((await waitForTerminal(queue, reference.id)).status).toBe('succeeded')
+      expect(resultBytes(await fullResult(queue, id))).toBe(resultBytes(await fullResult(queue, reference.id)))
+    } finally {
+      await chunkQueue.queue.close()
       redis.disconnect()
     }
   })

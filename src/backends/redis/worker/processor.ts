@@ -20,6 +20,7 @@ import {
 import type { SweepResult } from '../../../results/index.js'
 import { ChunkQueue, SWEEP_GONE, type AssembleJobData, type ChunkJobData, type ChunkRetryPolicy, type DecideJobData, type SweepJobData } from '../chunk-queue.js'
 import { openConnection } from '../connections.js'
+import { enqueueRemaining } from '../dispatch.js'
 import { publishSweepEvent } from '../events.js'
 import { keyLayout, type KeyLayout } from '../keys.js'
 import { RedisSweepStore } from '../store.js'
@@ -123,7 +124,13 @@ async function decide (context: SandboxContext, job: SandboxedJob<DecideJobData>
   const plan = await store.plan(sweepId)
   if (plan === null) throw new Error(`sweep ${sweepId} has no stored plan`)
   const planned = plan.chunks.filter((chunk) => chunk.point === point)
-  if (planned.reduce((end, chunk) => Math.max(end, chunk.firstTrial + chunk.count), 0) !== extent) return { outcome: 'skipped', reason: 'the point was decided on already' }
+  if (planned.reduce((end, chunk) => Math.max(end, chunk.firstTrial + chunk.count), 0) !== extent) {
+    // A repeat of a decision applied before: the worker that applied it may have died before
+    // queueing its block, which nothing else would queue. Queue whatever the sweep still lacks
+    // (job ids are deterministic: work already queued is not added twice).
+    await enqueueRemaining(store, chunks, sweepId, job.data.specHash, spec)
+    return { outcome: 'skipped', reason: 'the point was decided on already' }
+  }
   const stored = await store.chunksOf(sweepId, planned.map((chunk) => chunk.index))
   const decision = decidePoint(spec, point, pointRecords(spec, planned, stored, point))
   if (decision.kind === 'close') {
