@@ -6,7 +6,7 @@
  * reference values as horizontal lines (`analysis=scaling`). Laid out by draw.ts like any figure.
  */
 import type { ResultRow, SweepResult } from '../results/index.js'
-import type { ScalingRow, SearchRow, VariedPath } from '../spec/index.js'
+import type { AxisValue, ScalingRow, SearchRow, VariedPath } from '../spec/index.js'
 import { FigureOptionsError } from './errors.js'
 import { figureFrame } from './frame.js'
 import { formatValue, legendEntry, parameterAxisTitle, parameterShortName, parameterSymbol, plainText } from './labels.js'
@@ -110,18 +110,7 @@ function crossingSeries (searches: readonly SearchRow[], x: VariedPath): PlotSer
     const others = Object.entries(sorted[0]!.values).filter(([path]) => path !== x && distinct(searches, path) > 1)
     const label = others.length === 0 ? 'Crossing' : others.map(([path, v]) => legendEntry(path as VariedPath, v)).join(', ')
     const points = sorted.filter((s) => s.estimate !== null).map((s) => ({ x: s.values[x] as number, y: s.estimate!, low: s.low, high: s.high, n: s.trialsUsed, point: s.search }))
-    return {
-      index,
-      sweep: 0,
-      label,
-      look: index,
-      colour: index,
-      fixed: Object.fromEntries(others),
-      rows: sorted.map((s) => pseudoRow(s.search, x, s.values[x] as number)),
-      points,
-      missing: sorted.length - points.length,
-      belowLogAxis: 0
-    }
+    return analysisSeries(index, label, others, sorted.map((s) => pseudoRow(s.search, x, s.values[x] as number)), points, sorted.length - points.length)
   })
 }
 
@@ -133,18 +122,12 @@ function scalingSeries (row: ScalingRow, index: number, searches: readonly Searc
     const search = searches[s.search]
     return { x: s.neurons, y: s.estimate, low: search?.low ?? null, high: search?.high ?? null, n: search?.trialsUsed ?? 0, point: s.search }
   })
-  return {
-    index,
-    sweep: 0,
-    label,
-    look: index,
-    colour: index,
-    fixed: Object.fromEntries(others),
-    rows: sizes.map((s) => pseudoRow(s.search, 'neurons', s.neurons)),
-    points,
-    missing: row.excluded.length,
-    belowLogAxis: 0
-  }
+  return analysisSeries(index, label, others, sizes.map((s) => pseudoRow(s.search, 'neurons', s.neurons)), points, row.excluded.length)
+}
+
+/** A series of an analysis figure: one sweep, its own look and colour, nothing below a log axis. */
+function analysisSeries (index: number, label: string, fixed: Array<[string, AxisValue]>, rows: PlotSeries['rows'], points: PlotSeries['points'], missing: number): PlotSeries {
+  return { index, sweep: 0, label, look: index, colour: index, fixed: Object.fromEntries(fixed), rows, points, missing, belowLogAxis: 0 }
 }
 
 function scalingOverlays (row: ScalingRow, index: number, series: PlotSeries, several: boolean, symbol: string): TheoryOverlay[] {

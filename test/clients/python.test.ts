@@ -8,10 +8,9 @@
  * the repository, offline, and runs the README's notebook example. The servers run in this
  * process, so Python runs as a child process that never blocks it.
  */
-import { spawn } from 'node:child_process'
 import { existsSync, readFileSync } from 'node:fs'
 import { cp, mkdtemp, rm } from 'node:fs/promises'
-import { homedir, tmpdir } from 'node:os'
+import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import type { FastifyInstance } from 'fastify'
@@ -26,25 +25,19 @@ import { createHarness, type Harness } from '../api/helpers/harness.js'
 import { installChunkGate, type ChunkGate } from '../helpers/chunk-gate.js'
 import { withOverrides } from '../helpers/queue-overrides.js'
 import { quietLogger, REDIS_URL, redisAvailable, removePrefix, testPrefix } from '../integration/helpers.js'
+import { runCommand, TEST_VENV, type PythonRun } from '../helpers/python.js'
 
 const ROOT = fileURLToPath(new URL('../../', import.meta.url))
 const PACKAGE = join(ROOT, 'clients/python')
-const VENV = process.env.MEMSWEEP_PY_VENV ?? join(homedir(), '.cache/memsweep-test-venv')
-const VENV_PYTHON = join(VENV, 'bin/python')
+const VENV_PYTHON = join(TEST_VENV, 'bin/python')
 const TOKEN = 'python-notebook-5b2c9e71d0'
 const ADMIN_TOKEN = 'python-admin-7f1e2d9c4b'
 const TOKENS = [`ada:${TOKEN}`, `root:${ADMIN_TOKEN}:admin`]
 
-interface Run { status: number | null, stdout: string, stderr: string }
+type Run = PythonRun
 
 async function run (command: string, args: string[], options: { cwd?: string, env?: Record<string, string> } = {}): Promise<Run> {
-  const child = spawn(command, args, { cwd: options.cwd ?? ROOT, env: { ...process.env, ...options.env }, timeout: 120_000 })
-  let stdout = ''
-  let stderr = ''
-  child.stdout.on('data', (chunk: Buffer) => { stdout += chunk.toString('utf8') })
-  child.stderr.on('data', (chunk: Buffer) => { stderr += chunk.toString('utf8') })
-  const status = await new Promise<number | null>((resolve) => child.on('close', resolve))
-  return { status, stdout, stderr }
+  return await runCommand(command, args, { cwd: options.cwd ?? ROOT, ...(options.env === undefined ? {} : { env: options.env }) })
 }
 
 async function pytest (env: Record<string, string>, selection: string[] = []): Promise<Run> {
@@ -65,7 +58,7 @@ let gate: ChunkGate
 const redisReady = await redisAvailable()
 
 beforeAll(() => {
-  if (!existsSync(VENV_PYTHON)) throw new Error(`no Python test environment at ${VENV}: run scripts/prepare-tests.sh`)
+  if (!existsSync(VENV_PYTHON)) throw new Error(`no Python test environment at ${TEST_VENV}: run scripts/prepare-tests.sh`)
   // Before any backend starts its threads or workers, so they all see the gate.
   gate = installChunkGate()
 })

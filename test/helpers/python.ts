@@ -23,7 +23,12 @@ export interface PythonRun { status: number | null, stdout: string, stderr: stri
 
 /** Runs `code` with the venv's python, `args` as sys.argv[1:]. */
 export async function runPython (python: string, code: string, args: string[] = []): Promise<PythonRun> {
-  const child = spawn(python, ['-c', code, ...args], { env: { ...process.env, PYTHONDONTWRITEBYTECODE: '1' }, timeout: 60_000 })
+  return await runCommand(python, ['-c', code, ...args], { env: { PYTHONDONTWRITEBYTECODE: '1' }, timeoutMs: 60_000 })
+}
+
+/** Runs a command to its end and collects what it printed; `env` adds to this process's environment. */
+export async function runCommand (command: string, args: string[], options: { cwd?: string, env?: Record<string, string>, timeoutMs?: number } = {}): Promise<PythonRun> {
+  const child = spawn(command, args, { ...(options.cwd === undefined ? {} : { cwd: options.cwd }), env: { ...process.env, ...options.env }, timeout: options.timeoutMs ?? 120_000 })
   let stdout = ''
   let stderr = ''
   child.stdout.on('data', (chunk: Buffer) => { stdout += chunk.toString('utf8') })
