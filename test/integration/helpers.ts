@@ -103,20 +103,28 @@ export function resultBytes (result: SweepResult): string {
 export function waitForRecord (queue: SweepQueue, id: string, predicate: (record: SweepRecord) => boolean, timeoutMs = 60_000): Promise<SweepRecord> {
   return new Promise((resolve, reject) => {
     let settled = false
+    // What the wait saw, for the message if it times out: a missed event and a stuck sweep read differently.
+    let events = 0
+    let lastSeen: SweepRecord | null = null
     const timer = setTimeout(() => {
       if (settled) return
       settled = true
       unsubscribe()
-      reject(new Error(`sweep ${id}: condition not met within ${timeoutMs} ms`))
+      const seen = lastSeen === null ? 'nothing' : `${lastSeen.status} ${JSON.stringify(lastSeen.progress)}`
+      queue.get(id).then(
+        (now) => `${now?.status ?? 'gone'} ${JSON.stringify(now?.progress ?? null)} ${JSON.stringify(now?.error ?? null)}`,
+        (error: unknown) => `unreadable (${String(error)})`
+      ).then((stored) => reject(new Error(`sweep ${id}: condition not met within ${timeoutMs} ms; ${events} event(s), last seen ${seen}; stored now ${stored}`)))
     }, timeoutMs)
     const finish = (record: SweepRecord): void => {
+      lastSeen = record
       if (settled || !predicate(record)) return
       settled = true
       clearTimeout(timer)
       unsubscribe()
       resolve(record)
     }
-    const unsubscribe = queue.subscribe(id, (event: SweepEvent) => finish(event.sweep))
+    const unsubscribe = queue.subscribe(id, (event: SweepEvent) => { events++; finish(event.sweep) })
     queue.get(id).then(record => {
       if (record === null) throw new Error(`no sweep ${id}`)
       finish(record)

@@ -84,7 +84,8 @@ describe.runIf(available)('Redis backend: workers', () => {
     const spec = { ...roomCodesSpec({ seed: 3 }), successThreshold: 5 }
     const submitted = await queue.submit({ spec, owner: null })
     await startWorkers(1)
-    const done = await waitForTerminal(queue, submitted.id)
+    // Inside the test's own time limit, so that a timeout reports what the wait saw.
+    const done = await waitForTerminal(queue, submitted.id, 45_000)
     expect(done.status).toBe('failed')
     expect(done.error?.kind).toBe('user')
     expect(done.error?.message).toMatch(/successThreshold/)
@@ -108,7 +109,8 @@ describe.runIf(available)('Redis backend: workers', () => {
       redis.disconnect()
     }
     await startWorkers(1)
-    const done = await waitForTerminal(queue, submitted.id)
+    // Inside the test's own time limit, so that a timeout reports what the wait saw.
+    const done = await waitForTerminal(queue, submitted.id, 45_000)
     expect(done.status).toBe('failed')
     expect(done.error?.kind).toBe('system')
     expect(done.error?.message).toMatch(/failed 3 times/)
