@@ -177,4 +177,27 @@ describe.runIf(available)('Redis backend: worker processes', () => {
     expect(done.progress.trialsDone).toBe(done.progress.trialsTotal)
     expect(resultBytes(await fullResult(queue, submitted.id))).toBe(resultBytes(computeInProcess(spec)))
   })
+
+  it('fails the sweep as the system\'s fault when its chunk keeps losing its worker', async () => {
+    const queue = await openQueue()
+    const spec = noisyRecallSpec({ seed: 31, load: { values: [0.1] } })
+    gate.hold()
+    const submitted = await queue.submit({ spec, owner: null })
+    const jobId = chunkJobId(submitted.id, 0)
+    // A chunk whose worker dies gets one more try (maxStalledCount 1); the second loss fails it for good.
+    for (let loss = 1; loss <= 2; loss++) {
+      const doomed = await spawn()
+      await doomed.waitFor(line => line.type === 'started' && 'jobId' in line && line.jobId === jobId)
+      doomed.child.kill('SIGKILL')
+      await doomed.exited
+    }
+    // The next worker finds the chunk stalled a second time: BullMQ fails the job in that worker's hands.
+    await spawn()
+    const done = await waitForTerminal(queue, submitted.id, 45_000)
+    expect(done.status).toBe('failed')
+    expect(done.error?.kind).toBe('system')
+    expect(done.error?.message).toMatch(/stopped answering/)
+    // It never passed the gate: no attempt computed anything.
+    expect(gate.ranForSeed(spec.seed).chunks).toBe(0)
+  })
 })

@@ -4,7 +4,8 @@
  * system), retrying only what a retry could fix.
  */
 import { afterEach, beforeEach, describe, expect, it } from 'vitest'
-import { Queue, QueueEvents, type Job } from 'bullmq'
+import { setTimeout } from 'node:timers/promises'
+import { Queue, type Job } from 'bullmq'
 import { Redis } from 'ioredis'
 import type { SweepQueue } from '../../src/backends/port.js'
 import { createRedisQueue } from '../../src/backends/redis/index.js'
@@ -37,19 +38,26 @@ describe.runIf(available)('Redis backend: workers', () => {
       closers.push(() => worker.close())
     }
   }
-  /** The chunk's BullMQ job once it has failed for good (the sweep is marked failed a moment before). */
-  const failedChunkJob = async (sweepId: string, index: number): Promise<Job> => {
-    const options = { connection: { url: REDIS_URL }, prefix: keyLayout(prefix).bullPrefix }
-    const bull = new Queue(CHUNK_QUEUE_NAME, options)
-    const events = new QueueEvents(CHUNK_QUEUE_NAME, options)
+  /**
+   * The chunk's BullMQ job once it has failed for good (the sweep is marked failed a moment
+   * before). Polled rather than awaited through QueueEvents: a listener that is ready has not
+   * necessarily started reading the event stream, and a failure landing in that gap is never
+   * heard of (the wait then hangs).
+   */
+  const failedChunkJob = async (sweepId: string, index: number, timeoutMs = 20_000): Promise<Job> => {
+    const bull = new Queue(CHUNK_QUEUE_NAME, { connection: { url: REDIS_URL }, prefix: keyLayout(prefix).bullPrefix })
     try {
-      await events.waitUntilReady()
-      const job = await bull.getJob(chunkJobId(sweepId, index))
-      if (job === undefined) throw new Error(`no job for chunk ${index}`)
-      await expect(job.waitUntilFinished(events)).rejects.toThrow()
-      return (await bull.getJob(chunkJobId(sweepId, index)))!
+      const deadline = Date.now() + timeoutMs
+      for (;;) {
+        const state = await bull.getJobState(chunkJobId(sweepId, index))
+        if (state === 'unknown') throw new Error(`no job for chunk ${index}`)
+        // Read after its state: a job read before its failure would show the attempts made until then.
+        if (state === 'failed') return (await bull.getJob(chunkJobId(sweepId, index)))!
+        if (state === 'completed') throw new Error(`chunk ${index} completed; a failure was expected`)
+        if (Date.now() > deadline) throw new Error(`chunk ${index}'s job still ${state} after ${timeoutMs} ms`)
+        await setTimeout(25)
+      }
     } finally {
-      await events.close()
       await bull.close()
     }
   }

@@ -8,7 +8,7 @@
  */
 import { availableParallelism, hostname } from 'node:os'
 import { randomUUID } from 'node:crypto'
-import { Job, QueueEvents, Worker } from 'bullmq'
+import { Job, Worker } from 'bullmq'
 import type { Redis } from 'ioredis'
 import type { Logger } from 'pino'
 import { systemFailure } from '../../../sweep/index.js'
@@ -203,10 +203,6 @@ export async function startWorker (options: WorkerProcessOptions): Promise<Runni
     maxStalledCount: 1,
     autorun: false
   })
-  const failures = new QueueEvents(CHUNK_QUEUE_NAME, {
-    connection: workerConnectionOptions(options.url, `${name}:events`),
-    prefix: keys.bullPrefix
-  })
   const running = new RunningChunks()
   const epoch = new EpochWatch(redis, keys.epoch, logger)
   const stops = new StopRelay({
@@ -221,7 +217,13 @@ export async function startWorker (options: WorkerProcessOptions): Promise<Runni
     afterPoll: () => epoch.check()
   })
 
-  /** A job failed for good without the processor failing its sweep (a crash, a stall, a lost thread). */
+  /**
+   * A job failed for good without the processor failing its sweep (a crash, a stall, a lost
+   * thread). Every final failure happens in some worker's hands, a job stalled too often
+   * included (BullMQ fails it in the worker that takes it next), so each worker's own 'failed'
+   * events cover them all: no worker reads the queue-wide event stream, whose cost would grow
+   * with the number of workers times the number of chunks.
+   */
   const failFromJob = async (jobId: string): Promise<void> => {
     const job = await Job.fromId<SweepJobData>(chunkQueue.queue, jobId)
     if (job === undefined || await job.getState() !== 'failed') return
@@ -293,10 +295,6 @@ export async function startWorker (options: WorkerProcessOptions): Promise<Runni
   })
   worker.on('stalled', (jobId) => logger.warn({ jobId }, 'a chunk lost its worker (crash or lost lock) and returns to the queue'))
   worker.on('error', (err) => logger.error({ err }, 'worker error'))
-  failures.on('failed', ({ jobId }) => {
-    failFromJob(jobId).catch((err: unknown) => logger.error({ err, jobId }, 'cannot record a failed sweep'))
-  })
-  failures.on('error', (err) => logger.error({ err }, 'queue events error'))
 
   await stops.start()
   await epoch.start()
@@ -306,7 +304,7 @@ export async function startWorker (options: WorkerProcessOptions): Promise<Runni
   const repair = setInterval(repairForgotten, UNENQUEUED_REPAIR_AGE_MS)
   repairForgotten()
 
-  await Promise.all([worker.waitUntilReady(), failures.waitUntilReady()])
+  await worker.waitUntilReady()
   worker.run().catch((err: unknown) => logger.error({ err }, 'worker loop stopped'))
   logger.info({ redis: redactUrl(options.url), prefix: options.prefix, concurrency }, 'worker started')
 
@@ -337,7 +335,6 @@ export async function startWorker (options: WorkerProcessOptions): Promise<Runni
       } finally {
         clearTimeout(grace)
       }
-      await failures.close()
       await chunkQueue.close()
       if (health !== null) await health.close()
       if (subscriber !== null) await closeConnection(subscriber)
