@@ -13,6 +13,7 @@ import { CHUNK_QUEUE_NAME, chunkJobId, keyLayout } from '../../src/backends/redi
 import { startWorker, type WorkerProcessOptions } from '../../src/backends/redis/worker/worker.js'
 import { normaliseSpec } from '../../src/spec/index.js'
 import { dispatchOrder, planSweep } from '../../src/sweep/index.js'
+import { installChunkGate } from '../helpers/chunk-gate.js'
 import {
   computeInProcess, corridorSpec, quietLogger, REDIS_URL, redisAvailable, removePrefix, fullResult, resultBytes, roomCodesSpec,
   testPrefix, waitForTerminal
@@ -124,5 +125,31 @@ describe.runIf(available)('Redis backend: workers', () => {
     expect(done.error?.message).toMatch(/failed 3 times/)
     const job = await failedChunkJob(submitted.id, 0)
     expect(job.attemptsMade).toBe(3)
+  })
+
+  it('runs more than ten compute threads in one worker without a listener-leak warning', async () => {
+    // BullMQ pipes every sandbox thread's output into this process's: twelve threads, twelve pipes.
+    const threads = 12
+    const warnings: string[] = []
+    const onWarning = (warning: Error): void => { warnings.push(`${warning.name}: ${warning.message}`) }
+    process.on('warning', onWarning)
+    const gate = installChunkGate()
+    try {
+      const queue = await openQueue()
+      const spec = roomCodesSpec({ seed: 5, load: { from: 0.01, to: 0.12, step: 0.01 } })
+      expect(planSweep(spec).chunks.length).toBeGreaterThanOrEqual(threads)
+      gate.hold()
+      const submitted = await queue.submit({ spec, owner: null })
+      await startWorkers(1, { concurrency: threads })
+      // Every thread holds a chunk at the gate: all twelve sandboxes are alive at once.
+      await gate.untilWaiting(threads)
+      gate.open()
+      expect((await waitForTerminal(queue, submitted.id, 45_000)).status).toBe('succeeded')
+      await new Promise((resolve) => setImmediate(resolve))
+      expect(warnings).toEqual([])
+    } finally {
+      process.off('warning', onWarning)
+      gate.remove()
+    }
   })
 })

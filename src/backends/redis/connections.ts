@@ -18,7 +18,7 @@ const ROLE_OPTIONS: Record<ConnectionRole, RedisOptions> = {
   subscriber: { maxRetriesPerRequest: null, autoResubscribe: true }
 }
 
-/** Options BullMQ's Worker and QueueEvents take to open their own (blocking) connections. */
+/** Options BullMQ's Worker takes to open its own (blocking) connections. */
 export function workerConnectionOptions (url: string, name: string): BullRedisOptions {
   return { url, maxRetriesPerRequest: null, connectionName: name }
 }

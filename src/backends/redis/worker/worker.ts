@@ -151,6 +151,20 @@ function processorFile (): URL {
   return prebuiltThreadBundle(new URL('./processor.ts', import.meta.url)) ?? new URL('./processor-from-source.mjs', import.meta.url)
 }
 
+/**
+ * BullMQ pipes each sandbox thread's stdout and stderr into this process's, one set of
+ * listeners per thread on each: a worker of more than ten threads (or several workers in one
+ * process) would set off Node's leak warning for listeners it means to have. Raises the limit
+ * by the threads' share and returns what gives it back.
+ */
+function allowThreadPipes (threads: number): () => void {
+  const streams = [process.stdout, process.stderr]
+  for (const stream of streams) stream.setMaxListeners(stream.getMaxListeners() + threads)
+  return () => {
+    for (const stream of streams) stream.setMaxListeners(Math.max(0, stream.getMaxListeners() - threads))
+  }
+}
+
 export async function startWorker (options: WorkerProcessOptions): Promise<RunningWorker> {
   const name = options.name ?? `${hostname()}:${process.pid}:${randomUUID().slice(0, 8)}`
   const logger = options.logger.child({ component: 'worker', worker: name })
@@ -191,6 +205,7 @@ export async function startWorker (options: WorkerProcessOptions): Promise<Runni
     workerName: name
   }
 
+  const releaseThreadPipes = allowThreadPipes(concurrency)
   const worker = new Worker<SweepJobData, unknown, SweepJobName>(CHUNK_QUEUE_NAME, processorFile(), {
     connection: workerConnectionOptions(options.url, `${name}:bullmq`),
     prefix: keys.bullPrefix,
@@ -334,6 +349,7 @@ export async function startWorker (options: WorkerProcessOptions): Promise<Runni
         await worker.close()
       } finally {
         clearTimeout(grace)
+        releaseThreadPipes()
       }
       await chunkQueue.close()
       if (health !== null) await health.close()
