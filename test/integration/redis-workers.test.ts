@@ -5,7 +5,8 @@
  */
 import { afterEach, beforeEach, describe, expect, it } from 'vitest'
 import { setTimeout } from 'node:timers/promises'
-import { Queue, type Job } from 'bullmq'
+import { randomUUID } from 'node:crypto'
+import { Queue, UnrecoverableError, Worker, type Job } from 'bullmq'
 import { Redis } from 'ioredis'
 import type { SweepQueue } from '../../src/backends/port.js'
 import { createRedisQueue } from '../../src/backends/redis/index.js'
@@ -60,6 +61,22 @@ describe.runIf(available)('Redis backend: workers', () => {
       }
     } finally {
       await bull.close()
+    }
+  }
+
+  /**
+   * What a worker that died half-way through a failure leaves behind: the sweep's first chunk
+   * (the costliest, taken first) failed for good in BullMQ, the sweep itself not failed.
+   */
+  const failFirstChunkAndDie = async (sweepId: string, index: number): Promise<void> => {
+    const manual = new Worker(CHUNK_QUEUE_NAME, null, { connection: { url: REDIS_URL }, prefix: keyLayout(prefix).bullPrefix })
+    try {
+      const token = randomUUID()
+      const job = await manual.getNextJob(token)
+      if (job?.id !== chunkJobId(sweepId, index)) throw new Error(`took job ${job?.id ?? 'none'}, not chunk ${index}`)
+      await job.moveToFailed(new UnrecoverableError('the worker died here'), token)
+    } finally {
+      await manual.close()
     }
   }
 
@@ -151,5 +168,43 @@ describe.runIf(available)('Redis backend: workers', () => {
       process.off('warning', onWarning)
       gate.remove()
     }
+  })
+
+  it('fails a sweep whose worker died between its chunk\'s final failure and failing the sweep', async () => {
+    const queue = await openQueue()
+    const spec = roomCodesSpec({ seed: 11 })
+    const submitted = await queue.submit({ spec, owner: null })
+    await failFirstChunkAndDie(submitted.id, dispatchOrder(spec, planSweep(spec).chunks)[0]!)
+    expect((await queue.get(submitted.id))?.status).toBe('queued')
+
+    // Any live worker repairs it: here the one that starts next, at once.
+    await startWorkers(1)
+    const done = await waitForTerminal(queue, submitted.id, 45_000)
+    expect(done.status).toBe('failed')
+    expect(done.error?.kind).toBe('system')
+    expect(done.error?.message).toMatch(/stopped answering/)
+  })
+
+  it('lets a resumed sweep run on: a chunk that failed for good in an earlier run does not fail it again', async () => {
+    const queue = await openQueue()
+    const spec = normaliseSpec({ label: 'single room', neurons: 60, patterns: 3, trials: 4, seed: 4 })
+    const submitted = await queue.submit({ spec, owner: null })
+    const record = keyLayout(prefix).sweep(submitted.id).record
+    const redis = new Redis(REDIS_URL)
+    closers.push(async () => { redis.disconnect() })
+    // Storage corruption fails the chunk's last attempt, and the sweep, as the system's fault.
+    await redis.hset(record, 'spec', JSON.stringify({ ...spec, seed: 5 }))
+    const first = await startWorker({ url: REDIS_URL, prefix, logger, concurrency: 1, retry: FAST_RETRY })
+    expect((await waitForTerminal(queue, submitted.id, 45_000)).status).toBe('failed')
+    await first.close()
+
+    // Repaired, the sweep is resumed; the failed job of its first run is still among the recent failures.
+    await redis.hset(record, 'spec', JSON.stringify(spec))
+    expect((await queue.resume(submitted.id))?.status).toBe('queued')
+    // A worker's repair runs before it takes work.
+    await startWorkers(1)
+    const done = await waitForTerminal(queue, submitted.id, 45_000)
+    expect(done.status).toBe('succeeded')
+    expect(resultBytes(await fullResult(queue, submitted.id))).toBe(resultBytes(computeInProcess(spec)))
   })
 })

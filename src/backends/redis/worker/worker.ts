@@ -23,7 +23,7 @@ import { RedisSweepStore } from '../store.js'
 import { failSweep, type FailureDeps } from './failures.js'
 import type { ProcessorOutcome, SandboxSettings } from './processor.js'
 import { isHandBackNotice, isProgressReport, storeProgress } from './progress-relay.js'
-import { enqueueForgotten, UNENQUEUED_REPAIR_AGE_MS } from './repair.js'
+import { enqueueForgotten, FAILED_REPAIR_WINDOW_MS, jobsFailedSince, UNENQUEUED_REPAIR_AGE_MS } from './repair.js'
 import { createStopBoardBuffer, StopBoardWriter } from './stop-board.js'
 import { RunningChunks, StopRelay } from './stop-relay.js'
 import { createTimeBudgetBuffer, TimeBudgetWriter } from './time-budget.js'
@@ -237,12 +237,15 @@ export async function startWorker (options: WorkerProcessOptions): Promise<Runni
    * thread). Every final failure happens in some worker's hands, a job stalled too often
    * included (BullMQ fails it in the worker that takes it next), so each worker's own 'failed'
    * events cover them all: no worker reads the queue-wide event stream, whose cost would grow
-   * with the number of workers times the number of chunks.
+   * with the number of workers times the number of chunks. A worker that dies between the
+   * job's failure and the sweep's leaves the rest to the periodic repair (failedLately).
    */
   const failFromJob = async (jobId: string): Promise<void> => {
     const job = await Job.fromId<SweepJobData>(chunkQueue.queue, jobId)
     if (job === undefined || await job.getState() !== 'failed') return
     const { sweepId, chunksTotal } = job.data
+    // A job of an earlier run says nothing about a sweep resumed since.
+    if ((job.data.run ?? 0) !== await store.dispatchRun(sweepId)) return
     const chunkIndex = 'chunk' in job.data ? job.data.chunk.index : null
     const failure = systemFailure({ chunkIndex, chunksTotal }, job.attemptsMade, 'lost-worker')
     if (await failSweep(failureDeps, sweepId, chunksTotal, failure)) {
@@ -313,11 +316,20 @@ export async function startWorker (options: WorkerProcessOptions): Promise<Runni
 
   await stops.start()
   await epoch.start()
-  const repairForgotten = (): void => {
-    enqueueForgotten(store, chunkQueue, logger).catch((err: unknown) => logger.warn({ err }, 'cannot repair unenqueued sweeps'))
+  /** Sweeps a dead worker left running after their chunk failed for good. */
+  const failedLately = async (): Promise<void> => {
+    for (const jobId of await jobsFailedSince(redis, chunkQueue, Date.now() - FAILED_REPAIR_WINDOW_MS)) await failFromJob(jobId)
   }
-  const repair = setInterval(repairForgotten, UNENQUEUED_REPAIR_AGE_MS)
-  repairForgotten()
+  const repairHalfDone = async (): Promise<void> => {
+    await Promise.all([
+      enqueueForgotten(store, chunkQueue, logger).catch((err: unknown) => logger.warn({ err }, 'cannot repair unenqueued sweeps')),
+      failedLately().catch((err: unknown) => logger.warn({ err }, 'cannot look at the chunks that failed lately'))
+    ])
+  }
+  // repairHalfDone reports its own errors and never rejects.
+  const repair = setInterval(() => { repairHalfDone().catch(() => {}) }, UNENQUEUED_REPAIR_AGE_MS)
+  // Before taking work: what a dead process left half done is settled first.
+  await repairHalfDone()
 
   await worker.waitUntilReady()
   worker.run().catch((err: unknown) => logger.error({ err }, 'worker loop stopped'))
