@@ -82,9 +82,15 @@ function workloadTable (runs: Run[], workload: string): string[] {
   return [...lines, '']
 }
 
+/**
+ * W1–W4 single-thread time ÷ the best C variant's, at most: the performance issue raised it
+ * from 2× to 1.0× once the engine was within 2×.
+ */
+const TIME_VS_C_TARGET = 1.0
+
 function headline (runs: Run[]): string[] {
   const lines = [
-    '| workload | memsweep (median) | numpy inc / sync | × numpy (target ≥ 10×) | numpy syncbatch | × batched (target ≥ 3×) | best C | ÷ best C (target ≤ 2×) | beats numpy inc | fastest runs: memsweep ÷ C | memsweep warm, in-process (÷ best C) |',
+    `| workload | memsweep (median) | numpy inc / sync | × numpy (target ≥ 10×) | numpy syncbatch | × batched (target ≥ 3×) | best C | ÷ best C (target ≤ ${ratio(TIME_VS_C_TARGET)}) | beats numpy inc | fastest runs: memsweep ÷ C | memsweep warm, in-process (÷ best C) |`,
     '|---|---|---|---|---|---|---|---|---|---|---|'
   ]
   for (const w of ['W1', 'W2', 'W3', 'W4']) {
@@ -102,7 +108,7 @@ function headline (runs: Run[]): string[] {
     const warmCell = Number.isFinite(warm) ? `${ms(warm)}${c ? ` (${ratio(warm / c.time)})` : ''}` : '-'
     const fastest = (g: Group): number => Math.min(...g.runs.map(timeOf))
     const fastestCell = c ? `${ms(fastest(ours))} ÷ ${ms(fastest(c))} = ${ratio(fastest(ours) / fastest(c))}` : '-'
-    lines.push(`| ${w} | ${ms(ours.time)} | ${inc ? ms(inc.time) : 'not run'} | ${ratio(vsInc)}${inc && w !== 'W4' ? ` (${mark(vsInc >= 10)})` : w === 'W4' && inc ? ' (no incremental peer for synchronous dynamics: W4 is judged against the batched peer)' : ''} | ${batch ? ms(batch.time) : '-'} | ${batch ? `${ratio(vsBatch)} (${mark(vsBatch >= 3)})` : '-'} | ${c ? `${ms(c.time)} (${c.variant})` : 'not run'} | ${c ? `${ratio(vsC)} (${mark(vsC <= 2)})` : '-'} | ${inc ? (vsInc > 1 ? 'yes' : 'NO') : '-'} | ${fastestCell} | ${warmCell} |`)
+    lines.push(`| ${w} | ${ms(ours.time)} | ${inc ? ms(inc.time) : 'not run'} | ${ratio(vsInc)}${inc && w !== 'W4' ? ` (${mark(vsInc >= 10)})` : w === 'W4' && inc ? ' (no incremental peer for synchronous dynamics: W4 is judged against the batched peer)' : ''} | ${batch ? ms(batch.time) : '-'} | ${batch ? `${ratio(vsBatch)} (${mark(vsBatch >= 3)})` : '-'} | ${c ? `${ms(c.time)} (${c.variant})` : 'not run'} | ${c ? `${ratio(vsC)} (${mark(vsC <= TIME_VS_C_TARGET)})` : '-'} | ${inc ? (vsInc > 1 ? 'yes' : 'NO') : '-'} | ${fastestCell} | ${warmCell} |`)
   }
   return lines
 }
@@ -360,8 +366,8 @@ export function renderReport (runs: Run[], extra: { scale: Run | null, baseline:
     '',
     ...headline(runs),
     '',
-    'Targets from the performance issue: at least 10× the incremental-field numpy peer (3× the batched numpy peer on W4) and within 2×',
-    'of the best C variant, all on fresh-process medians. `memsweep plain` is the engine with its fast paths switched off (the',
+    `Targets from the performance issues: at least 10× the incremental-field numpy peer (3× the batched numpy peer on W4) and at most ${ratio(TIME_VS_C_TARGET)}`,
+    'the time of the best C variant, all on fresh-process medians. `memsweep plain` is the engine with its fast paths switched off (the',
     'per-neuron JavaScript path), run on the same stream for comparison. The per-workload tables also give, labelled apart, the median',
     'of warm repeats inside each fresh process (same seed, same outputs): the steady state a long-running worker sees once the JIT and',
     'the WebAssembly tier-up are done. On a machine shared with other jobs the fastest fresh-process runs of each side are the least',
