@@ -7,7 +7,7 @@
  */
 import type { NormalisedSpec } from '../spec/index.js'
 import { inheritStored } from './inherit.js'
-import { coverWithReuse, type Chunk, type InheritSource } from './plan.js'
+import { coverWithReuse, trialsEnd, type Chunk, type InheritSource } from './plan.js'
 import type { PointDecision } from './precision.js'
 import { reuseKeysOf } from './reuse.js'
 import type { SweepStore } from './store.js'
@@ -24,7 +24,7 @@ export interface AppliedBlock {
 }
 
 export async function applyBlock (store: SweepStore, sweepId: string, spec: NormalisedSpec, point: number, decision: Extract<PointDecision, { kind: 'extend' }>, nowMs: number): Promise<AppliedBlock> {
-  const to = decision.pieces.reduce((end, piece) => Math.max(end, piece.firstTrial + piece.count), decision.fromTrial)
+  const to = Math.max(decision.fromTrial, trialsEnd(decision.pieces))
   const cover = await blockCover(store, sweepId, spec, point, decision.fromTrial, to) ?? decision.pieces
   const appended = await store.extendPoint(sweepId, point, decision.fromTrial, cover.map(({ firstTrial, count }) => ({ firstTrial, count })))
   if (appended === null) return { appended: null, taken: [], toCompute: [], pointDue: false }

@@ -25,7 +25,7 @@ export type {
   SweepStore, SweepRecord, SweepDraft, CreateOptions, CreateOutcome, IdempotencyBinding, ChunkOutcome, Transition, ListQuery, SweepPage
 } from './store.js'
 export { SWEEP_ID_MAX_LENGTH, SWEEP_ID_PATTERN, isSweepId, newSweepId } from './ids.js'
-export { planWithReuse, pointPieces, initialTrials, type ReusableRange, type PlanWithReuse } from './plan.js'
+export { planWithReuse, pointPieces, initialTrials, trialsEnd, type ReusableRange, type PlanWithReuse } from './plan.js'
 export { reuseKeysOf } from './reuse.js'
 export { decidePoint, precisionHalfWidth, precisionOutcome, type PointDecision } from './precision.js'
 export { applyBlock, type AppliedBlock } from './blocks.js'

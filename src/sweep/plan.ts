@@ -229,6 +229,11 @@ export function dispatchOrder (spec: NormalisedSpec, chunks: readonly Chunk[]): 
 }
 
 /** Grid point → number of the plan's chunks covering it. */
+/** The trial after the last one these runs of trials cover: where a point's planned trials end (0 for none). */
+export function trialsEnd (runs: ReadonlyArray<{ firstTrial: number, count: number }>): number {
+  return runs.reduce((end, run) => Math.max(end, run.firstTrial + run.count), 0)
+}
+
 export function chunksPerPoint (chunks: readonly Chunk[]): Map<number, number> {
   const counts = new Map<number, number>()
   for (const chunk of chunks) counts.set(chunk.point, (counts.get(chunk.point) ?? 0) + 1)

@@ -13,7 +13,7 @@ import { join } from 'node:path'
 import Database from 'better-sqlite3'
 import type { NormalisedSpec } from '../../spec/index.js'
 import {
-  ANY_OWNER, chunksPerPoint, CODEC_NAME, decodePlan, encodePlan, isTerminal, SWEEP_STATUSES,
+  ANY_OWNER, chunksPerPoint, CODEC_NAME, decodePlan, encodePlan, isTerminal, SWEEP_STATUSES, trialsEnd,
   type Annotation, type Chunk, type ChunkOutcome, type CreateOptions, type CreateOutcome, type ListQuery, type StoredChunk, type StoredRange,
   type SweepDraft, type SweepFailure, type SweepPage, type SweepPlan, type SweepRecord, type SweepStatus, type SweepStore, type Transition,
   type CallbackDelivery, type CallbackSettlement, type CallbackState
@@ -620,7 +620,7 @@ export class SqliteSweepStore implements SweepStore {
       if (status === null || isTerminal(status) || !this.#openPoints(id).includes(point)) return null
       const view = this.#planView(id)
       if (view === undefined) return null
-      const extent = view.plan.chunks.filter((chunk) => chunk.point === point).reduce((end, chunk) => Math.max(end, chunk.firstTrial + chunk.count), 0)
+      const extent = trialsEnd(view.plan.chunks.filter((chunk) => chunk.point === point))
       if (extent !== fromTrial || pieces.length === 0) return null
       const appended = pieces.map((piece, k): Chunk => ({ index: view.plan.chunks.length + k, point, firstTrial: piece.firstTrial, count: piece.count }))
       const plan: SweepPlan = { version: view.plan.version, chunks: [...view.plan.chunks, ...appended] }

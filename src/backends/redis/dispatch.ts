@@ -6,6 +6,7 @@
  * deterministic, so putting the same work on the queue twice adds nothing.
  */
 import type { NormalisedSpec } from '../../spec/index.js'
+import { trialsEnd } from '../../sweep/index.js'
 import type { ChunkQueue } from './chunk-queue.js'
 import type { RedisSweepStore } from './store.js'
 
@@ -21,7 +22,7 @@ export async function enqueueRemaining (store: RedisSweepStore, chunks: ChunkQue
   for (const point of open) {
     const planned = plan.chunks.filter((chunk) => chunk.point === point)
     if (planned.every((chunk) => done.has(chunk.index))) {
-      await chunks.enqueueDecision(id, specHash, point, planned.reduce((end, chunk) => Math.max(end, chunk.firstTrial + chunk.count), 0), total, run)
+      await chunks.enqueueDecision(id, specHash, point, trialsEnd(planned), total, run)
     }
   }
   if (pending.length === 0 && open.length === 0) await chunks.enqueueAssembly(id, specHash, total, run)

@@ -15,7 +15,7 @@ import type { Redis } from 'ioredis'
 import { specHash, type NormalisedSpec } from '../../../spec/index.js'
 import {
   applyBlock, assembleResult, assembleStored, chunkCpuSeconds, classifyChunkError, decidePoint, decodeValue, encodeValue, isTerminal, makeProvenance, pointRecords, runChunk, systemCauseOf,
-  systemFailure, userFailure, type ChunkResult, type ChunkRunOutcome
+  systemFailure, trialsEnd, userFailure, type ChunkResult, type ChunkRunOutcome
 } from '../../../sweep/index.js'
 import type { SweepResult } from '../../../results/index.js'
 import { ChunkQueue, SWEEP_GONE, type AssembleJobData, type ChunkJobData, type ChunkRetryPolicy, type DecideJobData, type SweepJobData } from '../chunk-queue.js'
@@ -124,7 +124,7 @@ async function decide (context: SandboxContext, job: SandboxedJob<DecideJobData>
   const plan = await store.plan(sweepId)
   if (plan === null) throw new Error(`sweep ${sweepId} has no stored plan`)
   const planned = plan.chunks.filter((chunk) => chunk.point === point)
-  if (planned.reduce((end, chunk) => Math.max(end, chunk.firstTrial + chunk.count), 0) !== extent) {
+  if (trialsEnd(planned) !== extent) {
     // A repeat of a decision applied before: the worker that applied it may have died before
     // queueing its block, which nothing else would queue. Queue whatever the sweep still lacks
     // (job ids are deterministic: work already queued is not added twice).
@@ -142,9 +142,8 @@ async function decide (context: SandboxContext, job: SandboxedJob<DecideJobData>
     if (block.appended !== null) {
       const chunksTotal = plan.chunks.length + block.appended.length
       if (block.toCompute.length > 0) await chunks.enqueueChunks(sweepId, job.data.specHash, spec, block.toCompute, chunksTotal, job.data.run)
-      const extent = block.appended.reduce((end, chunk) => Math.max(end, chunk.firstTrial + chunk.count), 0)
       // The whole block was taken: nothing will run to ask for the next decision, so ask now.
-      if (block.pointDue) await chunks.enqueueDecision(sweepId, job.data.specHash, point, extent, chunksTotal, job.data.run)
+      if (block.pointDue) await chunks.enqueueDecision(sweepId, job.data.specHash, point, trialsEnd(block.appended), chunksTotal, job.data.run)
     }
   }
   await publishSweepEvent(context.redis, context.keys, sweepId, 'progress')
