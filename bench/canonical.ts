@@ -3,7 +3,7 @@
  * xoshiro256** stream seeded directly with the workload seed, drawing in the documented
  * order, so the outputs can be compared bit for bit with the C reference's integer variants.
  */
-import { buildNetwork, createScratch, runTrialOn, Xoshiro256StarStar, type PointParams, type TrialRecord } from '../src/engine/index.js'
+import { buildNetwork, createPointRunner, createScratch, runTrialOn, Xoshiro256StarStar, type PointParams, type TrialRecord } from '../src/engine/index.js'
 import { SoftmaxMemory } from '../src/engine/models/softmax/memory.js'
 import { createSoftmaxScratch, runSoftmaxTrial } from '../src/engine/models/softmax/trial.js'
 
@@ -78,12 +78,12 @@ export function runCapacityWorkload (seed: number, trialsPerAlpha = 50): { alpha
   const t0 = performance.now()
   for (let k = 1; k <= 12; k++) {
     const p = workloadParams(n, 10 * k, 25, 'async-random')
-    const scratch = createScratch(n, p.patterns)
+    // The service's own per-point loop, on the one canonical stream: a network per trial.
+    const runner = createPointRunner(p, seed, k - 1, { stream: rng })
     let ok = 0; let sumM = 0; let sumS = 0
     for (let t = 0; t < trialsPerAlpha; t++) {
-      const net = buildNetwork(p, rng)
-      fastPath = net.fastPath
-      const r = runTrialOn(net, p, t, t % p.patterns, rng, scratch)
+      const r = runner.runTrial(t)
+      fastPath = runner.fastPath ?? ''
       if (r.overlap >= 0.95) ok++
       sumM += r.overlap; sumS += r.sweeps; updates += r.sweeps * n
     }

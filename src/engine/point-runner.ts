@@ -3,7 +3,7 @@ import type { TrialRecord } from './results.js'
 import type { Network } from './network/network.js'
 import type { RandomSource } from './random/source.js'
 import { openStream, RNG_ALGORITHM } from './random/streams.js'
-import { buildNetwork, chooseRepresentation, type Representation } from './network/build.js'
+import { buildNetwork, chooseRepresentation, redrawNetwork, type Representation } from './network/build.js'
 import { createScratch } from './dynamics/scratch.js'
 import { runTrialOn } from './trial.js'
 import { measureStability } from './measures.js'
@@ -61,9 +61,13 @@ export function createPointRunner (p: PointParams, masterSeed: number, pointInde
   let cached: Network | null = null
   const networkFor = (index: number): Network => {
     if (cached === null || cachedIndex !== index) {
-      cached = null
-      reclaim()
-      cached = buildNetwork(p, streams.network(index))
+      // The network before is no longer needed: its memory takes the next one where it can.
+      const rng = streams.network(index)
+      if (cached === null || !redrawNetwork(cached, p, rng)) {
+        cached = null
+        reclaim()
+        cached = buildNetwork(p, rng)
+      }
       cachedIndex = index
     }
     return cached

@@ -1,5 +1,6 @@
-import { describe, it, expect } from 'vitest'
-import { aggregatePoint, createPointRunner, type PointParams } from '../../src/engine/index.js'
+import { afterEach, describe, it, expect } from 'vitest'
+import { aggregatePoint, buildNetwork, createPointRunner, createScratch, openStream, runTrialOn, type PointParams } from '../../src/engine/index.js'
+import { setFastPathsEnabled } from '../../src/engine/kernels/wasm.js'
 import { pointParams } from '../helpers/point.js'
 
 const variants: Array<[string, PointParams]> = [
@@ -35,6 +36,46 @@ describe('determinism', () => {
     const base = JSON.stringify(createPointRunner(p, 1, 0).runTrial(0))
     expect(JSON.stringify(createPointRunner(p, 2, 0).runTrial(0))).not.toBe(base)
     expect(JSON.stringify(createPointRunner(p, 1, 1).runTrial(0))).not.toBe(base)
+  })
+})
+
+describe('a network per trial, redrawn in the memory of the one before', () => {
+  afterEach(() => setFastPathsEnabled(true))
+
+  /** What the runner must reproduce: a network built afresh for every trial, on the runner's streams. */
+  function builtAfresh (p: PointParams, seed: number, point: number, trials: number): string {
+    const scratch = createScratch(p.neurons, p.patterns)
+    return JSON.stringify(Array.from({ length: trials }, (_, t) => {
+      const net = buildNetwork(p, openStream(seed, 'network', point, t))
+      return runTrialOn(net, p, t, t % p.patterns, openStream(seed, 'trial', point, t), scratch)
+    }))
+  }
+
+  const perTrial: Array<[string, PointParams]> = [
+    ['whole asynchronous trials', pointParams({ neurons: 300, patterns: 45, cue: { kind: 'flip', fraction: 0.2 } })],
+    ['synchronous, with trajectories', pointParams({ neurons: 200, patterns: 30, dynamics: { update: 'sync', temperature: 0, maxSweeps: 30, burnIn: 0 }, measures: { overlapTrajectory: true, energyTrajectory: true, stability: false } })],
+    ['Glauber', pointParams({ neurons: 200, patterns: 10, dynamics: { update: 'async-random', temperature: 0.4, maxSweeps: 8, burnIn: 3 } })],
+    ['int32 overlaps', pointParams({ neurons: 40_000, patterns: 2, cue: { kind: 'flip', fraction: 0.1 } })]
+  ]
+
+  it.each(perTrial)('gives the trials of networks built afresh, fast paths on and off (%s)', (_name, p) => {
+    for (const fast of [true, false]) {
+      setFastPathsEnabled(fast)
+      const trials = p.neurons > 10_000 ? 3 : 12
+      const runner = createPointRunner(p, 31, 2)
+      const redrawn = JSON.stringify(Array.from({ length: trials }, (_, t) => runner.runTrial(t)))
+      expect(redrawn, `fast paths ${fast ? 'on' : 'off'}`).toBe(builtAfresh(p, 31, 2, trials))
+    }
+  })
+
+  it('starts each redrawn network from the zero state, so a cue close to the last state cannot reuse stale overlaps', () => {
+    // One pattern, a cue flipping nothing: the plain path loads the cue by updating the
+    // overlaps of the changed neurons only when few changed since the last state.
+    const p = pointParams({ neurons: 64, patterns: 1, cue: { kind: 'flip', fraction: 0 }, dynamics: { update: 'sync', temperature: 0, maxSweeps: 5, burnIn: 0 } })
+    setFastPathsEnabled(false)
+    const runner = createPointRunner(p, 8, 0)
+    const redrawn = JSON.stringify(Array.from({ length: 20 }, (_, t) => runner.runTrial(t)))
+    expect(redrawn).toBe(builtAfresh(p, 8, 0, 20))
   })
 })
 

@@ -50,9 +50,7 @@ export function buildNetwork (p: PointParams, rng: RandomSource): Network {
     return new SparseInDegreeNetwork(patterns, n, count, inDegreeCouplings(patterns, n, count, k, clipped, rng), clipped ? Math.sqrt(count) / k : 1 / k)
   }
   if (rule.kind === 'hebbian' && chooseRepresentation(p) === 'overlap-space') {
-    const { dynamics, measures } = p
-    const onlyWholeAsync = dynamics.temperature === 0 && dynamics.update !== 'sync' && !measures.overlapTrajectory && !measures.energyTrajectory
-    return new OverlapSpaceNetwork(patterns, n, count, rule.selfCoupling, onlyWholeAsync)
+    return new OverlapSpaceNetwork(patterns, n, count, rule.selfCoupling, onlyWholeAsync(p))
   }
   let couplings: Float64Array
   let fieldScale = 1
@@ -84,6 +82,28 @@ export function buildNetwork (p: PointParams, rng: RandomSource): Network {
   }
   if (p.dilution !== null) diluteCouplings(couplings, n, p.dilution, rng)
   return denseNetworkFrom(p, patterns, couplings, fieldScale, theta, p.dilution === null || p.dilution.symmetric)
+}
+
+/**
+ * Draws the next network of point `p` into the memory of `previous`, a network of the same
+ * point no longer needed, and returns true; or returns false, drawing nothing, when its
+ * representation cannot be redrawn in place (then build a new one). The draws and the network
+ * are exactly those of `buildNetwork(p, rng)`; only no memory is allocated. A capacity curve
+ * builds a network per trial, and fresh pattern-sized arrays every trial are mostly the cost of
+ * the operating system zeroing new pages until the collector catches up.
+ */
+export function redrawNetwork (previous: Network, p: PointParams, rng: RandomSource): boolean {
+  if (!(previous instanceof OverlapSpaceNetwork) || p.rule.kind !== 'hebbian' || chooseRepresentation(p) !== 'overlap-space') return false
+  if (!previous.hasShape(p.neurons, p.patterns, p.rule.selfCoupling, onlyWholeAsync(p))) return false
+  generatePatterns(p, rng, previous.patterns)
+  previous.reloadPatterns()
+  return true
+}
+
+/** The point's network runs whole zero-temperature asynchronous trials and nothing else (no trajectories). */
+function onlyWholeAsync (p: PointParams): boolean {
+  const { dynamics, measures } = p
+  return dynamics.temperature === 0 && dynamics.update !== 'sync' && !measures.overlapTrajectory && !measures.energyTrajectory
 }
 
 /**

@@ -39,7 +39,7 @@ export class OverlapSpaceNetwork implements Network {
    * `onlyWholeAsync`: the network will run whole zero-temperature asynchronous trials only (no
    * trajectories), so the fast path compiles the kernels of other dynamics only if asked.
    */
-  constructor (patterns: Int8Array, neurons: number, patternCount: number, selfCoupling: boolean, onlyWholeAsync = false) {
+  constructor (patterns: Int8Array, neurons: number, patternCount: number, selfCoupling: boolean, private readonly onlyWholeAsync = false) {
     this.neurons = neurons
     this.patternCount = patternCount
     this.patterns = patterns
@@ -53,12 +53,31 @@ export class OverlapSpaceNetwork implements Network {
       this.kernel.loadPatterns(patterns)
     } else {
       this.stride = patternCount
-      this.byNeuron = transposeToNeuronMajor(patterns, neurons, patternCount)
+      this.byNeuron = new Int8Array(neurons * patternCount)
+      transposeToNeuronMajor(patterns, neurons, patternCount, this.byNeuron)
     }
     this.overlaps = new Int32Array(patternCount)
     this.state = new Int8Array(neurons)
     this.bytes = patterns.byteLength + this.byNeuron.byteLength + 4 * patternCount + neurons + (this.kernel === null ? 0 : OverlapKernel.signBitBytes(neurons, patternCount))
     this.native = this.kernel === null ? null : new KernelSweeps(this.kernel, this.state, this.overlaps)
+  }
+
+  /** Whether this network was built for these sizes and options (so `reloadPatterns` may reuse it). */
+  hasShape (neurons: number, patternCount: number, selfCoupling: boolean, onlyWholeAsync: boolean): boolean {
+    return neurons === this.neurons && patternCount === this.patternCount && (selfCoupling ? 0 : patternCount) === this.selfTerm &&
+      onlyWholeAsync === this.onlyWholeAsync && (this.kernel !== null) === areFastPathsEnabled()
+  }
+
+  /**
+   * Takes up new patterns written into `patterns` in place: the network is then the one the
+   * constructor builds from them, in the all-zero state with zero overlaps (the overlaps of
+   * the old state would be stale).
+   */
+  reloadPatterns (): void {
+    if (this.kernel !== null) this.kernel.loadPatterns(this.patterns)
+    else transposeToNeuronMajor(this.patterns, this.neurons, this.patternCount, this.byNeuron)
+    this.state.fill(0)
+    this.overlaps.fill(0)
   }
 
   load (state: Int8Array): void {
@@ -197,10 +216,8 @@ class KernelSweeps implements NativeSweeps {
   }
 }
 
-function transposeToNeuronMajor (patterns: Int8Array, n: number, p: number): Int8Array {
-  const out = new Int8Array(n * p)
+function transposeToNeuronMajor (patterns: Int8Array, n: number, p: number, out: Int8Array): void {
   for (let mu = 0; mu < p; mu++) {
     for (let i = 0; i < n; i++) out[i * p + mu] = patterns[mu * n + i]!
   }
-  return out
 }
