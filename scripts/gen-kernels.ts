@@ -19,7 +19,7 @@
 import { writeFileSync } from 'node:fs'
 import { fileURLToPath } from 'node:url'
 import wabtFactory from 'wabt'
-import { KERNEL_MODULES, KERNEL_SIGNATURES, parseParam, type KernelModule, type KernelName, type KernelSignature } from '../src/engine/kernels/signatures.js'
+import { KERNEL_MODULES, KERNEL_SIGNATURES, parseParam, SAMPLE_BLOCK, type KernelModule, type KernelName, type KernelSignature } from '../src/engine/kernels/signatures.js'
 
 type Width = 16 | 32
 
@@ -328,15 +328,71 @@ function sumSquares16 (): string {
   return `
   ${header('sumSquares16')}
     (local $q i32) (local $e i32) (local $x v128) (local $acc v128) (local $d v128)
-    (local.set $e (i32.add (local.get $m) (i32.shl (local.get $pp) (i32.const 1))))
+    ${SUM_SQUARES_16}
+    (f64.add (f64x2.extract_lane 0 (local.get $acc)) (f64x2.extract_lane 1 (local.get $acc))))`
+}
+
+/** Σ_μ m_μ² of the int16 overlaps at $m (stride $pp) into the two lanes of $acc (zero before); uses $q $e $x $d. */
+const SUM_SQUARES_16 = `(local.set $e (i32.add (local.get $m) (i32.shl (local.get $pp) (i32.const 1))))
     (local.set $q (local.get $m))
     (loop $pairs
       (local.set $x (v128.load (local.get $q)))
       (local.set $d (i32x4.dot_i16x8_s (local.get $x) (local.get $x)))
       (local.set $acc (f64x2.add (local.get $acc) (f64x2.add (f64x2.convert_low_i32x4_s (local.get $d))
         (f64x2.convert_low_i32x4_s (i8x16.shuffle 8 9 10 11 12 13 14 15 0 1 2 3 4 5 6 7 (local.get $d) (local.get $d))))))
-      (br_if $pairs (i32.lt_u (local.tee $q (i32.add (local.get $q) (i32.const 16))) (local.get $e))))
-    (f64.add (f64x2.extract_lane 0 (local.get $acc)) (f64x2.extract_lane 1 (local.get $acc))))`
+      (br_if $pairs (i32.lt_u (local.tee $q (i32.add (local.get $q) (i32.const 16))) (local.get $e))))`
+
+/**
+ * One measured sweep of a Glauber trial, taken in the kernel: exactly the arithmetic of the
+ * plain path's sample (engine/trial.ts with unbiased patterns, engine/trial-measures.ts
+ * ThermalAverages.add), in its order. Overlaps o_μ = m_μ / N, their sums, the largest |o_ν|
+ * over ν ≠ target, the energy per neuron −(Σ m_μ² − P·(N − zeros))/(2·N·N); the class is
+ * "target" when o_target ≥ q ($patternLevel), else the host's classifySample() returns it (the rare, longer
+ * rules stay in one place, engine/end-states.ts).
+ */
+function glauberSample16 (): string {
+  const at = (field: keyof typeof SAMPLE_BLOCK): string => `(i32.add (local.get $block) (i32.const ${SAMPLE_BLOCK[field]}))`
+  return `(local.set $best (f64.const 0))
+          (local.set $mu (i32.const 0))
+          (local.set $sums (i32.add ${at('overlaps')} (i32.shl (local.get $pp) (i32.const 3))))
+          (loop $overlaps
+            (local.set $ov (f64.div (f64.convert_i32_s (i32.load16_s (i32.add (local.get $m) (i32.shl (local.get $mu) (i32.const 1))))) (local.get $nf)))
+            (local.set $ga (i32.shl (local.get $mu) (i32.const 3)))
+            (f64.store (i32.add ${at('overlaps')} (local.get $ga)) (local.get $ov))
+            (f64.store (i32.add (local.get $sums) (local.get $ga)) (f64.add (f64.load (i32.add (local.get $sums) (local.get $ga))) (local.get $ov)))
+            (if (i32.and (i32.ne (local.get $mu) (local.get $target)) (f64.gt (f64.abs (local.get $ov)) (local.get $best)))
+              (then (local.set $best (f64.abs (local.get $ov)))))
+            (br_if $overlaps (i32.lt_u (local.tee $mu (i32.add (local.get $mu) (i32.const 1))) (local.get $p))))
+          (f64.store ${at('otherSum')} (f64.add (f64.load ${at('otherSum')}) (local.get $best)))
+          ;; Erased (0) entries of the state, for Σ_i s_i²: sixteen at a time, then the rest.
+          (local.set $zeros (i32.const 0))
+          (local.set $i (i32.const 0))
+          (block $blocksDone
+            (loop $blocks
+              (br_if $blocksDone (i32.gt_u (i32.add (local.get $i) (i32.const 16)) (local.get $n)))
+              (local.set $zeros (i32.add (local.get $zeros) (i32.popcnt (i8x16.bitmask
+                (i8x16.eq (v128.load (i32.add (local.get $s) (local.get $i))) (v128.const i32x4 0 0 0 0))))))
+              (local.set $i (i32.add (local.get $i) (i32.const 16)))
+              (br $blocks)))
+          (block $tailDone
+            (loop $tail
+              (br_if $tailDone (i32.ge_u (local.get $i) (local.get $n)))
+              (if (i32.eqz (i32.load8_s (i32.add (local.get $s) (local.get $i)))) (then (local.set $zeros (i32.add (local.get $zeros) (i32.const 1)))))
+              (local.set $i (i32.add (local.get $i) (i32.const 1)))
+              (br $tail)))
+          (local.set $acc (v128.const i32x4 0 0 0 0))
+          ${SUM_SQUARES_16}
+          (f64.store ${at('energySum')} (f64.add (f64.load ${at('energySum')})
+            (f64.div
+              (f64.neg (f64.sub (f64.add (f64x2.extract_lane 0 (local.get $acc)) (f64x2.extract_lane 1 (local.get $acc)))
+                (f64.mul (f64.convert_i32_u (local.get $p)) (f64.convert_i32_u (i32.sub (local.get $n) (local.get $zeros))))))
+              (f64.mul (f64.mul (f64.const 2) (local.get $nf)) (local.get $nf)))))
+          (local.set $ga (i32.add ${at('classCounts')} (i32.shl
+            (select (i32.const 0) (call $classifySample)
+              (f64.ge (f64.load (i32.add ${at('overlaps')} (i32.shl (local.get $target) (i32.const 3)))) (local.get $patternLevel)))
+            (i32.const 2))))
+          (i32.store (local.get $ga) (i32.add (i32.load (local.get $ga)) (i32.const 1)))
+          (i32.store ${at('count')} (i32.add (i32.load ${at('count')}) (i32.const 1)))`
 }
 
 function runAsync16 (): string {
@@ -395,9 +451,12 @@ function runAsync16 (): string {
  * per visit, in visiting order, from the xoshiro256** state at $state: the stream the plain
  * loop consumes (it draws the sweep's uniforms after its shuffle, nothing in between).
  * Visits are grouped by four as in "sweep16" (a group is cut at the first visit that changes
- * a neuron), and 1 + exp(factor·h) comes from the table (onePlusExp). After every sweep the
- * host's sweepDone(sweep) runs, so the caller can read the state and observe, as the plain
- * loop does between sweeps. The generator state and last output are written back at the end.
+ * a neuron), and 1 + exp(factor·h) comes from the table (onePlusExp). With $block 0, after
+ * every sweep the host's sweepDone(sweep) runs, so the caller can read the state and observe,
+ * as the plain loop does between sweeps. Otherwise the kernel takes the samples itself after
+ * each sweep past $burnIn (glauberSample16, into the sample block at $block): no call leaves
+ * the kernel but the rare classification below the pattern level $patternLevel. The generator state and
+ * last output are written back at the end.
  */
 function runGlauber16 (): string {
   // The generator's output is $wx here: $x is a v128 of the sweep body.
@@ -412,6 +471,8 @@ function runGlauber16 (): string {
     ${sweep16Locals()} ${TABLE_LOCALS}
     (local $s0 i64) (local $s1 i64) (local $s2 i64) (local $s3 i64) (local $t i64) (local $wx i64) (local $drew i32)
     (local $fi i32) (local $fj i32) (local $fpi i32) (local $fpj i32) (local $ftmp i32) (local $sweeps i32)
+    (local $nf f64) (local $ov f64) (local $best f64) (local $mu i32) (local $sums i32) (local $zeros i32) (local $q i32) (local $acc v128)
+    (local.set $nf (f64.convert_i32_u (local.get $n)))
     ${XOSHIRO_LOAD}
     (block $end
       (loop $trial
@@ -432,7 +493,12 @@ function runGlauber16 (): string {
               (i32.store (local.get $fpj) (local.get $ftmp))
               (br_if $draw (local.tee $fi (i32.sub (local.get $fi) (i32.const 1)))))))
         ${sweep16Body(decide)}
-        (call $sweepDone (local.get $sweeps))
+        (if (i32.eqz (local.get $block))
+          (then (call $sweepDone (local.get $sweeps)))
+          (else
+            (if (i32.gt_u (local.get $sweeps) (local.get $burnIn))
+              (then
+          ${glauberSample16()}))))
         (br $trial)))
     (i64.store (local.get $state) (local.get $s0))
     (i64.store offset=8 (local.get $state) (local.get $s1))
@@ -1952,6 +2018,7 @@ export function kernelsWat (module: KernelModule): string {
   const text = `(module
   (import "host" "exp" (func $exp (param f64) (result f64)))
   (import "host" "sweepDone" (func $sweepDone (param i32)))
+  ${module === 'overlapMore' ? '(import "host" "classifySample" (func $classifySample (result i32)))' : ''}
   ${SHARES_MEMORY.has(module) ? '(import "env" "memory" (memory 1))' : '(memory (export "memory") 1)'}
 ${MODULE_PARTS[module]().join('\n')}
 )

@@ -54,9 +54,10 @@ function representationCost (p: PointParams): PointCost {
   if (representation === 'overlap-space') {
     return {
       // Both pattern layouts, the overlaps and the fast path's sign bits (8·⌈N/64⌉ bytes a
-      // pattern) and per-neuron bounds (12 bytes); at T > 0 the table of Glauber's
-      // 1 + exp(factor·h) over the integer fields.
-      bytes: 2 * patternBytes + OverlapKernel.signBitBytes(n, count) + scratchBytes + 4 * count + 12 * n + (thermal ? glauberTableBytes(count * (n + 1)) : 0),
+      // pattern) and per-neuron bounds (12 bytes); the block where Glauber trials take their
+      // samples (two doubles a pattern); at T > 0 the table of Glauber's 1 + exp(factor·h)
+      // over the integer fields.
+      bytes: 2 * patternBytes + OverlapKernel.signBitBytes(n, count) + scratchBytes + 4 * count + 16 * count + 12 * n + (thermal ? glauberTableBytes(count * (n + 1)) : 0),
       neuronUpdatesPerTrial,
       buildOpsPerNetwork: n * count,
       opsPerVisit: OVERLAP_VISIT_FIXED_OPS + count / OVERLAP_KERNEL_LANES + noiseOps

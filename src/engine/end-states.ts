@@ -101,21 +101,33 @@ export class EndStateClassifier {
   /** The macroscopic level of a state with r = 1. */
   readonly level: number
   readonly patternLevel: number
-  readonly bands: readonly MixtureBand[]
   private readonly neurons: number
+  #bands: readonly MixtureBand[] | null = null
 
-  constructor (settings: EndStateSettings) {
+  constructor (private readonly settings: EndStateSettings) {
     this.neurons = settings.neurons
     this.level = macroscopicLevel(settings.neurons)
     this.patternLevel = settings.patternLevel
-    const bands: MixtureBand[] = []
-    for (let k = 3; k <= settings.patterns; k += 2) {
-      const centre = settings.temperature > 0 ? mixtureOverlapAt(k, settings.temperature) : mixtureOverlap(k)
-      const halfWidth = mixtureHalfWidth(centre, settings.neurons)
-      if (!(centre - halfWidth > this.level)) break
-      bands.push({ components: k, centre, halfWidth })
+  }
+
+  /**
+   * The symmetric mixture bands, computed when first needed: most states are classified
+   * before the mixture rule, and the mean-field mixture overlaps at T > 0 take a
+   * root-finding each.
+   */
+  get bands (): readonly MixtureBand[] {
+    if (this.#bands === null) {
+      const { patterns, temperature, neurons } = this.settings
+      const bands: MixtureBand[] = []
+      for (let k = 3; k <= patterns; k += 2) {
+        const centre = temperature > 0 ? mixtureOverlapAt(k, temperature) : mixtureOverlap(k)
+        const halfWidth = mixtureHalfWidth(centre, neurons)
+        if (!(centre - halfWidth > this.level)) break
+        bands.push({ components: k, centre, halfWidth })
+      }
+      this.#bands = bands
     }
-    this.bands = bands
+    return this.#bands
   }
 
   /** The class of a state with overlaps `overlaps[0..count)` (normalised) when pattern `target` was cued. */

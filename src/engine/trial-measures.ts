@@ -3,7 +3,8 @@
  * the time averages over the measured sweeps at T > 0, and the overlaps with a mixture cue's
  * components. Nothing here draws random numbers.
  */
-import { EndStateClassifier, emptyEndStateCounts, endStateSettings, type EndState } from './end-states.js'
+import { END_STATES, EndStateClassifier, emptyEndStateCounts, endStateSettings, type EndState } from './end-states.js'
+import type { ThermalSampling, ThermalTotals } from './network/network.js'
 import type { PointParams } from './params.js'
 import { maxOtherOverlap } from './measures.js'
 
@@ -46,6 +47,29 @@ export class ThermalAverages {
   ) {
     this.sums = sums
     sums.fill(0, 0, patterns)
+  }
+
+  /**
+   * What a fast path needs to take this trial's samples itself (runGlauberSampled): sweeps
+   * after `burnIn` are sampled; their totals come back through `absorb`.
+   */
+  nativeSampling (burnIn: number): ThermalSampling {
+    const { classifier, patterns, target } = this
+    return {
+      burnIn,
+      target,
+      patternLevel: classifier.patternLevel,
+      classify: (overlaps) => END_STATES.indexOf(classifier.classify(overlaps, patterns, target))
+    }
+  }
+
+  /** Takes the totals of samples a fast path took: afterwards as if `add` had run once per sample. */
+  absorb (totals: ThermalTotals): void {
+    this.sums.set(totals.sums.subarray(0, this.patterns))
+    this.otherSum = totals.otherSum
+    this.energySum = totals.energySum
+    END_STATES.forEach((state, k) => { this.classCounts[state] = totals.classCounts[k]! })
+    this.count = totals.count
   }
 
   add (overlaps: Float64Array, energy: number): void {

@@ -1,7 +1,7 @@
 import type { PointParams } from './params.js'
 import type { TrialRecord } from './results.js'
 import type { RandomSource } from './random/source.js'
-import type { Network } from './network/network.js'
+import type { Network, ThermalTotals } from './network/network.js'
 import type { Scratch } from './dynamics/scratch.js'
 import { writeCue } from './dynamics/cue.js'
 import { runDynamics } from './dynamics/run.js'
@@ -38,7 +38,9 @@ export function runTrialOn (net: Network, p: PointParams, trial: number, target:
           sample: () => {
             normalisedOverlaps(net, centre, scratch.overlaps)
             averages.add(scratch.overlaps, net.energyPerNeuron())
-          }
+          },
+          // A fast path takes the samples of unbiased patterns (o_μ = m_μ/N) itself.
+          ...(centre === 0 ? { nativeSampling: { sampling: averages.nativeSampling(p.dynamics.burnIn), absorb: (totals: ThermalTotals) => { averages.absorb(totals) } } } : {})
         })
   })
   const overlaps = scratch.overlaps

@@ -1,7 +1,7 @@
 import type { Dynamics } from '../params.js'
 import type { Ending } from '../results.js'
 import type { RandomSource } from '../random/source.js'
-import type { Network, SyncOutcome } from '../network/network.js'
+import type { Network, SyncOutcome, ThermalSampling, ThermalTotals } from '../network/network.js'
 import { resetIdentity, type Scratch } from './scratch.js'
 import { nativeShuffle, nativeUniforms } from '../kernels/native-random.js'
 
@@ -21,6 +21,12 @@ export interface Observation {
   recordEnergy: boolean
   /** T > 0: called after each measured sweep (after burn-in), for time averages of other measures. */
   sample?: () => void
+  /**
+   * T > 0, offered when a fast path may take the samples itself instead of `sample`
+   * (unbiased patterns): its totals go to `absorb`, and the target overlap's time average is
+   * then their sum over the target divided by their count, the same operations as here.
+   */
+  nativeSampling?: { sampling: ThermalSampling, absorb: (totals: ThermalTotals) => void }
 }
 
 /**
@@ -63,6 +69,17 @@ export function runDynamics (net: Network, dynamics: Dynamics, rng: RandomSource
       sampledSum += observe.targetOverlap()
       sampledCount++
       observe.sample?.()
+    }
+  }
+  // A fast path may run a whole asynchronous Glauber trial taking the samples itself, when
+  // nothing else is observed between sweeps.
+  if (thermal && dynamics.update !== 'sync' && observe.nativeSampling !== undefined && overlapTrajectory === null && energyTrajectory === null) {
+    const { sampling, absorb } = observe.nativeSampling
+    const totals = net.native?.runGlauberSampled?.(order, dynamics.maxSweeps, dynamics.update === 'async-random', glauberFactor(net, dynamics.temperature), rng, sampling) ?? null
+    if (totals !== null) {
+      absorb(totals)
+      const timeAveragedOverlap = totals.count > 0 ? totals.sums[sampling.target]! / totals.count : Number.NaN
+      return { sweeps: dynamics.maxSweeps, ending, timeAveragedOverlap, overlapTrajectory, energyTrajectory }
     }
   }
   // A fast path may run a whole asynchronous Glauber trial, stopping after each sweep to observe.

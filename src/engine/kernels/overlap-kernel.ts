@@ -1,8 +1,9 @@
-import { EMPTY, unlessMemoryRefused, withSweepObserver, Workspaces, type Workspace } from './wasm.js'
-import type { KernelExports, KernelsUsing } from './signatures.js'
+import { EMPTY, unlessMemoryRefused, withSampleClassifier, withSweepObserver, Workspaces, type Workspace } from './wasm.js'
+import { SAMPLE_BLOCK, sampleBlockBytes, type KernelExports, type KernelsUsing } from './signatures.js'
 import { stateFromKernel, stateToKernel, xoshiroState } from './native-random.js'
 import { GlauberTable } from './glauber-table.js'
 import type { RandomSource } from '../random/source.js'
+import type { ThermalSampling, ThermalTotals } from '../network/network.js'
 
 /**
  * WebAssembly SIMD128 fast path of the overlap-space network (kernel text and memory
@@ -100,6 +101,8 @@ export class OverlapKernel {
   private readonly words: number
   private readonly bitsAt: number
   private readonly sbitsAt: number
+  /** The sample block of Glauber trials that sample in the kernel (SAMPLE_BLOCK). */
+  private readonly sampleAt: number
   /** The packed patterns kept outside a shared workspace, copied in when this network becomes resident (private memories hold the only copy). */
   private readonly bits: Uint8Array
   private readonly stageRows: number
@@ -165,7 +168,8 @@ export class OverlapKernel {
     this.words = Math.ceil(n / 64)
     this.bitsAt = align16(this.mPrevAt + 2 * pp)
     this.sbitsAt = this.bitsAt + 8 * this.words * p
-    this.stageAt = align16(this.sbitsAt + 8 * this.words)
+    this.sampleAt = align16(this.sbitsAt + 8 * this.words)
+    this.stageAt = align16(this.sampleAt + sampleBlockBytes(pp))
     // Pattern rows staged for the transposer in chunks of about STAGE_BYTES (multiples of 16
     // rows), so no second pattern-sized buffer stays behind in a private memory.
     this.stageRows = Math.min(pp, Math.max(16, Math.floor(STAGE_BYTES / n / 16) * 16))
@@ -336,10 +340,41 @@ export class OverlapKernel {
     withSweepObserver((sweep) => {
       this.leave(state, m, true)
       afterSweep(sweep)
-    }, () => more.runGlauber16(this.xiAt, this.mAt, this.sAt, this.orderAt, this.n, this.stride, this.self, this.rngAt, sweeps, shuffle ? 1 : 0, factor, this.table.at, half))
+    }, () => more.runGlauber16(this.xiAt, this.mAt, this.sAt, this.orderAt, this.n, this.stride, this.self, this.rngAt, sweeps, shuffle ? 1 : 0, factor, this.table.at, half, this.p, 0, 0, 0, 0))
     order.set(this.order32)
     stateFromKernel(this.rng32, words, rng)
     return true
+  }
+
+  /**
+   * `runGlauber` with the thermal samples taken in the kernel (no call per sweep): returns
+   * their totals, or null when this kernel cannot (as `runGlauber`).
+   */
+  runGlauberSampled (state: Int8Array, m: Int32Array, order: Int32Array, sweeps: number, shuffle: boolean, factor: number, rng: RandomSource, sampling: ThermalSampling): ThermalTotals | null {
+    if (this.wide || sweeps < 1) return null
+    const words = xoshiroState(rng)
+    if (words === null) return null
+    const half = this.enterThermal(factor)
+    this.pass(state, m)
+    this.order32.set(order)
+    stateToKernel(words, rng, this.rng32)
+    const block = this.sampleAt
+    this.u8.fill(0, block, block + sampleBlockBytes(this.stride))
+    const overlaps = new Float64Array(this.u8.buffer, block + SAMPLE_BLOCK.overlaps, this.p)
+    const more = this.more()
+    withSampleClassifier(() => sampling.classify(overlaps), () => more.runGlauber16(this.xiAt, this.mAt, this.sAt, this.orderAt, this.n, this.stride, this.self, this.rngAt, sweeps, shuffle ? 1 : 0, factor, this.table.at, half,
+      this.p, sampling.burnIn, sampling.target, sampling.patternLevel, block))
+    this.leave(state, m, true)
+    order.set(this.order32)
+    stateFromKernel(this.rng32, words, rng)
+    const totals = new Float64Array(this.u8.buffer, block, 2)
+    return {
+      sums: new Float64Array(this.u8.buffer, block + SAMPLE_BLOCK.overlaps + 8 * this.stride, this.p).slice(),
+      otherSum: totals[0]!,
+      energySum: totals[1]!,
+      classCounts: new Int32Array(this.u8.buffer, block + SAMPLE_BLOCK.classCounts, 7).slice(),
+      count: new Int32Array(this.u8.buffer, block + SAMPLE_BLOCK.count, 1)[0]!
+    }
   }
 
   /** For tests: a copy of the Glauber table as the last sweep left it (entry k is field k − half; 0 = never needed). */

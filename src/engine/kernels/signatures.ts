@@ -20,7 +20,8 @@ export type KernelModule = (typeof KERNEL_MODULES)[number]
  * kernel classes call through (`KernelExports`) are derived from it below, so the two cannot
  * disagree. test/engine/kernels/generated.test.ts checks the compiled modules against it.
  * Every module imports the host's `exp` (Math.exp, the plain path's exponential) and
- * `sweepDone(sweep)` (the hook a whole-trial kernel calls after each sweep).
+ * `sweepDone(sweep)` (the hook a whole-trial kernel calls after each sweep); `overlapMore`
+ * also imports `classifySample()` (the end-state class of a Glauber sample the kernel took).
  */
 export const KERNEL_SIGNATURES = {
   // Overlap space, int16 overlaps (N ≤ 32767).
@@ -53,7 +54,7 @@ export const KERNEL_SIGNATURES = {
   // Whole overlap-space trials.
   sumSquares16: { modules: ['overlap'], params: ['m', 'pp'], result: 'f64' },
   runAsync16: { modules: ['overlap'], params: ['xi', 'm', 's', 'order', 'n', 'pp', 'self', 'state', 'max', 'shuffle', 'p', 'hb', 'gb'], result: 'i32' },
-  runGlauber16: { modules: ['overlapMore'], params: ['xi', 'm', 's', 'order', 'n', 'pp', 'self', 'state', 'max', 'shuffle', 'factor:f64', 'table', 'half'] },
+  runGlauber16: { modules: ['overlapMore'], params: ['xi', 'm', 's', 'order', 'n', 'pp', 'self', 'state', 'max', 'shuffle', 'factor:f64', 'table', 'half', 'p', 'burnIn', 'target', 'patternLevel:f64', 'block'] },
   runSync16: { modules: ['overlapMore'], params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'self', 'max', 'hb', 'gb', 'mprev'], result: 'i32' },
   runSync32: { modules: ['overlapMore'], params: ['xi', 'm', 's', 'next', 'prev', 'n', 'pp', 'self', 'max'], result: 'i32' },
   // Dense float64 couplings.
@@ -89,6 +90,20 @@ export const KERNEL_SIGNATURES = {
   sparseGlauber: { modules: ['sparse'], params: ['outStart', 'targets', 'tw', 's', 'h', 'order', 'noise', 'n', 'factor:f64', 'table', 'half'] },
   sparseGlauberSync: { modules: ['sparse'], params: ['outStart', 'targets', 'tw', 's', 'h', 'next', 'noise', 'n', 'factor:f64', 'table', 'half'] }
 } as const satisfies Record<string, KernelSignature>
+
+/**
+ * Layout of the sample block of a whole Glauber trial that takes its samples in the kernel
+ * (runGlauber16 with a block), byte offsets: the running sums of the largest other overlap and
+ * of the energy (f64), the measured sweeps counted in each end-state class (7 × i32, END_STATES
+ * order), the number of samples (i32), then the current sample's normalised overlaps (pp × f64;
+ * the host's classifier reads them) and their running sums (pp × f64).
+ */
+export const SAMPLE_BLOCK = { otherSum: 0, energySum: 8, classCounts: 16, count: 48, overlaps: 56 } as const
+
+/** Bytes of the sample block for overlaps of stride `pp`. */
+export function sampleBlockBytes (pp: number): number {
+  return SAMPLE_BLOCK.overlaps + 16 * pp
+}
 
 /** A parameter: `name` (i32) or `name:f64`. */
 export type KernelParam = string

@@ -70,11 +70,30 @@ export function withSweepObserver<R> (observer: (sweep: number) => void, body: (
   }
 }
 
-/** The module's imports: the host's exponential (the plain path's Math.exp) and the sweep hook. */
+let sampleClassifier: (() => number) | null = null
+
+/**
+ * Runs `body` (a whole Glauber trial that takes its samples in the kernel) with `classify`
+ * answering the kernel's classifySample(): the end-state class index of the current sample.
+ */
+export function withSampleClassifier<R> (classify: () => number, body: () => R): R {
+  sampleClassifier = classify
+  try {
+    return body()
+  } finally {
+    sampleClassifier = null
+  }
+}
+
+/** The modules' imports: the host's exponential (the plain path's Math.exp), the sweep hook and the sample classifier. */
 const HOST = {
   host: {
     exp: Math.exp,
-    sweepDone: (sweep: number): void => { sweepObserver?.(sweep) }
+    sweepDone: (sweep: number): void => { sweepObserver?.(sweep) },
+    classifySample: (): number => {
+      if (sampleClassifier === null) throw new Error('a kernel asked to classify a sample outside withSampleClassifier')
+      return sampleClassifier()
+    }
   }
 }
 

@@ -53,6 +53,32 @@ export interface Network {
 }
 
 /**
+ * What a whole Glauber trial needs to take its thermal samples natively. A sample is the
+ * state after a measured sweep: its normalised overlaps o_μ = m_μ/N (unbiased patterns), their
+ * sums, the largest |o_ν| over ν ≠ target, the energy per neuron and the end-state class.
+ */
+export interface ThermalSampling {
+  /** Sweeps 1..burnIn are not sampled. */
+  readonly burnIn: number
+  readonly target: number
+  /** The pattern level q: a sample with o_target ≥ q is in class `target` (END_STATES[0]). */
+  readonly patternLevel: number
+  /** The class (index in END_STATES) of a sample below the pattern level, from its overlaps o[0..P). */
+  classify (overlaps: Float64Array): number
+}
+
+/** The sums over a trial's samples, each in sweep order, as the plain path accumulates them. */
+export interface ThermalTotals {
+  /** Σ o_μ over the samples, μ < P. */
+  sums: Float64Array
+  otherSum: number
+  energySum: number
+  /** Samples in each end-state class, END_STATES order. */
+  classCounts: Int32Array
+  count: number
+}
+
+/**
  * Whole-sweep operations a fast path runs in one call. Each must leave the network exactly
  * as the per-neuron loops of dynamics/run.ts would, drawing nothing itself: the caller draws
  * the visiting order and Glauber's uniforms first, in the order those loops draw them.
@@ -79,6 +105,13 @@ export interface NativeSweeps {
    * random source), with nothing drawn or changed.
    */
   runGlauber? (order: Int32Array, sweeps: number, shuffle: boolean, factor: number, rng: RandomSource, afterSweep: (sweep: number) => void): boolean
+  /**
+   * Optional: the same run, but the fast path takes the thermal samples itself after each
+   * sweep past `sampling.burnIn` (unbiased patterns, no trajectories: nothing else is observed
+   * between sweeps), with the plain path's arithmetic in its order, and returns their totals.
+   * Null when it cannot, with nothing drawn or changed.
+   */
+  runGlauberSampled? (order: Int32Array, sweeps: number, shuffle: boolean, factor: number, rng: RandomSource, sampling: ThermalSampling): ThermalTotals | null
   /** Zero-temperature asynchronous sweep in `order`; true if any neuron changed. */
   sweepZeroTemperature (order: Int32Array): boolean
   /** Zero-temperature synchronous step; `previous` holds s(t−2) and receives s(t−1) unless the step is `fixed`. */

@@ -1,4 +1,4 @@
-import type { NativeSweeps, Network, SyncOutcome } from './network.js'
+import type { NativeSweeps, Network, SyncOutcome, ThermalSampling, ThermalTotals } from './network.js'
 import type { RandomSource } from '../random/source.js'
 import { OverlapKernel } from '../kernels/overlap-kernel.js'
 import { areFastPathsEnabled } from '../kernels/wasm.js'
@@ -196,6 +196,10 @@ class KernelSweeps implements NativeSweeps {
 
   runGlauber (order: Int32Array, sweeps: number, shuffle: boolean, factor: number, rng: RandomSource, afterSweep: (sweep: number) => void): boolean {
     return this.kernel.runGlauber(this.state, this.overlaps, order, sweeps, shuffle, factor, rng, afterSweep)
+  }
+
+  runGlauberSampled (order: Int32Array, sweeps: number, shuffle: boolean, factor: number, rng: RandomSource, sampling: ThermalSampling): ThermalTotals | null {
+    return this.kernel.runGlauberSampled(this.state, this.overlaps, order, sweeps, shuffle, factor, rng, sampling)
   }
 
   sweepZeroTemperature (order: Int32Array): boolean {
