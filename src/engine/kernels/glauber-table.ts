@@ -60,11 +60,17 @@ export class GlauberTable {
     this.valid = false
   }
 
-  /** Prepares the table for `factor` in `memory` (already large enough); returns its half-width. */
-  prepare (memory: ArrayBuffer, factor: number): number {
+  /**
+   * Prepares the table for `factor` in `memory` (already large enough); returns its half-width.
+   * `pristine`: nothing has written the table's bytes since the memory grew to hold them, so
+   * they are zero already (WebAssembly memories grow by zero bytes) and are not zeroed again:
+   * zeroing would touch every page of a table whose visits read a few, and the first touch of
+   * a page costs the operating system a zeroed page, microseconds in a virtual machine.
+   */
+  prepare (memory: ArrayBuffer, factor: number, pristine = false): number {
     const half = glauberTableHalf(factor, this.maxAbsField)
     if (!this.valid || this.half !== half || !Object.is(this.factor, factor)) {
-      new Float64Array(memory, this.at, 2 * half + 1).fill(0)
+      if (!pristine) new Float64Array(memory, this.at, 2 * half + 1).fill(0)
       this.factor = factor
       this.half = half
       this.valid = true

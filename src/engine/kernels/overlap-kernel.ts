@@ -125,7 +125,7 @@ export class OverlapKernel {
    * the companion module of the other dynamics is left uncompiled until something needs it;
    * otherwise it is made ready now, with the network.
    */
-  static create (neurons: number, patterns: number, selfTerm: number, onlyWholeAsync = false): OverlapKernel | null {
+  static create (neurons: number, patterns: number, selfTerm: number, onlyWholeAsync = false, thermal = false): OverlapKernel | null {
     const name = overlapKernelName(neurons, patterns)
     if (name === null) return null
     const stride = align16(patterns)
@@ -134,6 +134,8 @@ export class OverlapKernel {
     const kernel = unlessMemoryRefused(() => new OverlapKernel(ws, name, neurons, patterns, selfTerm))
     // int32 overlaps have no whole asynchronous trial: they always need the companion.
     if (kernel !== null && (!onlyWholeAsync || kernel.wide)) kernel.more()
+    // Glauber dynamics will need the table: its room is taken now, with the network.
+    if (kernel !== null && thermal) kernel.ws.reserve(kernel.table.at + kernel.table.bytes)
     return kernel
   }
 
@@ -386,15 +388,19 @@ export class OverlapKernel {
 
   /** Enters with room for the Glauber table, ready for `factor`; returns its half-width. */
   private enterThermal (factor: number): number {
-    this.ws.reserve(this.table.at + this.table.bytes)
+    const ws = this.ws
+    ws.reserve(this.table.at + this.table.bytes)
     this.enter()
-    return this.table.prepare(this.ws.buffer, factor)
+    const half = this.table.prepare(ws.buffer, factor, ws.claimed <= this.table.at)
+    ws.claim(this.table.at + this.table.bytes)
+    return half
   }
 
   /** Makes this network's layout current: memory large enough, views fresh, patterns resident. */
   private enter (copyPatterns = true): void {
     const ws = this.ws
     if (!this.isPrivate) ws.reserve(this.end)
+    ws.claim(this.end)
     const buffer = ws.buffer
     if (buffer !== this.buffer) {
       this.buffer = buffer

@@ -138,6 +138,20 @@ export class Workspace<T extends { memory: WasmMemory }> {
   }
 
   /** Grows the memory to at least `bytes`; throws RangeError when the host refuses. */
+  /**
+   * Bytes [0, claimed) may have been written; the memory beyond has held zero since it was
+   * created or grown. Meaningful only where every user claims what it writes before writing:
+   * the overlap-space kernel claims its layout on every entry and its Glauber table when it
+   * prepares it, and reads this to skip zeroing a table in pristine memory. No other kernel
+   * reads it.
+   */
+  claimed = 0
+
+  /** Records that bytes below `end` may be written. */
+  claim (end: number): void {
+    if (!(this.claimed >= end)) this.claimed = end
+  }
+
   reserve (bytes: number): void {
     const have = this.#buffer.byteLength
     if (bytes > have) {

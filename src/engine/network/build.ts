@@ -50,7 +50,7 @@ export function buildNetwork (p: PointParams, rng: RandomSource): Network {
     return new SparseInDegreeNetwork(patterns, n, count, inDegreeCouplings(patterns, n, count, k, clipped, rng), clipped ? Math.sqrt(count) / k : 1 / k)
   }
   if (rule.kind === 'hebbian' && chooseRepresentation(p) === 'overlap-space') {
-    return new OverlapSpaceNetwork(patterns, n, count, rule.selfCoupling, onlyWholeAsync(p))
+    return new OverlapSpaceNetwork(patterns, n, count, rule.selfCoupling, onlyWholeAsync(p), p.dynamics.temperature > 0)
   }
   let couplings: Float64Array
   let fieldScale = 1

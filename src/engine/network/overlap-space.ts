@@ -39,13 +39,13 @@ export class OverlapSpaceNetwork implements Network {
    * `onlyWholeAsync`: the network will run whole zero-temperature asynchronous trials only (no
    * trajectories), so the fast path compiles the kernels of other dynamics only if asked.
    */
-  constructor (patterns: Int8Array, neurons: number, patternCount: number, selfCoupling: boolean, private readonly onlyWholeAsync = false) {
+  constructor (patterns: Int8Array, neurons: number, patternCount: number, selfCoupling: boolean, private readonly onlyWholeAsync = false, thermal = false) {
     this.neurons = neurons
     this.patternCount = patternCount
     this.patterns = patterns
     this.fieldScale = 1 / neurons
     this.selfTerm = selfCoupling ? 0 : patternCount
-    this.kernel = areFastPathsEnabled() ? OverlapKernel.create(neurons, patternCount, this.selfTerm, onlyWholeAsync) : null
+    this.kernel = areFastPathsEnabled() ? OverlapKernel.create(neurons, patternCount, this.selfTerm, onlyWholeAsync, thermal) : null
     this.fastPath = this.kernel?.name ?? 'js'
     if (this.kernel !== null) {
       this.stride = this.kernel.stride

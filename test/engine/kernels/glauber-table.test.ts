@@ -128,6 +128,18 @@ describe('tabulated Glauber probabilities', () => {
     expectSame(params({ coding: 'binary', patterns: 10, dynamics: { update: 'sync' } }), 'wasm-simd128-dense-i16')
   })
 
+  it('a table placed where a larger network kept its patterns is zeroed before use (only memory no network wrote is taken as zero)', () => {
+    // A 2000 × 700 network fills the shared kernel memory far past where the small network's table goes.
+    const large = params({ neurons: 2000, patterns: 700, dynamics: { temperature: 0, maxSweeps: 3, burnIn: 0 }, measures: { overlapTrajectory: false, energyTrajectory: false, stability: false } })
+    const small = params({ dynamics: { temperature: 0.35 } })
+    setFastPathsEnabled(false)
+    const plain = trials(small, false, 3).records
+    setFastPathsEnabled(true)
+    createPointRunner(large, 3, 0).runTrial(0)
+    const runner = createPointRunner(small, 11, 0)
+    expect(Array.from({ length: 3 }, (_, t) => runner.runTrial(t))).toStrictEqual(plain)
+  })
+
   it('networks alternating in the shared kernel memory at different temperatures keep their own tables', () => {
     // Same sizes, so both tables sit at the same place in the shared memory, their windows (half-widths
     // 1800 and 1860) shifted by 60 fields: an entry left by one is read as another field's by the other.
