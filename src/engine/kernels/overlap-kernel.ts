@@ -331,21 +331,12 @@ export class OverlapKernel {
    * engine's xoshiro256**), with nothing drawn or changed.
    */
   runGlauber (state: Int8Array, m: Int32Array, order: Int32Array, sweeps: number, shuffle: boolean, factor: number, rng: RandomSource, afterSweep: (sweep: number) => void): boolean {
-    if (this.wide || sweeps < 1) return false
-    const words = xoshiroState(rng)
-    if (words === null) return false
-    const half = this.enterThermal(factor)
-    this.pass(state, m)
-    this.order32.set(order)
-    stateToKernel(words, rng, this.rng32)
-    const more = this.more()
-    withSweepObserver((sweep) => {
-      this.leave(state, m, true)
-      afterSweep(sweep)
-    }, () => more.runGlauber16(this.xiAt, this.mAt, this.sAt, this.orderAt, this.n, this.stride, this.self, this.rngAt, sweeps, shuffle ? 1 : 0, factor, this.table.at, half, this.p, 0, 0, 0, 0))
-    order.set(this.order32)
-    stateFromKernel(this.rng32, words, rng)
-    return true
+    return this.wholeGlauber(state, m, order, sweeps, factor, rng, (half, more) => {
+      withSweepObserver((sweep) => {
+        this.leave(state, m, true)
+        afterSweep(sweep)
+      }, () => more.runGlauber16(this.xiAt, this.mAt, this.sAt, this.orderAt, this.n, this.stride, this.self, this.rngAt, sweeps, shuffle ? 1 : 0, factor, this.table.at, half, this.p, 0, 0, 0, 0))
+    })
   }
 
   /**
@@ -353,22 +344,14 @@ export class OverlapKernel {
    * their totals, or null when this kernel cannot (as `runGlauber`).
    */
   runGlauberSampled (state: Int8Array, m: Int32Array, order: Int32Array, sweeps: number, shuffle: boolean, factor: number, rng: RandomSource, sampling: ThermalSampling): ThermalTotals | null {
-    if (this.wide || sweeps < 1) return null
-    const words = xoshiroState(rng)
-    if (words === null) return null
-    const half = this.enterThermal(factor)
-    this.pass(state, m)
-    this.order32.set(order)
-    stateToKernel(words, rng, this.rng32)
     const block = this.sampleAt
-    this.u8.fill(0, block, block + sampleBlockBytes(this.stride))
-    const overlaps = new Float64Array(this.u8.buffer, block + SAMPLE_BLOCK.overlaps, this.p)
-    const more = this.more()
-    withSampleClassifier(() => sampling.classify(overlaps), () => more.runGlauber16(this.xiAt, this.mAt, this.sAt, this.orderAt, this.n, this.stride, this.self, this.rngAt, sweeps, shuffle ? 1 : 0, factor, this.table.at, half,
-      this.p, sampling.burnIn, sampling.target, sampling.patternLevel, block))
-    this.leave(state, m, true)
-    order.set(this.order32)
-    stateFromKernel(this.rng32, words, rng)
+    const ran = this.wholeGlauber(state, m, order, sweeps, factor, rng, (half, more) => {
+      this.u8.fill(0, block, block + sampleBlockBytes(this.stride))
+      const overlaps = new Float64Array(this.u8.buffer, block + SAMPLE_BLOCK.overlaps, this.p)
+      withSampleClassifier(() => sampling.classify(overlaps), () => more.runGlauber16(this.xiAt, this.mAt, this.sAt, this.orderAt, this.n, this.stride, this.self, this.rngAt, sweeps, shuffle ? 1 : 0, factor, this.table.at, half,
+        this.p, sampling.burnIn, sampling.target, sampling.patternLevel, block))
+    })
+    if (!ran) return null
     const totals = new Float64Array(this.u8.buffer, block, 2)
     return {
       sums: new Float64Array(this.u8.buffer, block + SAMPLE_BLOCK.overlaps + 8 * this.stride, this.p).slice(),
@@ -384,6 +367,26 @@ export class OverlapKernel {
     const half = this.table.halfWidth
     const values = half < 0 ? new Float64Array(0) : new Float64Array(this.ws.buffer, this.table.at, 2 * half + 1).slice()
     return { half, values }
+  }
+
+  /**
+   * The frame of a whole Glauber run: state, order and generator into the kernel, `run`, then
+   * all of them back; false when this kernel cannot (int32 overlaps, another random source),
+   * with nothing drawn or changed.
+   */
+  private wholeGlauber (state: Int8Array, m: Int32Array, order: Int32Array, sweeps: number, factor: number, rng: RandomSource, run: (half: number, more: MoreExports) => void): boolean {
+    if (this.wide || sweeps < 1) return false
+    const words = xoshiroState(rng)
+    if (words === null) return false
+    const half = this.enterThermal(factor)
+    this.pass(state, m)
+    this.order32.set(order)
+    stateToKernel(words, rng, this.rng32)
+    run(half, this.more())
+    this.leave(state, m, true)
+    order.set(this.order32)
+    stateFromKernel(this.rng32, words, rng)
+    return true
   }
 
   /** Enters with room for the Glauber table, ready for `factor`; returns its half-width. */

@@ -2,6 +2,7 @@ import { afterEach, describe, expect, it } from 'vitest'
 import { buildNetwork, createPointRunner, createScratch, END_STATES, Xoshiro256StarStar, type PointParams, type TrialRecord } from '../../../src/engine/index.js'
 import { setFastPathsEnabled } from '../../../src/engine/kernels/wasm.js'
 import { classifierFor, ThermalAverages } from '../../../src/engine/trial-measures.js'
+import { pointParams } from '../../helpers/point.js'
 
 // Whole asynchronous Glauber trials with nothing observed between sweeps take their thermal
 // samples inside the kernel (overlaps, their sums, the largest other overlap, the energy, the
@@ -9,21 +10,16 @@ import { classifierFor, ThermalAverages } from '../../../src/engine/trial-measur
 // same trials with fast paths off and on and compares whole records, time averages and the
 // shares of sweeps in each end-state class included.
 
+const BASE = pointParams({
+  neurons: 300,
+  patterns: 30,
+  cue: { kind: 'flip', fraction: 0.15 },
+  dynamics: { update: 'async-random', temperature: 0.4, maxSweeps: 14, burnIn: 4 },
+  trialsPerNetwork: 4
+})
+
 function params (overrides: Omit<Partial<PointParams>, 'dynamics'> & { dynamics?: Partial<PointParams['dynamics']> } = {}): PointParams {
-  const base: PointParams = {
-    neurons: 300,
-    patterns: 30,
-    coding: 'pm1',
-    family: { kind: 'random', activity: 0.5 },
-    rule: { kind: 'hebbian', selfCoupling: false },
-    dilution: null,
-    cue: { kind: 'flip', fraction: 0.15 },
-    dynamics: { update: 'async-random', temperature: 0.4, maxSweeps: 14, burnIn: 4 },
-    measures: { overlapTrajectory: false, energyTrajectory: false, stability: false },
-    successThreshold: 0.95,
-    trialsPerNetwork: 4
-  }
-  return { ...base, ...overrides, dynamics: { ...base.dynamics, ...overrides.dynamics } }
+  return { ...BASE, ...overrides, dynamics: { ...BASE.dynamics, ...overrides.dynamics } }
 }
 
 function trials (p: PointParams, fast: boolean, count: number): TrialRecord[] {
