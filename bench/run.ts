@@ -5,7 +5,7 @@
  * machine's two-process ceiling, the memory estimate check and the memory report, and writes
  * bench/RESULTS.md.
  *
- * Environment: ENGINE_REPS (5), PLAIN_REPS (3), C_REPS (5), NP_REPS (3), WARM_REPEATS (5),
+ * Environment: ENGINE_REPS (11), PLAIN_REPS (3), C_REPS (11), NP_REPS (3), WARM_REPEATS (5),
  * DENSE_REPS (3), MODEL_REPS (5), MODEL_PLAIN_REPS (3), PEERS_DIR (../shared/bench), SKIP_PEERS,
  * SKIP_PLAIN, SKIP_DENSE, SKIP_MODELS, SKIP_SCALE,
  * SKIP_SCALING, SKIP_MEMORY, SKIP_SERVICE_OVERHEAD, SKIP_QUEUE_CEILING, SKIP_ESTIMATE, SKIP_HEALTHZ,
@@ -29,9 +29,9 @@ const here = dirname(fileURLToPath(import.meta.url))
 const root = resolve(here, '..')
 const env = process.env
 const reps = {
-  ENGINE_REPS: Number(env.ENGINE_REPS ?? 5),
+  ENGINE_REPS: Number(env.ENGINE_REPS ?? 11),
   PLAIN_REPS: env.SKIP_PLAIN ? 0 : Number(env.PLAIN_REPS ?? 3),
-  C_REPS: env.SKIP_PEERS ? 0 : Number(env.C_REPS ?? 5),
+  C_REPS: env.SKIP_PEERS ? 0 : Number(env.C_REPS ?? 11),
   NP_REPS: env.SKIP_PEERS ? 0 : Number(env.NP_REPS ?? 3),
   DENSE_REPS: env.SKIP_DENSE ? 0 : Number(env.DENSE_REPS ?? 3),
   MODEL_REPS: env.SKIP_MODELS ? 0 : Number(env.MODEL_REPS ?? 5),
