@@ -3,7 +3,7 @@ import type { TrialRecord } from './results.js'
 import type { Network } from './network/network.js'
 import type { RandomSource } from './random/source.js'
 import { openStream, RNG_ALGORITHM } from './random/streams.js'
-import { buildNetwork, chooseRepresentation, redrawNetwork, type Representation } from './network/build.js'
+import { buildNetwork, canRedrawNetwork, chooseRepresentation, redrawNetwork, type Representation } from './network/build.js'
 import { createScratch } from './dynamics/scratch.js'
 import { runTrialOn } from './trial.js'
 import { measureStability } from './measures.js'
@@ -59,18 +59,25 @@ export function createPointRunner (p: PointParams, masterSeed: number, pointInde
   const scratch = createScratch(p.neurons, p.patterns)
   let cachedIndex = -1
   let cached: Network | null = null
+  const redrawable = canRedrawNetwork(p)
+  // Its own frame, and only for points that can redraw: with the old network passed as an
+  // argument from networkFor's frame, a dense-memory point held two networks at its peak
+  // (bench/memory.ts: 167 MB against an 87 MB estimate), the old one still reachable, we take
+  // it from a register of that frame, when `reclaim` ran.
+  const redrawCached = (rng: RandomSource): Network | null => cached !== null && redrawNetwork(cached, p, rng) ? cached : null
   const networkFor = (index: number): Network => {
-    if (cached === null || cachedIndex !== index) {
-      // The network before is no longer needed: its memory takes the next one where it can.
-      const rng = streams.network(index)
-      if (cached === null || !redrawNetwork(cached, p, rng)) {
-        cached = null
-        reclaim()
-        cached = buildNetwork(p, rng)
-      }
-      cachedIndex = index
+    if (cached !== null && cachedIndex === index) return cached
+    const rng = streams.network(index)
+    // The network before is no longer needed: an overlap-space one takes the next in its memory.
+    let network = redrawable ? redrawCached(rng) : null
+    if (network === null) {
+      cached = null
+      reclaim()
+      network = buildNetwork(p, rng)
     }
-    return cached
+    cached = network
+    cachedIndex = index
+    return network
   }
   return {
     representation: chooseRepresentation(p),

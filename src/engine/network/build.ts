@@ -93,11 +93,16 @@ export function buildNetwork (p: PointParams, rng: RandomSource): Network {
  * the operating system zeroing new pages until the collector catches up.
  */
 export function redrawNetwork (previous: Network, p: PointParams, rng: RandomSource): boolean {
-  if (!(previous instanceof OverlapSpaceNetwork) || p.rule.kind !== 'hebbian' || chooseRepresentation(p) !== 'overlap-space') return false
+  if (!(previous instanceof OverlapSpaceNetwork) || p.rule.kind !== 'hebbian' || !canRedrawNetwork(p)) return false
   if (!previous.hasShape(p.neurons, p.patterns, p.rule.selfCoupling, onlyWholeAsync(p))) return false
   generatePatterns(p, rng, previous.patterns)
   previous.reloadPatterns()
   return true
+}
+
+/** Whether the networks of point `p` can be redrawn in place (`redrawNetwork`): Hebbian networks in overlap space. */
+export function canRedrawNetwork (p: PointParams): boolean {
+  return p.rule.kind === 'hebbian' && chooseRepresentation(p) === 'overlap-space'
 }
 
 /** The point's network runs whole zero-temperature asynchronous trials and nothing else (no trajectories). */
