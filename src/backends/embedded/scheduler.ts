@@ -132,6 +132,9 @@ export class ChunkScheduler {
     const log = this.#logger?.child({ sweepId: sweep.id, chunk: index, attempt })
     switch (outcome.kind) {
       case 'done':
+        // The thread is free: it takes its next chunk before this one's durable write (a
+        // synchronous commit, milliseconds on a virtual disk), so the write overlaps computing.
+        this.#pump()
         try {
           const recorded = this.#store.recordChunkNow(sweep.id, sweep.plan[index]!, outcome.body, outcome.computeMs, Date.now())
           if (recorded.status === 'running') {
