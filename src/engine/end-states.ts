@@ -101,11 +101,9 @@ export class EndStateClassifier {
   /** The macroscopic level of a state with r = 1. */
   readonly level: number
   readonly patternLevel: number
-  private readonly neurons: number
   #bands: readonly MixtureBand[] | null = null
 
   constructor (private readonly settings: EndStateSettings) {
-    this.neurons = settings.neurons
     this.level = macroscopicLevel(settings.neurons)
     this.patternLevel = settings.patternLevel
   }
@@ -167,7 +165,7 @@ export class EndStateClassifier {
       }
       if (rest === previous || rest < NOISE_ESTIMATE_MIN_PATTERNS) break
       previous = rest
-      level = macroscopicLevel(this.neurons, Math.max(1, this.neurons * squares / rest))
+      level = macroscopicLevel(this.settings.neurons, Math.max(1, this.settings.neurons * squares / rest))
     }
     return level
   }

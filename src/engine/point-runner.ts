@@ -60,10 +60,10 @@ export function createPointRunner (p: PointParams, masterSeed: number, pointInde
   let cachedIndex = -1
   let cached: Network | null = null
   const redrawable = canRedrawNetwork(p)
-  // Its own frame, and only for points that can redraw: with the old network passed as an
-  // argument from networkFor's frame, a dense-memory point held two networks at its peak
-  // (bench/memory.ts: 167 MB against an 87 MB estimate), the old one still reachable, we take
-  // it from a register of that frame, when `reclaim` ran.
+  // Its own frame, and only for points that can redraw: when networkFor itself passed the old
+  // network as an argument, a dense-memory point held two networks at its peak (bench/memory.ts:
+  // 167 MB against an 87 MB estimate), the old one apparently still held by that frame when
+  // `reclaim` ran.
   const redrawCached = (rng: RandomSource): Network | null => cached !== null && redrawNetwork(cached, p, rng) ? cached : null
   const networkFor = (index: number): Network => {
     if (cached !== null && cachedIndex === index) return cached

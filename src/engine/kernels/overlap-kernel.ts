@@ -1,4 +1,4 @@
-import { EMPTY, unlessMemoryRefused, withSampleClassifier, withSweepObserver, Workspaces, type Workspace } from './wasm.js'
+import { EMPTY, unlessMemoryRefused, withKernelHooks, Workspaces, type Workspace } from './wasm.js'
 import { SAMPLE_BLOCK, sampleBlockBytes, type KernelExports, type KernelsUsing } from './signatures.js'
 import { stateFromKernel, stateToKernel, xoshiroState } from './native-random.js'
 import { GlauberTable } from './glauber-table.js'
@@ -135,7 +135,7 @@ export class OverlapKernel {
     // int32 overlaps have no whole asynchronous trial: they always need the companion.
     if (kernel !== null && (!onlyWholeAsync || kernel.wide)) kernel.more()
     // Glauber dynamics will need the table: its room is taken now, with the network.
-    if (kernel !== null && thermal) kernel.ws.reserve(kernel.table.at + kernel.table.bytes)
+    if (kernel !== null && thermal) kernel.reserveTable()
     return kernel
   }
 
@@ -332,9 +332,11 @@ export class OverlapKernel {
    */
   runGlauber (state: Int8Array, m: Int32Array, order: Int32Array, sweeps: number, shuffle: boolean, factor: number, rng: RandomSource, afterSweep: (sweep: number) => void): boolean {
     return this.wholeGlauber(state, m, order, sweeps, factor, rng, (half, more) => {
-      withSweepObserver((sweep) => {
-        this.leave(state, m, true)
-        afterSweep(sweep)
+      withKernelHooks({
+        sweepDone: (sweep) => {
+          this.leave(state, m, true)
+          afterSweep(sweep)
+        }
       }, () => more.runGlauber16(this.xiAt, this.mAt, this.sAt, this.orderAt, this.n, this.stride, this.self, this.rngAt, sweeps, shuffle ? 1 : 0, factor, this.table.at, half, this.p, 0, 0, 0, 0))
     })
   }
@@ -348,7 +350,7 @@ export class OverlapKernel {
     const ran = this.wholeGlauber(state, m, order, sweeps, factor, rng, (half, more) => {
       this.u8.fill(0, block, block + sampleBlockBytes(this.stride))
       const overlaps = new Float64Array(this.u8.buffer, block + SAMPLE_BLOCK.overlaps, this.p)
-      withSampleClassifier(() => sampling.classify(overlaps), () => more.runGlauber16(this.xiAt, this.mAt, this.sAt, this.orderAt, this.n, this.stride, this.self, this.rngAt, sweeps, shuffle ? 1 : 0, factor, this.table.at, half,
+      withKernelHooks({ classifySample: () => sampling.classify(overlaps) }, () => more.runGlauber16(this.xiAt, this.mAt, this.sAt, this.orderAt, this.n, this.stride, this.self, this.rngAt, sweeps, shuffle ? 1 : 0, factor, this.table.at, half,
         this.p, sampling.burnIn, sampling.target, sampling.patternLevel, block))
     })
     if (!ran) return null
@@ -389,10 +391,15 @@ export class OverlapKernel {
     return true
   }
 
+  /** Grows the workspace to hold the Glauber table after the layout. */
+  private reserveTable (): void {
+    this.ws.reserve(this.table.at + this.table.bytes)
+  }
+
   /** Enters with room for the Glauber table, ready for `factor`; returns its half-width. */
   private enterThermal (factor: number): number {
     const ws = this.ws
-    ws.reserve(this.table.at + this.table.bytes)
+    this.reserveTable()
     this.enter()
     const half = this.table.prepare(ws.buffer, factor, ws.claimed <= this.table.at)
     ws.claim(this.table.at + this.table.bytes)

@@ -55,44 +55,34 @@ function kernelModule (name: KernelModule): object | null {
   return mod
 }
 
-let sweepObserver: ((sweep: number) => void) | null = null
+/** What a kernel that runs several sweeps in one call asks of its caller while it runs. */
+export interface KernelHooks {
+  /** After each sweep, the sweep's number (the caller may read the state and observe). */
+  sweepDone?: (sweep: number) => void
+  /** The end-state class index of the sample the kernel just took (overlaps in its sample block). */
+  classifySample?: () => number
+}
 
-/**
- * Runs `body` (a call into a kernel that runs several sweeps) with `observer` called after
- * each of its sweeps: the kernels call the host's sweepDone(sweep), which lands here.
- */
-export function withSweepObserver<R> (observer: (sweep: number) => void, body: () => R): R {
-  sweepObserver = observer
+let hooks: KernelHooks = {}
+
+/** Runs `body` (a call into a kernel that runs several sweeps) with `during` answering the kernel's calls to the host. */
+export function withKernelHooks<R> (during: KernelHooks, body: () => R): R {
+  hooks = during
   try {
     return body()
   } finally {
-    sweepObserver = null
+    hooks = {}
   }
 }
 
-let sampleClassifier: (() => number) | null = null
-
-/**
- * Runs `body` (a whole Glauber trial that takes its samples in the kernel) with `classify`
- * answering the kernel's classifySample(): the end-state class index of the current sample.
- */
-export function withSampleClassifier<R> (classify: () => number, body: () => R): R {
-  sampleClassifier = classify
-  try {
-    return body()
-  } finally {
-    sampleClassifier = null
-  }
-}
-
-/** The modules' imports: the host's exponential (the plain path's Math.exp), the sweep hook and the sample classifier. */
+/** The modules' imports: the host's exponential (the plain path's Math.exp) and the hooks. */
 const HOST = {
   host: {
     exp: Math.exp,
-    sweepDone: (sweep: number): void => { sweepObserver?.(sweep) },
+    sweepDone: (sweep: number): void => { hooks.sweepDone?.(sweep) },
     classifySample: (): number => {
-      if (sampleClassifier === null) throw new Error('a kernel asked to classify a sample outside withSampleClassifier')
-      return sampleClassifier()
+      if (hooks.classifySample === undefined) throw new Error('a kernel asked to classify a sample with no classifier given')
+      return hooks.classifySample()
     }
   }
 }
@@ -137,7 +127,6 @@ export class Workspace<T extends { memory: WasmMemory }> {
     return this.#companions.get(module) as U | null
   }
 
-  /** Grows the memory to at least `bytes`; throws RangeError when the host refuses. */
   /**
    * Bytes [0, claimed) may have been written; the memory beyond has held zero since it was
    * created or grown. Meaningful only where every user claims what it writes before writing:
@@ -149,9 +138,10 @@ export class Workspace<T extends { memory: WasmMemory }> {
 
   /** Records that bytes below `end` may be written. */
   claim (end: number): void {
-    if (!(this.claimed >= end)) this.claimed = end
+    this.claimed = Math.max(this.claimed, end)
   }
 
+  /** Grows the memory to at least `bytes`; throws RangeError when the host refuses. */
   reserve (bytes: number): void {
     const have = this.#buffer.byteLength
     if (bytes > have) {
