@@ -41,17 +41,27 @@ export const TARGET_CHUNK_SECONDS = 3
 export const TRIAL_OVERHEAD_OPS = 3000
 
 /**
- * Stored size of one trial record (V8-serialised, as chunks keep it): a fixed part, a
- * stability summary where measured, and 8-byte doubles of each recorded trajectory.
- * Measured: 152 B plain, 225 B with stability, 3.8 kB with two 200-step trajectories
- * (test/spec/work.test.ts checks the estimate against encoded chunks).
+ * Stored size of one trial record, as chunks keep records (by column, sweep/trial-columns.ts):
+ * a fixed part, what Glauber trials, mixture cues and the stability and pattern-overlap
+ * measures add, and the doubles of each recorded trajectory. Measured per record: 45 B plain,
+ * 58 B with stability, 113 B at T > 0, 77 B with a 3-component mixture cue, 82 B with pattern
+ * overlaps, 3.4 kB with two 201-value trajectories (test/spec/work.test.ts checks the estimate
+ * against encoded chunks).
  */
-const RECORD_BASE_BYTES = 200
-const RECORD_STABILITY_BYTES = 100
-const TRAJECTORY_VALUE_BYTES = 10
+const STORED_BASE_BYTES = 56
+const STORED_STABILITY_BYTES = 16
+const STORED_THERMAL_BYTES = 75
+const STORED_PATTERN_OVERLAP_BYTES = 45
+const STORED_COMPONENT_BYTES = 12
+const STORED_TRAJECTORY_VALUE_BYTES = 9
 
-/** A record held in memory (a JS object, arrays of doubles) takes about this many times its stored size. */
-const RECORD_MEMORY_FACTOR = 2
+/**
+ * Memory of one trial record held as a JavaScript object (arrays of doubles): a fixed part,
+ * a stability summary, and each trajectory value.
+ */
+const MEMORY_BASE_BYTES = 400
+const MEMORY_STABILITY_BYTES = 200
+const MEMORY_TRAJECTORY_VALUE_BYTES = 20
 
 /** A result row (summary, theory values) in stored form, and in JSON or CSV, per grid point. */
 const ROW_BYTES = 4096
@@ -117,15 +127,24 @@ function trajectoryLength (params: PointParams): number {
   return params.dynamics.maxSweeps + 1
 }
 
+/** Trajectories a trial record holds (overlap, energy). */
+function trajectories (params: PointParams): number {
+  return (params.measures.overlapTrajectory ? 1 : 0) + (params.measures.energyTrajectory ? 1 : 0)
+}
+
 /** Estimated stored size of one trial record of a point, in bytes. */
 export function trialRecordBytes (params: PointParams): number {
-  const trajectories = (params.measures.overlapTrajectory ? 1 : 0) + (params.measures.energyTrajectory ? 1 : 0)
-  return RECORD_BASE_BYTES + (params.measures.stability ? RECORD_STABILITY_BYTES : 0) + trajectories * trajectoryLength(params) * TRAJECTORY_VALUE_BYTES
+  return STORED_BASE_BYTES +
+    (params.measures.stability ? STORED_STABILITY_BYTES : 0) +
+    (params.dynamics.temperature > 0 ? STORED_THERMAL_BYTES : 0) +
+    (params.measures.patternOverlaps === true ? STORED_PATTERN_OVERLAP_BYTES : 0) +
+    (params.cue.kind === 'mixture' ? params.cue.components * STORED_COMPONENT_BYTES : 0) +
+    trajectories(params) * trajectoryLength(params) * STORED_TRAJECTORY_VALUE_BYTES
 }
 
 /** Estimated memory of one trial record of a point held as a JavaScript object, in bytes. */
 export function trialRecordMemory (params: PointParams): number {
-  return RECORD_MEMORY_FACTOR * trialRecordBytes(params)
+  return MEMORY_BASE_BYTES + (params.measures.stability ? MEMORY_STABILITY_BYTES : 0) + trajectories(params) * trajectoryLength(params) * MEMORY_TRAJECTORY_VALUE_BYTES
 }
 
 /** Trials one grid point may run: `trials`, or for a search its whole budget. */

@@ -11,7 +11,7 @@ import type { Provenance, ResultRow, SweepResult } from '../results/types.js'
 import { rowParams } from '../results/row-params.js'
 import type { RuntimeFacts } from '../runtime/facts.js'
 import { assembleSearches } from './analysis/assemble-searches.js'
-import { decodeValue } from './codec.js'
+import { decodeChunkValue } from './codec.js'
 import { POINT_KEYING, type ChunkResult } from './compute-chunk.js'
 import { EngineMixError, IncompleteResultError } from './errors.js'
 import { precisionOutcome } from './precision.js'
@@ -202,7 +202,7 @@ export function storedTrials (spec: NormalisedSpec, plan: readonly Chunk[], stor
  * @throws {EngineMixError} for a chunk computed by another engine release than this one.
  */
 function decodeChunk (body: Uint8Array, chunk: Chunk): ChunkResult {
-  const { engine, ...result } = decodeValue<ChunkResult & { engine?: string }>(body)
+  const { engine, ...result } = decodeChunkValue<ChunkResult & { engine?: string }>(body)
   if (engine !== undefined && engine !== ENGINE_VERSION) throw new EngineMixError(chunk.index, engine, ENGINE_VERSION)
   return { ...result, chunk: chunk.index, point: chunk.point }
 }

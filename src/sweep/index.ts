@@ -16,7 +16,7 @@ export {
   SYSTEM_CAUSES, CHUNK_CANCELED_ERROR_NAME, THREAD_CRASH_ERROR_NAME, THREAD_OUT_OF_MEMORY_ERROR_NAME,
   type ClassifiedError, type SystemCause
 } from './failure.js'
-export { CODEC_NAME, encodeValue, decodeValue } from './codec.js'
+export { CODEC_NAME, encodeValue, decodeValue, encodeChunkValue, decodeChunkValue } from './codec.js'
 export { ChunkCanceledError, EngineMixError, IncompleteResultError } from './errors.js'
 export { searchStreamPoint, SEARCH_STREAM_OFFSET, SEARCH_STEP_STRIDE } from './analysis/run-search.js'
 export { SIMULATED_CAPACITY, RS_CAPACITY_SOURCE } from './analysis/scaling.js'

@@ -4,7 +4,7 @@
  * as this sweep's own chunk. Either way the records are those a fresh run computes: a trial's
  * record depends on the seed, the point's parameters and its index only (compute-chunk.ts).
  */
-import { decodeValue, encodeValue } from './codec.js'
+import { decodeChunkValue, encodeChunkValue } from './codec.js'
 import type { ChunkResult } from './compute-chunk.js'
 import type { Chunk, InheritSource } from './plan.js'
 import type { ChunkOutcome, SweepStore } from './store.js'
@@ -14,9 +14,9 @@ export async function inheritStored (store: SweepStore, id: string, chunk: Chunk
   if (from.skip === undefined) return await store.inheritChunk(id, chunk, from, nowMs)
   const [stored] = await store.chunksBetween(from.sweepId, from.chunkIndex, 1)
   if (stored === undefined || stored.index !== from.chunkIndex) return null
-  const source = decodeValue<ChunkResult>(stored.body)
+  const source = decodeChunkValue<ChunkResult>(stored.body)
   const trials = source.trials.slice(from.skip, from.skip + chunk.count)
   if (source.search !== undefined || trials.length !== chunk.count) return null
   const slice: ChunkResult = { ...source, chunk: chunk.index, point: chunk.point, trials }
-  return await store.recordChunk(id, chunk, encodeValue(slice), 0, nowMs)
+  return await store.recordChunk(id, chunk, encodeChunkValue(slice), 0, nowMs)
 }

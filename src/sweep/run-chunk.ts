@@ -10,7 +10,7 @@ import { performance } from 'node:perf_hooks'
 import { passChunkGate } from '../runtime/chunk-gate.js'
 import type { NormalisedSpec } from '../spec/index.js'
 import { ENGINE_VERSION } from '../engine/index.js'
-import { encodeValue } from './codec.js'
+import { encodeChunkValue } from './codec.js'
 import { computeChunk } from './compute-chunk.js'
 import { classifyChunkError, type ClassifiedError } from './failure.js'
 import type { Chunk } from './plan.js'
@@ -53,7 +53,7 @@ export function runChunk (spec: NormalisedSpec, chunk: Chunk, hooks: ChunkRunHoo
     })
     // Credit the planned count: a grid chunk ran exactly that many trials, a search chunk's count is its budget (progress reaches 100 % when it ends).
     // The engine release travels with the records: assembly refuses to mix two (assemble.ts).
-    return { kind: 'done', body: encodeValue({ ...result, engine: ENGINE_VERSION }), trials: chunk.count, computeMs: performance.now() - started }
+    return { kind: 'done', body: encodeChunkValue({ ...result, engine: ENGINE_VERSION }), trials: chunk.count, computeMs: performance.now() - started }
   } catch (error) {
     const classified = classifyChunkError(error)
     return classified.kind === 'canceled' ? { kind: 'stopped' } : { kind: 'failed', error: classified }

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { estimatePointCost } from '../../src/engine/index.js'
 import { checkLimits, DEFAULT_LIMITS, ENGINE_OPS_PER_CPU_SECOND, estimateWork, maxChunkTrials, normaliseSpec, pointAt, TRIAL_OVERHEAD_OPS, trialRecordBytes, trialRecordMemory, WorkLimitError } from '../../src/spec/index.js'
-import { computeChunk, encodeValue, planSweep } from '../../src/sweep/index.js'
+import { computeChunk, encodeChunkValue, planSweep } from '../../src/sweep/index.js'
 
 function limitError (run: () => unknown): WorkLimitError {
   try {
@@ -77,7 +77,7 @@ describe('stored per-trial data is counted before running', () => {
   it('refuses five million trials of a tiny network: one point\'s records would not fit one worker', () => {
     const spec = normaliseSpec({ neurons: 10, patterns: 1, trials: 5_000_000, dynamics: { maxSweeps: 3 } })
     const work = estimateWork(spec)
-    expect(work.storedBytes).toBeGreaterThan(5_000_000 * 150)
+    expect(work.storedBytes).toBeGreaterThan(5_000_000 * 45) // 45 B a plain record as chunks store it (by column)
     expect(work.peakBytes).toBeGreaterThan(1e9)
     expect(limitError(() => checkLimits(spec, DEFAULT_LIMITS))).toMatchObject({ limit: 'maxBytes' })
     // Its CPU time counts every trial's own overhead: at least 10 µs a trial on the measured machine.
@@ -97,15 +97,18 @@ describe('stored per-trial data is counted before running', () => {
     expect(limitError(() => checkLimits(spec, { ...DEFAULT_LIMITS, maxBytes: Number.MAX_SAFE_INTEGER }))).toMatchObject({ limit: 'maxStoredBytes' })
   })
 
-  it('estimates the stored size of trial records within a quarter of what chunks really hold', () => {
+  it('estimates the stored size of trial records (by column) above what chunks really hold and within half again', () => {
     const cases = [
       { neurons: 100, patterns: 5, trials: 200 },
       { neurons: 100, patterns: 5, trials: 200, measures: { stability: true } },
-      { neurons: 100, patterns: 5, trials: 20, dynamics: { temperature: 0.5, maxSweeps: 200 }, measures: { overlapTrajectory: true, energyTrajectory: true } }
+      { neurons: 100, patterns: 5, trials: 20, dynamics: { temperature: 0.5, maxSweeps: 200 }, measures: { overlapTrajectory: true, energyTrajectory: true } },
+      { neurons: 100, patterns: 5, trials: 200, dynamics: { temperature: 0.5, maxSweeps: 20 } },
+      { neurons: 100, patterns: 5, trials: 200, measures: { patternOverlaps: true } },
+      { neurons: 100, patterns: 5, trials: 200, cue: { kind: 'mixture', components: 3 } }
     ]
     for (const input of cases) {
       const spec = normaliseSpec({ seed: 4, ...input })
-      const encoded = planSweep(spec).chunks.reduce((sum, chunk) => sum + encodeValue(computeChunk(spec, chunk)).byteLength, 0)
+      const encoded = planSweep(spec).chunks.reduce((sum, chunk) => sum + encodeChunkValue(computeChunk(spec, chunk)).byteLength, 0)
       const estimate = spec.trials * trialRecordBytes(pointAt(spec, 0).params)
       expect(estimate / encoded, JSON.stringify(input)).toBeGreaterThan(1)
       expect(estimate / encoded, JSON.stringify(input)).toBeLessThan(1.5)

@@ -14,7 +14,7 @@ import { UnrecoverableError, WaitingError, type SandboxedJob } from 'bullmq'
 import type { Redis } from 'ioredis'
 import { specHash, type NormalisedSpec } from '../../../spec/index.js'
 import {
-  applyBlock, assembleResult, assembleStored, chunkCpuSeconds, classifyChunkError, decidePoint, decodeValue, encodeValue, isTerminal, makeProvenance, pointRecords, runChunk, systemCauseOf,
+  applyBlock, assembleResult, assembleStored, chunkCpuSeconds, classifyChunkError, decidePoint, decodeChunkValue, encodeValue, isTerminal, makeProvenance, pointRecords, runChunk, systemCauseOf,
   systemFailure, trialsEnd, userFailure, type ChunkResult, type ChunkRunOutcome
 } from '../../../sweep/index.js'
 import type { SweepResult } from '../../../results/index.js'
@@ -238,7 +238,7 @@ async function assemble (context: SandboxContext, job: SandboxedJob<AssembleJobD
     })
     body = encodeValue(plan === null
       // A sweep stored before plans were: its result keeps its trials, as results then did.
-      ? legacyResult(spec, stored.chunks.map((chunk) => decodeValue<ChunkResult>(chunk.body)), provenance)
+      ? legacyResult(spec, stored.chunks.map((chunk) => decodeChunkValue<ChunkResult>(chunk.body)), provenance)
       : assembleStored(spec, plan.chunks, stored.chunks, provenance))
   } catch (error) {
     const classified = classifyChunkError(error)
