@@ -9,7 +9,7 @@
  */
 import { estimateWork, normaliseSpec } from '../src/spec/index.js'
 import { computeChunk, planSweep } from '../src/sweep/index.js'
-import { compileKernelsOptimised } from '../src/runtime/kernel-compilation.js'
+import { compileEngineEagerly } from '../src/runtime/engine-compilation.js'
 
 const SCALE = Number(process.env.ESTIMATE_SCALE ?? 1)
 
@@ -45,7 +45,7 @@ function runAll (raw: Record<string, unknown>): void {
   for (const chunk of planSweep(spec).chunks) computeChunk(spec, chunk, {})
 }
 
-compileKernelsOptimised()
+compileEngineEagerly()
 const results: EstimateMeasurement[] = []
 for (const entry of ESTIMATE_CASES) {
   const base: Record<string, unknown> = { seed: 7, cue: flip, ...entry.spec }

@@ -17,7 +17,7 @@ import { fileURLToPath } from 'node:url'
 import { isMainThread, parentPort, Worker, workerData } from 'node:worker_threads'
 import { DEFAULT_LIMITS, estimateWork, normaliseSpec, type WorkLimits } from '../src/spec/index.js'
 import { planSweep, computeChunk } from '../src/sweep/index.js'
-import { compileKernelsOptimised } from '../src/runtime/kernel-compilation.js'
+import { compileEngineEagerly } from '../src/runtime/engine-compilation.js'
 import { explicitCollector } from '../src/runtime/reclaim.js'
 import { ENGINE_PROCESS_FLAGS, threadExecArgv } from '../src/runtime/node-flags.js'
 
@@ -90,7 +90,7 @@ function runFirstPoint (raw: Record<string, unknown>): void {
 }
 
 if (!isMainThread) {
-  compileKernelsOptimised()
+  compileEngineEagerly()
   const { index } = workerData as { index: number }
   const spec = MEMORY_CASES[index]!.spec
   runFirstPoint(warmUpSpec(spec))

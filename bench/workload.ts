@@ -8,7 +8,7 @@
 import { runCapacityWorkload, runSharedNetworkWorkload, runSoftmaxWorkload, summarize, workloadParams } from './canonical.js'
 import { setFastPathsEnabled } from '../src/engine/kernels/wasm.js'
 import type { PointParams } from '../src/engine/index.js'
-import { compileKernelsOptimised } from '../src/runtime/kernel-compilation.js'
+import { compileEngineEagerly } from '../src/runtime/engine-compilation.js'
 
 const [workload = 'W1', path = 'fast', seedArg = '1', warmArg = '0'] = process.argv.slice(2)
 const warmRepeats = Number(warmArg)
@@ -17,8 +17,8 @@ const trialsPerLoad = Number(process.env.TRIALS_PER_LOAD ?? 50)
 const seed = Number(seedArg)
 if (path !== 'fast' && path !== 'plain') throw new Error(`path must be fast or plain, not ${path}`)
 setFastPathsEnabled(path === 'fast')
-// Run the engine as the service's compute threads do (src/runtime/kernel-compilation.ts).
-compileKernelsOptimised()
+// Run the engine as the service's compute threads do (src/runtime/engine-compilation.ts).
+compileEngineEagerly()
 const impl = 'memsweep'
 const variant = path
 const selfRssKb = (): number => process.resourceUsage().maxRSS

@@ -6,11 +6,11 @@
 import { threadId } from 'node:worker_threads'
 import { assembleStored, classifyChunkError, decidePoint, encodeValue, makeProvenance, pointRecords, runChunk } from '../../sweep/index.js'
 import type { AssembleTask, ChunkTask, ChunkTaskOutcome, DecideTask, RunChunkTask } from './chunk-task.js'
-import { compileKernelsOptimised } from '../../runtime/kernel-compilation.js'
+import { compileEngineEagerly } from '../../runtime/engine-compilation.js'
 import { runtimeFacts } from '../../runtime/facts.js'
 import { explicitCollector } from '../../runtime/reclaim.js'
 
-compileKernelsOptimised()
+compileEngineEagerly()
 
 export default function handleChunkTask (task: ChunkTask): ChunkTaskOutcome {
   switch (task.kind) {

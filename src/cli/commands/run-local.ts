@@ -20,7 +20,7 @@ import { CliError, EXIT, say, type CliIo } from '../io.js'
 import { createProgressReporter, type ProgressReporter } from '../progress.js'
 import { outputFormat, readSpecFile } from '../spec-file.js'
 import { writeFileAtomically } from '../write-file.js'
-import { compileKernelsOptimised } from '../../runtime/kernel-compilation.js'
+import { compileEngineEagerly } from '../../runtime/engine-compilation.js'
 import { explicitCollector } from '../../runtime/reclaim.js'
 
 export interface RunLocalOptions {
@@ -67,7 +67,7 @@ export async function runLocal (io: CliIo, specPath: string, options: RunLocalOp
 }
 
 async function runInProcess (spec: NormalisedSpec, progress: ProgressReporter, signal: AbortSignal | undefined): Promise<SweepResult> {
-  compileKernelsOptimised()
+  compileEngineEagerly()
   // With precision targets the plan grows: a point whose blocks are all run is decided on,
   // exactly as the backends do, and either closed or given its next block.
   const plan = { chunks: [...planSweep(spec).chunks] as Chunk[] }

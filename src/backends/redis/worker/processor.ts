@@ -28,11 +28,11 @@ import { failSweep } from './failures.js'
 import type { HandBackNotice } from './progress-relay.js'
 import { StopBoardReader } from './stop-board.js'
 import { TimeBudgetReader } from './time-budget.js'
-import { compileKernelsOptimised } from '../../../runtime/kernel-compilation.js'
+import { compileEngineEagerly } from '../../../runtime/engine-compilation.js'
 import { runtimeFacts } from '../../../runtime/facts.js'
 import { explicitCollector } from '../../../runtime/reclaim.js'
 
-compileKernelsOptimised()
+compileEngineEagerly()
 
 /** What the worker process hands every sandbox thread (BullMQ's `workerThreadsOptions.workerData`). */
 export interface SandboxSettings {
