@@ -12,7 +12,9 @@
  * nothing else, so the ratio is the service's own cost: HTTP, validation, SQLite or Redis,
  * scheduling, progress, the result's storage and the event. Prints one JSON line.
  *
- * Environment: SERVICE_TRIALS (2000 per load), SERVICE_REPS (3, median), THREADS (2),
+ * Rounds time the engine alone, the embedded server and the Redis service once each, in turn.
+ *
+ * Environment: SERVICE_TRIALS (2000 per load), SERVICE_REPS (5 rounds, median), THREADS (2),
  * REDIS_URL (redis://127.0.0.1:6379; the Redis part is skipped with a note when it does not answer).
  */
 import { mkdtempSync, rmSync } from 'node:fs'
@@ -32,13 +34,11 @@ import { removePrefix } from '../test/integration/helpers.js'
 import type { ServiceOverheadReport } from './report.js'
 
 const TRIALS = Number(process.env.SERVICE_TRIALS ?? 2000)
-const REPS = Number(process.env.SERVICE_REPS ?? 3)
+const REPS = Number(process.env.SERVICE_REPS ?? 5)
 const THREADS = Number(process.env.THREADS ?? 2)
 const REDIS_URL = process.env.REDIS_URL ?? 'redis://127.0.0.1:6379'
 
 const curve = capacityCurve
-
-type OverheadSide = NonNullable<ServiceOverheadReport['embedded']>
 
 /** The engine alone: the plan's chunks on THREADS compute threads, costliest first, then assembly. */
 async function engineAlone (pool: ChunkThreadPool, raw: Record<string, unknown>): Promise<number> {
@@ -86,14 +86,6 @@ async function throughService (baseUrl: string, raw: Record<string, unknown>): P
   }
 }
 
-async function timeService (baseUrl: string): Promise<number[]> {
-  await throughService(baseUrl, curve(4, 99))
-  const seconds: number[] = []
-  // A new seed every repetition: a repeated spec would reuse the stored points.
-  for (let rep = 0; rep < REPS; rep++) seconds.push(await throughService(baseUrl, curve(TRIALS, 1000 + rep)))
-  return seconds
-}
-
 async function stopServer (server: ServerProcess): Promise<void> {
   server.child.kill('SIGTERM')
   await server.exited
@@ -106,39 +98,48 @@ const pool = new ChunkThreadPool({
   entry: workerEntryFor(new URL('../src/backends/embedded/chunk-worker.ts', import.meta.url)),
   onIdleThreadError: (error) => { throw error }
 })
-await pool.warmUp()
-await engineAlone(pool, curve(4, 99))
-for (let rep = 0; rep < REPS; rep++) report.engine.seconds.push(await engineAlone(pool, curve(TRIALS, 1000 + rep)))
-await pool.destroy()
-report.engine.median = median(report.engine.seconds)
-const side = (seconds: number[]): OverheadSide => ({ seconds, median: median(seconds), ratio: median(seconds) / report.engine.median })
-
 const dataDir = mkdtempSync(join(tmpdir(), 'memsweep-overhead-'))
+const prefix = `bench-overhead-${randomUUID().slice(0, 8)}`
+const stops: Array<() => Promise<void>> = [async () => { await pool.destroy() }]
 try {
-  const server = await startServerProcess({ DATA_DIR: dataDir, WORKER_THREADS: String(THREADS) }, 120_000, ENGINE_PROCESS_FLAGS)
-  try {
-    report.embedded = side(await timeService(server.url))
-  } finally {
-    await stopServer(server)
+  await pool.warmUp()
+  const sides: Array<{ name: 'engine' | 'embedded' | 'redis', time: (raw: Record<string, unknown>) => Promise<number> }> = [
+    { name: 'engine', time: async (raw) => await engineAlone(pool, raw) }
+  ]
+  const embedded = await startServerProcess({ DATA_DIR: dataDir, WORKER_THREADS: String(THREADS) }, 120_000, ENGINE_PROCESS_FLAGS)
+  stops.push(async () => { await stopServer(embedded) })
+  sides.push({ name: 'embedded', time: async (raw) => await throughService(embedded.url, raw) })
+  if (await redisAnswers(REDIS_URL)) {
+    const api = await startServerProcess({ REDIS_URL, REDIS_PREFIX: prefix }, 120_000, ENGINE_PROCESS_FLAGS)
+    const workers = Array.from({ length: THREADS }, () => spawnWorker({ url: REDIS_URL, prefix, concurrency: 1 }))
+    stops.push(async () => {
+      await Promise.all(workers.map((w) => stopWorker(w)))
+      await stopServer(api)
+      await removePrefix(prefix, REDIS_URL)
+    })
+    await Promise.all(workers.map((w) => w.waitFor((line) => line.type === 'ready', 180_000)))
+    sides.push({ name: 'redis', time: async (raw) => await throughService(api.url, raw) })
+  } else {
+    report.notes.push(`Redis at ${REDIS_URL} did not answer: the Redis backend was not measured`)
+  }
+  for (const side of sides) await side.time(curve(4, 99))
+  // Rounds run every side once, in turn: this machine drifts between faster and slower phases,
+  // and a side timed in a block of its own would carry its phase into the ratio.
+  const seconds = new Map(sides.map((side) => [side.name, [] as number[]]))
+  // A new seed every round: a repeated spec would reuse the stored points.
+  for (let rep = 0; rep < REPS; rep++) {
+    for (const side of sides) seconds.get(side.name)!.push(await side.time(curve(TRIALS, 1000 + rep)))
+  }
+  const engine = seconds.get('engine')!
+  report.engine = { seconds: engine, median: median(engine) }
+  for (const name of ['embedded', 'redis'] as const) {
+    const own = seconds.get(name)
+    if (own === undefined) continue
+    report[name] = { seconds: own, median: median(own), ratio: median(own) / report.engine.median, roundRatio: median(own.map((x, k) => x / engine[k]!)) }
   }
 } finally {
+  for (const stop of stops.reverse()) await stop()
   rmSync(dataDir, { recursive: true, force: true })
-}
-
-if (await redisAnswers(REDIS_URL)) {
-  const prefix = `bench-overhead-${randomUUID().slice(0, 8)}`
-  const server = await startServerProcess({ REDIS_URL, REDIS_PREFIX: prefix }, 120_000, ENGINE_PROCESS_FLAGS)
-  const workers = Array.from({ length: THREADS }, () => spawnWorker({ url: REDIS_URL, prefix, concurrency: 1 }))
-  try {
-    await Promise.all(workers.map((w) => w.waitFor((line) => line.type === 'ready', 180_000)))
-    report.redis = side(await timeService(server.url))
-  } finally {
-    await Promise.all(workers.map((w) => stopWorker(w)))
-    await stopServer(server)
-    await removePrefix(prefix, REDIS_URL)
-  }
-} else {
-  report.notes.push(`Redis at ${REDIS_URL} did not answer: the Redis backend was not measured`)
 }
 process.stdout.write(`${JSON.stringify(report)}\n`)
 process.exit(0)
