@@ -116,7 +116,8 @@ function columnOf (key: string, records: readonly PlainRecord[]): Column {
 export function toColumns (records: readonly unknown[]): RecordColumns | null {
   if (!records.every(isPlainRecord)) return null
   const order = commonKeyOrder(records)
-  if (order === null) return null
+  // Assigning a member named __proto__ would set the prototype instead: such records stay as they are.
+  if (order === null || order.includes('__proto__')) return null
   return { count: records.length, columns: order.map((key) => columnOf(key, records)) }
 }
 

@@ -62,6 +62,7 @@ describe('trial records stored by column', () => {
   it('leaves records whose keys follow no common order as they are', () => {
     const records = [{ a: 1, b: 2 }, { b: 3, a: 4 }]
     expect(toColumns(records)).toBeNull()
+    expect(toColumns([JSON.parse('{"__proto__": 1, "a": 2}')])).toBeNull()
     const chunk = { chunk: 0, point: 0, trials: records }
     expectIdentical(decodeChunkValue(encodeChunkValue(chunk)), chunk)
   })
