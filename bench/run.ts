@@ -18,6 +18,7 @@ import { dirname, join, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { measure, median, type Run } from './measure.js'
 import { preparePeers } from './peers.js'
+import { buildWorkloadRunner } from './build.js'
 import { renderReport, timeOf, type Context, type QueueCeilingReport, type ScalingReport, type ServiceOverheadReport } from './report.js'
 import type { EstimateMeasurement } from './estimate-error.js'
 import type { HealthzReport } from './healthz.js'
@@ -42,8 +43,10 @@ const loadBefore = loadavg().map((x) => x.toFixed(2)).join(' ')
 const peers = env.SKIP_PEERS ? null : preparePeers(resolve(env.PEERS_DIR ?? join(root, '..', 'shared', 'bench')))
 const notes = peers?.notes ?? ['peers skipped (SKIP_PEERS set)']
 const warm = Number(env.WARM_REPEATS ?? 5)
-// Engine processes start with the flags the service's processes use (src/runtime/node-flags.ts).
-const engine = (workload: string, path: string, warmRepeats = 0): string[] => [process.execPath, ...ENGINE_PROCESS_FLAGS, '--import', 'tsx', join(here, 'workload.ts'), workload, path, '1', String(warmRepeats)]
+// Engine processes run the compiled workload runner (bench/build.ts) with the flags the
+// service's processes use (src/runtime/node-flags.ts).
+const workloadRunner = buildWorkloadRunner()
+const engine = (workload: string, path: string, warmRepeats = 0): string[] => [process.execPath, ...ENGINE_PROCESS_FLAGS, workloadRunner, workload, path, '1', String(warmRepeats)]
 
 interface Job { label: string, reps: number, workload: string, command: string[], cwd?: string }
 const jobs: Job[] = []

@@ -19,7 +19,6 @@
  */
 import { spawn } from 'node:child_process'
 import { mkdtempSync, rmSync } from 'node:fs'
-import { fileURLToPath } from 'node:url'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { randomUUID } from 'node:crypto'
@@ -30,6 +29,7 @@ import { createEmbeddedQueue } from '../src/backends/embedded/index.js'
 import { createRedisQueue } from '../src/backends/redis/index.js'
 import { spawnWorker, stopWorker } from '../test/integration/worker-processes.js'
 import { median } from './measure.js'
+import { buildWorkloadRunner } from './build.js'
 import { capacityCurve, finishSweep, redisAnswers } from './sweep-clock.js'
 import { removePrefix } from '../test/integration/helpers.js'
 import { ENGINE_PROCESS_FLAGS } from '../src/runtime/node-flags.js'
@@ -102,8 +102,7 @@ async function pairCeiling (command: string[], env: NodeJS.ProcessEnv): Promise<
 }
 
 const report: Record<string, unknown> = { trialsPerLoad: TRIALS, reps: REPS, ceilingTrialsPerLoad: CEILING_TRIALS, notes: [] as string[] }
-const workloadScript = fileURLToPath(new URL('./workload.ts', import.meta.url))
-report.ceilingEngine = await pairCeiling([process.execPath, ...ENGINE_PROCESS_FLAGS, '--import', 'tsx', workloadScript, 'W2', 'fast', '1', '0'], { ...process.env, TRIALS_PER_LOAD: String(CEILING_TRIALS) })
+report.ceilingEngine = await pairCeiling([process.execPath, ...ENGINE_PROCESS_FLAGS, buildWorkloadRunner(), 'W2', 'fast', '1', '0'], { ...process.env, TRIALS_PER_LOAD: String(CEILING_TRIALS) })
 if (process.env.C_PEER !== undefined) {
   report.ceilingC = await pairCeiling([process.env.C_PEER, 'W2', 'ovl', '1', String(CEILING_TRIALS)], process.env)
 } else {

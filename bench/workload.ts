@@ -1,14 +1,17 @@
 /**
  * One benchmark measurement in a fresh process:
- * `node --import tsx bench/workload.ts <W1|W2|W3|W4|D1…D7|G1|SCALE|BASELINE> <fast|plain> [seed] [warm repeats]`.
- * Prints one JSON line with the keys the shared peers print (WORKLOADS.md §8), so engine
- * and peer runs land in the same tables. Timing is in-process with a monotonic clock;
- * module loading is excluded, JIT warm-up inside the timed region counts.
+ * `node bench/workload.ts <W1|W2|W3|W4|D1…D7|G1|SCALE|BASELINE> <fast|plain> [seed] [warm repeats]`
+ * on the compiled runner (bench/build.ts; `node --import tsx bench/workload.ts …` runs it from
+ * source). Prints one JSON line with the keys the shared peers print (WORKLOADS.md §8), so
+ * engine and peer runs land in the same tables. Timing is in-process with a monotonic clock;
+ * module loading is excluded (WORKLOADS.md §6), JIT warm-up inside the timed region counts.
  */
-import { runCapacityWorkload, runSharedNetworkWorkload, runSoftmaxWorkload, summarize, workloadParams } from './canonical.js'
-import { setFastPathsEnabled } from '../src/engine/kernels/wasm.js'
 import type { PointParams } from '../src/engine/index.js'
-import { compileEngineEagerly } from '../src/runtime/engine-compilation.js'
+import { loadWithEngineCompiled } from '../src/runtime/engine-compilation.js'
+
+// Loaded as the service's compute threads load their code (src/runtime/engine-compilation.ts).
+const [{ runCapacityWorkload, runSharedNetworkWorkload, runSoftmaxWorkload, summarize, workloadParams }, { setFastPathsEnabled }] =
+  await loadWithEngineCompiled(async () => await Promise.all([import('./canonical.js'), import('../src/engine/kernels/wasm.js')]))
 
 const [workload = 'W1', path = 'fast', seedArg = '1', warmArg = '0'] = process.argv.slice(2)
 const warmRepeats = Number(warmArg)
@@ -17,8 +20,6 @@ const trialsPerLoad = Number(process.env.TRIALS_PER_LOAD ?? 50)
 const seed = Number(seedArg)
 if (path !== 'fast' && path !== 'plain') throw new Error(`path must be fast or plain, not ${path}`)
 setFastPathsEnabled(path === 'fast')
-// Run the engine as the service's compute threads do (src/runtime/engine-compilation.ts).
-compileEngineEagerly()
 const impl = 'memsweep'
 const variant = path
 const selfRssKb = (): number => process.resourceUsage().maxRSS

@@ -42,7 +42,7 @@ describe('prebuilt thread bundles', () => {
         started.add(fileURLToPath(new URL(`./${match[1]}.ts`, `file://${file}`)).slice(fileURLToPath(root).length))
       }
     }
-    started.add('src/backends/redis/worker/processor.ts')
+    started.add('src/backends/redis/worker/sandbox.ts')
     expect(started.size).toBeGreaterThanOrEqual(3)
     for (const path of started) expect(THREAD_MODULES, path).toContain(path)
   })

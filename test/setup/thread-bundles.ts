@@ -23,7 +23,7 @@ const root = new URL('../../', import.meta.url)
 export const THREAD_MODULES: readonly string[] = [
   'src/backends/embedded/chunk-worker.ts',
   'src/api/render/render-thread.ts',
-  'src/backends/redis/worker/processor.ts',
+  'src/backends/redis/worker/sandbox.ts',
   'test/backends/embedded/fixtures/faulty-chunk-worker.ts'
 ]
 

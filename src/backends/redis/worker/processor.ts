@@ -1,6 +1,6 @@
 /**
- * The sandboxed processor: BullMQ runs this module in a worker thread of the worker
- * process, so a CPU-bound chunk never blocks the process's lock renewals. It handles two
+ * The sandboxed processor: BullMQ runs this module (through sandbox.ts) in a worker thread of
+ * the worker process, so a CPU-bound chunk never blocks the process's lock renewals. It handles two
  * jobs: `chunk` (run a chunk's trials and store its result) and `assemble` (turn a
  * finished sweep's chunk results into the sweep result).
  *
@@ -28,11 +28,8 @@ import { failSweep } from './failures.js'
 import type { HandBackNotice } from './progress-relay.js'
 import { StopBoardReader } from './stop-board.js'
 import { TimeBudgetReader } from './time-budget.js'
-import { compileEngineEagerly } from '../../../runtime/engine-compilation.js'
 import { runtimeFacts } from '../../../runtime/facts.js'
 import { explicitCollector } from '../../../runtime/reclaim.js'
-
-compileEngineEagerly()
 
 /** What the worker process hands every sandbox thread (BullMQ's `workerThreadsOptions.workerData`). */
 export interface SandboxSettings {

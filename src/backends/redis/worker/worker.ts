@@ -147,8 +147,8 @@ type SweepJob = Job<SweepJobData, unknown, SweepJobName>
  * TypeScript source through tsx.
  */
 function processorFile (): URL {
-  if (!import.meta.url.endsWith('.ts')) return new URL('./processor.js', import.meta.url)
-  return prebuiltThreadBundle(new URL('./processor.ts', import.meta.url)) ?? new URL('./processor-from-source.mjs', import.meta.url)
+  if (!import.meta.url.endsWith('.ts')) return new URL('./sandbox.js', import.meta.url)
+  return prebuiltThreadBundle(new URL('./sandbox.ts', import.meta.url)) ?? new URL('./processor-from-source.mjs', import.meta.url)
 }
 
 /**
