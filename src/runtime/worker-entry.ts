@@ -1,8 +1,11 @@
 /**
  * Where a thread's module lives and how to start it. Compiled (dist/), the entry is plain
- * JavaScript beside its caller. From source (vitest, tsx, `npm run dev`) it is the
- * TypeScript file, and the thread needs tsx's loader: a worker thread does not inherit the
- * loader hooks of the thread that started it.
+ * JavaScript beside its caller. From source (vitest, tsx, `npm run memsweep`) the thread
+ * starts from thread-from-source.mjs, which loads the TypeScript module named in its argv
+ * through tsx's scoped API: a worker thread does not inherit the loader hooks of the thread
+ * that started it, and Node 20 threads ignore an `--import tsx` flag for the modules they
+ * import later (an entry that loads its code with a dynamic import, as the compute thread's
+ * does, would not find it).
  *
  * A run from source may also name a directory of prebuilt thread bundles (the test suite
  * writes them once per run, test/setup/thread-bundles.ts): a thread started from a bundle is
@@ -10,7 +13,6 @@
  * open cache files behind (about fifty per thread, which ran a long test out of descriptors).
  */
 import { existsSync } from 'node:fs'
-import { createRequire } from 'node:module'
 import { join, relative } from 'node:path'
 import { fileURLToPath, pathToFileURL } from 'node:url'
 
@@ -19,6 +21,8 @@ export interface WorkerEntry {
   filename: string
   /** Node flags for the thread. */
   execArgv: string[]
+  /** Appended to the thread's process.argv (from source: the TypeScript module to load). */
+  argv: string[]
 }
 
 /** Names the directory of prebuilt thread bundles (runs from source only; unset, threads load through tsx). */
@@ -34,12 +38,10 @@ export function siblingWorkerEntry (callerUrl: string, basename: string): Worker
 
 /** Any worker module (tests use fixtures that wrap the real one). */
 export function workerEntryFor (url: URL): WorkerEntry {
-  if (!url.pathname.endsWith('.ts')) return { filename: url.href, execArgv: [] }
+  if (!url.pathname.endsWith('.ts')) return { filename: url.href, execArgv: [], argv: [] }
   const bundle = prebuiltThreadBundle(url)
-  if (bundle !== null) return { filename: bundle.href, execArgv: [] }
-  // Resolved from here rather than from the working directory, so it works from any cwd.
-  const tsxLoader = pathToFileURL(createRequire(import.meta.url).resolve('tsx')).href
-  return { filename: url.href, execArgv: ['--import', tsxLoader] }
+  if (bundle !== null) return { filename: bundle.href, execArgv: [], argv: [] }
+  return { filename: new URL('./thread-from-source.mjs', import.meta.url).href, execArgv: [], argv: [url.href] }
 }
 
 /** The prebuilt bundle of a TypeScript thread module, when the environment names a directory that holds one. */

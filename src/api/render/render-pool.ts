@@ -24,6 +24,7 @@ export class RenderPool {
     this.#pool = new Piscina({
       filename: entry.filename,
       execArgv: entry.execArgv,
+      argv: entry.argv,
       minThreads: 0,
       maxThreads: 1,
       // Started on the first download, gone after a minute of quiet: an idle server holds no rendering heap.

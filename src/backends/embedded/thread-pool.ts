@@ -27,6 +27,7 @@ export class ChunkThreadPool {
     this.#pool = new Piscina({
       filename: options.entry.filename,
       execArgv: options.entry.execArgv,
+      argv: options.entry.argv,
       minThreads: options.threads,
       maxThreads: options.threads,
       // Threads stay up: starting one under the TypeScript loader costs hundreds of ms.
