@@ -19,6 +19,8 @@ export interface Peers {
   cBinary: string | null
   /** Path of our own C peer for the Glauber workload G1 (bench/peers/glauber.c), or null. */
   glauberBinary: string | null
+  /** The 128-bit bound on D6's arithmetic (bench/peers/softmax128.c), built on x86-64 only, or null. */
+  softmaxBoundBinary: string | null
   /** Our own numpy peer for D4–D7 (bench/peers/models_numpy.py), when python3 with numpy exists. */
   modelsScript: string | null
   numpy: boolean
@@ -38,7 +40,7 @@ export function preparePeers (source: string): Peers {
   const python = version('python3', ['-c', 'import sys, numpy; print(sys.version.split()[0], "numpy", numpy.__version__)'])
   if (!existsSync(join(source, 'peer_c.c'))) {
     notes.push(`peer sources not found at ${source}: peers skipped`)
-    return { dir: null, cBinary: null, glauberBinary: null, modelsScript: null, numpy: false, notes, gcc: gcc ?? 'none', python: python ?? 'none' }
+    return { dir: null, cBinary: null, glauberBinary: null, softmaxBoundBinary: null, modelsScript: null, numpy: false, notes, gcc: gcc ?? 'none', python: python ?? 'none' }
   }
   const dir = join(mkdtempSync(join(tmpdir(), 'memsweep-peers-')), 'bench')
   cpSync(source, dir, { recursive: true })
@@ -61,6 +63,14 @@ export function preparePeers (source: string): Peers {
     if (r.status === 0) glauberBinary = out
     else notes.push(`Glauber C peer failed to build: ${r.stderr.trim().split('\n')[0]}`)
   }
+  // The D6 bound: SSE2 only, the width of WebAssembly SIMD (x86-64 only; elsewhere it is not built).
+  let softmaxBoundBinary: string | null = null
+  if (gcc !== null && process.arch === 'x64') {
+    const out = join(dir, 'softmax128')
+    const r = spawnSync('gcc', ['-O3', '-msse2', '-mno-avx', '-o', out, join(OWN_PEERS, 'softmax128.c')], { encoding: 'utf8' })
+    if (r.status === 0) softmaxBoundBinary = out
+    else notes.push(`D6 bound program failed to build: ${r.stderr.trim().split('\n')[0]}`)
+  }
   if (python === null) notes.push('python3 with numpy not found: numpy peers skipped')
-  return { dir, cBinary, glauberBinary, modelsScript: python !== null ? join(OWN_PEERS, 'models_numpy.py') : null, numpy: python !== null, notes, gcc: gcc ?? 'none', python: python ?? 'none' }
+  return { dir, cBinary, glauberBinary, softmaxBoundBinary, modelsScript: python !== null ? join(OWN_PEERS, 'models_numpy.py') : null, numpy: python !== null, notes, gcc: gcc ?? 'none', python: python ?? 'none' }
 }

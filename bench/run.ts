@@ -78,6 +78,8 @@ for (const d of ['D4', 'D5', 'D6', 'D7']) {
     jobs.push({ label: 'numpy-1t', reps: reps.NP_REPS, workload: d, command: ['env', 'OPENBLAS_NUM_THREADS=1', 'OMP_NUM_THREADS=1', 'python3', peers.modelsScript, d, '--seed', '1'] })
   }
 }
+// What 128-bit vectors can do with D6's arithmetic at best (bench/peers/softmax128.c).
+if (peers?.softmaxBoundBinary) jobs.push({ label: 'c-128', reps: reps.MODEL_REPS, workload: 'D6', command: [peers.softmaxBoundBinary] })
 // Glauber dynamics (G1) against our C peer, exp per visit and tabulated.
 jobs.push({ label: 'memsweep', reps: reps.ENGINE_REPS, workload: 'G1', command: engine('G1', 'fast') })
 jobs.push({ label: 'memsweep', reps: reps.MODEL_PLAIN_REPS, workload: 'G1', command: engine('G1', 'plain') })
