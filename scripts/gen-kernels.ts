@@ -1715,7 +1715,7 @@ function softmax (): string {
       lines.push(`(local.set $w${q} (i8x16.shuffle ${halves} (v128.load (i32.add (local.get $r${2 * q}) (local.get $i))) (v128.load (i32.add (local.get $r${2 * q + 1}) (local.get $i)))))`)
     }
     for (let t = 0; t < 8; t++) {
-      lines.push(`(local.set $sv (f64x2.splat (f64.load offset=${8 * (8 * half + t)} (local.get $sp))))`)
+      lines.push(`(local.set $sv (v128.load64_splat offset=${8 * (8 * half + t)} (local.get $sp)))`)
       for (let q = 0; q < 4; q++) lines.push(`(local.set $a${q} (f64x2.add (local.get $a${q}) (v128.xor (local.get $sv) ${signOf(`(local.get $w${q})`, t)})))`)
     }
     return lines.join('\n          ')
@@ -1792,7 +1792,7 @@ function softmax (): string {
           (local.set $rp (i32.add (i32.add (local.get $pat) (i32.mul (local.get $mb) (local.get $d))) (local.get $i)))
           (local.set $mu (local.get $mb))
           (loop $pattern
-            (local.set $cv (f64x2.splat (f64.load (i32.add (local.get $coef) (i32.shl (local.get $mu) (i32.const 3))))))
+            (local.set $cv (v128.load64_splat (i32.add (local.get $coef) (i32.shl (local.get $mu) (i32.const 3)))))
             (local.set $v0 (v128.load (local.get $rp)))
             ${accumulate.join('\n            ')}
             (local.set $rp (i32.add (local.get $rp) (local.get $d)))
