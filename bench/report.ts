@@ -207,7 +207,7 @@ function modelSection (runs: Run[]): string[] {
     const tp = median0(plain)
     const tn = median0(np)
     const tn1 = median0(np1)
-    const bestNumpy = Math.min(Number.isFinite(tn) ? tn : Infinity, Number.isFinite(tn1) ? tn1 : Infinity)
+    const bestNumpy = bestNumpyTime(runs, w)
     const same = plain.length === 0 ? '-' : new Set([...fast, ...plain].map(signatureOf)).size === 1 ? 'yes' : 'NO'
     const vsPlain = tp / tf
     const vsNumpy = bestNumpy / tf
@@ -231,6 +231,15 @@ function modelSection (runs: Run[]): string[] {
   ]
 }
 
+/** The faster of the numpy peer's medians (default BLAS threads, one thread) on a model workload; Infinity when neither ran. */
+function bestNumpyTime (runs: Run[], workload: string): number {
+  const medians = ['numpy', 'numpy-1t']
+    .map((label) => runs.filter((r) => r.workload === workload && r.label === label))
+    .filter((rs) => rs.length > 0)
+    .map((rs) => median(rs.map(timeOf)))
+  return Math.min(...medians)
+}
+
 /**
  * The D6 bound (bench/peers/softmax128.c): its time scaled to the engine's own passes in D6
  * (two per update, one for the final overlaps of each trial), beside numpy's. Returns the
@@ -240,11 +249,10 @@ function softmaxBound (runs: Run[]): string[] {
   const bound = runs.filter((r) => r.workload === 'D6' && r.label === 'c-128')
   const fastRuns = runs.filter((r) => r.workload === 'D6' && r.label === 'memsweep' && r.variant === 'fast')
   const fast = fastRuns[0]
-  const np = runs.filter((r) => r.workload === 'D6' && (r.label === 'numpy' || r.label === 'numpy-1t'))
   if (bound.length === 0 || fast === undefined) return []
   const enginePasses = 2 * (fast.sweeps as number) + (fast.trials as number)
   const scaled = median(bound.map((r) => (r.sim_s as number) * enginePasses / (r.passes as number)))
-  const numpyBest = np.length > 0 ? Math.min(...['numpy', 'numpy-1t'].map((l) => np.filter((r) => r.label === l)).filter((rs) => rs.length > 0).map((rs) => median(rs.map(timeOf)))) : Number.NaN
+  const numpyBest = bestNumpyTime(runs, 'D6')
   return [
     '',
     `D6 and 128-bit vectors: the kernel must add every term of every sum in the plain order, one double at a time per lane and never fused (its outputs equal the plain JavaScript's bit for bit), and WebAssembly SIMD holds two doubles a vector. bench/peers/softmax128.c does only that arithmetic, ${enginePasses} passes over the patterns as the engine's D6 run made (2 × ${String(fast.sweeps)} updates + ${String(fast.trials)} final overlap passes), in gcc -O3 SSE2 code with the ±1 entries stored as ready sign masks (8 bytes an entry; the engine keeps 1 and derives each mask) and nothing else to do. It takes ${ms(scaled)} (median of ${bound.length} runs)${Number.isFinite(numpyBest) ? `, ${ratio(scaled / numpyBest)} numpy's best time of ${ms(numpyBest)}, which uses this machine's wider vectors and fused multiply-adds` : ''}; the engine takes ${ms(median(fastRuns.map(timeOf)))} (median). Even this idealised code of the same arithmetic falls short of numpy: meeting the D6 numpy target would take wider vectors than WebAssembly has.`

@@ -1,8 +1,8 @@
 /**
  * The sandboxed processor: BullMQ runs this module (through sandbox.ts) in a worker thread of
- * the worker process, so a CPU-bound chunk never blocks the process's lock renewals. It handles two
- * jobs: `chunk` (run a chunk's trials and store its result) and `assemble` (turn a
- * finished sweep's chunk results into the sweep result).
+ * the worker process, so a CPU-bound chunk never blocks the process's lock renewals. It
+ * handles two jobs: `chunk` (run a chunk's trials and store its result) and `assemble` (turn
+ * a finished sweep's chunk results into the sweep result).
  *
  * Exactly-once in effect: a chunk's result is stored under its index (a retry overwrites
  * it with the same bytes and counts nothing), the chunk that completes the count enqueues

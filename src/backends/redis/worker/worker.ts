@@ -13,7 +13,7 @@ import type { Redis } from 'ioredis'
 import type { Logger } from 'pino'
 import { systemFailure } from '../../../sweep/index.js'
 import { threadExecArgv } from '../../../runtime/node-flags.js'
-import { prebuiltThreadBundle } from '../../../runtime/worker-entry.js'
+import { siblingWorkerEntry } from '../../../runtime/worker-entry.js'
 import { ChunkQueue, DEFAULT_RETRY_POLICY, SWEEP_GONE, type ChunkRetryPolicy, type SweepJobData, type SweepJobName } from '../chunk-queue.js'
 import { closeConnection, openConnection, redactUrl, workerConnectionOptions } from '../connections.js'
 import { EpochWatch } from '../data-loss.js'
@@ -142,16 +142,6 @@ const DEFAULT_RETENTION_SECONDS = 7 * 24 * 3600
 type SweepJob = Job<SweepJobData, unknown, SweepJobName>
 
 /**
- * The processor module: compiled JavaScript beside this file; from source, a prebuilt bundle
- * when the environment names one (src/runtime/worker-entry.ts), else a loader that runs the
- * TypeScript source through tsx.
- */
-function processorFile (): URL {
-  if (!import.meta.url.endsWith('.ts')) return new URL('./sandbox.js', import.meta.url)
-  return prebuiltThreadBundle(new URL('./sandbox.ts', import.meta.url)) ?? new URL('./processor-from-source.mjs', import.meta.url)
-}
-
-/**
  * BullMQ pipes each sandbox thread's stdout and stderr into this process's, one set of
  * listeners per thread on each: a worker of more than ten threads (or several workers in one
  * process) would set off Node's leak warning for listeners it means to have. Raises the limit
@@ -206,13 +196,15 @@ export async function startWorker (options: WorkerProcessOptions): Promise<Runni
   }
 
   const releaseThreadPipes = allowThreadPipes(concurrency)
-  const worker = new Worker<SweepJobData, unknown, SweepJobName>(CHUNK_QUEUE_NAME, processorFile(), {
+  // The sandbox threads' module, started as every thread module is (src/runtime/worker-entry.ts).
+  const entry = siblingWorkerEntry(import.meta.url, 'sandbox')
+  const worker = new Worker<SweepJobData, unknown, SweepJobName>(CHUNK_QUEUE_NAME, new URL(entry.filename), {
     connection: workerConnectionOptions(options.url, `${name}:bullmq`),
     prefix: keys.bullPrefix,
     name,
     concurrency,
     useWorkerThreads: true,
-    workerThreadsOptions: { workerData: sandbox, execArgv: threadExecArgv() },
+    workerThreadsOptions: { workerData: sandbox, execArgv: threadExecArgv(), argv: entry.argv },
     lockDuration: options.lockDurationMs ?? 30_000,
     stalledInterval: options.stalledIntervalMs ?? 30_000,
     maxStalledCount: 1,
